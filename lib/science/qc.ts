@@ -1,0 +1,110 @@
+// Well QC: each well against the screen's thresholds, with every reason it fails.
+import { resolveQcThresholds, type QcThresholds } from './qc-thresholds';
+import type { RawValue, WellRole } from './well';
+
+/** The readouts of one well, as imported (values may be missing or text). */
+export interface QcWell {
+  wellId: string;
+  role: WellRole;
+  controlCurrent_pA: RawValue;
+  compoundCurrent_pA: RawValue;
+  sealResistance_GOhm: RawValue;
+  seriesResistance_MOhm: RawValue;
+  capacitance_pF: RawValue;
+}
+
+export type QcField = 'controlCurrent_pA' | 'compoundCurrent_pA' | 'sealResistance_GOhm' | 'seriesResistance_MOhm' | 'capacitance_pF';
+
+export type QcReasonCode =
+  | 'missing_value'
+  | 'non_numeric_value'
+  | 'seal_resistance_low'
+  | 'seal_resistance_high'
+  | 'control_current_small'
+  | 'series_resistance_low'
+  | 'series_resistance_high'
+  | 'capacitance_out_of_range'
+  | 'vehicle_rundown';
+
+export interface QcReason {
+  code: QcReasonCode;
+  /** The readout concerned; null for reasons that combine readouts. */
+  field: QcField | null;
+  message: string;
+}
+
+export interface QcResult {
+  wellId: string;
+  passed: boolean;
+  reasons: QcReason[];
+}
+
+const LABELS: Record<QcField, [string, string]> = {
+  controlCurrent_pA: ['control current', 'pA'],
+  compoundCurrent_pA: ['compound current', 'pA'],
+  sealResistance_GOhm: ['seal resistance', 'GΩ'],
+  seriesResistance_MOhm: ['series resistance', 'MΩ'],
+  capacitance_pF: ['capacitance', 'pF'],
+};
+
+/** Checks every well against the screen's thresholds (defaults where not given); one result per well, in order. */
+export function checkWells(wells: readonly QcWell[], thresholds?: Partial<QcThresholds>): QcResult[] {
+  const t = resolveQcThresholds(thresholds);
+  return wells.map((well) => checkWell(well, t));
+}
+
+function checkWell(well: QcWell, t: QcThresholds): QcResult {
+  const reasons: QcReason[] = [];
+  const read = (field: QcField, needed: boolean): number | null => (needed ? numeric(well, field, reasons) : null);
+  const control = read('controlCurrent_pA', true);
+  const compound = read('compoundCurrent_pA', true);
+  const seal = read('sealResistance_GOhm', t.sealResistanceMin_GOhm !== null || t.sealResistanceMax_GOhm !== null);
+  const series = read('seriesResistance_MOhm', t.seriesResistanceMin_MOhm !== null || t.seriesResistanceMax_MOhm !== null);
+  const capacitance = read('capacitance_pF', t.capacitanceMin_pF !== null || t.capacitanceMax_pF !== null);
+  const say = (code: QcReasonCode, field: QcField | null, message: string) => reasons.push({ code, field, message });
+
+  if (seal !== null && t.sealResistanceMin_GOhm !== null && seal < t.sealResistanceMin_GOhm) {
+    say('seal_resistance_low', 'sealResistance_GOhm', `Seal resistance ${seal} GΩ is below the minimum of ${t.sealResistanceMin_GOhm} GΩ.`);
+  }
+  if (seal !== null && t.sealResistanceMax_GOhm !== null && seal > t.sealResistanceMax_GOhm) {
+    say('seal_resistance_high', 'sealResistance_GOhm', `Seal resistance ${seal} GΩ is above the plausible maximum of ${t.sealResistanceMax_GOhm} GΩ.`);
+  }
+  if (control !== null && t.controlCurrentMin_pA !== null && Math.abs(control) < t.controlCurrentMin_pA) {
+    say('control_current_small', 'controlCurrent_pA', `Control current ${control} pA is smaller than the minimum amplitude of ${t.controlCurrentMin_pA} pA.`);
+  }
+  if (series !== null && t.seriesResistanceMin_MOhm !== null && series < t.seriesResistanceMin_MOhm) {
+    say('series_resistance_low', 'seriesResistance_MOhm', `Series resistance ${series} MΩ is below the plausible minimum of ${t.seriesResistanceMin_MOhm} MΩ.`);
+  }
+  if (series !== null && t.seriesResistanceMax_MOhm !== null && series > t.seriesResistanceMax_MOhm) {
+    say('series_resistance_high', 'seriesResistance_MOhm', `Series resistance ${series} MΩ is above the maximum of ${t.seriesResistanceMax_MOhm} MΩ.`);
+  }
+  if (capacitance !== null && outside(capacitance, t.capacitanceMin_pF, t.capacitanceMax_pF)) {
+    say('capacitance_out_of_range', 'capacitance_pF', `Capacitance ${capacitance} pF is outside the range ${t.capacitanceMin_pF ?? '–'} to ${t.capacitanceMax_pF ?? '–'} pF.`);
+  }
+  if (well.role === 'vehicle' && control !== null && compound !== null && control !== 0 && t.vehicleRundownMax !== null) {
+    const rundown = 1 - compound / control;
+    if (rundown > t.vehicleRundownMax) {
+      say('vehicle_rundown', null, `Vehicle well ran down by ${Math.round(rundown * 100)} %, more than the limit of ${Math.round(t.vehicleRundownMax * 100)} %.`);
+    }
+  }
+  return { wellId: well.wellId, passed: reasons.length === 0, reasons };
+}
+
+/** The field as a finite number, or null after recording why it is missing or not a number. */
+function numeric(well: QcWell, field: QcField, reasons: QcReason[]): number | null {
+  const value = well[field];
+  const [label] = LABELS[field];
+  if (value === null || value === undefined || (typeof value === 'string' && value.trim() === '')) {
+    reasons.push({ code: 'missing_value', field, message: `The ${label} is missing.` });
+    return null;
+  }
+  if (typeof value !== 'number' || !Number.isFinite(value)) {
+    reasons.push({ code: 'non_numeric_value', field, message: `The ${label} (${JSON.stringify(String(value))}) is not a number in ${LABELS[field][1]}.` });
+    return null;
+  }
+  return value;
+}
+
+function outside(value: number, min: number | null, max: number | null): boolean {
+  return (min !== null && value < min) || (max !== null && value > max);
+}
