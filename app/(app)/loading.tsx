@@ -1,0 +1,9 @@
+export default function Loading() {
+  return (
+    <div role="status" aria-live="polite" className="space-y-3">
+      <div className="h-7 w-48 animate-pulse rounded bg-ink-100" />
+      <div className="h-40 animate-pulse rounded-lg bg-ink-100" />
+      <span className="sr-only">Loading…</span>
+    </div>
+  );
+}

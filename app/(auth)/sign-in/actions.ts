@@ -1,0 +1,54 @@
+'use server';
+
+import { redirect } from 'next/navigation';
+import { z } from 'zod';
+import { recordAudit } from '@/lib/audit/record';
+import { currentActor } from '@/lib/auth/current-actor';
+import { requestAddress } from '@/lib/auth/request-address';
+import { getSession } from '@/lib/auth/session';
+import { signIn } from '@/lib/auth/sign-in';
+import { db } from '@/lib/db';
+import { safeNextPath, signInSchema } from '@/lib/validation/auth';
+
+export interface SignInState {
+  message?: string;
+  fieldErrors?: { email?: string[]; password?: string[] };
+  email?: string;
+}
+
+/** Signs a person in; on success a fresh session cookie replaces any earlier one. */
+export async function signInAction(_previous: SignInState, formData: FormData): Promise<SignInState> {
+  const parsed = signInSchema.safeParse(Object.fromEntries(formData));
+  if (!parsed.success) {
+    return { fieldErrors: z.flattenError(parsed.error).fieldErrors, email: String(formData.get('email') ?? '') };
+  }
+  const { email, password, next } = parsed.data;
+  const result = await signIn(email, password, await requestAddress());
+  if (!result.ok) {
+    const message =
+      result.reason === 'throttled'
+        ? 'Too many failed sign-ins. Wait 15 minutes, then try again.'
+        : 'That e-mail and password do not match an active account.';
+    return { message, email };
+  }
+
+  const session = await getSession();
+  session.destroy();
+  const now = Date.now();
+  Object.assign(session, { userId: result.userId, sessionVersion: result.sessionVersion, issuedAt: now, lastSeenAt: now });
+  await session.save();
+  redirect(safeNextPath(next));
+}
+
+/** Ends the session and records the sign-out. */
+export async function signOutAction(): Promise<void> {
+  const actor = await currentActor();
+  const session = await getSession();
+  session.destroy();
+  if (actor) {
+    await db().transaction((transaction) =>
+      recordAudit({ actorId: actor.id, action: 'sign_out', entityType: 'session', entityId: actor.id, address: actor.address }, transaction),
+    );
+  }
+  redirect('/sign-in');
+}

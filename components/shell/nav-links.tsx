@@ -1,0 +1,33 @@
+'use client';
+
+import Link from 'next/link';
+import { usePathname } from 'next/navigation';
+import type { NavItem } from './nav-items';
+
+function isActive(pathname: string, href: string): boolean {
+  return href === '/' ? pathname === '/' : pathname === href || pathname.startsWith(`${href}/`);
+}
+
+export function NavLinks({ items }: { items: NavItem[] }) {
+  const pathname = usePathname();
+  return (
+    <ul className="flex gap-1 overflow-x-auto lg:flex-col">
+      {items.map((item) => {
+        const active = isActive(pathname, item.href);
+        return (
+          <li key={item.href}>
+            <Link
+              href={item.href}
+              aria-current={active ? 'page' : undefined}
+              className={`block whitespace-nowrap rounded-md px-3 py-2 text-sm font-medium ${
+                active ? 'bg-lagoon-700 text-white' : 'text-ink-100 hover:bg-ink-800 hover:text-white'
+              }`}
+            >
+              {item.label}
+            </Link>
+          </li>
+        );
+      })}
+    </ul>
+  );
+}

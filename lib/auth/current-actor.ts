@@ -1,0 +1,38 @@
+import 'server-only';
+import { redirect } from 'next/navigation';
+import { cache } from 'react';
+import { db } from '@/lib/db';
+import { User, UserRole } from '@/models';
+import type { Actor, Role } from './roles';
+import { requestAddress } from './request-address';
+import { getSession } from './session';
+import { sessionIsFresh } from './session-config';
+
+/** Loads an enabled user with roles, or null; shared by the session check and sign-in. */
+export async function loadActor(userId: string, address: string): Promise<(Actor & { sessionVersion: number }) | null> {
+  db();
+  const user = await User.findByPk(userId, { include: [{ model: UserRole, as: 'roles' }] });
+  if (!user || user.disabledAt) return null;
+  const roles = ((user.get('roles') as UserRole[] | undefined) ?? []).map((r) => r.role as Role).sort();
+  return { id: user.id, email: user.email, name: user.name, roles, address, sessionVersion: user.sessionVersion };
+}
+
+/**
+ * The signed-in actor of this request, or null when the session is missing, expired, belongs to a
+ * disabled user, or predates a password change (session_version moved on).
+ */
+export const currentActor = cache(async (): Promise<Actor | null> => {
+  const session = await getSession();
+  if (!sessionIsFresh(session)) return null;
+  const actor = await loadActor(session.userId!, await requestAddress());
+  if (!actor || actor.sessionVersion !== session.sessionVersion) return null;
+  const { sessionVersion: _version, ...rest } = actor;
+  return rest;
+});
+
+/** For pages: the actor, or a redirect to sign-in. */
+export async function requireActor(): Promise<Actor> {
+  const actor = await currentActor();
+  if (!actor) redirect('/sign-in');
+  return actor;
+}

@@ -1,0 +1,24 @@
+import { AppError } from '@/lib/errors';
+import type { Role } from '@/models/user-role';
+
+export { ROLES, type Role } from '@/models/user-role';
+
+/** The signed-in person as every service function receives it. */
+export interface Actor {
+  id: string;
+  email: string;
+  name: string;
+  roles: Role[];
+  address: string;
+}
+
+export function hasRole(actor: Actor, ...roles: Role[]): boolean {
+  return roles.some((role) => actor.roles.includes(role));
+}
+
+/** Refuses the call unless the actor holds at least one of the roles. */
+export function requireRole(actor: Actor, ...roles: Role[]): void {
+  if (!hasRole(actor, ...roles)) {
+    throw new AppError('forbidden', `This needs the ${roles.join(' or ')} role.`);
+  }
+}

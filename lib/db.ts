@@ -1,0 +1,34 @@
+import 'server-only';
+import pg from 'pg';
+import { Sequelize } from 'sequelize';
+import { initModels } from '@/models';
+import { env } from './env';
+
+// Numeric and bigint columns come back as JavaScript numbers (ids of audit rows stay far below 2^53).
+pg.types.setTypeParser(pg.types.builtins.INT8, (value: string) => Number(value));
+
+const globalForDb = globalThis as unknown as { gatewellSequelize?: Sequelize };
+let modelsReady = false;
+
+function connect(): Sequelize {
+  return new Sequelize(env().DATABASE_URL, {
+    dialect: 'postgres',
+    dialectModule: pg,
+    logging: false,
+    pool: { max: 10, min: 0, idle: 10_000, acquire: 30_000 },
+    define: { underscored: true },
+  });
+}
+
+/**
+ * The one Sequelize instance, kept on globalThis so that hot reload and Next's separate server bundles
+ * share one pool. Each bundle has its own copy of the model classes, so each copy is registered here.
+ */
+export function db(): Sequelize {
+  globalForDb.gatewellSequelize ??= connect();
+  if (!modelsReady) {
+    initModels(globalForDb.gatewellSequelize);
+    modelsReady = true;
+  }
+  return globalForDb.gatewellSequelize;
+}

@@ -1,0 +1,48 @@
+import 'server-only';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { Screen, Target } from '@/models';
+
+export interface ScreenDetail {
+  id: string;
+  name: string;
+  description: string;
+  neuronPreset: string;
+  zprimeMin: number;
+  sealMinGohm: number;
+  controlCurrentMinPa: number;
+  seriesMaxMohm: number;
+  capacitanceMinPf: number;
+  capacitanceMaxPf: number;
+  rundownMaxFraction: number;
+  exposuresUm: number[];
+  targets: { id: string; name: string; conductance: string }[];
+}
+
+/** Screens with their targets and QC thresholds, by name. */
+export async function listScreens(actor: Actor): Promise<ScreenDetail[]> {
+  void actor; // every signed-in role may read screens
+  db();
+  const screens = await Screen.findAll({
+    include: [{ model: Target, as: 'targets' }],
+    order: [['name', 'ASC'], [{ model: Target, as: 'targets' }, 'name', 'ASC']],
+  });
+  return screens.map((screen) => {
+    const plain = screen.get({ plain: true }) as Screen & { targets: Target[] };
+    return {
+      id: plain.id,
+      name: plain.name,
+      description: plain.description,
+      neuronPreset: plain.neuronPreset,
+      zprimeMin: plain.zprimeMin,
+      sealMinGohm: plain.sealMinGohm,
+      controlCurrentMinPa: plain.controlCurrentMinPa,
+      seriesMaxMohm: plain.seriesMaxMohm,
+      capacitanceMinPf: plain.capacitanceMinPf,
+      capacitanceMaxPf: plain.capacitanceMaxPf,
+      rundownMaxFraction: plain.rundownMaxFraction,
+      exposuresUm: plain.exposuresUm,
+      targets: plain.targets.map((t) => ({ id: t.id, name: t.name, conductance: t.conductance })),
+    };
+  });
+}

@@ -1,0 +1,57 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+export const FIT_MODELS = ['hill2', 'hill4'] as const;
+export type FitModel = (typeof FIT_MODELS)[number];
+export const FIT_STATUSES = ['fitted', 'above_range', 'inactive', 'insufficient', 'not_converged'] as const;
+export type FitStatus = (typeof FIT_STATUSES)[number];
+
+/** The Hill fit of one compound on one target of one plate. */
+export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit>> {
+  declare id: CreationOptional<string>;
+  declare plateId: string;
+  declare compoundId: string;
+  declare targetId: string;
+  declare model: CreationOptional<FitModel>;
+  declare status: FitStatus;
+  declare message: CreationOptional<string>;
+  declare ic50Um: number | null;
+  declare ic50CiLowUm: number | null;
+  declare ic50CiHighUm: number | null;
+  declare log10Ic50Se: number | null;
+  declare hill: number | null;
+  declare top: number | null;
+  declare bottom: number | null;
+  declare r2: number | null;
+  declare residualSd: number | null;
+  declare n: number;
+  declare flags: CreationOptional<string[]>;
+  declare computedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize): void {
+    const value = { type: DataTypes.DOUBLE, allowNull: true };
+    Fit.init(
+      {
+        id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+        plateId: { type: DataTypes.UUID, allowNull: false },
+        compoundId: { type: DataTypes.UUID, allowNull: false },
+        targetId: { type: DataTypes.UUID, allowNull: false },
+        model: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'hill2' },
+        status: { type: DataTypes.TEXT, allowNull: false },
+        message: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        ic50Um: { ...value, field: 'ic50_um' },
+        ic50CiLowUm: { ...value, field: 'ic50_ci_low_um' },
+        ic50CiHighUm: { ...value, field: 'ic50_ci_high_um' },
+        log10Ic50Se: { ...value, field: 'log10_ic50_se' },
+        hill: value,
+        top: value,
+        bottom: value,
+        r2: value,
+        residualSd: value,
+        n: { type: DataTypes.INTEGER, allowNull: false },
+        flags: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        computedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+      },
+      { sequelize, tableName: 'fits', underscored: true, timestamps: false },
+    );
+  }
+}

@@ -1,0 +1,51 @@
+import type { Sequelize } from 'sequelize';
+import { AuditEvent } from './audit-event';
+import { Batch } from './batch';
+import { Compound } from './compound';
+import { Fit } from './fit';
+import { Forecast } from './forecast';
+import { ImportTemplate } from './import-template';
+import { LoginAttempt } from './login-attempt';
+import { Plate } from './plate';
+import { Readout } from './readout';
+import { Screen } from './screen';
+import { Signature } from './signature';
+import { SignoffEvent } from './signoff-event';
+import { Target } from './target';
+import { UploadedFile } from './uploaded-file';
+import { User } from './user';
+import { UserRole } from './user-role';
+import { Well } from './well';
+
+export { AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
+
+const models = [AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
+
+/** Registers every model and association on one Sequelize instance. */
+export function initModels(sequelize: Sequelize): void {
+  for (const model of models) model.initModel(sequelize);
+
+  User.hasMany(UserRole, { foreignKey: 'userId', as: 'roles' });
+  UserRole.belongsTo(User, { foreignKey: 'userId' });
+  Screen.hasMany(Target, { foreignKey: 'screenId', as: 'targets' });
+  Target.belongsTo(Screen, { foreignKey: 'screenId', as: 'screen' });
+  Compound.hasMany(Batch, { foreignKey: 'compoundId', as: 'batches' });
+  Batch.belongsTo(Compound, { foreignKey: 'compoundId', as: 'compound' });
+  Plate.belongsTo(Screen, { foreignKey: 'screenId', as: 'screen' });
+  Plate.belongsTo(UploadedFile, { foreignKey: 'uploadedFileId', as: 'file' });
+  Plate.belongsTo(User, { foreignKey: 'importedBy', as: 'importer' });
+  Plate.hasMany(Well, { foreignKey: 'plateId', as: 'wells' });
+  Plate.hasMany(Fit, { foreignKey: 'plateId', as: 'fits' });
+  Plate.hasMany(SignoffEvent, { foreignKey: 'plateId', as: 'signoffEvents' });
+  Well.belongsTo(Plate, { foreignKey: 'plateId', as: 'plate' });
+  Well.belongsTo(Compound, { foreignKey: 'compoundId', as: 'compound' });
+  Well.hasMany(Readout, { foreignKey: 'wellId', as: 'readouts' });
+  Readout.belongsTo(Well, { foreignKey: 'wellId', as: 'well' });
+  Readout.belongsTo(Target, { foreignKey: 'targetId', as: 'target' });
+  Fit.belongsTo(Compound, { foreignKey: 'compoundId', as: 'compound' });
+  Fit.belongsTo(Target, { foreignKey: 'targetId', as: 'target' });
+  Fit.belongsTo(Plate, { foreignKey: 'plateId', as: 'plate' });
+  SignoffEvent.belongsTo(Signature, { foreignKey: 'signatureId', as: 'signature' });
+  Signature.belongsTo(User, { foreignKey: 'signerId', as: 'signer' });
+  AuditEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+}

@@ -1,0 +1,48 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+export const PLATE_STATES = ['imported', 'verified', 'submitted', 'approved', 'rejected'] as const;
+export type PlateState = (typeof PLATE_STATES)[number];
+export const PLATE_FORMATS = [96, 384, 1536] as const;
+export type PlateFormat = (typeof PLATE_FORMATS)[number];
+
+/** One imported plate and where it stands in sign-off; version guards concurrent transitions. */
+export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes<Plate>> {
+  declare id: CreationOptional<string>;
+  declare screenId: string;
+  declare uploadedFileId: string;
+  declare importTemplateId: string | null;
+  declare supersedesPlateId: string | null;
+  declare label: string;
+  declare format: PlateFormat;
+  declare state: CreationOptional<PlateState>;
+  declare version: CreationOptional<number>;
+  declare importedBy: string;
+  declare verifiedBy: string | null;
+  declare submittedBy: string | null;
+  declare decidedBy: string | null;
+  declare importedAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize): void {
+    Plate.init(
+      {
+        id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+        screenId: { type: DataTypes.UUID, allowNull: false },
+        uploadedFileId: { type: DataTypes.UUID, allowNull: false },
+        importTemplateId: { type: DataTypes.UUID, allowNull: true },
+        supersedesPlateId: { type: DataTypes.UUID, allowNull: true },
+        label: { type: DataTypes.TEXT, allowNull: false },
+        format: { type: DataTypes.SMALLINT, allowNull: false },
+        state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'imported' },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+        importedBy: { type: DataTypes.UUID, allowNull: false },
+        verifiedBy: { type: DataTypes.UUID, allowNull: true },
+        submittedBy: { type: DataTypes.UUID, allowNull: true },
+        decidedBy: { type: DataTypes.UUID, allowNull: true },
+        importedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'plates', underscored: true, createdAt: false },
+    );
+  }
+}

@@ -1,0 +1,49 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+export const WELL_ROLES = ['vehicle', 'reference', 'test'] as const;
+export type WellRole = (typeof WELL_ROLES)[number];
+
+/** One well (one cell): what it holds and the recording's cell properties; never deleted, only excluded. */
+export class Well extends Model<InferAttributes<Well>, InferCreationAttributes<Well>> {
+  declare id: CreationOptional<string>;
+  declare plateId: string;
+  declare position: string;
+  declare rowIndex: number;
+  declare columnIndex: number;
+  declare role: WellRole;
+  declare compoundId: string | null;
+  declare batchId: string | null;
+  declare concentrationUm: number | null;
+  declare sealResistanceGohm: number | null;
+  declare seriesResistanceMohm: number | null;
+  declare capacitancePf: number | null;
+  declare excluded: CreationOptional<boolean>;
+  declare exclusionReason: string | null;
+  declare excludedBy: string | null;
+  declare excludedAt: Date | null;
+
+  static initModel(sequelize: Sequelize): void {
+    const measure = { type: DataTypes.DOUBLE, allowNull: true };
+    Well.init(
+      {
+        id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+        plateId: { type: DataTypes.UUID, allowNull: false },
+        position: { type: DataTypes.TEXT, allowNull: false },
+        rowIndex: { type: DataTypes.SMALLINT, allowNull: false },
+        columnIndex: { type: DataTypes.SMALLINT, allowNull: false },
+        role: { type: DataTypes.TEXT, allowNull: false },
+        compoundId: { type: DataTypes.UUID, allowNull: true },
+        batchId: { type: DataTypes.UUID, allowNull: true },
+        concentrationUm: measure,
+        sealResistanceGohm: measure,
+        seriesResistanceMohm: measure,
+        capacitancePf: measure,
+        excluded: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        exclusionReason: { type: DataTypes.TEXT, allowNull: true },
+        excludedBy: { type: DataTypes.UUID, allowNull: true },
+        excludedAt: { type: DataTypes.DATE, allowNull: true },
+      },
+      { sequelize, tableName: 'wells', underscored: true, timestamps: false },
+    );
+  }
+}

@@ -1,0 +1,41 @@
+import { defineConfig, devices } from '@playwright/test';
+
+const port = Number(process.env.GATEWELL_E2E_PORT ?? 4311);
+
+// End-to-end tests drive Debian's Chromium against the production build that scripts/test.sh made.
+export default defineConfig({
+  testDir: 'tests/e2e',
+  outputDir: 'test-output/playwright-artifacts',
+  fullyParallel: false,
+  workers: 1,
+  retries: 0,
+  timeout: 60_000,
+  reporter: [['list'], ['json', { outputFile: 'test-output/playwright.json' }]],
+  use: {
+    baseURL: `http://127.0.0.1:${port}`,
+    trace: 'retain-on-failure',
+    screenshot: 'only-on-failure',
+    viewport: { width: 1280, height: 860 },
+  },
+  projects: [
+    {
+      name: 'chromium',
+      use: {
+        ...devices['Desktop Chrome'],
+        viewport: { width: 1280, height: 860 },
+        launchOptions: {
+          executablePath: '/usr/bin/chromium',
+          args: ['--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+        },
+      },
+    },
+  ],
+  webServer: {
+    command: `npx next start --port ${port} --hostname 127.0.0.1`,
+    url: `http://127.0.0.1:${port}/api/health`,
+    reuseExistingServer: false,
+    timeout: 120_000,
+    stdout: 'ignore',
+    stderr: 'pipe',
+  },
+});

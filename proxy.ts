@@ -1,0 +1,42 @@
+import { sealData, unsealData } from 'iron-session';
+import { NextResponse, type NextRequest } from 'next/server';
+import { sessionIsFresh, sessionOptions, type SessionData } from '@/lib/auth/session-config';
+
+// Paths that anonymous visitors may open. API routes answer 401 themselves, so they pass through too.
+const PUBLIC_PREFIXES = ['/sign-in', '/api/', '/_next/', '/favicon'];
+
+/** Sends anonymous or expired visitors to sign-in, and keeps an active session's idle clock current. */
+export async function proxy(request: NextRequest) {
+  const { pathname, search } = request.nextUrl;
+  const options = sessionOptions();
+  const sealed = request.cookies.get(options.cookieName)?.value;
+  let session: SessionData = {};
+  if (sealed) {
+    try {
+      session = await unsealData<SessionData>(sealed, { password: options.password, ttl: options.ttl ?? 0 });
+    } catch {
+      session = {};
+    }
+  }
+  const fresh = sessionIsFresh(session);
+
+  if (!fresh && !PUBLIC_PREFIXES.some((prefix) => pathname.startsWith(prefix))) {
+    const url = request.nextUrl.clone();
+    url.pathname = '/sign-in';
+    url.search = pathname === '/' ? '' : `?next=${encodeURIComponent(pathname + search)}`;
+    const response = NextResponse.redirect(url);
+    if (sealed) response.cookies.delete(options.cookieName);
+    return response;
+  }
+
+  const response = NextResponse.next();
+  if (fresh && !pathname.startsWith('/_next/')) {
+    const renewed = await sealData({ ...session, lastSeenAt: Date.now() }, { password: options.password, ttl: options.ttl ?? 0 });
+    response.cookies.set(options.cookieName, renewed, { ...options.cookieOptions, maxAge: (options.ttl ?? 0) - 60 });
+  }
+  return response;
+}
+
+export const config = {
+  matcher: ['/((?!_next/static|_next/image|favicon.ico).*)'],
+};

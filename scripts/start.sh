@@ -1,0 +1,23 @@
+#!/usr/bin/env bash
+# Gatewell with demo data on http://127.0.0.1:4310 — installs what is missing, starts PostgreSQL,
+# migrates, seeds, builds and serves. Safe to run again.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
+
+ensure_node_modules
+ensure_session_secret
+bash scripts/pg.sh start dev
+DATABASE_URL=$(bash scripts/pg.sh url dev)
+export DATABASE_URL
+export PORT=${PORT:-4310}
+export APP_URL=${APP_URL:-http://127.0.0.1:$PORT}
+
+say "migrating and seeding the demo database"
+migrate
+seed
+
+say "building"
+npx next build >/dev/null
+
+say "serving Gatewell on $APP_URL (Ctrl-C stops it; PostgreSQL keeps running: scripts/pg.sh stop dev)"
+exec npx next start --port "$PORT" --hostname 127.0.0.1

@@ -1,0 +1,35 @@
+#!/usr/bin/env bash
+# Every Gatewell test on a fresh machine: installs what is missing, starts its own PostgreSQL test
+# cluster, then lint, type check, Vitest (unit + integration on the real database) and Playwright
+# (end-to-end in Debian's Chromium against a production build). Ends with "N passed, N failed".
+set -uo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
+set -e
+
+ensure_node_modules
+ensure_chromium
+bash scripts/pg.sh reset test
+DATABASE_URL=$(bash scripts/pg.sh url test)
+export DATABASE_URL
+export SESSION_SECRET=${TEST_SESSION_SECRET:-gatewell-test-secret-0123456789-abcdefghij}
+export GATEWELL_E2E_PORT=${GATEWELL_E2E_PORT:-4311}
+export APP_URL=http://127.0.0.1:$GATEWELL_E2E_PORT
+export GATEWELL_DIST_DIR=.next-test
+set +e
+
+rm -rf test-output && mkdir -p test-output/screenshots
+status=0
+step() { say "$1"; shift; "$@" || { status=1; say "FAILED: $*"; }; }
+
+step "lint (eslint)" npx eslint . --max-warnings=0
+step "type check (tsc)" npx tsc --noEmit -p .
+step "migrating the test database" migrate
+step "unit and integration tests (vitest)" npx vitest run
+
+# End-to-end tests start from a fresh database with the demo data.
+step "resetting the test database for end-to-end tests" bash -c 'bash scripts/pg.sh reset test && npx sequelize-cli db:migrate >/dev/null && npx sequelize-cli db:seed:all >/dev/null'
+step "production build" bash -c 'npx next build >test-output/build.log 2>&1 || { tail -n 40 test-output/build.log; exit 1; }'
+step "end-to-end tests (playwright)" npx playwright test
+
+node scripts/test-summary.mjs
+exit $status
