@@ -1,0 +1,52 @@
+import 'server-only';
+import { NextResponse, type NextRequest } from 'next/server';
+import { ZodError, z } from 'zod';
+import { currentActor } from '@/lib/auth/current-actor';
+import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { env } from '@/lib/env';
+import { AppError, isAppError } from '@/lib/errors';
+
+type RouteContext<Params> = { params: Promise<Params> };
+type Handler<Params> = (request: NextRequest, actor: Actor, context: RouteContext<Params>) => Promise<Response>;
+
+const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+/** Route handlers have no CSRF check of their own: a changing request must come from our own origin. */
+function checkOrigin(request: NextRequest): void {
+  if (SAFE_METHODS.has(request.method)) return;
+  const origin = request.headers.get('origin');
+  const allowed = new Set([new URL(env().APP_URL).origin, request.nextUrl.origin]);
+  if (!origin || !allowed.has(origin)) {
+    throw new AppError('forbidden', 'This request did not come from a Gatewell page (Origin header missing or foreign).');
+  }
+}
+
+/** Maps an error to a JSON answer: zod → 422, AppError → its status, anything else → a logged 500. */
+export function errorResponse(error: unknown): NextResponse {
+  if (error instanceof ZodError) {
+    return NextResponse.json({ error: 'invalid', message: 'The request is not valid.', fields: z.flattenError(error).fieldErrors }, { status: 422 });
+  }
+  if (isAppError(error)) {
+    return NextResponse.json({ error: error.code, message: error.message, details: error.details ?? undefined }, { status: error.status });
+  }
+  console.error('unhandled route error', error);
+  return NextResponse.json({ error: 'internal', message: 'Something failed on the server; nothing was changed.' }, { status: 500 });
+}
+
+/**
+ * Wraps a route handler: checks the Origin of changing requests, loads the signed-in actor (401 when
+ * there is none), checks roles (403), and maps errors in one place.
+ */
+export function withUser<Params = Record<string, never>>(handler: Handler<Params>, options: { roles?: Role[] } = {}) {
+  return async (request: NextRequest, context: RouteContext<Params>): Promise<Response> => {
+    try {
+      checkOrigin(request);
+      const actor = await currentActor();
+      if (!actor) throw new AppError('unauthorized', 'Sign in first.');
+      if (options.roles?.length) requireRole(actor, ...options.roles);
+      return await handler(request, actor, context);
+    } catch (error) {
+      return errorResponse(error);
+    }
+  };
+}
