@@ -2,6 +2,7 @@
 # Gatewell's own PostgreSQL 15: one cluster per purpose (dev, test) in a data folder of the project,
 # listening on 127.0.0.1 only. Usage: scripts/pg.sh start|stop|status|url [dev|test]
 # Idempotent: start on a running cluster does nothing; a stale pid file is removed.
+# A second test cluster (test-NAME, with GATEWELL_PG_TEST_PORT) lets two people test side by side.
 set -euo pipefail
 
 cmd=${1:-start}
@@ -9,8 +10,8 @@ instance=${2:-dev}
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 case "$instance" in
   dev) port=${GATEWELL_PG_PORT:-54330}; db=gatewell ;;
-  test) port=${GATEWELL_PG_TEST_PORT:-54331}; db=gatewell_test ;;
-  *) echo "pg.sh: unknown instance '$instance' (dev or test)" >&2; exit 2 ;;
+  test | test-*) port=${GATEWELL_PG_TEST_PORT:-54331}; db=gatewell_test ;;
+  *) echo "pg.sh: unknown instance '$instance' (dev, test or test-NAME)" >&2; exit 2 ;;
 esac
 data="$root/.pgdata/$instance"
 sock="$root/.pgrun"

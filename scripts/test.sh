@@ -8,13 +8,15 @@ set -e
 
 ensure_node_modules
 ensure_chromium
-bash scripts/pg.sh reset test
-DATABASE_URL=$(bash scripts/pg.sh url test)
+instance=${GATEWELL_TEST_INSTANCE:-test}
+export instance
+bash scripts/pg.sh reset "$instance"
+DATABASE_URL=$(bash scripts/pg.sh url "$instance")
 export DATABASE_URL
 export SESSION_SECRET=${TEST_SESSION_SECRET:-gatewell-test-secret-0123456789-abcdefghij}
 export GATEWELL_E2E_PORT=${GATEWELL_E2E_PORT:-4311}
 export APP_URL=http://127.0.0.1:$GATEWELL_E2E_PORT
-export GATEWELL_DIST_DIR=.next-test
+export GATEWELL_DIST_DIR=${GATEWELL_DIST_DIR:-.next-test}
 set +e
 
 rm -rf test-output && mkdir -p test-output/screenshots
@@ -27,7 +29,7 @@ step "migrating the test database" migrate
 step "unit and integration tests (vitest)" npx vitest run
 
 # End-to-end tests start from a fresh database with the demo data.
-step "resetting the test database for end-to-end tests" bash -c 'bash scripts/pg.sh reset test && npx sequelize-cli db:migrate >/dev/null && npx sequelize-cli db:seed:all >/dev/null'
+step "resetting the test database for end-to-end tests" bash -c 'bash scripts/pg.sh reset "$instance" && npx sequelize-cli db:migrate >/dev/null && npx sequelize-cli db:seed:all >/dev/null'
 step "production build" bash -c 'npx next build >test-output/build.log 2>&1 || { tail -n 40 test-output/build.log; exit 1; }'
 step "end-to-end tests (playwright)" npx playwright test
 
