@@ -73,7 +73,7 @@ export function fitHill(input: HillFitInput, options?: HillFitOptions): HillFitR
   }
   const fit = fitHillCurve(concentration_uM, block, o);
   if (!fit.converged) {
-    return none('not_converged', `The fit did not converge (${STOP_WORDS[fit.stop] ?? fit.stop}, ${fit.iterations} iterations); no IC50 is reported.`);
+    return none('not_converged', `The fit did not converge (${STOP_WORDS[fit.stop] ?? fit.stop} after ${fit.iterations} iteration${fit.iterations === 1 ? '' : 's'}); no IC50 is reported.`);
   }
   if (fit.ic50AtSearchEdge) {
     return none('not_converged', `The fit ran to the edge of the IC50 search range (${uM(fit.ic50_uM)}); the data do not place an IC50.`);
