@@ -21,7 +21,8 @@ set +e
 
 rm -rf test-output && mkdir -p test-output/screenshots
 status=0
-step() { say "$1"; shift; "$@" || { status=1; say "FAILED: $*"; }; }
+failed_steps=()
+step() { local name=$1; shift; say "$name"; "$@" || { status=1; failed_steps+=("$name"); say "FAILED: $name"; }; }
 
 step "lint (eslint)" npx eslint . --max-warnings=0
 step "type check (tsc)" npx tsc --noEmit -p .
@@ -33,5 +34,6 @@ step "resetting the test database for end-to-end tests" bash -c 'bash scripts/pg
 step "production build" bash -c 'npx next build >test-output/build.log 2>&1 || { tail -n 40 test-output/build.log; exit 1; }'
 step "end-to-end tests (playwright)" npx playwright test
 
+[ ${#failed_steps[@]} -eq 0 ] || printf 'failed steps: %s\n' "${failed_steps[*]}"
 node scripts/test-summary.mjs
 exit $status
