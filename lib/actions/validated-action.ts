@@ -1,0 +1,46 @@
+import 'server-only';
+import { z, type ZodType } from 'zod';
+import { currentActor } from '@/lib/auth/current-actor';
+import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { isAppError } from '@/lib/errors';
+
+/** What every form action answers: a message for the whole form and/or messages keyed by field. */
+export interface ActionState {
+  ok?: boolean;
+  message?: string;
+  fieldErrors?: Record<string, string[] | undefined>;
+}
+
+/**
+ * The one way server actions are written: loads the signed-in actor, checks roles, parses the form with
+ * zod, and turns failures into an ActionState the form shows beside its fields.
+ */
+export function validatedAction<Schema extends ZodType, Result extends ActionState = ActionState>(
+  schema: Schema,
+  roles: Role[],
+  run: (input: z.infer<Schema>, actor: Actor, formData: FormData) => Promise<Result>,
+) {
+  return async (_previous: ActionState, formData: FormData): Promise<ActionState> => {
+    const actor = await currentActor();
+    if (!actor) return { message: 'Your session has ended. Sign in again.' };
+    try {
+      if (roles.length) requireRole(actor, ...roles);
+      const parsed = schema.safeParse(Object.fromEntries(formData));
+      if (!parsed.success) {
+        return { message: 'Some fields need attention.', fieldErrors: z.flattenError(parsed.error).fieldErrors as ActionState['fieldErrors'] };
+      }
+      return await run(parsed.data, actor, formData);
+    } catch (error) {
+      if (isAppError(error)) return { message: error.message, fieldErrors: fieldErrorsOf(error.details) };
+      console.error('unhandled action error', error);
+      return { message: 'Something failed on the server; nothing was changed.' };
+    }
+  };
+}
+
+function fieldErrorsOf(details: unknown): ActionState['fieldErrors'] {
+  if (details && typeof details === 'object' && 'fieldErrors' in details) {
+    return (details as { fieldErrors: ActionState['fieldErrors'] }).fieldErrors;
+  }
+  return undefined;
+}
