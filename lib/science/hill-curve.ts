@@ -6,6 +6,12 @@ import { hillCurveModel } from './hill-model';
 import type { ResolvedHillFitOptions } from './hill-options';
 import { concentrationLevels, hillSearchBox, hillStartValues } from './hill-start';
 
+/**
+ * Stopping tolerances for Hill fits: looser than the optimiser's defaults (which serve reference
+ * problems such as NIST StRD), still far below the standard errors of any real curve (Gatewell choice).
+ */
+const HILL_TOLERANCES = { rssTolerance: 1e-12, stepTolerance: 1e-10, gradientTolerance: 1e-10 } as const;
+
 export interface HillCurveEstimate {
   converged: boolean;
   stop: LeastSquaresStop;
@@ -15,7 +21,7 @@ export interface HillCurveEstimate {
   /** Standard error of log10 IC50 from s²(JᵀJ)⁻¹; null when it cannot be formed. */
   log10Ic50Se: number | null;
   ic50_uM: number;
-  /** 95 % interval 10^(log10 IC50 ± t₀.₉₇₅,ν · SE), ν = n − p (µM); null without an SE. */
+  /** 95 % interval 10^(log10 IC50 ± t₀.₉₇₅,ν · SE), ν = n − p (µM); null without an SE or when it overflows. */
   ic50Ci95_uM: [number, number] | null;
   hillSlope: number;
   hillSlopeSe: number | null;
@@ -57,6 +63,7 @@ export function fitHillCurve(
     lower: box.lower,
     upper: box.upper,
     maxIterations: options.maxIterations,
+    ...HILL_TOLERANCES,
   });
   const [log10Ic50, hillSlope, bottom = 0, top = 1] = fit.parameters as [number, number, number?, number?];
   const se = (j: number): number | null => fit.standardErrors?.[j] ?? null;
@@ -72,7 +79,7 @@ export function fitHillCurve(
     log10Ic50,
     log10Ic50Se,
     ic50_uM: 10 ** log10Ic50,
-    ic50Ci95_uM: log10Ic50Se === null ? null : [10 ** (log10Ic50 - t * log10Ic50Se), 10 ** (log10Ic50 + t * log10Ic50Se)],
+    ic50Ci95_uM: interval95(log10Ic50, log10Ic50Se, t),
     hillSlope,
     hillSlopeSe: se(1),
     bottom,
@@ -87,6 +94,14 @@ export function fitHillCurve(
     ic50AtSearchEdge: edge(0),
     hillSlopeAtBound: edge(1),
   };
+}
+
+/** 10^(log10 IC50 ± t·SE), or null when there is no SE or the interval leaves the representable range (µM). */
+function interval95(log10Ic50: number, se: number | null, t: number): [number, number] | null {
+  if (se === null || !Number.isFinite(t)) return null;
+  const low = 10 ** (log10Ic50 - t * se);
+  const high = 10 ** (log10Ic50 + t * se);
+  return low > 0 && Number.isFinite(high) ? [low, high] : null;
 }
 
 function nearBound(value: number, bound: number): boolean {

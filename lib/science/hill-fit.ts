@@ -6,7 +6,7 @@ import { concentrationLevels } from './hill-start';
 
 export type HillFitStatus = 'fitted' | 'above_range' | 'inactive' | 'insufficient' | 'not_converged';
 
-export type HillFitFlagCode = 'hill_slope_outside_band' | 'ic50_below_range' | 'no_standard_error';
+export type HillFitFlagCode = 'hill_slope_outside_band' | 'ic50_below_range' | 'no_confidence_interval';
 
 export interface HillFitFlag {
   code: HillFitFlagCode;
@@ -106,8 +106,8 @@ function fitFlags(fit: HillCurveEstimate, lowest_uM: number, band: readonly [num
   if (fit.ic50_uM < lowest_uM) {
     flags.push({ code: 'ic50_below_range', message: `IC50 ${uM(fit.ic50_uM)} is below the lowest concentration tested (${uM(lowest_uM)}): an extrapolation.` });
   }
-  if (fit.log10Ic50Se === null) {
-    flags.push({ code: 'no_standard_error', message: 'No standard error or confidence interval: too few wells for the free parameters, or the parameters are not separately determined.' });
+  if (fit.ic50Ci95_uM === null) {
+    flags.push({ code: 'no_confidence_interval', message: 'No confidence interval on IC50: too few wells for the free parameters, or the data do not determine them separately.' });
   }
   return flags;
 }

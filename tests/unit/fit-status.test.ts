@@ -87,12 +87,12 @@ describe('flags on a fitted curve', () => {
     expect(result.flags).toEqual([{ code, message }]);
   });
 
-  test('hill4 with one well per free parameter has no standard error, and says so', () => {
+  test('hill4 with one well per free parameter has no confidence interval, and says so', () => {
     const result = fitHill(curve(2, 1, [0.3, 1, 3, 10]), { model: 'hill4' });
     expect(result.status).toBe('fitted');
     expect(result.log10Ic50Se).toBeNull();
     expect(result.ic50Ci95_uM).toBeNull();
-    expect(result.flags.map((f) => f.code)).toEqual(['no_standard_error']);
+    expect(result.flags.map((f) => f.code)).toEqual(['no_confidence_interval']);
   });
 
   test('a slope inside 0.5–2 and IC50 inside the range raise no flag; hill2 reports fixed bottom 0 and top 1', () => {
