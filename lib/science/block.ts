@@ -74,7 +74,7 @@ function targetBlock(target: string, group: readonly BlockWell[], rundownCorrect
   const vehicleRatios = inUse('vehicle', ratios);
   const vehicleMeanRatio = vehicleRatios.length > 0 ? mean(vehicleRatios) : null;
   if (vehicleMeanRatio === null) notes.push({ code: 'no_vehicle_wells', message: 'No vehicle wells in use: no run-down correction, and no Z′.' });
-  const rundownCorrected = rundownCorrection && vehicleMeanRatio !== null && vehicleMeanRatio !== 0;
+  const rundownCorrected = rundownCorrection && vehicleMeanRatio !== null && vehicleMeanRatio > 0;
   let blocks = ratios.map((r) => (r === null ? null : 1 - (rundownCorrected ? r / vehicleMeanRatio! : r)));
 
   let normalised = false;

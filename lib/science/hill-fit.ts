@@ -44,7 +44,7 @@ export interface HillFitResult {
   /** Distinct tested concentrations (> 0) among the wells used. */
   concentrations: number;
   flags: HillFitFlag[];
-  /** The least-squares estimate behind a 'fitted' or 'above_range' result, for plots and review. */
+  /** The least-squares estimate behind a 'fitted' result, or an 'above_range' one decided from the fitted curve; for plots and review. */
   estimate: HillCurveEstimate | null;
 }
 

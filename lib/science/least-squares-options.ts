@@ -16,7 +16,7 @@ export interface LeastSquaresOptions {
   stepTolerance?: number;
   /** Stop when the cosine between r and every free Jacobian column is below this. @default 1e-11 */
   gradientTolerance?: number;
-  /** Initial damping λ, relative to diag(JᵀJ). @default 1e-3 (Madsen, Nielsen & Tingleff 2004, §3.2) */
+  /** Initial damping λ, relative to diag(JᵀJ). @default 1e-3 (Madsen, Nielsen & Tingleff 2004, section 3.2; from memory) */
   initialDamping?: number;
 }
 

@@ -1,8 +1,8 @@
 // Bounded Levenberg–Marquardt least squares with an analytic Jacobian (Gatewell's own optimiser).
 // Damping follows Marquardt 1963 (SIAM J Appl Math 11:431) with a diagonal scaled by JᵀJ, and the
-// gain-ratio update of Nielsen 1999 (Madsen, Nielsen & Tingleff, "Methods for non-linear least
-// squares problems", 2004, algorithm 3.16). Bounds: the step is projected onto the box and
-// parameters held at a bound by the gradient are frozen for that step.
+// gain-ratio update of Nielsen 1999 as given by Madsen, Nielsen & Tingleff, "Methods for non-linear
+// least squares problems", 2004, section 3.2 (citation details from memory). Bounds: the step is
+// projected onto the box and parameters held at a bound by the gradient are frozen for that step.
 import { sum } from 'simple-statistics';
 import { choleskyFactor, choleskySolve, inverseSymmetricPositiveDefinite } from './linear-algebra';
 import { resolveLeastSquaresOptions, type LeastSquaresOptions } from './least-squares-options';

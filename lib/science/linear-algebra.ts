@@ -5,7 +5,7 @@
 const PIVOT_TOLERANCE = 64 * Number.EPSILON;
 
 /**
- * Cholesky factorisation A = L·Lᵀ (Golub & Van Loan, Matrix Computations, algorithm 4.2.1).
+ * Cholesky factorisation A = L·Lᵀ (the standard column-by-column algorithm).
  * Writes L into the lower triangle of `factor` (upper triangle zeroed).
  * @returns false when A is not (numerically) positive definite; `factor` is then unusable.
  */
