@@ -1,0 +1,92 @@
+// Gatewell's parse worker: reads one upload in a throw-away thread and posts back plain values only.
+// Started by parse-spreadsheet.ts with memory limits and a deadline; plain JavaScript on purpose.
+// The workbook library is loaded only for workbooks, so delimited text starts faster.
+import { parentPort, workerData } from 'node:worker_threads';
+import { DelimitedTextError, parseDelimited } from './delimited-text.mjs';
+
+/** Cached values of formula errors, by the error number the workbook stores. */
+const ERROR_TEXT = { 0: '#NULL!', 7: '#DIV/0!', 15: '#VALUE!', 23: '#REF!', 29: '#NAME?', 36: '#NUM!', 42: '#N/A', 43: '#GETTING_DATA' };
+
+const READ_OPTIONS = {
+  cellFormula: false,
+  cellHTML: false,
+  cellText: false,
+  cellNF: false,
+  cellStyles: false,
+  cellDates: true,
+  sheetStubs: false,
+  bookVBA: false,
+  bookFiles: false,
+  bookDeps: false,
+  dense: false,
+  WTF: false,
+};
+
+class LimitError extends Error {
+  /** @param {string} code @param {string} message */
+  constructor(code, message) {
+    super(message);
+    this.code = code;
+  }
+}
+
+/** @param {unknown} cell @returns {string | number | boolean | null} */
+function plainValue(cell) {
+  if (!cell || typeof cell !== 'object') return null;
+  const { t: type, v: value } = /** @type {{ t?: unknown, v?: unknown }} */ (cell);
+  if (type === 'n') return typeof value === 'number' ? (Number.isFinite(value) ? value : String(value)) : null;
+  if (type === 's' || type === 'str') return typeof value === 'string' && value.trim() !== '' ? `${value}` : null;
+  if (type === 'b') return value === true;
+  if (type === 'd') return value instanceof Date && !Number.isNaN(value.getTime()) ? value.toISOString() : null;
+  if (type === 'e') return typeof value === 'number' ? (ERROR_TEXT[value] ?? '#ERROR') : '#ERROR';
+  return null;
+}
+
+/**
+ * @param {typeof import('xlsx')} XLSX
+ * @param {string} name @param {Record<string, unknown>} sheet @param {number} maxRows @param {number} maxColumns
+ */
+function extractSheet(XLSX, name, sheet, maxRows, maxColumns) {
+  /** @type {(string | number | boolean | null)[][]} */
+  const sparse = [];
+  let rowCount = 0;
+  for (const key of Object.keys(sheet)) {
+    if (key.startsWith('!')) continue;
+    const value = plainValue(sheet[key]);
+    if (value === null) continue;
+    const { r, c } = XLSX.utils.decode_cell(key);
+    if (!Number.isInteger(r) || !Number.isInteger(c) || r < 0 || c < 0) continue;
+    if (r >= maxRows) throw new LimitError('too_many_rows', `sheet "${name}" has more than ${maxRows} rows`);
+    if (c >= maxColumns) throw new LimitError('too_many_columns', `sheet "${name}" has more than ${maxColumns} columns`);
+    const row = sparse[r] ?? (sparse[r] = []);
+    row[c] = value;
+    rowCount = Math.max(rowCount, r + 1);
+  }
+  const full = typeof sheet['!fullref'] === 'string' ? XLSX.utils.decode_range(sheet['!fullref']) : null;
+  if (full && full.e.r >= maxRows) throw new LimitError('too_many_rows', `sheet "${name}" has more than ${maxRows} rows`);
+  const rows = Array.from({ length: rowCount }, (_, r) => {
+    const row = sparse[r] ?? [];
+    return Array.from({ length: row.length }, (_, c) => row[c] ?? null);
+  });
+  return { name: `${name}`, rows, decimalComma: false };
+}
+
+async function run() {
+  const { kind, bytes, text, sheetName, maxRows, maxColumns } = workerData;
+  if (kind === 'delimited') {
+    const { rows, delimiter } = parseDelimited(text, { maxRows, maxColumns });
+    return [{ name: sheetName, rows, decimalComma: delimiter === ';' }];
+  }
+  const XLSX = (await import('xlsx')).default;
+  const options = { ...READ_OPTIONS, sheetRows: maxRows + 1 };
+  const book = kind === 'markup' ? XLSX.read(text, { ...options, type: 'string' }) : XLSX.read(bytes, { ...options, type: 'array' });
+  return book.SheetNames.map((name) => extractSheet(XLSX, name, book.Sheets[name] ?? {}, maxRows, maxColumns));
+}
+
+try {
+  parentPort?.postMessage({ ok: true, sheets: await run() });
+} catch (error) {
+  const code = error instanceof LimitError || error instanceof DelimitedTextError ? error.code : 'unreadable';
+  const detail = error instanceof Error ? error.message : String(error);
+  parentPort?.postMessage({ ok: false, code, detail: detail.slice(0, 300) });
+}
