@@ -1,0 +1,110 @@
+import { HEADER_RULES } from './header-words';
+import { splitHeaderUnit } from './header-unit';
+import { IMPORT_FIELDS, REQUIRED_FIELDS, UNIT_FIELDS, type ImportField, type UnitField } from './import-fields';
+import { columnMappingDraftSchema, type ColumnMapping, type ColumnMappingInput } from './mapping-schema';
+import { columnLetter, normaliseLabel } from './normalise-text';
+import { readText } from './read-cell';
+import type { Cell, SheetData } from './spreadsheet-types';
+import { parseUnit, type QuantityKind, type Unit } from './units';
+
+/** A column Gatewell matched to a field, with the unit its header names (null when it names none). */
+export interface GuessedColumn {
+  field: ImportField;
+  letter: string;
+  header: string;
+  unit: Unit | null;
+  /** 2 for a whole-header match, 1 for a looser one. */
+  score: number;
+}
+
+/** A proposed mapping for the person to confirm, with what matched and what did not. */
+export interface MappingGuess {
+  mapping: ColumnMapping;
+  matched: GuessedColumn[];
+  unmatchedHeaders: { letter: string; header: string }[];
+  missingFields: ImportField[];
+}
+
+/** The quantity each unit field measures. */
+export const UNIT_KIND: Record<UnitField, QuantityKind> = {
+  concentration: 'concentration',
+  controlCurrent: 'current',
+  compoundCurrent: 'current',
+  sealResistance: 'sealResistance',
+  seriesResistance: 'seriesResistance',
+  capacitance: 'capacitance',
+};
+
+const HEADER_SEARCH_ROWS = 30;
+
+/**
+ * Guesses which header row and columns hold which fields, and the units written in the headers.
+ * `headerRow` (1-based) skips the search; `base` supplies markers, a fixed target or other settings.
+ */
+export function guessMapping(sheet: SheetData, options: { headerRow?: number; base?: ColumnMappingInput } = {}): MappingGuess {
+  const headerRow = options.headerRow ?? findHeaderRow(sheet.rows);
+  const headers = sheet.rows[headerRow - 1] ?? [];
+  const matched = matchHeaders(headers);
+  const columns: Partial<Record<ImportField, string>> = {};
+  const units: Partial<Record<UnitField, Unit>> = {};
+  for (const column of matched) {
+    columns[column.field] = column.header;
+    if (column.unit && (UNIT_FIELDS as readonly string[]).includes(column.field)) units[column.field as UnitField] = column.unit;
+  }
+  const base = options.base ?? {};
+  const mapping = columnMappingDraftSchema.parse({ ...base, headerRow, columns: { ...base.columns, ...columns }, units: { ...base.units, ...units } });
+  const used = new Set(matched.map((column) => column.letter));
+  const unmatchedHeaders = headerCells(headers)
+    .filter((cell) => !used.has(cell.letter))
+    .map(({ letter, header }) => ({ letter, header }));
+  const missingFields = REQUIRED_FIELDS.filter((field) => mapping.columns[field] === null && !(field === 'target' && mapping.fixedTarget !== null));
+  return { mapping, matched, unmatchedHeaders, missingFields };
+}
+
+/** The 1-based row, among the first rows, whose cells match the most fields; 1 when none match. */
+export function findHeaderRow(rows: Cell[][]): number {
+  let best = 1;
+  let bestScore = 0;
+  rows.slice(0, HEADER_SEARCH_ROWS).forEach((row, index) => {
+    const score = matchHeaders(row).reduce((sum, column) => sum + column.score, 0);
+    if (score > bestScore) {
+      best = index + 1;
+      bestScore = score;
+    }
+  });
+  return best;
+}
+
+function matchHeaders(row: Cell[]): GuessedColumn[] {
+  const candidates: (GuessedColumn & { index: number })[] = [];
+  for (const { index, letter, header } of headerCells(row)) {
+    const { name, unitText } = splitHeaderUnit(header);
+    const names = [normaliseLabel(name), normaliseLabel(header)];
+    for (const field of IMPORT_FIELDS) {
+      const rule = HEADER_RULES[field];
+      const score = names.some((n) => rule.exact.includes(n)) ? 2 : rule.loose(names[0] ?? '') ? 1 : 0;
+      if (score === 0) continue;
+      const kind = (UNIT_KIND as Partial<Record<ImportField, QuantityKind>>)[field];
+      const unit = kind && unitText ? parseUnit(unitText, kind) : null;
+      candidates.push({ field, letter, header, unit, score, index });
+    }
+  }
+  candidates.sort((a, b) => b.score - a.score || IMPORT_FIELDS.indexOf(a.field) - IMPORT_FIELDS.indexOf(b.field) || a.index - b.index);
+  const taken = new Set<number>();
+  const done = new Set<ImportField>();
+  const chosen: (GuessedColumn & { index: number })[] = [];
+  for (const candidate of candidates) {
+    if (taken.has(candidate.index) || done.has(candidate.field)) continue;
+    taken.add(candidate.index);
+    done.add(candidate.field);
+    chosen.push(candidate);
+  }
+  return chosen.sort((a, b) => a.index - b.index).map(({ index: _index, ...column }) => column);
+}
+
+function headerCells(row: Cell[]): { index: number; letter: string; header: string }[] {
+  return row.flatMap((cell, index) => {
+    const header = typeof cell === 'string' ? cell.trim() : readText(cell);
+    return header ? [{ index, letter: columnLetter(index), header }] : [];
+  });
+}

@@ -1,0 +1,64 @@
+// Plate formats and well positions: A1, A01 and a01 name the same well; rows run A–Z then AA–AF.
+
+/** Wells per plate. */
+export type PlateFormat = 96 | 384 | 1536;
+
+/** Rows and columns of each format: 96 = 8 × 12, 384 = 16 × 24, 1536 = 32 × 48. */
+export const PLATE_FORMATS: Record<PlateFormat, { rows: number; columns: number }> = {
+  96: { rows: 8, columns: 12 },
+  384: { rows: 16, columns: 24 },
+  1536: { rows: 32, columns: 48 },
+};
+
+const FORMATS_SMALL_FIRST: PlateFormat[] = [96, 384, 1536];
+
+/** A well on a plate: 0-based row and column indices and the canonical label ("B07"). */
+export interface WellPosition {
+  rowIndex: number;
+  columnIndex: number;
+  label: string;
+}
+
+/** Reads "A1", "A01", "a01", "B-7" or "AF48"; null when the text is not a well position. */
+export function parseWellPosition(text: string): WellPosition | null {
+  const match = /^([A-Za-z]{1,2})[\s_-]?(\d{1,3})$/.exec(text.trim());
+  if (!match) return null;
+  const letters = (match[1] ?? '').toUpperCase();
+  const column = Number(match[2]);
+  if (column < 1) return null;
+  const rowIndex = letters.length === 1 ? letters.charCodeAt(0) - 65 : (letters.charCodeAt(0) - 64) * 26 + letters.charCodeAt(1) - 65;
+  return { rowIndex, columnIndex: column - 1, label: wellLabel(rowIndex, column - 1) };
+}
+
+/** The canonical label of a well: row letters and a two-digit column ("A01", "P24", "AF48"). */
+export function wellLabel(rowIndex: number, columnIndex: number): string {
+  return `${rowLetters(rowIndex)}${String(columnIndex + 1).padStart(2, '0')}`;
+}
+
+/** Row letters for a 0-based row index: 0 → A, 25 → Z, 26 → AA. */
+export function rowLetters(rowIndex: number): string {
+  return rowIndex < 26 ? String.fromCharCode(65 + rowIndex) : rowLetters(Math.floor(rowIndex / 26) - 1) + String.fromCharCode(65 + (rowIndex % 26));
+}
+
+/** Whether a well lies on a plate of the given format. */
+export function fitsFormat(position: WellPosition, format: PlateFormat): boolean {
+  const size = PLATE_FORMATS[format];
+  return position.rowIndex < size.rows && position.columnIndex < size.columns;
+}
+
+/** The smallest format holding every position, or null when one lies beyond a 1536-well plate. */
+export function inferPlateFormat(positions: Iterable<WellPosition>): PlateFormat | null {
+  let rows = 0;
+  let columns = 0;
+  for (const position of positions) {
+    rows = Math.max(rows, position.rowIndex + 1);
+    columns = Math.max(columns, position.columnIndex + 1);
+  }
+  return FORMATS_SMALL_FIRST.find((format) => PLATE_FORMATS[format].rows >= rows && PLATE_FORMATS[format].columns >= columns) ?? null;
+}
+
+/** "a 384-well plate (rows A–P, columns 1–24)". */
+export function describeFormat(format: PlateFormat): string {
+  const size = PLATE_FORMATS[format];
+  return `a ${format}-well plate (rows A–${rowLetters(size.rows - 1)}, columns 1–${size.columns})`;
+}
