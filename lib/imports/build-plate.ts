@@ -1,0 +1,69 @@
+import type { WellRole } from './import-fields';
+import { PLATE_FORMATS, type PlateFormat } from './plate-format';
+import type { PreviewRow } from './read-row';
+
+/** The currents of one target in one well, pA (sign as recorded: inward currents are negative). */
+export interface ParsedReadout {
+  target: string;
+  controlCurrentPa: number | null;
+  compoundCurrentPa: number | null;
+  /** The spreadsheet row it came from. */
+  row: number;
+}
+
+/** One well: position (0-based indices), what it holds, and the recording's cell properties. */
+export interface ParsedWell {
+  position: string;
+  rowIndex: number;
+  columnIndex: number;
+  role: WellRole;
+  compound: string | null;
+  concentrationUm: number | null;
+  sealResistanceGohm: number | null;
+  seriesResistanceMohm: number | null;
+  capacitancePf: number | null;
+  readouts: ParsedReadout[];
+}
+
+/** The plate as parsed: format, wells in row-major order and the targets in order of first appearance. */
+export interface ParsedPlate {
+  format: PlateFormat;
+  formatSource: 'chosen' | 'inferred';
+  rows: number;
+  columns: number;
+  targets: string[];
+  wells: ParsedWell[];
+}
+
+/** Gathers the rows without errors into wells and readouts; cell properties come from a well's first row that has them. */
+export function buildPlate(rows: readonly PreviewRow[], format: PlateFormat, formatSource: 'chosen' | 'inferred'): ParsedPlate {
+  const wells = new Map<string, ParsedWell>();
+  const targets: string[] = [];
+  for (const { row, status, values } of rows) {
+    if (status !== 'ok' || values.well === null || values.rowIndex === null || values.columnIndex === null) continue;
+    if (values.role === null || values.target === null) continue;
+    let well = wells.get(values.well);
+    if (!well) {
+      well = {
+        position: values.well,
+        rowIndex: values.rowIndex,
+        columnIndex: values.columnIndex,
+        role: values.role,
+        compound: values.compound,
+        concentrationUm: values.concentrationUm,
+        sealResistanceGohm: null,
+        seriesResistanceMohm: null,
+        capacitancePf: null,
+        readouts: [],
+      };
+      wells.set(values.well, well);
+    }
+    well.sealResistanceGohm ??= values.sealResistanceGohm;
+    well.seriesResistanceMohm ??= values.seriesResistanceMohm;
+    well.capacitancePf ??= values.capacitancePf;
+    well.readouts.push({ target: values.target, controlCurrentPa: values.controlCurrentPa, compoundCurrentPa: values.compoundCurrentPa, row });
+    if (!targets.includes(values.target)) targets.push(values.target);
+  }
+  const sorted = [...wells.values()].sort((a, b) => a.rowIndex - b.rowIndex || a.columnIndex - b.columnIndex);
+  return { format, formatSource, ...PLATE_FORMATS[format], targets, wells: sorted };
+}

@@ -1,0 +1,140 @@
+import { FIELD_LABEL, type ImportField, type UnitField, type WellRole } from './import-fields';
+import { makeIssue, type ImportIssue, type ImportIssueCode } from './import-issue';
+import { UNIT_KIND } from './guess-mapping';
+import { normaliseIdentifier, normaliseLabel } from './normalise-text';
+import { parseWellPosition } from './plate-format';
+import { readQuantity, readText, shorten } from './read-cell';
+import type { RowContext } from './row-context';
+import type { Cell } from './spreadsheet-types';
+import { parseUnit, UNIT_LABEL, unitsOf, type Unit } from './units';
+
+/** One row's values in canonical units (µM, pA, GΩ, MΩ, pF); null where missing or unreadable. */
+export interface RowValues {
+  well: string | null;
+  rowIndex: number | null;
+  columnIndex: number | null;
+  role: WellRole | null;
+  compound: string | null;
+  concentrationUm: number | null;
+  target: string | null;
+  controlCurrentPa: number | null;
+  compoundCurrentPa: number | null;
+  sealResistanceGohm: number | null;
+  seriesResistanceMohm: number | null;
+  capacitancePf: number | null;
+}
+
+/** A data row of the preview: its spreadsheet row number, values and findings. */
+export interface PreviewRow {
+  row: number;
+  status: 'ok' | 'error';
+  values: RowValues;
+  issues: ImportIssue[];
+}
+
+/** Reads one data row (1-based `row` as the spreadsheet shows it) into canonical values and issues. */
+export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow {
+  const issues: ImportIssue[] = [];
+  const report = (field: ImportField, code: ImportIssueCode, detail: string) => {
+    const column = ctx.columns[field];
+    issues.push(makeIssue({ code, sheet: ctx.sheet, row, field, detail, column: column ? { letter: column.letter, header: column.header } : null }));
+  };
+  const cell = (field: ImportField): Cell | undefined => {
+    const column = ctx.columns[field];
+    return column ? cells[column.index] : undefined;
+  };
+  const quantity = (field: UnitField, unit: Unit): number | null => {
+    const result = readQuantity(cell(field), UNIT_KIND[field], unit, ctx.decimalComma);
+    if (!result.ok) report(field, result.code, `${FIELD_LABEL[field]}: ${result.detail}.`);
+    else if (result.value !== null && result.value < 0 && field !== 'controlCurrent' && field !== 'compoundCurrent') {
+      report(field, 'negative_value', `${FIELD_LABEL[field]} is negative (${result.value}); it must be 0 or more.`);
+      return null;
+    }
+    return result.ok ? result.value : null;
+  };
+  const rowUnit = (field: 'concentrationUnit' | 'currentUnit', kind: 'concentration' | 'current', fallback: Unit): Unit => {
+    const text = readText(cell(field));
+    if (text === null) return fallback;
+    const unit = parseUnit(text, kind);
+    if (unit) return unit;
+    const accepted = unitsOf(kind).map((u) => UNIT_LABEL[u]).join(', ');
+    report(field, 'unknown_unit', `"${shorten(text)}" is not a ${kind} unit; use one of ${accepted}.`);
+    return fallback;
+  };
+
+  const { units } = ctx.mapping;
+  const position = readWell(readText(cell('well')), (code, detail) => report('well', code, detail));
+  const target = readTarget(ctx.mapping.fixedTarget ?? readText(cell('target')), ctx, (code, detail) => report('target', code, detail));
+  const compoundText = readText(cell('compound'));
+  const role = readRole(readText(cell('role')), compoundText, ctx, (detail) => report('role', 'unknown_role', detail));
+  const compound = role === 'test' ? checkCompound(compoundText, ctx, (code, detail) => report('compound', code, detail)) : compoundText;
+  const concentrationUm = quantity('concentration', rowUnit('concentrationUnit', 'concentration', units.concentration));
+  if (role === 'test' && concentrationUm === null && !issues.some((issue) => issue.field === 'concentration')) {
+    report('concentration', 'missing_concentration', 'a test well needs a concentration; the cell is empty.');
+  } else if (role === 'test' && concentrationUm === 0) {
+    report('concentration', 'missing_concentration', 'a test well needs a concentration above 0.');
+  }
+  const currentUnit = (fallback: Unit) => (ctx.columns.currentUnit ? rowUnit('currentUnit', 'current', fallback) : fallback);
+  const controlCurrentPa = quantity('controlCurrent', currentUnit(units.controlCurrent));
+  if (controlCurrentPa === 0) report('controlCurrent', 'zero_control_current', 'control current is 0; block cannot be computed without a control current.');
+  const values: RowValues = {
+    well: position?.label ?? null,
+    rowIndex: position?.rowIndex ?? null,
+    columnIndex: position?.columnIndex ?? null,
+    role,
+    compound,
+    concentrationUm,
+    target,
+    controlCurrentPa,
+    compoundCurrentPa: quantity('compoundCurrent', currentUnit(units.compoundCurrent)),
+    sealResistanceGohm: quantity('sealResistance', units.sealResistance),
+    seriesResistanceMohm: quantity('seriesResistance', units.seriesResistance),
+    capacitancePf: quantity('capacitance', units.capacitance),
+  };
+  return { row, status: issues.some((issue) => issue.severity === 'error') ? 'error' : 'ok', values, issues };
+}
+
+type Report = (code: ImportIssueCode, detail: string) => void;
+
+function readWell(text: string | null, report: Report) {
+  if (text === null) {
+    report('missing_value', 'the well position is empty.');
+    return null;
+  }
+  const position = parseWellPosition(text);
+  if (!position) report('invalid_well', `"${shorten(text)}" is not a well position; write it as a row letter and column number, like A1 or A01.`);
+  return position;
+}
+
+function readTarget(text: string | null, ctx: RowContext, report: Report): string | null {
+  if (text === null) {
+    report('missing_value', 'the target is empty.');
+    return null;
+  }
+  const known = ctx.targets.get(normaliseLabel(text));
+  if (known) return known;
+  const names = [...ctx.targets.values()].join(', ') || 'none yet';
+  report('unknown_target', `target "${shorten(text)}" is not one of this screen's targets (${names}).`);
+  return text;
+}
+
+function readRole(roleText: string | null, compound: string | null, ctx: RowContext, report: (detail: string) => void): WellRole {
+  const marks = (text: string | null, role: WellRole) => text !== null && ctx.markers[role].has(normaliseLabel(text));
+  if (roleText !== null) {
+    for (const role of ['vehicle', 'reference', 'test'] as const) if (marks(roleText, role)) return role;
+    const list = (role: WellRole) => ctx.mapping.markers[role].join(', ');
+    report(`role "${shorten(roleText)}" is not a known word for vehicle (${list('vehicle')}), reference (${list('reference')}) or test (${list('test')}) wells.`);
+  }
+  return marks(compound, 'vehicle') ? 'vehicle' : marks(compound, 'reference') ? 'reference' : 'test';
+}
+
+function checkCompound(text: string | null, ctx: RowContext, report: Report): string | null {
+  if (text === null) {
+    report('missing_value', 'a test well needs a compound identifier; the cell is empty.');
+    return null;
+  }
+  const registered = ctx.compounds.get(normaliseIdentifier(text));
+  if (registered) return registered;
+  report('unknown_compound', `compound "${shorten(text)}" is not registered; register it or correct the identifier.`);
+  return text;
+}
