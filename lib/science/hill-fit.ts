@@ -31,7 +31,7 @@ export interface HillFitResult {
   ic50_uM: number | null;
   ic50Ci95_uM: [number, number] | null;
   log10Ic50Se: number | null;
-  /** For 'above_range': IC50 is above this, the highest concentration tested (µM). */
+  /** For 'above_range' and 'inactive': IC50 is above this, the highest concentration tested (µM). */
   ic50LowerBound_uM: number | null;
   hillSlope: number | null;
   /** Fixed 0 and 1 for hill2 once fitted; null when there is no fit. */
@@ -78,7 +78,7 @@ export function fitHill(input: HillFitInput, options?: HillFitOptions): HillFitR
   if (fit.ic50AtSearchEdge) {
     return none('not_converged', `The fit ran to the edge of the IC50 search range (${uM(fit.ic50_uM)}); the data do not place an IC50.`);
   }
-  if (fit.ic50_uM > highest.concentration_uM) return aboveRange(`the fitted curve reaches 50 % only at ${uM(fit.ic50_uM)}`, fit);
+  if (fit.ic50_uM > highest.concentration_uM) return aboveRange(`the fitted IC50 is ${uM(fit.ic50_uM)}`, fit);
   const flags = fitFlags(fit, levels[0]!.concentration_uM, o.hillSlopeBand);
   return {
     ...base,

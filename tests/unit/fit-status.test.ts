@@ -47,7 +47,7 @@ describe('status of a fit', () => {
       curve(50),
       { aboveRangeBlock: 0.3 },
       'above_range',
-      'IC50 above the highest concentration tested (> 30 µM): the fitted curve reaches 50 % only at 50 µM.',
+      'IC50 above the highest concentration tested (> 30 µM): the fitted IC50 is 50 µM.',
     ],
     [
       'iteration limit',
