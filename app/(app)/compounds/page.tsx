@@ -1,35 +1,33 @@
 import type { Metadata } from 'next';
-import { DataTable } from '@/components/ui/data-table';
+import { CompoundForm } from '@/components/compounds/compound-form';
+import { CompoundGrid } from '@/components/compounds/compound-grid';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
+import { hasRole } from '@/lib/auth/roles';
 import { listCompounds } from '@/lib/compounds/list';
+import { createCompoundAction } from './actions';
 
 export const metadata: Metadata = { title: 'Compounds' };
 
 export default async function CompoundsPage() {
   const actor = await requireActor();
   const compounds = await listCompounds(actor);
+  const canRegister = hasRole(actor, 'chemist', 'admin');
   return (
     <>
       <PageHeader title="Compounds" intro="The registry of compounds and batches that plates refer to." />
       {compounds.length ? (
-        <DataTable
-          caption="Registered compounds"
-          rows={compounds}
-          rowKey={(c) => c.id}
-          columns={[
-            { header: 'Identifier', cell: (c) => <span className="font-mono font-medium">{c.identifier}</span> },
-            { header: 'Name', cell: (c) => c.name || '—' },
-            { header: 'SMILES', cell: (c) => <span className="break-all font-mono text-xs">{c.smiles || '—'}</span> },
-            { header: 'MW (g/mol)', cell: (c) => (c.molecularWeight === null ? '—' : c.molecularWeight.toFixed(2)), align: 'right' },
-            { header: 'Batches', cell: (c) => c.batchCount, align: 'right' },
-            { header: 'Plates', cell: (c) => c.plateCount, align: 'right' },
-          ]}
-        />
+        <CompoundGrid compounds={compounds} />
       ) : (
         <EmptyState title="No compounds registered">A chemist registers compounds before their plates are imported.</EmptyState>
       )}
+      {canRegister ? (
+        <section className="gw-card mt-6 p-5" aria-labelledby="register-heading">
+          <h2 id="register-heading" className="mb-3 text-lg font-semibold">Register a compound</h2>
+          <CompoundForm action={createCompoundAction} submitLabel="Register compound" />
+        </section>
+      ) : null}
     </>
   );
 }
