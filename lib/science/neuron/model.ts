@@ -1,0 +1,104 @@
+import { evaluateRate, evaluateTau } from './rate-forms';
+import type { GateKinetics, MembraneState, NeuronPreset } from './types';
+
+/** A preset flattened for the integrator: gates in one list, conductances pointing at them. */
+export interface CompiledModel {
+  presetName: string;
+  capacitance_uF_cm2: number;
+  /** Per gate: its kinetics and the temperature factor φ applied to its rates. */
+  gates: { label: string; kinetics: GateKinetics; phi: number }[];
+  conductanceNames: string[];
+  /** Scaled maximal conductances (mS/cm²), in conductance order. */
+  g_mS_cm2: Float64Array;
+  reversal_mV: Float64Array;
+  /** Terms of conductance k: termGate/termPower[termStart[k] .. termStart[k+1]). */
+  termStart: Int32Array;
+  termGate: Int32Array;
+  termPower: Int32Array;
+  /** Identifies the kinetics (preset and temperature), for sharing rate tables. */
+  kineticsKey: string;
+}
+
+/**
+ * Flatten a preset, with each conductance multiplied by `scale[name]` (default 1), e.g.
+ * { gNa: 0.7 } for 30 % block. Throws on a name the preset does not have.
+ */
+export function compileModel(preset: NeuronPreset, scale: Readonly<Record<string, number>> = {}): CompiledModel {
+  const names = preset.conductances.map((c) => c.name);
+  for (const key of Object.keys(scale)) {
+    if (!names.includes(key)) throw new Error(`preset ${preset.name} has no conductance "${key}" (has ${names.join(', ')})`);
+  }
+  const gates: CompiledModel['gates'] = [];
+  const termStart = new Int32Array(names.length + 1);
+  const termGate: number[] = [];
+  const termPower: number[] = [];
+  preset.conductances.forEach((c, k) => {
+    termStart[k] = termGate.length;
+    const q10 = c.q10 ?? 1;
+    const phi = q10 ** ((preset.temperature_C - (c.referenceTemperature_C ?? preset.temperature_C)) / 10);
+    for (const gate of c.gates) {
+      if (!Number.isInteger(gate.power) || gate.power < 1) throw new Error(`gate ${c.name}.${gate.name}: power must be a positive integer`);
+      termGate.push(gates.length);
+      termPower.push(gate.power);
+      gates.push({ label: `${c.name}.${gate.name}`, kinetics: gate.kinetics, phi });
+    }
+  });
+  termStart[names.length] = termGate.length;
+  return {
+    presetName: preset.name,
+    capacitance_uF_cm2: preset.capacitance_uF_cm2,
+    gates,
+    conductanceNames: names,
+    g_mS_cm2: Float64Array.from(preset.conductances, (c) => c.g_mS_cm2 * (scale[c.name] ?? 1)),
+    reversal_mV: Float64Array.from(preset.conductances, (c) => c.reversal_mV),
+    termStart,
+    termGate: Int32Array.from(termGate),
+    termPower: Int32Array.from(termPower),
+    kineticsKey: `${preset.name}@${preset.temperature_C}:${JSON.stringify(preset.conductances.map((c) => [c.q10, c.referenceTemperature_C, c.gates]))}`,
+  };
+}
+
+/** Steady state x∞ and time constant τ (ms) of a gate at V, written into out[0], out[1]. */
+export function gateInfTau(gate: CompiledModel['gates'][number], v_mV: number, out: Float64Array): void {
+  const k = gate.kinetics;
+  if (k.kind === 'alpha-beta') {
+    const a = evaluateRate(k.alpha, v_mV);
+    const b = evaluateRate(k.beta, v_mV);
+    out[0] = a / (a + b);
+    out[1] = 1 / (gate.phi * (a + b));
+  } else {
+    out[0] = evaluateRate(k.inf, v_mV);
+    out[1] = evaluateTau(k.tau, v_mV) / gate.phi;
+  }
+}
+
+/** The state with every gate at its steady state for V. */
+export function steadyStateAt(model: CompiledModel, v_mV: number): MembraneState {
+  const gates = new Float64Array(model.gates.length);
+  const out = new Float64Array(2);
+  model.gates.forEach((g, j) => {
+    gateInfTau(g, v_mV, out);
+    gates[j] = out[0] ?? 0;
+  });
+  return { v_mV, gates };
+}
+
+/** Total conductance G and Σ g·E (for V∞ = (I + ΣgE)/G) for the given gate values. */
+export function conductanceSums(model: CompiledModel, gates: ArrayLike<number>): { g: number; gE: number } {
+  let g = 0;
+  let gE = 0;
+  for (let k = 0; k < model.g_mS_cm2.length; k++) {
+    let w = model.g_mS_cm2[k] ?? 0;
+    for (let t = model.termStart[k] ?? 0; t < (model.termStart[k + 1] ?? 0); t++) {
+      w *= (gates[model.termGate[t] ?? 0] ?? 0) ** (model.termPower[t] ?? 1);
+    }
+    g += w;
+    gE += w * (model.reversal_mV[k] ?? 0);
+  }
+  return { g, gE };
+}
+
+/** Copy of a membrane state. */
+export function cloneState(s: MembraneState): MembraneState {
+  return { v_mV: s.v_mV, gates: Float64Array.from(s.gates) };
+}

@@ -1,0 +1,32 @@
+import type { NeuronPreset } from '../types';
+import { hhSquid1952 } from './hh-squid-1952';
+import { pospischilRs2008 } from './pospischil-rs-2008';
+
+/** Names of the built-in neuron presets. */
+export const PRESET_NAMES = ['hh-squid-1952', 'pospischil-rs-2008'] as const;
+export type PresetName = (typeof PRESET_NAMES)[number];
+
+const PRESETS: Record<PresetName, NeuronPreset> = {
+  'hh-squid-1952': hhSquid1952,
+  'pospischil-rs-2008': pospischilRs2008,
+};
+
+export function isPresetName(name: string): name is PresetName {
+  return (PRESET_NAMES as readonly string[]).includes(name);
+}
+
+/** The built-in preset of that name; throws on an unknown name. */
+export function getPreset(name: string): NeuronPreset {
+  if (!isPresetName(name)) throw new Error(`unknown neuron preset "${name}" (known: ${PRESET_NAMES.join(', ')})`);
+  return PRESETS[name];
+}
+
+/** Conductance names of a preset, and which of them a compound may block. */
+export function conductanceNames(preset: NeuronPreset): { all: string[]; blockable: string[] } {
+  return {
+    all: preset.conductances.map((c) => c.name),
+    blockable: preset.conductances.filter((c) => c.blockable).map((c) => c.name),
+  };
+}
+
+export { hhSquid1952, pospischilRs2008 };

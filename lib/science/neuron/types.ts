@@ -1,0 +1,55 @@
+import type { RateForm, SigmoidForm, TauForm } from './rate-forms';
+
+/** Gate kinetics as opening/closing rates: dx/dt = α(V)(1 − x) − β(V)x. */
+export interface AlphaBetaKinetics {
+  kind: 'alpha-beta';
+  alpha: RateForm;
+  beta: RateForm;
+}
+
+/** Gate kinetics as steady state and time constant: dx/dt = (x∞(V) − x)/τ(V). */
+export interface InfTauKinetics {
+  kind: 'inf-tau';
+  inf: SigmoidForm;
+  tau: TauForm;
+}
+
+export type GateKinetics = AlphaBetaKinetics | InfTauKinetics;
+
+/** One gating variable of a conductance, raised to `power` (m³ → power 3). */
+export interface GateSpec {
+  name: string;
+  power: number;
+  kinetics: GateKinetics;
+}
+
+/** One membrane conductance: I = g · Π gates^power · (V − E). */
+export interface ConductanceSpec {
+  /** Name used in block maps and results, e.g. 'gNa'. */
+  name: string;
+  description: string;
+  g_mS_cm2: number;
+  reversal_mV: number;
+  /** Whether a compound may block it in a forecast. */
+  blockable: boolean;
+  gates: GateSpec[];
+  /** Temperature scaling of every rate (α, β multiplied, τ divided) by q10^((T − reference)/10). */
+  q10?: number;
+  referenceTemperature_C?: number;
+}
+
+/** A published single-compartment model, as data. */
+export interface NeuronPreset {
+  name: string;
+  title: string;
+  reference: string;
+  capacitance_uF_cm2: number;
+  temperature_C: number;
+  conductances: ConductanceSpec[];
+}
+
+/** Membrane state: voltage and every gate, in the compiled gate order. */
+export interface MembraneState {
+  v_mV: number;
+  gates: Float64Array;
+}
