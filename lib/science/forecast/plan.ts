@@ -1,0 +1,120 @@
+import type { Excitability, ExcitabilityProtocol } from '../neuron/excitability';
+import { DEFAULT_EXCITABILITY_PROTOCOL } from '../neuron/excitability';
+import { getPreset } from '../neuron/presets';
+import type { NeuronPreset } from '../neuron/types';
+import { poreBlockFraction } from './pore-block';
+import type { ParsedForecastRequest } from './request-schema';
+import type { MeasureTask, TraceTask } from './tasks';
+
+/** Protocol of a forecast with every default filled in. */
+export interface ForecastProtocol extends ExcitabilityProtocol {
+  /** Rate reference drive = this × control rheobase. @default 2 */
+  referenceDriveFactor: number;
+  /** Extra drives for the f–I curve (µA/cm²). @default [] */
+  drives_uA_cm2: number[];
+}
+
+export const DEFAULT_FORECAST_PROTOCOL: ForecastProtocol = { ...DEFAULT_EXCITABILITY_PROTOCOL, referenceDriveFactor: 2, drives_uA_cm2: [] };
+
+export interface PlannedCondition {
+  label: string;
+  concentration: number | null;
+  /** Fraction blocked, per blockable conductance (0 where not blocked). */
+  block: Record<string, number>;
+  /** Multiplier 1 − block per conductance. */
+  scale: Record<string, number>;
+}
+
+export interface ForecastPlan {
+  preset: NeuronPreset;
+  protocol: ForecastProtocol;
+  concentrationUnit: string | null;
+  conditions: PlannedCondition[];
+  trace: { condition: number; drive_uA_cm2: number | null; duration_ms: number; points: number } | null;
+}
+
+/** Turn a validated request into conditions and a resolved protocol. */
+export function planForecast(request: ParsedForecastRequest): ForecastPlan {
+  const preset = getPreset(request.preset);
+  const blockable = preset.conductances.filter((c) => c.blockable).map((c) => c.name);
+  const p = request.protocol ?? {};
+  const protocol: ForecastProtocol = {
+    ...DEFAULT_FORECAST_PROTOCOL,
+    dt_ms: p.dt_ms ?? DEFAULT_FORECAST_PROTOCOL.dt_ms,
+    rheobaseStep_ms: p.stepMs ?? DEFAULT_FORECAST_PROTOCOL.rheobaseStep_ms,
+    rateStep_ms: p.rateStepMs ?? DEFAULT_FORECAST_PROTOCOL.rateStep_ms,
+    thresholdSlope_mV_ms: p.thresholdSlope_mV_ms ?? DEFAULT_FORECAST_PROTOCOL.thresholdSlope_mV_ms,
+    rheobaseRelTolerance: p.rheobaseRelTolerance ?? DEFAULT_FORECAST_PROTOCOL.rheobaseRelTolerance,
+    rheobaseCeiling_uA_cm2: p.rheobaseCeiling_uA_cm2 ?? DEFAULT_FORECAST_PROTOCOL.rheobaseCeiling_uA_cm2,
+    referenceDriveFactor: p.referenceDriveFactor ?? DEFAULT_FORECAST_PROTOCOL.referenceDriveFactor,
+    drives_uA_cm2: p.drives_uA_cm2 ?? [],
+  };
+  const condition = (label: string, concentration: number | null, fractions: Record<string, number>): PlannedCondition => {
+    const block = Object.fromEntries(blockable.map((name) => [name, fractions[name] ?? 0]));
+    const scale = Object.fromEntries(blockable.map((name) => [name, 1 - (block[name] ?? 0)]));
+    return { label, concentration, block, scale };
+  };
+  const unit = request.concentrationUnit ?? null;
+  let conditions: PlannedCondition[] = [];
+  if (request.block) conditions = [condition('block', null, request.block)];
+  if (request.potencies && request.concentrations) {
+    const potencies = request.potencies;
+    conditions = request.concentrations.map((c) =>
+      condition(
+        `${c}${unit ? ` ${unit}` : ''}`,
+        c,
+        Object.fromEntries(Object.entries(potencies).map(([name, pot]) => [name, poreBlockFraction(c, pot.ic50, pot.hill)])),
+      ),
+    );
+  }
+  const t = request.trace;
+  const trace =
+    t === false
+      ? null
+      : { condition: t?.condition ?? Math.max(0, conditions.length - 1), drive_uA_cm2: t?.drive_uA_cm2 ?? null, duration_ms: t?.duration_ms ?? protocol.rateStep_ms, points: t?.points ?? 2000 };
+  return { preset, protocol, concentrationUnit: unit, conditions, trace };
+}
+
+function excitabilityProtocol(p: ForecastProtocol): ExcitabilityProtocol {
+  const { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms } = p;
+  return { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms };
+}
+
+/** The control's measurement (its own rheobase sets the reference drive). */
+export function controlTask(plan: ForecastPlan): MeasureTask {
+  return {
+    kind: 'measure',
+    preset: plan.preset,
+    scale: {},
+    request: { protocol: excitabilityProtocol(plan.protocol), drives_uA_cm2: plan.protocol.drives_uA_cm2, referenceDriveFactor: plan.protocol.referenceDriveFactor },
+  };
+}
+
+/** One measurement per blocked condition, at the control's reference drive and from its rheobase. */
+export function conditionTasks(plan: ForecastPlan, control: Excitability): MeasureTask[] {
+  return plan.conditions.map((c) => ({
+    kind: 'measure',
+    preset: plan.preset,
+    scale: c.scale,
+    request: {
+      protocol: excitabilityProtocol(plan.protocol),
+      drives_uA_cm2: plan.protocol.drives_uA_cm2,
+      referenceDrive_uA_cm2: control.referenceDrive_uA_cm2 ?? undefined,
+      rheobaseGuess_uA_cm2: control.rheobase_uA_cm2 ?? undefined,
+    },
+  }));
+}
+
+/** Traces for control and the chosen condition, or none (no drive to show them at). */
+export function traceTasks(plan: ForecastPlan, control: Excitability): { drive_uA_cm2: number; control: TraceTask; condition: TraceTask | null } | null {
+  if (!plan.trace) return null;
+  const drive = plan.trace.drive_uA_cm2 ?? control.referenceDrive_uA_cm2 ?? plan.protocol.drives_uA_cm2[0];
+  if (drive === undefined) return null;
+  const request = { drive_uA_cm2: drive, duration_ms: plan.trace.duration_ms, points: plan.trace.points, dt_ms: plan.protocol.dt_ms, rates: plan.protocol.rates };
+  const chosen = plan.conditions[plan.trace.condition];
+  return {
+    drive_uA_cm2: drive,
+    control: { kind: 'trace', preset: plan.preset, scale: {}, request },
+    condition: chosen ? { kind: 'trace', preset: plan.preset, scale: chosen.scale, request } : null,
+  };
+}

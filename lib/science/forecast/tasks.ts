@@ -1,0 +1,36 @@
+import { measureExcitability, type Excitability, type ExcitabilityRequest } from '../neuron/excitability';
+import { compileModel } from '../neuron/model';
+import type { NeuronPreset } from '../neuron/types';
+import { voltageTrace, type TraceRequest } from '../neuron/voltage-trace';
+import type { VoltageTrace } from '../neuron/downsample';
+
+/** Units of forecast work; plain data, so they cross to a worker thread unchanged. */
+export interface MeasureTask {
+  kind: 'measure';
+  preset: NeuronPreset;
+  /** Conductance → multiplier (1 − block). */
+  scale: Record<string, number>;
+  request: ExcitabilityRequest;
+}
+
+export interface TraceTask {
+  kind: 'trace';
+  preset: NeuronPreset;
+  scale: Record<string, number>;
+  request: TraceRequest;
+}
+
+export type ForecastTask = MeasureTask | TraceTask;
+
+export function runMeasureTask(task: MeasureTask): Excitability {
+  return measureExcitability(compileModel(task.preset, task.scale), task.request);
+}
+
+export function runTraceTask(task: TraceTask): VoltageTrace {
+  return voltageTrace(compileModel(task.preset, task.scale), task.request);
+}
+
+/** Run either kind of task (the worker's entry point uses this). */
+export function runForecastTask(task: ForecastTask): Excitability | VoltageTrace {
+  return task.kind === 'measure' ? runMeasureTask(task) : runTraceTask(task);
+}
