@@ -1,0 +1,93 @@
+import { createHash } from 'node:crypto';
+import { availableParallelism } from 'node:os';
+import path from 'node:path';
+import { Piscina } from 'piscina';
+import type { VoltageTrace } from '../neuron/downsample';
+import type { Excitability } from '../neuron/excitability';
+import { assembleForecast, type ForecastResult } from './assemble';
+import { LruCache } from './lru-cache';
+import { conditionTasks, controlTask, planForecast, traceTasks } from './plan';
+import { parseForecastRequest } from './request-schema';
+import type { ForecastTask, MeasureTask, TraceTask } from './tasks';
+
+/** The worker file, resolved from the repository root (the app and scripts run from there). */
+export const FORECAST_WORKER_FILE = path.join(process.cwd(), 'lib', 'science', 'forecast', 'forecast-worker.ts');
+
+/** Results kept per preset + scaled conductances + protocol (one entry per condition or trace). */
+export const FORECAST_CACHE_ENTRIES = 500;
+
+interface PoolState {
+  pool: Piscina | null;
+  cache: LruCache<Excitability | VoltageTrace>;
+}
+
+// Kept on globalThis so that development reloads of this module reuse one pool.
+const STATE_KEY = Symbol.for('gatewell.forecast.pool');
+const state: PoolState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as PoolState | undefined) ?? {
+  pool: null,
+  cache: new LruCache(FORECAST_CACHE_ENTRIES),
+};
+(globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
+
+function pool(): Piscina {
+  state.pool ??= new Piscina({
+    filename: FORECAST_WORKER_FILE,
+    // The worker is TypeScript; tsx compiles it on load inside each thread.
+    execArgv: ['--import', 'tsx'],
+    minThreads: 1,
+    maxThreads: Math.max(1, Math.min(4, availableParallelism())),
+    idleTimeout: 60_000,
+  });
+  return state.pool;
+}
+
+/** Cache key: preset (name and content), scaled conductances and the whole protocol of the task. */
+function cacheKey(task: ForecastTask): string {
+  const scaled = task.preset.conductances.map((c) => [c.name, c.g_mS_cm2 * (task.scale[c.name] ?? 1)]);
+  const presetHash = createHash('sha1').update(JSON.stringify(task.preset)).digest('hex');
+  return `${task.kind}|${task.preset.name}|${presetHash}|${JSON.stringify(scaled)}|${JSON.stringify(task.request)}`;
+}
+
+async function run<T extends Excitability | VoltageTrace>(task: MeasureTask | TraceTask): Promise<T> {
+  const key = cacheKey(task);
+  const hit = state.cache.get(key);
+  if (hit) return structuredClone(hit) as T;
+  const result = (await pool().run(task)) as T;
+  state.cache.set(key, result);
+  return structuredClone(result);
+}
+
+/**
+ * Excitability forecast on worker threads: the control first (its rheobase sets the reference
+ * drive and the search start), then every condition and both traces in parallel. Same result as
+ * computeForecast. Throws ForecastRequestError on an invalid request.
+ */
+export async function runForecast(input: unknown): Promise<ForecastResult> {
+  const plan = planForecast(parseForecastRequest(input));
+  const control = await run<Excitability>(controlTask(plan));
+  const t = traceTasks(plan, control);
+  const [conditions, controlTrace, conditionTrace] = await Promise.all([
+    Promise.all(conditionTasks(plan, control).map((task) => run<Excitability>(task))),
+    t ? run<VoltageTrace>(t.control) : Promise.resolve(null),
+    t?.condition ? run<VoltageTrace>(t.condition) : Promise.resolve(null),
+  ]);
+  const traces = t && controlTrace ? { drive_uA_cm2: t.drive_uA_cm2, control: controlTrace, condition: conditionTrace } : null;
+  return assembleForecast(plan, control, conditions, traces);
+}
+
+/** Stop the worker threads (scripts and tests call this so the process can exit). */
+export async function closeForecastPool(): Promise<void> {
+  const p = state.pool;
+  state.pool = null;
+  if (p) await p.destroy();
+}
+
+/** Empty the result cache. */
+export function clearForecastCache(): void {
+  state.cache.clear();
+}
+
+/** Number of cached results (for tests and diagnostics). */
+export function forecastCacheSize(): number {
+  return state.cache.size;
+}
