@@ -1,4 +1,5 @@
 import 'server-only';
+import { unstable_rethrow } from 'next/navigation';
 import { z, type ZodType } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
 import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
@@ -25,17 +26,29 @@ export function validatedAction<Schema extends ZodType, Result extends ActionSta
     if (!actor) return { message: 'Your session has ended. Sign in again.' };
     try {
       if (roles.length) requireRole(actor, ...roles);
-      const parsed = schema.safeParse(Object.fromEntries(formData));
+      const parsed = schema.safeParse(formFields(formData));
       if (!parsed.success) {
         return { message: 'Some fields need attention.', fieldErrors: z.flattenError(parsed.error).fieldErrors as ActionState['fieldErrors'] };
       }
       return await run(parsed.data, actor, formData);
     } catch (error) {
+      unstable_rethrow(error); // redirect() and notFound() inside run must reach Next
       if (isAppError(error)) return { message: error.message, fieldErrors: fieldErrorsOf(error.details) };
       console.error('unhandled action error', error);
       return { message: 'Something failed on the server; nothing was changed.' };
     }
   };
+}
+
+/** The form's fields; a name sent more than once (checkboxes) becomes an array; Next's own fields are left out. */
+export function formFields(formData: FormData): Record<string, unknown> {
+  const fields: Record<string, unknown> = {};
+  for (const key of new Set(formData.keys())) {
+    if (key.startsWith('$ACTION')) continue;
+    const values = formData.getAll(key);
+    fields[key] = values.length > 1 ? values : values[0];
+  }
+  return fields;
 }
 
 function fieldErrorsOf(details: unknown): ActionState['fieldErrors'] {
