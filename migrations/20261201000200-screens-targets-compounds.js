@@ -18,7 +18,7 @@ module.exports = {
           series_max_mohm double precision not null default 25,
           capacitance_min_pf double precision not null default 1,
           capacitance_max_pf double precision not null default 100,
-          rundown_max_fraction double precision not null default 0.3,
+          rundown_max_fraction double precision not null default 0.2,
           normalise_to_reference boolean not null default false,
           exposures_um double precision[] not null default '{}',
           created_by uuid not null references users (id),

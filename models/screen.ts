@@ -33,7 +33,7 @@ export class Screen extends Model<InferAttributes<Screen>, InferCreationAttribut
         seriesMaxMohm: double(25),
         capacitanceMinPf: double(1),
         capacitanceMaxPf: double(100),
-        rundownMaxFraction: double(0.3),
+        rundownMaxFraction: double(0.2),
         normaliseToReference: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         exposuresUm: { type: DataTypes.ARRAY(DataTypes.DOUBLE), allowNull: false, defaultValue: [] },
         createdBy: { type: DataTypes.UUID, allowNull: false },

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
+import { AppError } from '@/lib/errors';
 import { Screen, Target } from '@/models';
 
 export interface ScreenDetail {
@@ -27,7 +28,22 @@ export async function listScreens(actor: Actor): Promise<ScreenDetail[]> {
     include: [{ model: Target, as: 'targets' }],
     order: [['name', 'ASC'], [{ model: Target, as: 'targets' }, 'name', 'ASC']],
   });
-  return screens.map((screen) => {
+  return screens.map(toDetail);
+}
+
+/** One screen with its targets, or not_found. */
+export async function getScreen(actor: Actor, screenId: string): Promise<ScreenDetail> {
+  void actor; // every signed-in role may read screens
+  db();
+  const screen = await Screen.findByPk(screenId, {
+    include: [{ model: Target, as: 'targets' }],
+    order: [[{ model: Target, as: 'targets' }, 'name', 'ASC']],
+  });
+  if (!screen) throw new AppError('not_found', 'No such screen.');
+  return toDetail(screen);
+}
+
+function toDetail(screen: Screen): ScreenDetail {
     const plain = screen.get({ plain: true }) as Screen & { targets: Target[] };
     return {
       id: plain.id,
@@ -44,5 +60,4 @@ export async function listScreens(actor: Actor): Promise<ScreenDetail[]> {
       exposuresUm: plain.exposuresUm,
       targets: plain.targets.map((t) => ({ id: t.id, name: t.name, conductance: t.conductance })),
     };
-  });
 }

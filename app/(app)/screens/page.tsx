@@ -1,7 +1,9 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
+import { hasRole } from '@/lib/auth/roles';
 import { listScreens } from '@/lib/screens/list';
 
 export const metadata: Metadata = { title: 'Screens' };
@@ -18,21 +20,24 @@ function Threshold({ label, value }: { label: string; value: string }) {
 export default async function ScreensPage() {
   const actor = await requireActor();
   const screens = await listScreens(actor);
+  const actions = hasRole(actor, 'admin') ? <Link href="/screens/new" className="gw-button">New screen</Link> : undefined;
   if (!screens.length) {
     return (
       <>
-        <PageHeader title="Screens" />
+        <PageHeader title="Screens" actions={actions} />
         <EmptyState title="No screens yet">An administrator creates a screen with its targets and QC thresholds.</EmptyState>
       </>
     );
   }
   return (
     <>
-      <PageHeader title="Screens" intro="Campaigns, the currents they measure and the model conductance each maps to." />
+      <PageHeader title="Screens" intro="Campaigns, the currents they measure and the model conductance each maps to." actions={actions} />
       <div className="grid gap-4 xl:grid-cols-2">
         {screens.map((screen) => (
           <section key={screen.id} className="gw-card p-5" aria-labelledby={`screen-${screen.id}`}>
-            <h2 id={`screen-${screen.id}`} className="text-lg font-semibold">{screen.name}</h2>
+            <h2 id={`screen-${screen.id}`} className="text-lg font-semibold">
+              <Link href={`/screens/${screen.id}`} className="hover:text-lagoon-700 hover:underline">{screen.name}</Link>
+            </h2>
             <p className="mt-1 text-sm text-ink-700">{screen.description}</p>
             <p className="mt-3 text-xs uppercase tracking-wide text-ink-500">Neuron preset</p>
             <p className="font-mono text-sm">{screen.neuronPreset}</p>

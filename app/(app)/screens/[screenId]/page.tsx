@@ -1,0 +1,52 @@
+import type { Metadata } from 'next';
+import { notFound } from 'next/navigation';
+import { ScreenForm } from '@/components/screens/screen-form';
+import { TargetForm } from '@/components/screens/target-form';
+import { DataTable } from '@/components/ui/data-table';
+import { PageHeader } from '@/components/ui/page-header';
+import { requireActor } from '@/lib/auth/current-actor';
+import { hasRole } from '@/lib/auth/roles';
+import { isAppError } from '@/lib/errors';
+import { getScreen } from '@/lib/screens/list';
+import { parseId } from '@/lib/validation/ids';
+import { blockableConductances } from '@/lib/validation/screens';
+import { addTargetAction, updateScreenAction } from '../actions';
+import { PRESET_OPTIONS } from '../presets';
+
+export const metadata: Metadata = { title: 'Screen' };
+
+export default async function ScreenPage({ params }: { params: Promise<{ screenId: string }> }) {
+  const actor = await requireActor();
+  const screen = await getScreen(actor, parseId((await params).screenId, 'screen')).catch((error) => {
+    if (isAppError(error) && error.code === 'not_found') notFound();
+    throw error;
+  });
+  const isAdmin = hasRole(actor, 'admin');
+  return (
+    <>
+      <PageHeader title={screen.name} intro={screen.description || undefined} />
+      <section className="space-y-3" aria-labelledby="targets-heading">
+        <h2 id="targets-heading" className="text-lg font-semibold">Targets</h2>
+        {screen.targets.length ? (
+          <DataTable caption="Targets" rows={screen.targets} rowKey={(t) => t.id} columns={[
+            { header: 'Target', cell: (t) => t.name },
+            { header: 'Model conductance', cell: (t) => <span className="font-mono">{t.conductance}</span> },
+          ]} />
+        ) : (
+          <p className="text-sm text-ink-700">No targets yet: plates of this screen cannot be imported until it names the currents it measures.</p>
+        )}
+        {isAdmin ? (
+          <div className="gw-card p-5">
+            <TargetForm action={addTargetAction} screenId={screen.id} conductances={blockableConductances(screen.neuronPreset)} />
+          </div>
+        ) : null}
+      </section>
+      {isAdmin ? (
+        <section className="gw-card mt-6 p-5" aria-labelledby="settings-heading">
+          <h2 id="settings-heading" className="mb-3 text-lg font-semibold">Settings and QC limits</h2>
+          <ScreenForm action={updateScreenAction} screen={screen} presets={PRESET_OPTIONS} submitLabel="Save settings" />
+        </section>
+      ) : null}
+    </>
+  );
+}

@@ -1,0 +1,32 @@
+'use server';
+
+import { revalidatePath } from 'next/cache';
+import { redirect } from 'next/navigation';
+import { z } from 'zod';
+import { validatedAction } from '@/lib/actions/validated-action';
+import { addTarget, createScreen, updateScreen } from '@/lib/screens/service';
+import { parseId } from '@/lib/validation/ids';
+import { screenSchema, targetSchema } from '@/lib/validation/screens';
+
+/** Creates a screen and opens it to add targets. */
+export const createScreenAction = validatedAction(screenSchema, ['admin'], async (input, actor) => {
+  const { id } = await createScreen(actor, input);
+  revalidatePath('/screens');
+  redirect(`/screens/${id}`);
+});
+
+/** Saves a screen's settings. */
+export const updateScreenAction = validatedAction(screenSchema.and(z.object({ screenId: z.string() })), ['admin'], async (input, actor) => {
+  const { screenId, ...fields } = input;
+  await updateScreen(actor, parseId(screenId, 'screen'), fields);
+  revalidatePath(`/screens/${screenId}`);
+  return { ok: true, message: 'Saved.' };
+});
+
+/** Adds a target to a screen. */
+export const addTargetAction = validatedAction(targetSchema.extend({ screenId: z.string() }), ['admin'], async (input, actor) => {
+  const { screenId, ...fields } = input;
+  await addTarget(actor, parseId(screenId, 'screen'), fields);
+  revalidatePath(`/screens/${screenId}`);
+  return { ok: true, message: `Target ${fields.name} added.` };
+});

@@ -1,0 +1,74 @@
+import 'server-only';
+import { UniqueConstraintError } from 'sequelize';
+import { recordAudit } from '@/lib/audit/record';
+import { requireRole, type Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { AppError } from '@/lib/errors';
+import { blockableConductances, type ScreenInput, type TargetInput } from '@/lib/validation/screens';
+import { Screen, Target } from '@/models';
+
+function columns(input: ScreenInput) {
+  const { rundownMaxPercent, ...rest } = input;
+  return { ...rest, rundownMaxFraction: rundownMaxPercent / 100 };
+}
+
+function plainScreen(screen: Screen) {
+  const { createdAt: _c, updatedAt: _u, ...rest } = screen.get({ plain: true });
+  return rest;
+}
+
+function conflict(error: unknown, message: string, field: string): never {
+  if (error instanceof UniqueConstraintError) throw new AppError('conflict', message, { fieldErrors: { [field]: [message] } });
+  throw error;
+}
+
+/** Creates a screen with its QC thresholds (admin). */
+export async function createScreen(actor: Actor, input: ScreenInput): Promise<{ id: string }> {
+  requireRole(actor, 'admin');
+  return db().transaction(async (transaction) => {
+    const screen = await Screen.create({ ...columns(input), createdBy: actor.id }, { transaction }).catch((e) =>
+      conflict(e, `A screen named ${input.name} already exists.`, 'name'),
+    );
+    await recordAudit({ actorId: actor.id, action: 'create', entityType: 'screen', entityId: screen.id, after: plainScreen(screen), address: actor.address }, transaction);
+    return { id: screen.id };
+  });
+}
+
+/** Changes a screen's description, preset, thresholds or exposures (admin); plates keep their stored QC. */
+export async function updateScreen(actor: Actor, screenId: string, input: ScreenInput): Promise<void> {
+  requireRole(actor, 'admin');
+  await db().transaction(async (transaction) => {
+    const screen = await Screen.findByPk(screenId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!screen) throw new AppError('not_found', 'No such screen.');
+    const targets = await Target.findAll({ where: { screenId }, transaction });
+    const allowed = blockableConductances(input.neuronPreset);
+    const orphan = targets.find((t) => !allowed.includes(t.conductance));
+    if (orphan) {
+      throw new AppError('invalid', `Target ${orphan.name} maps to ${orphan.conductance}, which ${input.neuronPreset} does not have.`, {
+        fieldErrors: { neuronPreset: [`${input.neuronPreset} has no ${orphan.conductance} for target ${orphan.name}.`] },
+      });
+    }
+    const before = plainScreen(screen);
+    await screen.update(columns(input), { transaction }).catch((e) => conflict(e, `A screen named ${input.name} already exists.`, 'name'));
+    await recordAudit({ actorId: actor.id, action: 'update', entityType: 'screen', entityId: screenId, before, after: plainScreen(screen), address: actor.address }, transaction);
+  });
+}
+
+/** Adds a target to a screen, mapped to a blockable conductance of the screen's preset (admin). */
+export async function addTarget(actor: Actor, screenId: string, input: TargetInput): Promise<{ id: string }> {
+  requireRole(actor, 'admin');
+  return db().transaction(async (transaction) => {
+    const screen = await Screen.findByPk(screenId, { transaction });
+    if (!screen) throw new AppError('not_found', 'No such screen.');
+    const allowed = blockableConductances(screen.neuronPreset);
+    if (!allowed.includes(input.conductance)) {
+      const message = `${screen.neuronPreset} has no blockable conductance ${input.conductance}; choose one of ${allowed.join(', ')}.`;
+      throw new AppError('invalid', message, { fieldErrors: { conductance: [message] } });
+    }
+    const target = await Target.create({ ...input, screenId }, { transaction }).catch((e) =>
+      conflict(e, `This screen already has a target named ${input.name}.`, 'name'),
+    );
+    await recordAudit({ actorId: actor.id, action: 'create', entityType: 'target', entityId: target.id, after: { screenId, ...input }, address: actor.address }, transaction);
+    return { id: target.id };
+  });
+}
