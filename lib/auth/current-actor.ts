@@ -1,21 +1,13 @@
 import 'server-only';
 import { redirect } from 'next/navigation';
 import { cache } from 'react';
-import { db } from '@/lib/db';
-import { User, UserRole } from '@/models';
-import type { Actor, Role } from './roles';
+import { loadActor } from './load-actor';
+import type { Actor } from './roles';
 import { requestAddress } from './request-address';
 import { getSession } from './session';
 import { sessionIsFresh } from './session-config';
 
-/** Loads an enabled user with roles, or null; shared by the session check and sign-in. */
-export async function loadActor(userId: string, address: string): Promise<(Actor & { sessionVersion: number }) | null> {
-  db();
-  const user = await User.findByPk(userId, { include: [{ model: UserRole, as: 'roles' }] });
-  if (!user || user.disabledAt) return null;
-  const roles = ((user.get('roles') as UserRole[] | undefined) ?? []).map((r) => r.role as Role).sort();
-  return { id: user.id, email: user.email, name: user.name, roles, address, sessionVersion: user.sessionVersion };
-}
+export { loadActor };
 
 /**
  * The signed-in actor of this request, or null when the session is missing, expired, belongs to a

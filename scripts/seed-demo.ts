@@ -1,0 +1,75 @@
+// Seeds the invented demo scenario through Gatewell's own services, so every row is validated and
+// audited like a user's: two screens with their targets, the demo compounds with a batch each.
+// Run by seeders/20261201000200-demo-scenario.js as
+//   node --conditions=react-server --import tsx scripts/seed-demo.ts
+// (the react-server condition makes the 'server-only' marker an empty module outside Next).
+import { loadActor } from '@/lib/auth/load-actor';
+import type { Actor } from '@/lib/auth/roles';
+import { createCompound, insertBatch } from '@/lib/compounds/service';
+import { db } from '@/lib/db';
+import { addTarget, createScreen } from '@/lib/screens/service';
+import { screenSchema } from '@/lib/validation/screens';
+import { Compound, Screen } from '@/models';
+import { DEMO_COMPOUNDS, DEMO_TARGETS } from './demo-plates/demo-compounds';
+
+async function demoActor(email: string): Promise<Actor> {
+  db();
+  const { User } = await import('@/models');
+  const user = await User.findOne({ where: { email } });
+  const actor = user && (await loadActor(user.id, '127.0.0.1'));
+  if (!actor) throw new Error(`demo user ${email} is missing: run the user seeder first`);
+  const { sessionVersion: _v, ...rest } = actor;
+  return rest;
+}
+
+/** Invented screens of the demo: a sodium pain screen and a potassium counter-screen. */
+const DEMO_SCREENS = [
+  {
+    name: 'Pain sodium screen',
+    description: 'Invented demo: state-dependent blockers of a neuronal sodium current, primary potency.',
+    conductance: 'gNa',
+    targets: Object.entries(DEMO_TARGETS).filter(([, t]) => t.screen === 'Pain sodium screen').map(([name]) => name),
+  },
+  {
+    name: 'Potassium counter-screen',
+    description: 'Invented demo: the same series on a slow M-type potassium current, for selectivity.',
+    conductance: 'gM',
+    targets: Object.entries(DEMO_TARGETS).filter(([, t]) => t.screen === 'Potassium counter-screen').map(([name]) => name),
+  },
+];
+
+async function seedScreens(admin: Actor): Promise<void> {
+  for (const demo of DEMO_SCREENS) {
+    if (await Screen.findOne({ where: { name: demo.name } })) continue;
+    const input = screenSchema.parse({
+      name: demo.name, description: demo.description, neuronPreset: 'pospischil-rs-2008', zprimeMin: 0.5, sealMinGohm: 0.5,
+      controlCurrentMinPa: 200, seriesMaxMohm: 25, capacitanceMinPf: 1, capacitanceMaxPf: 100, rundownMaxPercent: 20,
+      exposuresUm: '0.03, 0.1, 0.3, 1',
+    });
+    const { id } = await createScreen(admin, input);
+    for (const name of demo.targets) await addTarget(admin, id, { name, conductance: demo.conductance, description: '' });
+  }
+}
+
+async function seedCompounds(chemist: Actor): Promise<void> {
+  for (const demo of DEMO_COMPOUNDS) {
+    if (await Compound.findOne({ where: { identifier: demo.identifier } })) continue;
+    const compound = await createCompound(chemist, { identifier: demo.identifier, name: demo.name, smiles: '', molecularWeight: demo.molecularWeight });
+    await db().transaction((transaction) =>
+      insertBatch(chemist, compound.id, { lot: `${demo.identifier}-B01`, purityPercent: 98.5, stockConcentrationMm: 10, solvent: 'DMSO' }, transaction),
+    );
+  }
+}
+
+async function main(): Promise<void> {
+  const admin = await demoActor('admin@gatewell.test');
+  const chemist = await demoActor('chemist@gatewell.test');
+  await seedScreens(admin);
+  await seedCompounds(chemist);
+  await db().close();
+}
+
+main().catch((error: unknown) => {
+  console.error(error);
+  process.exit(1);
+});
