@@ -44,6 +44,7 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
     rheobaseStep_ms: p.stepMs ?? DEFAULT_FORECAST_PROTOCOL.rheobaseStep_ms,
     rateStep_ms: p.rateStepMs ?? DEFAULT_FORECAST_PROTOCOL.rateStep_ms,
     thresholdSlope_mV_ms: p.thresholdSlope_mV_ms ?? DEFAULT_FORECAST_PROTOCOL.thresholdSlope_mV_ms,
+    thresholdStepFactor: p.thresholdStepFactor ?? DEFAULT_FORECAST_PROTOCOL.thresholdStepFactor,
     rheobaseRelTolerance: p.rheobaseRelTolerance ?? DEFAULT_FORECAST_PROTOCOL.rheobaseRelTolerance,
     rheobaseCeiling_uA_cm2: p.rheobaseCeiling_uA_cm2 ?? DEFAULT_FORECAST_PROTOCOL.rheobaseCeiling_uA_cm2,
     referenceDriveFactor: p.referenceDriveFactor ?? DEFAULT_FORECAST_PROTOCOL.referenceDriveFactor,
@@ -76,8 +77,8 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
 }
 
 function excitabilityProtocol(p: ForecastProtocol): ExcitabilityProtocol {
-  const { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms } = p;
-  return { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms };
+  const { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms, thresholdStepFactor } = p;
+  return { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms, thresholdStepFactor };
 }
 
 /** The control's measurement (its own rheobase sets the reference drive). */

@@ -7,6 +7,7 @@ export const forecastProtocolSchema = z.strictObject({
   rateStepMs: z.number({ error: 'rateStepMs must be a number (ms)' }).min(100, { error: 'rateStepMs must be at least 100 ms' }).max(20_000, { error: 'rateStepMs must be at most 20000 ms' }).optional(),
   dt_ms: z.number({ error: 'dt_ms must be a number (ms)' }).min(0.001, { error: 'dt_ms must be at least 0.001 ms' }).max(0.1, { error: 'dt_ms must be at most 0.1 ms' }).optional(),
   thresholdSlope_mV_ms: z.number({ error: 'thresholdSlope_mV_ms must be a number' }).positive({ error: 'thresholdSlope_mV_ms must be positive' }).max(1000).optional(),
+  thresholdStepFactor: z.number({ error: 'thresholdStepFactor must be a number' }).min(1, { error: 'thresholdStepFactor must be at least 1' }).max(10).optional(),
   rheobaseRelTolerance: z.number({ error: 'rheobaseRelTolerance must be a number' }).min(1e-6).max(0.1).optional(),
   rheobaseCeiling_uA_cm2: z.number({ error: 'rheobaseCeiling_uA_cm2 must be a number' }).positive().max(10_000).optional(),
   referenceDriveFactor: z.number({ error: 'referenceDriveFactor must be a number' }).positive({ error: 'referenceDriveFactor must be positive' }).max(100).optional(),

@@ -1,6 +1,7 @@
 import { firingRate, type FiringRate } from './firing-rate';
-import { DEFAULT_DT_MS } from './integrate';
+import { DEFAULT_DT_MS, simulate } from './integrate';
 import type { CompiledModel } from './model';
+import type { MembraneState } from './types';
 import { findRest } from './rest';
 import { findRheobase } from './rheobase';
 
@@ -28,6 +29,14 @@ export interface ExcitabilityProtocol {
   rateStep_ms: number;
   /** dV/dt marking spike threshold (mV/ms); common practice 10–20. @default 10 */
   thresholdSlope_mV_ms: number;
+  /**
+   * The threshold is read from the first spike of a step at this multiple of the rheobase. Exactly
+   * at the rheobase the trajectory grazes the firing boundary and the voltage where dV/dt reaches
+   * the slope depends on how close the bisection came (about 1 mV in Hodgkin–Huxley); 5 % above it,
+   * like the first spiking sweep of a stepped protocol, it is well defined. Our choice, no source.
+   * @default 1.05
+   */
+  thresholdStepFactor: number;
 }
 
 export const DEFAULT_EXCITABILITY_PROTOCOL: ExcitabilityProtocol = {
@@ -38,6 +47,7 @@ export const DEFAULT_EXCITABILITY_PROTOCOL: ExcitabilityProtocol = {
   rheobaseCeiling_uA_cm2: 200,
   rateStep_ms: 1000,
   thresholdSlope_mV_ms: 10,
+  thresholdStepFactor: 1.05,
 };
 
 /** Voltage above which a silent cell counts as depolarisation-blocked when its threshold is unknown. */
@@ -59,12 +69,25 @@ export interface Excitability {
   rest_mV: number | null;
   rheobase_uA_cm2: number | null;
   rheobaseBracket_uA_cm2: [number, number] | null;
+  /** Threshold of the first spike at thresholdStepFactor × rheobase. */
   threshold_mV: number | null;
+  /** Latency of the first spike at the rheobase (ms from step onset). */
   firstSpikeLatency_ms: number | null;
   referenceDrive_uA_cm2: number | null;
   reference: FiringRate | null;
   fI: FiringRate[];
   flags: ExcitabilityFlag[];
+}
+
+/** Threshold (mV) of the first spike of a step from rest, or null. */
+function thresholdAt(model: CompiledModel, rest: MembraneState, current: number, p: ExcitabilityProtocol): number | null {
+  const run = simulate(
+    model,
+    rest,
+    { current_uA_cm2: current, duration_ms: p.rheobaseStep_ms, stopAtFirstSpike: true, thresholdSlope_mV_ms: p.thresholdSlope_mV_ms },
+    { dt_ms: p.dt_ms, rates: p.rates },
+  );
+  return run.firstSpikeThreshold_mV;
 }
 
 /** Rest, rheobase, threshold, rates and flags of one (possibly blocked) model. */
@@ -87,7 +110,7 @@ export function measureExcitability(model: CompiledModel, request: ExcitabilityR
           thresholdSlope_mV_ms: p.thresholdSlope_mV_ms,
         });
   if (rheo && rheo.rheobase_uA_cm2 === null) flags.add('loss-of-firing');
-  const threshold = rheo?.threshold_mV ?? null;
+  const threshold = rheo?.rheobase_uA_cm2 != null ? thresholdAt(model, rest.start, rheo.rheobase_uA_cm2 * p.thresholdStepFactor, p) : null;
   const referenceDrive =
     request.referenceDrive_uA_cm2 ??
     (request.referenceDriveFactor !== undefined && rheo?.rheobase_uA_cm2 != null ? request.referenceDriveFactor * rheo.rheobase_uA_cm2 : null);
