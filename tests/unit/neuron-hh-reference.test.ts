@@ -1,0 +1,93 @@
+// The Hodgkin–Huxley 1952 preset against published behaviour (values copied from CHECK-VALUES.md).
+import { describe, expect, test } from 'vitest';
+import { firingRate } from '@/lib/science/neuron/firing-rate';
+import { simulate } from '@/lib/science/neuron/integrate';
+import { compileModel } from '@/lib/science/neuron/model';
+import { hhSquid1952 } from '@/lib/science/neuron/presets/hh-squid-1952';
+import { findRest } from '@/lib/science/neuron/rest';
+import { findRheobase } from '@/lib/science/neuron/rheobase';
+import { fixedPoints, isStable } from '@/lib/science/neuron/steady-state';
+
+const model = compileModel(hhSquid1952);
+const rest = findRest(model);
+
+/** Mean inter-spike interval (ms) of the spikes after `from_ms`. */
+function meanIsi(spikes: number[], from_ms: number): number {
+  const s = spikes.filter((t) => t >= from_ms);
+  return (s[s.length - 1]! - s[0]!) / (s.length - 1);
+}
+
+describe('rest and stability', () => {
+  test('rest with no drive is −64.996 mV (HH 1952 with E_L = −54.387 mV)', () => {
+    // Published to 3 decimals; our fixed point is found to 1e-10 mV, so ±0.001 mV is the rounding.
+    expect(rest.rest_mV).not.toBeNull();
+    expect(Math.abs(rest.rest_mV! + 64.996)).toBeLessThanOrEqual(0.0005);
+    expect(rest.spontaneousFiring).toBe(false);
+  });
+
+  test('rest loses stability at the subcritical Hopf bifurcation, I = 9.7754 µA/cm² (Hendrick, computer-assisted proof)', () => {
+    const below = fixedPoints(model, 9.77);
+    const above = fixedPoints(model, 9.78);
+    expect(below).toHaveLength(1);
+    expect(above).toHaveLength(1);
+    expect(below[0]!.stable).toBe(true);
+    expect(above[0]!.stable).toBe(false);
+  });
+
+  test('rest is stable again at high drive (second Hopf point near 154.5 µA/cm², from memory)', () => {
+    expect(fixedPoints(model, 150)[0]!.stable).toBe(false);
+    expect(fixedPoints(model, 160)[0]!.stable).toBe(true);
+    expect(isStable(model, rest.rest_mV!)).toBe(true);
+  });
+});
+
+describe('firing from rest (step at t = 0, spike = upward crossing of 0 mV)', () => {
+  // "About 68.3 Hz at 10 µA/cm² and 86.5 Hz at 20 µA/cm²", widely reproduced numerical values given to
+  // 0.1 Hz. Reproductions differ in window and integrator; we accept ±0.1 Hz (0.15 %) at the default
+  // step. Halving dt moves our rates by under 0.05 % (neuron-convergence.test.ts).
+  test.each([
+    [10, 68.3],
+    [20, 86.5],
+  ])('rate at %s µA/cm² is about %s Hz', (drive, published) => {
+    const r = firingRate(model, rest.start, drive);
+    expect(Math.abs(r.rate_Hz - published)).toBeLessThanOrEqual(0.1);
+  });
+
+  test('rheobase for a 500 ms step from rest is about 2.24 µA/cm²', () => {
+    // Published to 2 decimals (±0.005); the bisection stops within 0.1 % (±0.0022).
+    const r = findRheobase(model, rest.start, { step_ms: 500 });
+    expect(r.rheobase_uA_cm2).not.toBeNull();
+    expect(Math.abs(r.rheobase_uA_cm2! - 2.24)).toBeLessThanOrEqual(0.005);
+    const [lo, hi] = r.bracket!;
+    expect(hi - lo).toBeLessThanOrEqual(1e-3 * hi);
+  });
+});
+
+describe('the limit cycle (Hendrick; Rinzel & Miller 1980, from memory)', () => {
+  // Start from a spiking state: 500 ms of firing at 8 µA/cm² from rest.
+  const dtFine = 0.00625;
+  const spiking = simulate(model, rest.start, { current_uA_cm2: 8, duration_ms: 500 }, { dt_ms: dtFine }).end;
+
+  test('period at 8 µA/cm² is 16.0077 ms', () => {
+    // At dt = 0.00625 ms the period is within 0.001 ms (0.006 %); at the default 0.025 ms within 0.01 ms.
+    const fine = simulate(model, spiking, { current_uA_cm2: 8, duration_ms: 2000 }, { dt_ms: dtFine });
+    expect(Math.abs(meanIsi(fine.spikeTimes_ms, 1000) - 16.0077)).toBeLessThanOrEqual(0.001);
+    const coarse = simulate(model, spiking, { current_uA_cm2: 8, duration_ms: 2000 });
+    expect(Math.abs(meanIsi(coarse.spikeTimes_ms, 1000) - 16.0077)).toBeLessThanOrEqual(0.01);
+  });
+
+  test('rest coexists with the limit cycle at 8 µA/cm²', () => {
+    expect(fixedPoints(model, 8)[0]!.stable).toBe(true);
+  });
+
+  test('sustained firing starts near 6.2603 µA/cm² (fold of limit cycles), at about 50.3 Hz', () => {
+    // 4 s windows: transients near the fold are long (CHECK-VALUES.md: over 800 ms).
+    const below = simulate(model, spiking, { current_uA_cm2: 6.25, duration_ms: 4000 });
+    expect(below.spikeTimes_ms.filter((t) => t >= 3000)).toHaveLength(0);
+    const above = simulate(model, spiking, { current_uA_cm2: 6.27, duration_ms: 4000 });
+    const rate = 1000 / meanIsi(above.spikeTimes_ms, 3000);
+    // Just above the fold the rate sits a little above the minimum sustained rate of 50.3 Hz.
+    expect(rate).toBeGreaterThanOrEqual(50.3);
+    expect(rate).toBeLessThan(52);
+  });
+});
