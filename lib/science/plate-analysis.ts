@@ -1,0 +1,128 @@
+// A whole plate through the science: well QC per readout, fractional block and Z′ per target, Hill fits
+// per compound × target. Pure and deterministic; the import and every exclusion change call it.
+import { computeFractionalBlock, type BlockNoteCode } from './block';
+import { fitHill, type HillFitResult } from './hill-fit';
+import type { HillModelName } from './hill-model';
+import { checkWells, type QcReason } from './qc';
+import type { QcThresholds } from './qc-thresholds';
+import type { WellRole } from './well';
+import type { ZPrimeResult } from './zprime';
+
+export interface AnalysisWell {
+  id: string;
+  role: 'vehicle' | 'reference' | 'test';
+  compoundId: string | null;
+  concentration_uM: number | null;
+  sealResistance_GOhm: number | null;
+  seriesResistance_MOhm: number | null;
+  capacitance_pF: number | null;
+  /** Excluded by a person (with a reason); never deleted. */
+  excluded: boolean;
+}
+
+export interface AnalysisReadout {
+  id: string;
+  wellId: string;
+  /** Target identity (id or name), the same for every readout of one target. */
+  target: string;
+  controlCurrent_pA: number | null;
+  compoundCurrent_pA: number | null;
+}
+
+export interface AnalysisSettings {
+  thresholds?: Partial<QcThresholds>;
+  normalise?: boolean;
+  /** @default 0.5 (Zhang, Chung & Oldenburg 1999: Z′ ≥ 0.5 excellent) */
+  zPrimeLimit?: number;
+  /** Model per `compoundId|target`; others use hill2. */
+  models?: Record<string, HillModelName>;
+}
+
+export interface ReadoutAnalysis {
+  id: string;
+  qcReasons: QcReason[];
+  /** Used in control means and fits: QC passed and not excluded. */
+  used: boolean;
+  block: number | null;
+}
+
+export interface TargetAnalysis {
+  target: string;
+  zPrime: ZPrimeResult;
+  rundownCorrected: boolean;
+  normalised: boolean;
+  vehicleMeanRatio: number | null;
+  notes: { code: BlockNoteCode; message: string }[];
+}
+
+export interface FitAnalysis {
+  compoundId: string;
+  target: string;
+  model: HillModelName;
+  result: HillFitResult;
+}
+
+export interface PlateAnalysis {
+  readouts: ReadoutAnalysis[];
+  targets: TargetAnalysis[];
+  fits: FitAnalysis[];
+}
+
+const SCIENCE_ROLE: Record<AnalysisWell['role'], WellRole> = { vehicle: 'vehicle', reference: 'reference', test: 'compound' };
+
+export const fitKey = (compoundId: string, target: string): string => `${compoundId}|${target}`;
+
+/** Analyses one plate; readouts of unknown wells are a programming error and throw. */
+export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly AnalysisReadout[], settings: AnalysisSettings = {}): PlateAnalysis {
+  const wellById = new Map(wells.map((w) => [w.id, w]));
+  const wellOf = (r: AnalysisReadout): AnalysisWell => {
+    const well = wellById.get(r.wellId);
+    if (!well) throw new Error(`readout ${r.id} refers to unknown well ${r.wellId}`);
+    return well;
+  };
+
+  const qc = checkWells(
+    readouts.map((r) => {
+      const w = wellOf(r);
+      return {
+        wellId: r.id, role: SCIENCE_ROLE[w.role], controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA,
+        sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
+      };
+    }),
+    settings.thresholds,
+  );
+  const used = readouts.map((r, i) => qc[i]!.passed && !wellOf(r).excluded);
+
+  const blocks = computeFractionalBlock(
+    readouts.map((r, i) => ({
+      wellId: r.id, target: r.target, role: SCIENCE_ROLE[wellOf(r).role],
+      controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA, excluded: !used[i],
+    })),
+    { normalise: settings.normalise ?? false, zPrimeLimit: settings.zPrimeLimit ?? 0.5 },
+  );
+  const blockById = new Map(blocks.flatMap((t) => t.wells.map((w) => [w.wellId, w.block] as const)));
+
+  const groups = new Map<string, { compoundId: string; target: string; c: number[]; b: number[]; x: boolean[] }>();
+  readouts.forEach((r, i) => {
+    const w = wellOf(r);
+    if (w.role !== 'test' || !w.compoundId || w.concentration_uM === null) return;
+    const key = fitKey(w.compoundId, r.target);
+    const group = groups.get(key) ?? { compoundId: w.compoundId, target: r.target, c: [], b: [], x: [] };
+    const block = blockById.get(r.id) ?? null;
+    group.c.push(w.concentration_uM);
+    group.b.push(block ?? Number.NaN);
+    group.x.push(!used[i] || block === null);
+    groups.set(key, group);
+  });
+
+  return {
+    readouts: readouts.map((r, i) => ({ id: r.id, qcReasons: qc[i]!.reasons, used: used[i]!, block: blockById.get(r.id) ?? null })),
+    targets: blocks.map((t) => ({
+      target: t.target, zPrime: t.zPrime, rundownCorrected: t.rundownCorrected, normalised: t.normalised, vehicleMeanRatio: t.vehicleMeanRatio, notes: t.notes,
+    })),
+    fits: [...groups.entries()].map(([key, g]) => {
+      const model = settings.models?.[key] ?? 'hill2';
+      return { compoundId: g.compoundId, target: g.target, model, result: fitHill({ concentration_uM: g.c, block: g.b, excluded: g.x }, { model }) };
+    }),
+  };
+}
