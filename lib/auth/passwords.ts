@@ -1,8 +1,13 @@
 import 'server-only';
+import { randomBytes } from 'node:crypto';
 import argon2 from 'argon2';
 
-/** Minimum password length for Gatewell accounts (common practice, no source). */
-export const MIN_PASSWORD_LENGTH = 10;
+export { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from './password-policy';
+
+/** A random password for an admin to hand over once: 16 URL-safe characters (96 bits). */
+export function generatePassword(): string {
+  return randomBytes(12).toString('base64url');
+}
 
 export function hashPassword(password: string): Promise<string> {
   return argon2.hash(password, { type: argon2.argon2id });

@@ -15,7 +15,8 @@ export type SignInResult =
   | { ok: true; userId: string; sessionVersion: number }
   | { ok: false; reason: 'invalid' | 'throttled' };
 
-async function isThrottled(email: string, address: string): Promise<boolean> {
+/** True when the account or the address has used up its failed attempts within the window. */
+export async function isThrottled(email: string, address: string): Promise<boolean> {
   const since = new Date(Date.now() - THROTTLE_WINDOW_MS);
   const failed = { succeeded: false, attemptedAt: { [Op.gte]: since } };
   const [byAccount, byAddress] = await Promise.all([
