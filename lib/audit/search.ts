@@ -1,0 +1,81 @@
+import 'server-only';
+import { QueryTypes } from 'sequelize';
+import { requireRole, type Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { parseOrRefuse } from '@/lib/validation/parse';
+import { AUDIT_PAGE_SIZE, auditFilterSchema } from '@/lib/validation/audit';
+
+/** One audit event as the audit trail shows it. */
+export interface AuditRow {
+  id: number;
+  occurredAt: string;
+  actorId: string | null;
+  actorName: string | null;
+  actorEmail: string | null;
+  action: string;
+  entityType: string;
+  entityId: string | null;
+  reason: string | null;
+  before: unknown;
+  after: unknown;
+  address: string | null;
+}
+
+export interface AuditPage {
+  rows: AuditRow[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/**
+ * The audit trail, newest first, filtered in the database by record type, record id, person and time
+ * range (from inclusive, to exclusive). Admins and approvers only.
+ */
+export async function searchAudit(actor: Actor, rawFilter: unknown): Promise<AuditPage> {
+  requireRole(actor, 'admin', 'approver');
+  const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
+  const where: string[] = [];
+  const replacements: Record<string, unknown> = {};
+  const clauses: [keyof typeof filter, string][] = [
+    ['entityType', 'a.entity_type = :entityType'],
+    ['entityId', 'a.entity_id = :entityId'],
+    ['userId', 'a.actor_id = :userId'],
+    ['from', 'a.occurred_at >= :from'],
+    ['to', 'a.occurred_at < :to'],
+  ];
+  for (const [key, sql] of clauses) {
+    if (filter[key] === undefined) continue;
+    where.push(sql);
+    replacements[key] = filter[key];
+  }
+  const whereSql = where.length ? `where ${where.join(' and ')}` : '';
+  const sequelize = db();
+
+  const [counted] = await sequelize.query<{ total: number }>(`select count(*)::int as total from audit_events a ${whereSql}`, {
+    type: QueryTypes.SELECT,
+    replacements,
+  });
+  const rows = await sequelize.query<AuditRow>(
+    `select a.id, to_char(a.occurred_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as "occurredAt",
+            a.actor_id as "actorId", u.name as "actorName", u.email as "actorEmail", a.action,
+            a.entity_type as "entityType", a.entity_id as "entityId", a.reason, a.before, a.after, a.address
+       from audit_events a left join users u on u.id = a.actor_id
+       ${whereSql}
+      order by a.occurred_at desc, a.id desc
+      limit :limit offset :offset`,
+    { type: QueryTypes.SELECT, replacements: { ...replacements, limit: AUDIT_PAGE_SIZE, offset: (filter.page - 1) * AUDIT_PAGE_SIZE } },
+  );
+  return { rows, total: counted?.total ?? 0, page: filter.page, pageSize: AUDIT_PAGE_SIZE };
+}
+
+/** The choices of the audit filter: record types that occur, and people. Admins and approvers only. */
+export async function auditFilterChoices(actor: Actor): Promise<{ entityTypes: string[]; people: { id: string; label: string }[] }> {
+  requireRole(actor, 'admin', 'approver');
+  const sequelize = db();
+  const [types, people] = await Promise.all([
+    sequelize.query<{ entityType: string }>('select distinct entity_type as "entityType" from audit_events order by 1', { type: QueryTypes.SELECT }),
+    sequelize.query<{ id: string; label: string }>(`select id, name || ' <' || email || '>' as label from users order by name`, { type: QueryTypes.SELECT }),
+  ]);
+  return { entityTypes: types.map((row) => row.entityType), people };
+}

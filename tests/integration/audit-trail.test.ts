@@ -1,0 +1,90 @@
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { recordAudit } from '@/lib/audit/record';
+import { auditFilterChoices, searchAudit } from '@/lib/audit/search';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { AuditEvent } from '@/models';
+import { makeActor } from '../support/actors';
+import { resetDatabase } from '../support/database';
+
+let admin: Actor;
+let approver: Actor;
+
+async function eventAt(actor: Actor | null, at: string, entityType: string, entityId: string, action = 'update') {
+  await db().transaction(async (transaction) => {
+    await recordAudit({ actorId: actor?.id ?? null, action, entityType, entityId, before: { n: 1 }, after: { n: 2 }, reason: 'test' }, transaction);
+  });
+  await db().query(`alter table audit_events disable trigger audit_events_no_update`);
+  await db().query(`update audit_events set occurred_at = :at where id = (select max(id) from audit_events)`, { replacements: { at } });
+  await db().query(`alter table audit_events enable trigger audit_events_no_update`);
+}
+
+describe('the append-only audit trail', () => {
+  beforeAll(async () => {
+    await resetDatabase();
+    admin = await makeActor(['admin']);
+    approver = await makeActor(['approver']);
+    // Back-dating needs the guard lifted, as only the test set-up may; the app itself never does.
+    await eventAt(admin, '2026-11-30T23:59:59Z', 'user', 'u-1', 'create');
+    await eventAt(admin, '2026-12-01T08:00:00Z', 'plate', 'p-1');
+    await eventAt(approver, '2026-12-01T09:30:10Z', 'plate', 'p-1', 'sign');
+    await eventAt(approver, '2026-12-01T09:31:00Z', 'plate', 'p-2', 'sign');
+    await eventAt(null, '2026-12-02T00:00:00Z', 'session', 'nobody', 'sign_in_failed');
+  });
+  afterAll(async () => {
+    await db().close();
+  });
+
+  test.each([
+    ['update', `update audit_events set reason = 'rewritten'`],
+    ['delete', 'delete from audit_events'],
+    ['truncate', 'truncate audit_events'],
+  ])('the database refuses %s on audit_events', async (operation, sql) => {
+    await expect(db().query(sql)).rejects.toThrow(`audit_events is append-only: ${operation.toUpperCase()} refused`);
+    expect(await AuditEvent.count()).toBe(5);
+  });
+
+  test.each<[Record<string, string>, number]>([
+    [{}, 5],
+    [{ entityType: 'plate' }, 3],
+    [{ entityType: 'plate', entityId: 'p-1' }, 2],
+    [{ userId: 'approver' }, 2],
+    [{ from: '2026-12-01T09:30', to: '2026-12-01T09:30' }, 1],
+    [{ from: '2026-12-01', to: '2026-12-01' }, 3],
+    [{ to: '2026-11-30' }, 1],
+    [{ from: '2026-12-01T09:31:00+00:00' }, 2],
+  ])('filters %o in the database: %i events', async (filter, expected) => {
+    const withIds = { ...filter, userId: filter.userId === 'approver' ? approver.id : undefined };
+    const page = await searchAudit(admin, withIds);
+    expect(page.total).toBe(expected);
+    expect(page.rows).toHaveLength(expected);
+  });
+
+  test('rows come newest first with actor, time, action, record, reason and before/after', async () => {
+    const { rows } = await searchAudit(approver, { entityType: 'plate' });
+    expect(rows.map((row) => row.occurredAt)).toEqual(['2026-12-01T09:31:00.000Z', '2026-12-01T09:30:10.000Z', '2026-12-01T08:00:00.000Z']);
+    expect(rows[0]).toMatchObject({ actorName: approver.name, actorEmail: approver.email, action: 'sign', entityType: 'plate', entityId: 'p-2', reason: 'test', before: { n: 1 }, after: { n: 2 } });
+  });
+
+  test('bad filters are refused with messages keyed by field', async () => {
+    await expect(searchAudit(admin, { from: '2026-12-02', to: '2026-12-01' })).rejects.toMatchObject({
+      code: 'invalid',
+      details: { fieldErrors: { to: ['The end of the range is before its start.'] } },
+    });
+    await expect(searchAudit(admin, { from: 'yesterday', userId: 'bob' })).rejects.toMatchObject({
+      details: { fieldErrors: { from: ['Use a date and time such as 2026-12-01T09:30 (UTC).'], userId: ['Choose a person from the list.'] } },
+    });
+  });
+
+  test.each([['chemist'], ['biologist']] as const)('a %s may not read the audit trail', async (role) => {
+    const someone = await makeActor([role]);
+    await expect(searchAudit(someone, {})).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(auditFilterChoices(someone)).rejects.toMatchObject({ code: 'forbidden' });
+  });
+
+  test('filter choices list the record types that occur and every person', async () => {
+    const choices = await auditFilterChoices(approver);
+    expect(choices.entityTypes).toEqual(['plate', 'session', 'user']);
+    expect(choices.people.map((p) => p.id)).toEqual(expect.arrayContaining([admin.id, approver.id]));
+  });
+});
