@@ -44,6 +44,7 @@ module.exports = {
           format smallint not null,
           state text not null default 'imported',
           version integer not null default 1,
+          qc_summary jsonb not null default '[]',
           imported_by uuid not null references users (id),
           verified_by uuid references users (id),
           submitted_by uuid references users (id),
@@ -54,6 +55,7 @@ module.exports = {
           constraint plates_state_known check (state in ('imported', 'verified', 'submitted', 'approved', 'rejected')),
           constraint plates_label_present check (length(trim(label)) > 0),
           constraint plates_version_positive check (version > 0),
+          constraint plates_qc_summary_array check (jsonb_typeof(qc_summary) = 'array'),
           constraint plates_decider_independent check (
             decided_by is null or (decided_by <> imported_by and decided_by is distinct from verified_by)
           )

@@ -17,6 +17,7 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
   declare ic50Um: number | null;
   declare ic50CiLowUm: number | null;
   declare ic50CiHighUm: number | null;
+  declare ic50LowerBoundUm: number | null;
   declare log10Ic50Se: number | null;
   declare hill: number | null;
   declare top: number | null;
@@ -24,7 +25,10 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
   declare r2: number | null;
   declare residualSd: number | null;
   declare n: number;
-  declare flags: CreationOptional<string[]>;
+  declare flags: CreationOptional<{ code: string; message: string }[]>;
+  /** The least-squares estimate behind the result (parameters, SEs, RSS), for plots and review. */
+  declare estimate: Record<string, unknown> | null;
+  declare computedBy: string | null;
   declare computedAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize): void {
@@ -41,6 +45,7 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
         ic50Um: { ...value, field: 'ic50_um' },
         ic50CiLowUm: { ...value, field: 'ic50_ci_low_um' },
         ic50CiHighUm: { ...value, field: 'ic50_ci_high_um' },
+        ic50LowerBoundUm: { ...value, field: 'ic50_lower_bound_um' },
         log10Ic50Se: { ...value, field: 'log10_ic50_se' },
         hill: value,
         top: value,
@@ -49,6 +54,8 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
         residualSd: value,
         n: { type: DataTypes.INTEGER, allowNull: false },
         flags: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        estimate: { type: DataTypes.JSONB, allowNull: true },
+        computedBy: { type: DataTypes.UUID, allowNull: true },
         computedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
       },
       { sequelize, tableName: 'fits', underscored: true, timestamps: false },

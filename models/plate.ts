@@ -16,6 +16,8 @@ export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes
   declare format: PlateFormat;
   declare state: CreationOptional<PlateState>;
   declare version: CreationOptional<number>;
+  /** Per target: Z′ with its band and pass/fail, run-down and normalisation notes (from lib/science/plate-analysis). */
+  declare qcSummary: CreationOptional<unknown[]>;
   declare importedBy: string;
   declare verifiedBy: string | null;
   declare submittedBy: string | null;
@@ -35,6 +37,7 @@ export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes
         format: { type: DataTypes.SMALLINT, allowNull: false },
         state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'imported' },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+        qcSummary: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
         importedBy: { type: DataTypes.UUID, allowNull: false },
         verifiedBy: { type: DataTypes.UUID, allowNull: true },
         submittedBy: { type: DataTypes.UUID, allowNull: true },

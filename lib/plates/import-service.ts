@@ -1,0 +1,139 @@
+import 'server-only';
+import { QueryTypes } from 'sequelize';
+import { recordAudit } from '@/lib/audit/record';
+import { requireRole, type Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { AppError } from '@/lib/errors';
+import { findHeaderRow, guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
+import { columnMappingSchema, type ColumnMappingInput } from '@/lib/imports/mapping-schema';
+import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
+import type { PlateFormat } from '@/lib/imports/plate-format';
+import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
+import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
+import { analysePlate } from '@/lib/science/plate-analysis';
+import { ImportTemplate, Screen, Target } from '@/models';
+import { analysisSettings } from './settings';
+import { findDuplicateUpload, sha256Hex, storePlate } from './store';
+
+export interface Upload {
+  screenId: string;
+  bytes: Uint8Array;
+  filename: string;
+  mediaType: string;
+}
+
+export interface SheetInspection {
+  name: string;
+  rowCount: number;
+  headerRow: number;
+  headers: string[];
+  sample: Cell[][];
+  guess: MappingGuess;
+}
+
+async function readUpload(upload: Upload): Promise<SheetData[]> {
+  const parsed = await parseSpreadsheet(upload.bytes, upload.filename);
+  if (!parsed.ok) throw new AppError(parsed.error.code === 'too_large' ? 'too_large' : 'invalid', parsed.error.message, { code: parsed.error.code });
+  if (parsed.sheets.length === 0) throw new AppError('invalid', `${upload.filename} holds no sheets.`);
+  return parsed.sheets;
+}
+
+async function loadScreen(screenId: string) {
+  db();
+  const screen = await Screen.findByPk(screenId, { include: [{ model: Target, as: 'targets' }] });
+  if (!screen) throw new AppError('not_found', 'No such screen.');
+  const targets = (screen.get('targets') as Target[]).map((t) => t.name);
+  if (targets.length === 0) throw new AppError('invalid', `Screen ${screen.name} has no targets yet; an administrator adds them first.`);
+  return { screen, targets };
+}
+
+/** Step 1: reads the file, refuses a duplicate, and proposes a mapping for every sheet. Nothing is written. */
+export async function inspectUpload(actor: Actor, upload: Upload) {
+  requireRole(actor, 'biologist');
+  await loadScreen(upload.screenId);
+  const sha256 = sha256Hex(upload.bytes);
+  const duplicateOf = await findDuplicateUpload(upload.screenId, sha256);
+  const sheets = await readUpload(upload);
+  const inspected: SheetInspection[] = sheets.map((sheet) => {
+    const headerRow = findHeaderRow(sheet.rows);
+    const guess = guessMapping(sheet);
+    return {
+      name: sheet.name,
+      rowCount: sheet.rows.length,
+      headerRow: guess.mapping.headerRow,
+      headers: (sheet.rows[headerRow - 1] ?? []).map((cell) => (cell === null ? '' : String(cell))),
+      sample: sheet.rows.slice(headerRow, headerRow + 5),
+      guess,
+    };
+  });
+  return { sha256, duplicateOf, sheets: inspected };
+}
+
+export interface PreviewRequest extends Upload {
+  sheet: string;
+  mapping: ColumnMappingInput;
+  format?: PlateFormat;
+}
+
+/** Step 2: every row with its parse result and QC flags, the plate built from good rows. Nothing is written. */
+export async function previewImport(actor: Actor, request: PreviewRequest): Promise<PlatePreview & { qc: Record<number, string[]> }> {
+  requireRole(actor, 'biologist');
+  const { screen, targets } = await loadScreen(request.screenId);
+  const sheets = await readUpload(request);
+  const sheet = sheets.find((s) => s.name === request.sheet);
+  if (!sheet) throw new AppError('invalid', `${request.filename} has no sheet named "${request.sheet}".`);
+  const compounds = await db().query<{ identifier: string }>('select identifier from compounds', { type: QueryTypes.SELECT });
+  const preview = validatePlateSheet(sheet, request.mapping, {
+    knownCompounds: compounds.map((c) => c.identifier), knownTargets: targets, ...(request.format ? { plateFormat: request.format } : {}),
+  });
+  return { ...preview, qc: preview.plate ? qcByRow(preview, analysisSettings(screen)) : {} };
+}
+
+/** QC messages per spreadsheet row, from the same analysis the commit stores. */
+function qcByRow(preview: PlatePreview, settings: ReturnType<typeof analysisSettings>): Record<number, string[]> {
+  const plate = preview.plate!;
+  const wells = plate.wells.map((w, i) => ({
+    id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentrationUm,
+    sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false,
+  }));
+  const readouts = plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), target: r.target, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa })));
+  const analysis = analysePlate(wells, readouts, settings);
+  return Object.fromEntries(analysis.readouts.filter((r) => r.qcReasons.length).map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]));
+}
+
+export interface CommitRequest extends PreviewRequest {
+  label: string;
+  templateName?: string | undefined;
+  supersedesPlateId?: string | undefined;
+}
+
+/** Step 3: stores the plate, its wells, readouts, QC and fits, and the template, all in one transaction. */
+export async function commitImport(actor: Actor, request: CommitRequest): Promise<{ plateId: string }> {
+  const preview = await previewImport(actor, request);
+  if (!preview.ok || !preview.plate) {
+    const first = preview.issues.find((issue) => issue.severity === 'error');
+    throw new AppError('invalid', first ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}` : 'The sheet holds no wells.', { issues: preview.issues.slice(0, 200) });
+  }
+  const mapping = columnMappingSchema.parse(request.mapping);
+  return db().transaction(async (transaction) => {
+    let importTemplateId: string | null = null;
+    if (request.templateName) {
+      const [template, created] = await ImportTemplate.findOrCreate({
+        where: { name: request.templateName }, defaults: { name: request.templateName, mapping, createdBy: actor.id }, transaction,
+      });
+      if (created) {
+        await recordAudit({ actorId: actor.id, action: 'create', entityType: 'import_template', entityId: template.id, after: { name: template.name, mapping }, address: actor.address }, transaction);
+      } else if (JSON.stringify(template.mapping) !== JSON.stringify(mapping)) {
+        const before = template.mapping;
+        await template.update({ mapping }, { transaction });
+        await recordAudit({ actorId: actor.id, action: 'update', entityType: 'import_template', entityId: template.id, before, after: mapping, address: actor.address }, transaction);
+      }
+      importTemplateId = template.id;
+    }
+    return storePlate(actor, {
+      screenId: request.screenId, label: request.label, plate: preview.plate!, importTemplateId,
+      file: { bytes: request.bytes, filename: request.filename, mediaType: request.mediaType },
+      supersedesPlateId: request.supersedesPlateId ?? null,
+    }, transaction);
+  });
+}

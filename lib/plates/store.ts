@@ -1,0 +1,105 @@
+import 'server-only';
+import { createHash, randomUUID } from 'node:crypto';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { recordAudit } from '@/lib/audit/record';
+import type { Actor } from '@/lib/auth/roles';
+import { AppError } from '@/lib/errors';
+import type { ParsedPlate } from '@/lib/imports/build-plate';
+import { analysePlate, type AnalysisReadout, type AnalysisWell } from '@/lib/science/plate-analysis';
+import { Fit, Plate, Readout, Screen, Target, UploadedFile, Well } from '@/models';
+import { fitRow } from './fit-row';
+import { analysisSettings } from './settings';
+
+export interface StorePlateInput {
+  screenId: string;
+  label: string;
+  file: { bytes: Uint8Array; filename: string; mediaType: string };
+  plate: ParsedPlate;
+  importTemplateId?: string | null;
+  supersedesPlateId?: string | null;
+}
+
+export const sha256Hex = (bytes: Uint8Array): string => createHash('sha256').update(bytes).digest('hex');
+
+/** The plate already made from these exact bytes for this screen, if any. */
+export async function findDuplicateUpload(screenId: string, sha256: string, transaction?: Transaction): Promise<{ plateId: string; label: string } | null> {
+  const [row] = await Plate.sequelize!.query<{ plateId: string; label: string }>(
+    `select p.id as "plateId", p.label from uploaded_files f join plates p on p.uploaded_file_id = f.id
+      where f.screen_id = :screenId and f.sha256 = :sha256 limit 1`,
+    { type: QueryTypes.SELECT, replacements: { screenId, sha256 }, ...(transaction ? { transaction } : {}) },
+  );
+  return row ?? null;
+}
+
+async function idsByName(screenId: string, plate: ParsedPlate, transaction: Transaction) {
+  const targets = await Target.findAll({ where: { screenId }, transaction });
+  const targetId = new Map(targets.map((t) => [t.name.toLowerCase(), t.id]));
+  const wanted = [...new Set(plate.wells.filter((w) => w.role === 'test').map((w) => w.compound).filter((c): c is string => c !== null))];
+  const compounds = wanted.length
+    ? await Plate.sequelize!.query<{ id: string; identifier: string }>('select id, identifier from compounds where upper(identifier) in (:wanted)', {
+        type: QueryTypes.SELECT, replacements: { wanted: wanted.map((c) => c.toUpperCase()) }, transaction,
+      })
+    : [];
+  const compoundId = new Map(compounds.map((c) => [c.identifier.toUpperCase(), c.id]));
+  const missingTarget = plate.targets.find((t) => !targetId.has(t.toLowerCase()));
+  if (missingTarget) throw new AppError('invalid', `Target "${missingTarget}" is not a target of this screen.`);
+  const missingCompound = wanted.find((c) => !compoundId.has(c.toUpperCase()));
+  if (missingCompound) throw new AppError('invalid', `Compound "${missingCompound}" is not registered.`);
+  return { target: (name: string) => targetId.get(name.toLowerCase())!, compound: (id: string | null) => (id === null ? null : compoundId.get(id.toUpperCase())!) };
+}
+
+/**
+ * Writes an imported plate in the caller's transaction: the raw file with its SHA-256, the plate, its
+ * wells and readouts with QC reasons and block, Z′ per target and the Hill fits, and the audit event.
+ */
+export async function storePlate(actor: Actor, input: StorePlateInput, transaction: Transaction): Promise<{ plateId: string }> {
+  const screen = await Screen.findByPk(input.screenId, { transaction });
+  if (!screen) throw new AppError('not_found', 'No such screen.');
+  const sha256 = sha256Hex(input.file.bytes);
+  const duplicate = await findDuplicateUpload(screen.id, sha256, transaction);
+  if (duplicate) {
+    throw new AppError('conflict', `This exact file was already imported for this screen as plate ${duplicate.label}.`, { plateId: duplicate.plateId });
+  }
+  const ids = await idsByName(screen.id, input.plate, transaction);
+
+  const file = await UploadedFile.create(
+    { screenId: screen.id, filename: input.file.filename, mediaType: input.file.mediaType, sizeBytes: input.file.bytes.byteLength, sha256, content: Buffer.from(input.file.bytes), uploadedBy: actor.id },
+    { transaction },
+  );
+  const plateId = randomUUID();
+  const wells: AnalysisWell[] = [];
+  const readouts: AnalysisReadout[] = [];
+  const wellRows = input.plate.wells.map((w) => {
+    const id = randomUUID();
+    const compoundId = w.role === 'test' ? ids.compound(w.compound) : null;
+    wells.push({ id, role: w.role, compoundId, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false });
+    for (const r of w.readouts) {
+      readouts.push({ id: randomUUID(), wellId: id, target: ids.target(r.target), controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa });
+    }
+    return {
+      id, plateId, position: w.position, rowIndex: w.rowIndex, columnIndex: w.columnIndex, role: w.role, compoundId, batchId: null,
+      concentrationUm: w.concentrationUm, sealResistanceGohm: w.sealResistanceGohm, seriesResistanceMohm: w.seriesResistanceMohm, capacitancePf: w.capacitancePf,
+      exclusionReason: null, excludedBy: null, excludedAt: null,
+    };
+  });
+  const analysis = analysePlate(wells, readouts, analysisSettings(screen));
+
+  await Plate.create(
+    { id: plateId, screenId: screen.id, uploadedFileId: file.id, importTemplateId: input.importTemplateId ?? null, supersedesPlateId: input.supersedesPlateId ?? null, label: input.label, format: input.plate.format, importedBy: actor.id, verifiedBy: null, submittedBy: null, decidedBy: null, qcSummary: analysis.targets },
+    { transaction },
+  );
+  await Well.bulkCreate(wellRows, { transaction });
+  await Readout.bulkCreate(
+    readouts.map((r, i) => ({ id: r.id, wellId: r.wellId, targetId: r.target, controlCurrentPa: r.controlCurrent_pA, compoundCurrentPa: r.compoundCurrent_pA, fractionalBlock: analysis.readouts[i]!.block, qcReasons: analysis.readouts[i]!.qcReasons })),
+    { transaction },
+  );
+  await Fit.bulkCreate(analysis.fits.map((f) => fitRow(f, { plateId, compoundId: f.compoundId, targetId: f.target, computedBy: actor.id })), { transaction });
+  await recordAudit(
+    {
+      actorId: actor.id, action: 'import', entityType: 'plate', entityId: plateId, address: actor.address,
+      after: { label: input.label, screenId: screen.id, format: input.plate.format, filename: input.file.filename, sha256, wells: wellRows.length, readouts: readouts.length, fits: analysis.fits.length, supersedesPlateId: input.supersedesPlateId ?? null },
+    },
+    transaction,
+  );
+  return { plateId };
+}

@@ -1,0 +1,31 @@
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import type { Actor } from '@/lib/auth/roles';
+import { createCompound } from '@/lib/compounds/service';
+import { addTarget, createScreen } from '@/lib/screens/service';
+import { screenSchema } from '@/lib/validation/screens';
+import type { DemoManifest } from '@/scripts/demo-plates/demo-manifest';
+import { DEMO_COMPOUNDS } from '@/scripts/demo-plates/demo-compounds';
+
+export const DEMO_DIR = path.join(process.cwd(), 'seeders', 'data', 'demo-plates');
+
+export function demoFile(name: string): { bytes: Uint8Array; manifest: DemoManifest } {
+  return {
+    bytes: new Uint8Array(readFileSync(path.join(DEMO_DIR, name))),
+    manifest: JSON.parse(readFileSync(path.join(DEMO_DIR, `${name}.manifest.json`), 'utf8')) as DemoManifest,
+  };
+}
+
+/** One screen per demo target (as the demo seeder makes them) and the demo compounds; returns screen ids by target. */
+export async function makeDemoScreens(admin: Actor, chemist: Actor): Promise<Record<string, string>> {
+  const base = {
+    description: '', neuronPreset: 'pospischil-rs-2008', zprimeMin: 0.5, sealMinGohm: 0.5, controlCurrentMinPa: 200, seriesMaxMohm: 25,
+    capacitanceMinPf: 1, capacitanceMaxPf: 100, rundownMaxPercent: 20, exposuresUm: '0.1, 1',
+  };
+  const nav = await createScreen(admin, screenSchema.parse({ ...base, name: 'Pain sodium screen' }));
+  await addTarget(admin, nav.id, { name: 'Nav1.7', conductance: 'gNa', description: '' });
+  const kv = await createScreen(admin, screenSchema.parse({ ...base, name: 'Potassium counter-screen' }));
+  await addTarget(admin, kv.id, { name: 'Kv7.2', conductance: 'gM', description: '' });
+  for (const c of DEMO_COMPOUNDS) await createCompound(chemist, { identifier: c.identifier, name: c.name, smiles: '', molecularWeight: c.molecularWeight });
+  return { 'Nav1.7': nav.id, 'Kv7.2': kv.id };
+}
