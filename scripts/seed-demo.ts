@@ -1,5 +1,6 @@
 // Seeds the invented demo scenario through Gatewell's own services, so every row is validated and
-// audited like a user's: two screens with their targets, the demo compounds with a batch each.
+// audited like a user's: two screens with their targets, the demo compounds with a batch each, and the
+// generated plate exports of seeders/data/demo-plates imported as the demo biologist.
 // Run by seeders/20261201000200-demo-scenario.js as
 //   node --conditions=react-server --import tsx scripts/seed-demo.ts
 // (the react-server condition makes the 'server-only' marker an empty module outside Next).
@@ -9,7 +10,11 @@ import { createCompound, insertBatch } from '@/lib/compounds/service';
 import { db } from '@/lib/db';
 import { addTarget, createScreen } from '@/lib/screens/service';
 import { screenSchema } from '@/lib/validation/screens';
-import { Compound, Screen } from '@/models';
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { commitImport, inspectUpload } from '@/lib/plates/import-service';
+import { Compound, Plate, Screen } from '@/models';
+import type { DemoManifest } from './demo-plates/demo-manifest';
 import { DEMO_COMPOUNDS, DEMO_TARGETS } from './demo-plates/demo-compounds';
 
 async function demoActor(email: string): Promise<Actor> {
@@ -61,11 +66,33 @@ async function seedCompounds(chemist: Actor): Promise<void> {
   }
 }
 
+const DEMO_DIR = path.join(process.cwd(), 'seeders', 'data', 'demo-plates');
+const DEMO_FILES = ['nav-96-plate-01.xlsx', 'nav-384-plate-02.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx'];
+
+/** Imports the generated demo exports through the same inspect → map → commit path a biologist uses. */
+async function seedPlates(biologist: Actor): Promise<void> {
+  for (const file of DEMO_FILES) {
+    const manifest = JSON.parse(readFileSync(path.join(DEMO_DIR, `${file}.manifest.json`), 'utf8')) as DemoManifest;
+    if (await Plate.findOne({ where: { label: manifest.plate } })) continue;
+    const screen = await Screen.findOne({ where: { name: manifest.screen } });
+    if (!screen) throw new Error(`demo screen ${manifest.screen} is missing`);
+    const upload = {
+      screenId: screen.id, bytes: new Uint8Array(readFileSync(path.join(DEMO_DIR, file))), filename: file,
+      mediaType: file.endsWith('.csv') ? 'text/csv' : 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    };
+    const inspection = await inspectUpload(biologist, upload);
+    const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet);
+    if (!sheet) throw new Error(`${file} has no sheet ${manifest.dataSheet}`);
+    await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate, templateName: `Demo rig — ${sheet.name}` });
+  }
+}
+
 async function main(): Promise<void> {
   const admin = await demoActor('admin@gatewell.test');
   const chemist = await demoActor('chemist@gatewell.test');
   await seedScreens(admin);
   await seedCompounds(chemist);
+  await seedPlates(await demoActor('biologist@gatewell.test'));
   await db().close();
 }
 
