@@ -1,4 +1,3 @@
-import { expNeg } from './fast-exp';
 import { gateTable } from './gate-tables';
 import { gateInfTau, type CompiledModel } from './model';
 
@@ -17,7 +16,6 @@ type StepFactory = (
   erev: Float64Array,
   dtOverC: number,
   exactGates: (gates: Float64Array, v: number) => void,
-  expNeg: (z: number) => number,
 ) => MembraneStep;
 
 const factories = new Map<string, StepFactory>();
@@ -58,9 +56,9 @@ function stepFactory(model: CompiledModel): StepFactory {
   lines.push(`  const g = ${weights.join(' + ')};`);
   lines.push(`  const gE = ${weights.map((w, k) => `${w} * erev[${k}]`).join(' + ')};`);
   lines.push('  const vInf = (I + gE) / g;');
-  lines.push('  return vInf + (v - vInf) * expNeg(dtOverC * g);');
+  lines.push('  return vInf + (v - vInf) * Math.exp(-dtOverC * g);');
   lines.push('};');
-  const factory = new Function('coef', 'vMin', 'inv', 'intervals', 'gMax', 'erev', 'dtOverC', 'exactGates', 'expNeg', lines.join('\n')) as StepFactory;
+  const factory = new Function('coef', 'vMin', 'inv', 'intervals', 'gMax', 'erev', 'dtOverC', 'exactGates', lines.join('\n')) as StepFactory;
   factories.set(layout, factory);
   return factory;
 }
@@ -85,6 +83,5 @@ export function membraneStep(model: CompiledModel, dt_ms: number, rates: 'table'
     model.reversal_mV,
     dt_ms / model.capacitance_uF_cm2,
     exactGates,
-    expNeg,
   );
 }

@@ -25,6 +25,7 @@ export interface CompiledModel {
  */
 export function compileModel(preset: NeuronPreset, scale: Readonly<Record<string, number>> = {}): CompiledModel {
   const names = preset.conductances.map((c) => c.name);
+  if (names.length === 0) throw new Error(`preset ${preset.name} has no conductances`);
   for (const key of Object.keys(scale)) {
     if (!names.includes(key)) throw new Error(`preset ${preset.name} has no conductance "${key}" (has ${names.join(', ')})`);
   }
