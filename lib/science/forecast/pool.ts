@@ -30,12 +30,14 @@ const state: PoolState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as 
 (globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
 
 function pool(): Piscina {
+  // One thread per core (at most 4), all kept warm: a forecast is a burst of parallel tasks.
+  const threads = Math.max(1, Math.min(4, availableParallelism()));
   state.pool ??= new Piscina({
     filename: FORECAST_WORKER_FILE,
     // The worker is TypeScript; tsx compiles it on load inside each thread.
     execArgv: ['--import', 'tsx'],
-    minThreads: 1,
-    maxThreads: Math.max(1, Math.min(4, availableParallelism())),
+    minThreads: threads,
+    maxThreads: threads,
     idleTimeout: 60_000,
   });
   return state.pool;
