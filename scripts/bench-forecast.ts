@@ -1,0 +1,68 @@
+// Gatewell forecast benchmark: `npx tsx scripts/bench-forecast.ts [repeats]` prints figures; it checks
+// nothing and times no test. For each preset: one rheobase bisection from rest, one 1 s voltage trace,
+// and a whole forecast (control + 4 concentrations: rheobase, threshold, rate at 2× control rheobase)
+// in this thread and on the worker pool (cache emptied before each run). Median and range over repeats,
+// after one warm-up run (rate tables built, code compiled).
+import { computeForecast } from '../lib/science/forecast/forecast';
+import { clearForecastCache, closeForecastPool, runForecast } from '../lib/science/forecast/pool';
+import { compileModel } from '../lib/science/neuron/model';
+import { getPreset, PRESET_NAMES } from '../lib/science/neuron/presets';
+import { findRest } from '../lib/science/neuron/rest';
+import { findRheobase } from '../lib/science/neuron/rheobase';
+import { voltageTrace } from '../lib/science/neuron/voltage-trace';
+
+/** An invented compound blocking sodium (IC50 1 µM, Hill 1) and, weaker, the M-type or delayed-rectifier K. */
+function request(preset: string) {
+  const k = preset === 'pospischil-rs-2008' ? 'gM' : 'gK';
+  return {
+    preset,
+    potencies: { gNa: { ic50: 1, hill: 1 }, [k]: { ic50: 10, hill: 1.2 } },
+    concentrations: [0.1, 0.3, 1, 3],
+    concentrationUnit: 'µM',
+    trace: false as const,
+  };
+}
+
+async function time(repeats: number, work: () => unknown): Promise<string> {
+  await work();
+  const ms: number[] = [];
+  for (let i = 0; i < repeats; i++) {
+    const t0 = performance.now();
+    await work();
+    ms.push(performance.now() - t0);
+  }
+  ms.sort((a, b) => a - b);
+  const median = ms[Math.floor(ms.length / 2)]!;
+  return `${median.toFixed(1).padStart(7)} ms  (${ms[0]!.toFixed(1)}–${ms[ms.length - 1]!.toFixed(1)})`;
+}
+
+async function main(repeats: number): Promise<void> {
+  console.log(`forecast benchmark, median (min–max) of ${repeats} runs`);
+  for (const name of PRESET_NAMES) {
+    const model = compileModel(getPreset(name));
+    const rest = findRest(model).start;
+    const rheobase = findRheobase(model, rest);
+    console.log(`\n${name}: rheobase ${rheobase.rheobase_uA_cm2?.toFixed(4)} µA/cm² in ${rheobase.steps} steps`);
+    console.log(`  rheobase bisection          ${await time(repeats, () => findRheobase(model, rest))}`);
+    const drive = 2 * (rheobase.rheobase_uA_cm2 ?? 1);
+    console.log(`  1 s voltage trace           ${await time(repeats, () => voltageTrace(model, { drive_uA_cm2: drive, duration_ms: 1000 }))}`);
+    console.log(`  whole forecast, in thread   ${await time(repeats, () => computeForecast(request(name)))}`);
+    const pooled = async () => {
+      clearForecastCache();
+      await runForecast(request(name));
+    };
+    console.log(`  whole forecast, pool        ${await time(repeats, pooled)}`);
+  }
+  await closeForecastPool();
+}
+
+const repeats = Number(process.argv[2] ?? 9);
+if (!Number.isInteger(repeats) || repeats < 1) {
+  process.stderr.write('usage: npx tsx scripts/bench-forecast.ts [repeats ≥ 1]\n');
+  process.exitCode = 2;
+} else {
+  main(repeats).catch((error: unknown) => {
+    process.stderr.write(`bench-forecast: ${String(error)}\n`);
+    process.exitCode = 1;
+  });
+}
