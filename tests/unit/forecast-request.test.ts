@@ -66,6 +66,19 @@ describe('computeForecast', () => {
     expect(t.condition).not.toBeNull();
   });
 
+  test('an f–I curve relative to the control rheobase is measured at the same drives for every condition', () => {
+    const r = computeForecast({ preset: 'pospischil-rs-2008', block: { gM: 0.5 }, protocol: { fiCurve: { points: 4, upToFactor: 2 } }, trace: false });
+    const rheobase = r.control.measures.rheobase_uA_cm2!;
+    const drives = [0.5, 1, 1.5, 2].map((f) => f * rheobase);
+    expect(r.control.measures.fI.map((p) => p.drive_uA_cm2)).toEqual(drives);
+    expect(r.conditions[0]!.measures.fI.map((p) => p.drive_uA_cm2)).toEqual(drives);
+    // Rates rise along the curve (above rheobase), and M-current block raises each of them.
+    const control = r.control.measures.fI.map((p) => p.rate_Hz);
+    const blocked = r.conditions[0]!.measures.fI.map((p) => p.rate_Hz);
+    expect(control[3]!).toBeGreaterThan(control[2]!);
+    blocked.slice(2).forEach((rate, i) => expect(rate).toBeGreaterThan(control[i + 2]!));
+  });
+
   test('no block gives the control alone', () => {
     const r = computeForecast({ preset: 'hh-squid-1952', trace: false });
     expect(r.conditions).toEqual([]);

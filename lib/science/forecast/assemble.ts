@@ -15,8 +15,10 @@ export interface ConditionMeasures {
   rheobase_uA_cm2: number | null;
   threshold_mV: number | null;
   referenceRate_Hz: number | null;
-  /** f–I curve at the protocol's drives, keyed by the drive as written (e.g. "10"). */
+  /** Every measured rate keyed by its drive as text (e.g. "10"). */
   rates_Hz: Record<string, number>;
+  /** The f–I curve: every measured drive, ascending. */
+  fI: { drive_uA_cm2: number; rate_Hz: number }[];
   flags: ExcitabilityFlag[];
 }
 
@@ -58,6 +60,7 @@ export function measuresOf(e: Excitability): ConditionMeasures {
     threshold_mV: e.threshold_mV,
     referenceRate_Hz: e.reference?.rate_Hz ?? null,
     rates_Hz: Object.fromEntries(e.fI.map((r) => [String(r.drive_uA_cm2), r.rate_Hz])),
+    fI: e.fI.map((r) => ({ drive_uA_cm2: r.drive_uA_cm2, rate_Hz: r.rate_Hz })),
     flags: e.flags,
   };
 }

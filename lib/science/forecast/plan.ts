@@ -1,5 +1,4 @@
-import type { Excitability, ExcitabilityProtocol } from '../neuron/excitability';
-import { DEFAULT_EXCITABILITY_PROTOCOL } from '../neuron/excitability';
+import { DEFAULT_EXCITABILITY_PROTOCOL, fiCurveDrives, type Excitability, type ExcitabilityProtocol, type FiCurve } from '../neuron/excitability';
 import { getPreset } from '../neuron/presets';
 import type { NeuronPreset } from '../neuron/types';
 import { poreBlockFraction } from './pore-block';
@@ -10,11 +9,13 @@ import type { MeasureTask, TraceTask } from './tasks';
 export interface ForecastProtocol extends ExcitabilityProtocol {
   /** Rate reference drive = this × control rheobase. @default 2 */
   referenceDriveFactor: number;
-  /** Extra drives for the f–I curve (µA/cm²). @default [] */
+  /** Drives for the f–I curve (µA/cm²). @default [] */
   drives_uA_cm2: number[];
+  /** Also an f–I curve of `points` drives up to `upToFactor` × control rheobase. @default none */
+  fiCurve: FiCurve | null;
 }
 
-export const DEFAULT_FORECAST_PROTOCOL: ForecastProtocol = { ...DEFAULT_EXCITABILITY_PROTOCOL, referenceDriveFactor: 2, drives_uA_cm2: [] };
+export const DEFAULT_FORECAST_PROTOCOL: ForecastProtocol = { ...DEFAULT_EXCITABILITY_PROTOCOL, referenceDriveFactor: 2, drives_uA_cm2: [], fiCurve: null };
 
 export interface PlannedCondition {
   label: string;
@@ -49,6 +50,7 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
     rheobaseCeiling_uA_cm2: p.rheobaseCeiling_uA_cm2 ?? DEFAULT_FORECAST_PROTOCOL.rheobaseCeiling_uA_cm2,
     referenceDriveFactor: p.referenceDriveFactor ?? DEFAULT_FORECAST_PROTOCOL.referenceDriveFactor,
     drives_uA_cm2: p.drives_uA_cm2 ?? [],
+    fiCurve: p.fiCurve ?? null,
   };
   const condition = (label: string, concentration: number | null, fractions: Record<string, number>): PlannedCondition => {
     const block = Object.fromEntries(blockable.map((name) => [name, fractions[name] ?? 0]));
@@ -87,19 +89,25 @@ export function controlTask(plan: ForecastPlan): MeasureTask {
     kind: 'measure',
     preset: plan.preset,
     scale: {},
-    request: { protocol: excitabilityProtocol(plan.protocol), drives_uA_cm2: plan.protocol.drives_uA_cm2, referenceDriveFactor: plan.protocol.referenceDriveFactor },
+    request: {
+      protocol: excitabilityProtocol(plan.protocol),
+      drives_uA_cm2: plan.protocol.drives_uA_cm2,
+      referenceDriveFactor: plan.protocol.referenceDriveFactor,
+      fiCurve: plan.protocol.fiCurve ?? undefined,
+    },
   };
 }
 
-/** One measurement per blocked condition, at the control's reference drive and from its rheobase. */
+/** One measurement per blocked condition, at the control's drives and starting from its rheobase. */
 export function conditionTasks(plan: ForecastPlan, control: Excitability): MeasureTask[] {
+  const curve = plan.protocol.fiCurve && control.rheobase_uA_cm2 !== null ? fiCurveDrives(plan.protocol.fiCurve, control.rheobase_uA_cm2) : [];
   return plan.conditions.map((c) => ({
     kind: 'measure',
     preset: plan.preset,
     scale: c.scale,
     request: {
       protocol: excitabilityProtocol(plan.protocol),
-      drives_uA_cm2: plan.protocol.drives_uA_cm2,
+      drives_uA_cm2: [...plan.protocol.drives_uA_cm2, ...curve],
       referenceDrive_uA_cm2: control.referenceDrive_uA_cm2 ?? undefined,
       rheobaseGuess_uA_cm2: control.rheobase_uA_cm2 ?? undefined,
     },

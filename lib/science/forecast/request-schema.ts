@@ -15,6 +15,12 @@ export const forecastProtocolSchema = z.strictObject({
     .array(z.number({ error: 'each drive must be a number (µA/cm²)' }).min(-1000, { error: 'drives must be within ±1000 µA/cm²' }).max(1000, { error: 'drives must be within ±1000 µA/cm²' }), { error: 'drives_uA_cm2 must be a list of numbers' })
     .max(100, { error: 'at most 100 drives' })
     .optional(),
+  fiCurve: z
+    .strictObject({
+      points: z.int({ error: 'fiCurve.points must be a whole number' }).min(1, { error: 'fiCurve.points must be 1–50' }).max(50, { error: 'fiCurve.points must be 1–50' }),
+      upToFactor: z.number({ error: 'fiCurve.upToFactor must be a number' }).positive({ error: 'fiCurve.upToFactor must be positive' }).max(100),
+    })
+    .optional(),
 });
 
 const fraction = z.number({ error: 'block fraction must be a number' }).min(0, { error: 'block fraction must be between 0 and 1' }).max(1, { error: 'block fraction must be between 0 and 1' });

@@ -61,8 +61,23 @@ export interface ExcitabilityRequest {
   referenceDrive_uA_cm2?: number;
   /** Reference drive as a multiple of this condition's own rheobase (for the control). */
   referenceDriveFactor?: number;
+  /**
+   * Add an evenly spaced f–I curve relative to this condition's own rheobase (for the control):
+   * drives k/points × upToFactor × rheobase, k = 1…points.
+   */
+  fiCurve?: FiCurve;
   /** Where the rheobase search starts (the control rheobase, for a blocked condition). @default 1 */
   rheobaseGuess_uA_cm2?: number;
+}
+
+export interface FiCurve {
+  points: number;
+  upToFactor: number;
+}
+
+/** Drives of an f–I curve relative to a rheobase (µA/cm²). */
+export function fiCurveDrives(curve: FiCurve, rheobase_uA_cm2: number): number[] {
+  return Array.from({ length: curve.points }, (_, i) => ((i + 1) / curve.points) * curve.upToFactor * rheobase_uA_cm2);
 }
 
 export interface Excitability {
@@ -75,6 +90,7 @@ export interface Excitability {
   firstSpikeLatency_ms: number | null;
   referenceDrive_uA_cm2: number | null;
   reference: FiringRate | null;
+  /** Rates at every requested drive, ascending. */
   fI: FiringRate[];
   flags: ExcitabilityFlag[];
 }
@@ -116,7 +132,9 @@ export function measureExcitability(model: CompiledModel, request: ExcitabilityR
     (request.referenceDriveFactor !== undefined && rheo?.rheobase_uA_cm2 != null ? request.referenceDriveFactor * rheo.rheobase_uA_cm2 : null);
   const rateAt = (drive: number) => firingRate(model, rest.start, drive, { ...integrator, step_ms: p.rateStep_ms });
   const reference = referenceDrive === null ? null : rateAt(referenceDrive);
-  const fI = (request.drives_uA_cm2 ?? []).map((d) => (reference && d === referenceDrive ? reference : rateAt(d)));
+  const curve = request.fiCurve && rheo?.rheobase_uA_cm2 != null ? fiCurveDrives(request.fiCurve, rheo.rheobase_uA_cm2) : [];
+  const drives = [...new Set([...(request.drives_uA_cm2 ?? []), ...curve])].sort((a, b) => a - b);
+  const fI = drives.map((d) => (reference && d === referenceDrive ? reference : rateAt(d)));
   if (reference && reference.spikes === 0 && !rest.spontaneousFiring) flags.add('loss-of-firing');
   const blockLevel = threshold ?? FALLBACK_BLOCK_LEVEL_mV;
   for (const r of reference ? [reference, ...fI] : fI) {

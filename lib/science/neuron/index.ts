@@ -11,7 +11,9 @@ export { findRheobase, type RheobaseOptions, type RheobaseResult } from './rheob
 export { firingRate, type FiringRate, type FiringRateOptions } from './firing-rate';
 export {
   measureExcitability,
+  fiCurveDrives,
   DEFAULT_EXCITABILITY_PROTOCOL,
+  type FiCurve,
   type Excitability,
   type ExcitabilityFlag,
   type ExcitabilityProtocol,
