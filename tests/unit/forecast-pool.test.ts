@@ -1,7 +1,7 @@
 // The worker-thread pool gives exactly the in-thread forecast, and caches results.
 import { afterAll, beforeEach, expect, test } from 'vitest';
 import { computeForecast } from '@/lib/science/forecast/forecast';
-import { clearForecastCache, closeForecastPool, FORECAST_WORKER_FILE, forecastCacheSize, runForecast } from '@/lib/science/forecast/pool';
+import { clearForecastCache, closeForecastPool, FORECAST_WORKER_FILE, forecastPoolStats, runForecast } from '@/lib/science/forecast/pool';
 import { ForecastRequestError } from '@/lib/science/forecast/request-schema';
 
 afterAll(closeForecastPool);
@@ -27,15 +27,24 @@ test('runForecast on worker threads returns the same as computeForecast', async 
 });
 
 test('a repeated forecast comes from the cache, one entry per condition and trace', async () => {
+  const before = forecastPoolStats().tasksRun;
   const first = await runForecast(request);
   // Control, two conditions, two traces.
-  expect(forecastCacheSize()).toBe(5);
+  expect(forecastPoolStats()).toEqual({ cachedResults: 5, tasksRun: before + 5 });
   const again = await runForecast(request);
   expect(again).toEqual(first);
-  expect(forecastCacheSize()).toBe(5);
+  expect(forecastPoolStats()).toEqual({ cachedResults: 5, tasksRun: before + 5 });
   // A new concentration adds only its own condition.
   await runForecast({ ...request, concentrations: [0.3, 3, 10] });
-  expect(forecastCacheSize()).toBe(6);
+  expect(forecastPoolStats()).toEqual({ cachedResults: 6, tasksRun: before + 6 });
+});
+
+test('simultaneous identical forecasts share the work', async () => {
+  const before = forecastPoolStats().tasksRun;
+  const [a, b] = await Promise.all([runForecast(request), runForecast(request)]);
+  expect(a).toEqual(b);
+  expect(a).not.toBe(b);
+  expect(forecastPoolStats().tasksRun).toBe(before + 5);
 });
 
 test('an invalid request is refused before any work', async () => {

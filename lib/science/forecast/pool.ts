@@ -19,6 +19,9 @@ export const FORECAST_CACHE_ENTRIES = 500;
 interface PoolState {
   pool: Piscina | null;
   cache: LruCache<Excitability | VoltageTrace>;
+  /** Tasks under way, so that simultaneous identical requests share one computation. */
+  running: Map<string, Promise<Excitability | VoltageTrace>>;
+  tasksRun: number;
 }
 
 // Kept on globalThis so that development reloads of this module reuse one pool.
@@ -26,6 +29,8 @@ const STATE_KEY = Symbol.for('gatewell.forecast.pool');
 const state: PoolState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as PoolState | undefined) ?? {
   pool: null,
   cache: new LruCache(FORECAST_CACHE_ENTRIES),
+  running: new Map(),
+  tasksRun: 0,
 };
 (globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
 
@@ -54,9 +59,24 @@ async function run<T extends Excitability | VoltageTrace>(task: MeasureTask | Tr
   const key = cacheKey(task);
   const hit = state.cache.get(key);
   if (hit) return structuredClone(hit) as T;
-  const result = (await pool().run(task)) as T;
-  state.cache.set(key, result);
-  return structuredClone(result);
+  let running = state.running.get(key);
+  if (!running) {
+    state.tasksRun++;
+    running = (pool().run(task) as Promise<T>).then(
+      (result) => {
+        state.cache.set(key, result);
+        state.running.delete(key);
+        return result;
+      },
+      (error: unknown) => {
+        state.running.delete(key);
+        throw error;
+      },
+    );
+    state.running.set(key, running);
+  }
+  // Callers get their own copy: the cached value is never handed out.
+  return structuredClone(await running) as T;
 }
 
 /**
@@ -89,7 +109,7 @@ export function clearForecastCache(): void {
   state.cache.clear();
 }
 
-/** Number of cached results (for tests and diagnostics). */
-export function forecastCacheSize(): number {
-  return state.cache.size;
+/** Cached results and tasks sent to the threads so far (for tests and diagnostics). */
+export function forecastPoolStats(): { cachedResults: number; tasksRun: number } {
+  return { cachedResults: state.cache.size, tasksRun: state.tasksRun };
 }
