@@ -1,0 +1,11 @@
+import { NextResponse } from 'next/server';
+import { withUser } from '@/lib/api/handler';
+import { readUpload } from '@/lib/api/upload';
+import { inspectUpload } from '@/lib/plates/import-service';
+import { inspectFieldsSchema } from '@/lib/validation/imports';
+
+/** Reads an uploaded export and proposes a column mapping per sheet; writes nothing. */
+export const POST = withUser(async (request, actor) => {
+  const { fields, ...file } = await readUpload(request, inspectFieldsSchema);
+  return NextResponse.json(await inspectUpload(actor, { screenId: fields.screenId, ...file }));
+}, { roles: ['biologist'] });

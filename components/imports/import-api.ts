@@ -1,0 +1,43 @@
+import type { ColumnMapping } from '@/lib/imports/mapping-schema';
+import type { ImportIssue } from '@/lib/imports/import-issue';
+import type { PreviewRow } from '@/lib/imports/read-row';
+import type { Cell } from '@/lib/imports/spreadsheet-types';
+import type { GuessedColumn } from '@/lib/imports/guess-mapping';
+
+export interface Inspection {
+  sha256: string;
+  duplicateOf: { plateId: string; label: string } | null;
+  sheets: { name: string; rowCount: number; headerRow: number; headers: string[]; sample: Cell[][]; guess: { mapping: ColumnMapping; matched: GuessedColumn[]; missingFields: string[] } }[];
+}
+
+export interface Preview {
+  sheet: string;
+  rows: PreviewRow[];
+  issues: ImportIssue[];
+  plate: { format: number; formatSource: string; targets: string[]; wells: unknown[] } | null;
+  unknownCompounds: { identifier: string; rows: number[] }[];
+  unknownTargets: { name: string; rows: number[] }[];
+  summary: { rows: number; okRows: number; errorRows: number; errors: number; warnings: number };
+  ok: boolean;
+  qc: Record<string, string[]>;
+}
+
+export class ImportRequestError extends Error {
+  constructor(message: string, readonly details: unknown) {
+    super(message);
+  }
+}
+
+/** Posts the file and fields to one import step and returns its JSON, or throws with the server's message. */
+export async function postImportStep<T>(step: 'inspect' | 'preview' | 'commit', file: File, fields: Record<string, string>): Promise<T> {
+  const body = new FormData();
+  body.set('file', file);
+  for (const [key, value] of Object.entries(fields)) body.set(key, value);
+  const response = await fetch(`/api/imports/${step}`, { method: 'POST', body });
+  const json = (await response.json().catch(() => ({ message: `The server answered ${response.status}.` }))) as T & { message?: string; details?: unknown; fields?: Record<string, string[]> };
+  if (!response.ok) {
+    const fieldText = json.fields ? Object.values(json.fields).flat().join(' ') : '';
+    throw new ImportRequestError([json.message, fieldText].filter(Boolean).join(' '), json.details);
+  }
+  return json;
+}

@@ -1,0 +1,72 @@
+'use client';
+
+import type { ColDef } from 'ag-grid-community';
+import { DataGrid } from '@/components/ui/data-grid';
+import type { Preview } from './import-api';
+
+interface PreviewGridRow {
+  row: number;
+  status: string;
+  well: string | null;
+  compound: string | null;
+  concentrationUm: number | null;
+  target: string | null;
+  controlCurrentPa: number | null;
+  compoundCurrentPa: number | null;
+  sealResistanceGohm: number | null;
+  notes: string;
+}
+
+const num = (digits: number) => (p: { value: unknown }) => (typeof p.value === 'number' ? p.value.toPrecision(digits) : '—');
+
+const COLUMNS: ColDef<PreviewGridRow>[] = [
+  { field: 'row', headerName: 'Row', width: 80, type: 'numericColumn' },
+  { field: 'status', headerName: 'Result', width: 120, cellClass: (p) => (p.value === 'error' ? 'text-signal-fail font-semibold' : p.value === 'QC flag' ? 'text-signal-warn font-semibold' : 'text-signal-pass') },
+  { field: 'well', headerName: 'Well', width: 80 },
+  { field: 'compound', headerName: 'Compound', width: 120 },
+  { field: 'concentrationUm', headerName: 'Conc. (µM)', width: 120, type: 'numericColumn', valueFormatter: num(3) },
+  { field: 'target', headerName: 'Target', width: 100 },
+  { field: 'controlCurrentPa', headerName: 'Control (pA)', width: 120, type: 'numericColumn', valueFormatter: num(4) },
+  { field: 'compoundCurrentPa', headerName: 'Compound (pA)', width: 130, type: 'numericColumn', valueFormatter: num(4) },
+  { field: 'sealResistanceGohm', headerName: 'Seal (GΩ)', width: 110, type: 'numericColumn', valueFormatter: num(3) },
+  { field: 'notes', headerName: 'Messages', flex: 1, minWidth: 320, wrapText: true, autoHeight: true },
+];
+
+/** The preview: counts, the first errors, and every row with its parse result and QC flags. */
+export function PreviewStep({ preview }: { preview: Preview }) {
+  const rows: PreviewGridRow[] = preview.rows.map((r) => {
+    const qc = preview.qc[String(r.row)] ?? [];
+    const status = r.status === 'error' ? 'error' : qc.length ? 'QC flag' : 'ok';
+    return {
+      row: r.row, status, well: r.values.well, compound: r.values.compound, concentrationUm: r.values.concentrationUm, target: r.values.target,
+      controlCurrentPa: r.values.controlCurrentPa, compoundCurrentPa: r.values.compoundCurrentPa, sealResistanceGohm: r.values.sealResistanceGohm,
+      notes: [...r.issues.map((i) => i.message.replace(/^Sheet "[^"]*", row \d+, /, '')), ...qc.map((q) => `QC: ${q}`)].join(' · '),
+    };
+  });
+  const sheetIssues = preview.issues.filter((i) => i.row === null);
+  const { summary } = preview;
+  return (
+    <div className="space-y-4">
+      <dl className="grid grid-cols-2 gap-3 sm:grid-cols-5">
+        {[
+          ['Rows read', summary.rows], ['Rows ready', summary.okRows], ['Rows with errors', summary.errorRows],
+          ['Plate format', preview.plate ? `${preview.plate.format} (${preview.plate.formatSource})` : '—'], ['Wells', preview.plate?.wells.length ?? 0],
+        ].map(([label, value]) => (
+          <div key={String(label)} className="gw-card p-3"><dt className="text-xs text-ink-500">{label}</dt><dd className="text-lg font-semibold tabular-nums">{value}</dd></div>
+        ))}
+      </dl>
+      {sheetIssues.length ? (
+        <ul role="alert" className="space-y-1 rounded-md border border-red-200 bg-red-50 p-3 text-sm text-signal-fail">
+          {sheetIssues.map((i) => <li key={i.message}>{i.message}</li>)}
+        </ul>
+      ) : null}
+      {preview.unknownCompounds.length ? (
+        <p className="rounded-md border border-amber-200 bg-amber-50 p-3 text-sm text-signal-warn">
+          Not registered: {preview.unknownCompounds.map((c) => `${c.identifier} (rows ${c.rows.slice(0, 5).join(', ')}${c.rows.length > 5 ? '…' : ''})`).join('; ')}.
+          A chemist registers them on the Compounds page; then check the rows again.
+        </p>
+      ) : null}
+      {rows.length ? <DataGrid<PreviewGridRow> label="Preview of every row" rows={rows} columns={COLUMNS} height={460} getRowId={(p) => String(p.data.row)} /> : null}
+    </div>
+  );
+}
