@@ -13,8 +13,8 @@ export class DelimitedTextError extends Error {
 
 /**
  * Splits text into rows of fields (quotes as in RFC 4180: "" inside quotes is one quote; quoted fields
- * may hold delimiters and line breaks). A first line `sep=;` chooses the delimiter; otherwise the most
- * frequent of comma, semicolon and tab in the first lines wins. Empty fields become null.
+ * may hold delimiters and line breaks). A first line `sep=;` chooses the delimiter; otherwise comma,
+ * semicolon or tab is guessed from the first lines. Empty fields become null.
  * @param {string} text
  * @param {{ maxRows: number, maxColumns: number }} limits
  * @returns {{ rows: (string | null)[][], delimiter: string }}
@@ -32,16 +32,30 @@ export function parseDelimited(text, limits) {
   return { rows: splitRows(body, delimiter, limits), delimiter };
 }
 
-/** @param {string} text */
+/**
+ * Scores each candidate by its best (count per line × lines with that count), so a separator that
+ * recurs consistently beats decimal commas scattered through semicolon-separated rows.
+ * @param {string} text
+ */
 function guessDelimiter(text) {
-  const lines = text.slice(0, 65536).split(/\r\n|\n|\r/, 20);
+  const lines = text
+    .slice(0, 65536)
+    .split(/\r\n|\n|\r/, 20)
+    .filter((line) => line.trim() !== '')
+    .map((line) => line.replace(/"[^"]*"/g, ''));
   let best = ',';
-  let bestCount = 0;
+  let bestScore = 0;
   for (const candidate of CANDIDATES) {
-    const count = Math.max(0, ...lines.map((line) => line.replace(/"[^"]*"/g, '').split(candidate).length - 1));
-    if (count > bestCount) {
+    /** @type {Map<number, number>} */
+    const frequency = new Map();
+    for (const line of lines) {
+      const count = line.split(candidate).length - 1;
+      if (count > 0) frequency.set(count, (frequency.get(count) ?? 0) + 1);
+    }
+    const score = Math.max(0, ...[...frequency].map(([count, lineCount]) => count * lineCount));
+    if (score > bestScore) {
       best = candidate;
-      bestCount = count;
+      bestScore = score;
     }
   }
   return best;

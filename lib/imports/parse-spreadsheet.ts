@@ -31,14 +31,14 @@ export async function parseSpreadsheet(bytes: Uint8Array, filename: string, opti
   const fail = (code: SpreadsheetErrorCode, message: string): ParseSpreadsheetResult => ({ ok: false, error: { code, message } });
   if (bytes.length === 0) return fail('empty_file', `${filename} is empty (0 bytes).`);
   if (bytes.length > limits.maxBytes) {
-    return fail('too_large', `${filename} is ${(bytes.length / MB).toFixed(1)} MB; Gatewell reads files up to ${(limits.maxBytes / MB).toFixed(0)} MB.`);
+    return fail('too_large', `${filename} is ${sizeLabel(bytes.length)}; Gatewell reads files up to ${sizeLabel(limits.maxBytes)}.`);
   }
   const sniffed = sniffUpload(bytes, filename);
   if (sniffed.kind === 'refused') return { ok: false, error: sniffed.error };
   const format: SpreadsheetFormat = sniffed.kind === 'workbook' ? sniffed.format : sniffed.kind === 'markup' ? 'markup' : 'csv';
   const job =
     sniffed.kind === 'workbook'
-      ? { kind: 'workbook', bytes }
+      ? { kind: 'workbook', format: sniffed.format, bytes }
       : { kind: sniffed.kind, text: sniffed.text, sheetName: sheetNameFor(filename) };
   const reply = await runWorker({ ...job, maxRows: limits.maxRows, maxColumns: limits.maxColumns }, limits);
   if (!reply.ok && format !== 'csv' && /Unsupported ZIP file|Cannot find file|not a spreadsheet/i.test(reply.detail)) {
@@ -60,6 +60,12 @@ function checkOptions(options: ParseSpreadsheetOptions) {
 
 function stripUndefined(options: ParseSpreadsheetOptions): Partial<typeof DEFAULTS> {
   return Object.fromEntries(Object.entries(options).filter(([key, value]) => value !== undefined && key in DEFAULTS));
+}
+
+/** "812 bytes", "3.4 KB", "10 MB", "10.2 MB". */
+function sizeLabel(bytes: number): string {
+  const [value, unit] = bytes < 1024 ? [bytes, 'bytes'] : bytes < MB ? [bytes / 1024, 'KB'] : [bytes / MB, 'MB'];
+  return `${Number.isInteger(value) ? value : value.toFixed(1)} ${unit}`;
 }
 
 function sheetNameFor(filename: string): string {
@@ -103,7 +109,7 @@ function describeFailure(code: SpreadsheetErrorCode, detail: string, filename: s
     case 'too_many_columns':
       return `${filename} is too big to import: ${detail}.`;
     case 'not_spreadsheet':
-      return `${filename} is a ZIP archive or compound file that holds no workbook; it is not a spreadsheet.`;
+      return `${filename} holds no readable workbook: it is not an xlsx or xls spreadsheet, or it is damaged.`;
     default:
       if (/password/i.test(detail)) return `${filename} is password-protected. Save it without a password and upload it again.`;
       if (format === 'csv') return `${filename} could not be read as CSV: ${detail}.`;

@@ -44,10 +44,11 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
     return column ? cells[column.index] : undefined;
   };
   const quantity = (field: UnitField, unit: Unit): number | null => {
-    const result = readQuantity(cell(field), UNIT_KIND[field], unit, ctx.decimalComma);
+    const written = cell(field);
+    const result = readQuantity(written, UNIT_KIND[field], unit, ctx.decimalComma);
     if (!result.ok) report(field, result.code, `${FIELD_LABEL[field]}: ${result.detail}.`);
     else if (result.value !== null && result.value < 0 && field !== 'controlCurrent' && field !== 'compoundCurrent') {
-      report(field, 'negative_value', `${FIELD_LABEL[field]} is negative (${result.value}); it must be 0 or more.`);
+      report(field, 'negative_value', `${FIELD_LABEL[field]} is negative (${shorten(String(written))}); it must be 0 or more.`);
       return null;
     }
     return result.ok ? result.value : null;
