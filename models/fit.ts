@@ -32,7 +32,8 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
   declare computedAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize): void {
-    const value = { type: DataTypes.DOUBLE, allowNull: true };
+    // A fresh object per attribute: Sequelize writes the column name into the definition it is given.
+    const value = () => ({ type: DataTypes.DOUBLE, allowNull: true });
     Fit.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
@@ -42,16 +43,16 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
         model: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'hill2' },
         status: { type: DataTypes.TEXT, allowNull: false },
         message: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-        ic50Um: { ...value, field: 'ic50_um' },
-        ic50CiLowUm: { ...value, field: 'ic50_ci_low_um' },
-        ic50CiHighUm: { ...value, field: 'ic50_ci_high_um' },
-        ic50LowerBoundUm: { ...value, field: 'ic50_lower_bound_um' },
-        log10Ic50Se: { ...value, field: 'log10_ic50_se' },
-        hill: value,
-        top: value,
-        bottom: value,
-        r2: value,
-        residualSd: value,
+        ic50Um: { ...value(), field: 'ic50_um' },
+        ic50CiLowUm: { ...value(), field: 'ic50_ci_low_um' },
+        ic50CiHighUm: { ...value(), field: 'ic50_ci_high_um' },
+        ic50LowerBoundUm: { ...value(), field: 'ic50_lower_bound_um' },
+        log10Ic50Se: { ...value(), field: 'log10_ic50_se' },
+        hill: value(),
+        top: value(),
+        bottom: value(),
+        r2: value(),
+        residualSd: value(),
         n: { type: DataTypes.INTEGER, allowNull: false },
         flags: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
         estimate: { type: DataTypes.JSONB, allowNull: true },

@@ -23,7 +23,8 @@ export class Well extends Model<InferAttributes<Well>, InferCreationAttributes<W
   declare excludedAt: Date | null;
 
   static initModel(sequelize: Sequelize): void {
-    const measure = { type: DataTypes.DOUBLE, allowNull: true };
+    // A fresh object per attribute: Sequelize writes the column name into the definition it is given.
+    const measure = () => ({ type: DataTypes.DOUBLE, allowNull: true });
     Well.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
@@ -34,10 +35,10 @@ export class Well extends Model<InferAttributes<Well>, InferCreationAttributes<W
         role: { type: DataTypes.TEXT, allowNull: false },
         compoundId: { type: DataTypes.UUID, allowNull: true },
         batchId: { type: DataTypes.UUID, allowNull: true },
-        concentrationUm: measure,
-        sealResistanceGohm: measure,
-        seriesResistanceMohm: measure,
-        capacitancePf: measure,
+        concentrationUm: measure(),
+        sealResistanceGohm: measure(),
+        seriesResistanceMohm: measure(),
+        capacitancePf: measure(),
         excluded: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         exclusionReason: { type: DataTypes.TEXT, allowNull: true },
         excludedBy: { type: DataTypes.UUID, allowNull: true },
