@@ -14,6 +14,8 @@ const nextConfig: NextConfig = {
   distDir: process.env.GATEWELL_DIST_DIR || '.next',
   poweredByHeader: false,
   typedRoutes: false,
+  // forbidden() answers pages a role may not open (lib/auth/page-guard.ts).
+  experimental: { authInterrupts: true },
   async headers() {
     return [{ source: '/:path*', headers: securityHeaders }];
   },

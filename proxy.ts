@@ -1,5 +1,6 @@
 import { sealData, unsealData } from 'iron-session';
 import { NextResponse, type NextRequest } from 'next/server';
+import { PATHNAME_HEADER } from '@/lib/auth/page-roles';
 import { sessionIsFresh, sessionOptions, type SessionData } from '@/lib/auth/session-config';
 
 // Paths that anonymous visitors may open. API routes answer 401 themselves, so they pass through too.
@@ -29,7 +30,10 @@ export async function proxy(request: NextRequest) {
     return response;
   }
 
-  const response = NextResponse.next();
+  // The signed-in layout checks page roles before streaming starts, so it needs the path (set here, never trusted from the client).
+  const requestHeaders = new Headers(request.headers);
+  requestHeaders.set(PATHNAME_HEADER, pathname);
+  const response = NextResponse.next({ request: { headers: requestHeaders } });
   if (fresh && !pathname.startsWith('/_next/')) {
     const renewed = await sealData({ ...session, lastSeenAt: Date.now() }, { password: options.password, ttl: options.ttl ?? 0 });
     response.cookies.set(options.cookieName, renewed, { ...options.cookieOptions, maxAge: (options.ttl ?? 0) - 60 });

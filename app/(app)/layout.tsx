@@ -1,8 +1,15 @@
+import { headers } from 'next/headers';
+import { forbidden } from 'next/navigation';
 import type { ReactNode } from 'react';
 import { AppShell } from '@/components/shell/app-shell';
 import { requireActor } from '@/lib/auth/current-actor';
+import { PATHNAME_HEADER, rolesForPath } from '@/lib/auth/page-roles';
+import { hasRole } from '@/lib/auth/roles';
 
 export default async function SignedInLayout({ children }: { children: ReactNode }) {
   const actor = await requireActor();
+  // Refused here, before the page starts streaming, a page that needs a role answers 403.
+  const needed = rolesForPath((await headers()).get(PATHNAME_HEADER) ?? '');
+  if (needed && !hasRole(actor, ...needed)) forbidden();
   return <AppShell actor={actor}>{children}</AppShell>;
 }
