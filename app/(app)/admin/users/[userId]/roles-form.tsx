@@ -1,0 +1,29 @@
+'use client';
+
+import { useActionState, useState } from 'react';
+import { Field, FormMessage } from '@/components/forms/field';
+import { RoleCheckboxes } from '@/components/users/role-checkboxes';
+import type { ActionState } from '@/lib/actions/validated-action';
+import type { Role } from '@/models/user-role';
+
+type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
+
+/** Ticks the roles a user holds; the reason goes to the audit trail. */
+export function RolesForm({ action, userId, roles }: { action: Action; userId: string; roles: Role[] }) {
+  const [state, formAction, pending] = useActionState(action, {});
+  const [selected, setSelected] = useState<Role[]>(roles);
+  const [reason, setReason] = useState('');
+  const errors = state.fieldErrors ?? {};
+  return (
+    <form action={formAction} className="space-y-2" noValidate>
+      <input type="hidden" name="userId" value={userId} />
+      <RoleCheckboxes selected={selected} onChange={setSelected} errors={errors.roles} idPrefix="roles" />
+      <Field label="Reason for the change" name="reason" id="roles-reason" value={reason} onChange={(e) => setReason(e.target.value)}
+        errors={errors.reason} hint="Kept in the audit trail." />
+      <div className="flex flex-wrap items-center gap-3">
+        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Saving…' : 'Save roles'}</button>
+        <FormMessage ok={state.ok} message={state.message} />
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,32 @@
+'use client';
+
+import { useActionState } from 'react';
+import { Field, FormMessage } from '@/components/forms/field';
+import type { ActionState } from '@/lib/actions/validated-action';
+
+type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
+
+/** Disables an enabled account (its sessions end at once) or enables a disabled one. */
+export function StatusForm({ action, userId, enabled }: { action: Action; userId: string; enabled: boolean }) {
+  const [state, formAction, pending] = useActionState(action, {});
+  const errors = state.fieldErrors ?? {};
+  return (
+    <form action={formAction} className="space-y-2" noValidate>
+      <input type="hidden" name="userId" value={userId} />
+      <input type="hidden" name="status" value={enabled ? 'disabled' : 'enabled'} />
+      <p className="text-sm text-ink-700">
+        {enabled
+          ? 'A disabled account cannot sign in, and every open session of it ends at once. Its records and audit trail stay.'
+          : 'This account is disabled. Enabling it lets the person sign in again; old sessions stay ended.'}
+      </p>
+      <Field label={enabled ? 'Reason for disabling' : 'Reason for enabling'} name="reason" id="status-reason" errors={errors.reason} />
+      <div className="flex flex-wrap items-center gap-3">
+        <button type="submit" disabled={pending}
+          className={enabled ? 'gw-button bg-signal-fail hover:bg-red-800' : 'gw-button'}>
+          {pending ? 'Saving…' : enabled ? 'Disable account' : 'Enable account'}
+        </button>
+        <FormMessage ok={state.ok} message={state.message} />
+      </div>
+    </form>
+  );
+}

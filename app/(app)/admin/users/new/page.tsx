@@ -1,0 +1,25 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { PageHeader } from '@/components/ui/page-header';
+import { requirePageRole } from '@/lib/auth/page-guard';
+import { MIN_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
+import { createUserAction } from '../actions';
+import { CreateUserForm } from './create-user-form';
+
+export const metadata: Metadata = { title: 'Create user' };
+
+export default async function CreateUserPage() {
+  await requirePageRole('admin');
+  return (
+    <>
+      <PageHeader
+        title="Create user"
+        intro="The new person signs in with their e-mail address and the initial password, then changes it on their Account page."
+        actions={<Link href="/admin/users" className="gw-button-quiet">Back to users</Link>}
+      />
+      <section className="gw-card p-6">
+        <CreateUserForm action={createUserAction} minPasswordLength={MIN_PASSWORD_LENGTH} />
+      </section>
+    </>
+  );
+}
