@@ -1,0 +1,38 @@
+import type { Metadata } from 'next';
+import { PageHeader } from '@/components/ui/page-header';
+import { ROLE_CHOICES } from '@/components/users/role-choices';
+import { requireActor } from '@/lib/auth/current-actor';
+import { MIN_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
+import { changePasswordAction } from './actions';
+import { ChangePasswordForm } from './change-password-form';
+
+export const metadata: Metadata = { title: 'Account' };
+
+export default async function AccountPage() {
+  const actor = await requireActor();
+  const roles = ROLE_CHOICES.filter((choice) => actor.roles.includes(choice.role));
+  return (
+    <>
+      <PageHeader title="Account" intro={`Signed in as ${actor.name} (${actor.email}).`} />
+      <div className="grid gap-4 xl:grid-cols-2">
+        <section className="gw-card p-5" aria-labelledby="roles-heading">
+          <h2 id="roles-heading" className="text-lg font-semibold">Your roles</h2>
+          {roles.length ? (
+            <ul className="mt-2 space-y-1 text-sm">
+              {roles.map((choice) => (
+                <li key={choice.role}><span className="font-medium">{choice.label}</span> — {choice.duty}</li>
+              ))}
+            </ul>
+          ) : (
+            <p className="mt-2 text-sm text-ink-700">No role: you can read results. An administrator grants roles.</p>
+          )}
+        </section>
+        <section className="gw-card p-5" aria-labelledby="password-heading">
+          <h2 id="password-heading" className="text-lg font-semibold">Change password</h2>
+          <p className="mb-3 mt-1 text-sm text-ink-700">Every other session of yours ends; this one stays signed in.</p>
+          <ChangePasswordForm action={changePasswordAction} minPasswordLength={MIN_PASSWORD_LENGTH} />
+        </section>
+      </div>
+    </>
+  );
+}
