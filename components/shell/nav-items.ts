@@ -11,8 +11,12 @@ export interface NavItem {
 export const NAV_ITEMS: NavItem[] = [
   { href: '/', label: 'My work', roles: [] },
   { href: '/plates', label: 'Plates', roles: [] },
+  { href: '/plates/import', label: 'Import a plate', roles: ['biologist'] },
   { href: '/compounds', label: 'Compounds', roles: [] },
   { href: '/screens', label: 'Screens', roles: [] },
+  { href: '/audit', label: 'Audit trail', roles: ['admin', 'approver'] },
+  { href: '/admin/users', label: 'Users', roles: ['admin'] },
+  { href: '/account', label: 'Account', roles: [] },
 ];
 
 export function navItemsFor(roles: Role[]): NavItem[] {
