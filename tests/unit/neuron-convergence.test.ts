@@ -64,3 +64,25 @@ test('tabulated rates agree with rates evaluated at every step', () => {
     expect(relative(rTable, rExact)).toBeLessThan(1e-5);
   }
 });
+
+describe('rheobase search', () => {
+  test.each(['hh-squid-1952', 'pospischil-rs-2008'])('%s: the coarse-then-confirm search brackets the same rheobase as a search at dt alone', (preset) => {
+    const model = compileModel(getPreset(preset));
+    const start = findRest(model).start;
+    const direct = findRheobase(model, start, { coarseDtFactor: 1 });
+    const staged = findRheobase(model, start, { coarseDtFactor: 4 });
+    const [lo1, hi1] = direct.bracket!;
+    const [lo4, hi4] = staged.bracket!;
+    // Both brackets are at dt, within 0.1 %, and hold the rheobase at dt: they must overlap.
+    expect(hi4 - lo4).toBeLessThanOrEqual(1e-3 * hi4);
+    expect(Math.max(lo1, lo4)).toBeLessThan(Math.min(hi1, hi4));
+    expect(staged.steps).toBeLessThanOrEqual(direct.steps + 4);
+  });
+
+  test('no spike up to the ceiling gives no rheobase', () => {
+    const model = compileModel(getPreset('hh-squid-1952'), { gNa: 0 });
+    const r = findRheobase(model, findRest(model).start, { ceiling_uA_cm2: 5 });
+    expect(r.rheobase_uA_cm2).toBeNull();
+    expect(r.bracket).toBeNull();
+  });
+});
