@@ -43,6 +43,10 @@ export interface HillCurveEstimate {
   /** log10 IC50 ended on the edge of its search range: the data do not place it. */
   ic50AtSearchEdge: boolean;
   hillSlopeAtBound: boolean;
+  /** Free parameters in fitting order [log10 IC50, Hill slope, (bottom, top)], for curves and bands. */
+  parameters: number[];
+  /** s²(JᵀJ)⁻¹ of the free parameters; null when it cannot be formed. */
+  covariance: number[][] | null;
 }
 
 /**
@@ -93,6 +97,8 @@ export function fitHillCurve(
     degreesOfFreedom: nu,
     ic50AtSearchEdge: edge(0),
     hillSlopeAtBound: edge(1),
+    parameters: [...fit.parameters],
+    covariance: fit.covariance,
   };
 }
 
