@@ -73,7 +73,7 @@ export const hhSquid1952: NeuronPreset = {
       name: 'gL',
       description: 'leak',
       g_mS_cm2: 0.3, // HH 1952 Table 3
-      reversal_mV: -54.387, // HH 1952 (E_L chosen so that rest is −65 mV; modern value −54.387)
+      reversal_mV: -54.387, // HH 1952 Table 3: V_l = −10.613 mV displacement (their sign), i.e. −54.387 mV
       blockable: false,
       gates: [],
     },
