@@ -1,0 +1,17 @@
+import type { Metadata } from 'next';
+import { QcSummary } from '@/components/plates/qc-summary';
+import { WellsPanel } from '@/components/plates/wells-panel';
+import { hasRole } from '@/lib/auth/roles';
+import { loadPlate } from './plate-header';
+
+export const metadata: Metadata = { title: 'Plate' };
+
+export default async function PlateWellsPage({ params }: { params: Promise<{ plateId: string }> }) {
+  const { actor, header } = await loadPlate((await params).plateId);
+  return (
+    <div className="space-y-8">
+      <QcSummary header={header} />
+      <WellsPanel plateId={header.id} format={header.format} canEdit={hasRole(actor, 'biologist')} />
+    </div>
+  );
+}

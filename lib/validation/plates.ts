@@ -1,0 +1,79 @@
+import { z } from 'zod';
+
+/** Exclude or re-include wells: the same schema checks the form in the browser and the request on the server. */
+export const exclusionSchema = z.object({
+  wellIds: z.array(z.uuid()).min(1, 'Choose at least one well.').max(1536),
+  excluded: z.boolean(),
+  reason: z.string().trim().min(1, 'Give a reason for the change.').max(500, 'Keep the reason under 500 characters.'),
+  expectedVersion: z.int().positive().optional(),
+});
+
+export type ExclusionInput = z.infer<typeof exclusionSchema>;
+
+export const fitModelSchema = z.object({
+  compoundId: z.uuid(),
+  targetId: z.uuid(),
+  model: z.enum(['hill2', 'hill4']),
+  expectedVersion: z.int().positive().optional(),
+});
+
+const qcReason = z.object({ code: z.string(), message: z.string() });
+
+/** One readout of a well as the plate page receives it. */
+export const wellRowSchema = z.object({
+  id: z.uuid(),
+  readoutId: z.uuid(),
+  position: z.string(),
+  rowIndex: z.number().int(),
+  columnIndex: z.number().int(),
+  role: z.enum(['vehicle', 'reference', 'test']),
+  compoundId: z.uuid().nullable(),
+  compound: z.string().nullable(),
+  concentrationUm: z.number().nullable(),
+  sealResistanceGohm: z.number().nullable(),
+  seriesResistanceMohm: z.number().nullable(),
+  capacitancePf: z.number().nullable(),
+  excluded: z.boolean(),
+  exclusionReason: z.string().nullable(),
+  targetId: z.uuid(),
+  target: z.string(),
+  controlCurrentPa: z.number().nullable(),
+  compoundCurrentPa: z.number().nullable(),
+  fractionalBlock: z.number().nullable(),
+  qcReasons: z.array(qcReason),
+});
+
+export const wellsResponseSchema = z.object({ version: z.number().int(), state: z.string(), wells: z.array(wellRowSchema) });
+
+const bandPoint = z.object({ concentration_uM: z.number(), block: z.number(), low: z.number().nullable(), high: z.number().nullable() });
+
+/** One fit with its curve and band, as the fits view receives it. */
+export const fitViewSchema = z.object({
+  id: z.uuid(),
+  compoundId: z.uuid(),
+  compound: z.string(),
+  targetId: z.uuid(),
+  target: z.string(),
+  conductance: z.string(),
+  model: z.enum(['hill2', 'hill4']),
+  status: z.enum(['fitted', 'above_range', 'inactive', 'insufficient', 'not_converged']),
+  message: z.string(),
+  ic50Um: z.number().nullable(),
+  ic50CiLowUm: z.number().nullable(),
+  ic50CiHighUm: z.number().nullable(),
+  ic50LowerBoundUm: z.number().nullable(),
+  log10Ic50Se: z.number().nullable(),
+  hill: z.number().nullable(),
+  top: z.number().nullable(),
+  bottom: z.number().nullable(),
+  r2: z.number().nullable(),
+  residualSd: z.number().nullable(),
+  n: z.number().int(),
+  flags: z.array(qcReason),
+  curve: z.array(bandPoint),
+});
+
+export const fitsResponseSchema = z.object({ version: z.number().int(), state: z.string(), fits: z.array(fitViewSchema) });
+
+export type WellRowView = z.infer<typeof wellRowSchema>;
+export type FitView = z.infer<typeof fitViewSchema>;
