@@ -17,7 +17,8 @@ migrate
 seed
 
 say "building"
-npx next build >/dev/null
+mkdir -p .var
+npx next build >.var/build.log 2>&1 || { tail -n 40 .var/build.log; say "the build failed; the whole log is in .var/build.log"; exit 1; }
 
 say "serving Gatewell on $APP_URL (Ctrl-C stops it; PostgreSQL keeps running: scripts/pg.sh stop dev)"
 exec npx next start --port "$PORT" --hostname 127.0.0.1
