@@ -5,6 +5,7 @@ import { sessionIsFresh, sessionOptions, type SessionData } from '@/lib/auth/ses
 
 // Paths that anonymous visitors may open. API routes answer 401 themselves, so they pass through too.
 const PUBLIC_PREFIXES = ['/sign-in', '/api/', '/_next/', '/favicon'];
+const RENEW_AFTER_MS = 60_000;
 
 /** Sends anonymous or expired visitors to sign-in, and keeps an active session's idle clock current. */
 export async function proxy(request: NextRequest) {
