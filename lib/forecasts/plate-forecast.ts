@@ -1,0 +1,75 @@
+import 'server-only';
+import type { Actor } from '@/lib/auth/roles';
+import { AppError } from '@/lib/errors';
+import { getPlateHeader, listPlateFits, type FitRow, type PlateHeader } from '@/lib/plates/detail';
+import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
+import type { CompoundForecast, PlateForecastList, TargetPotency } from '@/lib/validation/forecasts';
+import { targetPotencies, type PotencyFit } from './potency';
+import { planCompoundForecast } from './request';
+import { forecastInput, storedKeys, storedOrComputedForecast } from './store';
+import { forecastView } from './view';
+
+interface PlateContext {
+  header: PlateHeader;
+  exposuresUm: number[];
+  compounds: { compoundId: string; compound: string; targets: TargetPotency[] }[];
+}
+
+/** The plate, its exposures (ascending) and each compound's potencies from this plate's fits. */
+async function plateContext(actor: Actor, plateId: string): Promise<PlateContext> {
+  const header = await getPlateHeader(actor, plateId);
+  const fits = await listPlateFits(actor, plateId);
+  const exposuresUm = [...header.exposuresUm].sort((a, b) => a - b);
+  const plate = { id: header.id, label: header.label, state: header.state };
+  const byCompound = new Map<string, { compound: string; fits: Map<string, FitRow> }>();
+  for (const fit of fits) {
+    const entry = byCompound.get(fit.compoundId) ?? { compound: fit.compound, fits: new Map() };
+    entry.fits.set(fit.targetId, fit);
+    byCompound.set(fit.compoundId, entry);
+  }
+  const compounds = [...byCompound].map(([compoundId, { compound, fits: own }]) => ({
+    compoundId,
+    compound,
+    targets: targetPotencies(header.neuronPreset, header.targets, (targetId) => {
+      const f = own.get(targetId);
+      return f ? ({ status: f.status, model: f.model, ic50Um: f.ic50Um, hill: f.hill, ic50LowerBoundUm: f.ic50LowerBoundUm, plate } as PotencyFit) : undefined;
+    }, exposuresUm),
+  }));
+  return { header, exposuresUm, compounds };
+}
+
+/** Every compound of the plate with its potencies, whether it can be forecast, and whether its forecast is stored. */
+export async function listPlateForecasts(actor: Actor, plateId: string): Promise<PlateForecastList> {
+  const { header, exposuresUm, compounds } = await plateContext(actor, plateId);
+  const plans = compounds.map((c) => planCompoundForecast(header.neuronPreset, c.targets, exposuresUm));
+  const keys = plans.map((p) => ('request' in p ? forecastInput(p.request).inputSha256 : null));
+  const stored = await storedKeys(header.id, keys.filter((k): k is string => k !== null));
+  return {
+    plate: { id: header.id, label: header.label, state: header.state },
+    preset: header.neuronPreset,
+    exposuresUm,
+    compounds: compounds.map((c, i) => {
+      const plan = plans[i]!;
+      return { ...c, reason: 'reason' in plan ? plan.reason : null, stored: keys[i] !== null && stored.has(keys[i]!) };
+    }),
+    caution: FORECAST_CAUTION,
+  };
+}
+
+/**
+ * One compound's forecast on the plate, from this plate's fits at the screen's exposures and sweep,
+ * with traces at exposure `at` (default the highest): reused when stored, otherwise computed and stored.
+ */
+export async function getPlateForecast(actor: Actor, plateId: string, compoundId: string, at?: number): Promise<CompoundForecast> {
+  const { header, exposuresUm, compounds } = await plateContext(actor, plateId);
+  const entry = compounds.find((c) => c.compoundId === compoundId);
+  if (!entry) throw new AppError('not_found', `No compound with that id is tested on plate ${header.label}.`);
+  const plan = planCompoundForecast(header.neuronPreset, entry.targets, exposuresUm, at);
+  const base = {
+    compoundId, compound: entry.compound, screen: { id: header.screenId, name: header.screenName }, preset: header.neuronPreset,
+    exposuresUm, targets: entry.targets, caution: FORECAST_CAUTION,
+  };
+  if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
+  const stored = await storedOrComputedForecast({ plateId: header.id, compoundId, screenId: header.screenId }, plan.request);
+  return { ...base, reason: null, forecast: forecastView(stored, exposuresUm) };
+}

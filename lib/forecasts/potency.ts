@@ -1,0 +1,77 @@
+import 'server-only';
+import { poreBlockFraction } from '@/lib/science/forecast/pore-block';
+import { conductanceNames, getPreset } from '@/lib/science/neuron/presets';
+import type { PotencyUse, TargetPotency } from '@/lib/validation/forecasts';
+
+/** The highest Hill slope the forecast accepts (lib/science/forecast/request-schema.ts). */
+const MAX_HILL = 10;
+
+export interface PotencyTarget {
+  id: string;
+  name: string;
+  conductance: string;
+}
+
+/** The parts of a fit a forecast needs, and the plate it came from. */
+export interface PotencyFit {
+  status: 'fitted' | 'above_range' | 'inactive' | 'insufficient' | 'not_converged';
+  model: 'hill2' | 'hill4';
+  ic50Um: number | null;
+  hill: number | null;
+  ic50LowerBoundUm: number | null;
+  plate: { id: string; label: string; state: string } | null;
+}
+
+const num = (v: number) => Number(v.toPrecision(3)).toString();
+
+function useOf(fit: PotencyFit | undefined): { use: PotencyUse; note: string } {
+  if (!fit) return { use: 'not_tested', note: 'Not tested: treated as no block.' };
+  const bound = fit.ic50LowerBoundUm === null ? '' : ` ${num(fit.ic50LowerBoundUm)} µM`;
+  switch (fit.status) {
+    case 'fitted':
+      if (fit.hill === null || !(fit.hill > 0) || fit.hill > MAX_HILL) {
+        return { use: 'slope_out_of_range', note: `Hill slope ${fit.hill === null ? 'missing' : num(fit.hill)} is outside the 0–${MAX_HILL} the model accepts: treated as no block.` };
+      }
+      return {
+        use: 'used',
+        note: `IC50 ${num(fit.ic50Um!)} µM, Hill slope ${num(fit.hill)}${fit.model === 'hill4' ? ' (from the four-parameter fit; the model applies them as full pore block)' : ''}.`,
+      };
+    case 'above_range':
+      return { use: 'above_range', note: `IC50 above${bound}, the highest concentration tested: treated as no block.` };
+    case 'inactive':
+      return { use: 'inactive', note: `No meaningful block up to${bound}: treated as no block.` };
+    case 'insufficient':
+      return { use: 'insufficient', note: 'Too few concentrations for a fit, so no IC50: treated as no block.' };
+    case 'not_converged':
+      return { use: 'not_converged', note: 'The fit did not converge, so no IC50: treated as no block.' };
+  }
+}
+
+/**
+ * How each target enters a forecast with the given preset: its IC50 and Hill slope with the block at
+ * every exposure, or in words why it counts as no block. A conductance takes its potency from the first
+ * target (by name) that gives one; later targets on the same conductance are said to be unused.
+ */
+export function targetPotencies(presetName: string, targets: PotencyTarget[], fitOf: (targetId: string) => PotencyFit | undefined, exposuresUm: number[]): TargetPotency[] {
+  const { blockable } = conductanceNames(getPreset(presetName));
+  const taken = new Map<string, string>();
+  return [...targets].sort((a, b) => a.name.localeCompare(b.name)).map((target) => {
+    const fit = fitOf(target.id);
+    let { use, note } = useOf(fit);
+    if (!blockable.includes(target.conductance)) {
+      use = 'not_modelled';
+      note = `${target.name} maps to ${target.conductance}, which preset ${presetName} cannot block: not modelled.`;
+    } else if (use === 'used' && taken.has(target.conductance)) {
+      use = 'not_modelled';
+      note = `${target.conductance} already takes its potency from ${taken.get(target.conductance)}: not used.`;
+    } else if (use === 'used') {
+      taken.set(target.conductance, target.name);
+    }
+    const blockAtExposures = exposuresUm.map((c) => (use === 'used' ? poreBlockFraction(c, fit!.ic50Um!, fit!.hill!) : 0));
+    return {
+      targetId: target.id, target: target.name, conductance: target.conductance, use,
+      ic50Um: fit?.ic50Um ?? null, hill: fit?.hill ?? null, ic50LowerBoundUm: fit?.ic50LowerBoundUm ?? null,
+      note, blockAtExposures, plate: fit?.plate ?? null,
+    };
+  });
+}

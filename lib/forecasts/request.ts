@@ -1,0 +1,49 @@
+import 'server-only';
+import { AppError } from '@/lib/errors';
+import type { ForecastRequest } from '@/lib/science/forecast/request-schema';
+import type { TargetPotency } from '@/lib/validation/forecasts';
+import { isExposure, sweepConcentrations } from './sweep';
+
+/** Part of every stored input: a change to how Gatewell builds or computes forecasts changes the key. */
+export const FORECAST_ENGINE = 'gatewell-forecast/1';
+
+/** The f–I curve: 12 drives up to 3 × the control rheobase (our choice, no source). */
+export const FORECAST_FI_CURVE = { points: 12, upToFactor: 3 } as const;
+
+/** Points per voltage trace: enough for a plot about 1000 px wide, spike peaks kept. */
+export const TRACE_POINTS = 1200;
+
+export interface PlannedForecast {
+  request: ForecastRequest;
+  concentrationsUm: number[];
+  traceConcentrationUm: number;
+}
+
+/**
+ * The forecast request for a compound: its used potencies (conductance → IC50 µM and Hill slope) at the
+ * exposures (ascending) and the concentration sweep, with traces at exposure `at` (default the highest).
+ * Returns the reason instead when there is nothing to forecast.
+ */
+export function planCompoundForecast(preset: string, potencies: TargetPotency[], exposuresUm: number[], at?: number): PlannedForecast | { reason: string } {
+  if (at !== undefined && at >= exposuresUm.length) {
+    throw new AppError('invalid', `at must be the index of one of the screen’s ${exposuresUm.length} exposures (0–${Math.max(0, exposuresUm.length - 1)}).`);
+  }
+  if (exposuresUm.length === 0) return { reason: 'The screen has no exposures of interest. An admin adds them on the screen’s page; the forecast runs at those concentrations.' };
+  const used = potencies.filter((p) => p.use === 'used');
+  if (used.length === 0) return { reason: 'No target gives a usable IC50 here, so every exposure would equal control. Nothing to forecast.' };
+  const concentrationsUm = sweepConcentrations(exposuresUm, used.map((p) => p.ic50Um!));
+  const traceConcentrationUm = exposuresUm[at ?? exposuresUm.length - 1]!;
+  const condition = concentrationsUm.findIndex((c) => isExposure(c, [traceConcentrationUm]));
+  return {
+    request: {
+      preset: preset as ForecastRequest['preset'],
+      potencies: Object.fromEntries(used.map((p) => [p.conductance, { ic50: p.ic50Um!, hill: p.hill! }])),
+      concentrations: concentrationsUm,
+      concentrationUnit: 'µM',
+      protocol: { fiCurve: { ...FORECAST_FI_CURVE } },
+      trace: { condition, points: TRACE_POINTS },
+    },
+    concentrationsUm,
+    traceConcentrationUm,
+  };
+}

@@ -1,0 +1,78 @@
+import 'server-only';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { contentSha256 } from '@/lib/auth/canonical-json';
+import { db } from '@/lib/db';
+import { AppError } from '@/lib/errors';
+import type { ForecastResult } from '@/lib/science/forecast/assemble';
+import { runForecast } from '@/lib/science/forecast/pool';
+import { ForecastRequestError, type ForecastRequest } from '@/lib/science/forecast/request-schema';
+import { Forecast } from '@/models';
+import { FORECAST_ENGINE } from './request';
+
+export interface StoredForecast {
+  result: ForecastResult;
+  inputSha256: string;
+  computedAt: string;
+  /** True when an earlier computation of the same input was found and nothing was computed. */
+  reused: boolean;
+}
+
+export interface ForecastOwner {
+  plateId: string | null;
+  compoundId: string;
+  screenId: string;
+}
+
+/** The stored input of a forecast request and its key (SHA-256 of the canonical JSON). */
+export function forecastInput(request: ForecastRequest): { input: Record<string, unknown>; inputSha256: string } {
+  const input = { engine: FORECAST_ENGINE, request };
+  return { input, inputSha256: contentSha256(input) };
+}
+
+async function findStored(owner: ForecastOwner, inputSha256: string, transaction?: Transaction) {
+  const [row] = await db().query<{ result: ForecastResult; computedAt: Date }>(
+    `select result, computed_at as "computedAt" from forecasts
+      where compound_id = :compoundId and input_sha256 = :inputSha256 and plate_id is not distinct from :plateId
+      order by computed_at limit 1`,
+    { type: QueryTypes.SELECT, replacements: { compoundId: owner.compoundId, plateId: owner.plateId, inputSha256 }, transaction },
+  );
+  return row ? { result: row.result, inputSha256, computedAt: new Date(row.computedAt).toISOString(), reused: true } : null;
+}
+
+/** Which of these keys already have a stored forecast for the owner's plate and compounds. */
+export async function storedKeys(plateId: string, inputSha256s: string[]): Promise<Set<string>> {
+  if (inputSha256s.length === 0) return new Set();
+  const rows = await db().query<{ sha: string }>(
+    'select distinct input_sha256 as sha from forecasts where plate_id = :plateId and input_sha256 in (:inputSha256s)',
+    { type: QueryTypes.SELECT, replacements: { plateId, inputSha256s } },
+  );
+  return new Set(rows.map((r) => r.sha));
+}
+
+/**
+ * The forecast of a request: the stored one when the same input was computed before, otherwise
+ * computed on the worker pool and stored. Two requests racing for the same input store one row.
+ */
+export async function storedOrComputedForecast(owner: ForecastOwner, request: ForecastRequest): Promise<StoredForecast> {
+  const { input, inputSha256 } = forecastInput(request);
+  const found = await findStored(owner, inputSha256);
+  if (found) return found;
+  let computed: ForecastResult;
+  try {
+    // Stored as JSON; the answer is the same JSON whether computed now or read back later.
+    computed = JSON.parse(JSON.stringify(await runForecast(request))) as ForecastResult;
+  } catch (error) {
+    if (error instanceof ForecastRequestError) throw new AppError('invalid', `The forecast cannot run: ${error.message}`);
+    throw error;
+  }
+  return db().transaction(async (transaction) => {
+    await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', { replacements: { key: `forecast:${inputSha256}` }, transaction });
+    const raced = await findStored(owner, inputSha256, transaction);
+    if (raced) return raced;
+    const row = await Forecast.create(
+      { plateId: owner.plateId, compoundId: owner.compoundId, screenId: owner.screenId, preset: request.preset, inputSha256, input, result: computed as unknown as Record<string, unknown> },
+      { transaction },
+    );
+    return { result: computed, inputSha256, computedAt: new Date(row.computedAt).toISOString(), reused: false };
+  });
+}

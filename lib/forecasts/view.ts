@@ -1,0 +1,41 @@
+import 'server-only';
+import type { ConditionForecast } from '@/lib/science/forecast/assemble';
+import type { ConditionView, ForecastView } from '@/lib/validation/forecasts';
+import { isExposure } from './sweep';
+import type { StoredForecast } from './store';
+
+function conditionView(c: ConditionForecast, exposuresUm: number[]): ConditionView {
+  const concentrationUm = c.concentration ?? 0;
+  const { rest_mV, rheobase_uA_cm2, threshold_mV, referenceRate_Hz, fI, flags } = c.measures;
+  return {
+    concentrationUm,
+    exposure: concentrationUm > 0 && isExposure(concentrationUm, exposuresUm),
+    block: c.block,
+    measures: { rest_mV, rheobase_uA_cm2, threshold_mV, referenceRate_Hz, fI, flags },
+    shifts: c.shifts,
+  };
+}
+
+/** What a page shows of a stored forecast: measures, shifts, f–I curves and traces (the detail stays stored). */
+export function forecastView(stored: StoredForecast, exposuresUm: number[]): ForecastView {
+  const r = stored.result;
+  const traceIndex = r.traces?.conditionIndex ?? null;
+  return {
+    inputSha256: stored.inputSha256,
+    computedAt: stored.computedAt,
+    reused: stored.reused,
+    preset: r.preset,
+    referenceDrive_uA_cm2: r.referenceDrive_uA_cm2,
+    control: conditionView(r.control, exposuresUm),
+    conditions: r.conditions.map((c) => conditionView(c, exposuresUm)),
+    traces: r.traces
+      ? {
+          drive_uA_cm2: r.traces.drive_uA_cm2,
+          concentrationUm: traceIndex === null ? null : (r.conditions[traceIndex]?.concentration ?? null),
+          control: r.traces.control,
+          condition: r.traces.condition,
+        }
+      : null,
+    caution: r.caution,
+  };
+}

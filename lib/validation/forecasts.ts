@@ -1,0 +1,97 @@
+import { z } from 'zod';
+
+/** How a target's fit enters a forecast: its potency is used, or why it is treated as no block. */
+export const POTENCY_USES = ['used', 'above_range', 'inactive', 'insufficient', 'not_converged', 'slope_out_of_range', 'not_tested', 'not_modelled'] as const;
+export type PotencyUse = (typeof POTENCY_USES)[number];
+
+/** One target of a compound as a forecast sees it (the note says in words what was done). */
+export const targetPotencySchema = z.object({
+  targetId: z.uuid(),
+  target: z.string(),
+  conductance: z.string(),
+  use: z.enum(POTENCY_USES),
+  ic50Um: z.number().nullable(),
+  hill: z.number().nullable(),
+  ic50LowerBoundUm: z.number().nullable(),
+  note: z.string(),
+  /** Fraction of the conductance blocked at each exposure of the screen (0 where no potency is used). */
+  blockAtExposures: z.array(z.number()),
+  /** The plate the potency came from (compound profiles draw from several plates). */
+  plate: z.object({ id: z.uuid(), label: z.string(), state: z.string() }).nullable(),
+});
+
+const nullableNumber = z.number().nullable();
+const shiftSchema = z.object({ control: nullableNumber, value: nullableNumber, delta: nullableNumber, relative: nullableNumber });
+
+export const conditionViewSchema = z.object({
+  concentrationUm: z.number(),
+  /** One of the screen's exposures of interest (the others belong to the concentration sweep). */
+  exposure: z.boolean(),
+  block: z.record(z.string(), z.number()),
+  measures: z.object({
+    rest_mV: nullableNumber,
+    rheobase_uA_cm2: nullableNumber,
+    threshold_mV: nullableNumber,
+    referenceRate_Hz: nullableNumber,
+    fI: z.array(z.object({ drive_uA_cm2: z.number(), rate_Hz: z.number() })),
+    flags: z.array(z.string()),
+  }),
+  shifts: z.object({ rest_mV: shiftSchema, rheobase_uA_cm2: shiftSchema, threshold_mV: shiftSchema, referenceRate_Hz: shiftSchema }),
+});
+
+const traceSchema = z.object({ t_ms: z.array(z.number()), v_mV: z.array(z.number()) });
+
+/** A computed forecast as pages receive it (the stored result keeps every detail). */
+export const forecastViewSchema = z.object({
+  inputSha256: z.string().length(64),
+  computedAt: z.string(),
+  reused: z.boolean(),
+  preset: z.object({ name: z.string(), title: z.string(), reference: z.string() }),
+  referenceDrive_uA_cm2: nullableNumber,
+  control: conditionViewSchema,
+  conditions: z.array(conditionViewSchema),
+  traces: z.object({ drive_uA_cm2: z.number(), concentrationUm: nullableNumber, control: traceSchema, condition: traceSchema.nullable() }).nullable(),
+  caution: z.string(),
+});
+
+/** A compound's forecast on one plate (or in its profile): potencies, and the forecast or why there is none. */
+export const compoundForecastSchema = z.object({
+  compoundId: z.uuid(),
+  compound: z.string(),
+  /** The screen whose preset and exposures the forecast uses. */
+  screen: z.object({ id: z.uuid(), name: z.string() }),
+  preset: z.string(),
+  exposuresUm: z.array(z.number()),
+  targets: z.array(targetPotencySchema),
+  /** Why no forecast is computed (no usable potency, no exposures); null when one is. */
+  reason: z.string().nullable(),
+  forecast: forecastViewSchema.nullable(),
+  caution: z.string(),
+});
+
+/** The plate's forecast tab before any computation: each compound's potencies and whether it can be forecast. */
+export const plateForecastListSchema = z.object({
+  plate: z.object({ id: z.uuid(), label: z.string(), state: z.string() }),
+  preset: z.string(),
+  exposuresUm: z.array(z.number()),
+  compounds: z.array(z.object({ compoundId: z.uuid(), compound: z.string(), targets: z.array(targetPotencySchema), reason: z.string().nullable(), stored: z.boolean() })),
+  caution: z.string(),
+});
+
+/** Query of the plate forecast route: no compound lists them; a compound computes (or reuses) its forecast. */
+export const plateForecastQuerySchema = z.object({
+  compoundId: z.uuid({ error: 'compoundId must be the id of a compound on this plate.' }).optional(),
+  at: z.coerce.number({ error: 'at must be the index of one of the screen’s exposures.' }).int({ error: 'at must be the index of one of the screen’s exposures.' }).min(0, { error: 'at must be the index of one of the screen’s exposures.' }).optional(),
+});
+
+export type TargetPotency = z.infer<typeof targetPotencySchema>;
+export type ConditionView = z.infer<typeof conditionViewSchema>;
+export type ForecastView = z.infer<typeof forecastViewSchema>;
+export type CompoundForecast = z.infer<typeof compoundForecastSchema>;
+export type PlateForecastList = z.infer<typeof plateForecastListSchema>;
+
+/** Query of the compound forecast route: the screen whose preset and exposures to use, and the trace exposure. */
+export const compoundForecastQuerySchema = z.object({
+  screenId: z.uuid({ error: 'screenId must be the id of a screen the compound was tested in.' }).optional(),
+  at: plateForecastQuerySchema.shape.at,
+});

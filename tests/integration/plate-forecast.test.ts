@@ -1,0 +1,123 @@
+// The plate forecast service on the real database: stored by the SHA-256 of its input and reused,
+// block taken from the plate's fits, and the physiology a sodium-channel blocker is expected to show.
+import { randomUUID } from 'node:crypto';
+import { QueryTypes } from 'sequelize';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { contentSha256 } from '@/lib/auth/canonical-json';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { getPlateForecast, listPlateForecasts } from '@/lib/forecasts/plate-forecast';
+import { listPlateWells } from '@/lib/plates/detail';
+import { setWellExclusion } from '@/lib/plates/review';
+import { closeForecastPool } from '@/lib/science/forecast/pool';
+import { poreBlockFraction } from '@/lib/science/forecast/pore-block';
+import { makeActor } from '../support/actors';
+import { resetDatabase } from '../support/database';
+import { importDemoPlate } from '../support/demo-plates';
+import { makeDemoScreens } from '../support/demo-scenario';
+
+describe('plate forecasts', () => {
+  let biologist: Actor;
+  let reader: Actor;
+  let navPlate: string;
+  let kvPlate: string;
+  const count = async () => (await db().query<{ n: number }>('select count(*)::int as n from forecasts', { type: QueryTypes.SELECT }))[0]!.n;
+  const compoundId = async (plateId: string, identifier: string) => (await listPlateForecasts(reader, plateId)).compounds.find((c) => c.compound === identifier)!.compoundId;
+
+  beforeAll(async () => {
+    await resetDatabase();
+    const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
+    biologist = await makeActor(['biologist']);
+    reader = await makeActor(['approver']);
+    navPlate = await importDemoPlate(biologist, screens, 'nav-96-plate-01.xlsx');
+    kvPlate = await importDemoPlate(biologist, screens, 'kv-96-plate-01.csv');
+  });
+  afterAll(async () => {
+    await closeForecastPool();
+    await db().close();
+  });
+
+  test('the list gives each compound its potency and block at every exposure, nothing stored yet', async () => {
+    const list = await listPlateForecasts(reader, navPlate);
+    expect(list.preset).toBe('pospischil-rs-2008');
+    expect(list.exposuresUm).toEqual([0.1, 1]);
+    expect(list.compounds.map((c) => c.compound)).toEqual(['GW-0001', 'GW-0002', 'GW-0003', 'GW-0004', 'GW-0005']);
+    const [target] = list.compounds[0]!.targets;
+    expect(target).toMatchObject({ target: 'Nav1.7', conductance: 'gNa', use: 'used' });
+    // Simple pore block of the fitted IC50 and slope (Mirams et al. 2011), at 0.1 and 1 µM.
+    expect(target!.blockAtExposures).toEqual([0.1, 1].map((c) => poreBlockFraction(c, target!.ic50Um!, target!.hill!)));
+    expect(list.compounds.every((c) => !c.stored && c.reason === null)).toBe(true);
+    expect(list.caution).toMatch(/research decision support.*not a clinical or regulatory safety determination/);
+  });
+
+  test('a forecast is computed once, stored under the SHA-256 of its input, and reused', async () => {
+    const id = await compoundId(navPlate, 'GW-0002');
+    const before = await count();
+    const first = await getPlateForecast(reader, navPlate, id);
+    expect(first.forecast!.reused).toBe(false);
+    expect(await count()).toBe(before + 1);
+    const [row] = await db().query<{ input: unknown; sha: string; plateId: string }>(
+      'select input, input_sha256 as sha, plate_id as "plateId" from forecasts where input_sha256 = :sha', { type: QueryTypes.SELECT, replacements: { sha: first.forecast!.inputSha256 } },
+    );
+    expect(row!.sha).toBe(contentSha256(row!.input));
+    expect(row!.plateId).toBe(navPlate);
+    const again = await getPlateForecast(reader, navPlate, id);
+    expect(again.forecast!.reused).toBe(true);
+    expect(await count()).toBe(before + 1);
+    expect({ ...again.forecast, reused: false }).toEqual(first.forecast);
+    expect((await listPlateForecasts(reader, navPlate)).compounds.find((c) => c.compoundId === id)!.stored).toBe(true);
+  });
+
+  test('traces at another exposure are a different input; a bad exposure index is refused and stores nothing', async () => {
+    const id = await compoundId(navPlate, 'GW-0003');
+    const high = await getPlateForecast(reader, navPlate, id);
+    const low = await getPlateForecast(reader, navPlate, id, 0);
+    expect(high.forecast!.traces!.concentrationUm).toBe(1);
+    expect(low.forecast!.traces!.concentrationUm).toBe(0.1);
+    expect(low.forecast!.inputSha256).not.toBe(high.forecast!.inputSha256);
+    const before = await count();
+    await expect(getPlateForecast(reader, navPlate, id, 2)).rejects.toMatchObject({ code: 'invalid', message: 'at must be the index of one of the screen’s 2 exposures (0–1).' });
+    await expect(getPlateForecast(reader, navPlate, await compoundId(kvPlate, 'GW-0009'))).rejects.toMatchObject({ code: 'not_found', message: 'No compound with that id is tested on plate NAV-P01.' });
+    await expect(getPlateForecast(reader, randomUUID(), id)).rejects.toMatchObject({ code: 'not_found' });
+    expect(await count()).toBe(before);
+  });
+
+  test('Nav1.7 block raises rheobase and depolarises threshold at every exposure (common-practice physiology of sodium-channel block)', async () => {
+    const { forecast } = await getPlateForecast(reader, navPlate, await compoundId(navPlate, 'GW-0001'));
+    const exposures = forecast!.conditions.filter((c) => c.exposure);
+    expect(exposures.map((c) => c.concentrationUm)).toEqual([0.1, 1]);
+    let previous = forecast!.control;
+    for (const c of exposures) {
+      expect(c.block.gNa).toBeGreaterThan(previous.block.gNa ?? 0);
+      if (c.measures.rheobase_uA_cm2 !== null) expect(c.measures.rheobase_uA_cm2).toBeGreaterThan(previous.measures.rheobase_uA_cm2!);
+      expect(c.shifts.rheobase_uA_cm2.relative ?? Infinity).toBeGreaterThan(0);
+      previous = c;
+    }
+    expect(forecast!.traces!.control.t_ms.length).toBeGreaterThan(100);
+    expect(forecast!.control.measures.fI).toHaveLength(12);
+  });
+
+  test('on the counter-screen, an IC50 above the tested range counts as no block, said in words', async () => {
+    const none = await getPlateForecast(reader, kvPlate, await compoundId(kvPlate, 'GW-0001'));
+    expect(none.targets[0]).toMatchObject({ use: 'above_range', blockAtExposures: [0, 0] });
+    expect(none.targets[0]!.note).toMatch(/^IC50 above 30 µM, the highest concentration tested: treated as no block\.$/);
+    expect(none.forecast).toBeNull();
+    expect(none.reason).toMatch(/No target gives a usable IC50/);
+    // An M-current blocker lowers rheobase (Pospischil et al. 2008 RS cell; common-practice physiology of Kv7 block).
+    const kv = await getPlateForecast(reader, kvPlate, await compoundId(kvPlate, 'GW-0009'));
+    expect(kv.targets[0]!.conductance).toBe('gM');
+    expect(kv.forecast!.conditions.find((c) => c.concentrationUm === 1)!.shifts.rheobase_uA_cm2.relative).toBeLessThan(0);
+  });
+
+  test('a changed fit is a new input: excluding a well gives a new forecast beside the old one', async () => {
+    const id = await compoundId(navPlate, 'GW-0004');
+    const before = await getPlateForecast(reader, navPlate, id);
+    const well = (await listPlateWells(biologist, navPlate)).find((w) => w.compoundId === id && w.qcReasons.length === 0 && w.concentrationUm === 0.03)!;
+    await setWellExclusion(biologist, navPlate, { wellIds: [well.id], excluded: true, reason: 'seal lost during the compound addition' });
+    const after = await getPlateForecast(reader, navPlate, id);
+    expect(after.forecast!.reused).toBe(false);
+    expect(after.forecast!.inputSha256).not.toBe(before.forecast!.inputSha256);
+    const rows = await db().query('select 1 from forecasts where plate_id = :navPlate and compound_id = :id', { type: QueryTypes.SELECT, replacements: { navPlate, id } });
+    expect(rows).toHaveLength(2);
+  });
+});
