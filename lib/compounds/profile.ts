@@ -1,0 +1,49 @@
+import 'server-only';
+import { QueryTypes } from 'sequelize';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { AppError } from '@/lib/errors';
+import { choosePotencies, listCompoundFits, type ProfileFit } from './profile-fits';
+import { selectivityRatios, type SelectivityRatio } from './selectivity';
+
+export interface ProfileScreen {
+  id: string;
+  name: string;
+  neuronPreset: string;
+  exposuresUm: number[];
+  /** The compound has at least one fit on an approved plate of this screen. */
+  hasApproved: boolean;
+}
+
+export interface CompoundProfile {
+  compound: { id: string; identifier: string; name: string };
+  fits: ProfileFit[];
+  /** The fit standing for each target's potency (approved plates first, then the newest plate). */
+  potencies: ProfileFit[];
+  selectivity: SelectivityRatio[];
+  screens: ProfileScreen[];
+}
+
+/** A compound's results across plates and screens: every fit, the potency per target and selectivity. */
+export async function getCompoundProfile(actor: Actor, compoundId: string): Promise<CompoundProfile> {
+  const [compound] = await db().query<CompoundProfile['compound']>(
+    'select id, identifier, name from compounds where id = :compoundId', { type: QueryTypes.SELECT, replacements: { compoundId } },
+  );
+  if (!compound) throw new AppError('not_found', 'No such compound.');
+  const fits = await listCompoundFits(actor, compoundId);
+  const potencies = [...choosePotencies(fits).values()].sort((a, b) => a.target.localeCompare(b.target));
+  const screenIds = [...new Set(fits.map((f) => f.screenId))];
+  const screens = screenIds.length
+    ? await db().query<Omit<ProfileScreen, 'hasApproved'>>(
+        'select id, name, neuron_preset as "neuronPreset", exposures_um as "exposuresUm" from screens where id in (:screenIds) order by name',
+        { type: QueryTypes.SELECT, replacements: { screenIds } },
+      )
+    : [];
+  return {
+    compound,
+    fits,
+    potencies,
+    selectivity: selectivityRatios(potencies),
+    screens: screens.map((s) => ({ ...s, exposuresUm: [...s.exposuresUm].sort((a, b) => a - b), hasApproved: fits.some((f) => f.screenId === s.id && f.approved) })),
+  };
+}
