@@ -6,6 +6,7 @@ import { Fit } from './fit';
 import { Forecast } from './forecast';
 import { ImportTemplate } from './import-template';
 import { LoginAttempt } from './login-attempt';
+import { MailMessage } from './mail-message';
 import { Plate } from './plate';
 import { Readout } from './readout';
 import { Screen } from './screen';
@@ -17,9 +18,9 @@ import { User } from './user';
 import { UserRole } from './user-role';
 import { Well } from './well';
 
-export { AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
+export { AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
 
-const models = [AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
+const models = [AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {

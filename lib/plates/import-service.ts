@@ -11,6 +11,7 @@ import type { PlateFormat } from '@/lib/imports/plate-format';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import { analysePlate } from '@/lib/science/plate-analysis';
+import { queueImportNotices } from '@/lib/signoff/import-notice';
 import { ImportTemplate, Screen, Target } from '@/models';
 import { analysisSettings } from './settings';
 import { findDuplicateUpload, sha256Hex, storePlate } from './store';
@@ -130,10 +131,12 @@ export async function commitImport(actor: Actor, request: CommitRequest): Promis
       }
       importTemplateId = template.id;
     }
-    return storePlate(actor, {
+    const stored = await storePlate(actor, {
       screenId: request.screenId, label: request.label, plate: preview.plate!, importTemplateId,
       file: { bytes: request.bytes, filename: request.filename, mediaType: request.mediaType },
       supersedesPlateId: request.supersedesPlateId ?? null,
     }, transaction);
+    await queueImportNotices(actor, stored.plateId, transaction); // chemists hear of the new plate (lib/signoff)
+    return stored;
   });
 }

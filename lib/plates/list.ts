@@ -2,6 +2,7 @@ import 'server-only';
 import { QueryTypes } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
+import { awaitingCondition } from '@/lib/signoff/awaiting';
 import type { PlateState } from '@/models/plate';
 
 export interface PlateSummary {
@@ -31,6 +32,12 @@ export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promis
   if (filter.state?.length) {
     where.push('p.state in (:states)');
     replacements.states = filter.state;
+  }
+  if (filter.waitingFor) {
+    const awaiting = awaitingCondition(filter.waitingFor);
+    if (!awaiting) return [];
+    where.push(awaiting.sql);
+    Object.assign(replacements, awaiting.replacements);
   }
   if (filter.screenId) {
     where.push('p.screen_id = :screenId');

@@ -1,0 +1,105 @@
+import 'server-only';
+import { QueryTypes, type Transaction } from 'sequelize';
+import type { Actor, Role } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { env } from '@/lib/env';
+import type { OutgoingMail } from '@/lib/mail/outbox';
+import type { SignoffAction } from '@/lib/validation/signoff';
+import type { MailKind } from '@/models/mail-message';
+
+/** Where a plate's sign-off panel and history live; e-mails link here. */
+export const plateSignoffPath = (plateId: string) => `/plates/${plateId}/history`;
+
+export interface NoticePlate {
+  id: string;
+  label: string;
+  screenName: string;
+  importedBy: string;
+  submittedBy: string | null;
+}
+
+interface Recipient {
+  id: string;
+  email: string;
+  name: string;
+}
+
+interface Audience {
+  kind: MailKind;
+  roles: Role[];
+  /** Whether the importer and submitter hear of it too. */
+  owners: boolean;
+  subject: string;
+  done: string;
+  next: string;
+}
+
+/** Who hears of each step: the people of the next role, and on a decision the importer and submitter. */
+const AUDIENCE: Record<SignoffAction | 'import', Audience> = {
+  import: {
+    kind: 'plate_imported', roles: ['chemist'], owners: false, subject: 'imported: compound map to verify', done: 'imported',
+    next: 'It waits for a chemist to verify its compound map.',
+  },
+  verify: {
+    kind: 'plate_verified', roles: ['biologist'], owners: false, subject: 'compound map verified: ready to review and submit', done: 'verified the compound map of',
+    next: 'It waits for a biologist to review and submit it for approval.',
+  },
+  submit: {
+    kind: 'plate_submitted', roles: ['approver'], owners: false, subject: 'submitted for approval', done: 'submitted',
+    next: 'It waits for an approver to approve it or return it for rework.',
+  },
+  approve: {
+    kind: 'plate_approved', roles: [], owners: true, subject: 'approved and locked', done: 'approved',
+    next: 'It is now locked; a correction is a new import that references it.',
+  },
+  reject: {
+    kind: 'plate_rejected', roles: ['biologist'], owners: true, subject: 'returned for rework', done: 'returned',
+    next: 'It waits for a biologist to reopen it for rework.',
+  },
+  rework: {
+    kind: 'plate_reopened', roles: ['chemist'], owners: false, subject: 'reopened: compound map to verify again', done: 'reopened',
+    next: 'It waits for a chemist to verify its compound map again.',
+  },
+};
+
+/** Enabled users holding one of the roles, or with one of the ids. */
+async function users(where: 'role' | 'id', values: string[], transaction: Transaction): Promise<Recipient[]> {
+  if (!values.length) return [];
+  const condition = where === 'role' ? 'u.id in (select user_id from user_roles where role in (:values))' : 'u.id in (:values)';
+  return db().query<Recipient>(`select u.id, u.email, u.name from users u where u.disabled_at is null and ${condition} order by u.email`, {
+    type: QueryTypes.SELECT, replacements: { values }, transaction,
+  });
+}
+
+/**
+ * The notifications of one step: to everyone of the next role who may act on the plate (`mayAct`
+ * applies segregation of duties), and on a decision to the importer and submitter; never to the signer.
+ */
+export async function noticesFor(
+  step: SignoffAction | 'import',
+  context: { actor: Actor; plate: NoticePlate; comment: string; signoffEventId: string | null; mayAct: (userId: string) => boolean },
+  transaction: Transaction,
+): Promise<OutgoingMail[]> {
+  const audience = AUDIENCE[step];
+  const { actor, plate } = context;
+  const next = (await users('role', audience.roles, transaction)).filter((person) => context.mayAct(person.id));
+  const owners = audience.owners ? await users('id', [plate.importedBy, ...(plate.submittedBy ? [plate.submittedBy] : [])], transaction) : [];
+  const people = [...new Map([...next, ...owners].map((person) => [person.id, person])).values()].filter((person) => person.id !== actor.id);
+  const link = `${env().APP_URL.replace(/\/$/, '')}${plateSignoffPath(plate.id)}`;
+  const subject = `Gatewell: plate ${plate.label} ${audience.subject}`;
+  return people.map((person) => ({
+    kind: audience.kind, plateId: plate.id, signoffEventId: context.signoffEventId, recipientId: person.id, toAddress: person.email, subject,
+    bodyText: [
+      `Hello ${person.name},`,
+      '',
+      `${actor.name} ${audience.done} plate ${plate.label} (${plate.screenName}).`,
+      ...(context.comment ? ['', `Comment: ${context.comment}`] : []),
+      '',
+      audience.next,
+      '',
+      `Open the plate: ${link}`,
+      '',
+      'Gatewell',
+    ].join('\n'),
+  }));
+}

@@ -1,0 +1,91 @@
+import 'server-only';
+import type { Transaction } from 'sequelize';
+import { recordAudit } from '@/lib/audit/record';
+import { requireRole, type Actor } from '@/lib/auth/roles';
+import { signRecord } from '@/lib/auth/signature';
+import { db } from '@/lib/db';
+import { AppError } from '@/lib/errors';
+import { queueMail } from '@/lib/mail/outbox';
+import { parseOrRefuse } from '@/lib/validation/parse';
+import { signoffRequestSchema, type SignoffAction, type SignoffRequest } from '@/lib/validation/signoff';
+import { Plate, Screen, SignoffEvent } from '@/models';
+import type { PlateState } from '@/models/plate';
+import { refusalFromDatabase, refuseWrongState } from './refusals';
+import { noticesFor } from './notices';
+import { plateContent } from './plate-content';
+import { SIGNOFF_STEPS, stepsFrom, type SignoffStep } from './steps';
+
+export interface SignoffResult {
+  plateId: string;
+  label: string;
+  state: PlateState;
+  version: number;
+  signatureId: string;
+  signoffEventId: string;
+  contentSha256: string;
+  /** Notifications queued in the outbox with the transition. */
+  notified: number;
+}
+
+/** The plate columns a step sets: who verified, submitted or decided; rework clears them for the next round. */
+function signerColumns(action: SignoffAction, actorId: string): Partial<Pick<Plate, 'verifiedBy' | 'submittedBy' | 'decidedBy'>> {
+  if (action === 'verify') return { verifiedBy: actorId };
+  if (action === 'submit') return { submittedBy: actorId };
+  if (action === 'rework') return { verifiedBy: null, submittedBy: null, decidedBy: null };
+  return { decidedBy: actorId };
+}
+
+/** Whether someone may sign whatever the plate waits for next (used to address the notifications). */
+function mayActNext(plate: Plate, userId: string): boolean {
+  return stepsFrom(plate.state).some((next) => next.dutyConflict(plate, userId) === null);
+}
+
+async function lockForStep(actor: Actor, plateId: string, step: SignoffStep, expectedVersion: number | undefined, transaction: Transaction): Promise<Plate> {
+  const plate = await Plate.findByPk(plateId, { transaction, lock: transaction.LOCK.UPDATE });
+  if (!plate) throw new AppError('not_found', 'No such plate.');
+  if (plate.state !== step.from) await refuseWrongState(plate, step, transaction);
+  if (expectedVersion !== undefined && expectedVersion !== plate.version) {
+    throw new AppError('conflict', `Plate ${plate.label} changed after you opened it; reload the page and check it before you sign. Nothing was signed.`);
+  }
+  const conflict = step.dutyConflict(plate, actor.id);
+  if (conflict) throw new AppError('forbidden', conflict);
+  return plate;
+}
+
+/**
+ * Signs one sign-off step of a plate in one transaction: re-verifies the password, signs the SHA-256 of
+ * the plate's data as it stands, writes the sign-off event, moves the plate's state (version + 1), and
+ * appends the audit event and the notifications for whoever acts next. The plate row is locked first,
+ * so of two people signing at once exactly one succeeds; the other is told what happened.
+ */
+export async function signPlateStep(actor: Actor, plateId: string, raw: SignoffRequest): Promise<SignoffResult> {
+  const input = parseOrRefuse(signoffRequestSchema, raw, 'The signature is not complete.');
+  const step = SIGNOFF_STEPS[input.action];
+  requireRole(actor, step.role);
+  try {
+    return await db().transaction(async (transaction) => {
+      const plate = await lockForStep(actor, plateId, step, input.expectedVersion, transaction);
+      const content = await plateContent(plate.id, transaction);
+      const signature = await signRecord(actor, { password: input.password, meaning: step.meaning, comment: input.comment, entityType: 'plate', entityId: plate.id, content }, transaction);
+      const event = await SignoffEvent.create({ plateId: plate.id, signatureId: signature.id, fromState: step.from, toState: step.to }, { transaction });
+      const before = { state: plate.state, version: plate.version, verifiedBy: plate.verifiedBy, submittedBy: plate.submittedBy, decidedBy: plate.decidedBy };
+      await plate.update({ state: step.to, version: plate.version + 1, ...signerColumns(step.action, actor.id) }, { transaction });
+      await recordAudit({
+        actorId: actor.id, action: step.action, entityType: 'plate', entityId: plate.id, reason: input.comment || null, address: actor.address, before,
+        after: { state: plate.state, version: plate.version, signatureId: signature.id, signoffEventId: event.id, meaning: step.meaning, contentSha256: signature.contentSha256 },
+      }, transaction);
+      const screen = await Screen.findByPk(plate.screenId, { transaction, rejectOnEmpty: true });
+      const notices = await noticesFor(step.action, {
+        actor, comment: input.comment, signoffEventId: event.id, mayAct: (userId) => mayActNext(plate, userId),
+        plate: { id: plate.id, label: plate.label, screenName: screen.name, importedBy: plate.importedBy, submittedBy: plate.submittedBy },
+      }, transaction);
+      const notified = await queueMail(notices, transaction);
+      return {
+        plateId: plate.id, label: plate.label, state: plate.state, version: plate.version, signatureId: signature.id,
+        signoffEventId: event.id, contentSha256: signature.contentSha256, notified,
+      };
+    });
+  } catch (error) {
+    throw refusalFromDatabase(error);
+  }
+}

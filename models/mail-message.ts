@@ -1,0 +1,52 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+export const MAIL_KINDS = ['plate_imported', 'plate_verified', 'plate_submitted', 'plate_approved', 'plate_rejected', 'plate_reopened'] as const;
+export type MailKind = (typeof MAIL_KINDS)[number];
+export const MAIL_STATES = ['queued', 'sent', 'failed'] as const;
+export type MailState = (typeof MAIL_STATES)[number];
+
+/** One notification in the mail outbox: queued with the change that caused it, sent later with retries. */
+export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreationAttributes<MailMessage>> {
+  declare id: CreationOptional<string>;
+  declare kind: MailKind;
+  declare plateId: string | null;
+  declare signoffEventId: string | null;
+  declare recipientId: string;
+  declare toAddress: string;
+  declare subject: string;
+  declare bodyText: string;
+  declare state: CreationOptional<MailState>;
+  declare attempts: CreationOptional<number>;
+  declare maxAttempts: CreationOptional<number>;
+  declare nextAttemptAt: CreationOptional<Date>;
+  declare lastAttemptAt: CreationOptional<Date | null>;
+  declare lastError: CreationOptional<string | null>;
+  declare smtpResponse: CreationOptional<string | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare sentAt: CreationOptional<Date | null>;
+
+  static initModel(sequelize: Sequelize): void {
+    MailMessage.init(
+      {
+        id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+        kind: { type: DataTypes.TEXT, allowNull: false },
+        plateId: { type: DataTypes.UUID, allowNull: true },
+        signoffEventId: { type: DataTypes.UUID, allowNull: true },
+        recipientId: { type: DataTypes.UUID, allowNull: false },
+        toAddress: { type: DataTypes.TEXT, allowNull: false },
+        subject: { type: DataTypes.TEXT, allowNull: false },
+        bodyText: { type: DataTypes.TEXT, allowNull: false },
+        state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'queued' },
+        attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        maxAttempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 8 },
+        nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+        lastAttemptAt: { type: DataTypes.DATE, allowNull: true },
+        lastError: { type: DataTypes.TEXT, allowNull: true },
+        smtpResponse: { type: DataTypes.TEXT, allowNull: true },
+        createdAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+        sentAt: { type: DataTypes.DATE, allowNull: true },
+      },
+      { sequelize, tableName: 'mail_outbox', underscored: true, timestamps: false },
+    );
+  }
+}
