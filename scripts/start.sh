@@ -7,6 +7,12 @@ source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 ensure_node_modules
 ensure_session_secret
 bash scripts/pg.sh start dev
+# Without SMTP settings of its own, the demo sends its mail to the local fake SMTP server (kept in .var/fake-smtp/dev).
+if [ -z "${SMTP_HOST:-}" ]; then
+  bash scripts/fake-smtp.sh start dev
+  SMTP_PORT=$(bash scripts/fake-smtp.sh port dev)
+  export SMTP_PORT
+fi
 DATABASE_URL=$(bash scripts/pg.sh url dev)
 export DATABASE_URL
 export PORT=${PORT:-4310}

@@ -17,6 +17,13 @@ export SESSION_SECRET=${TEST_SESSION_SECRET:-gatewell-test-secret-0123456789-abc
 export GATEWELL_E2E_PORT=${GATEWELL_E2E_PORT:-4311}
 export APP_URL=http://127.0.0.1:$GATEWELL_E2E_PORT
 export GATEWELL_DIST_DIR=${GATEWELL_DIST_DIR:-.next-test}
+# Mail goes to this run's own fake SMTP server (port GATEWELL_SMTP_TEST_PORT, by default the e2e port + 20000).
+export GATEWELL_SMTP_TEST_PORT=${GATEWELL_SMTP_TEST_PORT:-$((GATEWELL_E2E_PORT + 20000))}
+export SMTP_HOST=127.0.0.1 SMTP_PORT=$GATEWELL_SMTP_TEST_PORT SMTP_SECURE=false
+FAKE_SMTP_DIR=$(bash scripts/fake-smtp.sh dir "$instance")
+export FAKE_SMTP_DIR
+bash scripts/fake-smtp.sh start "$instance"
+bash scripts/fake-smtp.sh clear "$instance"
 set +e
 
 rm -rf test-output && mkdir -p test-output/screenshots
