@@ -34,7 +34,7 @@ function useOf(fit: PotencyFit | undefined): { use: PotencyUse; note: string } {
       }
       return {
         use: 'used',
-        note: `IC50 ${num(fit.ic50Um!)} µM, Hill slope ${num(fit.hill)}${fit.model === 'hill4' ? ' (from the four-parameter fit; the model applies them as full pore block)' : ''}.`,
+        note: `Fitted IC50 and Hill slope, applied as simple pore block${fit.model === 'hill4' ? ' (from the four-parameter fit, whose bottom and top the model does not use)' : ''}.`,
       };
     case 'above_range':
       return { use: 'above_range', note: `IC50 above${bound}, the highest concentration tested: treated as no block.` };

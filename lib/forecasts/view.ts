@@ -25,6 +25,10 @@ export function forecastView(stored: StoredForecast, exposuresUm: number[]): For
     computedAt: stored.computedAt,
     reused: stored.reused,
     preset: r.preset,
+    protocol: {
+      rheobaseStep_ms: r.protocol.rheobaseStep_ms, rateStep_ms: r.protocol.rateStep_ms,
+      thresholdSlope_mV_ms: r.protocol.thresholdSlope_mV_ms, referenceDriveFactor: r.protocol.referenceDriveFactor,
+    },
     referenceDrive_uA_cm2: r.referenceDrive_uA_cm2,
     control: conditionView(r.control, exposuresUm),
     conditions: r.conditions.map((c) => conditionView(c, exposuresUm)),

@@ -47,6 +47,7 @@ export const forecastViewSchema = z.object({
   computedAt: z.string(),
   reused: z.boolean(),
   preset: z.object({ name: z.string(), title: z.string(), reference: z.string() }),
+  protocol: z.object({ rheobaseStep_ms: z.number(), rateStep_ms: z.number(), thresholdSlope_mV_ms: z.number(), referenceDriveFactor: z.number() }),
   referenceDrive_uA_cm2: nullableNumber,
   control: conditionViewSchema,
   conditions: z.array(conditionViewSchema),
