@@ -33,7 +33,8 @@ export default defineConfig({
   webServer: {
     command: `npx next start --port ${port} --hostname 127.0.0.1`,
     url: `http://127.0.0.1:${port}/api/health`,
-    reuseExistingServer: false,
+    // GATEWELL_E2E_REUSE=1 runs against a server already listening on the port (e.g. the demo on 4310).
+    reuseExistingServer: Boolean(process.env.GATEWELL_E2E_REUSE),
     timeout: 120_000,
     stdout: 'ignore',
     stderr: 'pipe',

@@ -11,7 +11,7 @@ import { PlateMap, type MapColouring } from './plate-map';
 const fmt = (digits: number) => (p: { value: unknown }) => (typeof p.value === 'number' ? p.value.toPrecision(digits) : '—');
 
 const COLUMNS: ColDef<WellRowView>[] = [
-  { field: 'position', headerName: 'Well', width: 90, checkboxSelection: true, headerCheckboxSelection: true },
+  { field: 'position', headerName: 'Well', width: 90 },
   { field: 'role', headerName: 'Role', width: 100 },
   { field: 'compound', headerName: 'Compound', width: 120 },
   { field: 'concentrationUm', headerName: 'Conc. (µM)', width: 110, type: 'numericColumn', valueFormatter: fmt(3) },
