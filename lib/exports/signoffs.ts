@@ -1,0 +1,54 @@
+import 'server-only';
+import { QueryTypes } from 'sequelize';
+import { db } from '@/lib/db';
+import type { PlateState } from '@/models/plate';
+import type { Cell, ExportTable } from './document';
+
+export interface PlateSignoff {
+  plateId: string;
+  plateLabel: string;
+  fromState: PlateState;
+  toState: PlateState;
+  signer: string;
+  signerEmail: string;
+  meaning: string;
+  comment: string;
+  signedAt: string;
+  contentSha256: string;
+}
+
+/** Gatewell's words for plate states (the same as the state badge). */
+export const STATE_WORDS: Record<PlateState, string> = {
+  imported: 'Imported', verified: 'Map verified', submitted: 'Awaiting approval', approved: 'Approved', rejected: 'Returned',
+};
+
+/** Every signed transition of these plates, oldest first, with who signed, meaning and comment. */
+export async function listPlateSignoffs(plateIds: string[]): Promise<PlateSignoff[]> {
+  if (plateIds.length === 0) return [];
+  return db().query<PlateSignoff>(
+    `select e.plate_id as "plateId", p.label as "plateLabel", e.from_state as "fromState", e.to_state as "toState", u.name as signer, u.email as "signerEmail",
+            s.meaning, s.comment, to_char(s.signed_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "signedAt", s.content_sha256 as "contentSha256"
+       from signoff_events e join signatures s on s.id = e.signature_id join users u on u.id = s.signer_id join plates p on p.id = e.plate_id
+      where e.plate_id in (:plateIds)
+      order by p.label, e.occurred_at, e.id`,
+    { type: QueryTypes.SELECT, replacements: { plateIds } },
+  );
+}
+
+/** One about line per signature, e.g. "Map verified → Awaiting approval: signed by …". */
+export function signoffLines(signoffs: PlateSignoff[], withPlate: boolean): [string, Cell][] {
+  if (signoffs.length === 0) return [['Signatures', 'None yet: the plate has not been signed in sign-off.']];
+  return signoffs.map((s, i) => [
+    `Signature ${i + 1}`,
+    `${withPlate ? `${s.plateLabel}: ` : ''}${STATE_WORDS[s.fromState]} → ${STATE_WORDS[s.toState]}, signed by ${s.signer} <${s.signerEmail}> at ${s.signedAt} meaning “${s.meaning}”${s.comment ? `, comment “${s.comment}”` : ''}`,
+  ]);
+}
+
+/** The sign-off sheet: one row per signature. */
+export function signoffTable(signoffs: PlateSignoff[]): ExportTable {
+  return {
+    sheet: 'Sign-off', key: 'signoff',
+    columns: ['Plate', 'From state', 'To state', 'Signed by', 'E-mail', 'Meaning', 'Comment', 'Signed at (UTC)', 'Signed content SHA-256'],
+    rows: signoffs.map((s) => [s.plateLabel, STATE_WORDS[s.fromState], STATE_WORDS[s.toState], s.signer, s.signerEmail, s.meaning, s.comment, s.signedAt, s.contentSha256]),
+  };
+}
