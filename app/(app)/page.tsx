@@ -3,7 +3,8 @@ import { PlateTable } from '@/components/plates/plate-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { listPlates, statesAwaiting } from '@/lib/plates/list';
+import { listPlates } from '@/lib/plates/list';
+import { plateSignoffPath } from '@/lib/signoff/notices';
 
 export const metadata: Metadata = { title: 'My work' };
 
@@ -16,14 +17,14 @@ const WHAT_YOU_DO: Record<string, string> = {
 
 export default async function MyWorkPage() {
   const actor = await requireActor();
-  const states = statesAwaiting(actor);
-  const plates = states.length ? await listPlates(actor, { state: states }) : [];
+  // Plates in a state this person signs next, less those segregation of duties keeps from them.
+  const plates = await listPlates(actor, { waitingFor: actor });
   const duties = actor.roles.map((role) => WHAT_YOU_DO[role]).filter(Boolean).join('; ');
   return (
     <>
       <PageHeader title={`My work`} intro={`Signed in as ${actor.name}. You ${duties || 'can read results'}.`} />
       {plates.length ? (
-        <PlateTable plates={plates} caption="Plates waiting for your action" />
+        <PlateTable plates={plates} caption="Plates waiting for your action" linkTo={(p) => plateSignoffPath(p.id)} />
       ) : (
         <EmptyState title="Nothing is waiting for you">
           Plates appear here when they reach a step that needs your role. The Plates page lists every plate.

@@ -1,17 +1,19 @@
+import Link from 'next/link';
 import { DataTable } from '@/components/ui/data-table';
 import { StateBadge } from '@/components/ui/state-badge';
 import type { PlateSummary } from '@/lib/plates/list';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
 
-export function PlateTable({ plates, caption }: { plates: PlateSummary[]; caption: string }) {
+/** Plates in a table; each label links to the plate (or to where `linkTo` says, e.g. its sign-off). */
+export function PlateTable({ plates, caption, linkTo = (p) => `/plates/${p.id}` }: { plates: PlateSummary[]; caption: string; linkTo?: (plate: PlateSummary) => string }) {
   return (
     <DataTable
       caption={caption}
       rows={plates}
       rowKey={(plate) => plate.id}
       columns={[
-        { header: 'Plate', cell: (p) => <span className="font-medium">{p.label}</span> },
+        { header: 'Plate', cell: (p) => <Link href={linkTo(p)} className="font-medium text-lagoon-700 underline-offset-2 hover:underline">{p.label}</Link> },
         { header: 'Screen', cell: (p) => p.screenName },
         { header: 'Format', cell: (p) => `${p.format} wells`, align: 'right' },
         { header: 'State', cell: (p) => <StateBadge state={p.state} /> },

@@ -58,12 +58,3 @@ export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promis
     { type: QueryTypes.SELECT, replacements },
   );
 }
-
-/** What each role acts on next: the states a plate must be in for this person's signature. */
-export function statesAwaiting(actor: Actor): PlateState[] {
-  const states = new Set<PlateState>();
-  if (actor.roles.includes('chemist')) states.add('imported');
-  if (actor.roles.includes('biologist')) states.add('verified').add('rejected');
-  if (actor.roles.includes('approver')) states.add('submitted');
-  return [...states];
-}
