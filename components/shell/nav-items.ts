@@ -16,6 +16,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: '/screens', label: 'Screens', roles: [] },
   { href: '/audit', label: 'Audit trail', roles: ['admin', 'approver'] },
   { href: '/admin/users', label: 'Users', roles: ['admin'] },
+  { href: '/admin/outbox', label: 'Mail outbox', roles: ['admin'] },
   { href: '/account', label: 'Account', roles: [] },
 ];
 

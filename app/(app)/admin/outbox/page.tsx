@@ -4,8 +4,7 @@ import { OutboxButton } from '@/components/mail/outbox-buttons';
 import { OutboxTable } from '@/components/mail/outbox-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
-import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { requirePageRole } from '@/lib/auth/page-guard';
 import { listOutbox, outboxCounts } from '@/lib/mail/admin';
 import { MAIL_STATES, type MailState } from '@/models/mail-message';
 import { requeueMailAction, sendDueMailAction } from './actions';
@@ -17,10 +16,7 @@ const FILTERS: { state: MailState | undefined; label: string }[] = [
 ];
 
 export default async function OutboxPage({ searchParams }: { searchParams: Promise<{ state?: string }> }) {
-  const actor = await requireActor();
-  if (!hasRole(actor, 'admin')) {
-    return <EmptyState title="This page is for admins">The mail outbox lists every notification Gatewell sends; ask an admin.</EmptyState>;
-  }
+  const actor = await requirePageRole('admin');
   const wanted = (await searchParams).state;
   const state = MAIL_STATES.find((s) => s === wanted);
   const [rows, counts] = await Promise.all([listOutbox(actor, { state }), outboxCounts(actor)]);
