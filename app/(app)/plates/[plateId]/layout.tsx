@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { DownloadMenu } from '@/components/exports/download-menu';
 import { PlateTabs } from '@/components/plates/plate-tabs';
 import { StateBadge } from '@/components/ui/state-badge';
 import { loadPlate } from './plate-header';
@@ -18,6 +19,7 @@ export default async function PlateLayout({ children, params }: { children: Reac
             <span className="font-mono">{header.filename}</span> <span className="font-mono text-xs text-ink-500" title="SHA-256 of the file">({header.sha256.slice(0, 12)}…)</span>
           </p>
         </div>
+        <DownloadMenu kind="plate" id={header.id} />
       </div>
       <PlateTabs plateId={header.id} />
       {children}
