@@ -13,7 +13,7 @@ export function RoleCheckboxes({ selected, onChange, errors, idPrefix = 'role' }
   const toggle = (role: Role, on: boolean) => onChange(on ? [...selected, role] : selected.filter((r) => r !== role));
   return (
     <fieldset aria-describedby={`${idPrefix}-error`}>
-      <legend className="gw-label">Roles</legend>
+      <legend className="gw-label">Roles this person holds</legend>
       <p className="text-xs text-ink-500">None ticked: the person can read results but act on nothing.</p>
       <div className="mt-2 space-y-2">
         {ROLE_CHOICES.map(({ role, label, duty }) => (

@@ -24,12 +24,12 @@ function StatusCell({ data }: ICellRendererParams<UserSummary>) {
 }
 
 const columns: ColDef<UserSummary>[] = [
-  { field: 'name', headerName: 'Name', cellRenderer: NameCell, flex: 1, minWidth: 170 },
-  { field: 'email', headerName: 'E-mail', flex: 1, minWidth: 200 },
-  { field: 'roles', headerName: 'Roles', valueFormatter: (p) => (p.value as string[]).join(', ') || 'none (read only)', flex: 1, minWidth: 160 },
-  { colId: 'status', headerName: 'Status', valueGetter: (p) => (p.data?.disabledAt ? 'Disabled' : 'Enabled'), cellRenderer: StatusCell, width: 120 },
-  { field: 'lastSignInAt', headerName: 'Last sign-in', valueFormatter: (p) => formatTime(p.value), width: 190 },
-  { field: 'passwordChangedAt', headerName: 'Password changed', valueFormatter: (p) => formatTime(p.value), width: 190 },
+  { field: 'name', headerName: 'Name', cellRenderer: NameCell, flex: 1, minWidth: 150 },
+  { field: 'email', headerName: 'E-mail', flex: 1.2, minWidth: 190 },
+  { field: 'roles', headerName: 'Roles', valueFormatter: (p) => (p.value as string[]).join(', ') || 'none (read only)', flex: 1, minWidth: 130 },
+  { colId: 'status', headerName: 'Status', valueGetter: (p) => (p.data?.disabledAt ? 'Disabled' : 'Enabled'), cellRenderer: StatusCell, width: 110 },
+  { field: 'lastSignInAt', headerName: 'Last sign-in', valueFormatter: (p) => formatTime(p.value), width: 175 },
+  { field: 'passwordChangedAt', headerName: 'Password changed', valueFormatter: (p) => formatTime(p.value), width: 175 },
 ];
 
 /** Every account in a sortable, filterable grid; a click or Enter on a row opens the account. */

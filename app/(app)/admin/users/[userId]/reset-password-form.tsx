@@ -1,7 +1,7 @@
 'use client';
 
-import { useActionState } from 'react';
 import { Field, FormMessage } from '@/components/forms/field';
+import { useFormAction } from '@/components/forms/use-form-action';
 import { OneTimePassword } from '@/components/users/one-time-password';
 import type { ActionState } from '@/lib/actions/validated-action';
 
@@ -15,10 +15,10 @@ export function ResetPasswordForm({ action, userId, userName, minPasswordLength 
   userName: string;
   minPasswordLength: number;
 }) {
-  const [state, formAction, pending] = useActionState(action, {});
+  const { state, pending, formRef, onSubmit } = useFormAction(action, { resetOnSuccess: true });
   const errors = state.fieldErrors ?? {};
   return (
-    <form action={formAction} className="space-y-2" noValidate>
+    <form ref={formRef} onSubmit={onSubmit} className="space-y-2" noValidate>
       <input type="hidden" name="userId" value={userId} />
       <Field label="New password" name="password" id="reset-password" type="password" autoComplete="new-password" errors={errors.password}
         hint={`Leave empty to generate one. If you type one: at least ${minPasswordLength} characters.`} />

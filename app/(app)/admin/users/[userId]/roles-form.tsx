@@ -1,7 +1,8 @@
 'use client';
 
-import { useActionState, useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Field, FormMessage } from '@/components/forms/field';
+import { useFormAction } from '@/components/forms/use-form-action';
 import { RoleCheckboxes } from '@/components/users/role-checkboxes';
 import type { ActionState } from '@/lib/actions/validated-action';
 import type { Role } from '@/models/user-role';
@@ -10,12 +11,15 @@ type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
 /** Ticks the roles a user holds; the reason goes to the audit trail. */
 export function RolesForm({ action, userId, roles }: { action: Action; userId: string; roles: Role[] }) {
-  const [state, formAction, pending] = useActionState(action, {});
+  const { state, pending, formRef, onSubmit } = useFormAction(action);
   const [selected, setSelected] = useState<Role[]>(roles);
   const [reason, setReason] = useState('');
+  useEffect(() => {
+    if (state.ok) setReason(''); // eslint-disable-line react-hooks/set-state-in-effect -- a saved change clears its reason
+  }, [state]);
   const errors = state.fieldErrors ?? {};
   return (
-    <form action={formAction} className="space-y-2" noValidate>
+    <form ref={formRef} onSubmit={onSubmit} className="space-y-2" noValidate>
       <input type="hidden" name="userId" value={userId} />
       <RoleCheckboxes selected={selected} onChange={setSelected} errors={errors.roles} idPrefix="roles" />
       <Field label="Reason for the change" name="reason" id="roles-reason" value={reason} onChange={(e) => setReason(e.target.value)}

@@ -1,17 +1,17 @@
 'use client';
 
-import { useActionState } from 'react';
 import { Field, FormMessage } from '@/components/forms/field';
+import { useFormAction } from '@/components/forms/use-form-action';
 import type { ActionState } from '@/lib/actions/validated-action';
 
 type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
 /** Disables an enabled account (its sessions end at once) or enables a disabled one. */
 export function StatusForm({ action, userId, enabled }: { action: Action; userId: string; enabled: boolean }) {
-  const [state, formAction, pending] = useActionState(action, {});
+  const { state, pending, formRef, onSubmit } = useFormAction(action, { resetOnSuccess: true });
   const errors = state.fieldErrors ?? {};
   return (
-    <form action={formAction} className="space-y-2" noValidate>
+    <form ref={formRef} onSubmit={onSubmit} className="space-y-2" noValidate>
       <input type="hidden" name="userId" value={userId} />
       <input type="hidden" name="status" value={enabled ? 'disabled' : 'enabled'} />
       <p className="text-sm text-ink-700">

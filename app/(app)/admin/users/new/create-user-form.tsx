@@ -1,8 +1,9 @@
 'use client';
 
 import Link from 'next/link';
-import { useActionState, useState, type ChangeEvent } from 'react';
+import { useState, type ChangeEvent } from 'react';
 import { Field, FormMessage } from '@/components/forms/field';
+import { useFormAction } from '@/components/forms/use-form-action';
 import { OneTimePassword } from '@/components/users/one-time-password';
 import { RoleCheckboxes } from '@/components/users/role-checkboxes';
 import type { ActionState } from '@/lib/actions/validated-action';
@@ -13,7 +14,7 @@ type Action = (state: CreateUserState, formData: FormData) => Promise<CreateUser
 
 /** Name, e-mail, roles and an optional initial password; on success, the account and its one-time password. */
 export function CreateUserForm({ action, minPasswordLength }: { action: Action; minPasswordLength: number }) {
-  const [state, formAction, pending] = useActionState(action, {});
+  const { state, pending, formRef, onSubmit } = useFormAction(action);
   const [fields, setFields] = useState({ name: '', email: '', password: '' });
   const [roles, setRoles] = useState<Role[]>([]);
   const errors = state.fieldErrors ?? {};
@@ -40,7 +41,7 @@ export function CreateUserForm({ action, minPasswordLength }: { action: Action; 
     onChange: (event: ChangeEvent<HTMLInputElement>) => setFields({ ...fields, [name]: event.target.value }),
   });
   return (
-    <form action={formAction} className="max-w-xl space-y-2" noValidate>
+    <form ref={formRef} onSubmit={onSubmit} className="max-w-xl space-y-2" noValidate>
       <Field label="Name" autoComplete="off" required {...bind('name')} />
       <Field label="E-mail" type="email" autoComplete="off" required {...bind('email')} hint="The person signs in with this address." />
       <RoleCheckboxes selected={roles} onChange={setRoles} errors={errors.roles} />
