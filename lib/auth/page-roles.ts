@@ -10,6 +10,7 @@ export const PAGE_ROLES: { prefix: string; roles: Role[] }[] = [
   { prefix: '/admin', roles: ['admin'] },
   { prefix: '/audit', roles: ['admin', 'approver'] },
   { prefix: '/plates/import', roles: ['biologist'] },
+  { prefix: '/screens/new', roles: ['admin'] },
 ];
 
 /** The roles a page needs (any one of them), or null when every signed-in person may open it. */
