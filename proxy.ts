@@ -35,7 +35,11 @@ export async function proxy(request: NextRequest) {
   const requestHeaders = new Headers(request.headers);
   requestHeaders.set(PATHNAME_HEADER, pathname);
   const response = NextResponse.next({ request: { headers: requestHeaders } });
-  if (fresh && !pathname.startsWith('/_next/')) {
+  // Renewed at most once a minute (prefetches must not loop), and on reads only: a POST may be a server
+  // action that writes the cookie itself (sign-out, password change), and two Set-Cookie headers for one
+  // cookie in one answer leave the browser to pick either.
+  const due = Date.now() - (session.lastSeenAt ?? 0) >= RENEW_AFTER_MS;
+  if (fresh && due && request.method === 'GET' && !pathname.startsWith('/_next/')) {
     const renewed = await sealData({ ...session, lastSeenAt: Date.now() }, { password: options.password, ttl: options.ttl ?? 0 });
     response.cookies.set(options.cookieName, renewed, { ...options.cookieOptions, maxAge: (options.ttl ?? 0) - 60 });
   }
