@@ -15,5 +15,5 @@ export default defineConfig([
     files: ['migrations/**/*.js', 'seeders/**/*.js', 'scripts/**/*.cjs', '.sequelizerc'],
     rules: { '@typescript-eslint/no-require-imports': 'off' },
   },
-  globalIgnores(['.next/**', '.next-test/**', 'node_modules/**', 'test-output/**', '.pgdata/**', '.pgrun/**', 'next-env.d.ts']),
+  globalIgnores(['.next/**', '.next-*/**', '.var/**', 'node_modules/**', 'test-output/**', '.pgdata/**', '.pgrun/**', 'next-env.d.ts']),
 ]);
