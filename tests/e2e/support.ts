@@ -1,0 +1,43 @@
+import { expect, type Browser, type BrowserContext, type Page } from '@playwright/test';
+import pg from 'pg';
+
+// Demo accounts from seeders/20261201000100-demo-users.js (passwords for the local demo only).
+export const DEMO = {
+  admin: { email: 'admin@gatewell.test', password: 'demo-admin-pass' },
+  chemist: { email: 'chemist@gatewell.test', password: 'demo-chemist-pass' },
+  biologist: { email: 'biologist@gatewell.test', password: 'demo-biologist-pass' },
+  approver: { email: 'approver@gatewell.test', password: 'demo-approver-pass' },
+} as const;
+
+export type DemoRole = keyof typeof DEMO;
+
+/** Signs in through the sign-in form and waits for the signed-in shell. */
+export async function signIn(page: Page, email: string, password: string): Promise<void> {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
+}
+
+/** A fresh browser context signed in as a demo user. */
+export async function signedInContext(browser: Browser, role: DemoRole): Promise<{ context: BrowserContext; page: Page }> {
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await signIn(page, DEMO[role].email, DEMO[role].password);
+  return { context, page };
+}
+
+/** Reads one value from the test database the built app runs on (DATABASE_URL from scripts/test.sh). */
+export async function queryOne<Row>(sql: string, values: unknown[] = []): Promise<Row | undefined> {
+  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  await client.connect();
+  try {
+    const result = await client.query(sql, values);
+    return result.rows[0] as Row | undefined;
+  } finally {
+    await client.end();
+  }
+}
+
+export const screenshot = (page: Page, name: string) => page.screenshot({ path: `test-output/screenshots/${name}.png`, fullPage: true });
