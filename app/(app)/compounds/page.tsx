@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import { BulkRegister } from '@/components/compounds/bulk-register';
 import { CompoundForm } from '@/components/compounds/compound-form';
 import { CompoundGrid } from '@/components/compounds/compound-grid';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -26,6 +27,12 @@ export default async function CompoundsPage() {
         <section className="gw-card mt-6 p-5" aria-labelledby="register-heading">
           <h2 id="register-heading" className="mb-3 text-lg font-semibold">Register a compound</h2>
           <CompoundForm action={createCompoundAction} submitLabel="Register compound" />
+        </section>
+      ) : null}
+      {canRegister ? (
+        <section className="gw-card mt-6 p-5" aria-labelledby="bulk-heading">
+          <h2 id="bulk-heading" className="mb-3 text-lg font-semibold">Register many from a spreadsheet</h2>
+          <BulkRegister />
         </section>
       ) : null}
     </>
