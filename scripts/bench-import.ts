@@ -63,7 +63,7 @@ async function once(bytes: Uint8Array) {
 
 async function main() {
   const bytes = new Uint8Array(readFileSync(FILE));
-  const runs = [];
+  const runs: Awaited<ReturnType<typeof once>>[] = [];
   for (let i = 0; i < repeats; i += 1) runs.push(await once(bytes));
   const median = (key: 'parseMs' | 'validateMs' | 'analyseMs' | 'storeMs') => [...runs.map((r) => r[key])].sort((a, b) => a - b)[Math.floor(runs.length / 2)]!;
   const stages = { parse: median('parseMs'), validate: median('validateMs'), analyse: median('analyseMs'), store: median('storeMs') };
