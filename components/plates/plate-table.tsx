@@ -18,6 +18,7 @@ export function PlateTable({ plates, caption, linkTo = (p) => `/plates/${p.id}` 
         { header: 'Format', cell: (p) => `${p.format} wells`, align: 'right' },
         { header: 'State', cell: (p) => <StateBadge state={p.state} /> },
         { header: 'Wells failing QC', cell: (p) => `${p.failingWellCount} of ${p.wellCount}`, align: 'right' },
+        { header: 'Plate QC', cell: (p) => (p.failingTargets ? <span className="font-medium text-signal-fail">Z′ below limit</span> : <span className="text-signal-pass">Z′ passes</span>) },
         { header: 'Imported by', cell: (p) => p.importedBy },
         { header: 'Imported (UTC)', cell: (p) => dateFormat.format(new Date(p.importedAt)) },
       ]}

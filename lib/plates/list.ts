@@ -15,6 +15,8 @@ export interface PlateSummary {
   importedAt: string;
   wellCount: number;
   failingWellCount: number;
+  /** Targets whose Z′ fails the screen's limit. */
+  failingTargets: number;
 }
 
 export interface PlateFilter {
@@ -22,6 +24,11 @@ export interface PlateFilter {
   screenId?: string;
   /** Plates waiting for this user's action (the "My work" list). */
   waitingFor?: Actor;
+  importedBy?: string;
+  /** Imported on or after this day (UTC, YYYY-MM-DD). */
+  from?: string;
+  /** Imported on or before this day (UTC, YYYY-MM-DD). */
+  to?: string;
 }
 
 /** Plates, newest first, with well counts and the number of wells that fail QC on any target. */
@@ -43,12 +50,25 @@ export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promis
     where.push('p.screen_id = :screenId');
     replacements.screenId = filter.screenId;
   }
+  if (filter.importedBy) {
+    where.push('p.imported_by = :importedBy');
+    replacements.importedBy = filter.importedBy;
+  }
+  if (filter.from) {
+    where.push("p.imported_at >= (cast(:from as date) at time zone 'UTC')");
+    replacements.from = filter.from;
+  }
+  if (filter.to) {
+    where.push("p.imported_at < ((cast(:to as date) + 1) at time zone 'UTC')");
+    replacements.to = filter.to;
+  }
   return db().query<PlateSummary>(
     `select p.id, p.label, p.format, p.state, s.name as "screenName", u.name as "importedBy",
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
             (select count(*)::int from wells w where w.plate_id = p.id) as "wellCount",
             (select count(distinct w.id)::int from wells w join readouts r on r.well_id = w.id
-              where w.plate_id = p.id and jsonb_array_length(r.qc_reasons) > 0) as "failingWellCount"
+              where w.plate_id = p.id and jsonb_array_length(r.qc_reasons) > 0) as "failingWellCount",
+            (select count(*)::int from jsonb_array_elements(p.qc_summary) q where (q -> 'zPrime' ->> 'passes')::boolean is not true) as "failingTargets"
        from plates p
        join screens s on s.id = p.screen_id
        join users u on u.id = p.imported_by
@@ -56,5 +76,14 @@ export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promis
       order by p.imported_at desc
       limit 500`,
     { type: QueryTypes.SELECT, replacements },
+  );
+}
+
+/** The people who imported at least one plate, for the importer filter. */
+export async function listImporters(actor: Actor): Promise<{ id: string; name: string }[]> {
+  void actor;
+  return db().query<{ id: string; name: string }>(
+    'select distinct u.id, u.name from users u join plates p on p.imported_by = u.id order by u.name',
+    { type: QueryTypes.SELECT },
   );
 }

@@ -1,0 +1,44 @@
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { commitImport, inspectUpload } from '@/lib/plates/import-service';
+import { listImporters, listPlates } from '@/lib/plates/list';
+import { plateFilterSchema } from '@/lib/validation/plate-filter';
+import { makeActor } from '../support/actors';
+import { resetDatabase } from '../support/database';
+import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+
+describe('plates list filters on the real database', () => {
+  let biologist: Actor;
+  let screens: Record<string, string>;
+
+  beforeAll(async () => {
+    await resetDatabase();
+    screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
+    biologist = await makeActor(['biologist']);
+    for (const name of ['nav-96-plate-01.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx']) {
+      const { bytes, manifest } = demoFile(name);
+      const upload = { screenId: screens[manifest.target]!, bytes, filename: name, mediaType: 'application/octet-stream' };
+      const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
+      await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate });
+    }
+  });
+  afterAll(() => db().close());
+
+  test('by screen, state, importer and date; the noisy plate counts as failing Z′', async () => {
+    const nav = await listPlates(biologist, { screenId: screens['Nav1.7']! });
+    expect(nav.map((p) => p.label).sort()).toEqual(['NAV-P01', 'NAV-P03']);
+    expect(nav.find((p) => p.label === 'NAV-P03')!.failingTargets).toBe(1);
+    expect(nav.find((p) => p.label === 'NAV-P01')!.failingTargets).toBe(0);
+    expect(await listPlates(biologist, { state: ['approved'] })).toEqual([]);
+    expect(await listPlates(biologist, { importedBy: biologist.id })).toHaveLength(3);
+    expect(await listImporters(biologist)).toEqual([{ id: biologist.id, name: biologist.name }]);
+    const today = new Date().toISOString().slice(0, 10);
+    expect(await listPlates(biologist, { from: today, to: today })).toHaveLength(3);
+    expect(await listPlates(biologist, { to: '2000-01-01' })).toEqual([]);
+  });
+
+  test('unreadable filter values are dropped rather than failing the page', () => {
+    expect(plateFilterSchema.parse({ screen: 'not-a-uuid', state: 'lost', from: '1 May', to: '' })).toEqual({});
+  });
+});
