@@ -1,8 +1,8 @@
 // Gatewell fit CLI: `npx tsx scripts/fit.ts FILE.json` fits one concentration–block curve and prints JSON.
 // Input: {"model": "hill2" | "hill4" (default hill2), "points": [{"concentration_uM": number ≥ 0, "block": number}]}.
 // Exit 0 with the fit (whatever its status), 1 for input that cannot be read or is invalid, 2 for wrong usage.
-import { readFileSync } from 'node:fs';
 import { z } from 'zod';
+import { readCliInput } from './cli-input';
 import { fitHill, type HillFitResult } from '../lib/science/hill-fit';
 
 const pointSchema = z.strictObject({
@@ -16,28 +16,8 @@ const inputSchema = z.strictObject({
 });
 
 function main(argv: readonly string[]): number {
-  if (argv.length !== 1) {
-    process.stderr.write('usage: npx tsx scripts/fit.ts FILE.json\n');
-    return 2;
-  }
-  const file = argv[0]!;
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (error) {
-    return fail(`cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`);
-  }
-  let json: unknown;
-  try {
-    json = JSON.parse(text);
-  } catch (error) {
-    return fail(`${file} is not valid JSON: ${(error as Error).message}`);
-  }
-  const parsed = inputSchema.safeParse(json);
-  if (!parsed.success) {
-    const lines = parsed.error.issues.map((issue) => `  ${where(issue.path)}: ${issue.message}`);
-    return fail(`invalid input in ${file}:\n${lines.join('\n')}`);
-  }
+  const parsed = readCliInput('fit', argv, inputSchema);
+  if (!parsed.ok) return parsed.exitCode;
   const { model, points } = parsed.data;
   const result = fitHill(
     { concentration_uM: points.map((p) => p.concentration_uM), block: points.map((p) => p.block) },
@@ -63,15 +43,6 @@ function toOutput(result: HillFitResult) {
   };
 }
 
-/** A zod issue path as the user wrote it, e.g. points[3].block, or (top level). */
-function where(path: readonly PropertyKey[]): string {
-  if (path.length === 0) return '(top level)';
-  return path.map((key, i) => (typeof key === 'number' ? `[${key}]` : `${i > 0 ? '.' : ''}${String(key)}`)).join('');
-}
 
-function fail(message: string): number {
-  process.stderr.write(`fit: ${message}\n`);
-  return 1;
-}
 
 process.exitCode = main(process.argv.slice(2));

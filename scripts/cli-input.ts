@@ -1,0 +1,40 @@
+// The input side of Gatewell's JSON command-line tools (fit, forecast): one FILE.json argument, read,
+// parsed and checked with a zod schema, with faults named by their path. Exit codes: 1 invalid, 2 usage.
+import { readFileSync } from 'node:fs';
+import type { z } from 'zod';
+
+export type CliInput<T> = { ok: true; data: T } | { ok: false; exitCode: number };
+
+/** A zod issue path as the user wrote it, e.g. points[3].block, block.gNa, or (top level). */
+export function issuePath(path: readonly PropertyKey[]): string {
+  if (path.length === 0) return '(top level)';
+  return path.map((key, i) => (typeof key === 'number' ? `[${key}]` : `${i > 0 ? '.' : ''}${String(key)}`)).join('');
+}
+
+/** Reads the one FILE.json argument of tool `name` and checks it; on a fault writes why to stderr. */
+export function readCliInput<Schema extends z.ZodType>(name: string, argv: readonly string[], schema: Schema): CliInput<z.infer<Schema>> {
+  const fail = (message: string, exitCode = 1): CliInput<never> => {
+    process.stderr.write(exitCode === 2 ? `${message}\n` : `${name}: ${message}\n`);
+    return { ok: false, exitCode };
+  };
+  if (argv.length !== 1) return fail(`usage: npx tsx scripts/${name}.ts FILE.json`, 2);
+  const file = argv[0]!;
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    return fail(`cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`);
+  }
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (error) {
+    return fail(`${file} is not valid JSON: ${(error as Error).message}`);
+  }
+  const parsed = schema.safeParse(json);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `  ${issuePath(issue.path)}: ${issue.message}`);
+    return fail(`invalid input in ${file}:\n${lines.join('\n')}`);
+  }
+  return { ok: true, data: parsed.data };
+}
