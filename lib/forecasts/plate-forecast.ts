@@ -41,16 +41,17 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
 /** Every compound of the plate with its potencies, whether it can be forecast, and whether its forecast is stored. */
 export async function listPlateForecasts(actor: Actor, plateId: string): Promise<PlateForecastList> {
   const { header, exposuresUm, compounds } = await plateContext(actor, plateId);
-  const plans = compounds.map((c) => planCompoundForecast(header.neuronPreset, c.targets, exposuresUm));
-  const keys = plans.map((p) => ('request' in p ? forecastInput(p.request).inputSha256 : null));
-  const stored = await storedKeys(header.id, keys.filter((k): k is string => k !== null));
+  // A compound counts as stored when its forecast is, with the traces at any of the exposures.
+  const plans = compounds.map((c) => exposuresUm.map((_, at) => planCompoundForecast(header.neuronPreset, c.targets, exposuresUm, at)));
+  const keys = plans.map((variants) => variants.flatMap((p) => ('request' in p ? [forecastInput(p.request).inputSha256] : [])));
+  const stored = await storedKeys(header.id, keys.flat());
   return {
     plate: { id: header.id, label: header.label, state: header.state },
     preset: header.neuronPreset,
     exposuresUm,
     compounds: compounds.map((c, i) => {
-      const plan = plans[i]!;
-      return { ...c, reason: 'reason' in plan ? plan.reason : null, stored: keys[i] !== null && stored.has(keys[i]!) };
+      const plan = plans[i]![0] ?? planCompoundForecast(header.neuronPreset, c.targets, exposuresUm);
+      return { ...c, reason: 'reason' in plan ? plan.reason : null, stored: keys[i]!.some((k) => stored.has(k)) };
     }),
     caution: FORECAST_CAUTION,
   };

@@ -75,6 +75,10 @@ describe('plate forecasts', () => {
     expect(high.forecast!.traces!.concentrationUm).toBe(1);
     expect(low.forecast!.traces!.concentrationUm).toBe(0.1);
     expect(low.forecast!.inputSha256).not.toBe(high.forecast!.inputSha256);
+    // A forecast stored with the traces at any exposure marks the compound as stored.
+    const other = await compoundId(navPlate, 'GW-0005');
+    await getPlateForecast(reader, navPlate, other, 0);
+    expect((await listPlateForecasts(reader, navPlate)).compounds.find((c) => c.compoundId === other)!.stored).toBe(true);
     const before = await count();
     await expect(getPlateForecast(reader, navPlate, id, 2)).rejects.toMatchObject({ code: 'invalid', message: 'at must be the index of one of the screen’s 2 exposures (0–1).' });
     await expect(getPlateForecast(reader, navPlate, await compoundId(kvPlate, 'GW-0009'))).rejects.toMatchObject({ code: 'not_found', message: 'No compound with that id is tested on plate NAV-P01.' });
@@ -90,6 +94,7 @@ describe('plate forecasts', () => {
     for (const c of exposures) {
       expect(c.block.gNa).toBeGreaterThan(previous.block.gNa ?? 0);
       if (c.measures.rheobase_uA_cm2 !== null) expect(c.measures.rheobase_uA_cm2).toBeGreaterThan(previous.measures.rheobase_uA_cm2!);
+      if (c.measures.threshold_mV !== null) expect(c.measures.threshold_mV).toBeGreaterThan(previous.measures.threshold_mV!);
       expect(c.shifts.rheobase_uA_cm2.relative ?? Infinity).toBeGreaterThan(0);
       previous = c;
     }

@@ -1,0 +1,108 @@
+import { expect, test, type Page } from '@playwright/test';
+import pg from 'pg';
+import * as XLSX from 'xlsx';
+
+// Demo account from seeders/20261201000100-demo-users.js (password for the local demo only).
+const BIOLOGIST = { email: 'biologist@gatewell.test', password: 'demo-biologist-pass' };
+const CAUTION = 'Research decision support, not a safety determination.';
+
+async function idOf(sql: string, value: string): Promise<string> {
+  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  await client.connect();
+  try {
+    return (await client.query<{ id: string }>(sql, [value])).rows[0]!.id;
+  } finally {
+    await client.end();
+  }
+}
+
+async function signIn(page: Page) {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(BIOLOGIST.email);
+  await page.getByLabel('Password').fill(BIOLOGIST.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
+}
+
+const shot = (page: Page, name: string) => page.screenshot({ path: `test-output/screenshots/${name}.png`, fullPage: true });
+const traces = (page: Page) => page.getByRole('figure').filter({ hasText: 'Voltage traces at the reference drive' });
+
+test('a plate’s forecast shows the caution, traces, f–I curves and the sweep; one compound or all at once', async ({ page }) => {
+  const plateId = await idOf('select id from plates where label = $1', 'NAV-P01');
+  await signIn(page);
+  await page.goto(`/plates/${plateId}`);
+  await page.getByRole('link', { name: 'Forecast' }).click();
+  await expect(page).toHaveURL(new RegExp(`/plates/${plateId}/forecast$`));
+  await expect(page.getByRole('note', { name: 'Caution' })).toContainText(CAUTION);
+  await expect(page.getByRole('heading', { name: 'GW-0001 on NAV-P01' })).toBeVisible();
+  await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 30_000 });
+  await expect(traces(page)).toContainText('GW-0001 at 1 µM');
+  await expect(page.getByRole('figure').filter({ hasText: 'f–I curves' })).toBeVisible();
+  await expect(page.getByRole('figure').filter({ hasText: 'Rheobase against concentration' })).toBeVisible();
+  await expect(page.getByRole('table', { name: 'Excitability beside control at each exposure' }).getByRole('rowheader', { name: 'Control' })).toBeVisible();
+  await shot(page, 'plate-forecast');
+
+  // Traces at another exposure, chosen from the keyboard.
+  await page.getByRole('radio', { name: '1 µM', exact: true }).focus();
+  await page.keyboard.press('ArrowLeft');
+  await expect(page.getByRole('radio', { name: '0.3 µM', exact: true })).toBeChecked();
+  await expect(traces(page)).toContainText('GW-0001 at 0.3 µM', { timeout: 30_000 });
+
+  await page.getByRole('button', { name: /GW-0002/ }).click();
+  await expect(page.getByRole('heading', { name: 'GW-0002 on NAV-P01' })).toBeVisible();
+  await expect(traces(page)).toContainText('GW-0002 at 0.3 µM', { timeout: 30_000 });
+
+  await page.getByRole('button', { name: /^Forecast the \d+ not yet computed$/ }).click();
+  await expect(page.getByText(/^\d+ of \d+ forecasts computed and stored\.$/)).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByRole('navigation', { name: 'Compounds on this plate' }).getByText('Forecast stored')).toHaveCount(5);
+
+  await page.setViewportSize({ width: 820, height: 1180 });
+  await shot(page, 'plate-forecast-tablet');
+});
+
+test('forecast and export routes answer bad input with a clear message, and exports carry the caution and state', async ({ page }) => {
+  const plateId = await idOf('select id from plates where label = $1', 'NAV-P01');
+  await signIn(page);
+  const bad = await page.request.get(`/api/plates/${plateId}/forecast?compoundId=GW-0001`);
+  expect(bad.status()).toBe(422);
+  expect((await bad.json()).fields.compoundId).toEqual(['compoundId must be the id of a compound on this plate.']);
+  const compoundId = await idOf('select id from compounds where identifier = $1', 'GW-0001');
+  const far = await page.request.get(`/api/plates/${plateId}/forecast?compoundId=${compoundId}&at=7`);
+  expect(far.status()).toBe(422);
+  expect((await far.json()).message).toMatch(/^at must be the index of one of the screen’s 4 exposures \(0–3\)\.$/);
+  const csv = await page.request.get(`/api/plates/${plateId}/export?format=csv`);
+  expect(csv.status()).toBe(422);
+  expect((await csv.json()).fields.table).toEqual(['A csv file holds one table: add table=wells, fits, forecast, signoff.']);
+
+  const workbook = await page.request.get(`/api/plates/${plateId}/export?format=xlsx`);
+  expect(workbook.status()).toBe(200);
+  expect(workbook.headers()['content-disposition']).toBe('attachment; filename="gatewell-plate-NAV-P01.xlsx"');
+  const book = XLSX.read(await workbook.body());
+  const about = Object.fromEntries(XLSX.utils.sheet_to_json<string[]>(book.Sheets['About this export']!, { header: 1 }).map((r) => [r[0], r[1]]));
+  expect(about.Caution).toMatch(/research decision support/);
+  expect(about.State).toMatch(/^(Imported|Map verified|Awaiting approval|Approved|Returned)$/);
+  expect(book.SheetNames).toEqual(['About this export', 'Sign-off', 'Wells', 'Fits', 'Forecast at exposures']);
+  const wells = await page.request.get(`/api/plates/${plateId}/export?format=csv&table=wells`);
+  expect(wells.headers()['content-type']).toBe('text/csv; charset=utf-8');
+  expect(await wells.text()).toContain('Well,Role,Compound,Concentration (µM),Target');
+});
+
+test('a compound profile gathers fits across plates, selectivity and the forecast at exposure, with downloads', async ({ page }) => {
+  const compoundId = await idOf('select id from compounds where identifier = $1', 'GW-0001');
+  await signIn(page);
+  await page.goto(`/compounds/${compoundId}`);
+  await page.getByRole('link', { name: 'Profile across plates' }).click();
+  await expect(page.getByRole('heading', { name: 'GW-0001 profile' })).toBeVisible();
+  const fits = page.getByRole('table', { name: 'Fits of the compound across plates and screens' });
+  await expect(fits.getByRole('link', { name: 'KV-P01' })).toBeVisible();
+  await expect(fits.getByRole('link', { name: 'NAV-P01' })).toBeVisible();
+  await expect(page.getByText('IC50 Kv7.2 ÷ IC50 Nav1.7')).toBeVisible();
+  await expect(page.getByRole('note', { name: 'Caution' })).toContainText(CAUTION);
+  await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 30_000 });
+  await shot(page, 'compound-profile');
+
+  await page.locator('summary', { hasText: 'Download' }).click();
+  const download = page.waitForEvent('download');
+  await page.getByRole('link', { name: 'Workbook with every table (xlsx)' }).click();
+  expect((await download).suggestedFilename()).toBe('gatewell-compound-GW-0001.xlsx');
+});
