@@ -58,6 +58,7 @@ export const ROUTE_CASES: RouteCase[] = [
   api('GET /api/plates/[plateId]/fits'),
   api('GET /api/plates/[plateId]/forecast', undefined, 'passes'),
   api('GET /api/plates/[plateId]/wells'),
+  api('POST /api/compounds/bulk', ['chemist', 'admin'], 'passes'),
   api('POST /api/imports/inspect', ['biologist'], 'passes'),
   api('POST /api/imports/preview', ['biologist'], 'passes'),
   api('POST /api/imports/commit', ['biologist'], 'passes'),
