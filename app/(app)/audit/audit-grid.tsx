@@ -10,9 +10,9 @@ const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 
 const orDash = (value: unknown) => (value === null || value === undefined || value === '' ? '—' : String(value));
 
 const columns: ColDef<AuditRow>[] = [
-  { field: 'occurredAt', headerName: 'Time (UTC)', valueFormatter: (p) => when.format(new Date(p.value as string)), width: 165 },
-  { colId: 'actor', headerName: 'Person', valueGetter: (p) => p.data?.actorName ?? 'nobody signed in', tooltipValueGetter: (p) => p.data?.actorEmail ?? null, width: 135 },
-  { field: 'action', headerName: 'Action', width: 140, cellClass: 'font-mono text-xs' },
+  { field: 'occurredAt', headerName: 'Time (UTC)', valueFormatter: (p) => when.format(new Date(p.value as string)), width: 150 },
+  { colId: 'actor', headerName: 'Person', valueGetter: (p) => p.data?.actorName ?? 'nobody signed in', tooltipValueGetter: (p) => p.data?.actorEmail ?? null, width: 125 },
+  { field: 'action', headerName: 'Action', width: 130, cellClass: 'font-mono text-xs' },
   { field: 'entityType', headerName: 'Record', width: 90 },
   { field: 'entityId', headerName: 'Record id', width: 110, cellClass: 'font-mono text-xs', valueFormatter: (p) => orDash(p.value), tooltipField: 'entityId' },
   { field: 'reason', headerName: 'Reason', flex: 1, minWidth: 120, wrapText: true, autoHeight: true, valueFormatter: (p) => orDash(p.value) },
