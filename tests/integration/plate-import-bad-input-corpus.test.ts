@@ -1,0 +1,159 @@
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { AppError } from '@/lib/errors';
+import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
+import { AuditEvent, Fit, ImportTemplate, Plate, Readout, UploadedFile, Well } from '@/models';
+import { makeActor } from '../support/actors';
+import { resetDatabase } from '../support/database';
+import { makeDemoScreens } from '../support/demo-scenario';
+import { bigCsv, csv, garbage, GOOD_ROWS, HEADER, utf16le, workbookWithCells, zipBombXlsx } from '../fixtures/bad-input/build-corpus';
+
+// The bad-input corpus (tests/fixtures/bad-input/build-corpus.ts) through the real import service: each
+// file gets a clear message, within a bounded time and main-process heap growth, and writes nothing.
+// plate-import-bad-input.test.ts holds the basic per-cell cases; these are the hostile and odd files.
+
+/** Generous bounds: the parse worker stops at 10 s and 256 MB of its own heap. */
+const MAX_SECONDS = 15;
+const MAX_HEAP_GROWTH_MB = 96;
+
+async function counts() {
+  return [await Plate.count(), await Well.count(), await Readout.count(), await Fit.count(), await UploadedFile.count(), await ImportTemplate.count(), await AuditEvent.count({ where: { action: 'import' } })];
+}
+
+describe('the bad-input corpus is refused clearly, quickly, in bounded memory, and nothing is written', () => {
+  let biologist: Actor;
+  let screenId: string;
+
+  beforeAll(async () => {
+    await resetDatabase();
+    const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
+    screenId = screens['Kv7.2']!;
+    biologist = await makeActor(['biologist']);
+  });
+  afterAll(() => db().close());
+
+  const upload = (bytes: Uint8Array, filename: string) => ({ screenId, bytes, filename, mediaType: 'application/octet-stream' });
+
+  /** Times one service call and the main process's heap growth across it. */
+  async function bounded<T>(call: () => Promise<T>): Promise<T> {
+    const heapBefore = process.memoryUsage().heapUsed;
+    const started = performance.now();
+    try {
+      return await call();
+    } finally {
+      expect((performance.now() - started) / 1000).toBeLessThan(MAX_SECONDS);
+      expect((process.memoryUsage().heapUsed - heapBefore) / 2 ** 20).toBeLessThan(MAX_HEAP_GROWTH_MB);
+    }
+  }
+
+  /** Inspect, then commit with the proposed mapping (and a template name, so a template write would show); each call bounded. */
+  async function importAll(bytes: Uint8Array, filename: string) {
+    const inspection = await bounded(() => inspectUpload(biologist, upload(bytes, filename)));
+    const sheet = inspection.sheets[0]!;
+    return bounded(() => commitImport(biologist, { ...upload(bytes, filename), sheet: sheet.name, mapping: sheet.guess.mapping, label: 'BAD-CORPUS', templateName: 'bad corpus' }));
+  }
+
+  /** Runs the import and returns its refusal, having checked that nothing was written. */
+  async function refusal(bytes: Uint8Array, filename: string): Promise<AppError> {
+    const before = await counts();
+    const error = await importAll(bytes, filename).then(() => null, (e: unknown) => e);
+    expect(error, `${filename} was accepted`).toBeInstanceOf(AppError);
+    expect(await counts()).toEqual(before);
+    return error as AppError;
+  }
+
+  test.each([
+    ['64 KB of noise named .xlsx', () => garbage(64 * 1024), 'noise.xlsx', 'invalid', /noise\.xlsx (holds binary data|is not a spreadsheet)/],
+    ['half of a real workbook', () => workbookWithCells([HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(','))]).subarray(0, 300), 'torn.xlsx', 'invalid', /^torn\.xlsx (took longer than 10 s to read|holds no readable workbook|looks like an xlsx file but could not be read)/],
+    ['a csv just over 10 MB', () => bigCsv(300_000), 'huge.csv', 'too_large', /huge\.csv is 1\d(\.\d)? MB; Gatewell reads files up to 10 MB/],
+    ['a csv of 100 000 rows under 10 MB', () => bigCsv(100_000), 'rows.csv', 'invalid', /^rows\.csv is too big to import: it has more than 20000 rows\.$/],
+    ['headers that name nothing Gatewell knows', () => csv('Colour,Shape,Size', 'red,round,3', 'blue,square,4'), 'headers.csv', 'invalid', /headers\.csv|well/i],
+    ['a header row of formulas', () => csv('=A1,=B1,=C1', 'A01,1,2'), 'formula-headers.csv', 'invalid', /well/i],
+  ])('%s', async (_name, build, filename, code, message) => {
+    const error = await refusal(build(), filename);
+    expect(error.code).toBe(code);
+    expect(error.message).toMatch(message);
+  });
+
+  test('a zip bomb (an xlsx of about 200 KB that inflates to 200 MB) is refused within the worker limits', async () => {
+    const bomb = await zipBombXlsx(200);
+    expect(bomb.length).toBeLessThan(2 ** 20);
+    const error = await refusal(bomb, 'bomb.xlsx');
+    expect(error.code).toBe('invalid');
+    // Stopped by the worker's memory or time limit, or read to its end and refused for the columns it lacks.
+    expect(error.message).toMatch(/^bomb\.xlsx (needs more than 256 MB of memory|took longer than 10 s)|^The sheet has \d+ error\(s\); first: .*(missing|column)/i);
+  });
+
+  test('formulas are never evaluated: a csv formula is text, and an xlsx formula without a stored value is empty', async () => {
+    const fromCsv = await refusal(csv(HEADER, ...GOOD_ROWS, 'A05,GW-0001,1,Kv7.2,=400+400,700,1.8,4,18'), 'formula.csv');
+    expect(fromCsv.message).toMatch(/row 6, column E "I control \(pA\)"/);
+    expect(fromCsv.message).toContain('=400+400');
+
+    const rows: (string | number | { formula: string })[][] = [HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(',').map((v) => (v !== '' && !Number.isNaN(Number(v)) ? Number(v) : v)))];
+    rows.push(['A05', 'GW-0001', 1, 'Kv7.2', { formula: '400+400' }, 700, 1.8, 4, 18]);
+    const workbook = upload(workbookWithCells(rows), 'formula.xlsx');
+    const sheet = (await inspectUpload(biologist, workbook)).sheets[0]!;
+    expect(sheet.sample[4]).toEqual(['A05', 'GW-0001', 1, 'Kv7.2', null, 700, 1.8, 4, 18]);
+    const preview = await previewImport(biologist, { ...workbook, sheet: sheet.name, mapping: sheet.guess.mapping });
+    expect(preview.rows.find((r) => r.row === 6)!.values.controlCurrentPa).toBeNull();
+  });
+
+  test('HTML in cells comes back from the preview as the same plain text, never as markup', async () => {
+    const markup = '<img src=x onerror=alert(1)>';
+    const script = "<script>alert('gw')</script>";
+    const bytes = csv(HEADER, ...GOOD_ROWS, `A05,"${markup}",1,Kv7.2,800,700,1.8,4,18`, `A06,GW-0001,1,"${script}",800,700,1.8,4,18`);
+    const inspection = await inspectUpload(biologist, upload(bytes, 'markup.csv'));
+    const sheet = inspection.sheets[0]!;
+    const preview = await previewImport(biologist, { ...upload(bytes, 'markup.csv'), sheet: sheet.name, mapping: sheet.guess.mapping });
+    const byRow = new Map(preview.rows.map((r) => [r.row, r]));
+    expect(byRow.get(6)!.values.compound).toBe(markup);
+    expect(byRow.get(6)!.status).toBe('error');
+    expect(byRow.get(7)!.values.target).toBe(script);
+    // What the preview route sends is JSON of these values: the markup travels as an escaped string.
+    const json = JSON.stringify(preview);
+    expect(JSON.parse(json).rows.find((r: { row: number }) => r.row === 6).values.compound).toBe(markup);
+    expect(preview.unknownCompounds.map((c) => c.identifier)).toContain(markup);
+    await refusal(bytes, 'markup.csv');
+  });
+
+  test.each([
+    ['NaN', 'NaN'],
+    ['Infinity', 'Infinity'],
+    ['-Infinity', '-Infinity'],
+    ['an overflowing number', '1e999'],
+  ])('a control current of %s is refused at its cell', async (_name, value) => {
+    const error = await refusal(csv(HEADER, ...GOOD_ROWS, `A05,GW-0001,1,Kv7.2,${value},700,1.8,4,18`), 'number.csv');
+    expect(error.message).toMatch(/row 6, column E "I control \(pA\)"/);
+  });
+
+  test.each([
+    ['a NaN concentration', 'A05,GW-0001,NaN,Kv7.2,800,700,1.8,4,18', /row 6, column C "Conc \(uM\)"/],
+    ['a zero concentration on a compound well', 'A05,GW-0001,0,Kv7.2,800,700,1.8,4,18', /row 6, column C "Conc \(uM\)"/],
+    ['a negative seal resistance', 'A05,GW-0001,1,Kv7.2,800,700,-1.8,4,18', /row 6, column G "Rseal \(GOhm\)"/],
+    ['an infinite capacitance', 'A05,GW-0001,1,Kv7.2,800,700,1.8,4,Infinity', /row 6, column I "Cm \(pF\)"/],
+    ['the same well written two ways', 'A4,GW-0001,3,Kv7.2,810,700,1.8,4,18', /row 6/],
+    ['a well given twice with different compounds', 'A03,GW-0002,10,Kv7.2,820,600,1.8,4,18', /row 6/],
+  ])('%s is refused at its cell', async (_name, line, message) => {
+    const error = await refusal(csv(HEADER, ...GOOD_ROWS, line), 'values.csv');
+    expect(error.message).toMatch(message);
+  });
+
+  test('wrong encodings: Latin-1 and UTF-16 without a mark are refused by name; UTF-16 with a mark reads like UTF-8', async () => {
+    const latin1 = Buffer.from([HEADER.replace('(uM)', '(\u00b5M)'), ...GOOD_ROWS].join('\n'), 'latin1');
+    const refusedLatin1 = await refusal(latin1, 'latin1.csv');
+    expect(refusedLatin1.message).toMatch(/^latin1\.csv is not valid UTF-8 text: byte 0xB5 at offset \d+ \(line 1\)/);
+
+    const text = `${[HEADER, ...GOOD_ROWS].join('\n')}\n`;
+    const refusedUtf16 = await refusal(utf16le(text, false), 'utf16.csv');
+    expect(refusedUtf16.message).toMatch(/utf16\.csv holds binary data/);
+
+    const marked = utf16le(text, true);
+    const inspection = await inspectUpload(biologist, upload(marked, 'utf16-bom.csv'));
+    const sheet = inspection.sheets[0]!;
+    expect(sheet.headers).toEqual(HEADER.split(','));
+    const preview = await previewImport(biologist, { ...upload(marked, 'utf16-bom.csv'), sheet: sheet.name, mapping: sheet.guess.mapping });
+    expect(preview.summary.errorRows).toBe(0);
+    expect(preview.rows).toHaveLength(GOOD_ROWS.length);
+  });
+});
