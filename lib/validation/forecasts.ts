@@ -79,10 +79,15 @@ export const plateForecastListSchema = z.object({
   caution: z.string(),
 });
 
+const AT_MESSAGE = 'at must be the index of one of the screen’s exposures.';
+
 /** Query of the plate forecast route: no compound lists them; a compound computes (or reuses) its forecast. */
 export const plateForecastQuerySchema = z.object({
   compoundId: z.uuid({ error: 'compoundId must be the id of a compound on this plate.' }).optional(),
-  at: z.coerce.number({ error: 'at must be the index of one of the screen’s exposures.' }).int({ error: 'at must be the index of one of the screen’s exposures.' }).min(0, { error: 'at must be the index of one of the screen’s exposures.' }).optional(),
+  at: z.preprocess(
+    (v) => (v === '' ? undefined : v),
+    z.coerce.number({ error: AT_MESSAGE }).int({ error: AT_MESSAGE }).min(0, { error: AT_MESSAGE }).optional(),
+  ),
 });
 
 export type TargetPotency = z.infer<typeof targetPotencySchema>;
