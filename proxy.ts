@@ -2,14 +2,17 @@ import { sealData, unsealData } from 'iron-session';
 import { NextResponse, type NextRequest } from 'next/server';
 import { PATHNAME_HEADER } from '@/lib/auth/page-roles';
 import { sessionIsFresh, sessionOptions, type SessionData } from '@/lib/auth/session-config';
+import { contentSecurityPolicy, newNonce, NONCE_HEADER } from '@/lib/security/content-security-policy';
 
 // Paths that anonymous visitors may open. API routes answer 401 themselves, so they pass through too.
 const PUBLIC_PREFIXES = ['/sign-in', '/api/', '/_next/', '/favicon'];
 const RENEW_AFTER_MS = 60_000;
 
-/** Sends anonymous or expired visitors to sign-in, and keeps an active session's idle clock current. */
+/** Sends anonymous or expired visitors to sign-in, keeps an active session's idle clock current, and sets this answer's CSP. */
 export async function proxy(request: NextRequest) {
   const { pathname, search } = request.nextUrl;
+  const nonce = newNonce();
+  const policy = contentSecurityPolicy(nonce);
   const options = sessionOptions();
   const sealed = request.cookies.get(options.cookieName)?.value;
   let session: SessionData = {};
@@ -27,6 +30,7 @@ export async function proxy(request: NextRequest) {
     url.pathname = '/sign-in';
     url.search = pathname === '/' ? '' : `?next=${encodeURIComponent(pathname + search)}`;
     const response = NextResponse.redirect(url);
+    response.headers.set('Content-Security-Policy', policy);
     if (sealed) response.cookies.delete(options.cookieName);
     return response;
   }
@@ -34,7 +38,11 @@ export async function proxy(request: NextRequest) {
   // The signed-in layout checks page roles before streaming starts, so it needs the path (set here, never trusted from the client).
   const requestHeaders = new Headers(request.headers);
   requestHeaders.set(PATHNAME_HEADER, pathname);
+  // Next reads the policy on the request to put the nonce on its own scripts; the root layout reads the nonce for style tags.
+  requestHeaders.set(NONCE_HEADER, nonce);
+  requestHeaders.set('Content-Security-Policy', policy);
   const response = NextResponse.next({ request: { headers: requestHeaders } });
+  response.headers.set('Content-Security-Policy', policy);
   // Renewed at most once a minute (prefetches must not loop), and on reads only: a POST may be a server
   // action that writes the cookie itself (sign-out, password change), and two Set-Cookie headers for one
   // cookie in one answer leave the browser to pick either.

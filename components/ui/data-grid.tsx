@@ -2,6 +2,7 @@
 
 import { AllCommunityModule, ModuleRegistry, themeQuartz, type ColDef, type GridOptions } from 'ag-grid-community';
 import { AgGridReact } from 'ag-grid-react';
+import { useStyleNonce } from './csp-context';
 
 ModuleRegistry.registerModules([AllCommunityModule]);
 
@@ -31,6 +32,8 @@ export interface DataGridProps<Row> extends Omit<GridOptions<Row>, 'theme' | 'ro
 
 /** An ag-grid with Gatewell's theme, keyboard navigation and an accessible name. */
 export function DataGrid<Row>({ rows, columns, label, height = 520, ...options }: DataGridProps<Row>) {
+  // The theme's style tags carry the CSP nonce (lib/security/content-security-policy.ts).
+  const styleNonce = useStyleNonce();
   return (
     <div role="region" aria-label={label} style={{ height }} className="w-full">
       <AgGridReact<Row>
@@ -40,6 +43,7 @@ export function DataGrid<Row>({ rows, columns, label, height = 520, ...options }
         defaultColDef={{ sortable: true, resizable: true, filter: true, ...options.defaultColDef }}
         ensureDomOrder
         enableCellTextSelection
+        styleNonce={styleNonce}
         {...options}
       />
     </div>
