@@ -1,14 +1,7 @@
 'use client';
 
-export default function PageError({ error, reset }: { error: Error & { digest?: string }; reset: () => void }) {
-  return (
-    <div role="alert" className="gw-card max-w-xl p-6">
-      <h1 className="text-xl font-semibold">This page could not be shown</h1>
-      <p className="mt-2 text-sm text-ink-700">
-        Something failed on the server. Nothing was changed. Try again; if it keeps failing, give your
-        administrator this reference: <span className="font-mono">{error.digest ?? 'none'}</span>.
-      </p>
-      <button type="button" onClick={reset} className="gw-button mt-4">Try again</button>
-    </div>
-  );
+import { RouteError } from '@/components/ui/route-error';
+
+export default function PageError(props: { error: Error & { digest?: string }; reset: () => void }) {
+  return <RouteError what="This page" {...props} />;
 }

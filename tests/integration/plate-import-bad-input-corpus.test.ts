@@ -3,8 +3,8 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
-import { AuditEvent, Fit, ImportTemplate, Plate, Readout, UploadedFile, Well } from '@/models';
 import { makeActor } from '../support/actors';
+import { importRowCounts } from '../support/import-counts';
 import { resetDatabase } from '../support/database';
 import { makeDemoScreens } from '../support/demo-scenario';
 import { bigCsv, csv, garbage, GOOD_ROWS, HEADER, utf16le, workbookWithCells, zipBombXlsx } from '../fixtures/bad-input/build-corpus';
@@ -17,9 +17,6 @@ import { bigCsv, csv, garbage, GOOD_ROWS, HEADER, utf16le, workbookWithCells, zi
 const MAX_SECONDS = 15;
 const MAX_HEAP_GROWTH_MB = 96;
 
-async function counts() {
-  return [await Plate.count(), await Well.count(), await Readout.count(), await Fit.count(), await UploadedFile.count(), await ImportTemplate.count(), await AuditEvent.count({ where: { action: 'import' } })];
-}
 
 describe('the bad-input corpus is refused clearly, quickly, in bounded memory, and nothing is written', () => {
   let biologist: Actor;
@@ -56,10 +53,10 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
 
   /** Runs the import and returns its refusal, having checked that nothing was written. */
   async function refusal(bytes: Uint8Array, filename: string): Promise<AppError> {
-    const before = await counts();
+    const before = await importRowCounts();
     const error = await importAll(bytes, filename).then(() => null, (e: unknown) => e);
     expect(error, `${filename} was accepted`).toBeInstanceOf(AppError);
-    expect(await counts()).toEqual(before);
+    expect(await importRowCounts()).toEqual(before);
     return error as AppError;
   }
 

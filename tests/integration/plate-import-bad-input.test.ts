@@ -2,8 +2,8 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
-import { AuditEvent, Fit, Plate, Readout, UploadedFile, Well } from '@/models';
 import { makeActor } from '../support/actors';
+import { importRowCounts } from '../support/import-counts';
 import { resetDatabase } from '../support/database';
 import { makeDemoScreens } from '../support/demo-scenario';
 
@@ -11,9 +11,6 @@ const HEADER = 'Well,Compound,Conc (uM),Target,I control (pA),I compound (pA),Rs
 const GOOD = ['A01,DMSO,,Kv7.2,900,880,1.5,4,18', 'A02,GW-0001,30,Kv7.2,800,450,1.8,4,18', 'A03,GW-0001,10,Kv7.2,820,600,1.8,4,18', 'A04,GW-0001,3,Kv7.2,810,700,1.8,4,18'];
 const csv = (...lines: string[]) => new TextEncoder().encode(`${lines.join('\n')}\n`);
 
-async function counts() {
-  return [await Plate.count(), await Well.count(), await Readout.count(), await Fit.count(), await UploadedFile.count(), await AuditEvent.count({ where: { action: 'import' } })];
-}
 
 describe('bad plate exports are refused with a clear message, and nothing is written', () => {
   let biologist: Actor;
@@ -46,8 +43,8 @@ describe('bad plate exports are refused with a clear message, and nothing is wri
     ['a duplicate well and target', csv(HEADER, ...GOOD, 'A04,GW-0001,3,Kv7.2,810,700,1.8,4,18'), 'bad.csv', /row 6/],
     ['a well outside the plate', csv(HEADER, ...GOOD, 'A99,GW-0001,1,Kv7.2,800,700,1.8,4,18'), 'bad.csv', /row 6, column A "Well"/],
   ])('%s', async (_name, bytes, filename, message) => {
-    const before = await counts();
+    const before = await importRowCounts();
     await expect(attempt(bytes, filename)).rejects.toMatchObject({ message: expect.stringMatching(message) });
-    expect(await counts()).toEqual(before);
+    expect(await importRowCounts()).toEqual(before);
   });
 });
