@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { fitsKey, postJson, usePlateFits, usePlateWells, wellsKey } from '@/components/plates/plate-data';
 import type { FitView } from '@/lib/validation/plates';
+import { DataTable } from '@/components/ui/data-table';
 import { DoseResponsePlot } from './dose-response-plot';
 
 const STATUS_TEXT: Record<FitView['status'], string> = {
@@ -43,6 +44,17 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
   return (
     <div className="space-y-4">
       <p role="status" aria-live="polite" className="min-h-5 text-sm text-signal-fail">{message}</p>
+      <DataTable caption="Fit results" rows={fits.data.fits} rowKey={(f) => f.id} columns={[
+        { header: 'Compound', cell: (f) => <a href={`#fit-${f.id}`} className="font-mono text-lagoon-700 hover:underline">{f.compound}</a> },
+        { header: 'Target', cell: (f) => f.target },
+        { header: 'Model', cell: (f) => (f.model === 'hill2' ? '2-parameter' : '4-parameter') },
+        { header: 'Status', cell: (f) => STATUS_TEXT[f.status] },
+        { header: 'IC50', cell: (f) => ic50Text(f) },
+        { header: 'Hill slope', cell: (f) => num(f.hill), align: 'right' },
+        { header: 'R²', cell: (f) => num(f.r2), align: 'right' },
+        { header: 'n', cell: (f) => f.n, align: 'right' },
+        { header: 'Message', cell: (f) => <span className="text-xs">{[f.message, ...f.flags.map((x) => x.message)].join(' ')}</span> },
+      ]} />
       <div className="grid gap-4 lg:grid-cols-2 2xl:grid-cols-3">
         {fits.data.fits.map((fit) => (
           <article key={fit.id} className="gw-card p-4" aria-labelledby={`fit-${fit.id}`}>
