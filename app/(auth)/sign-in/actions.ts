@@ -8,6 +8,7 @@ import { requestAddress } from '@/lib/auth/request-address';
 import { getSession } from '@/lib/auth/session';
 import { signIn } from '@/lib/auth/sign-in';
 import { db } from '@/lib/db';
+import { User } from '@/models';
 import { safeNextPath, signInSchema } from '@/lib/validation/auth';
 
 export interface SignInState {
@@ -40,15 +41,20 @@ export async function signInAction(_previous: SignInState, formData: FormData): 
   redirect(safeNextPath(next));
 }
 
-/** Ends the session and records the sign-out. */
+/**
+ * Ends the session and records the sign-out. Sessions are sealed cookies, so sign-out also moves the
+ * person's session_version on: a copy of the cookie taken earlier stops working too (as do the person's
+ * sessions in other browsers).
+ */
 export async function signOutAction(): Promise<void> {
   const actor = await currentActor();
   const session = await getSession();
   session.destroy();
   if (actor) {
-    await db().transaction((transaction) =>
-      recordAudit({ actorId: actor.id, action: 'sign_out', entityType: 'session', entityId: actor.id, address: actor.address }, transaction),
-    );
+    await db().transaction(async (transaction) => {
+      await User.increment('sessionVersion', { where: { id: actor.id }, transaction });
+      await recordAudit({ actorId: actor.id, action: 'sign_out', entityType: 'session', entityId: actor.id, address: actor.address }, transaction);
+    });
   }
   redirect('/sign-in');
 }
