@@ -3,6 +3,7 @@
 import { useState } from 'react';
 import { useCompoundForecast } from './forecast-data';
 import { ForecastDetail } from './forecast-detail';
+import { ForecastComputing, ForecastFailed } from './forecast-status';
 
 export interface ForecastScreen {
   id: string;
@@ -36,15 +37,9 @@ export function CompoundForecastPanel({ compoundId, screens }: { compoundId: str
       {at === null ? (
         <p className="gw-card border-dashed p-5 text-sm text-ink-700">{screen.name} has no exposures of interest. An admin adds them on the screen’s page; the forecast runs at those concentrations.</p>
       ) : forecast.error ? (
-        <div role="alert" className="gw-card border-l-4 border-l-signal-fail p-4 text-sm">
-          The forecast could not be computed: {forecast.error.message}{' '}
-          <button type="button" className="gw-button-quiet ml-2" onClick={() => forecast.mutate()}>Try again</button>
-        </div>
+        <ForecastFailed message={forecast.error.message} onRetry={() => forecast.mutate()} />
       ) : !shown ? (
-        <div role="status" aria-live="polite" className="gw-card p-5 text-sm text-ink-700">
-          <p>Computing the forecast at exposure: control and every concentration of the sweep, with traces…</p>
-          <div className="mt-3 h-1.5 overflow-hidden rounded bg-ink-100"><div className="h-full w-1/3 animate-pulse rounded bg-lagoon-500" /></div>
-        </div>
+        <ForecastComputing>Computing the forecast at exposure: control and every concentration of the sweep, with traces…</ForecastComputing>
       ) : (
         <ForecastDetail data={shown} at={at} onAt={setChosenAt} busy={forecast.isLoading} showPlate />
       )}

@@ -7,6 +7,7 @@ import { ForecastAll } from './forecast-all';
 import { ForecastCaution } from './forecast-caution';
 import { usePlateForecast, usePlateForecastList } from './forecast-data';
 import { ForecastDetail } from './forecast-detail';
+import { ForecastComputing, ForecastFailed } from './forecast-status';
 
 /** The plate's forecast tab: pick a compound, see its forecast (computed on the server when first asked for). */
 export function PlateForecastPanel({ plateId }: { plateId: string }) {
@@ -49,15 +50,9 @@ export function PlateForecastPanel({ plateId }: { plateId: string }) {
             {at === null ? (
               <p className="gw-card border-dashed p-5 text-sm text-ink-700">{entry?.reason}</p>
             ) : forecast.error ? (
-              <div role="alert" className="gw-card border-l-4 border-l-signal-fail p-4 text-sm">
-                The forecast could not be computed: {forecast.error.message}{' '}
-                <button type="button" className="gw-button-quiet ml-2" onClick={() => forecast.mutate()}>Try again</button>
-              </div>
+              <ForecastFailed message={forecast.error.message} onRetry={() => forecast.mutate()} />
             ) : !shown ? (
-              <div role="status" aria-live="polite" className="gw-card p-5 text-sm text-ink-700">
-                <p>Computing the forecast of <span className="font-mono">{entry?.compound}</span>: control and every concentration of the sweep, with traces…</p>
-                <div className="mt-3 h-1.5 overflow-hidden rounded bg-ink-100"><div className="h-full w-1/3 animate-pulse rounded bg-lagoon-500" /></div>
-              </div>
+              <ForecastComputing>Computing the forecast of <span className="font-mono">{entry?.compound}</span>: control and every concentration of the sweep, with traces…</ForecastComputing>
             ) : (
               <ForecastDetail data={shown} at={at} onAt={setChosenAt} busy={forecast.isLoading} />
             )}

@@ -3,10 +3,8 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
-import { makeActor } from '../support/actors';
 import { importRowCounts } from '../support/import-counts';
-import { resetDatabase } from '../support/database';
-import { makeDemoScreens } from '../support/demo-scenario';
+import { potassiumImportSetup } from '../support/demo-scenario';
 import { bigCsv, csv, garbage, GOOD_ROWS, HEADER, utf16le, workbookWithCells, zipBombXlsx } from '../fixtures/bad-input/build-corpus';
 
 // The bad-input corpus (tests/fixtures/bad-input/build-corpus.ts) through the real import service: each
@@ -23,10 +21,7 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
   let screenId: string;
 
   beforeAll(async () => {
-    await resetDatabase();
-    const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
-    screenId = screens['Kv7.2']!;
-    biologist = await makeActor(['biologist']);
+    ({ biologist, screenId } = await potassiumImportSetup());
   });
   afterAll(() => db().close());
 

@@ -2,10 +2,8 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
-import { makeActor } from '../support/actors';
 import { importRowCounts } from '../support/import-counts';
-import { resetDatabase } from '../support/database';
-import { makeDemoScreens } from '../support/demo-scenario';
+import { potassiumImportSetup } from '../support/demo-scenario';
 
 const HEADER = 'Well,Compound,Conc (uM),Target,I control (pA),I compound (pA),Rseal (GOhm),Rs (MOhm),Cm (pF)';
 const GOOD = ['A01,DMSO,,Kv7.2,900,880,1.5,4,18', 'A02,GW-0001,30,Kv7.2,800,450,1.8,4,18', 'A03,GW-0001,10,Kv7.2,820,600,1.8,4,18', 'A04,GW-0001,3,Kv7.2,810,700,1.8,4,18'];
@@ -17,10 +15,7 @@ describe('bad plate exports are refused with a clear message, and nothing is wri
   let screenId: string;
 
   beforeAll(async () => {
-    await resetDatabase();
-    const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
-    screenId = screens['Kv7.2']!;
-    biologist = await makeActor(['biologist']);
+    ({ biologist, screenId } = await potassiumImportSetup());
   });
   afterAll(() => db().close());
 

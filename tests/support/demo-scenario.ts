@@ -6,6 +6,8 @@ import { addTarget, createScreen } from '@/lib/screens/service';
 import { screenSchema } from '@/lib/validation/screens';
 import type { DemoManifest } from '@/scripts/demo-plates/demo-manifest';
 import { DEMO_COMPOUNDS } from '@/scripts/demo-plates/demo-compounds';
+import { makeActor } from './actors';
+import { resetDatabase } from './database';
 
 export const DEMO_DIR = path.join(process.cwd(), 'seeders', 'data', 'demo-plates');
 
@@ -28,4 +30,11 @@ export async function makeDemoScreens(admin: Actor, chemist: Actor): Promise<Rec
   await addTarget(admin, kv.id, { name: 'Kv7.2', conductance: 'gM', description: '' });
   for (const c of DEMO_COMPOUNDS) await createCompound(chemist, { identifier: c.identifier, name: c.name, smiles: '', molecularWeight: c.molecularWeight });
   return { 'Nav1.7': nav.id, 'Kv7.2': kv.id };
+}
+
+/** A fresh database with the demo screens and compounds, and a biologist to import onto the potassium screen. */
+export async function potassiumImportSetup(): Promise<{ biologist: Actor; screenId: string }> {
+  await resetDatabase();
+  const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
+  return { biologist: await makeActor(['biologist']), screenId: screens['Kv7.2']! };
 }
