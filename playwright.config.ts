@@ -10,6 +10,8 @@ export default defineConfig({
   workers: 1,
   retries: 0,
   timeout: 60_000,
+  // Fits and forecasts arrive from the worker process a moment after the change that queued them.
+  expect: { timeout: 10_000 },
   reporter: [['list'], ['json', { outputFile: 'test-output/playwright.json' }]],
   use: {
     baseURL: `http://127.0.0.1:${port}`,
@@ -30,13 +32,27 @@ export default defineConfig({
       },
     },
   ],
-  webServer: {
-    command: `npx next start --port ${port} --hostname 127.0.0.1`,
-    url: `http://127.0.0.1:${port}/api/health`,
-    // GATEWELL_E2E_REUSE=1 runs against a server already listening on the port (e.g. the demo on 4310).
-    reuseExistingServer: Boolean(process.env.GATEWELL_E2E_REUSE),
-    timeout: 120_000,
-    stdout: 'ignore',
-    stderr: 'pipe',
-  },
+  // The topology of a team install in miniature: the web server only enqueues (GATEWELL_JOB_WORKER=off)
+  // and a separate worker process takes the fit and forecast jobs (README, "Topology").
+  webServer: [
+    {
+      command: `npx next start --port ${port} --hostname 127.0.0.1`,
+      url: `http://127.0.0.1:${port}/api/health`,
+      // GATEWELL_E2E_REUSE=1 runs against a server already listening on the port (e.g. the demo on 4310).
+      reuseExistingServer: Boolean(process.env.GATEWELL_E2E_REUSE),
+      timeout: 120_000,
+      stdout: 'ignore',
+      stderr: 'pipe',
+      env: { GATEWELL_JOB_WORKER: 'off' },
+    },
+    ...(process.env.GATEWELL_E2E_REUSE
+      ? []
+      : [{
+          command: 'node --conditions=react-server --import tsx scripts/worker.ts',
+          wait: { stdout: /taking jobs/ },
+          timeout: 60_000,
+          stdout: 'pipe' as const,
+          stderr: 'pipe' as const,
+        }]),
+  ],
 });

@@ -13,6 +13,10 @@ export default defineConfig({
   test: {
     include: ['tests/unit/**/*.test.ts', 'tests/integration/**/*.test.ts'],
     fileParallelism: false,
+    // Integration files run the real job workers (tests/support/job-workers.ts); after-hooks run in the
+    // order written, so those workers stop before a file's own afterAll closes the database.
+    setupFiles: ['tests/support/job-workers.ts'],
+    sequence: { hooks: 'list' },
     testTimeout: 30_000,
     hookTimeout: 60_000,
     reporters: ['default', ['json', { outputFile: 'test-output/vitest.json' }]],

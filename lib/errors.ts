@@ -8,6 +8,7 @@ export const ERROR_STATUS = {
   locked: 423,
   rate_limited: 429,
   too_large: 413,
+  unavailable: 503,
 } as const;
 
 export type ErrorCode = keyof typeof ERROR_STATUS;

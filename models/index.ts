@@ -2,6 +2,7 @@ import type { Sequelize } from 'sequelize';
 import { AuditEvent } from './audit-event';
 import { Batch } from './batch';
 import { Compound } from './compound';
+import { ComputeJob } from './compute-job';
 import { Fit } from './fit';
 import { Forecast } from './forecast';
 import { ImportTemplate } from './import-template';
@@ -18,9 +19,9 @@ import { User } from './user';
 import { UserRole } from './user-role';
 import { Well } from './well';
 
-export { AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
+export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
 
-const models = [AuditEvent, Batch, Compound, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
+const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {

@@ -18,6 +18,10 @@ export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes
   declare version: CreationOptional<number>;
   /** Per target: Z′ with its band and pass/fail, run-down and normalisation notes (from lib/science/plate-analysis). */
   declare qcSummary: CreationOptional<unknown[]>;
+  /** True from an import or a change to wells or models until a job has refitted the plate (lib/jobs). */
+  declare fitsPending: CreationOptional<boolean>;
+  declare fitsRequestedAt: CreationOptional<Date | null>;
+  declare fittedAt: CreationOptional<Date | null>;
   declare importedBy: string;
   declare verifiedBy: string | null;
   declare submittedBy: string | null;
@@ -38,6 +42,9 @@ export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes
         state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'imported' },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
         qcSummary: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        fitsPending: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        fitsRequestedAt: { type: DataTypes.DATE, allowNull: true },
+        fittedAt: { type: DataTypes.DATE, allowNull: true },
         importedBy: { type: DataTypes.UUID, allowNull: false },
         verifiedBy: { type: DataTypes.UUID, allowNull: true },
         submittedBy: { type: DataTypes.UUID, allowNull: true },

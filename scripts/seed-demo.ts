@@ -13,6 +13,8 @@ import { screenSchema } from '@/lib/validation/screens';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
+import { startJobWorkers, stopJobWorkers } from '@/lib/jobs/worker';
+import { setTimeout as sleep } from 'node:timers/promises';
 import { Compound, Plate, Screen } from '@/models';
 import type { DemoManifest } from './demo-plates/demo-manifest';
 import { DEMO_COMPOUNDS, DEMO_TARGETS } from './demo-plates/demo-compounds';
@@ -87,12 +89,24 @@ async function seedPlates(biologist: Actor): Promise<void> {
   }
 }
 
+/** Runs the demo plates' queued fit jobs here, so that the demo opens with its fits current. */
+async function fitDemoPlates(): Promise<void> {
+  await startJobWorkers({ kinds: ['plate-fits'] });
+  const deadline = Date.now() + 120_000;
+  while ((await Plate.count({ where: { fitsPending: true } })) > 0) {
+    if (Date.now() > deadline) throw new Error('the demo plates were not fitted within two minutes');
+    await sleep(100);
+  }
+  await stopJobWorkers();
+}
+
 async function main(): Promise<void> {
   const admin = await demoActor('admin@gatewell.test');
   const chemist = await demoActor('chemist@gatewell.test');
   await seedScreens(admin);
   await seedCompounds(chemist);
   await seedPlates(await demoActor('biologist@gatewell.test'));
+  await fitDemoPlates();
   await db().close();
 }
 

@@ -5,6 +5,7 @@ import { useSWRConfig } from 'swr';
 import { fitsKey, postJson, usePlateFits, usePlateWells, wellsKey } from '@/components/plates/plate-data';
 import type { FitView } from '@/lib/validation/plates';
 import { DataTable } from '@/components/ui/data-table';
+import { plateJobsKey } from '@/components/plates/plate-jobs';
 import { DoseResponsePlot } from './dose-response-plot';
 
 const STATUS_TEXT: Record<FitView['status'], string> = {
@@ -34,13 +35,17 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
     setMessage(null);
     try {
       await postJson(`/api/plates/${plateId}/fit-model`, { compoundId: fit.compoundId, targetId: fit.targetId, model, expectedVersion: fits.data!.version });
-      await Promise.all([mutate(fitsKey(plateId)), mutate(wellsKey(plateId))]);
+      await Promise.all([mutate(fitsKey(plateId)), mutate(wellsKey(plateId)), mutate(plateJobsKey(plateId))]);
     } catch (e) {
       setMessage(e instanceof Error ? e.message : 'The change failed.');
     }
   }
 
-  if (!fits.data.fits.length) return <p className="text-sm text-ink-700">This plate has no test compounds to fit.</p>;
+  if (!fits.data.fits.length) {
+    return fits.data.fitsPending
+      ? <p role="status" className="text-sm text-ink-700">The fits of this plate are being computed; they appear here when the job is done.</p>
+      : <p className="text-sm text-ink-700">This plate has no test compounds to fit.</p>;
+  }
   return (
     <div className="space-y-4">
       <p role="status" aria-live="polite" className="min-h-5 text-sm text-signal-fail">{message}</p>

@@ -1,68 +1,67 @@
 'use client';
 
-import { useRef, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useSWRConfig } from 'swr';
+import { postJson } from '@/components/plates/plate-data';
+import { plateJobsKey, usePlateJobs } from '@/components/plates/plate-jobs';
 import type { PlateForecastList } from '@/lib/validation/forecasts';
-import { fetchCompoundForecast, plateForecastKey, plateForecastListKey } from './forecast-data';
+import type { JobViewData } from '@/lib/validation/jobs';
+import { plateForecastListKey } from './forecast-data';
 
-interface Run {
-  done: number;
-  total: number;
-  current: string | null;
-  error: string | null;
-}
+const isOpen = (job: JobViewData | undefined) => job?.state === 'queued' || job?.state === 'running';
 
 /**
- * Forecasts every compound of the plate that has a usable IC50 and no stored forecast, one after
- * another, with a progress count; the page stays usable meanwhile and the run can be stopped.
+ * Queues a forecast run over the plate: every compound with a usable IC50 and no stored forecast,
+ * computed by a worker one after another. The progress comes from the job, so it goes on when the
+ * page is closed, and anyone who opens the plate sees it.
  */
 export function ForecastAll({ list, at }: { list: PlateForecastList; at: number }) {
   const { mutate } = useSWRConfig();
-  const [run, setRun] = useState<Run | null>(null);
-  const stop = useRef(false);
+  const jobs = usePlateJobs(list.plate.id, false);
+  const [error, setError] = useState<string | null>(null);
+  const [starting, setStarting] = useState(false);
+  const run = jobs.data?.jobs.find((j) => j.kind === 'plate-forecasts');
   const todo = list.compounds.filter((c) => c.reason === null && !c.stored);
-  const running = run !== null && run.current !== null;
+  const running = isOpen(run);
+
+  // Stored flags change as the run goes: refresh the compound list at each step and at the end.
+  const seen = useRef<string | null>(null);
+  const step = run ? `${run.id}:${run.state}:${run.done}` : null;
+  useEffect(() => {
+    if (seen.current !== null && step !== seen.current) void mutate(plateForecastListKey(list.plate.id));
+    seen.current = step;
+  }, [step, list.plate.id, mutate]);
 
   async function start() {
-    stop.current = false;
-    const queue = [...todo];
-    let done = 0;
-    for (const c of queue) {
-      if (stop.current) break;
-      setRun({ done, total: queue.length, current: c.compound, error: null });
-      const key = plateForecastKey(list.plate.id, c.compoundId, at);
-      try {
-        await mutate(key, fetchCompoundForecast(key), { revalidate: false });
-      } catch (e) {
-        setRun({ done, total: queue.length, current: null, error: `${c.compound}: ${e instanceof Error ? e.message : 'the forecast failed.'}` });
-        await mutate(plateForecastListKey(list.plate.id));
-        return;
-      }
-      done++;
+    setError(null);
+    setStarting(true);
+    try {
+      await postJson(plateJobsKey(list.plate.id), { at });
+      await jobs.mutate();
+    } catch (e) {
+      setError(e instanceof Error ? e.message : 'The run could not be queued.');
+    } finally {
+      setStarting(false);
     }
-    setRun({ done, total: queue.length, current: null, error: null });
-    await mutate(plateForecastListKey(list.plate.id));
   }
 
   return (
     <div className="space-y-2 text-sm">
-      {running ? (
-        <button type="button" className="gw-button-quiet w-full" onClick={() => { stop.current = true; }}>Stop after this compound</button>
-      ) : (
-        <button type="button" className="gw-button w-full" onClick={start} disabled={todo.length === 0}>
-          {todo.length ? `Forecast the ${todo.length} not yet computed` : 'Every forecast is stored'}
-        </button>
-      )}
+      <button type="button" className="gw-button w-full" onClick={start} disabled={todo.length === 0 || running || starting}>
+        {running ? 'Forecast run under way' : todo.length ? `Forecast the ${todo.length} not yet computed` : 'Every forecast is stored'}
+      </button>
       <div role="status" aria-live="polite" className="min-h-5 text-xs text-ink-700">
-        {run && run.current ? (
+        {error ? (
+          <span className="text-signal-fail">{error}</span>
+        ) : run && running ? (
           <>
-            <progress className="w-full accent-lagoon-700" max={run.total} value={run.done} />
-            Forecasting {run.done + 1} of {run.total}: {run.current}…
+            <progress className="w-full accent-lagoon-700" max={run.total ?? 1} value={run.done} />
+            {run.state === 'queued' ? `Queued: ${run.total ?? '?'} forecast(s) wait for a worker…` : `Forecasting ${Math.min(run.done + 1, run.total ?? run.done + 1)} of ${run.total ?? '?'} on ${run.worker ?? 'a worker'}…`}
           </>
-        ) : run?.error ? (
-          <span className="text-signal-fail">Stopped at {run.error}</span>
-        ) : run ? (
-          `${run.done} of ${run.total} forecasts computed and stored.`
+        ) : run?.state === 'failed' ? (
+          <span className="text-signal-fail">The last run stopped after {run.done} of {run.total ?? '?'}: {run.message}</span>
+        ) : run?.state === 'done' ? (
+          `Last run: ${run.done} of ${run.total ?? run.done} forecasts computed and stored.`
         ) : null}
       </div>
     </div>

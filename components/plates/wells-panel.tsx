@@ -5,6 +5,7 @@ import { useMemo, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { DataGrid } from '@/components/ui/data-grid';
 import { exclusionSchema, type WellRowView } from '@/lib/validation/plates';
+import { plateJobsKey } from './plate-jobs';
 import { fitsKey, postJson, usePlateWells, wellsKey } from './plate-data';
 import { PlateMap, type MapColouring } from './plate-map';
 
@@ -50,10 +51,10 @@ export function WellsPanel({ plateId, format, canEdit }: { plateId: string; form
     setBusy(true);
     try {
       const result = await postJson<{ changed: number }>(`/api/plates/${plateId}/exclusions`, parsed.data);
-      setMessage({ ok: true, text: `${result.changed} well(s) ${excluded ? 'excluded' : 're-included'}; fits recomputed.` });
+      setMessage({ ok: true, text: `${result.changed} well(s) ${excluded ? 'excluded' : 're-included'}; QC recomputed${result.changed ? ', fits queued for a refit' : ''}.` });
       setSelected(new Set());
       setReason('');
-      await Promise.all([mutate(wellsKey(plateId)), mutate(fitsKey(plateId))]);
+      await Promise.all([mutate(wellsKey(plateId)), mutate(fitsKey(plateId)), mutate(plateJobsKey(plateId))]);
     } catch (e) {
       setMessage({ ok: false, text: e instanceof Error ? e.message : 'The change failed.' });
     } finally {

@@ -43,6 +43,6 @@ export async function getCompoundForecast(actor: Actor, compoundId: string, opti
     exposuresUm: screen.exposuresUm, targets: potencies, caution: FORECAST_CAUTION,
   };
   if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
-  const stored = await storedOrComputedForecast({ plateId: null, compoundId, screenId: screen.id }, plan.request);
+  const stored = await storedOrComputedForecast({ plateId: null, compoundId, screenId: screen.id }, plan.request, { requestedBy: actor.id });
   return { ...base, reason: null, forecast: forecastView(stored, screen.exposuresUm) };
 }

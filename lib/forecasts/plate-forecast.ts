@@ -59,9 +59,10 @@ export async function listPlateForecasts(actor: Actor, plateId: string): Promise
 
 /**
  * One compound's forecast on the plate, from this plate's fits at the screen's exposures and sweep,
- * with traces at exposure `at` (default the highest): reused when stored, otherwise computed and stored.
+ * with traces at exposure `at` (default the highest): reused when stored, otherwise computed by a
+ * forecast job (or here, with `here: true`, when the caller is a job itself) and stored.
  */
-export async function getPlateForecast(actor: Actor, plateId: string, compoundId: string, at?: number): Promise<CompoundForecast> {
+export async function getPlateForecast(actor: Actor, plateId: string, compoundId: string, at?: number, options: { here?: boolean } = {}): Promise<CompoundForecast> {
   const { header, exposuresUm, compounds } = await plateContext(actor, plateId);
   const entry = compounds.find((c) => c.compoundId === compoundId);
   if (!entry) throw new AppError('not_found', `No compound with that id is tested on plate ${header.label}.`);
@@ -71,6 +72,6 @@ export async function getPlateForecast(actor: Actor, plateId: string, compoundId
     exposuresUm, targets: entry.targets, caution: FORECAST_CAUTION,
   };
   if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
-  const stored = await storedOrComputedForecast({ plateId: header.id, compoundId, screenId: header.screenId }, plan.request);
+  const stored = await storedOrComputedForecast({ plateId: header.id, compoundId, screenId: header.screenId }, plan.request, { here: options.here ?? false, requestedBy: actor.id });
   return { ...base, reason: null, forecast: forecastView(stored, exposuresUm) };
 }

@@ -5,7 +5,9 @@ import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import type { ForecastResult } from '@/lib/science/forecast/assemble';
 import { runForecast } from '@/lib/science/forecast/pool';
-import { ForecastRequestError, type ForecastRequest } from '@/lib/science/forecast/request-schema';
+import { ForecastRequestError, parseForecastRequest, type ForecastRequest } from '@/lib/science/forecast/request-schema';
+import { waitForJob } from '@/lib/jobs/progress';
+import { enqueueJob } from '@/lib/jobs/queue';
 import { Forecast } from '@/models';
 import { FORECAST_ENGINE } from './request';
 
@@ -50,10 +52,10 @@ export async function storedKeys(plateId: string, inputSha256s: string[]): Promi
 }
 
 /**
- * The forecast of a request: the stored one when the same input was computed before, otherwise
- * computed on the worker pool and stored. Two requests racing for the same input store one row.
+ * Computes a forecast here, on this process's worker threads, and stores it (the forecast job's work,
+ * lib/jobs/worker.ts). Two computations racing for the same input store one row.
  */
-export async function storedOrComputedForecast(owner: ForecastOwner, request: ForecastRequest): Promise<StoredForecast> {
+export async function computeAndStoreForecast(owner: ForecastOwner, request: ForecastRequest): Promise<StoredForecast> {
   const { input, inputSha256 } = forecastInput(request);
   const found = await findStored(owner, inputSha256);
   if (found) return found;
@@ -75,4 +77,43 @@ export async function storedOrComputedForecast(owner: ForecastOwner, request: Fo
     );
     return { result: computed, inputSha256, computedAt: new Date(row.computedAt).toISOString(), reused: false };
   });
+}
+
+/** How long a web request waits for a queued forecast before answering that it is still queued. */
+export const FORECAST_WAIT_MS = 45_000;
+
+/** The job data of one forecast: who it belongs to and the request. */
+export interface ForecastJobData {
+  owner: ForecastOwner;
+  request: ForecastRequest;
+}
+
+/**
+ * The forecast of a request: the stored one when the same input was computed before; otherwise a
+ * forecast job is queued (or joined, when someone asked for the same input a moment ago) and its
+ * result awaited. `here: true` computes in this process instead (used by jobs themselves).
+ */
+export async function storedOrComputedForecast(owner: ForecastOwner, request: ForecastRequest, options: { here?: boolean; requestedBy?: string | null } = {}): Promise<StoredForecast> {
+  if (options.here) return computeAndStoreForecast(owner, request);
+  const { inputSha256 } = forecastInput(request);
+  const found = await findStored(owner, inputSha256);
+  if (found) return found;
+  try {
+    parseForecastRequest(request);
+  } catch (error) {
+    if (error instanceof ForecastRequestError) throw new AppError('invalid', `The forecast cannot run: ${error.message}`);
+    throw error;
+  }
+  const data: ForecastJobData = { owner, request };
+  const job = await enqueueJob({
+    kind: 'forecast', key: `forecast:${owner.plateId ?? 'profile'}:${owner.compoundId}:${inputSha256}`, data: data as unknown as Record<string, unknown>,
+    plateId: owner.plateId, compoundId: owner.compoundId, requestedBy: options.requestedBy ?? null, joinRunning: true,
+  });
+  const finished = await waitForJob(job.id, FORECAST_WAIT_MS);
+  if (finished.state === 'failed') throw new AppError('invalid', `The forecast failed: ${finished.message ?? 'no reason was given.'}`);
+  const stored = finished.state === 'done' ? await findStored(owner, inputSha256) : null;
+  if (!stored) {
+    throw new AppError('unavailable', 'The forecast is queued but no worker has finished it yet; it will be stored when one does. Try again in a minute.', { jobId: job.id });
+  }
+  return { ...stored, reused: false };
 }

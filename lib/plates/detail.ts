@@ -11,6 +11,8 @@ export interface PlateHeader {
   format: number;
   state: PlateState;
   version: number;
+  /** True while the fits wait for the refit queued by an import or a change (lib/jobs). */
+  fitsPending: boolean;
   screenId: string;
   screenName: string;
   neuronPreset: string;
@@ -76,7 +78,7 @@ export interface FitRow {
 export async function getPlateHeader(actor: Actor, plateId: string): Promise<PlateHeader> {
   void actor; // every signed-in role may read plates
   const [plate] = await db().query<Omit<PlateHeader, 'targets'>>(
-    `select p.id, p.label, p.format, p.state, p.version, p.screen_id as "screenId", s.name as "screenName", s.neuron_preset as "neuronPreset",
+    `select p.id, p.label, p.format, p.state, p.version, p.fits_pending as "fitsPending", p.screen_id as "screenId", s.name as "screenName", s.neuron_preset as "neuronPreset",
             s.zprime_min as "zprimeMin", s.exposures_um as "exposuresUm", p.imported_by as "importedBy", u.name as "importedByName",
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt", f.filename, f.sha256, p.qc_summary as "qcSummary"
        from plates p join screens s on s.id = p.screen_id join users u on u.id = p.imported_by join uploaded_files f on f.id = p.uploaded_file_id

@@ -108,7 +108,7 @@ export interface CommitRequest extends PreviewRequest {
   supersedesPlateId?: string | undefined;
 }
 
-/** Step 3: stores the plate, its wells, readouts, QC and fits, and the template, all in one transaction. */
+/** Step 3: stores the plate, its wells, readouts and QC, its queued fit job, and the template, all in one transaction. */
 export async function commitImport(actor: Actor, request: CommitRequest): Promise<{ plateId: string }> {
   const preview = await previewImport(actor, request);
   if (!preview.ok || !preview.plate) {

@@ -5,7 +5,6 @@ import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import type { HillModelName } from '@/lib/science/hill-model';
-import { fitKey } from '@/lib/science/plate-analysis';
 import { Fit, Plate, Well } from '@/models';
 import type { PlateState } from '@/models/plate';
 import { recomputePlate } from './recompute';
@@ -32,7 +31,7 @@ export interface ExclusionChange {
   expectedVersion?: number;
 }
 
-/** Excludes or re-includes wells with a reason; fits and QC recompute at once; each well's change is audited. */
+/** Excludes or re-includes wells with a reason; QC recomputes at once and the refit is queued; each well's change is audited. */
 export async function setWellExclusion(actor: Actor, plateId: string, change: ExclusionChange): Promise<{ version: number; changed: number }> {
   requireRole(actor, 'biologist');
   const reason = change.reason.trim();
@@ -58,7 +57,7 @@ export async function setWellExclusion(actor: Actor, plateId: string, change: Ex
   });
 }
 
-/** Switches one fit between the two- and four-parameter Hill model; audited. */
+/** Switches one fit between the two- and four-parameter Hill model and queues the refit; audited. */
 export async function setFitModel(actor: Actor, plateId: string, change: { compoundId: string; targetId: string; model: HillModelName; expectedVersion?: number }): Promise<{ version: number }> {
   requireRole(actor, 'biologist');
   return db().transaction(async (transaction) => {
@@ -66,10 +65,13 @@ export async function setFitModel(actor: Actor, plateId: string, change: { compo
     const fit = await Fit.findOne({ where: { plateId, compoundId: change.compoundId, targetId: change.targetId }, transaction });
     if (!fit) throw new AppError('not_found', 'This plate has no fit for that compound and target.');
     if (fit.model !== change.model) {
-      await recomputePlate(plate, actor.id, transaction, { [fitKey(change.compoundId, change.targetId)]: change.model });
+      // The refit job keeps each fit's chosen model: record the choice, then queue the refit.
+      const before = { compoundId: change.compoundId, targetId: change.targetId, model: fit.model, status: fit.status, ic50Um: fit.ic50Um };
+      await fit.update({ model: change.model }, { transaction });
+      await recomputePlate(plate, actor.id, transaction);
       await recordAudit({
         actorId: actor.id, action: 'change_fit_model', entityType: 'plate', entityId: plateId, address: actor.address,
-        before: { compoundId: change.compoundId, targetId: change.targetId, model: fit.model, status: fit.status, ic50Um: fit.ic50Um },
+        before,
         after: { compoundId: change.compoundId, targetId: change.targetId, model: change.model },
       }, transaction);
     }

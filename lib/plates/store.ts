@@ -6,8 +6,8 @@ import type { Actor } from '@/lib/auth/roles';
 import { AppError } from '@/lib/errors';
 import type { ParsedPlate } from '@/lib/imports/build-plate';
 import { analysePlate, type AnalysisReadout, type AnalysisWell } from '@/lib/science/plate-analysis';
-import { Fit, Plate, Readout, Screen, Target, UploadedFile, Well } from '@/models';
-import { fitRow } from './fit-row';
+import { Plate, Readout, Screen, Target, UploadedFile, Well } from '@/models';
+import { queueRefit } from './recompute';
 import { analysisSettings } from './settings';
 
 export interface StorePlateInput {
@@ -50,7 +50,7 @@ async function idsByName(screenId: string, plate: ParsedPlate, transaction: Tran
 
 /**
  * Writes an imported plate in the caller's transaction: the raw file with its SHA-256, the plate, its
- * wells and readouts with QC reasons and block, Z′ per target and the Hill fits, and the audit event.
+ * wells and readouts with QC reasons and block, Z′ per target, the queued fit job, and the audit event.
  */
 export async function storePlate(actor: Actor, input: StorePlateInput, transaction: Transaction): Promise<{ plateId: string }> {
   const screen = await Screen.findByPk(input.screenId, { transaction });
@@ -82,10 +82,11 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
       exclusionReason: null, excludedBy: null, excludedAt: null,
     };
   });
-  const analysis = analysePlate(wells, readouts, analysisSettings(screen));
+  // QC, block and Z′ are stored with the plate; the fits come from the job queued below.
+  const analysis = analysePlate(wells, readouts, analysisSettings(screen), { fits: false });
 
   await Plate.create(
-    { id: plateId, screenId: screen.id, uploadedFileId: file.id, importTemplateId: input.importTemplateId ?? null, supersedesPlateId: input.supersedesPlateId ?? null, label: input.label, format: input.plate.format, importedBy: actor.id, verifiedBy: null, submittedBy: null, decidedBy: null, qcSummary: analysis.targets },
+    { id: plateId, screenId: screen.id, uploadedFileId: file.id, importTemplateId: input.importTemplateId ?? null, supersedesPlateId: input.supersedesPlateId ?? null, label: input.label, format: input.plate.format, importedBy: actor.id, verifiedBy: null, submittedBy: null, decidedBy: null, qcSummary: analysis.targets, fitsPending: true, fitsRequestedAt: new Date(), fittedAt: null },
     { transaction },
   );
   await Well.bulkCreate(wellRows, { transaction });
@@ -93,11 +94,11 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
     readouts.map((r, i) => ({ id: r.id, wellId: r.wellId, targetId: r.target, controlCurrentPa: r.controlCurrent_pA, compoundCurrentPa: r.compoundCurrent_pA, fractionalBlock: analysis.readouts[i]!.block, qcReasons: analysis.readouts[i]!.qcReasons })),
     { transaction },
   );
-  await Fit.bulkCreate(analysis.fits.map((f) => fitRow(f, { plateId, compoundId: f.compoundId, targetId: f.target, computedBy: actor.id })), { transaction });
+  const fitJob = await queueRefit(plateId, actor.id, transaction);
   await recordAudit(
     {
       actorId: actor.id, action: 'import', entityType: 'plate', entityId: plateId, address: actor.address,
-      after: { label: input.label, screenId: screen.id, format: input.plate.format, filename: input.file.filename, sha256, wells: wellRows.length, readouts: readouts.length, fits: analysis.fits.length, supersedesPlateId: input.supersedesPlateId ?? null },
+      after: { label: input.label, screenId: screen.id, format: input.plate.format, filename: input.file.filename, sha256, wells: wellRows.length, readouts: readouts.length, fitJobId: fitJob.id, supersedesPlateId: input.supersedesPlateId ?? null },
     },
     transaction,
   );

@@ -72,8 +72,11 @@ const SCIENCE_ROLE: Record<AnalysisWell['role'], WellRole> = { vehicle: 'vehicle
 
 export const fitKey = (compoundId: string, target: string): string => `${compoundId}|${target}`;
 
-/** Analyses one plate; readouts of unknown wells are a programming error and throw. */
-export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly AnalysisReadout[], settings: AnalysisSettings = {}): PlateAnalysis {
+/**
+ * Analyses one plate; readouts of unknown wells are a programming error and throw. With
+ * `{ fits: false }` it stops after QC, block and Z′ (the fits then come from a job, lib/jobs).
+ */
+export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly AnalysisReadout[], settings: AnalysisSettings = {}, options: { fits?: boolean } = {}): PlateAnalysis {
   const wellById = new Map(wells.map((w) => [w.id, w]));
   const wellOf = (r: AnalysisReadout): AnalysisWell => {
     const well = wellById.get(r.wellId);
@@ -120,7 +123,7 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
     targets: blocks.map((t) => ({
       target: t.target, zPrime: t.zPrime, rundownCorrected: t.rundownCorrected, normalised: t.normalised, vehicleMeanRatio: t.vehicleMeanRatio, notes: t.notes,
     })),
-    fits: [...groups.entries()].map(([key, g]) => {
+    fits: options.fits === false ? [] : [...groups.entries()].map(([key, g]) => {
       const model = settings.models?.[key] ?? 'hill2';
       return { compoundId: g.compoundId, target: g.target, model, result: fitHill({ concentration_uM: g.c, block: g.b, excluded: g.x }, { model }) };
     }),

@@ -40,6 +40,9 @@ function mayActNext(plate: Plate, userId: string): boolean {
   return stepsFrom(plate.state).some((next) => next.dutyConflict(plate, userId) === null);
 }
 
+/** States a plate reaches only with current fits (the database checks submitted and approved as well). */
+const SIGNED_OVER_FITS: PlateState[] = ['verified', 'submitted', 'approved'];
+
 async function lockForStep(actor: Actor, plateId: string, step: SignoffStep, expectedVersion: number | undefined, transaction: Transaction): Promise<Plate> {
   const plate = await Plate.findByPk(plateId, { transaction, lock: transaction.LOCK.UPDATE });
   if (!plate) throw new AppError('not_found', 'No such plate.');
@@ -49,6 +52,10 @@ async function lockForStep(actor: Actor, plateId: string, step: SignoffStep, exp
   }
   const conflict = step.dutyConflict(plate, actor.id);
   if (conflict) throw new AppError('forbidden', conflict);
+  // A signature covers the fits: it waits until the refit queued by the last change has run.
+  if (plate.fitsPending && SIGNED_OVER_FITS.includes(step.to)) {
+    throw new AppError('conflict', `The fits of plate ${plate.label} are still being computed after its last change; sign once the plate page shows them current. Nothing was signed.`);
+  }
   return plate;
 }
 

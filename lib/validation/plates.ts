@@ -73,7 +73,7 @@ export const fitViewSchema = z.object({
   curve: z.array(bandPoint),
 });
 
-export const fitsResponseSchema = z.object({ version: z.number().int(), state: z.string(), fits: z.array(fitViewSchema) });
+export const fitsResponseSchema = z.object({ version: z.number().int(), state: z.string(), fitsPending: z.boolean(), fits: z.array(fitViewSchema) });
 
 export type WellRowView = z.infer<typeof wellRowSchema>;
 export type FitView = z.infer<typeof fitViewSchema>;

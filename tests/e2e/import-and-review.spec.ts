@@ -49,7 +49,7 @@ test('a biologist imports an export, reviews QC, excludes a well and sees the fi
   await expect(page.getByText('1 well(s) selected')).toBeVisible();
   await page.getByLabel(/Reason/).fill('seal lost during compound addition (e2e)');
   await page.getByRole('button', { name: 'Exclude', exact: true }).click();
-  await expect(page.getByText('1 well(s) excluded; fits recomputed.')).toBeVisible();
+  await expect(page.getByText('1 well(s) excluded; QC recomputed, fits queued for a refit.')).toBeVisible();
 
   await page.getByRole('link', { name: 'Fits' }).click();
   await expect(card).toBeVisible();

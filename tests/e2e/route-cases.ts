@@ -57,6 +57,7 @@ export const ROUTE_CASES: RouteCase[] = [
   api('GET /api/plates/[plateId]/export', undefined, 'passes'),
   api('GET /api/plates/[plateId]/fits'),
   api('GET /api/plates/[plateId]/forecast', undefined, 'passes'),
+  api('GET /api/plates/[plateId]/jobs'),
   api('GET /api/plates/[plateId]/wells'),
   api('POST /api/compounds/bulk', ['chemist', 'admin'], 'passes'),
   api('POST /api/imports/inspect', ['biologist'], 'passes'),
@@ -64,4 +65,5 @@ export const ROUTE_CASES: RouteCase[] = [
   api('POST /api/imports/commit', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/exclusions', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/fit-model', ['biologist'], 'passes'),
+  api('POST /api/plates/[plateId]/jobs', undefined, 'passes'),
 ];

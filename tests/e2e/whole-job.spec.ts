@@ -42,7 +42,9 @@ test('import, review, exclude, fits and forecast, verify, submit, approve with s
   await grid.getByRole('row').filter({ hasText: 'GW-0009' }).filter({ hasText: 'passed' }).first().getByRole('checkbox').check();
   await biologist.getByLabel(/Reason/).fill('whole-job test: seal drift seen in the trace');
   await biologist.getByRole('button', { name: 'Exclude', exact: true }).click();
-  await expect(biologist.getByText('1 well(s) excluded; fits recomputed.')).toBeVisible();
+  await expect(biologist.getByText('1 well(s) excluded; QC recomputed, fits queued for a refit.')).toBeVisible();
+  // The refit is a job that the worker process takes; the page shows it until the fits are current.
+  await expect(biologist.getByTestId('fit-status')).toBeHidden({ timeout: 30_000 });
 
   // Fits and forecast.
   await biologist.getByRole('link', { name: 'Fits' }).click();

@@ -10,6 +10,7 @@ import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { fitsCurrent } from '../support/jobs';
 
 const run = promisify(execFile);
 const TARGET = `gatewell_restore_${process.pid}`;
@@ -55,7 +56,7 @@ describe('a backup restores into a fresh database with every row and the audit g
     const { bytes, manifest } = demoFile('nav-96-plate-01.xlsx');
     const upload = { screenId: screens[manifest.target]!, bytes, filename: 'p.xlsx', mediaType: 'application/octet-stream' };
     const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-    await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate });
+    await fitsCurrent((await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate })).plateId);
   });
   afterAll(async () => {
     await withClient(Object.assign(new URL(testUrl.href), { pathname: '/postgres' }).href, (client) => client.query(`drop database if exists ${TARGET} with (force)`));

@@ -15,6 +15,7 @@ import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { importDemoPlate } from '../support/demo-plates';
 import { makeDemoScreens } from '../support/demo-scenario';
+import { fitsCurrent } from '../support/jobs';
 
 describe('plate forecasts', () => {
   let biologist: Actor;
@@ -119,6 +120,7 @@ describe('plate forecasts', () => {
     const before = await getPlateForecast(reader, navPlate, id);
     const well = (await listPlateWells(biologist, navPlate)).find((w) => w.compoundId === id && w.qcReasons.length === 0 && w.concentrationUm === 0.03)!;
     await setWellExclusion(biologist, navPlate, { wellIds: [well.id], excluded: true, reason: 'seal lost during the compound addition' });
+    await fitsCurrent(navPlate);
     const after = await getPlateForecast(reader, navPlate, id);
     expect(after.forecast!.reused).toBe(false);
     expect(after.forecast!.inputSha256).not.toBe(before.forecast!.inputSha256);

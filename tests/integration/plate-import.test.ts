@@ -6,6 +6,7 @@ import { AuditEvent, Fit, Plate, Readout, UploadedFile, Well } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { fitsCurrent } from '../support/jobs';
 
 const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
 
@@ -30,7 +31,9 @@ describe('plate import on the real database', () => {
     const inspection = await inspectUpload(biologist, upload);
     const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet)!;
     const request = { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate };
-    return { manifest, request, ...(await commitImport(biologist, request)) };
+    const stored = await commitImport(biologist, request);
+    await fitsCurrent(stored.plateId);
+    return { manifest, request, ...stored };
   }
 
   test.each(['nav-96-plate-01.xlsx', 'nav-384-plate-02.xlsx', 'kv-96-plate-01.csv'])(

@@ -7,6 +7,7 @@ import { plateFilterSchema } from '@/lib/validation/plate-filter';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { fitsCurrent } from '../support/jobs';
 
 describe('plates list filters on the real database', () => {
   let biologist: Actor;
@@ -20,7 +21,7 @@ describe('plates list filters on the real database', () => {
       const { bytes, manifest } = demoFile(name);
       const upload = { screenId: screens[manifest.target]!, bytes, filename: name, mediaType: 'application/octet-stream' };
       const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-      await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate });
+      await fitsCurrent((await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate })).plateId);
     }
   });
   afterAll(() => db().close());

@@ -5,10 +5,11 @@ import { db } from '@/lib/db';
 import { listPlateFits, listPlateWells } from '@/lib/plates/detail';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { setFitModel, setWellExclusion } from '@/lib/plates/review';
-import { AuditEvent, Plate, Well } from '@/models';
+import { AuditEvent, ComputeJob, Plate, Well } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { fitsCurrent } from '../support/jobs';
 
 describe('plate review on the real database', () => {
   let biologist: Actor;
@@ -22,21 +23,25 @@ describe('plate review on the real database', () => {
     const upload = { screenId: screens[manifest.target]!, bytes, filename: 'p.xlsx', mediaType: 'application/octet-stream' };
     const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
     ({ plateId } = await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate }));
+    await fitsCurrent(plateId);
   });
   afterAll(() => db().close());
 
   const fitOf = async (compound: string) => (await listPlateFits(biologist, plateId)).find((f) => f.compound === compound)!;
 
-  test('excluding a well with a reason recomputes the fit at once and audits the change', async () => {
+  test('excluding a well with a reason marks the fits pending, queues the refit, and audits the change', async () => {
     const before = await fitOf('GW-0001');
     const well = (await listPlateWells(biologist, plateId)).find((w) => w.compound === 'GW-0001' && w.qcReasons.length === 0)!;
     const result = await setWellExclusion(biologist, plateId, { wellIds: [well.id], excluded: true, reason: 'bubble seen in the trace' });
     expect(result.changed).toBe(1);
+    expect(await ComputeJob.count({ where: { plateId, kind: 'plate-fits' } })).toBe(2); // the import's and this change's
+    await fitsCurrent(plateId);
     const after = await fitOf('GW-0001');
     expect(after.n).toBe(before.n - 1);
     expect(after.ic50Um).not.toBe(before.ic50Um);
     expect(await AuditEvent.count({ where: { action: 'exclude_well', entityId: well.id, reason: 'bubble seen in the trace' } })).toBe(1);
     await setWellExclusion(biologist, plateId, { wellIds: [well.id], excluded: false, reason: 'trace re-read: fine' });
+    await fitsCurrent(plateId);
     expect((await fitOf('GW-0001')).n).toBe(before.n);
   });
 
@@ -57,7 +62,10 @@ describe('plate review on the real database', () => {
   test('switching a fit to the four-parameter model is stored and audited', async () => {
     const fit = await fitOf('GW-0002');
     await setFitModel(biologist, plateId, { compoundId: fit.compoundId, targetId: fit.targetId, model: 'hill4' });
-    expect((await fitOf('GW-0002')).model).toBe('hill4');
+    await fitsCurrent(plateId);
+    const refitted = await fitOf('GW-0002');
+    expect(refitted.model).toBe('hill4');
+    expect(refitted.bottom).not.toBe(fit.bottom); // the four-parameter fit frees the bottom plateau
     expect((await fitOf('GW-0001')).model).toBe('hill2');
     expect(await AuditEvent.count({ where: { action: 'change_fit_model', entityId: plateId } })).toBe(1);
   });

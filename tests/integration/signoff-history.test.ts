@@ -9,6 +9,7 @@ import { signPlateStep } from '@/lib/signoff/service';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { PASSWORD, signoffCast, type SignoffCast } from '../support/signoff-scenario';
+import { fitsCurrent } from '../support/jobs';
 
 describe('plate history, the sign-off panel and the outbox listing', () => {
   let cast: SignoffCast;
@@ -22,6 +23,7 @@ describe('plate history, the sign-off panel and the outbox listing', () => {
     await signPlateStep(cast.chemist, cast.plateId, { action: 'verify', password: PASSWORD });
     const [well] = await listPlateWells(cast.biologist, cast.plateId);
     await setWellExclusion(cast.biologist, cast.plateId, { wellIds: [well!.id], excluded: true, reason: 'bubble' });
+    await fitsCurrent(cast.plateId);
     await expect(signPlateStep(cast.biologist, cast.plateId, { action: 'submit', password: 'wrong-password' })).rejects.toMatchObject({ code: 'invalid' });
     const submitted = await signPlateStep(cast.biologist, cast.plateId, { action: 'submit', password: PASSWORD, comment: 'ready' });
     const history = await plateHistory(cast.approver, cast.plateId);

@@ -7,6 +7,7 @@ import { signPlateStep } from '@/lib/signoff/service';
 import { AuditEvent, MailMessage, Plate, Signature, SignoffEvent } from '@/models';
 import { resetDatabase } from '../support/database';
 import { PASSWORD, signoffCast, type SignoffCast } from '../support/signoff-scenario';
+import { fitsCurrent } from '../support/jobs';
 
 describe('plate sign-off on the real database', () => {
   let cast: SignoffCast;
@@ -55,6 +56,7 @@ describe('plate sign-off on the real database', () => {
     const verified = await signPlateStep(chemist, plateId, { action: 'verify', password: PASSWORD });
     const [well] = await listPlateWells(biologist, plateId);
     await setWellExclusion(biologist, plateId, { wellIds: [well!.id], excluded: true, reason: 'seal lost during recording' });
+    await fitsCurrent(plateId);
     const submitted = await signPlateStep(biologist, plateId, { action: 'submit', password: PASSWORD });
     expect(submitted.contentSha256).not.toBe(verified.contentSha256);
     await signPlateStep(approver, plateId, { action: 'reject', password: PASSWORD, comment: 'Explain the exclusion.' });

@@ -2,6 +2,7 @@ import type { Actor } from '@/lib/auth/roles';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { makeActor } from './actors';
 import { demoFile, makeDemoScreens } from './demo-scenario';
+import { fitsCurrent } from './jobs';
 
 export const PASSWORD = 'test-password-123';
 
@@ -26,5 +27,6 @@ export async function signoffCast(file = 'nav-96-plate-01.xlsx'): Promise<Signof
   const upload = { screenId: screens[manifest.target]!, bytes, filename: file, mediaType: 'application/octet-stream' };
   const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
   const { plateId } = await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate });
+  await fitsCurrent(plateId);
   return { admin, chemist, biologist, approver, approver2, plateId };
 }

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { DownloadMenu } from '@/components/exports/download-menu';
+import { PlateFitStatus } from '@/components/plates/plate-jobs';
 import { PlateTabs } from '@/components/plates/plate-tabs';
 import { StateBadge } from '@/components/ui/state-badge';
 import { loadPlate } from './plate-header';
@@ -22,6 +23,7 @@ export default async function PlateLayout({ children, params }: { children: Reac
         <DownloadMenu kind="plate" id={header.id} />
       </div>
       <PlateTabs plateId={header.id} />
+      <PlateFitStatus plateId={header.id} fitsPending={header.fitsPending} />
       {children}
     </>
   );

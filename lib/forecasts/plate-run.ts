@@ -1,0 +1,44 @@
+import 'server-only';
+import { loadActor } from '@/lib/auth/load-actor';
+import type { Actor } from '@/lib/auth/roles';
+import { AppError } from '@/lib/errors';
+import { enqueueJob, type QueuedJob } from '@/lib/jobs/queue';
+import type { Progress } from '@/lib/jobs/worker';
+import { getPlateForecast, listPlateForecasts } from './plate-forecast';
+
+/** The job data of a forecast run over a plate. */
+export interface PlateForecastsJobData {
+  plateId: string;
+  /** Exposure index for the traces (default the highest). */
+  at: number | null;
+  requestedBy: string;
+}
+
+/**
+ * Queues a forecast run over the plate: every compound with usable potencies whose forecast is not
+ * yet stored, one after another, with its progress on the plate's page. One run per plate waits at a time.
+ */
+export async function startPlateForecasts(actor: Actor, plateId: string, at: number | null): Promise<QueuedJob & { total: number }> {
+  const list = await listPlateForecasts(actor, plateId);
+  const total = list.compounds.filter((c) => c.reason === null && !c.stored).length;
+  if (total === 0) throw new AppError('conflict', `Every forecast of plate ${list.plate.label} that can be computed is stored already.`);
+  const data: PlateForecastsJobData = { plateId, at, requestedBy: actor.id };
+  const job = await enqueueJob({ kind: 'plate-forecasts', key: `plate-forecasts:${plateId}`, data: { ...data }, plateId, requestedBy: actor.id, total });
+  return { ...job, total };
+}
+
+/** The forecast run's work, on a worker: computes each missing forecast here and reports progress. */
+export async function runPlateForecasts(data: PlateForecastsJobData, progress: Progress): Promise<string> {
+  const actor = await loadActor(data.requestedBy, 'job');
+  if (!actor) throw new AppError('invalid', 'The person who asked for this run can no longer sign in.');
+  const list = await listPlateForecasts(actor, data.plateId);
+  const todo = list.compounds.filter((c) => c.reason === null && !c.stored);
+  const at = data.at ?? Math.max(0, list.exposuresUm.length - 1);
+  await progress(0, todo.length);
+  let done = 0;
+  for (const compound of todo) {
+    await getPlateForecast(actor, data.plateId, compound.compoundId, at, { here: true });
+    await progress(++done);
+  }
+  return `${done} forecast(s) computed and stored.`;
+}

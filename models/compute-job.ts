@@ -1,0 +1,49 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+export const COMPUTE_JOB_KINDS = ['plate-fits', 'forecast', 'plate-forecasts'] as const;
+export type ComputeJobKind = (typeof COMPUTE_JOB_KINDS)[number];
+export const COMPUTE_JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
+export type ComputeJobState = (typeof COMPUTE_JOB_STATES)[number];
+
+/** What Gatewell shows of one queued fit or forecast job; the id is the job's id on the queue. */
+export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreationAttributes<ComputeJob>> {
+  declare id: string;
+  declare kind: ComputeJobKind;
+  /** The work it stands for (plate, or plate + forecast input): at most one queued job per key. */
+  declare jobKey: string;
+  declare plateId: string | null;
+  declare compoundId: string | null;
+  declare requestedBy: string | null;
+  declare state: CreationOptional<ComputeJobState>;
+  declare done: CreationOptional<number>;
+  declare total: CreationOptional<number | null>;
+  declare message: CreationOptional<string | null>;
+  declare attempts: CreationOptional<number>;
+  declare worker: CreationOptional<string | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare startedAt: CreationOptional<Date | null>;
+  declare finishedAt: CreationOptional<Date | null>;
+
+  static initModel(sequelize: Sequelize): void {
+    ComputeJob.init(
+      {
+        id: { type: DataTypes.UUID, primaryKey: true },
+        kind: { type: DataTypes.TEXT, allowNull: false },
+        jobKey: { type: DataTypes.TEXT, allowNull: false },
+        plateId: { type: DataTypes.UUID, allowNull: true },
+        compoundId: { type: DataTypes.UUID, allowNull: true },
+        requestedBy: { type: DataTypes.UUID, allowNull: true },
+        state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'queued' },
+        done: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        total: { type: DataTypes.INTEGER, allowNull: true },
+        message: { type: DataTypes.TEXT, allowNull: true },
+        attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        worker: { type: DataTypes.TEXT, allowNull: true },
+        createdAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+        startedAt: { type: DataTypes.DATE, allowNull: true },
+        finishedAt: { type: DataTypes.DATE, allowNull: true },
+      },
+      { sequelize, tableName: 'compute_jobs', underscored: true, timestamps: false },
+    );
+  }
+}
