@@ -1,9 +1,8 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-export const COMPUTE_JOB_KINDS = ['plate-fits', 'forecast', 'plate-forecasts'] as const;
-export type ComputeJobKind = (typeof COMPUTE_JOB_KINDS)[number];
-export const COMPUTE_JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
-export type ComputeJobState = (typeof COMPUTE_JOB_STATES)[number];
+import type { ComputeJobKind, ComputeJobState } from './compute-job-kinds';
+
+export { COMPUTE_JOB_KINDS, COMPUTE_JOB_STATES, type ComputeJobKind, type ComputeJobState } from './compute-job-kinds';
 
 /** What Gatewell shows of one queued fit or forecast job; the id is the job's id on the queue. */
 export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreationAttributes<ComputeJob>> {
