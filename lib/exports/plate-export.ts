@@ -38,7 +38,7 @@ function fitsTable(fits: Awaited<ReturnType<typeof listPlateFits>>): ExportTable
 export async function plateExport(actor: Actor, plateId: string): Promise<{ label: string; document: ExportDocument }> {
   const header = await getPlateHeader(actor, plateId);
   const [wells, fits, signoffs, list] = await Promise.all([listPlateWells(actor, plateId), listPlateFits(actor, plateId), listPlateSignoffs([plateId]), listPlateForecasts(actor, plateId)]);
-  // All at once: the worker pool queues the conditions of every compound and the shared control runs once.
+  // All at once: each missing forecast is a job on the queue, and the workers share the control's computation.
   const forecasts = await Promise.all(list.compounds.map((c) => getPlateForecast(actor, plateId, c.compoundId)));
   const about: ExportDocument['about'] = [
     ['Gatewell export', `Plate ${header.label}: wells, fits and forecast`],
@@ -46,6 +46,7 @@ export async function plateExport(actor: Actor, plateId: string): Promise<{ labe
     ['Plate', header.label],
     ['State', STATE_WORDS[header.state]],
     ['Plate version', header.version],
+    ['Fits', header.fitsPending ? 'being recomputed after the last change: these are the fits before it; export again once the plate page shows them current' : 'current'],
     ['Screen', header.screenName],
     ['Plate format (wells)', header.format],
     ['Imported by', header.importedByName],
