@@ -1,5 +1,6 @@
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
+import { isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { db } from '@/lib/db';
 import { commitImport, inspectUpload, type CommitRequest } from '@/lib/plates/import-service';
 import { MailMessage, Plate, UploadedFile } from '@/models';
@@ -56,12 +57,13 @@ describe('a database restart during an import', () => {
     expect(backend).toMatchObject({ waiting: 'Lock', xid: expect.stringMatching(/^\d+$/) });
     await watcher.end();
 
-    testCluster('restart', mode);
+    await testCluster('restart', mode);
     const failure = await importing;
     await holder.end().catch(() => undefined);
 
     // The lost connection as the database and pg report it: the shutdown notice, the ended connection, or a broken client refused.
     expect(failure).toMatchObject({ name: 'SequelizeDatabaseError', message: expect.stringMatching(/^(terminating connection due to administrator command|Connection terminated unexpectedly|Client has encountered a connection error and is not queryable)$/) });
+    expect(isDatabaseUnavailable(failure)).toBe(true); // so routes answer 503 "cannot reach its database … nothing was changed"
 
     // Nothing of that import is left: no plate, wells, readouts, fits, file, template, audit event or notice.
     expect(await importRowCounts()).toEqual(before);
@@ -73,5 +75,22 @@ describe('a database restart during an import', () => {
     expect((await Plate.findByPk(plateId))?.label).toBe(request.label);
     expect(await UploadedFile.count({ where: { filename: FILE } })).toBe(1);
     expect(await MailMessage.count({ where: { plateId } })).toBeGreaterThan(0);
+  });
+
+  test('with the database stopped the import is refused as unavailable, and after the start it goes through', async () => {
+    const request = await commitRequest(biologist, screenId);
+    const before = await importRowCounts();
+    await testCluster('stop');
+    let failure: unknown;
+    try {
+      failure = await commitImport(biologist, request).then(() => new Error('the import succeeded with the database stopped'), (error: unknown) => error);
+    } finally {
+      await testCluster('start');
+    }
+    expect(failure).toMatchObject({ name: 'SequelizeConnectionRefusedError' });
+    expect(isDatabaseUnavailable(failure)).toBe(true);
+    expect(await importRowCounts()).toEqual(before);
+    const { plateId } = await commitImport(biologist, request);
+    expect((await Plate.findByPk(plateId))?.label).toBe(request.label);
   });
 });

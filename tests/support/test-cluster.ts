@@ -1,6 +1,7 @@
-import { execFileSync } from 'node:child_process';
+import { execFile } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
+import { promisify } from 'node:util';
 import pg from 'pg';
 
 /** The test run's PostgreSQL cluster (scripts/pg.sh test or test-NAME, as scripts/test.sh names it). */
@@ -26,11 +27,14 @@ function checkClusterIsTheTestDatabase(instance: string): void {
   }
 }
 
-/** Runs scripts/pg.sh on the test cluster, e.g. restart in immediate mode; returns when the command has finished. */
-export function testCluster(command: 'restart' | 'stop' | 'start', mode: 'fast' | 'immediate' = 'fast'): void {
+/**
+ * Runs scripts/pg.sh on the test cluster, e.g. restart in immediate mode, and resolves when it has finished.
+ * Asynchronous on purpose: the pool sees its connections end while the command runs, as a server would.
+ */
+export async function testCluster(command: 'restart' | 'stop' | 'start', mode: 'fast' | 'immediate' = 'fast'): Promise<void> {
   const instance = testClusterInstance();
   if (command !== 'start') checkClusterIsTheTestDatabase(instance);
-  execFileSync('bash', ['scripts/pg.sh', command, instance, mode], { stdio: ['ignore', 'ignore', 'pipe'], timeout: 120_000 });
+  await promisify(execFile)('bash', ['scripts/pg.sh', command, instance, mode], { timeout: 120_000 });
 }
 
 /** A connection of its own to the test database, outside Gatewell's pool; errors after a restart are expected and ignored. */
