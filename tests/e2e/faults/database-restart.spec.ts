@@ -1,4 +1,5 @@
 import { expect, test } from '@playwright/test';
+import { waitForMessages } from '../../support/fake-smtp';
 import { DEMO, screenshot, signedInContext } from '../support';
 import { database, importThroughApi, potassiumScreenId, waitForHealthy } from './fault-support';
 
@@ -72,4 +73,6 @@ test('right after an immediate restart (a crash and recovery) the first requests
   const imported = await importThroughApi(page.request, baseURL!, screenId, 'KV-AFTER-RESTART');
   expect(imported.status, JSON.stringify(imported.body)).toBe(201);
   expect((await (await page.request.get('/api/health')).json()).status).toBe('ok');
+  // The server's background mail sender (a pass every 15 s) came through the restart too: the chemists' notice goes out.
+  await waitForMessages((m) => m.subject === 'Gatewell: plate KV-AFTER-RESTART imported: compound map to verify', 1, 90_000);
 });
