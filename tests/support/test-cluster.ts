@@ -4,7 +4,7 @@ import path from 'node:path';
 import { promisify } from 'node:util';
 import pg from 'pg';
 
-/** The test run's PostgreSQL cluster (scripts/pg.sh test or test-NAME, as scripts/test.sh names it). */
+/** The test run's instance (scripts/pg.sh and scripts/fake-smtp.sh test or test-NAME, as scripts/test.sh names it). */
 export function testClusterInstance(): string {
   return process.env.GATEWELL_TEST_INSTANCE ?? 'test';
 }

@@ -15,7 +15,7 @@ test('with the database stopped the server answers clearly, and once it is back 
   await page.goto('/plates');
   await expect(page.getByRole('link', { name: 'NAV-P01' })).toBeVisible();
 
-  database('stop', 'immediate');
+  await database('stop', 'immediate');
   try {
     const health = await page.request.get('/api/health');
     expect(health.status()).toBe(503);
@@ -38,7 +38,7 @@ test('with the database stopped the server answers clearly, and once it is back 
     await expect(visitor.getByRole('alert').filter({ hasText: UNAVAILABLE })).toBeVisible();
     await expect(visitor.getByLabel('E-mail')).toHaveValue(DEMO.approver.email);
   } finally {
-    database('start');
+    await database('start');
   }
   await waitForHealthy(page.request);
 
@@ -64,7 +64,7 @@ test('right after an immediate restart (a crash and recovery) the first requests
   await expect(page.getByRole('link', { name: 'NAV-P01' })).toBeVisible();
 
   // pg.sh restart returns once the cluster accepts connections again; no health poll before the next requests.
-  database('restart', 'immediate');
+  await database('restart', 'immediate');
   await page.goto('/plates');
   await expect(page.getByRole('link', { name: 'NAV-P01' })).toBeVisible();
   const { page: approver } = await signedInContext(browser, 'approver');

@@ -1,38 +1,20 @@
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import path from 'node:path';
 import { expect, type APIRequestContext } from '@playwright/test';
+import { testCluster, testClusterInstance } from '../../support/test-cluster';
 import { queryOne } from '../support';
 
-/** The test run's instance name, as scripts/test.sh passes it to scripts/pg.sh and scripts/fake-smtp.sh. */
-const instance = () => process.env.GATEWELL_TEST_INSTANCE ?? 'test';
-
-/** Runs one of Gatewell's service scripts on this run's instance and fails with its own words if it fails. */
-function runScript(script: 'pg.sh' | 'fake-smtp.sh', ...args: string[]): void {
+/** Stops or starts this run's fake SMTP server (scripts/fake-smtp.sh) and fails with the script's own words if it fails. */
+export function mailServer(command: 'stop' | 'start'): void {
   try {
-    execFileSync('bash', [`scripts/${script}`, args[0]!, instance(), ...args.slice(1)], { stdio: ['ignore', 'ignore', 'pipe'], timeout: 120_000 });
+    execFileSync('bash', ['scripts/fake-smtp.sh', command, testClusterInstance()], { stdio: ['ignore', 'ignore', 'pipe'], timeout: 60_000 });
   } catch (error) {
-    throw new Error(`scripts/${script} ${args.join(' ')} ${instance()} failed: ${String((error as { stderr?: Buffer }).stderr ?? error)}`);
+    throw new Error(`scripts/fake-smtp.sh ${command} ${testClusterInstance()} failed: ${String((error as { stderr?: Buffer }).stderr ?? error)}`);
   }
 }
 
-/** The pid file of the instance's cluster names its port (fourth line): it must be the port the server uses. */
-function checkClusterOfServer(): void {
-  const port = new URL(process.env.DATABASE_URL ?? 'postgres://missing').port;
-  const listening = readFileSync(path.join('.pgdata', instance(), 'postmaster.pid'), 'utf8').split('\n')[3]?.trim();
-  if (!port || listening !== port) throw new Error(`cluster ${instance()} listens on ${listening}, DATABASE_URL on ${port}: set GATEWELL_TEST_INSTANCE`);
-}
-
-/** Stops or starts this run's PostgreSQL cluster under the running server (scripts/pg.sh). */
-export function database(command: 'stop' | 'start' | 'restart', mode: 'fast' | 'immediate' = 'fast'): void {
-  if (command !== 'start') checkClusterOfServer();
-  runScript('pg.sh', command, mode);
-}
-
-/** Stops or starts this run's fake SMTP server (scripts/fake-smtp.sh). */
-export function mailServer(command: 'stop' | 'start'): void {
-  runScript('fake-smtp.sh', command);
-}
+/** Stops, starts or restarts this run's PostgreSQL cluster under the running server (scripts/pg.sh, checked against DATABASE_URL). */
+export const database = testCluster;
 
 /** Waits until the server's health check says the database answers again. */
 export async function waitForHealthy(request: APIRequestContext): Promise<void> {
@@ -54,11 +36,11 @@ export async function potassiumScreenId(): Promise<string> {
 export async function importThroughApi(request: APIRequestContext, baseURL: string, screenId: string, label: string): Promise<{ status: number; body: Record<string, unknown> }> {
   const file = { name: `${label.toLowerCase()}.csv`, mimeType: 'text/csv', buffer: freshPotassiumExport() };
   const headers = { origin: baseURL };
-  const inspected = await request.post('/api/imports/inspect', { headers, multipart: { file, screenId: screenId } });
+  const inspected = await request.post('/api/imports/inspect', { headers, multipart: { file, screenId } });
   if (inspected.status() !== 200) return { status: inspected.status(), body: await inspected.json() };
   const [sheet] = (await inspected.json()).sheets as { name: string; guess: { mapping: unknown } }[];
   const committed = await request.post('/api/imports/commit', {
-    headers, multipart: { file, screenId: screenId, sheet: sheet!.name, mapping: JSON.stringify(sheet!.guess.mapping), format: '', label },
+    headers, multipart: { file, screenId, sheet: sheet!.name, mapping: JSON.stringify(sheet!.guess.mapping), format: '', label },
   });
   return { status: committed.status(), body: await committed.json() };
 }
