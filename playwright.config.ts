@@ -2,6 +2,15 @@ import { defineConfig, devices } from '@playwright/test';
 
 const port = Number(process.env.GATEWELL_E2E_PORT ?? 4311);
 
+const browser = {
+  ...devices['Desktop Chrome'],
+  viewport: { width: 1280, height: 860 },
+  launchOptions: {
+    executablePath: '/usr/bin/chromium',
+    args: ['--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+  },
+};
+
 // End-to-end tests drive Debian's Chromium against the production build that scripts/test.sh made.
 export default defineConfig({
   testDir: 'tests/e2e',
@@ -19,18 +28,11 @@ export default defineConfig({
     screenshot: 'only-on-failure',
     viewport: { width: 1280, height: 860 },
   },
+  // Fault tests (tests/e2e/faults) take the database and the mail server away under the running server,
+  // so they run last, in a project of their own, once every other test has finished.
   projects: [
-    {
-      name: 'chromium',
-      use: {
-        ...devices['Desktop Chrome'],
-        viewport: { width: 1280, height: 860 },
-        launchOptions: {
-          executablePath: '/usr/bin/chromium',
-          args: ['--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
-        },
-      },
-    },
+    { name: 'chromium', testIgnore: 'faults/**', use: browser },
+    { name: 'faults', testMatch: 'faults/**/*.spec.ts', dependencies: ['chromium'], use: browser },
   ],
   // The topology of a team install in miniature: the web server only enqueues (GATEWELL_JOB_WORKER=off)
   // and a separate worker process takes the fit and forecast jobs (README, "Topology").

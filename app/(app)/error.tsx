@@ -2,6 +2,6 @@
 
 import { RouteError } from '@/components/ui/route-error';
 
-export default function PageError(props: { error: Error & { digest?: string }; reset: () => void }) {
+export default function PageError(props: { error: Error & { digest?: string }; retry: () => void }) {
   return <RouteError what="This page" {...props} />;
 }

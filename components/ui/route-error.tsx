@@ -1,10 +1,10 @@
 'use client';
 
-/** What a route's error boundary shows: what failed, that nothing changed, a reference, and a retry. */
-export function RouteError({ what, error, reset, heading = 'h1' }: {
+/** What a route's error boundary shows: what failed, that nothing changed, a reference, and a retry that fetches the route again. */
+export function RouteError({ what, error, retry, heading = 'h1' }: {
   what: string;
   error: Error & { digest?: string };
-  reset: () => void;
+  retry: () => void;
   heading?: 'h1' | 'h2';
 }) {
   const Heading = heading;
@@ -15,7 +15,7 @@ export function RouteError({ what, error, reset, heading = 'h1' }: {
         Something failed on the server; nothing was changed. Try again; if it keeps failing, give your administrator this
         reference: <span className="font-mono">{error.digest ?? 'none'}</span>.
       </p>
-      <button type="button" onClick={reset} className="gw-button mt-4">Try again</button>
+      <button type="button" onClick={retry} className="gw-button mt-4">Try again</button>
     </div>
   );
 }

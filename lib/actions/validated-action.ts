@@ -3,6 +3,7 @@ import { unstable_rethrow } from 'next/navigation';
 import { z, type ZodType } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
 import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { isAppError } from '@/lib/errors';
 
 /** What every form action answers: a message for the whole form and/or messages keyed by field. */
@@ -14,7 +15,7 @@ export interface ActionState {
 
 /**
  * The one way server actions are written: loads the signed-in actor, checks roles, parses the form with
- * zod, and turns failures into an ActionState the form shows beside its fields.
+ * zod, and turns failures (an unreachable database too) into an ActionState the form shows beside its fields.
  */
 export function validatedAction<Schema extends ZodType, Result extends ActionState = ActionState>(
   schema: Schema,
@@ -22,9 +23,9 @@ export function validatedAction<Schema extends ZodType, Result extends ActionSta
   run: (input: z.infer<Schema>, actor: Actor, formData: FormData) => Promise<Result>,
 ) {
   return async (_previous: ActionState, formData: FormData): Promise<ActionState> => {
-    const actor = await currentActor();
-    if (!actor) return { message: 'Your session has ended. Sign in again.' };
     try {
+      const actor = await currentActor();
+      if (!actor) return { message: 'Your session has ended. Sign in again.' };
       if (roles.length) requireRole(actor, ...roles);
       const parsed = schema.safeParse(formFields(formData));
       if (!parsed.success) {
@@ -34,6 +35,10 @@ export function validatedAction<Schema extends ZodType, Result extends ActionSta
     } catch (error) {
       unstable_rethrow(error); // redirect() and notFound() inside run must reach Next
       if (isAppError(error)) return { message: error.message, fieldErrors: fieldErrorsOf(error.details) };
+      if (isDatabaseUnavailable(error)) {
+        console.error('database unavailable during an action', error);
+        return { message: DATABASE_UNAVAILABLE_MESSAGE };
+      }
       console.error('unhandled action error', error);
       return { message: 'Something failed on the server; nothing was changed.' };
     }

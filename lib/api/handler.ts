@@ -3,6 +3,7 @@ import { NextResponse, type NextRequest } from 'next/server';
 import { ZodError, z } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
 import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { env } from '@/lib/env';
 import { AppError, isAppError } from '@/lib/errors';
 
@@ -21,13 +22,17 @@ function checkOrigin(request: NextRequest): void {
   }
 }
 
-/** Maps an error to a JSON answer: zod → 422, AppError → its status, anything else → a logged 500. */
+/** Maps an error to a JSON answer: zod → 422, AppError → its status, a lost database → a logged 503, anything else → a logged 500. */
 export function errorResponse(error: unknown): NextResponse {
   if (error instanceof ZodError) {
     return NextResponse.json({ error: 'invalid', message: 'The request is not valid.', fields: z.flattenError(error).fieldErrors }, { status: 422 });
   }
   if (isAppError(error)) {
     return NextResponse.json({ error: error.code, message: error.message, details: error.details ?? undefined }, { status: error.status });
+  }
+  if (isDatabaseUnavailable(error)) {
+    console.error('database unavailable during a route', error);
+    return NextResponse.json({ error: 'unavailable', message: DATABASE_UNAVAILABLE_MESSAGE }, { status: 503 });
   }
   console.error('unhandled route error', error);
   return NextResponse.json({ error: 'internal', message: 'Something failed on the server; nothing was changed.' }, { status: 500 });

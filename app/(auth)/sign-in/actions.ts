@@ -7,6 +7,7 @@ import { currentActor } from '@/lib/auth/current-actor';
 import { requestAddress } from '@/lib/auth/request-address';
 import { getSession } from '@/lib/auth/session';
 import { signIn } from '@/lib/auth/sign-in';
+import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { db } from '@/lib/db';
 import { User } from '@/models';
 import { safeNextPath, signInSchema } from '@/lib/validation/auth';
@@ -24,7 +25,14 @@ export async function signInAction(_previous: SignInState, formData: FormData): 
     return { fieldErrors: z.flattenError(parsed.error).fieldErrors, email: String(formData.get('email') ?? '') };
   }
   const { email, password, next } = parsed.data;
-  const result = await signIn(email, password, await requestAddress());
+  let result: Awaited<ReturnType<typeof signIn>>;
+  try {
+    result = await signIn(email, password, await requestAddress());
+  } catch (error) {
+    if (!isDatabaseUnavailable(error)) throw error;
+    console.error('database unavailable during sign-in', error);
+    return { message: DATABASE_UNAVAILABLE_MESSAGE, email };
+  }
   if (!result.ok) {
     const message =
       result.reason === 'throttled'

@@ -2,6 +2,6 @@
 
 import { RouteError } from '@/components/ui/route-error';
 
-export default function ForecastError(props: { error: Error & { digest?: string }; reset: () => void }) {
+export default function ForecastError(props: { error: Error & { digest?: string }; retry: () => void }) {
   return <RouteError what="The forecast tab" heading="h2" {...props} />;
 }

@@ -1,0 +1,22 @@
+import 'server-only';
+import { ConnectionError, DatabaseError } from 'sequelize';
+
+/** What people read when the database cannot be reached: the request changed nothing and may be repeated. */
+export const DATABASE_UNAVAILABLE_MESSAGE = 'Gatewell cannot reach its database just now, so nothing was changed. Try again in a minute.';
+
+/** pg's words for a connection that broke under a query; they come without an SQLSTATE. */
+const BROKEN_CONNECTION = /^(Connection terminated|Client has encountered a connection error)/;
+
+/**
+ * Whether an error means the database was out of reach or went away mid-request (restart, shutdown,
+ * network) rather than refusing a statement: no connection could be made (Sequelize's ConnectionError),
+ * the server ended the session (SQLSTATE class 08 connection exception or 57P operator intervention),
+ * or pg lost the connection under the query.
+ */
+export function isDatabaseUnavailable(error: unknown): boolean {
+  if (error instanceof ConnectionError) return true;
+  if (!(error instanceof DatabaseError)) return false;
+  const code = (error.parent as { code?: unknown }).code;
+  if (typeof code === 'string' && (code.startsWith('08') || code.startsWith('57P'))) return true;
+  return BROKEN_CONNECTION.test(error.parent.message);
+}
