@@ -9,6 +9,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare sessionVersion: CreationOptional<number>;
   declare disabledAt: Date | null;
   declare passwordChangedAt: CreationOptional<Date>;
+  /** True while the password is one an administrator set; its owner must choose their own first. */
+  declare passwordChangeRequired: CreationOptional<boolean>;
   declare lastSignInAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -23,6 +25,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
         disabledAt: { type: DataTypes.DATE, allowNull: true },
         passwordChangedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+        passwordChangeRequired: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         lastSignInAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

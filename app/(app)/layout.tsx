@@ -1,5 +1,5 @@
 import { headers } from 'next/headers';
-import { forbidden } from 'next/navigation';
+import { forbidden, redirect } from 'next/navigation';
 import type { ReactNode } from 'react';
 import { AppShell } from '@/components/shell/app-shell';
 import { requireActor } from '@/lib/auth/current-actor';
@@ -9,7 +9,10 @@ import { hasRole } from '@/lib/auth/roles';
 export default async function SignedInLayout({ children }: { children: ReactNode }) {
   const actor = await requireActor();
   // Refused here, before the page starts streaming, a page that needs a role answers 403.
-  const needed = rolesForPath((await headers()).get(PATHNAME_HEADER) ?? '');
+  const pathname = (await headers()).get(PATHNAME_HEADER) ?? '';
+  // A password an administrator set is for one sign-in: its owner chooses their own before anything else.
+  if (actor.passwordChangeRequired && pathname !== '/account') redirect('/account');
+  const needed = rolesForPath(pathname);
   if (needed && !hasRole(actor, ...needed)) forbidden();
   return <AppShell actor={actor}>{children}</AppShell>;
 }

@@ -2,6 +2,7 @@ import 'server-only';
 import { unstable_rethrow } from 'next/navigation';
 import { z, type ZodType } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
+import { refuseUntilOwnPassword } from '@/lib/auth/own-password';
 import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { isAppError } from '@/lib/errors';
@@ -14,18 +15,21 @@ export interface ActionState {
 }
 
 /**
- * The one way server actions are written: loads the signed-in actor, checks roles, parses the form with
+ * The one way server actions are written: loads the signed-in actor, refuses anyone who must first
+ * choose their own password (unless `beforeOwnPassword`), checks roles, parses the form with
  * zod, and turns failures (an unreachable database too) into an ActionState the form shows beside its fields.
  */
 export function validatedAction<Schema extends ZodType, Result extends ActionState = ActionState>(
   schema: Schema,
   roles: Role[],
   run: (input: z.infer<Schema>, actor: Actor, formData: FormData) => Promise<Result>,
+  options: { beforeOwnPassword?: boolean } = {},
 ) {
   return async (_previous: ActionState, formData: FormData): Promise<ActionState> => {
     try {
       const actor = await currentActor();
       if (!actor) return { message: 'Your session has ended. Sign in again.' };
+      if (!options.beforeOwnPassword) refuseUntilOwnPassword(actor);
       if (roles.length) requireRole(actor, ...roles);
       const parsed = schema.safeParse(formFields(formData));
       if (!parsed.success) {

@@ -2,6 +2,7 @@ import 'server-only';
 import { NextResponse, type NextRequest } from 'next/server';
 import { ZodError, z } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
+import { refuseUntilOwnPassword } from '@/lib/auth/own-password';
 import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { env } from '@/lib/env';
@@ -48,6 +49,7 @@ export function withUser<Params = Record<string, never>>(handler: Handler<Params
       checkOrigin(request);
       const actor = await currentActor();
       if (!actor) throw new AppError('unauthorized', 'Sign in first.');
+      refuseUntilOwnPassword(actor);
       if (options.roles?.length) requireRole(actor, ...options.roles);
       return await handler(request, actor, context);
     } catch (error) {

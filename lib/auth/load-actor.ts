@@ -9,5 +9,5 @@ export async function loadActor(userId: string, address: string): Promise<(Actor
   const user = await User.findByPk(userId, { include: [{ model: UserRole, as: 'roles' }] });
   if (!user || user.disabledAt) return null;
   const roles = ((user.get('roles') as UserRole[] | undefined) ?? []).map((r) => r.role as Role).sort();
-  return { id: user.id, email: user.email, name: user.name, roles, address, sessionVersion: user.sessionVersion };
+  return { id: user.id, email: user.email, name: user.name, roles, address, sessionVersion: user.sessionVersion, passwordChangeRequired: user.passwordChangeRequired };
 }

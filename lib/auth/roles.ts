@@ -10,6 +10,8 @@ export interface Actor {
   name: string;
   roles: Role[];
   address: string;
+  /** Set for a signed-in person whose password an administrator chose: they must choose their own first. */
+  passwordChangeRequired?: boolean;
 }
 
 export function hasRole(actor: Actor, ...roles: Role[]): boolean {

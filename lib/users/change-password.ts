@@ -25,7 +25,7 @@ export async function changeOwnPassword(actor: Actor, raw: ChangePasswordInput):
   return db().transaction(async (transaction) => {
     const { user, roles } = await lockUser(actor.id, transaction);
     const before = snapshotOf(user, roles);
-    await user.update({ passwordHash, passwordChangedAt: new Date(), sessionVersion: user.sessionVersion + 1 }, { transaction });
+    await user.update({ passwordHash, passwordChangedAt: new Date(), passwordChangeRequired: false, sessionVersion: user.sessionVersion + 1 }, { transaction });
     await recordAudit(
       { actorId: actor.id, action: 'change_password', entityType: 'user', entityId: user.id, before, after: snapshotOf(user, roles), address: actor.address },
       transaction,

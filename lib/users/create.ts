@@ -31,7 +31,7 @@ export async function createUser(actor: Actor, raw: CreateUserInput): Promise<Cr
     return await db().transaction(async (transaction) => {
       if (await User.findOne({ where: { email: input.email }, transaction })) throw emailTaken();
       const user = await User.create(
-        { email: input.email, name: input.name, passwordHash, disabledAt: null, lastSignInAt: null },
+        { email: input.email, name: input.name, passwordHash, passwordChangeRequired: true, disabledAt: null, lastSignInAt: null },
         { transaction },
       );
       await UserRole.bulkCreate(input.roles.map((role) => ({ userId: user.id, role })), { transaction });

@@ -15,8 +15,8 @@ export interface PasswordReset {
 }
 
 /**
- * Sets a new password for someone who lost theirs and ends all their sessions. Admins only, and not
- * for their own account (that goes through the password change, which asks for the current one).
+ * Sets a new password for someone who lost theirs and ends all their sessions; they must choose their
+ * own at their next sign-in. Admins only, and not for their own account (that goes through the password change, which asks for the current one).
  */
 export async function resetPassword(actor: Actor, raw: ResetPasswordInput): Promise<PasswordReset> {
   requireRole(actor, 'admin');
@@ -29,7 +29,7 @@ export async function resetPassword(actor: Actor, raw: ResetPasswordInput): Prom
   return db().transaction(async (transaction) => {
     const { user, roles } = await lockUser(input.userId, transaction);
     const before = snapshotOf(user, roles);
-    await user.update({ passwordHash, passwordChangedAt: new Date(), sessionVersion: user.sessionVersion + 1 }, { transaction });
+    await user.update({ passwordHash, passwordChangedAt: new Date(), passwordChangeRequired: true, sessionVersion: user.sessionVersion + 1 }, { transaction });
     await recordAudit(
       {
         actorId: actor.id,

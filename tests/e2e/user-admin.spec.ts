@@ -52,6 +52,16 @@ test('the new user changes their password: their other session ends, this one st
   await signIn(page, newcomer.email, newcomer.first);
   await signIn(otherPage, newcomer.email, newcomer.first);
 
+  // The password an admin set is good for this sign-in only: every page leads to the Account page, and the API refuses.
+  await expect(page).toHaveURL(/\/account$/);
+  await expect(page.getByRole('alert').filter({ hasText: 'Choose your own password first.' })).toBeVisible();
+  await page.goto('/plates');
+  await expect(page).toHaveURL(/\/account$/);
+  const refused = await page.request.get('/api/import-templates');
+  expect(refused.status()).toBe(403);
+  expect((await refused.json()).message).toMatch(/choose your own on the Account page/);
+  await screenshot(page, 'account-own-password-first');
+
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Account' }).click();
   await page.getByLabel('Current password').fill('not-my-password');
   await page.getByLabel('New password', { exact: true }).fill(newcomer.second);

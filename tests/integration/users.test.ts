@@ -2,7 +2,10 @@ import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import { loadActor } from '@/lib/auth/current-actor';
 import { signIn } from '@/lib/auth/sign-in';
 import { db } from '@/lib/db';
+import { refuseUntilOwnPassword } from '@/lib/auth/own-password';
+import { changeOwnPassword } from '@/lib/users/change-password';
 import { changeRoles } from '@/lib/users/change-roles';
+import { resetPassword } from '@/lib/users/reset-password';
 import { createUser } from '@/lib/users/create';
 import { getUser, listUsers } from '@/lib/users/list';
 import { disableUser, enableUser } from '@/lib/users/status';
@@ -124,5 +127,23 @@ describe('user administration against the real database', () => {
     const admin = await makeActor(['admin']);
     await makeActor(['admin']);
     await expect(disableUser(admin, { userId: admin.id, reason })).rejects.toMatchObject({ code: 'conflict' });
+  });
+
+  test('a password an admin set must be replaced by its owner before anything else; a reset asks again', async () => {
+    const admin = await makeActor(['admin']);
+    const created = await createUser(admin, { name: 'First Time', email: 'first@example.org', roles: ['biologist'], password: 'chosen-by-admin' });
+    const fresh = (await loadActor(created.user.id, '127.0.0.1'))!;
+    expect(fresh.passwordChangeRequired).toBe(true);
+    expect(() => refuseUntilOwnPassword(fresh)).toThrow(/choose your own on the Account page/);
+
+    await changeOwnPassword(fresh, { currentPassword: 'chosen-by-admin', newPassword: 'my-own-password-1', confirmPassword: 'my-own-password-1' });
+    const own = (await loadActor(created.user.id, '127.0.0.1'))!;
+    expect(own.passwordChangeRequired).toBe(false);
+    expect(() => refuseUntilOwnPassword(own)).not.toThrow();
+
+    await resetPassword(admin, { userId: created.user.id, reason });
+    expect((await loadActor(created.user.id, '127.0.0.1'))!.passwordChangeRequired).toBe(true);
+    // People whose accounts predate this rule, like the demo users, are not asked.
+    expect((await loadActor(admin.id, '127.0.0.1'))!.passwordChangeRequired).toBe(false);
   });
 });

@@ -13,4 +13,4 @@ export const changePasswordAction = validatedAction(changePasswordSchema, [], as
   session.lastSeenAt = Date.now();
   await session.save();
   return { ok: true, message: 'Password changed. Your other sessions have ended.' };
-});
+}, { beforeOwnPassword: true });

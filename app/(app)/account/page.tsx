@@ -14,6 +14,11 @@ export default async function AccountPage() {
   return (
     <>
       <PageHeader title="Account" intro={`Signed in as ${actor.name} (${actor.email}).`} />
+      {actor.passwordChangeRequired ? (
+        <p role="alert" className="mb-4 rounded-md border border-amber-300 bg-amber-50 px-4 py-3 text-sm text-ink-800">
+          <strong className="font-semibold">Choose your own password first.</strong> An administrator set the password you signed in with; it is good for this sign-in only. Enter it as your current password below and choose your own; then the rest of Gatewell opens.
+        </p>
+      ) : null}
       <div className="grid gap-4 xl:grid-cols-2">
         <section className="gw-card p-5" aria-labelledby="roles-heading">
           <h2 id="roles-heading" className="text-lg font-semibold">Your roles</h2>
