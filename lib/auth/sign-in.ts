@@ -12,7 +12,7 @@ export const MAX_FAILURES_PER_ADDRESS = 20;
 export const THROTTLE_WINDOW_MS = 15 * 60 * 1000;
 
 export type SignInResult =
-  | { ok: true; userId: string; sessionVersion: number }
+  | { ok: true; userId: string; sessionVersion: number; passwordChangeRequired: boolean }
   | { ok: false; reason: 'invalid' | 'throttled' };
 
 /** True when the account or the address has used up its failed attempts within the window. */
@@ -65,5 +65,5 @@ export async function signIn(rawEmail: string, password: string, address: string
     );
   });
 
-  return ok && user ? { ok: true, userId: user.id, sessionVersion: user.sessionVersion } : { ok: false, reason: 'invalid' };
+  return ok && user ? { ok: true, userId: user.id, sessionVersion: user.sessionVersion, passwordChangeRequired: user.passwordChangeRequired } : { ok: false, reason: 'invalid' };
 }

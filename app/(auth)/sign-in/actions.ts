@@ -46,7 +46,8 @@ export async function signInAction(_previous: SignInState, formData: FormData): 
   const now = Date.now();
   Object.assign(session, { userId: result.userId, sessionVersion: result.sessionVersion, issuedAt: now, lastSeenAt: now });
   await session.save();
-  redirect(safeNextPath(next));
+  // With a password an administrator set, the Account page comes first (the signed-in layout insists too).
+  redirect(result.passwordChangeRequired ? '/account' : safeNextPath(next));
 }
 
 /**
