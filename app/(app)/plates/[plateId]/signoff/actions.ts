@@ -17,6 +17,7 @@ export const signPlateStepAction = validatedAction(signoffRequestSchema.and(z.ob
   after(() => sendDueMailNow());
   revalidatePath(`/plates/${result.plateId}`, 'layout');
   revalidatePath('/');
-  const notified = result.notified === 1 ? '1 person notified' : `${result.notified} people notified`;
-  return { ok: true, message: `Signed. Plate ${result.label} is now ${STATE_WORDS[result.state]}; ${notified} by e-mail.` };
+  // The mail is queued with the signature and sent just after, with retries (the outbox shows where it stands).
+  const notice = result.notified === 0 ? 'nobody else needs a notice' : `a notice to ${result.notified === 1 ? '1 person' : `${result.notified} people`} is on its way by e-mail`;
+  return { ok: true, message: `Signed. Plate ${result.label} is now ${STATE_WORDS[result.state]}; ${notice}.` };
 });
