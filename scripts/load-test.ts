@@ -1,0 +1,124 @@
+// Gatewell load test: signed-in people reading plates while biologists import plate exports, against a
+// running production build. Prints latency percentiles, errors and requests per second for reads and
+// imports, and exits 1 when reads miss p95 < 100 ms or any request fails (--report-only: always 0).
+// Usually run by scripts/load-test.sh, which sets up its own database and server:
+//   node --import tsx scripts/load-test.ts [--url http://127.0.0.1:4340] [--readers 50] [--importers 5] …
+import type autocannon from 'autocannon';
+import { availableParallelism, loadavg } from 'node:os';
+import { prepareCommits, type CommitSource } from './load/commit-source';
+import { listedPlateIds } from './load/discover';
+import { parseOptions, type LoadOptions } from './load/options';
+import { runPeople, type Person, type Tally } from './load/run-people';
+import { DEMO_ACCOUNTS, signIn, type DemoAccount } from './load/sign-in';
+import { groupFigures, groupLine, missedTargets, routeFigures, routeLine } from './load/summary';
+
+const BIOLOGIST = DEMO_ACCOUNTS.find((account) => account.email.startsWith('biologist'))!;
+
+/** Signs every account in, five at a time (each sign-in is one argon2 verification on the server). */
+async function signInAll(baseUrl: string, accounts: DemoAccount[]): Promise<string[]> {
+  const cookies: string[] = [];
+  for (let i = 0; i < accounts.length; i += 5) cookies.push(...(await Promise.all(accounts.slice(i, i + 5).map((a) => signIn(baseUrl, a)))));
+  return cookies;
+}
+
+/** What a reader does on each plate: the list, the plate page and its wells, the fits tab and its data, the history tab. */
+function readRequests(plateIds: string[]): autocannon.Request[] {
+  return plateIds.flatMap((id) => [
+    { route: 'GET /plates', path: '/plates' },
+    { route: 'GET /plates/[id]', path: `/plates/${id}` },
+    { route: 'GET /api/plates/[id]/wells', path: `/api/plates/${id}/wells` },
+    { route: 'GET /plates/[id]/fits', path: `/plates/${id}/fits` },
+    { route: 'GET /api/plates/[id]/fits', path: `/api/plates/${id}/fits` },
+    { route: 'GET /plates/[id]/history', path: `/plates/${id}/history` },
+  ].map((request) => ({ ...request, method: 'GET' as const })));
+}
+
+function commitRequest(baseUrl: string, source: CommitSource): autocannon.Request {
+  return {
+    route: 'POST /api/imports/commit', method: 'POST', path: '/api/imports/commit', headers: { origin: new URL(baseUrl).origin },
+    setupRequest: (request) => {
+      const { body, contentType } = source.next();
+      return { ...request, body, headers: { ...request.headers, 'content-type': contentType } };
+    },
+  };
+}
+
+/** One pass over every read route and one import before the clock starts, so cold module loads are not measured. */
+async function warmUp(baseUrl: string, cookie: string, requests: autocannon.Request[], importer: string | null, source: CommitSource | null) {
+  for (const request of requests.slice(0, 6)) {
+    const answer = await fetch(new URL(request.path!, baseUrl), { headers: { cookie }, redirect: 'manual' });
+    await answer.arrayBuffer();
+    if (answer.status !== 200) throw new Error(`warm-up ${request.path} answered ${answer.status}`);
+  }
+  if (!importer || !source) return;
+  const { body, contentType } = source.next();
+  const answer = await fetch(new URL('/api/imports/commit', baseUrl), { method: 'POST', body: new Uint8Array(body), headers: { cookie: importer, origin: new URL(baseUrl).origin, 'content-type': contentType } });
+  if (answer.status !== 201) throw new Error(`warm-up import answered ${answer.status}: ${await answer.text()}`);
+}
+
+function describe(options: LoadOptions, plates: number, requests: number, prepared: number): string {
+  const pace = options.readerRate > 0 ? `${options.readerRate} request/s each` : 'back to back';
+  return [
+    `Gatewell load test against ${options.url} for ${options.durationS} s`,
+    `  reads:   ${options.readers} people (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, cycling through ${requests} requests over ${plates} plate(s)`,
+    `  imports: ${options.importers} biologist session(s) posting distinct plate exports back to back (${prepared} encoded ahead, seed ${options.seed})`,
+    `  machine: ${availableParallelism()} cores, load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
+  ].join('\n');
+}
+
+function report(reads: Tally, imports: Tally | null, source: CommitSource | null, options: LoadOptions): boolean {
+  const readFigures = groupFigures(reads);
+  const importFigures = imports && groupFigures(imports);
+  console.log(`\n${groupLine('reads', readFigures)}`);
+  for (const [route, figures] of routeFigures(reads.samples)) console.log(routeLine(route, figures));
+  if (importFigures && imports) {
+    console.log(groupLine('imports', importFigures));
+    if (source?.builtDuringRun()) console.log(`  ${source.builtDuringRun()} export(s) were built during the run (raise --prepare)`);
+  }
+  for (const refusal of [...reads.firstRefusals, ...(imports?.firstRefusals ?? [])]) console.log(`  refused: ${refusal}`);
+  console.log(`  load average ${loadavg()[0]!.toFixed(2)} at the end`);
+  const missed = missedTargets(readFigures, importFigures, options.p95LimitMs);
+  console.log(missed.length ? `\ntargets missed: ${missed.join('; ')}` : `\ntargets met: reads p95 < ${options.p95LimitMs} ms, no errors`);
+  return missed.length === 0;
+}
+
+async function main(): Promise<number> {
+  const parsed = parseOptions(process.argv.slice(2));
+  if (!parsed.ok) {
+    console.error(parsed.message);
+    return 2;
+  }
+  const { options } = parsed;
+  const health = await fetch(new URL('/api/health', options.url));
+  if (health.status !== 200) throw new Error(`${options.url}/api/health answered ${health.status}`);
+
+  const readerCookies = await signInAll(options.url, Array.from({ length: options.readers }, (_, i) => DEMO_ACCOUNTS[i % DEMO_ACCOUNTS.length]!));
+  const importerCookies = await signInAll(options.url, Array.from({ length: options.importers }, () => BIOLOGIST));
+  const plateIds = (await listedPlateIds(options.url, readerCookies[0] ?? importerCookies[0] ?? '')).slice(0, options.plates);
+  if (plateIds.length === 0) throw new Error('the plate list is empty: seed the demo data first');
+  const requests = readRequests(plateIds);
+  const source = options.importers > 0
+    ? await prepareCommits({ baseUrl: options.url, cookie: importerCookies[0]!, prepare: options.prepare, firstSeed: options.seed, tag: `LOAD-${options.seed.toString(36).toUpperCase()}` })
+    : null;
+  await warmUp(options.url, readerCookies[0] ?? importerCookies[0]!, requests, importerCookies[0] ?? null, source);
+  console.log(describe(options, plateIds.length, requests.length, source?.prepared ?? 0));
+
+  const readers: Person[] = readerCookies.map((cookie, i) => ({ cookie, requests: [...requests.slice(i % requests.length), ...requests.slice(0, i % requests.length)] }));
+  const importers: Person[] = source ? importerCookies.map((cookie) => ({ cookie, requests: [commitRequest(options.url, source)] })) : [];
+  const group = { baseUrl: options.url, durationS: options.durationS, timeoutS: options.timeoutS };
+  const [reads, imports] = await Promise.all([
+    runPeople(readers, { ...group, ratePerPerson: options.readerRate, staggerMs: 1000 / Math.max(1, readers.length) }),
+    importers.length ? runPeople(importers, { ...group, ratePerPerson: 0, staggerMs: 1000 / importers.length }) : Promise.resolve(null),
+  ]);
+  const met = report(reads, imports, source, options);
+  return met || options.reportOnly ? 0 : 1;
+}
+
+main().then(
+  (code) => process.exit(code),
+  (error: unknown) => {
+    const cause = error instanceof Error && error.cause instanceof Error ? ` (${error.cause.message})` : '';
+    console.error(`load test: ${error instanceof Error ? error.message : String(error)}${cause}`);
+    process.exit(2);
+  },
+);

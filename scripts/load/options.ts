@@ -1,0 +1,69 @@
+// Command-line options of scripts/load-test.ts, checked with zod.
+import { parseArgs } from 'node:util';
+import { z } from 'zod';
+
+const count = (max: number) => z.coerce.number().int().min(0).max(max);
+
+const schema = z.object({
+  url: z.url({ protocol: /^https?$/ }).default('http://127.0.0.1:4340'),
+  readers: count(1000).default(50),
+  importers: count(100).default(5),
+  durationS: z.coerce.number().int().min(1).max(3600).default(30),
+  readerRate: count(1000).default(1),
+  plates: z.coerce.number().int().min(1).max(100).default(4),
+  p95LimitMs: z.coerce.number().positive().default(100),
+  timeoutS: z.coerce.number().positive().max(600).default(10),
+  prepare: count(100_000).optional(),
+  seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
+  reportOnly: z.boolean().default(false),
+});
+
+/** The flag of each option whose name differs from its key. */
+const FLAGS: Record<string, string> = { durationS: 'duration', readerRate: 'reader-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only' };
+
+export type LoadOptions = z.infer<typeof schema> & { prepare: number; seed: number };
+
+export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
+  --url URL            the running production build (default http://127.0.0.1:4340)
+  --readers N          signed-in people reading plates (default 50), each with a session of a demo user in turn
+  --reader-rate N      requests per second per reader; 0 sends the next as soon as the answer arrives (default 1)
+  --importers N        biologists posting plate exports to /api/imports/commit back to back (default 5)
+  --duration S         seconds of load (default 30)
+  --plates N           how many plates of the plate list the readers open (default 4)
+  --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
+  --timeout S          seconds before a request counts as timed out (default 10)
+  --prepare N          commit requests encoded before the run (default importers × duration; more are built on demand)
+  --seed N             first seed of the generated exports (default from the clock)
+  --report-only        print the figures and exit 0 even when a target is missed`;
+
+/** The options of this run, or a message saying what is wrong with the command line. */
+export function parseOptions(argv: string[]): { ok: true; options: LoadOptions } | { ok: false; message: string } {
+  let values;
+  try {
+    ({ values } = parseArgs({
+      args: argv,
+      options: {
+        url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' },
+        'reader-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
+        prepare: { type: 'string' }, seed: { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
+      },
+    }));
+  } catch (error) {
+    return { ok: false, message: `${(error as Error).message}\n${USAGE}` };
+  }
+  if (values.help) return { ok: false, message: USAGE };
+  const parsed = schema.safeParse({
+    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readerRate: values['reader-rate'],
+    plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, prepare: values.prepare, seed: values.seed,
+    reportOnly: values['report-only'],
+  });
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`);
+    return { ok: false, message: `${lines.join('\n')}\n${USAGE}` };
+  }
+  const options = parsed.data;
+  return {
+    ok: true,
+    options: { ...options, prepare: options.prepare ?? options.importers * options.durationS, seed: options.seed ?? Date.now() % 2 ** 31 },
+  };
+}
