@@ -3,14 +3,15 @@
 // imports, and exits 1 when reads miss p95 < 100 ms or any request fails (--report-only: always 0).
 // Usually run by scripts/load-test.sh, which sets up its own database and server:
 //   node --import tsx scripts/load-test.ts [--url http://127.0.0.1:4340] [--readers 50] [--importers 5] …
-import type autocannon from 'autocannon';
 import { availableParallelism, loadavg } from 'node:os';
 import { prepareCommits, type CommitSource } from './load/commit-source';
 import { listedPlateIds } from './load/discover';
 import { parseOptions, type LoadOptions } from './load/options';
-import { runPeople, type Person, type Tally } from './load/run-people';
+import { runGroup, type ScheduledRequest, type Tally } from './load/run-people';
 import { DEMO_ACCOUNTS, signIn, type DemoAccount } from './load/sign-in';
 import { groupFigures, groupLine, missedTargets, routeFigures, routeLine } from './load/summary';
+
+type Read = Pick<ScheduledRequest, 'route' | 'path'>;
 
 const BIOLOGIST = DEMO_ACCOUNTS.find((account) => account.email.startsWith('biologist'))!;
 
@@ -21,8 +22,8 @@ async function signInAll(baseUrl: string, accounts: DemoAccount[]): Promise<stri
   return cookies;
 }
 
-/** What a reader does on each plate: the list, the plate page and its wells, the fits tab and its data, the history tab. */
-function readRequests(plateIds: string[]): autocannon.Request[] {
+/** What a reader does on each plate in turn: the list, the plate page and its wells, the fits tab and its data, the history tab. */
+function readSequence(plateIds: string[]): Read[] {
   return plateIds.flatMap((id) => [
     { route: 'GET /plates', path: '/plates' },
     { route: 'GET /plates/[id]', path: `/plates/${id}` },
@@ -30,37 +31,54 @@ function readRequests(plateIds: string[]): autocannon.Request[] {
     { route: 'GET /plates/[id]/fits', path: `/plates/${id}/fits` },
     { route: 'GET /api/plates/[id]/fits', path: `/api/plates/${id}/fits` },
     { route: 'GET /plates/[id]/history', path: `/plates/${id}/history` },
-  ].map((request) => ({ ...request, method: 'GET' as const })));
+  ]);
 }
 
-function commitRequest(baseUrl: string, source: CommitSource): autocannon.Request {
-  return {
-    route: 'POST /api/imports/commit', method: 'POST', path: '/api/imports/commit', headers: { origin: new URL(baseUrl).origin },
-    setupRequest: (request) => {
-      const { body, contentType } = source.next();
-      return { ...request, body, headers: { ...request.headers, 'content-type': contentType } };
-    },
+/** Readers in turn, each walking the sequence from its own starting point. */
+function readSchedule(cookies: string[], sequence: Read[]): () => ScheduledRequest {
+  const cursors = cookies.map((_, i) => i % sequence.length);
+  let person = 0;
+  return () => {
+    const p = person;
+    person = (person + 1) % cookies.length;
+    const read = sequence[cursors[p]!]!;
+    cursors[p] = (cursors[p]! + 1) % sequence.length;
+    return { ...read, cookie: cookies[p]! };
   };
 }
 
-/** One pass over every read route and one import before the clock starts, so cold module loads are not measured. */
-async function warmUp(baseUrl: string, cookie: string, requests: autocannon.Request[], importer: string | null, source: CommitSource | null) {
-  for (const request of requests.slice(0, 6)) {
-    const answer = await fetch(new URL(request.path!, baseUrl), { headers: { cookie }, redirect: 'manual' });
+/** Importers in turn, each request carrying the next distinct export. */
+function importSchedule(cookies: string[], source: CommitSource): () => ScheduledRequest {
+  let person = 0;
+  return () => {
+    const { body, contentType } = source.next();
+    person = (person + 1) % cookies.length;
+    return { route: 'POST /api/imports/commit', path: '/api/imports/commit', method: 'POST', cookie: cookies[person]!, body, contentType };
+  };
+}
+
+/** One pass over a plate's reads and one import before the clock starts, so cold module loads are not measured. */
+async function warmUp(baseUrl: string, cookie: string, reads: Read[], importer: string | null, source: CommitSource | null) {
+  for (const read of reads.slice(0, 6)) {
+    const answer = await fetch(new URL(read.path, baseUrl), { headers: { cookie }, redirect: 'manual' });
     await answer.arrayBuffer();
-    if (answer.status !== 200) throw new Error(`warm-up ${request.path} answered ${answer.status}`);
+    if (answer.status !== 200) throw new Error(`warm-up ${read.path} answered ${answer.status}`);
   }
   if (!importer || !source) return;
   const { body, contentType } = source.next();
-  const answer = await fetch(new URL('/api/imports/commit', baseUrl), { method: 'POST', body: new Uint8Array(body), headers: { cookie: importer, origin: new URL(baseUrl).origin, 'content-type': contentType } });
+  const answer = await fetch(new URL('/api/imports/commit', baseUrl), {
+    method: 'POST', body: new Uint8Array(body), headers: { cookie: importer, origin: new URL(baseUrl).origin, 'content-type': contentType },
+  });
   if (answer.status !== 201) throw new Error(`warm-up import answered ${answer.status}: ${await answer.text()}`);
 }
 
-function describe(options: LoadOptions, plates: number, requests: number, prepared: number): string {
-  const pace = options.readerRate > 0 ? `${options.readerRate} request/s each` : 'back to back';
+function describe(options: LoadOptions, plates: number, reads: number, prepared: number): string {
+  const pace = options.readRate > 0
+    ? `${options.readRate} reads/s in all (one read per reader every ${(options.readers / options.readRate).toFixed(1)} s)`
+    : 'each reader sending the next read as soon as the answer arrives';
   return [
     `Gatewell load test against ${options.url} for ${options.durationS} s`,
-    `  reads:   ${options.readers} people (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, cycling through ${requests} requests over ${plates} plate(s)`,
+    `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
     `  imports: ${options.importers} biologist session(s) posting distinct plate exports back to back (${prepared} encoded ahead, seed ${options.seed})`,
     `  machine: ${availableParallelism()} cores, load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
   ].join('\n');
@@ -71,10 +89,8 @@ function report(reads: Tally, imports: Tally | null, source: CommitSource | null
   const importFigures = imports && groupFigures(imports);
   console.log(`\n${groupLine('reads', readFigures)}`);
   for (const [route, figures] of routeFigures(reads.samples)) console.log(routeLine(route, figures));
-  if (importFigures && imports) {
-    console.log(groupLine('imports', importFigures));
-    if (source?.builtDuringRun()) console.log(`  ${source.builtDuringRun()} export(s) were built during the run (raise --prepare)`);
-  }
+  if (importFigures) console.log(groupLine('imports', importFigures));
+  if (source?.builtDuringRun()) console.log(`  ${source.builtDuringRun()} export(s) were built during the run (raise --prepare)`);
   for (const refusal of [...reads.firstRefusals, ...(imports?.firstRefusals ?? [])]) console.log(`  refused: ${refusal}`);
   console.log(`  load average ${loadavg()[0]!.toFixed(2)} at the end`);
   const missed = missedTargets(readFigures, importFigures, options.p95LimitMs);
@@ -96,19 +112,19 @@ async function main(): Promise<number> {
   const importerCookies = await signInAll(options.url, Array.from({ length: options.importers }, () => BIOLOGIST));
   const plateIds = (await listedPlateIds(options.url, readerCookies[0] ?? importerCookies[0] ?? '')).slice(0, options.plates);
   if (plateIds.length === 0) throw new Error('the plate list is empty: seed the demo data first');
-  const requests = readRequests(plateIds);
+  const sequence = readSequence(plateIds);
   const source = options.importers > 0
     ? await prepareCommits({ baseUrl: options.url, cookie: importerCookies[0]!, prepare: options.prepare, firstSeed: options.seed, tag: `LOAD-${options.seed.toString(36).toUpperCase()}` })
     : null;
-  await warmUp(options.url, readerCookies[0] ?? importerCookies[0]!, requests, importerCookies[0] ?? null, source);
-  console.log(describe(options, plateIds.length, requests.length, source?.prepared ?? 0));
+  await warmUp(options.url, readerCookies[0] ?? importerCookies[0]!, sequence, importerCookies[0] ?? null, source);
+  console.log(describe(options, plateIds.length, sequence.length, source?.prepared ?? 0));
 
-  const readers: Person[] = readerCookies.map((cookie, i) => ({ cookie, requests: [...requests.slice(i % requests.length), ...requests.slice(0, i % requests.length)] }));
-  const importers: Person[] = source ? importerCookies.map((cookie) => ({ cookie, requests: [commitRequest(options.url, source)] })) : [];
   const group = { baseUrl: options.url, durationS: options.durationS, timeoutS: options.timeoutS };
   const [reads, imports] = await Promise.all([
-    runPeople(readers, { ...group, ratePerPerson: options.readerRate, staggerMs: 1000 / Math.max(1, readers.length) }),
-    importers.length ? runPeople(importers, { ...group, ratePerPerson: 0, staggerMs: 1000 / importers.length }) : Promise.resolve(null),
+    readerCookies.length
+      ? runGroup(readSchedule(readerCookies, sequence), { ...group, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
+      : Promise.resolve({ samples: [], socketErrors: 0, timeouts: 0, seconds: 0, firstRefusals: [] }),
+    source ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importers, ratePerConnection: 0 }) : Promise.resolve(null),
   ]);
   const met = report(reads, imports, source, options);
   return met || options.reportOnly ? 0 : 1;

@@ -3,7 +3,7 @@ declare module 'autocannon' {
   import type { EventEmitter } from 'node:events';
 
   namespace autocannon {
-    /** One request of a connection's sequence; extra keys (Gatewell's `route`) travel with it. */
+    /** One request of a connection's sequence. */
     interface Request {
       method?: 'GET' | 'POST';
       path?: string;
@@ -12,7 +12,6 @@ declare module 'autocannon' {
       /** Called before each send; returns the request to send (a copy with a new body, say). */
       setupRequest?: (request: Request, context: Record<string, unknown>) => Request;
       onResponse?: (status: number, body: string, context: Record<string, unknown>, headers: Record<string, string | string[]>) => void;
-      route?: string;
     }
 
     interface Options {
@@ -28,7 +27,8 @@ declare module 'autocannon' {
     }
 
     interface Client extends EventEmitter {
-      requestIterator: { currentRequest: Request };
+      /** The connection's request context; Gatewell's template keeps the route of the request in flight there. */
+      requestIterator: { context: Record<string, unknown> };
     }
 
     interface Result {

@@ -9,7 +9,7 @@ const schema = z.object({
   readers: count(1000).default(50),
   importers: count(100).default(5),
   durationS: z.coerce.number().int().min(1).max(3600).default(30),
-  readerRate: count(1000).default(1),
+  readRate: count(10_000).optional(),
   plates: z.coerce.number().int().min(1).max(100).default(4),
   p95LimitMs: z.coerce.number().positive().default(100),
   timeoutS: z.coerce.number().positive().max(600).default(10),
@@ -19,14 +19,16 @@ const schema = z.object({
 });
 
 /** The flag of each option whose name differs from its key. */
-const FLAGS: Record<string, string> = { durationS: 'duration', readerRate: 'reader-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only' };
+const FLAGS: Record<string, string> = { durationS: 'duration', readRate: 'read-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only' };
 
-export type LoadOptions = z.infer<typeof schema> & { prepare: number; seed: number };
+export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
 
 export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --url URL            the running production build (default http://127.0.0.1:4340)
   --readers N          signed-in people reading plates (default 50), each with a session of a demo user in turn
-  --reader-rate N      requests per second per reader; 0 sends the next as soon as the answer arrives (default 1)
+  --read-rate N        reads per second from all readers together, spread evenly over the readers and over each
+                       second (default: as many as readers, one per reader per second); 0 lets every reader
+                       send the next read as soon as the answer arrives
   --importers N        biologists posting plate exports to /api/imports/commit back to back (default 5)
   --duration S         seconds of load (default 30)
   --plates N           how many plates of the plate list the readers open (default 4)
@@ -44,7 +46,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
       args: argv,
       options: {
         url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' },
-        'reader-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
+        'read-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
         prepare: { type: 'string' }, seed: { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
       },
     }));
@@ -53,7 +55,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   }
   if (values.help) return { ok: false, message: USAGE };
   const parsed = schema.safeParse({
-    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readerRate: values['reader-rate'],
+    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'],
     plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, prepare: values.prepare, seed: values.seed,
     reportOnly: values['report-only'],
   });
@@ -64,6 +66,9 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   const options = parsed.data;
   return {
     ok: true,
-    options: { ...options, prepare: options.prepare ?? options.importers * options.durationS, seed: options.seed ?? Date.now() % 2 ** 31 },
+    options: {
+      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? options.importers * options.durationS,
+      seed: options.seed ?? Date.now() % 2 ** 31,
+    },
   };
 }
