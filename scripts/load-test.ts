@@ -76,10 +76,11 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
   const pace = options.readRate > 0
     ? `${options.readRate} reads/s in all (one read per reader every ${(options.readers / options.readRate).toFixed(1)} s)`
     : 'each reader sending the next read as soon as the answer arrives';
+  const importPace = options.importRate > 0 ? `in turn, ${options.importRate} import(s)/s in all` : 'back to back';
   return [
     `Gatewell load test against ${options.url} for ${options.durationS} s`,
     `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
-    `  imports: ${options.importers} biologist session(s) posting distinct plate exports back to back (${prepared} encoded ahead, seed ${options.seed})`,
+    `  imports: ${options.importers} biologist session(s) posting distinct plate exports ${importPace} (${prepared} encoded ahead, seed ${options.seed})`,
     `  machine: ${availableParallelism()} cores, load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
   ].join('\n');
 }
@@ -124,7 +125,9 @@ async function main(): Promise<number> {
     readerCookies.length
       ? runGroup(readSchedule(readerCookies, sequence), { ...group, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
       : Promise.resolve({ samples: [], socketErrors: 0, timeouts: 0, seconds: 0, firstRefusals: [] }),
-    source ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importers, ratePerConnection: 0 }) : Promise.resolve(null),
+    source
+      ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importRate || options.importers, ratePerConnection: options.importRate ? 1 : 0 })
+      : Promise.resolve(null),
   ]);
   const met = report(reads, imports, source, options);
   return met || options.reportOnly ? 0 : 1;

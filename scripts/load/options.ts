@@ -10,6 +10,7 @@ const schema = z.object({
   importers: count(100).default(5),
   durationS: z.coerce.number().int().min(1).max(3600).default(30),
   readRate: count(10_000).optional(),
+  importRate: count(1000).default(0),
   plates: z.coerce.number().int().min(1).max(100).default(4),
   p95LimitMs: z.coerce.number().positive().default(100),
   timeoutS: z.coerce.number().positive().max(600).default(10),
@@ -19,7 +20,7 @@ const schema = z.object({
 });
 
 /** The flag of each option whose name differs from its key. */
-const FLAGS: Record<string, string> = { durationS: 'duration', readRate: 'read-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only' };
+const FLAGS: Record<string, string> = { durationS: 'duration', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only' };
 
 export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
 
@@ -29,7 +30,9 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --read-rate N        reads per second from all readers together, spread evenly over the readers and over each
                        second (default: as many as readers, one per reader per second); 0 lets every reader
                        send the next read as soon as the answer arrives
-  --importers N        biologists posting plate exports to /api/imports/commit back to back (default 5)
+  --importers N        biologist sessions posting plate exports to /api/imports/commit (default 5)
+  --import-rate N      imports per second from all importers together, taking turns; 0 (default) lets every
+                       importer post the next export as soon as the answer arrives
   --duration S         seconds of load (default 30)
   --plates N           how many plates of the plate list the readers open (default 4)
   --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
@@ -46,7 +49,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
       args: argv,
       options: {
         url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' },
-        'read-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
+        'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
         prepare: { type: 'string' }, seed: { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
       },
     }));
@@ -55,7 +58,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   }
   if (values.help) return { ok: false, message: USAGE };
   const parsed = schema.safeParse({
-    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'],
+    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'], importRate: values['import-rate'],
     plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, prepare: values.prepare, seed: values.seed,
     reportOnly: values['report-only'],
   });
