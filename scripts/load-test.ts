@@ -102,8 +102,8 @@ function report(reads: Tally, imports: Tally | null, source: CommitSource | null
 async function main(): Promise<number> {
   const parsed = parseOptions(process.argv.slice(2));
   if (!parsed.ok) {
-    console.error(parsed.message);
-    return 2;
+    (parsed.exitCode ? console.error : console.log)(parsed.message);
+    return parsed.exitCode;
   }
   const { options } = parsed;
   const health = await fetch(new URL('/api/health', options.url));

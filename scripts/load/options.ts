@@ -42,7 +42,7 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --report-only        print the figures and exit 0 even when a target is missed`;
 
 /** The options of this run, or a message saying what is wrong with the command line. */
-export function parseOptions(argv: string[]): { ok: true; options: LoadOptions } | { ok: false; message: string } {
+export function parseOptions(argv: string[]): { ok: true; options: LoadOptions } | { ok: false; message: string; exitCode: number } {
   let values;
   try {
     ({ values } = parseArgs({
@@ -54,9 +54,9 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
       },
     }));
   } catch (error) {
-    return { ok: false, message: `${(error as Error).message}\n${USAGE}` };
+    return { ok: false, message: `${(error as Error).message}\n${USAGE}`, exitCode: 2 };
   }
-  if (values.help) return { ok: false, message: USAGE };
+  if (values.help) return { ok: false, message: USAGE, exitCode: 0 };
   const parsed = schema.safeParse({
     url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'], importRate: values['import-rate'],
     plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, prepare: values.prepare, seed: values.seed,
@@ -64,7 +64,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   });
   if (!parsed.success) {
     const lines = parsed.error.issues.map((issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`);
-    return { ok: false, message: `${lines.join('\n')}\n${USAGE}` };
+    return { ok: false, message: `${lines.join('\n')}\n${USAGE}`, exitCode: 2 };
   }
   const options = parsed.data;
   return {
