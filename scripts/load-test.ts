@@ -72,6 +72,20 @@ async function warmUp(baseUrl: string, cookie: string, reads: Read[], importer: 
   if (answer.status !== 201) throw new Error(`warm-up import answered ${answer.status}: ${await answer.text()}`);
 }
 
+/** Imports `count` exports before the clock starts, one session each at a time, so that reads meet a longer plate list. */
+async function grow(baseUrl: string, cookies: string[], source: CommitSource, count: number): Promise<void> {
+  let left = count;
+  const origin = new URL(baseUrl).origin;
+  await Promise.all(cookies.map(async (cookie) => {
+    while (left > 0) {
+      left -= 1;
+      const { body, contentType } = source.next();
+      const answer = await fetch(new URL('/api/imports/commit', baseUrl), { method: 'POST', body: new Uint8Array(body), headers: { cookie, origin, 'content-type': contentType } });
+      if (answer.status !== 201) throw new Error(`an import before the run answered ${answer.status}: ${await answer.text()}`);
+    }
+  }));
+}
+
 function describe(options: LoadOptions, plates: number, reads: number, prepared: number): string {
   const pace = options.readRate > 0
     ? `${options.readRate} reads/s in all (one read per reader every ${(options.readers / options.readRate).toFixed(1)} s)`
@@ -81,6 +95,7 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
     `Gatewell load test against ${options.url} for ${options.durationS} s`,
     `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
     `  imports: ${options.importers} biologist session(s) posting distinct plate exports ${importPace} (${prepared} encoded ahead, seed ${options.seed})`,
+    ...(options.grow ? [`  before:  ${options.grow} exports imported before the clock started, so the plate list is that much longer`] : []),
     `  machine: ${availableParallelism()} cores, load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
   ].join('\n');
 }
@@ -110,14 +125,15 @@ async function main(): Promise<number> {
   if (health.status !== 200) throw new Error(`${options.url}/api/health answered ${health.status}`);
 
   const readerCookies = await signInAll(options.url, Array.from({ length: options.readers }, (_, i) => DEMO_ACCOUNTS[i % DEMO_ACCOUNTS.length]!));
-  const importerCookies = await signInAll(options.url, Array.from({ length: options.importers }, () => BIOLOGIST));
+  const importerCookies = await signInAll(options.url, Array.from({ length: Math.max(options.importers, options.grow ? 1 : 0) }, () => BIOLOGIST));
   const plateIds = (await listedPlateIds(options.url, readerCookies[0] ?? importerCookies[0] ?? '')).slice(0, options.plates);
   if (plateIds.length === 0) throw new Error('the plate list is empty: seed the demo data first');
   const sequence = readSequence(plateIds);
-  const source = options.importers > 0
+  const source = importerCookies.length > 0
     ? await prepareCommits({ baseUrl: options.url, cookie: importerCookies[0]!, prepare: options.prepare, firstSeed: options.seed, tag: `LOAD-${options.seed.toString(36).toUpperCase()}` })
     : null;
   await warmUp(options.url, readerCookies[0] ?? importerCookies[0]!, sequence, importerCookies[0] ?? null, source);
+  if (source && options.grow) await grow(options.url, importerCookies, source, options.grow);
   console.log(describe(options, plateIds.length, sequence.length, source?.prepared ?? 0));
 
   const group = { baseUrl: options.url, durationS: options.durationS, timeoutS: options.timeoutS };
@@ -125,7 +141,7 @@ async function main(): Promise<number> {
     readerCookies.length
       ? runGroup(readSchedule(readerCookies, sequence), { ...group, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
       : Promise.resolve({ samples: [], socketErrors: 0, timeouts: 0, seconds: 0, firstRefusals: [] }),
-    source
+    source && options.importers
       ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importRate || options.importers, ratePerConnection: options.importRate ? 1 : 0 })
       : Promise.resolve(null),
   ]);

@@ -14,6 +14,7 @@ const schema = z.object({
   plates: z.coerce.number().int().min(1).max(100).default(4),
   p95LimitMs: z.coerce.number().positive().default(100),
   timeoutS: z.coerce.number().positive().max(600).default(10),
+  grow: count(100_000).default(0),
   prepare: count(100_000).optional(),
   seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
   reportOnly: z.boolean().default(false),
@@ -37,7 +38,10 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --plates N           how many plates of the plate list the readers open (default 4)
   --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
   --timeout S          seconds before a request counts as timed out (default 10)
-  --prepare N          commit requests encoded before the run (default importers × duration; more are built on demand)
+  --grow N             import N more exports before the clock starts (not measured), so that reads meet a longer
+                       plate list (default 0)
+  --prepare N          commit requests encoded before the run (default 1 + grow + importers × duration; more are built
+                       on demand)
   --seed N             first seed of the generated exports (default from the clock)
   --report-only        print the figures and exit 0 even when a target is missed`;
 
@@ -50,7 +54,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
       options: {
         url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' },
         'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
-        prepare: { type: 'string' }, seed: { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
+        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
       },
     }));
   } catch (error) {
@@ -59,7 +63,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   if (values.help) return { ok: false, message: USAGE, exitCode: 0 };
   const parsed = schema.safeParse({
     url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'], importRate: values['import-rate'],
-    plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, prepare: values.prepare, seed: values.seed,
+    plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, grow: values.grow, prepare: values.prepare, seed: values.seed,
     reportOnly: values['report-only'],
   });
   if (!parsed.success) {
@@ -70,7 +74,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   return {
     ok: true,
     options: {
-      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? options.importers * options.durationS,
+      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? 1 + options.grow + options.importers * options.durationS,
       seed: options.seed ?? Date.now() % 2 ** 31,
     },
   };
