@@ -63,7 +63,7 @@ done
 health_ok || { say "no healthy answer from $APP_URL/api/health within 60 s"; exit 2; }
 
 set +e
-node --import tsx scripts/load-test.ts --url "$APP_URL" "$@"
+node --import tsx scripts/load-test.ts --url "$APP_URL" --server-pid "$server_pid" "$@"
 status=$?
 set -e
 exit $status

@@ -8,6 +8,7 @@ import { prepareCommits, type CommitSource } from './load/commit-source';
 import { listedPlateIds } from './load/discover';
 import { parseOptions, type LoadOptions } from './load/options';
 import { runGroup, type ScheduledRequest, type Tally } from './load/run-people';
+import { cpuSeconds } from './load/server-cpu';
 import { DEMO_ACCOUNTS, signIn, type DemoAccount } from './load/sign-in';
 import { groupFigures, groupLine, missedTargets, routeFigures, routeLine } from './load/summary';
 
@@ -96,21 +97,32 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
     `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
     `  imports: ${options.importers} biologist session(s) posting distinct plate exports ${importPace} (${prepared} encoded ahead, seed ${options.seed})`,
     ...(options.grow ? [`  before:  ${options.grow} exports imported before the clock started, so the plate list is that much longer`] : []),
-    `  machine: ${availableParallelism()} cores, load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
+    `  machine: ${availableParallelism()} cores, 1-minute load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
   ].join('\n');
 }
 
-function report(reads: Tally, imports: Tally | null, source: CommitSource | null, options: LoadOptions): boolean {
-  const readFigures = groupFigures(reads);
+/** One line on the server's CPU during the load: how busy it kept one core, and the CPU per answer. */
+function cpuLine(cpuS: number, reads: Tally, imports: Tally | null): string {
+  const seconds = Math.max(reads.seconds, imports?.seconds ?? 0);
+  const answers = reads.samples.length + (imports?.samples.length ?? 0);
+  return `  server process: ${cpuS.toFixed(1)} s CPU in ${seconds.toFixed(1)} s of load (${((100 * cpuS) / seconds).toFixed(0)} % of one core), `
+    + `${answers ? ((1000 * cpuS) / answers).toFixed(1) : '—'} ms per answer`;
+}
+
+function report(reads: Tally, imports: Tally | null, source: CommitSource | null, options: LoadOptions, cpuS: number | null): boolean {
+  const readFigures = options.readers ? groupFigures(reads) : null;
   const importFigures = imports && groupFigures(imports);
-  console.log(`\n${groupLine('reads', readFigures)}`);
+  console.log('');
+  if (readFigures) console.log(groupLine('reads', readFigures));
   for (const [route, figures] of routeFigures(reads.samples)) console.log(routeLine(route, figures));
   if (importFigures) console.log(groupLine('imports', importFigures));
   if (source?.builtDuringRun()) console.log(`  ${source.builtDuringRun()} export(s) were built during the run (raise --prepare)`);
   for (const refusal of [...reads.firstRefusals, ...(imports?.firstRefusals ?? [])]) console.log(`  refused: ${refusal}`);
-  console.log(`  load average ${loadavg()[0]!.toFixed(2)} at the end`);
+  if (cpuS !== null) console.log(cpuLine(cpuS, reads, imports));
+  console.log(`  1-minute load average ${loadavg()[0]!.toFixed(2)} at the end`);
   const missed = missedTargets(readFigures, importFigures, options.p95LimitMs);
-  console.log(missed.length ? `\ntargets missed: ${missed.join('; ')}` : `\ntargets met: reads p95 < ${options.p95LimitMs} ms, no errors`);
+  const met = readFigures ? `reads p95 < ${options.p95LimitMs} ms, no errors` : 'no errors';
+  console.log(missed.length ? `\ntargets missed: ${missed.join('; ')}` : `\ntargets met: ${met}`);
   return missed.length === 0;
 }
 
@@ -137,6 +149,7 @@ async function main(): Promise<number> {
   console.log(describe(options, plateIds.length, sequence.length, source?.prepared ?? 0));
 
   const group = { baseUrl: options.url, durationS: options.durationS, timeoutS: options.timeoutS };
+  const cpuBefore = options.serverPid ? cpuSeconds(options.serverPid) : null;
   const [reads, imports] = await Promise.all([
     readerCookies.length
       ? runGroup(readSchedule(readerCookies, sequence), { ...group, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
@@ -145,7 +158,8 @@ async function main(): Promise<number> {
       ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importRate || options.importers, ratePerConnection: options.importRate ? 1 : 0 })
       : Promise.resolve(null),
   ]);
-  const met = report(reads, imports, source, options);
+  const cpuAfter = options.serverPid ? cpuSeconds(options.serverPid) : null;
+  const met = report(reads, imports, source, options, cpuBefore !== null && cpuAfter !== null ? cpuAfter - cpuBefore : null);
   return met || options.reportOnly ? 0 : 1;
 }
 

@@ -17,11 +17,12 @@ const schema = z.object({
   grow: count(100_000).default(0),
   prepare: count(100_000).optional(),
   seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
+  serverPid: z.coerce.number().int().positive().optional(),
   reportOnly: z.boolean().default(false),
 });
 
 /** The flag of each option whose name differs from its key. */
-const FLAGS: Record<string, string> = { durationS: 'duration', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only' };
+const FLAGS: Record<string, string> = { durationS: 'duration', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only', serverPid: 'server-pid' };
 
 export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
 
@@ -43,6 +44,7 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --prepare N          commit requests encoded before the run (default 1 + grow + importers × duration; more are built
                        on demand)
   --seed N             first seed of the generated exports (default from the clock)
+  --server-pid PID     the server's process id: prints the CPU time it used during the load (Linux)
   --report-only        print the figures and exit 0 even when a target is missed`;
 
 /** The options of this run, or a message saying what is wrong with the command line. */
@@ -54,7 +56,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
       options: {
         url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' },
         'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
-        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
+        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
       },
     }));
   } catch (error) {
@@ -64,7 +66,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   const parsed = schema.safeParse({
     url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'], importRate: values['import-rate'],
     plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, grow: values.grow, prepare: values.prepare, seed: values.seed,
-    reportOnly: values['report-only'],
+    serverPid: values['server-pid'], reportOnly: values['report-only'],
   });
   if (!parsed.success) {
     const lines = parsed.error.issues.map((issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`);

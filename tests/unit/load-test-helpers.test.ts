@@ -16,6 +16,8 @@ describe('load test figures', () => {
     expect(figures).toMatchObject({ answers: 5, perSecond: 2.5, non2xx: 2, statuses: { 500: 1, 307: 1 }, errors: 5, p50: 30, max: 50 });
     expect(missedTargets(figures, null, 100)).toEqual(['5 read error(s)']);
     expect(missedTargets({ ...figures, errors: 0 }, { ...figures, errors: 0 }, 40)).toEqual(['reads p95 50.0 ms is not under 40 ms']);
+    expect(missedTargets(null, { ...figures, errors: 0 }, 40)).toEqual([]);
+    expect(missedTargets({ ...figures, answers: 0, errors: 0 }, null, 40)).toEqual(['no read was answered']);
   });
 });
 
