@@ -31,9 +31,19 @@ export interface PlateFilter {
   to?: string;
 }
 
-/** Plates, newest first, with well counts and the number of wells that fail QC on any target. */
-export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promise<PlateSummary[]> {
-  void actor; // every signed-in role may read plates
+/** Plates per page of the plates list. */
+export const PLATE_PAGE_SIZE = 50;
+
+/** One page of the plates list and how many plates match in all. */
+export interface PlatePage {
+  plates: PlateSummary[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** The filter as SQL conditions on `plates p`, or null when nothing can match. */
+function filterSql(filter: PlateFilter): { where: string; replacements: Record<string, unknown> } | null {
   const where: string[] = [];
   const replacements: Record<string, unknown> = {};
   if (filter.state?.length) {
@@ -42,7 +52,7 @@ export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promis
   }
   if (filter.waitingFor) {
     const awaiting = awaitingCondition(filter.waitingFor);
-    if (!awaiting) return [];
+    if (!awaiting) return null;
     where.push(awaiting.sql);
     Object.assign(replacements, awaiting.replacements);
   }
@@ -62,21 +72,49 @@ export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promis
     where.push("p.imported_at < ((cast(:to as date) + 1) at time zone 'UTC')");
     replacements.to = filter.to;
   }
+  return { where: where.length ? `where ${where.join(' and ')}` : '', replacements };
+}
+
+/**
+ * Plates, newest first, with well counts and the number of wells that fail QC on any target. The
+ * counts are worked out for the returned plates only; a well fails when one of its readouts has QC
+ * reasons (found through the partial index readouts_failing_well).
+ */
+async function selectPlates(filter: PlateFilter, limit: number, offset: number): Promise<PlateSummary[]> {
+  const sql = filterSql(filter);
+  if (!sql) return [];
   return db().query<PlateSummary>(
     `select p.id, p.label, p.format, p.state, s.name as "screenName", u.name as "importedBy",
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
             (select count(*)::int from wells w where w.plate_id = p.id) as "wellCount",
-            (select count(distinct w.id)::int from wells w join readouts r on r.well_id = w.id
-              where w.plate_id = p.id and jsonb_array_length(r.qc_reasons) > 0) as "failingWellCount",
+            (select count(*)::int from wells w where w.plate_id = p.id
+                and exists (select 1 from readouts r where r.well_id = w.id and jsonb_array_length(r.qc_reasons) > 0)) as "failingWellCount",
             (select count(*)::int from jsonb_array_elements(p.qc_summary) q where (q -> 'zPrime' ->> 'passes')::boolean is not true) as "failingTargets"
        from plates p
        join screens s on s.id = p.screen_id
        join users u on u.id = p.imported_by
-      ${where.length ? `where ${where.join(' and ')}` : ''}
-      order by p.imported_at desc
-      limit 500`,
-    { type: QueryTypes.SELECT, replacements },
+      ${sql.where}
+      order by p.imported_at desc, p.id desc
+      limit :limit offset :offset`,
+    { type: QueryTypes.SELECT, replacements: { ...sql.replacements, limit, offset } },
   );
+}
+
+/** Up to 500 plates matching the filter, newest first (the "My work" list). */
+export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promise<PlateSummary[]> {
+  void actor; // every signed-in role may read plates
+  return selectPlates(filter, 500, 0);
+}
+
+/** Page `page` (from 1) of the plates matching the filter, newest first, with the number that match. */
+export async function listPlatePage(actor: Actor, filter: PlateFilter, page: number, pageSize = PLATE_PAGE_SIZE): Promise<PlatePage> {
+  void actor; // every signed-in role may read plates
+  const sql = filterSql(filter);
+  const [plates, [counted]] = await Promise.all([
+    selectPlates(filter, pageSize, (page - 1) * pageSize),
+    sql ? db().query<{ total: number }>(`select count(*)::int as total from plates p ${sql.where}`, { type: QueryTypes.SELECT, replacements: sql.replacements }) : [{ total: 0 }],
+  ]);
+  return { plates, total: counted?.total ?? 0, page, pageSize };
 }
 
 /** The people who imported at least one plate, for the importer filter. */

@@ -36,7 +36,7 @@ export async function plateHistory(actor: Actor, plateId: string): Promise<Histo
             s.meaning, s.comment, s.content_sha256 as "contentSha256", to_char(s.signed_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "signedAt"
        from audit_events a
        left join users u on u.id = a.actor_id
-       left join wells w on a.entity_type = 'well' and w.id::text = a.entity_id
+       left join wells w on a.entity_type = 'well' and w.plate_id = :plateId and w.id::text = a.entity_id
        left join signatures s on a.action = 'sign' and s.id::text = a.after ->> 'signatureId'
       where (a.entity_type = 'plate' and a.entity_id = :plateId)
          or (a.entity_type = 'well' and a.entity_id in (select id::text from wells where plate_id = :plateId))

@@ -1,23 +1,26 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { PlateFilters } from '@/components/plates/plate-filters';
+import { PlatePager } from '@/components/plates/plate-pager';
 import { PlateTable } from '@/components/plates/plate-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { listImporters, listPlates } from '@/lib/plates/list';
+import { listImporters, listPlatePage } from '@/lib/plates/list';
 import { listScreens } from '@/lib/screens/list';
-import { plateFilterSchema } from '@/lib/validation/plate-filter';
+import { plateFilterSchema, platePageHref, platePageSchema } from '@/lib/validation/plate-filter';
 
 export const metadata: Metadata = { title: 'Plates' };
 
 export default async function PlatesPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const actor = await requireActor();
-  const filter = plateFilterSchema.parse(await searchParams);
-  const [plates, screens, importers] = await Promise.all([
-    listPlates(actor, {
+  const params = await searchParams;
+  const filter = plateFilterSchema.parse(params);
+  const [result, screens, importers] = await Promise.all([
+    listPlatePage(actor, {
       ...(filter.state ? { state: [filter.state] } : {}), ...(filter.screen ? { screenId: filter.screen } : {}),
       ...(filter.importer ? { importedBy: filter.importer } : {}), ...(filter.from ? { from: filter.from } : {}), ...(filter.to ? { to: filter.to } : {}),
-    }),
+    }, platePageSchema.parse(params.page)),
     listScreens(actor),
     listImporters(actor),
   ]);
@@ -26,8 +29,15 @@ export default async function PlatesPage({ searchParams }: { searchParams: Promi
     <>
       <PageHeader title="Plates" intro="Every imported plate, newest first, with its sign-off state and QC failures." />
       <PlateFilters filter={filter} screens={screens} importers={importers} />
-      {plates.length ? (
-        <PlateTable plates={plates} caption="Plates" />
+      {result.plates.length ? (
+        <>
+          <PlatePager filter={filter} result={result} />
+          <PlateTable plates={result.plates} caption="Plates" />
+        </>
+      ) : result.total ? (
+        <EmptyState title="This page is past the last plate">
+          <Link href={platePageHref(filter, 1)} className="underline">Go to the newest plates</Link>.
+        </EmptyState>
       ) : filtered ? (
         <EmptyState title="No plate matches these filters">Widen the dates or clear the filters.</EmptyState>
       ) : (

@@ -1,0 +1,18 @@
+import Link from 'next/link';
+import type { PlatePage } from '@/lib/plates/list';
+import { platePageHref, type PlateFilterParams } from '@/lib/validation/plate-filter';
+
+/** Which plates this page shows, with links to the newer and older pages. */
+export function PlatePager({ filter, result }: { filter: PlateFilterParams; result: PlatePage }) {
+  const first = (result.page - 1) * result.pageSize + 1;
+  const last = first + result.plates.length - 1;
+  return (
+    <div className="mb-2 flex items-center justify-between text-sm text-ink-700">
+      <p aria-live="polite">Plates {first}–{last} of {result.total}, newest first</p>
+      <nav aria-label="Pages of plates" className="flex gap-2">
+        {result.page > 1 ? <Link href={platePageHref(filter, result.page - 1)} className="gw-button-quiet py-1">Newer</Link> : null}
+        {last < result.total ? <Link href={platePageHref(filter, result.page + 1)} className="gw-button-quiet py-1">Older</Link> : null}
+      </nav>
+    </div>
+  );
+}

@@ -1,0 +1,69 @@
+#!/usr/bin/env bash
+# Gatewell's load test from one command on a fresh machine: its own PostgreSQL cluster (test-load on
+# 127.0.0.1:54340) with a fresh database and the demo data, a production build in .next-load/, `next start`
+# on 127.0.0.1:4340 without the mail sender, then scripts/load-test.ts; the server and the cluster are
+# stopped afterwards. Arguments go to the load test, e.g. `bash scripts/load-test.sh --report-only`.
+# Exits with the load test's status: 0 targets met, 1 missed, 2 could not run.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
+
+instance=test-load
+export GATEWELL_PG_TEST_PORT=${GATEWELL_PG_TEST_PORT:-54340}
+port=${GATEWELL_LOAD_PORT:-4340}
+DATABASE_URL=$(bash scripts/pg.sh url "$instance")
+export DATABASE_URL
+export SESSION_SECRET=${LOAD_SESSION_SECRET:-gatewell-load-secret-0123456789-abcdefghij}
+export APP_URL=http://127.0.0.1:$port
+export GATEWELL_DIST_DIR=.next-load
+export GATEWELL_MAIL_SENDER=off
+
+server_pid=
+stop_all() {
+  if [ -n "$server_pid" ] && kill -0 "$server_pid" 2>/dev/null; then
+    say "stopping the server"
+    kill "$server_pid" 2>/dev/null || true
+    wait "$server_pid" 2>/dev/null || true
+  fi
+  bash scripts/pg.sh stop "$instance" || true
+}
+trap stop_all EXIT
+
+# Answers 0 once GET /api/health says ok (node's fetch: a fresh machine may have no curl).
+health_ok() {
+  node -e "fetch(process.argv[1]).then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))" "$APP_URL/api/health"
+}
+
+ensure_node_modules
+if health_ok; then
+  say "something already answers on $APP_URL; stop it first"
+  exit 2
+fi
+
+say "PostgreSQL $instance on 127.0.0.1:$GATEWELL_PG_TEST_PORT with a fresh database"
+bash scripts/pg.sh reset "$instance"
+say "migrating and seeding the demo data"
+migrate
+seed
+
+say "production build into $GATEWELL_DIST_DIR/ (log in .var/load-build.log)"
+mkdir -p .var
+# next build adds its dist folder to tsconfig.json's include list; put the file back as it was.
+cp tsconfig.json .var/load-tsconfig.json
+npx next build >.var/load-build.log 2>&1 || { cp .var/load-tsconfig.json tsconfig.json; tail -n 40 .var/load-build.log; say "the build failed"; exit 2; }
+cp .var/load-tsconfig.json tsconfig.json
+
+say "serving on $APP_URL (log in .var/load-server.log)"
+node_modules/.bin/next start --port "$port" --hostname 127.0.0.1 >.var/load-server.log 2>&1 &
+server_pid=$!
+for _ in $(seq 120); do
+  health_ok && break
+  kill -0 "$server_pid" 2>/dev/null || { tail -n 20 .var/load-server.log; say "the server stopped"; exit 2; }
+  sleep 0.5
+done
+health_ok || { say "no healthy answer from $APP_URL/api/health within 60 s"; exit 2; }
+
+set +e
+node --import tsx scripts/load-test.ts --url "$APP_URL" --server-pid "$server_pid" "$@"
+status=$?
+set -e
+exit $status

@@ -1,0 +1,83 @@
+// Command-line options of scripts/load-test.ts, checked with zod.
+import { parseArgs } from 'node:util';
+import { z } from 'zod';
+
+const count = (max: number) => z.coerce.number().int().min(0).max(max);
+
+const schema = z.object({
+  url: z.url({ protocol: /^https?$/ }).default('http://127.0.0.1:4340'),
+  readers: count(1000).default(50),
+  importers: count(100).default(5),
+  durationS: z.coerce.number().int().min(1).max(3600).default(30),
+  readRate: count(10_000).optional(),
+  importRate: count(1000).default(0),
+  plates: z.coerce.number().int().min(1).max(100).default(4),
+  p95LimitMs: z.coerce.number().positive().default(100),
+  timeoutS: z.coerce.number().positive().max(600).default(10),
+  grow: count(100_000).default(0),
+  prepare: count(100_000).optional(),
+  seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
+  serverPid: z.coerce.number().int().positive().optional(),
+  reportOnly: z.boolean().default(false),
+});
+
+/** The flag of each option whose name differs from its key. */
+const FLAGS: Record<string, string> = { durationS: 'duration', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only', serverPid: 'server-pid' };
+
+export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
+
+export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
+  --url URL            the running production build (default http://127.0.0.1:4340)
+  --readers N          signed-in people reading plates (default 50), each with a session of a demo user in turn
+  --read-rate N        reads per second from all readers together, spread evenly over the readers and over each
+                       second (default: as many as readers, one per reader per second); 0 lets every reader
+                       send the next read as soon as the answer arrives
+  --importers N        biologist sessions posting plate exports to /api/imports/commit (default 5)
+  --import-rate N      imports per second from all importers together, taking turns; 0 (default) lets every
+                       importer post the next export as soon as the answer arrives
+  --duration S         seconds of load (default 30)
+  --plates N           how many plates of the plate list the readers open (default 4)
+  --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
+  --timeout S          seconds before a request counts as timed out (default 10)
+  --grow N             import N more exports before the clock starts (not measured), so that reads meet a longer
+                       plate list (default 0)
+  --prepare N          commit requests encoded before the run (default 1 + grow + importers × duration; more are built
+                       on demand)
+  --seed N             first seed of the generated exports (default from the clock)
+  --server-pid PID     the server's process id: prints the CPU time it used during the load (Linux)
+  --report-only        print the figures and exit 0 even when a target is missed`;
+
+/** The options of this run, or a message saying what is wrong with the command line. */
+export function parseOptions(argv: string[]): { ok: true; options: LoadOptions } | { ok: false; message: string; exitCode: number } {
+  let values;
+  try {
+    ({ values } = parseArgs({
+      args: argv,
+      options: {
+        url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' },
+        'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
+        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
+      },
+    }));
+  } catch (error) {
+    return { ok: false, message: `${(error as Error).message}\n${USAGE}`, exitCode: 2 };
+  }
+  if (values.help) return { ok: false, message: USAGE, exitCode: 0 };
+  const parsed = schema.safeParse({
+    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'], importRate: values['import-rate'],
+    plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, grow: values.grow, prepare: values.prepare, seed: values.seed,
+    serverPid: values['server-pid'], reportOnly: values['report-only'],
+  });
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`);
+    return { ok: false, message: `${lines.join('\n')}\n${USAGE}`, exitCode: 2 };
+  }
+  const options = parsed.data;
+  return {
+    ok: true,
+    options: {
+      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? 1 + options.grow + options.importers * options.durationS,
+      seed: options.seed ?? Date.now() % 2 ** 31,
+    },
+  };
+}
