@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Gatewell's load test from one command on a fresh machine: its own PostgreSQL cluster (test-load on
 # 127.0.0.1:54340) with a fresh database and the demo data, a production build in .next-load/, `next start`
-# on 127.0.0.1:4340 without the mail sender, then scripts/load-test.ts; the server and the cluster are
+# on 127.0.0.1:4340 without the mail sender and a job worker process beside it, then scripts/load-test.ts; the server and the cluster are
 # stopped afterwards. Arguments go to the load test, e.g. `bash scripts/load-test.sh --report-only`.
 # Exits with the load test's status: 0 targets met, 1 missed, 2 could not run.
 set -euo pipefail
@@ -18,11 +18,16 @@ export GATEWELL_DIST_DIR=.next-load
 export GATEWELL_MAIL_SENDER=off
 
 server_pid=
+worker_pid=
 stop_all() {
   if [ -n "$server_pid" ] && kill -0 "$server_pid" 2>/dev/null; then
     say "stopping the server"
     kill "$server_pid" 2>/dev/null || true
     wait "$server_pid" 2>/dev/null || true
+  fi
+  if [ -n "$worker_pid" ] && kill -0 "$worker_pid" 2>/dev/null; then
+    kill "$worker_pid" 2>/dev/null || true
+    wait "$worker_pid" 2>/dev/null || true
   fi
   bash scripts/pg.sh stop "$instance" || true
 }
@@ -52,6 +57,14 @@ cp tsconfig.json .var/load-tsconfig.json
 npx next build >.var/load-build.log 2>&1 || { cp .var/load-tsconfig.json tsconfig.json; tail -n 40 .var/load-build.log; say "the build failed"; exit 2; }
 cp .var/load-tsconfig.json tsconfig.json
 
+# The team topology (README, "Topology"): the web server only enqueues fits and forecasts, and one
+# worker process takes them (GATEWELL_LOAD_WORKERS=0 leaves the jobs to the web server instead).
+if [ "${GATEWELL_LOAD_WORKERS:-1}" -gt 0 ]; then
+  export GATEWELL_JOB_WORKER=off
+  say "starting a job worker (log in .var/load-worker.log)"
+  node --conditions=react-server --import tsx scripts/worker.ts >.var/load-worker.log 2>&1 &
+  worker_pid=$!
+fi
 say "serving on $APP_URL (log in .var/load-server.log)"
 node_modules/.bin/next start --port "$port" --hostname 127.0.0.1 >.var/load-server.log 2>&1 &
 server_pid=$!

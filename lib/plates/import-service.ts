@@ -77,7 +77,7 @@ export interface PreviewRequest extends Upload {
 }
 
 /** Step 2: every row with its parse result and QC flags, the plate built from good rows. Nothing is written. */
-export async function previewImport(actor: Actor, request: PreviewRequest): Promise<PlatePreview & { qc: Record<number, string[]> }> {
+export async function previewImport(actor: Actor, request: PreviewRequest, options: { qc?: boolean } = {}): Promise<PlatePreview & { qc: Record<number, string[]> }> {
   requireRole(actor, 'biologist');
   const { screen, targets } = await loadScreen(request.screenId);
   const sheets = await readUpload(request);
@@ -87,7 +87,8 @@ export async function previewImport(actor: Actor, request: PreviewRequest): Prom
   const preview = validatePlateSheet(sheet, request.mapping, {
     knownCompounds: compounds.map((c) => c.identifier), knownTargets: targets, ...(request.format ? { plateFormat: request.format } : {}),
   });
-  return { ...preview, qc: preview.plate ? qcByRow(preview, analysisSettings(screen)) : {} };
+  // The commit skips the QC messages per row (qc: false): it stores the same analysis itself.
+  return { ...preview, qc: preview.plate && options.qc !== false ? qcByRow(preview, analysisSettings(screen)) : {} };
 }
 
 /** QC messages per spreadsheet row, from the same analysis the commit stores. */
@@ -110,7 +111,7 @@ export interface CommitRequest extends PreviewRequest {
 
 /** Step 3: stores the plate, its wells, readouts and QC, its queued fit job, and the template, all in one transaction. */
 export async function commitImport(actor: Actor, request: CommitRequest): Promise<{ plateId: string }> {
-  const preview = await previewImport(actor, request);
+  const preview = await previewImport(actor, request, { qc: false });
   if (!preview.ok || !preview.plate) {
     const first = preview.issues.find((issue) => issue.severity === 'error');
     throw new AppError('invalid', first ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}` : 'The sheet holds no wells.', { issues: preview.issues.slice(0, 200) });
