@@ -22,7 +22,7 @@ describe('sign-in against the real database', () => {
   test('the right password signs in, is recorded, and audited', async () => {
     const user = await makeUser('bea@example.org', 'correct horse battery');
     const result = await signIn(' Bea@Example.org ', 'correct horse battery', '10.0.0.1');
-    expect(result).toEqual({ ok: true, userId: user.id, sessionVersion: 1 });
+    expect(result).toEqual({ ok: true, userId: user.id, sessionVersion: 1, passwordChangeRequired: false });
     expect(await LoginAttempt.count({ where: { email: 'bea@example.org', succeeded: true } })).toBe(1);
     expect(await AuditEvent.count({ where: { action: 'sign_in', actorId: user.id } })).toBe(1);
   });
