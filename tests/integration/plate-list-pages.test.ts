@@ -3,12 +3,12 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
-import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { listPlatePage, listPlates, PLATE_PAGE_SIZE } from '@/lib/plates/list';
 import { platePageHref, platePageSchema } from '@/lib/validation/plate-filter';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
-import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { importDemoPlate } from '../support/demo-plates';
+import { makeDemoScreens } from '../support/demo-scenario';
 
 describe('plates list pages on the real database', () => {
   let biologist: Actor;
@@ -18,12 +18,7 @@ describe('plates list pages on the real database', () => {
     await resetDatabase();
     screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
     biologist = await makeActor(['biologist']);
-    for (const name of ['nav-96-plate-01.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx']) {
-      const { bytes, manifest } = demoFile(name);
-      const upload = { screenId: screens[manifest.target]!, bytes, filename: name, mediaType: 'application/octet-stream' };
-      const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-      await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate });
-    }
+    for (const name of ['nav-96-plate-01.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx']) await importDemoPlate(biologist, screens, name);
   });
   afterAll(() => db().close());
 
