@@ -3,12 +3,9 @@
 import { useEffect, useRef, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { postJson } from '@/components/plates/plate-data';
-import { plateJobsKey, usePlateJobs } from '@/components/plates/plate-jobs';
+import { isOpen, plateJobsKey, usePlateJobs } from '@/components/plates/plate-jobs';
 import type { PlateForecastList } from '@/lib/validation/forecasts';
-import type { JobViewData } from '@/lib/validation/jobs';
 import { plateForecastListKey } from './forecast-data';
-
-const isOpen = (job: JobViewData | undefined) => job?.state === 'queued' || job?.state === 'running';
 
 /**
  * Queues a forecast run over the plate: every compound with a usable IC50 and no stored forecast,

@@ -8,7 +8,8 @@ import { fitsKey, schemaFetcher, wellsKey } from './plate-data';
 
 export const plateJobsKey = (plateId: string) => `/api/plates/${plateId}/jobs`;
 
-const isOpen = (job: JobViewData) => job.state === 'queued' || job.state === 'running';
+/** A job that waits or runs. */
+export const isOpen = (job: JobViewData | undefined): boolean => job?.state === 'queued' || job?.state === 'running';
 
 /** The plate's fit state and jobs; polled every second while a refit or a forecast run is under way. */
 export function usePlateJobs(plateId: string, fitsPendingAtLoad: boolean) {

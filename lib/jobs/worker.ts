@@ -9,7 +9,7 @@ import { computeAndStoreForecast, type ForecastJobData } from '@/lib/forecasts/s
 import { queueRefit, refitPlate } from '@/lib/plates/recompute';
 import { ComputeJob } from '@/models';
 import type { ComputeJobKind } from '@/models/compute-job';
-import { jobQueue, QUEUE_NAMES, QUEUE_SCHEMA, registerLocalWorker } from './queue';
+import { closeJobQueue, jobQueue, QUEUE_NAMES, QUEUE_SCHEMA, registerLocalWorker } from './queue';
 
 /** What a handler may report while it works. */
 export type Progress = (done: number, total?: number) => Promise<void>;
@@ -131,6 +131,5 @@ export function stopJobSweep(): void {
 /** Stops this process's workers (waiting for jobs under way) and its queue connection. */
 export async function stopJobWorkers(): Promise<void> {
   stopJobSweep();
-  const { closeJobQueue } = await import('./queue');
   await closeJobQueue();
 }

@@ -11,7 +11,8 @@ async function analyseStored(plate: Plate, transaction: Transaction, fits: boole
   const screen = await Screen.findByPk(plate.screenId, { transaction, rejectOnEmpty: true });
   const wells = await Well.findAll({ where: { plateId: plate.id }, transaction });
   const readouts = await Readout.findAll({ where: { wellId: wells.map((w) => w.id) }, transaction });
-  const previous = await Fit.findAll({ where: { plateId: plate.id }, transaction });
+  // Each fit keeps its chosen model; QC alone (fits: false) needs none of them.
+  const previous = fits ? await Fit.findAll({ where: { plateId: plate.id }, transaction }) : [];
   const chosen = Object.fromEntries(previous.map((f) => [fitKey(f.compoundId, f.targetId), f.model]));
   const analysis = analysePlate(
     wells.map((w) => ({
