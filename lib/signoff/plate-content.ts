@@ -1,5 +1,5 @@
 import 'server-only';
-import { QueryTypes, type Transaction } from 'sequelize';
+import { QueryTypes, Transaction } from 'sequelize';
 import { contentSha256 } from '@/lib/auth/canonical-json';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
@@ -47,7 +47,66 @@ export async function plateContent(plateId: string, transaction?: Transaction): 
   return { format: PLATE_CONTENT_FORMAT, plate, wells, readouts, fits };
 }
 
-/** SHA-256 of the canonical JSON of the plate's data as it stands (inside the caller's transaction if given). */
+/**
+ * SHA-256 of the canonical JSON of the plate's data as it stands. Inside the caller's transaction (a
+ * signature) it is always worked out afresh; otherwise (the history tab) from the row-version cache below.
+ */
 export async function plateContentSha256(plateId: string, transaction?: Transaction): Promise<string> {
-  return contentSha256(await plateContent(plateId, transaction));
+  if (transaction) return contentSha256(await plateContent(plateId, transaction));
+  const fingerprint = await rowVersionFingerprint(plateId);
+  const cached = contentHashes().get(plateId);
+  if (cached && cached.fingerprint === fingerprint && Date.now() - cached.at < CONTENT_HASH_MAX_AGE_MS) return cached.sha256;
+  // Read the content and the fingerprint in one snapshot, so that the cached hash belongs to that fingerprint.
+  const { sha256, fingerprint: seen } = await db().transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }, async (snapshot) => ({
+    sha256: contentSha256(await plateContent(plateId, snapshot)),
+    fingerprint: await rowVersionFingerprint(plateId, snapshot),
+  }));
+  remember(plateId, { fingerprint: seen, sha256, at: Date.now() });
+  return sha256;
+}
+
+/** A cached hash is worked out afresh at least this often, whatever the fingerprint says (common practice, no source). */
+export const CONTENT_HASH_MAX_AGE_MS = 10 * 60 * 1000;
+const CONTENT_HASH_ENTRIES = 1000;
+
+interface CachedHash {
+  fingerprint: string;
+  sha256: string;
+  at: number;
+}
+
+// One cache per server process, shared by the bundles that import this module.
+const cacheKey = Symbol.for('gatewell.plateContentHashes');
+function contentHashes(): Map<string, CachedHash> {
+  const store = globalThis as { [cacheKey]?: Map<string, CachedHash> };
+  return (store[cacheKey] ??= new Map());
+}
+
+function remember(plateId: string, entry: CachedHash): void {
+  const cache = contentHashes();
+  cache.delete(plateId);
+  cache.set(plateId, entry);
+  if (cache.size > CONTENT_HASH_ENTRIES) cache.delete(cache.keys().next().value!);
+}
+
+/**
+ * MD5 of the row versions (xmin, the writing transaction, and ctid, the tuple's place) of every row the
+ * content reads. PostgreSQL writes a new tuple version for every UPDATE and removes it on DELETE, so
+ * any change to those rows, through Gatewell or behind its back, gives another fingerprint; VACUUM FREEZE
+ * may change it too, which only costs a fresh hash (PostgreSQL 15 manual, 5.5 "System Columns" and 25.1.5
+ * "Preventing Transaction ID Wraparound Failures"). A few milliseconds in PostgreSQL instead of reading
+ * and hashing every well, readout and fit.
+ */
+async function rowVersionFingerprint(plateId: string, transaction?: Transaction): Promise<string> {
+  const [row] = await db().query<{ fingerprint: string | null }>(
+    `select md5(string_agg(part, ',')) as fingerprint from (
+       select 'p' || p.xmin || p.ctid || f.xmin || f.ctid as part from plates p join uploaded_files f on f.id = p.uploaded_file_id where p.id = :plateId
+       union all (select 'w' || w.xmin || w.ctid || coalesce(c.xmin::text || c.ctid::text, '') from wells w left join compounds c on c.id = w.compound_id
+                   where w.plate_id = :plateId order by w.id)
+       union all (select 'r' || r.xmin || r.ctid from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by r.id)
+       union all (select 'f' || x.xmin || x.ctid from fits x where x.plate_id = :plateId order by x.id)
+     ) parts`,
+    opts(plateId, transaction),
+  );
+  return row?.fingerprint ?? '';
 }
