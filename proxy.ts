@@ -1,7 +1,8 @@
-import { sealData, unsealData } from 'iron-session';
+import { sealData } from 'iron-session';
 import { NextResponse, type NextRequest } from 'next/server';
 import { PATHNAME_HEADER } from '@/lib/auth/page-roles';
 import { sessionIsFresh, sessionOptions, type SessionData } from '@/lib/auth/session-config';
+import { readSealedSession } from '@/lib/auth/session-read';
 import { contentSecurityPolicy, newNonce, NONCE_HEADER } from '@/lib/security/content-security-policy';
 
 // Paths that anonymous visitors may open. API routes answer 401 themselves, so they pass through too.
@@ -15,14 +16,7 @@ export async function proxy(request: NextRequest) {
   const policy = contentSecurityPolicy(nonce);
   const options = sessionOptions();
   const sealed = request.cookies.get(options.cookieName)?.value;
-  let session: SessionData = {};
-  if (sealed) {
-    try {
-      session = await unsealData<SessionData>(sealed, { password: options.password, ttl: options.ttl ?? 0 });
-    } catch {
-      session = {};
-    }
-  }
+  const session: SessionData = await readSealedSession(sealed);
   const fresh = sessionIsFresh(session);
 
   if (!fresh && !PUBLIC_PREFIXES.some((prefix) => pathname.startsWith(prefix))) {

@@ -1,11 +1,12 @@
 import 'server-only';
+import { cookies } from 'next/headers';
 import { redirect } from 'next/navigation';
 import { cache } from 'react';
 import { loadActor } from './load-actor';
 import type { Actor } from './roles';
 import { requestAddress } from './request-address';
-import { getSession } from './session';
-import { sessionIsFresh } from './session-config';
+import { SESSION_COOKIE, sessionIsFresh } from './session-config';
+import { readSealedSession } from './session-read';
 
 export { loadActor };
 
@@ -14,7 +15,7 @@ export { loadActor };
  * disabled user, or predates a password change (session_version moved on).
  */
 export const currentActor = cache(async (): Promise<Actor | null> => {
-  const session = await getSession();
+  const session = await readSealedSession((await cookies()).get(SESSION_COOKIE)?.value);
   if (!sessionIsFresh(session)) return null;
   const actor = await loadActor(session.userId!, await requestAddress());
   if (!actor || actor.sessionVersion !== session.sessionVersion) return null;
