@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { withUser } from '@/lib/api/handler';
+import { withImportSlot } from '@/lib/imports/import-slots';
 import { readUpload } from '@/lib/api/upload';
 import { inspectUpload } from '@/lib/plates/import-service';
 import { inspectFieldsSchema } from '@/lib/validation/imports';
@@ -7,5 +8,5 @@ import { inspectFieldsSchema } from '@/lib/validation/imports';
 /** Reads an uploaded export and proposes a column mapping per sheet; writes nothing. */
 export const POST = withUser(async (request, actor) => {
   const { fields, ...file } = await readUpload(request, inspectFieldsSchema);
-  return NextResponse.json(await inspectUpload(actor, { screenId: fields.screenId, ...file }));
+  return NextResponse.json(await withImportSlot(() => inspectUpload(actor, { screenId: fields.screenId, ...file })));
 }, { roles: ['biologist'] });

@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { withUser } from '@/lib/api/handler';
+import { withImportSlot } from '@/lib/imports/import-slots';
 import { readUpload } from '@/lib/api/upload';
 import { previewImport } from '@/lib/plates/import-service';
 import { previewFieldsSchema } from '@/lib/validation/imports';
@@ -8,5 +9,5 @@ import { previewFieldsSchema } from '@/lib/validation/imports';
 export const POST = withUser(async (request, actor) => {
   const { fields, ...file } = await readUpload(request, previewFieldsSchema);
   const { format, ...rest } = fields;
-  return NextResponse.json(await previewImport(actor, { ...rest, ...file, ...(format ? { format } : {}) }));
+  return NextResponse.json(await withImportSlot(() => previewImport(actor, { ...rest, ...file, ...(format ? { format } : {}) })));
 }, { roles: ['biologist'] });
