@@ -16,12 +16,15 @@ export interface ParseSpreadsheetOptions {
   maxRows?: number;
   /** Most columns a sheet may have. @default 200 */
   maxColumns?: number;
+  /** Nice value of the parse thread (Linux: per thread), 0–19; higher yields the CPU to page requests. @default 10 */
+  niceness?: number;
   /** The worker script. @default `<process.cwd()>/lib/imports/parse-worker.mjs` */
   workerPath?: string;
 }
 
 const MB = 1024 * 1024;
 const DEFAULTS = { maxBytes: 10 * MB, timeoutMs: 10_000, maxMemoryMb: 256, maxRows: 20_000, maxColumns: 200 };
+const DEFAULT_NICENESS = 10;
 
 type WorkerReply = { ok: true; sheets: unknown } | { ok: false; code: SpreadsheetErrorCode; detail: string };
 
@@ -40,7 +43,7 @@ export async function parseSpreadsheet(bytes: Uint8Array, filename: string, opti
     sniffed.kind === 'workbook'
       ? { kind: 'workbook', format: sniffed.format, bytes }
       : { kind: sniffed.kind, text: sniffed.text, sheetName: sheetNameFor(filename) };
-  const reply = await runWorker({ ...job, maxRows: limits.maxRows, maxColumns: limits.maxColumns }, limits);
+  const reply = await runWorker({ ...job, maxRows: limits.maxRows, maxColumns: limits.maxColumns, niceness: limits.niceness }, limits);
   if (!reply.ok && format !== 'csv' && /Unsupported ZIP file|Cannot find file|not a spreadsheet/i.test(reply.detail)) {
     return fail('not_spreadsheet', describeFailure('not_spreadsheet', reply.detail, filename, format, limits));
   }
@@ -55,7 +58,9 @@ function checkOptions(options: ParseSpreadsheetOptions) {
   for (const key of Object.keys(DEFAULTS) as (keyof typeof DEFAULTS)[]) {
     if (!Number.isInteger(merged[key]) || merged[key] <= 0) throw new RangeError(`parseSpreadsheet: ${key} must be a positive integer`);
   }
-  return { ...merged, workerPath: options.workerPath ?? path.join(process.cwd(), 'lib', 'imports', 'parse-worker.mjs') };
+  const niceness = options.niceness ?? DEFAULT_NICENESS;
+  if (!Number.isInteger(niceness) || niceness < 0 || niceness > 19) throw new RangeError('parseSpreadsheet: niceness must be a whole number from 0 to 19');
+  return { ...merged, niceness, workerPath: options.workerPath ?? path.join(process.cwd(), 'lib', 'imports', 'parse-worker.mjs') };
 }
 
 function stripUndefined(options: ParseSpreadsheetOptions): Partial<typeof DEFAULTS> {

@@ -1,6 +1,7 @@
 // Gatewell's parse worker: reads one upload in a throw-away thread and posts back plain values only.
 // Started by parse-spreadsheet.ts with memory limits and a deadline; plain JavaScript on purpose.
 // The workbook library is loaded only for workbooks and markup, so delimited text starts faster.
+import { setPriority } from 'node:os';
 import { parentPort, workerData } from 'node:worker_threads';
 import { DelimitedTextError, parseDelimited } from './delimited-text.mjs';
 
@@ -83,6 +84,14 @@ async function run() {
   const options = { ...READ_OPTIONS, sheetRows: maxRows + 1 };
   const book = kind === 'markup' ? XLSX.read(text, { ...options, type: 'string' }) : XLSX.read(bytes, { ...options, type: 'array' });
   return book.SheetNames.map((name) => extractSheet(XLSX, name, book.Sheets[name] ?? {}, maxRows, maxColumns));
+}
+
+// Reading a file is background work beside the people reading pages: on Linux the nice value belongs to
+// each thread (setpriority(2), NOTES), so this lowers the parse thread alone, not the web server.
+try {
+  setPriority(workerData.niceness ?? 0);
+} catch {
+  // Not allowed or not supported here: the parse runs at the server's own priority.
 }
 
 try {
