@@ -15,7 +15,7 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   typedRoutes: false,
   // forbidden() answers pages a role may not open (lib/auth/page-guard.ts).
-  experimental: { authInterrupts: true },
+  experimental: { authInterrupts: true, serverMinification: process.env.GATEWELL_SERVER_MINIFY !== 'off' },
   async headers() {
     return [{ source: '/:path*', headers: securityHeaders }];
   },

@@ -34,11 +34,12 @@ export default defineConfig({
     { name: 'chromium', testIgnore: 'faults/**', use: browser },
     { name: 'faults', testMatch: 'faults/**/*.spec.ts', dependencies: ['chromium'], use: browser },
   ],
-  // The topology of a team install in miniature: the web server only enqueues (GATEWELL_JOB_WORKER=off)
-  // and a separate worker process takes the fit and forecast jobs (README, "Topology").
+  // The topology of a team install in miniature: two web processes on one port (scripts/serve.mjs) that
+  // only enqueue (GATEWELL_JOB_WORKER=off), and a separate worker process that takes the fit and forecast
+  // jobs (README, "Topology").
   webServer: [
     {
-      command: `npx next start --port ${port} --hostname 127.0.0.1`,
+      command: `node scripts/serve.mjs --port ${port} --hostname 127.0.0.1 --processes 2`,
       url: `http://127.0.0.1:${port}/api/health`,
       // GATEWELL_E2E_REUSE=1 runs against a server already listening on the port (e.g. the demo on 4310).
       reuseExistingServer: Boolean(process.env.GATEWELL_E2E_REUSE),

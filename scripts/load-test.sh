@@ -1,8 +1,9 @@
 #!/usr/bin/env bash
 # Gatewell's load test from one command on a fresh machine: its own PostgreSQL cluster (test-load on
-# 127.0.0.1:54340) with a fresh database and the demo data, a production build in .next-load/, `next start`
-# on 127.0.0.1:4340 without the mail sender and a job worker process beside it, then scripts/load-test.ts; the server and the cluster are
+# 127.0.0.1:54340) with a fresh database and the demo data, a production build in .next-load/, scripts/serve.mjs
+# on 127.0.0.1:4340 (GATEWELL_WEB_PROCESSES web processes, default one per core) without the mail sender and a job worker process beside it, then scripts/load-test.ts; the server and the cluster are
 # stopped afterwards. Arguments go to the load test, e.g. `bash scripts/load-test.sh --report-only`.
+# GATEWELL_LOAD_REUSE_BUILD=1 serves the build already in .next-load/ instead of building again.
 # Exits with the load test's status: 0 targets met, 1 missed, 2 could not run.
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
@@ -50,12 +51,16 @@ say "migrating and seeding the demo data"
 migrate
 seed
 
-say "production build into $GATEWELL_DIST_DIR/ (log in .var/load-build.log)"
 mkdir -p .var
-# next build adds its dist folder to tsconfig.json's include list; put the file back as it was.
-cp tsconfig.json .var/load-tsconfig.json
-npx next build >.var/load-build.log 2>&1 || { cp .var/load-tsconfig.json tsconfig.json; tail -n 40 .var/load-build.log; say "the build failed"; exit 2; }
-cp .var/load-tsconfig.json tsconfig.json
+if [ -n "${GATEWELL_LOAD_REUSE_BUILD:-}" ] && [ -f "$GATEWELL_DIST_DIR/BUILD_ID" ]; then
+  say "reusing the build in $GATEWELL_DIST_DIR/ (GATEWELL_LOAD_REUSE_BUILD)"
+else
+  say "production build into $GATEWELL_DIST_DIR/ (log in .var/load-build.log)"
+  # next build adds its dist folder to tsconfig.json's include list; put the file back as it was.
+  cp tsconfig.json .var/load-tsconfig.json
+  npx next build >.var/load-build.log 2>&1 || { cp .var/load-tsconfig.json tsconfig.json; tail -n 40 .var/load-build.log; say "the build failed"; exit 2; }
+  cp .var/load-tsconfig.json tsconfig.json
+fi
 
 # The team topology (README, "Topology"): the web server only enqueues fits and forecasts, and one
 # worker process takes them (GATEWELL_LOAD_WORKERS=0 leaves the jobs to the web server instead).
@@ -65,8 +70,9 @@ if [ "${GATEWELL_LOAD_WORKERS:-1}" -gt 0 ]; then
   node --conditions=react-server --import tsx scripts/worker.ts >.var/load-worker.log 2>&1 &
   worker_pid=$!
 fi
-say "serving on $APP_URL (log in .var/load-server.log)"
-node_modules/.bin/next start --port "$port" --hostname 127.0.0.1 >.var/load-server.log 2>&1 &
+processes=${GATEWELL_WEB_PROCESSES:-$(nproc 2>/dev/null || echo 1)}
+say "serving on $APP_URL with $processes web process(es) (log in .var/load-server.log)"
+node scripts/serve.mjs --port "$port" --hostname 127.0.0.1 --processes "$processes" >.var/load-server.log 2>&1 &
 server_pid=$!
 for _ in $(seq 120); do
   health_ok && break
@@ -76,7 +82,7 @@ done
 health_ok || { say "no healthy answer from $APP_URL/api/health within 60 s"; exit 2; }
 
 set +e
-node --import tsx scripts/load-test.ts --url "$APP_URL" --server-pid "$server_pid" "$@"
+node --import tsx scripts/load-test.ts --url "$APP_URL" --server-pid "$server_pid" ${worker_pid:+--worker-pid "$worker_pid"} "$@"
 status=$?
 set -e
 exit $status

@@ -8,7 +8,7 @@ import { prepareCommits, type CommitSource } from './load/commit-source';
 import { listedPlateIds } from './load/discover';
 import { parseOptions, type LoadOptions } from './load/options';
 import { runGroup, type ScheduledRequest, type Tally } from './load/run-people';
-import { cpuSeconds } from './load/server-cpu';
+import { cpuNow, cpuSince, type CpuUse } from './load/server-cpu';
 import { DEMO_ACCOUNTS, signIn, type DemoAccount } from './load/sign-in';
 import { groupFigures, groupLine, missedTargets, routeFigures, routeLine } from './load/summary';
 
@@ -93,7 +93,7 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
     : 'each reader sending the next read as soon as the answer arrives';
   const importPace = options.importRate > 0 ? `in turn, ${options.importRate} import(s)/s in all` : 'back to back';
   return [
-    `Gatewell load test against ${options.url} for ${options.durationS} s`,
+    `Gatewell load test against ${options.url} for ${options.durationS} s after ${options.warmUpS} s of the same load unmeasured`,
     `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
     `  imports: ${options.importers} biologist session(s) posting distinct plate exports ${importPace} (${prepared} encoded ahead, seed ${options.seed})`,
     ...(options.grow ? [`  before:  ${options.grow} exports imported before the clock started, so the plate list is that much longer`] : []),
@@ -101,15 +101,20 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
   ].join('\n');
 }
 
-/** One line on the server's CPU during the load: how busy it kept one core, and the CPU per answer. */
-function cpuLine(cpuS: number, reads: Tally, imports: Tally | null): string {
+/** Lines on CPU during the load: the web server (and the processes below it), a job worker, the whole machine. */
+function cpuLines(cpu: CpuUse, reads: Tally, imports: Tally | null): string[] {
   const seconds = Math.max(reads.seconds, imports?.seconds ?? 0);
   const answers = reads.samples.length + (imports?.samples.length ?? 0);
-  return `  server process: ${cpuS.toFixed(1)} s CPU in ${seconds.toFixed(1)} s of load (${((100 * cpuS) / seconds).toFixed(0)} % of one core), `
-    + `${answers ? ((1000 * cpuS) / answers).toFixed(1) : '—'} ms per answer`;
+  const share = (s: number) => `${s.toFixed(1)} s CPU in ${seconds.toFixed(1)} s of load (${((100 * s) / seconds).toFixed(0)} % of one core)`;
+  return [
+    ...(cpu.server !== null ? [`  web server: ${share(cpu.server)}, ${answers ? ((1000 * cpu.server) / answers).toFixed(1) : '—'} ms per answer`] : []),
+    ...(cpu.worker !== null ? [`  job worker: ${share(cpu.worker)}`] : []),
+    ...(cpu.machine !== null ? [`  machine:    ${(100 * cpu.machine).toFixed(0)} % of its ${availableParallelism()} cores busy`] : []),
+    ...(cpu.busiest.length ? [`  busiest:    ${cpu.busiest.map(([name, s]) => `${name} ${((100 * s) / seconds).toFixed(0)} %`).join(', ')} (of one core)`] : []),
+  ];
 }
 
-function report(reads: Tally, imports: Tally | null, source: CommitSource | null, options: LoadOptions, cpuS: number | null): boolean {
+function report(reads: Tally, imports: Tally | null, source: CommitSource | null, options: LoadOptions, cpu: CpuUse): boolean {
   const readFigures = options.readers ? groupFigures(reads) : null;
   const importFigures = imports && groupFigures(imports);
   console.log('');
@@ -118,7 +123,7 @@ function report(reads: Tally, imports: Tally | null, source: CommitSource | null
   if (importFigures) console.log(groupLine('imports', importFigures));
   if (source?.builtDuringRun()) console.log(`  ${source.builtDuringRun()} export(s) were built during the run (raise --prepare)`);
   for (const refusal of [...reads.firstRefusals, ...(imports?.firstRefusals ?? [])]) console.log(`  refused: ${refusal}`);
-  if (cpuS !== null) console.log(cpuLine(cpuS, reads, imports));
+  for (const line of cpuLines(cpu, reads, imports)) console.log(line);
   console.log(`  1-minute load average ${loadavg()[0]!.toFixed(2)} at the end`);
   const missed = missedTargets(readFigures, importFigures, options.p95LimitMs);
   const met = readFigures ? `reads p95 < ${options.p95LimitMs} ms, no errors` : 'no errors';
@@ -148,18 +153,22 @@ async function main(): Promise<number> {
   if (source && options.grow) await grow(options.url, importerCookies, source, options.grow);
   console.log(describe(options, plateIds.length, sequence.length, source?.prepared ?? 0));
 
-  const group = { baseUrl: options.url, durationS: options.durationS, timeoutS: options.timeoutS };
-  const cpuBefore = options.serverPid ? cpuSeconds(options.serverPid) : null;
-  const [reads, imports] = await Promise.all([
-    readerCookies.length
-      ? runGroup(readSchedule(readerCookies, sequence), { ...group, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
-      : Promise.resolve({ samples: [], socketErrors: 0, timeouts: 0, seconds: 0, firstRefusals: [] }),
-    source && options.importers
-      ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importRate || options.importers, ratePerConnection: options.importRate ? 1 : 0 })
-      : Promise.resolve(null),
-  ]);
-  const cpuAfter = options.serverPid ? cpuSeconds(options.serverPid) : null;
-  const met = report(reads, imports, source, options, cpuBefore !== null && cpuAfter !== null ? cpuAfter - cpuBefore : null);
+  const load = (durationS: number) => {
+    const group = { baseUrl: options.url, durationS, timeoutS: options.timeoutS };
+    return Promise.all([
+      readerCookies.length
+        ? runGroup(readSchedule(readerCookies, sequence), { ...group, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
+        : Promise.resolve({ samples: [], socketErrors: 0, timeouts: 0, seconds: 0, firstRefusals: [] }),
+      source && options.importers
+        ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importRate || options.importers, ratePerConnection: options.importRate ? 1 : 0 })
+        : Promise.resolve(null),
+    ]);
+  };
+  // The same load, unmeasured, over as many connections as the run: every web process compiles its hot code.
+  if (options.warmUpS) await load(options.warmUpS);
+  const cpuBefore = cpuNow(options);
+  const [reads, imports] = await load(options.durationS);
+  const met = report(reads, imports, source, options, cpuSince(cpuBefore, cpuNow(options)));
   return met || options.reportOnly ? 0 : 1;
 }
 

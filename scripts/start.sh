@@ -26,6 +26,8 @@ say "building"
 mkdir -p .var
 npx next build >.var/build.log 2>&1 || { tail -n 40 .var/build.log; say "the build failed; the whole log is in .var/build.log"; exit 1; }
 
+# scripts/serve.mjs serves the build with one web process per core (at most 4; GATEWELL_WEB_PROCESSES=N
+# sets another number), all on the one port.
 # Fits and forecasts are jobs on the queue in PostgreSQL. By default the web server takes them itself;
 # GATEWELL_WORKERS=N starts N separate worker processes instead (logs in .var/worker-N.log), as a
 # team install runs them on other machines (README, "Topology").
@@ -37,9 +39,9 @@ if [ "$workers" -gt 0 ] 2>/dev/null; then
   done
   trap 'kill $(jobs -p) 2>/dev/null || true' EXIT INT TERM
   say "serving Gatewell on $APP_URL with $workers worker process(es) (Ctrl-C stops them; PostgreSQL keeps running: scripts/pg.sh stop dev)"
-  npx next start --port "$PORT" --hostname 127.0.0.1
+  node scripts/serve.mjs --port "$PORT" --hostname 127.0.0.1
   exit $?
 fi
 
 say "serving Gatewell on $APP_URL (Ctrl-C stops it; PostgreSQL keeps running: scripts/pg.sh stop dev)"
-exec npx next start --port "$PORT" --hostname 127.0.0.1
+exec node scripts/serve.mjs --port "$PORT" --hostname 127.0.0.1

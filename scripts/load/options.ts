@@ -9,6 +9,7 @@ const schema = z.object({
   readers: count(1000).default(50),
   importers: count(100).default(5),
   durationS: z.coerce.number().int().min(1).max(3600).default(30),
+  warmUpS: z.coerce.number().int().min(0).max(600).default(10),
   readRate: count(10_000).optional(),
   importRate: count(1000).default(0),
   plates: z.coerce.number().int().min(1).max(100).default(4),
@@ -18,11 +19,12 @@ const schema = z.object({
   prepare: count(100_000).optional(),
   seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
   serverPid: z.coerce.number().int().positive().optional(),
+  workerPid: z.coerce.number().int().positive().optional(),
   reportOnly: z.boolean().default(false),
 });
 
 /** The flag of each option whose name differs from its key. */
-const FLAGS: Record<string, string> = { durationS: 'duration', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only', serverPid: 'server-pid' };
+const FLAGS: Record<string, string> = { durationS: 'duration', warmUpS: 'warm-up', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only', serverPid: 'server-pid', workerPid: 'worker-pid' };
 
 export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
 
@@ -36,15 +38,18 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --import-rate N      imports per second from all importers together, taking turns; 0 (default) lets every
                        importer post the next export as soon as the answer arrives
   --duration S         seconds of load (default 30)
+  --warm-up S          seconds of the same load before the clock starts, not measured (default 10), so that every
+                       web process has compiled its hot code
   --plates N           how many plates of the plate list the readers open (default 4)
   --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
   --timeout S          seconds before a request counts as timed out (default 10)
   --grow N             import N more exports before the clock starts (not measured), so that reads meet a longer
                        plate list (default 0)
-  --prepare N          commit requests encoded before the run (default 1 + grow + importers × duration; more are built
+  --prepare N          commit requests encoded before the run (default 1 + grow + importers × (warm-up + duration); more are built
                        on demand)
   --seed N             first seed of the generated exports (default from the clock)
-  --server-pid PID     the server's process id: prints the CPU time it used during the load (Linux)
+  --server-pid PID     the server's process id: prints the CPU time it and the processes below it used during the load (Linux)
+  --worker-pid PID     a job worker's process id: prints its CPU time too
   --report-only        print the figures and exit 0 even when a target is missed`;
 
 /** The options of this run, or a message saying what is wrong with the command line. */
@@ -54,9 +59,9 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
     ({ values } = parseArgs({
       args: argv,
       options: {
-        url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' },
+        url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' }, 'warm-up': { type: 'string' },
         'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
-        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
+        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'worker-pid': { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
       },
     }));
   } catch (error) {
@@ -64,9 +69,9 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   }
   if (values.help) return { ok: false, message: USAGE, exitCode: 0 };
   const parsed = schema.safeParse({
-    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, readRate: values['read-rate'], importRate: values['import-rate'],
+    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, warmUpS: values['warm-up'], readRate: values['read-rate'], importRate: values['import-rate'],
     plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, grow: values.grow, prepare: values.prepare, seed: values.seed,
-    serverPid: values['server-pid'], reportOnly: values['report-only'],
+    serverPid: values['server-pid'], workerPid: values['worker-pid'], reportOnly: values['report-only'],
   });
   if (!parsed.success) {
     const lines = parsed.error.issues.map((issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`);
@@ -76,7 +81,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   return {
     ok: true,
     options: {
-      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? 1 + options.grow + options.importers * options.durationS,
+      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? 1 + options.grow + options.importers * (options.durationS + options.warmUpS),
       seed: options.seed ?? Date.now() % 2 ** 31,
     },
   };
