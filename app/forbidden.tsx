@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 
 export const metadata: Metadata = { title: 'No access' };
 
@@ -13,7 +13,7 @@ export default function Forbidden() {
         <p className="mt-2 text-sm text-ink-700">
           Your roles do not cover this page. If your work needs it, ask an administrator for the role.
         </p>
-        <Link href="/" className="gw-button mt-5">Back to My work</Link>
+        <AppLink href="/" className="gw-button mt-5">Back to My work</AppLink>
       </div>
     </main>
   );

@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 
 export default function NotFound() {
   return (
@@ -6,7 +6,7 @@ export default function NotFound() {
       <div className="gw-card max-w-md p-8">
         <h1 className="text-2xl font-semibold">Not found</h1>
         <p className="mt-2 text-sm text-ink-700">There is nothing at this address, or you may not see it.</p>
-        <Link href="/" className="gw-button mt-5">Back to my work</Link>
+        <AppLink href="/" className="gw-button mt-5">Back to my work</AppLink>
       </div>
     </main>
   );

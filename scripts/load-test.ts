@@ -154,13 +154,13 @@ async function main(): Promise<number> {
   console.log(describe(options, plateIds.length, sequence.length, source?.prepared ?? 0));
 
   const load = (durationS: number) => {
-    const group = { baseUrl: options.url, durationS, timeoutS: options.timeoutS };
+    const group = { baseUrl: options.url, durationS };
     return Promise.all([
       readerCookies.length
-        ? runGroup(readSchedule(readerCookies, sequence), { ...group, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
+        ? runGroup(readSchedule(readerCookies, sequence), { ...group, timeoutS: options.timeoutS, connections: options.readRate || options.readers, ratePerConnection: options.readRate ? 1 : 0 })
         : Promise.resolve({ samples: [], socketErrors: 0, timeouts: 0, seconds: 0, firstRefusals: [] }),
       source && options.importers
-        ? runGroup(importSchedule(importerCookies, source), { ...group, connections: options.importRate || options.importers, ratePerConnection: options.importRate ? 1 : 0 })
+        ? runGroup(importSchedule(importerCookies, source), { ...group, timeoutS: options.importTimeoutS, connections: options.importRate || options.importers, ratePerConnection: options.importRate ? 1 : 0 })
         : Promise.resolve(null),
     ]);
   };

@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { StateBadge } from '@/components/ui/state-badge';
 import type { ProfileFit } from '@/lib/compounds/profile-fits';
 
@@ -30,7 +30,7 @@ export function ProfileFitsTable({ fits, standing }: { fits: ProfileFit[]; stand
         <tbody className="divide-y divide-ink-100">
           {fits.map((f) => (
             <tr key={f.fitId} className={f.approved ? '' : 'bg-paper/60'}>
-              <th scope="row" className="px-3 py-2 text-left font-mono font-medium whitespace-nowrap"><Link className="text-lagoon-700 underline" href={`/plates/${f.plateId}/fits`}>{f.plateLabel}</Link></th>
+              <th scope="row" className="px-3 py-2 text-left font-mono font-medium whitespace-nowrap"><AppLink className="text-lagoon-700 underline" href={`/plates/${f.plateId}/fits`}>{f.plateLabel}</AppLink></th>
               <td className="px-3 py-2">{f.screenName}</td>
               <td className="px-3 py-2 whitespace-nowrap">
                 <StateBadge state={f.plateState} />

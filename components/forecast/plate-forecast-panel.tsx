@@ -1,6 +1,6 @@
 'use client';
 
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { useEffect, useState } from 'react';
 import { CompoundPicker } from './compound-picker';
 import { ForecastAll } from './forecast-all';
@@ -34,7 +34,7 @@ export function PlateForecastPanel({ plateId }: { plateId: string }) {
       <ForecastCaution preset={list.data.preset} />
       {!compounds.length ? (
         <p className="gw-card border-dashed p-6 text-sm text-ink-700">
-          This plate has no fitted test compounds, so there is nothing to forecast. Check the <Link className="underline" href={`/plates/${plateId}`}>wells and QC</Link>: fits appear once test wells pass QC.
+          This plate has no fitted test compounds, so there is nothing to forecast. Check the <AppLink className="underline" href={`/plates/${plateId}`}>wells and QC</AppLink>: fits appear once test wells pass QC.
         </p>
       ) : (
         <div className="grid gap-6 lg:grid-cols-[13rem_minmax(0,1fr)]">
@@ -45,7 +45,7 @@ export function PlateForecastPanel({ plateId }: { plateId: string }) {
           <section aria-labelledby="forecast-compound" className="min-w-0 space-y-4">
             <header className="flex flex-wrap items-baseline justify-between gap-2">
               <h3 id="forecast-compound" className="text-lg font-semibold"><span className="font-mono">{entry?.compound}</span> on {list.data.plate.label}</h3>
-              {entry ? <Link className="text-sm text-lagoon-700 underline" href={`/compounds/${entry.compoundId}/profile`}>Compound profile across plates</Link> : null}
+              {entry ? <AppLink className="text-sm text-lagoon-700 underline" href={`/compounds/${entry.compoundId}/profile`}>Compound profile across plates</AppLink> : null}
             </header>
             {at === null ? (
               <p className="gw-card border-dashed p-5 text-sm text-ink-700">{entry?.reason}</p>

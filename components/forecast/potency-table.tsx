@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import type { TargetPotency } from '@/lib/validation/forecasts';
 import { percent, sig } from './forecast-format';
 import { umText } from './series-colors';
@@ -31,7 +31,7 @@ export function PotencyTable({ targets, exposuresUm, showPlate }: { targets: Tar
                 {t.note}
                 {showPlate && t.plate ? (
                   <span className="block text-xs text-ink-500">
-                    From plate <Link className="underline" href={`/plates/${t.plate.id}/fits`}>{t.plate.label}</Link> ({STATE_TEXT[t.plate.state] ?? t.plate.state})
+                    From plate <AppLink className="underline" href={`/plates/${t.plate.id}/fits`}>{t.plate.label}</AppLink> ({STATE_TEXT[t.plate.state] ?? t.plate.state})
                   </span>
                 ) : null}
               </td>

@@ -1,6 +1,6 @@
 'use client';
 
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
@@ -100,7 +100,7 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
           {inspection?.duplicateOf ? (
             <p role="status" className="rounded-md border border-amber-200 bg-amber-50 p-3 text-sm text-signal-warn sm:col-span-2">
               This exact file was already imported for this screen as plate{' '}
-              <Link className="font-semibold underline" href={`/plates/${inspection.duplicateOf.plateId}`}>{inspection.duplicateOf.label}</Link>.
+              <AppLink className="font-semibold underline" href={`/plates/${inspection.duplicateOf.plateId}`}>{inspection.duplicateOf.label}</AppLink>.
             </p>
           ) : null}
           <div className="sm:col-span-2">

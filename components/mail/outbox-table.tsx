@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { DataTable } from '@/components/ui/data-table';
 import type { ActionState } from '@/lib/actions/validated-action';
 import type { OutboxRow } from '@/lib/mail/admin';
@@ -31,7 +31,7 @@ export function OutboxTable({ rows, requeue }: { rows: OutboxRow[]; requeue: Act
         { header: 'To', cell: (r) => <span>{r.recipientName}<br /><span className="text-xs text-ink-500">{r.toAddress}</span></span> },
         {
           header: 'Subject',
-          cell: (r) => (r.plateId ? <Link className="text-lagoon-700 hover:underline" href={`/plates/${r.plateId}/history`}>{r.subject}</Link> : r.subject),
+          cell: (r) => (r.plateId ? <AppLink className="text-lagoon-700 hover:underline" href={`/plates/${r.plateId}/history`}>{r.subject}</AppLink> : r.subject),
         },
         { header: 'Delivery', cell: (r) => <DeliveryState row={r} /> },
         { header: 'Attempts', cell: (r) => `${r.attempts} of ${r.maxAttempts}`, align: 'right' },

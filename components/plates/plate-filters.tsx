@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { PLATE_STATES } from '@/models/plate';
 import type { PlateFilterParams } from '@/lib/validation/plate-filter';
 
@@ -43,7 +43,7 @@ export function PlateFilters({ filter, screens, importers }: {
       </div>
       <div className="flex items-end gap-2">
         <button type="submit" className="gw-button">Filter</button>
-        <Link href="/plates" className="gw-button-quiet">Clear</Link>
+        <AppLink href="/plates" className="gw-button-quiet">Clear</AppLink>
       </div>
     </form>
   );

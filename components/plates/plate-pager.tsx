@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import type { PlatePage } from '@/lib/plates/list';
 import { platePageHref, type PlateFilterParams } from '@/lib/validation/plate-filter';
 
@@ -10,8 +10,8 @@ export function PlatePager({ filter, result }: { filter: PlateFilterParams; resu
     <div className="mb-2 flex items-center justify-between text-sm text-ink-700">
       <p aria-live="polite">Plates {first}–{last} of {result.total}, newest first</p>
       <nav aria-label="Pages of plates" className="flex gap-2">
-        {result.page > 1 ? <Link href={platePageHref(filter, result.page - 1)} className="gw-button-quiet py-1">Newer</Link> : null}
-        {last < result.total ? <Link href={platePageHref(filter, result.page + 1)} className="gw-button-quiet py-1">Older</Link> : null}
+        {result.page > 1 ? <AppLink href={platePageHref(filter, result.page - 1)} className="gw-button-quiet py-1">Newer</AppLink> : null}
+        {last < result.total ? <AppLink href={platePageHref(filter, result.page + 1)} className="gw-button-quiet py-1">Older</AppLink> : null}
       </nav>
     </div>
   );

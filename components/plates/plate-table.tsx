@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { DataTable } from '@/components/ui/data-table';
 import { StateBadge } from '@/components/ui/state-badge';
 import type { PlateSummary } from '@/lib/plates/list';
@@ -13,7 +13,7 @@ export function PlateTable({ plates, caption, linkTo = (p) => `/plates/${p.id}` 
       rows={plates}
       rowKey={(plate) => plate.id}
       columns={[
-        { header: 'Plate', cell: (p) => <Link href={linkTo(p)} className="font-medium text-lagoon-700 underline-offset-2 hover:underline">{p.label}</Link> },
+        { header: 'Plate', cell: (p) => <AppLink href={linkTo(p)} className="font-medium text-lagoon-700 underline-offset-2 hover:underline">{p.label}</AppLink> },
         { header: 'Screen', cell: (p) => p.screenName },
         { header: 'Format', cell: (p) => `${p.format} wells`, align: 'right' },
         { header: 'State', cell: (p) => <StateBadge state={p.state} /> },

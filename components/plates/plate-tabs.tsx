@@ -1,6 +1,6 @@
 'use client';
 
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { usePathname } from 'next/navigation';
 
 /** The plate's views as tabs; links, so each view has its own address. */
@@ -18,10 +18,10 @@ export function PlateTabs({ plateId }: { plateId: string }) {
       {tabs.map((tab) => {
         const active = pathname === tab.href;
         return (
-          <Link key={tab.href} href={tab.href} aria-current={active ? 'page' : undefined}
+          <AppLink key={tab.href} href={tab.href} aria-current={active ? 'page' : undefined}
             className={`-mb-px whitespace-nowrap border-b-2 px-4 py-2 text-sm font-medium ${active ? 'border-lagoon-600 text-lagoon-700' : 'border-transparent text-ink-700 hover:text-ink-950'}`}>
             {tab.label}
-          </Link>
+          </AppLink>
         );
       })}
     </nav>

@@ -1,6 +1,6 @@
 'use client';
 
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { usePathname } from 'next/navigation';
 import type { NavItem } from './nav-items';
 
@@ -22,7 +22,7 @@ export function NavLinks({ items }: { items: NavItem[] }) {
         const active = item.href === current;
         return (
           <li key={item.href}>
-            <Link
+            <AppLink
               href={item.href}
               aria-current={active ? 'page' : undefined}
               className={`block whitespace-nowrap rounded-md px-3 py-2 text-sm font-medium ${
@@ -30,7 +30,7 @@ export function NavLinks({ items }: { items: NavItem[] }) {
               }`}
             >
               {item.label}
-            </Link>
+            </AppLink>
           </li>
         );
       })}

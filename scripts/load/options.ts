@@ -15,6 +15,7 @@ const schema = z.object({
   plates: z.coerce.number().int().min(1).max(100).default(4),
   p95LimitMs: z.coerce.number().positive().default(100),
   timeoutS: z.coerce.number().positive().max(600).default(10),
+  importTimeoutS: z.coerce.number().positive().max(600).default(60),
   grow: count(100_000).default(0),
   prepare: count(100_000).optional(),
   seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
@@ -24,7 +25,7 @@ const schema = z.object({
 });
 
 /** The flag of each option whose name differs from its key. */
-const FLAGS: Record<string, string> = { durationS: 'duration', warmUpS: 'warm-up', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', reportOnly: 'report-only', serverPid: 'server-pid', workerPid: 'worker-pid' };
+const FLAGS: Record<string, string> = { durationS: 'duration', warmUpS: 'warm-up', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', importTimeoutS: 'import-timeout', reportOnly: 'report-only', serverPid: 'server-pid', workerPid: 'worker-pid' };
 
 export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
 
@@ -42,7 +43,9 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
                        web process has compiled its hot code
   --plates N           how many plates of the plate list the readers open (default 4)
   --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
-  --timeout S          seconds before a request counts as timed out (default 10)
+  --timeout S          seconds before a read counts as timed out (default 10)
+  --import-timeout S   seconds before an import counts as timed out (default 60: a web process reads one upload at a
+                       time and answers 503 to one that waited 60 s for its turn)
   --grow N             import N more exports before the clock starts (not measured), so that reads meet a longer
                        plate list (default 0)
   --prepare N          commit requests encoded before the run (default 1 + grow + importers × (warm-up + duration); more are built
@@ -60,7 +63,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
       args: argv,
       options: {
         url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' }, 'warm-up': { type: 'string' },
-        'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' },
+        'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' }, 'import-timeout': { type: 'string' },
         grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'worker-pid': { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
       },
     }));
@@ -70,7 +73,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   if (values.help) return { ok: false, message: USAGE, exitCode: 0 };
   const parsed = schema.safeParse({
     url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, warmUpS: values['warm-up'], readRate: values['read-rate'], importRate: values['import-rate'],
-    plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, grow: values.grow, prepare: values.prepare, seed: values.seed,
+    plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, importTimeoutS: values['import-timeout'], grow: values.grow, prepare: values.prepare, seed: values.seed,
     serverPid: values['server-pid'], workerPid: values['worker-pid'], reportOnly: values['report-only'],
   });
   if (!parsed.success) {

@@ -1,4 +1,4 @@
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 
 export type FilterValues = Partial<Record<'entityType' | 'entityId' | 'userId' | 'from' | 'to', string>>;
 type Errors = Partial<Record<string, string[]>>;
@@ -50,7 +50,7 @@ export function AuditFilterForm({ values, errors, entityTypes, people }: {
       </div>
       <div className="flex items-start gap-2 pt-6">
         <button type="submit" className="gw-button">Filter</button>
-        <Link href="/audit" className="gw-button-quiet">Clear</Link>
+        <AppLink href="/audit" className="gw-button-quiet">Clear</AppLink>
       </div>
     </form>
   );

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { z } from 'zod';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
@@ -53,8 +53,8 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
           <div className="mb-2 flex items-center justify-between text-sm text-ink-700">
             <p aria-live="polite">Events {first}–{last} of {result.total}, newest first</p>
             <nav aria-label="Pages of events" className="flex gap-2">
-              {result.page > 1 ? <Link href={pageHref(values, result.page - 1)} className="gw-button-quiet py-1">Newer</Link> : null}
-              {last < result.total ? <Link href={pageHref(values, result.page + 1)} className="gw-button-quiet py-1">Older</Link> : null}
+              {result.page > 1 ? <AppLink href={pageHref(values, result.page - 1)} className="gw-button-quiet py-1">Newer</AppLink> : null}
+              {last < result.total ? <AppLink href={pageHref(values, result.page + 1)} className="gw-button-quiet py-1">Older</AppLink> : null}
             </nav>
           </div>
           <AuditGrid rows={result.rows} />

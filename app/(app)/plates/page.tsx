@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { PlateFilters } from '@/components/plates/plate-filters';
 import { PlatePager } from '@/components/plates/plate-pager';
 import { PlateTable } from '@/components/plates/plate-table';
@@ -36,7 +36,7 @@ export default async function PlatesPage({ searchParams }: { searchParams: Promi
         </>
       ) : result.total ? (
         <EmptyState title="This page is past the last plate">
-          <Link href={platePageHref(filter, 1)} className="underline">Go to the newest plates</Link>.
+          <AppLink href={platePageHref(filter, 1)} className="underline">Go to the newest plates</AppLink>.
         </EmptyState>
       ) : filtered ? (
         <EmptyState title="No plate matches these filters">Widen the dates or clear the filters.</EmptyState>

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
@@ -20,7 +20,7 @@ function Threshold({ label, value }: { label: string; value: string }) {
 export default async function ScreensPage() {
   const actor = await requireActor();
   const screens = await listScreens(actor);
-  const actions = hasRole(actor, 'admin') ? <Link href="/screens/new" className="gw-button">New screen</Link> : undefined;
+  const actions = hasRole(actor, 'admin') ? <AppLink href="/screens/new" className="gw-button">New screen</AppLink> : undefined;
   if (!screens.length) {
     return (
       <>
@@ -36,7 +36,7 @@ export default async function ScreensPage() {
         {screens.map((screen) => (
           <section key={screen.id} className="gw-card p-5" aria-labelledby={`screen-${screen.id}`}>
             <h2 id={`screen-${screen.id}`} className="text-lg font-semibold">
-              <Link href={`/screens/${screen.id}`} className="hover:text-lagoon-700 hover:underline">{screen.name}</Link>
+              <AppLink href={`/screens/${screen.id}`} className="hover:text-lagoon-700 hover:underline">{screen.name}</AppLink>
             </h2>
             <p className="mt-1 text-sm text-ink-700">{screen.description}</p>
             <p className="mt-3 text-xs uppercase tracking-wide text-ink-500">Neuron preset</p>

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { OutboxButton } from '@/components/mail/outbox-buttons';
 import { OutboxTable } from '@/components/mail/outbox-table';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -29,10 +29,10 @@ export default async function OutboxPage({ searchParams }: { searchParams: Promi
       />
       <nav aria-label="Filter by delivery" className="mb-4 flex gap-2 text-sm">
         {FILTERS.map((f) => (
-          <Link key={f.label} href={f.state ? `/admin/outbox?state=${f.state}` : '/admin/outbox'} aria-current={f.state === state ? 'page' : undefined}
+          <AppLink key={f.label} href={f.state ? `/admin/outbox?state=${f.state}` : '/admin/outbox'} aria-current={f.state === state ? 'page' : undefined}
             className={`rounded-full border px-3 py-1 ${f.state === state ? 'border-lagoon-600 bg-lagoon-100 text-lagoon-700' : 'border-ink-300 text-ink-700 hover:bg-ink-100'}`}>
             {f.label}
-          </Link>
+          </AppLink>
         ))}
       </nav>
       {rows.length ? <OutboxTable rows={rows} requeue={requeueMailAction} /> : <EmptyState title="No messages">Nothing matches this filter.</EmptyState>}

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
 import { listUsers } from '@/lib/users/list';
@@ -16,7 +16,7 @@ export default async function UsersPage() {
       <PageHeader
         title="Users"
         intro={`${enabled} enabled and ${users.length - enabled} disabled accounts. Open an account to change its roles, disable it or set a new password.`}
-        actions={<Link href="/admin/users/new" className="gw-button">Create user</Link>}
+        actions={<AppLink href="/admin/users/new" className="gw-button">Create user</AppLink>}
       />
       <UsersGrid users={users} />
     </>

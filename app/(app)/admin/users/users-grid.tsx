@@ -1,7 +1,7 @@
 'use client';
 
 import type { ColDef, ICellRendererParams } from 'ag-grid-community';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { useRouter } from 'next/navigation';
 import { DataGrid } from '@/components/ui/data-grid';
 import type { UserSummary } from '@/lib/users/records';
@@ -11,7 +11,7 @@ const formatTime = (value: string | null | undefined) => (value ? `${when.format
 
 function NameCell({ data }: ICellRendererParams<UserSummary>) {
   if (!data) return null;
-  return <Link href={`/admin/users/${data.id}`} className="font-medium text-lagoon-700 underline-offset-2 hover:underline">{data.name}</Link>;
+  return <AppLink href={`/admin/users/${data.id}`} className="font-medium text-lagoon-700 underline-offset-2 hover:underline">{data.name}</AppLink>;
 }
 
 function StatusCell({ data }: ICellRendererParams<UserSummary>) {

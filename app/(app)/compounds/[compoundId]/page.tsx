@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { notFound } from 'next/navigation';
 import { BatchForm } from '@/components/compounds/batch-form';
 import { CompoundForm } from '@/components/compounds/compound-form';
@@ -29,7 +29,7 @@ export default async function CompoundPage({ params }: { params: Promise<{ compo
   const canEdit = hasRole(actor, 'chemist', 'admin');
   return (
     <>
-      <PageHeader title={compound.identifier} intro={compound.name || 'No name recorded.'} actions={<Link className="gw-button" href={`/compounds/${compound.id}/profile`}>Profile across plates</Link>} />
+      <PageHeader title={compound.identifier} intro={compound.name || 'No name recorded.'} actions={<AppLink className="gw-button" href={`/compounds/${compound.id}/profile`}>Profile across plates</AppLink>} />
       <section className="gw-card p-5" aria-labelledby="identity-heading">
         <h2 id="identity-heading" className="mb-3 text-lg font-semibold">Identity</h2>
         {canEdit ? (

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { notFound } from 'next/navigation';
 import type { ReactNode } from 'react';
 import { PageHeader } from '@/components/ui/page-header';
@@ -40,8 +40,8 @@ export default async function UserPage({ params }: { params: Promise<{ userId: s
         intro={`${user.email} · ${user.disabledAt ? `disabled ${formatTime(user.disabledAt)}` : 'enabled'} · last sign-in ${formatTime(user.lastSignInAt)} · password changed ${formatTime(user.passwordChangedAt)}`}
         actions={
           <>
-            <Link href={`/audit?entityType=user&entityId=${user.id}`} className="gw-button-quiet">Audit trail of this account</Link>
-            <Link href="/admin/users" className="gw-button-quiet">Back to users</Link>
+            <AppLink href={`/audit?entityType=user&entityId=${user.id}`} className="gw-button-quiet">Audit trail of this account</AppLink>
+            <AppLink href="/admin/users" className="gw-button-quiet">Back to users</AppLink>
           </>
         }
       />
@@ -60,7 +60,7 @@ export default async function UserPage({ params }: { params: Promise<{ userId: s
           <Panel id="password-heading" title="Password">
             {self ? (
               <p className="text-sm text-ink-700">
-                Change your own password on your <Link href="/account" className="text-lagoon-700 underline">Account</Link> page; it asks for the current one.
+                Change your own password on your <AppLink href="/account" className="text-lagoon-700 underline">Account</AppLink> page; it asks for the current one.
               </p>
             ) : (
               <ResetPasswordForm action={resetPasswordAction} userId={user.id} userName={user.name} minPasswordLength={MIN_PASSWORD_LENGTH} />

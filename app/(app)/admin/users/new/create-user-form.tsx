@@ -1,6 +1,6 @@
 'use client';
 
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { useState, type ChangeEvent } from 'react';
 import { Field, FormMessage } from '@/components/forms/field';
 import { useFormAction } from '@/components/forms/use-form-action';
@@ -27,8 +27,8 @@ export function CreateUserForm({ action, minPasswordLength }: { action: Action; 
           <p className="text-sm text-ink-700">They sign in with the password you set.</p>
         )}
         <div className="flex gap-3">
-          <Link href={`/admin/users/${state.userId}`} className="gw-button">Open the account</Link>
-          <Link href="/admin/users" className="gw-button-quiet">Back to users</Link>
+          <AppLink href={`/admin/users/${state.userId}`} className="gw-button">Open the account</AppLink>
+          <AppLink href="/admin/users" className="gw-button-quiet">Back to users</AppLink>
         </div>
       </div>
     );

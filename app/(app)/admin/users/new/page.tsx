@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
 import { MIN_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
@@ -15,7 +15,7 @@ export default async function CreateUserPage() {
       <PageHeader
         title="Create user"
         intro="The new person signs in with their e-mail address and the initial password, then changes it on their Account page."
-        actions={<Link href="/admin/users" className="gw-button-quiet">Back to users</Link>}
+        actions={<AppLink href="/admin/users" className="gw-button-quiet">Back to users</AppLink>}
       />
       <section className="gw-card p-6">
         <CreateUserForm action={createUserAction} minPasswordLength={MIN_PASSWORD_LENGTH} />

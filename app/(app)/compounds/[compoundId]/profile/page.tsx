@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { AppLink } from '@/components/ui/app-link';
 import { notFound } from 'next/navigation';
 import { ProfileFitsTable } from '@/components/compounds/profile-fits-table';
 import { SelectivityList } from '@/components/compounds/selectivity-list';
@@ -32,7 +32,7 @@ export default async function CompoundProfilePage({ params }: { params: Promise<
   const approved = fits.filter((f) => f.approved).length;
   const actions = (
     <>
-      <Link className="gw-button-quiet" href={`/compounds/${compound.id}`}>Registry record</Link>
+      <AppLink className="gw-button-quiet" href={`/compounds/${compound.id}`}>Registry record</AppLink>
       {fits.length ? <DownloadMenu kind="compound" id={compound.id} /> : null}
     </>
   );
@@ -42,7 +42,7 @@ export default async function CompoundProfilePage({ params }: { params: Promise<
       {!fits.length ? (
         <EmptyState title="No fits yet">
           {compound.identifier} has not been on an imported plate. Its fits appear here once a plate that holds it is imported
-          {hasRole(actor, 'biologist') ? <>: <Link className="underline" href="/plates/import">import a plate</Link>.</> : ' by a biologist.'}
+          {hasRole(actor, 'biologist') ? <>: <AppLink className="underline" href="/plates/import">import a plate</AppLink>.</> : ' by a biologist.'}
         </EmptyState>
       ) : (
         <div className="space-y-8">
