@@ -1,4 +1,5 @@
 import { unsealData } from 'iron-session';
+import { processMap } from '@/lib/process-memory';
 import { sessionOptions, type SessionData } from './session-config';
 
 // No 'server-only': the proxy reads sessions through this too. Unsealing costs about a millisecond of CPU
@@ -14,11 +15,7 @@ interface Unsealed {
   until: number;
 }
 
-const cacheKey = Symbol.for('gatewell.unsealedSessions');
-function unsealed(): Map<string, Unsealed> {
-  const store = globalThis as { [cacheKey]?: Map<string, Unsealed> };
-  return (store[cacheKey] ??= new Map());
-}
+const unsealed = () => processMap<string, Unsealed>('unsealedSessions');
 
 /** The data in a sealed session cookie, or {} when there is none or it does not unseal (forged, expired, other secret). */
 export async function readSealedSession(sealed: string | undefined, now = Date.now()): Promise<SessionData> {

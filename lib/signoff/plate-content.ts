@@ -3,6 +3,7 @@ import { QueryTypes, Transaction } from 'sequelize';
 import { contentSha256 } from '@/lib/auth/canonical-json';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
+import { processMap } from '@/lib/process-memory';
 
 /** Format of the signed plate content; bump it if the fields below ever change. */
 export const PLATE_CONTENT_FORMAT = 'gatewell-plate-content/1';
@@ -76,11 +77,7 @@ interface CachedHash {
 }
 
 // One cache per server process, shared by the bundles that import this module.
-const cacheKey = Symbol.for('gatewell.plateContentHashes');
-function contentHashes(): Map<string, CachedHash> {
-  const store = globalThis as { [cacheKey]?: Map<string, CachedHash> };
-  return (store[cacheKey] ??= new Map());
-}
+const contentHashes = () => processMap<string, CachedHash>('plateContentHashes');
 
 function remember(plateId: string, entry: CachedHash): void {
   const cache = contentHashes();
