@@ -31,7 +31,9 @@ if (processes > 1 && cluster.isPrimary) {
   cluster.on('exit', (worker, code, signal) => {
     if (stopping) return;
     console.error(`gatewell web process ${worker.process.pid} ended (${signal ?? code}); starting another`);
-    cluster.fork();
+    // Once its channel is closed the cluster hands it no more connections; start the replacement then.
+    if (worker.isConnected()) worker.once('disconnect', () => cluster.fork());
+    else cluster.fork();
   });
   const stop = (signal) => {
     stopping = true;
