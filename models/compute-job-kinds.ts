@@ -1,5 +1,5 @@
 // Kinds and states of queued jobs, without Sequelize, so that client components can import them.
-export const COMPUTE_JOB_KINDS = ['plate-fits', 'forecast', 'plate-forecasts'] as const;
+export const COMPUTE_JOB_KINDS = ['plate-fits', 'forecast', 'plate-forecasts', 'plate-import'] as const;
 export type ComputeJobKind = (typeof COMPUTE_JOB_KINDS)[number];
 export const COMPUTE_JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
 export type ComputeJobState = (typeof COMPUTE_JOB_STATES)[number];

@@ -19,6 +19,8 @@ export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreation
   declare message: CreationOptional<string | null>;
   declare attempts: CreationOptional<number>;
   declare worker: CreationOptional<string | null>;
+  /** What a refused job leaves for the request waiting on it: the refusal's code and details. */
+  declare outcome: CreationOptional<{ code: string; details: unknown } | null>;
   declare createdAt: CreationOptional<Date>;
   declare startedAt: CreationOptional<Date | null>;
   declare finishedAt: CreationOptional<Date | null>;
@@ -38,6 +40,7 @@ export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreation
         message: { type: DataTypes.TEXT, allowNull: true },
         attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         worker: { type: DataTypes.TEXT, allowNull: true },
+        outcome: { type: DataTypes.JSONB, allowNull: true },
         createdAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
         startedAt: { type: DataTypes.DATE, allowNull: true },
         finishedAt: { type: DataTypes.DATE, allowNull: true },

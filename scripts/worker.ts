@@ -1,7 +1,7 @@
-// Gatewell job worker: takes fit and forecast jobs from the queue in PostgreSQL until stopped.
+// Gatewell job worker: takes import, fit and forecast jobs from the queue in PostgreSQL until stopped.
 // Start as many as you like, on this machine or others that reach the database (README, "Topology"):
-//   DATABASE_URL=postgres://… SESSION_SECRET=… node --conditions=react-server --import tsx scripts/worker.ts [--fits N] [--forecasts N] [--nice N]
-// --fits and --forecasts set how many jobs of each kind this process runs at once (default 2 each).
+//   DATABASE_URL=postgres://… SESSION_SECRET=… node --conditions=react-server --import tsx scripts/worker.ts [--fits N] [--forecasts N] [--imports N] [--nice N]
+// --fits, --forecasts and --imports set how many jobs of each kind this process runs at once (default 2, 2, 1).
 // --nice sets the process's nice value (default 10, 0 keeps the normal priority), so that a worker beside
 // the web server on one machine gives the CPU to people's page requests first.
 // SIGINT/SIGTERM stop it gracefully: jobs under way finish, waiting jobs stay for other workers.
@@ -11,7 +11,7 @@ import { closeForecastPool } from '../lib/science/forecast/pool';
 import { startJobWorkers, stopJobWorkers } from '../lib/jobs/worker';
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({ options: { fits: { type: 'string', default: '2' }, forecasts: { type: 'string', default: '2' }, nice: { type: 'string', default: '10' } } });
+  const { values } = parseArgs({ options: { fits: { type: 'string', default: '2' }, forecasts: { type: 'string', default: '2' }, imports: { type: 'string', default: '1' }, nice: { type: 'string', default: '10' } } });
   const count = (name: string, text: string) => {
     const n = Number(text);
     if (!Number.isInteger(n) || n < 0 || n > 16) throw new Error(`--${name} must be a whole number from 0 to 16`);
@@ -22,8 +22,9 @@ async function main(): Promise<void> {
   const nice = runInBackground(niceness);
   const fits = count('fits', values.fits);
   const forecasts = count('forecasts', values.forecasts);
-  await startJobWorkers({ concurrency: { 'plate-fits': fits, forecast: forecasts, 'plate-forecasts': forecasts > 0 ? 1 : 0 } });
-  console.log(`gatewell worker ${process.pid}: taking jobs (fits ×${fits}, forecasts ×${forecasts}, nice ${nice ?? 'unchanged: refused by the system'})`);
+  const imports = count('imports', values.imports);
+  await startJobWorkers({ concurrency: { 'plate-fits': fits, forecast: forecasts, 'plate-forecasts': forecasts > 0 ? 1 : 0, 'plate-import': imports } });
+  console.log(`gatewell worker ${process.pid}: taking jobs (imports ×${imports}, fits ×${fits}, forecasts ×${forecasts}, nice ${nice ?? 'unchanged: refused by the system'})`);
   let stopping = false;
   const stop = async (signal: string) => {
     if (stopping) return;

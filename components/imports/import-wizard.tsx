@@ -28,6 +28,8 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
   const [templateName, setTemplateName] = useState('');
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
+  /** Set when the server answered that a worker is still storing the plate (202). */
+  const [storing, setStoring] = useState<string | null>(null);
 
   async function run<T>(work: () => Promise<T>): Promise<T | null> {
     setBusy(true);
@@ -67,8 +69,10 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
   }
 
   async function store() {
-    const result = await run(() => postImportStep<{ href: string }>('commit', file!, { ...fields(), label, templateName }));
-    if (result) router.push(result.href);
+    const result = await run(() => postImportStep<{ href: string; plateId?: string; message?: string }>('commit', file!, { ...fields(), label, templateName }));
+    if (!result) return;
+    if (result.plateId) router.push(result.href);
+    else setStoring(result.message ?? 'A worker is still storing this plate.');
   }
 
   const current = inspection?.sheets.find((s) => s.name === sheet);
@@ -167,8 +171,13 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
             </div>
             <div className="flex items-end gap-3">
               <button type="button" className="gw-button-quiet" onClick={() => setStep(1)}>Back to mapping</button>
-              <button type="button" className="gw-button" disabled={busy || !preview.ok || !label.trim()} onClick={store}>{busy ? 'Storing…' : 'Store plate'}</button>
+              <button type="button" className="gw-button" disabled={busy || storing !== null || !preview.ok || !label.trim()} onClick={store}>{busy ? 'Storing…' : 'Store plate'}</button>
             </div>
+            {storing ? (
+              <p role="status" className="text-sm text-ink-700 sm:col-span-3">
+                {storing} <AppLink href="/plates" className="font-medium text-lagoon-700 underline">Open the plate list</AppLink>
+              </p>
+            ) : null}
             {!preview.ok ? <p className="text-sm text-signal-fail sm:col-span-3">Fix the errors above in the file or the mapping; nothing is stored while any row has an error.</p> : null}
           </div>
         </section>

@@ -5,6 +5,7 @@ import { Op, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
 import { env } from '@/lib/env';
 import { ComputeJob } from '@/models';
+import { notifyWorkers } from './wake';
 import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job';
 
 /**
@@ -21,16 +22,20 @@ export const QUEUE_NAMES: Record<ComputeJobKind, string> = {
   'plate-fits': 'gatewell-plate-fits',
   forecast: 'gatewell-forecast',
   'plate-forecasts': 'gatewell-plate-forecasts',
+  'plate-import': 'gatewell-plate-import',
 };
 
 /**
  * Policy "short": at most one job per key waits in the queue, so a burst of changes to one plate
- * queues one refit, and many people asking for one forecast queue one computation.
+ * queues one refit, and many people asking for one forecast queue one computation. Imports are
+ * "standard": every upload is a job of its own.
  */
 const QUEUE_OPTIONS: Record<ComputeJobKind, Omit<PgBoss.Queue, 'name'>> = {
   'plate-fits': { policy: 'short', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 },
   forecast: { policy: 'short', retryLimit: 2, retryDelay: 2, expireInSeconds: 300 },
   'plate-forecasts': { policy: 'short', retryLimit: 1, retryDelay: 5, expireInSeconds: 3600 },
+  // Every upload is its own job, never retried: the request waiting on it has told the person what happened.
+  'plate-import': { policy: 'standard', retryLimit: 0, expireInSeconds: 120 },
 };
 
 interface QueueState {
@@ -84,6 +89,11 @@ function wakeLocalWorkers(boss: PgBoss, kind: ComputeJobKind): void {
   for (const id of state.workers.get(kind) ?? []) boss.notifyWorker(id);
 }
 
+/** Wakes this process's workers of a kind at once (a job was queued by another process: lib/jobs/wake.ts). */
+export function wakeWorkers(kind: ComputeJobKind): void {
+  void state.boss?.then((boss) => wakeLocalWorkers(boss, kind), () => undefined);
+}
+
 /** pg-boss writes the job through the transaction's own connection, so the job exists only if the transaction commits. */
 function throughTransaction(transaction: Transaction): PgBoss.Db {
   const connection = (transaction as unknown as { connection: ClientBase }).connection;
@@ -134,6 +144,7 @@ export async function enqueueJob(request: JobRequest, transaction?: Transaction)
         { id, kind: request.kind, jobKey: request.key, plateId: request.plateId ?? null, compoundId: request.compoundId ?? null, requestedBy: request.requestedBy, total: request.total ?? null },
         { transaction: t },
       );
+      await notifyWorkers(request.kind, t); // workers in other processes, on commit
       t.afterCommit(() => wakeLocalWorkers(boss, request.kind));
       return { id, created: true };
     }

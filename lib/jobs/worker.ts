@@ -9,12 +9,14 @@ import { computeAndStoreForecast, type ForecastJobData } from '@/lib/forecasts/s
 import { queueRefit, refitPlate } from '@/lib/plates/recompute';
 import { ComputeJob } from '@/models';
 import type { ComputeJobKind } from '@/models/compute-job';
-import { closeJobQueue, jobQueue, QUEUE_NAMES, QUEUE_SCHEMA, registerLocalWorker } from './queue';
+import { runQueuedImport, type ImportJobData } from '@/lib/plates/import-jobs';
+import { closeJobQueue, jobQueue, QUEUE_NAMES, QUEUE_SCHEMA, registerLocalWorker, wakeWorkers } from './queue';
+import { listenForJobs } from './wake';
 
 /** What a handler may report while it works. */
 export type Progress = (done: number, total?: number) => Promise<void>;
 
-type Handler = (data: Record<string, unknown>, progress: Progress) => Promise<string | null>;
+type Handler = (data: Record<string, unknown>, progress: Progress, job: { id: string }) => Promise<string | null>;
 
 const HANDLERS: Record<ComputeJobKind, Handler> = {
   'plate-fits': async (data) => {
@@ -28,10 +30,11 @@ const HANDLERS: Record<ComputeJobKind, Handler> = {
     return stored.reused ? 'Already stored.' : 'Computed and stored.';
   },
   'plate-forecasts': async (data, progress) => runPlateForecasts(data as unknown as PlateForecastsJobData, progress),
+  'plate-import': async (data, _progress, job) => runQueuedImport(data as unknown as ImportJobData, job.id),
 };
 
 /** Parallel jobs per queue in one worker process (each forecast also spreads over the forecast threads). */
-export const DEFAULT_CONCURRENCY: Record<ComputeJobKind, number> = { 'plate-fits': 2, forecast: 2, 'plate-forecasts': 1 };
+export const DEFAULT_CONCURRENCY: Record<ComputeJobKind, number> = { 'plate-fits': 2, forecast: 2, 'plate-forecasts': 1, 'plate-import': 1 };
 
 /** How often each worker process looks for plates whose fit job was lost, and for jobs that ended unseen. */
 export const SWEEP_INTERVAL_MS = 60_000;
@@ -41,9 +44,10 @@ const workerName = `${hostname()}:${process.pid}`;
 interface WorkerState {
   sweep: NodeJS.Timeout | null;
   running: boolean;
+  wake: { stop(): Promise<void> } | null;
 }
 const STATE_KEY = Symbol.for('gatewell.jobs.worker');
-const state: WorkerState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as WorkerState | undefined) ?? { sweep: null, running: false };
+const state: WorkerState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as WorkerState | undefined) ?? { sweep: null, running: false, wake: null };
 (globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
 
 async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<Record<string, unknown>>): Promise<void> {
@@ -54,14 +58,16 @@ async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<Record<s
     await ComputeJob.update(total === undefined ? { done } : { done, total }, { where: { id: job.id } });
   };
   try {
-    const message = await HANDLERS[kind](job.data, progress);
+    const message = await HANDLERS[kind](job.data, progress, { id: job.id });
     await ComputeJob.update({ state: 'done', finishedAt: new Date(), message }, { where: { id: job.id } });
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     // A refusal (bad input) will not change on a retry: the job ends here. Anything else is retried.
     const final = (isAppError(error) && error.code === 'invalid') || job.retryCount >= job.retryLimit;
     await ComputeJob.update(
-      final ? { state: 'failed', finishedAt: new Date(), message: reason } : { state: 'queued', message: `Attempt ${attempt} failed (${reason}); it will be tried again.` },
+      final
+        ? { state: 'failed', finishedAt: new Date(), message: reason, outcome: isAppError(error) ? { code: error.code, details: error.details ?? null } : null }
+        : { state: 'queued', message: `Attempt ${attempt} failed (${reason}); it will be tried again.` },
       { where: { id: job.id } },
     ).catch(() => undefined);
     if (!final) throw error;
@@ -71,7 +77,8 @@ async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<Record<s
 
 /**
  * Repairs what a crash can leave: a compute_jobs row still open whose queue job has ended (marked
- * failed), and a plate whose fits wait with no fit job open (a new one is queued). Returns the counts.
+ * failed), a plate whose fits wait with no fit job open (a new one is queued), and an upload whose
+ * import job has ended (removed). Returns the counts of the first two.
  */
 export async function sweepJobs(): Promise<{ closed: number; requeued: number }> {
   const sequelize = db();
@@ -89,6 +96,11 @@ export async function sweepJobs(): Promise<{ closed: number; requeued: number }>
     { type: QueryTypes.SELECT },
   );
   for (const plate of stranded) await queueRefit(plate.id, null);
+  // Uploads whose import job ended without removing them (a worker stopped, the database went away).
+  await sequelize.query(
+    `delete from import_uploads u
+      where not exists (select 1 from compute_jobs c where c.job_key = 'plate-import:' || u.id::text and c.state in ('queued', 'running'))`,
+  );
   return { closed: Number(closed ?? 0), requeued: stranded.length };
 }
 
@@ -102,6 +114,7 @@ export async function startJobWorkers(options: { kinds?: ComputeJobKind[]; concu
   state.running = true;
   const boss = await jobQueue();
   const kinds = options.kinds ?? (Object.keys(HANDLERS) as ComputeJobKind[]);
+  state.wake = listenForJobs((kind) => { if (kinds.includes(kind)) wakeWorkers(kind); });
   for (const kind of kinds) {
     const count = options.concurrency?.[kind] ?? DEFAULT_CONCURRENCY[kind];
     for (let i = 0; i < count; i++) {
@@ -126,6 +139,8 @@ export function stopJobSweep(): void {
   if (state.sweep) clearInterval(state.sweep);
   state.sweep = null;
   state.running = false;
+  void state.wake?.stop();
+  state.wake = null;
 }
 
 /** Stops this process's workers (waiting for jobs under way) and its queue connection. */

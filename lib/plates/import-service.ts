@@ -1,5 +1,5 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
@@ -109,15 +109,18 @@ export interface CommitRequest extends PreviewRequest {
   supersedesPlateId?: string | undefined;
 }
 
-/** Step 3: stores the plate, its wells, readouts and QC, its queued fit job, and the template, all in one transaction. */
-export async function commitImport(actor: Actor, request: CommitRequest): Promise<{ plateId: string }> {
+/**
+ * Step 3: stores the plate, its wells, readouts and QC, its queued fit job, and the template, all in one
+ * transaction (the caller's when given: a queued import also removes its upload in it, lib/plates/import-jobs.ts).
+ */
+export async function commitImport(actor: Actor, request: CommitRequest, options: { transaction?: Transaction } = {}): Promise<{ plateId: string }> {
   const preview = await previewImport(actor, request, { qc: false });
   if (!preview.ok || !preview.plate) {
     const first = preview.issues.find((issue) => issue.severity === 'error');
     throw new AppError('invalid', first ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}` : 'The sheet holds no wells.', { issues: preview.issues.slice(0, 200) });
   }
   const mapping = columnMappingSchema.parse(request.mapping);
-  return db().transaction(async (transaction) => {
+  const store = async (transaction: Transaction) => {
     let importTemplateId: string | null = null;
     if (request.templateName) {
       const [template, created] = await ImportTemplate.findOrCreate({
@@ -139,5 +142,6 @@ export async function commitImport(actor: Actor, request: CommitRequest): Promis
     }, transaction);
     await queueImportNotices(actor, stored.plateId, transaction); // chemists hear of the new plate (lib/signoff)
     return stored;
-  });
+  };
+  return options.transaction ? store(options.transaction) : db().transaction(store);
 }

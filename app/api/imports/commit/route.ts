@@ -1,14 +1,24 @@
 import { NextResponse } from 'next/server';
 import { withUser } from '@/lib/api/handler';
-import { withImportSlot } from '@/lib/imports/import-slots';
 import { readUpload } from '@/lib/api/upload';
-import { commitImport } from '@/lib/plates/import-service';
+import { awaitImport, queueImport } from '@/lib/plates/import-jobs';
 import { commitFieldsSchema } from '@/lib/validation/imports';
 
-/** Stores the plate with its wells, readouts, QC and fits in one transaction; 201 with the plate id. */
+/**
+ * Queues the upload as an import job and waits for a worker to store the plate with its wells,
+ * readouts, QC and fits in one transaction: 201 with the plate id, the import's refusal with its
+ * reasons, or 202 when a worker is still storing it when the wait ends (lib/plates/import-jobs.ts).
+ */
 export const POST = withUser(async (request, actor) => {
   const { fields, ...file } = await readUpload(request, commitFieldsSchema);
   const { format, ...rest } = fields;
-  const { plateId } = await withImportSlot(() => commitImport(actor, { ...rest, ...file, ...(format ? { format } : {}) }));
-  return NextResponse.json({ plateId, href: `/plates/${plateId}` }, { status: 201 });
+  const jobId = await queueImport(actor, { ...rest, ...file, ...(format ? { format } : {}) });
+  const result = await awaitImport(jobId);
+  if (result.state === 'storing') {
+    return NextResponse.json(
+      { jobId, href: '/plates', message: 'A worker is still storing this plate; it appears in the plate list when it is done.' },
+      { status: 202 },
+    );
+  }
+  return NextResponse.json({ plateId: result.plateId, href: `/plates/${result.plateId}` }, { status: 201 });
 }, { roles: ['biologist'] });

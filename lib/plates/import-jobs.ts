@@ -1,0 +1,145 @@
+import 'server-only';
+import { setTimeout as sleep } from 'node:timers/promises';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { loadActor } from '@/lib/auth/load-actor';
+import { requireRole, type Actor } from '@/lib/auth/roles';
+import { isDatabaseUnavailable } from '@/lib/database-unavailable';
+import { db } from '@/lib/db';
+import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
+import { enqueueJob, jobQueue, QUEUE_NAMES } from '@/lib/jobs/queue';
+import { ComputeJob } from '@/models';
+import { commitImport, type CommitRequest } from './import-service';
+
+/**
+ * Imports as jobs. The web server keeps the upload (import_uploads) and queues a plate-import job in one
+ * transaction, then waits for it; a worker process (scripts/worker.ts, at a lower CPU priority, on any
+ * machine) reads, checks and stores the plate, removing the upload in the same transaction. Reading
+ * and checking a file is most of an import's CPU, and it no longer runs in the processes that serve
+ * pages. The person sees the same answer as before: the new plate, or the refusal with its reasons.
+ */
+
+export interface ImportJobData {
+  uploadId: string;
+}
+
+/** How long a request waits for a worker to take its import before withdrawing it. */
+export const IMPORT_QUEUE_WAIT_MS = 60_000;
+/** How long it then waits for an import a worker is storing (the job's own limit is 120 s). */
+export const IMPORT_RUN_WAIT_MS = 60_000;
+
+type StoredRequest = Omit<CommitRequest, 'bytes'>;
+
+const jobKey = (uploadId: string) => `plate-import:${uploadId}`;
+
+/** Keeps the upload and queues its job, in one transaction; returns the job's id. */
+export async function queueImport(actor: Actor, request: CommitRequest): Promise<string> {
+  requireRole(actor, 'biologist');
+  const { bytes, ...fields } = request;
+  const stored: StoredRequest = fields;
+  return db().transaction(async (transaction) => {
+    const [row] = await db().query<{ id: string }>(
+      'insert into import_uploads (requested_by, address, request, bytes) values ($1, $2, $3::jsonb, $4) returning id',
+      { type: QueryTypes.SELECT, bind: [actor.id, actor.address, JSON.stringify(stored), Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)], transaction },
+    );
+    const uploadId = row!.id;
+    const data: ImportJobData = { uploadId };
+    const job = await enqueueJob({ kind: 'plate-import', key: jobKey(uploadId), data: { ...data }, requestedBy: actor.id }, transaction);
+    return job.id;
+  });
+}
+
+/** The worker's part: reads, checks and stores the upload under its row lock and removes it; the plate's id goes on the job. */
+export async function runQueuedImport(data: ImportJobData, jobId: string): Promise<string> {
+  try {
+    return await db().transaction(async (transaction) => {
+      const [upload] = await db().query<{ requestedBy: string; address: string | null; request: StoredRequest; bytes: Buffer }>(
+        'select requested_by as "requestedBy", address, request, bytes from import_uploads where id = :id for update',
+        { type: QueryTypes.SELECT, replacements: { id: data.uploadId }, transaction },
+      );
+      if (!upload) throw new AppError('conflict', 'The import was withdrawn before a worker took it; nothing was stored.');
+      const actor = await loadActor(upload.requestedBy, upload.address ?? '');
+      if (!actor) throw new AppError('forbidden', 'The account that uploaded this file is no longer active; nothing was stored.');
+      const bytes = new Uint8Array(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
+      const { plateId } = await commitImport(actor, { ...upload.request, bytes }, { transaction });
+      const message = `Stored as plate ${upload.request.label}.`;
+      await removeUpload(data.uploadId, transaction);
+      // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
+      await ComputeJob.update({ state: 'done', plateId, finishedAt: new Date(), message }, { where: { id: jobId }, transaction });
+      return message;
+    });
+  } catch (error) {
+    if (!isDatabaseUnavailable(error)) await removeUpload(data.uploadId).catch(() => undefined);
+    throw error;
+  }
+}
+
+async function removeUpload(uploadId: string, transaction?: Transaction): Promise<void> {
+  await db().query('delete from import_uploads where id = :id', { replacements: { id: uploadId }, ...(transaction ? { transaction } : {}) });
+}
+
+/**
+ * Withdraws an upload no worker has taken yet: true when it was removed here (its job then ends
+ * without storing anything), false when a worker holds it (the import goes on) or it is gone.
+ */
+async function withdraw(jobId: string): Promise<boolean> {
+  const job = await ComputeJob.findByPk(jobId, { rejectOnEmpty: true });
+  const uploadId = job.jobKey.slice('plate-import:'.length);
+  const removed = await db().query<{ id: string }>(
+    'delete from import_uploads where id in (select id from import_uploads where id = :id for update skip locked) returning id',
+    { type: QueryTypes.SELECT, replacements: { id: uploadId } },
+  );
+  if (removed.length === 0) return false;
+  const message = `No worker took the import within ${IMPORT_QUEUE_WAIT_MS / 1000} s; it was withdrawn and nothing was stored.`;
+  await ComputeJob.update({ state: 'failed', finishedAt: new Date(), message }, { where: { id: jobId, state: ['queued', 'running'] } });
+  const boss = await jobQueue();
+  await boss.cancel(QUEUE_NAMES['plate-import'], jobId).catch(() => undefined);
+  return true;
+}
+
+export type ImportResult = { state: 'stored'; plateId: string } | { state: 'storing'; jobId: string };
+
+/** Reads the job's row; a lost database during the wait is tried again until the deadline. */
+async function readJob(jobId: string, deadline: number): Promise<ComputeJob> {
+  for (;;) {
+    try {
+      return await ComputeJob.findByPk(jobId, { rejectOnEmpty: true });
+    } catch (error) {
+      if (!isDatabaseUnavailable(error) || Date.now() >= deadline) throw error;
+      await sleep(500);
+    }
+  }
+}
+
+/**
+ * Waits for the import job: the stored plate, the refusal as the AppError the import raised, or,
+ * when no worker took it in time, a 503 after withdrawing it (nothing stored). An import a worker is
+ * still storing when the wait ends is reported as under way ("storing").
+ */
+export async function awaitImport(jobId: string, waits: { queuedMs?: number; runningMs?: number } = {}): Promise<ImportResult> {
+  db();
+  const queuedMs = waits.queuedMs ?? IMPORT_QUEUE_WAIT_MS;
+  const started = Date.now();
+  let runningSince: number | null = null;
+  for (let delay = 20; ; delay = Math.min(delay * 2, 200)) {
+    const deadline = runningSince === null ? started + queuedMs : runningSince + (waits.runningMs ?? IMPORT_RUN_WAIT_MS);
+    const job = await readJob(jobId, deadline);
+    if (job.state === 'done' && job.plateId) return { state: 'stored', plateId: job.plateId };
+    if (job.state === 'failed' || job.state === 'done') throw refusal(job);
+    if (job.state === 'running') runningSince ??= Date.now();
+    if (Date.now() >= deadline) {
+      if (runningSince === null && (await withdraw(jobId))) {
+        throw new AppError('unavailable', `No worker took the import within ${queuedMs / 1000} s, so nothing was changed. Try again in a minute.`);
+      }
+      if (runningSince !== null) return { state: 'storing', jobId };
+      runningSince = Date.now(); // a worker took it at the last moment: wait for it to finish
+    }
+    await sleep(delay);
+  }
+}
+
+/** The refusal a failed import job left, as the AppError it was (code, message, details). */
+function refusal(job: ComputeJob): AppError {
+  const code = job.outcome?.code;
+  if (code && code in ERROR_STATUS) return new AppError(code as ErrorCode, job.message ?? 'The import was refused.', job.outcome?.details ?? undefined);
+  return new AppError('unavailable', 'The import failed on the worker, so nothing was changed. Try again in a minute.');
+}
