@@ -5,6 +5,7 @@
 //   node --import tsx scripts/load-test.ts [--url http://127.0.0.1:4340] [--readers 50] [--importers 5] …
 import { availableParallelism, loadavg } from 'node:os';
 import { prepareCommits, type CommitSource } from './load/commit-source';
+import { readerWalk, type Read } from './load/reader-walk';
 import { listedPlateIds } from './load/discover';
 import { parseOptions, type LoadOptions } from './load/options';
 import { runGroup, type ScheduledRequest, type Tally } from './load/run-people';
@@ -12,7 +13,6 @@ import { cpuNow, cpuSince, type CpuUse } from './load/server-cpu';
 import { DEMO_ACCOUNTS, signIn, type DemoAccount } from './load/sign-in';
 import { groupFigures, groupLine, missedTargets, routeFigures, routeLine } from './load/summary';
 
-type Read = Pick<ScheduledRequest, 'route' | 'path'>;
 
 const BIOLOGIST = DEMO_ACCOUNTS.find((account) => account.email.startsWith('biologist'))!;
 
@@ -21,18 +21,6 @@ async function signInAll(baseUrl: string, accounts: DemoAccount[]): Promise<stri
   const cookies: string[] = [];
   for (let i = 0; i < accounts.length; i += 5) cookies.push(...(await Promise.all(accounts.slice(i, i + 5).map((a) => signIn(baseUrl, a)))));
   return cookies;
-}
-
-/** What a reader does on each plate in turn: the list, the plate page and its wells, the fits tab and its data, the history tab. */
-function readSequence(plateIds: string[]): Read[] {
-  return plateIds.flatMap((id) => [
-    { route: 'GET /plates', path: '/plates' },
-    { route: 'GET /plates/[id]', path: `/plates/${id}` },
-    { route: 'GET /api/plates/[id]/wells', path: `/api/plates/${id}/wells` },
-    { route: 'GET /plates/[id]/fits', path: `/plates/${id}/fits` },
-    { route: 'GET /api/plates/[id]/fits', path: `/api/plates/${id}/fits` },
-    { route: 'GET /plates/[id]/history', path: `/plates/${id}/history` },
-  ]);
 }
 
 /** Readers in turn, each walking the sequence from its own starting point. */
@@ -58,10 +46,10 @@ function importSchedule(cookies: string[], source: CommitSource): () => Schedule
   };
 }
 
-/** One pass over a plate's reads and one import before the clock starts, so cold module loads are not measured. */
+/** One pass over a plate's reads and one import before the clock starts, so that cold module loads are not measured. */
 async function warmUp(baseUrl: string, cookie: string, reads: Read[], importer: string | null, source: CommitSource | null) {
-  for (const read of reads.slice(0, 6)) {
-    const answer = await fetch(new URL(read.path, baseUrl), { headers: { cookie }, redirect: 'manual' });
+  for (const read of reads.slice(0, 7)) {
+    const answer = await fetch(new URL(read.path, baseUrl), { headers: { ...read.headers, cookie }, redirect: 'manual' });
     await answer.arrayBuffer();
     if (answer.status !== 200) throw new Error(`warm-up ${read.path} answered ${answer.status}`);
   }
@@ -95,6 +83,7 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
   return [
     `Gatewell load test against ${options.url} for ${options.durationS} s after ${options.warmUpS} s of the same load unmeasured`,
     `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
+    `           ${options.documents ? 'every page loaded as a document' : 'the plate list loaded as a document, then client-side navigations (RSC requests) as a browser makes them'}, and the JSON the pages fetch`,
     `  imports: ${options.importers} biologist session(s) posting distinct plate exports ${importPace} (${prepared} encoded ahead, seed ${options.seed})`,
     ...(options.grow ? [`  before:  ${options.grow} exports imported before the clock started, so the plate list is that much longer`] : []),
     `  machine: ${availableParallelism()} cores, 1-minute load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
@@ -145,7 +134,7 @@ async function main(): Promise<number> {
   const importerCookies = await signInAll(options.url, Array.from({ length: Math.max(options.importers, options.grow ? 1 : 0) }, () => BIOLOGIST));
   const plateIds = (await listedPlateIds(options.url, readerCookies[0] ?? importerCookies[0] ?? '')).slice(0, options.plates);
   if (plateIds.length === 0) throw new Error('the plate list is empty: seed the demo data first');
-  const sequence = readSequence(plateIds);
+  const sequence = await readerWalk(options.url, readerCookies[0] ?? importerCookies[0]!, plateIds, { documents: options.documents });
   const source = importerCookies.length > 0
     ? await prepareCommits({ baseUrl: options.url, cookie: importerCookies[0]!, prepare: options.prepare, firstSeed: options.seed, tag: `LOAD-${options.seed.toString(36).toUpperCase()}` })
     : null;

@@ -77,25 +77,37 @@ function filterSql(filter: PlateFilter): { where: string; replacements: Record<s
 
 /**
  * Plates, newest first, with well counts and the number of wells that fail QC on any target. The
- * counts are worked out for the returned plates only; a well fails when one of its readouts has QC
- * reasons (found through the partial index readouts_failing_well).
+ * counts are worked out once for the returned plates together, grouped by plate (not one subquery per
+ * plate and well, whose plan depends on table statistics that lag behind a stream of imports); a well
+ * fails when one of its readouts has QC reasons (found through the partial index readouts_failing_well).
  */
 async function selectPlates(filter: PlateFilter, limit: number, offset: number): Promise<PlateSummary[]> {
   const sql = filterSql(filter);
   if (!sql) return [];
   return db().query<PlateSummary>(
-    `select p.id, p.label, p.format, p.state, s.name as "screenName", u.name as "importedBy",
+    `with page as materialized (
+       select p.id from plates p ${sql.where} order by p.imported_at desc, p.id desc limit :limit offset :offset
+     ),
+     well_counts as (
+       select w.plate_id, count(*)::int as n from wells w where w.plate_id in (select id from page) group by w.plate_id
+     ),
+     failing_wells as (
+       select w.plate_id, count(distinct r.well_id)::int as n
+         from readouts r join wells w on w.id = r.well_id
+        where jsonb_array_length(r.qc_reasons) > 0 and w.plate_id in (select id from page)
+        group by w.plate_id
+     )
+     select p.id, p.label, p.format, p.state, s.name as "screenName", u.name as "importedBy",
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
-            (select count(*)::int from wells w where w.plate_id = p.id) as "wellCount",
-            (select count(*)::int from wells w where w.plate_id = p.id
-                and exists (select 1 from readouts r where r.well_id = w.id and jsonb_array_length(r.qc_reasons) > 0)) as "failingWellCount",
+            coalesce(wc.n, 0) as "wellCount", coalesce(fw.n, 0) as "failingWellCount",
             (select count(*)::int from jsonb_array_elements(p.qc_summary) q where (q -> 'zPrime' ->> 'passes')::boolean is not true) as "failingTargets"
-       from plates p
+       from page
+       join plates p on p.id = page.id
        join screens s on s.id = p.screen_id
        join users u on u.id = p.imported_by
-      ${sql.where}
-      order by p.imported_at desc, p.id desc
-      limit :limit offset :offset`,
+       left join well_counts wc on wc.plate_id = p.id
+       left join failing_wells fw on fw.plate_id = p.id
+      order by p.imported_at desc, p.id desc`,
     { type: QueryTypes.SELECT, replacements: { ...sql.replacements, limit, offset } },
   );
 }

@@ -21,6 +21,7 @@ const schema = z.object({
   seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
   serverPid: z.coerce.number().int().positive().optional(),
   workerPid: z.coerce.number().int().positive().optional(),
+  documents: z.boolean().default(false),
   reportOnly: z.boolean().default(false),
 });
 
@@ -42,6 +43,8 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --warm-up S          seconds of the same load before the clock starts, not measured (default 10), so that every
                        web process has compiled its hot code
   --plates N           how many plates of the plate list the readers open (default 4)
+  --documents          every page of the walk as a full document load (as if the browser reloaded at each step)
+                       instead of the client-side navigations a browser makes after the first page
   --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
   --timeout S          seconds before a read counts as timed out (default 10)
   --import-timeout S   seconds before an import counts as timed out (default 60: a web process reads one upload at a
@@ -64,7 +67,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
       options: {
         url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' }, 'warm-up': { type: 'string' },
         'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' }, 'import-timeout': { type: 'string' },
-        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'worker-pid': { type: 'string' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
+        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'worker-pid': { type: 'string' }, documents: { type: 'boolean' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
       },
     }));
   } catch (error) {
@@ -74,7 +77,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   const parsed = schema.safeParse({
     url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, warmUpS: values['warm-up'], readRate: values['read-rate'], importRate: values['import-rate'],
     plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, importTimeoutS: values['import-timeout'], grow: values.grow, prepare: values.prepare, seed: values.seed,
-    serverPid: values['server-pid'], workerPid: values['worker-pid'], reportOnly: values['report-only'],
+    serverPid: values['server-pid'], workerPid: values['worker-pid'], documents: values.documents, reportOnly: values['report-only'],
   });
   if (!parsed.success) {
     const lines = parsed.error.issues.map((issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`);

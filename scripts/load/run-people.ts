@@ -28,6 +28,8 @@ export interface ScheduledRequest {
   method?: 'GET' | 'POST';
   body?: Buffer;
   contentType?: string;
+  /** Further request headers (a client-side navigation's RSC headers). */
+  headers?: Record<string, string>;
 }
 
 export interface GroupOptions {
@@ -47,7 +49,7 @@ function template(baseUrl: string, next: () => ScheduledRequest, tally: Tally): 
     setupRequest: (request, context) => {
       const scheduled = next();
       context.route = scheduled.route;
-      const headers: Record<string, string> = { cookie: scheduled.cookie };
+      const headers: Record<string, string> = { ...scheduled.headers, cookie: scheduled.cookie };
       if (scheduled.method === 'POST') headers.origin = origin;
       if (scheduled.contentType) headers['content-type'] = scheduled.contentType;
       return { ...request, method: scheduled.method ?? 'GET', path: scheduled.path, headers, ...(scheduled.body ? { body: scheduled.body } : {}) };
