@@ -35,8 +35,8 @@ export default defineConfig({
     { name: 'faults', testMatch: 'faults/**/*.spec.ts', dependencies: ['chromium'], use: browser },
   ],
   // The topology of a team install in miniature: two web processes on one port (scripts/serve.mjs) that
-  // only enqueue (GATEWELL_JOB_WORKER=off), and a separate worker process that takes the fit and forecast
-  // jobs (README, "Topology").
+  // only enqueue (GATEWELL_JOB_WORKER=off), and a separate worker process that takes the import, fit and
+  // forecast jobs (README, "Topology").
   webServer: [
     {
       command: `node scripts/serve.mjs --port ${port} --hostname 127.0.0.1 --processes 2`,

@@ -2,8 +2,9 @@
 // Start as many as you like, on this machine or others that reach the database (README, "Topology"):
 //   DATABASE_URL=postgres://… SESSION_SECRET=… node --conditions=react-server --import tsx scripts/worker.ts [--fits N] [--forecasts N] [--imports N] [--nice N]
 // --fits, --forecasts and --imports set how many jobs of each kind this process runs at once (default 2, 2, 1).
-// --nice sets the process's nice value (default 10, 0 keeps the normal priority), so that a worker beside
-// the web server on one machine gives the CPU to people's page requests first.
+// --nice sets the nice value of the process and of the PostgreSQL sessions it opens on this machine (default
+// 19, the lowest priority; 0 keeps the normal one), so that a worker beside the web server on one machine
+// takes only the CPU that people's page requests leave.
 // SIGINT/SIGTERM stop it gracefully: jobs under way finish, waiting jobs stay for other workers.
 import { parseArgs } from 'node:util';
 import { runInBackground } from '../lib/jobs/background-priority';
@@ -11,7 +12,7 @@ import { closeForecastPool } from '../lib/science/forecast/pool';
 import { startJobWorkers, stopJobWorkers } from '../lib/jobs/worker';
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({ options: { fits: { type: 'string', default: '2' }, forecasts: { type: 'string', default: '2' }, imports: { type: 'string', default: '1' }, nice: { type: 'string', default: '10' } } });
+  const { values } = parseArgs({ options: { fits: { type: 'string', default: '2' }, forecasts: { type: 'string', default: '2' }, imports: { type: 'string', default: '1' }, nice: { type: 'string', default: '19' } } });
   const count = (name: string, text: string) => {
     const n = Number(text);
     if (!Number.isInteger(n) || n < 0 || n > 16) throw new Error(`--${name} must be a whole number from 0 to 16`);

@@ -1,5 +1,9 @@
-import { readdirSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { setPriority } from 'node:os';
+
+// The background nice value of this process once runInBackground has set it, for its database sessions.
+const NICENESS_KEY = Symbol.for('gatewell.background.niceness');
+const store = globalThis as { [NICENESS_KEY]?: number };
 
 /**
  * Lowers this process to a background nice value, every thread it has now and (by inheritance) every
@@ -19,6 +23,36 @@ export function runInBackground(niceness: number): number | null {
       // No /proc: the calling thread is set, and threads started from it inherit the value.
     }
     for (const thread of threads) setPriority(Number(thread), niceness);
+    store[NICENESS_KEY] = niceness;
+    return niceness;
+  } catch {
+    return null;
+  }
+}
+
+/** The nice value runInBackground gave this process, or null when it runs at normal priority. */
+export function backgroundNiceness(): number | null {
+  return store[NICENESS_KEY] ?? null;
+}
+
+interface QueryClient {
+  query(text: string): Promise<{ rows: { pid: number; host: string | null }[] }>;
+}
+
+/**
+ * Gives the PostgreSQL backend serving this connection the same nice value, when the server runs on
+ * this machine: a worker's imports and refits then yield the CPU to the sessions serving pages as its
+ * own threads do. Applied only when the server answers on a loopback address or a Unix socket and the
+ * backend's process id is a process named "postgres" here; a refusal (another user's process without
+ * privilege) or any other failure leaves the priority as it was. Returns the value set, or null.
+ */
+export async function lowerBackendPriority(client: QueryClient, niceness: number): Promise<number | null> {
+  try {
+    const { rows } = await client.query('select pg_backend_pid() as pid, host(inet_server_addr()) as host');
+    const backend = rows[0];
+    if (!backend || (backend.host !== null && backend.host !== '127.0.0.1' && backend.host !== '::1')) return null;
+    if (readFileSync(`/proc/${backend.pid}/comm`, 'utf8').trim() !== 'postgres') return null;
+    setPriority(backend.pid, niceness);
     return niceness;
   } catch {
     return null;
