@@ -1,13 +1,12 @@
-import { sealData } from 'iron-session';
 import { NextResponse, type NextRequest } from 'next/server';
 import { PATHNAME_HEADER } from '@/lib/auth/page-roles';
 import { sessionIsFresh, sessionOptions, type SessionData } from '@/lib/auth/session-config';
 import { readSealedSession } from '@/lib/auth/session-read';
+import { renewedSessionCookie } from '@/lib/auth/session-renewal';
 import { contentSecurityPolicy, newNonce, NONCE_HEADER } from '@/lib/security/content-security-policy';
 
-// Paths that anonymous visitors may open. API routes answer 401 themselves, so they pass through too.
-const PUBLIC_PREFIXES = ['/sign-in', '/api/', '/_next/', '/favicon'];
-const RENEW_AFTER_MS = 60_000;
+// Paths that anonymous visitors may open. API routes do not come here (see the matcher below).
+const PUBLIC_PREFIXES = ['/sign-in', '/_next/', '/favicon'];
 
 /** Sends anonymous or expired visitors to sign-in, keeps an active session's idle clock current, and sets this answer's CSP. */
 export async function proxy(request: NextRequest) {
@@ -40,14 +39,16 @@ export async function proxy(request: NextRequest) {
   // Renewed at most once a minute (prefetches must not loop), and on reads only: a POST may be a server
   // action that writes the cookie itself (sign-out, password change), and two Set-Cookie headers for one
   // cookie in one answer leave the browser to pick either.
-  const due = Date.now() - (session.lastSeenAt ?? 0) >= RENEW_AFTER_MS;
-  if (fresh && due && request.method === 'GET' && !pathname.startsWith('/_next/')) {
-    const renewed = await sealData({ ...session, lastSeenAt: Date.now() }, { password: options.password, ttl: options.ttl ?? 0 });
-    response.cookies.set(options.cookieName, renewed, { ...options.cookieOptions, maxAge: (options.ttl ?? 0) - 60 });
+  if (request.method === 'GET' && !pathname.startsWith('/_next/')) {
+    const renewed = await renewedSessionCookie(session);
+    if (renewed) response.cookies.set(renewed.name, renewed.value, renewed.options);
   }
   return response;
 }
 
+// API routes skip the proxy: they answer 401 and check origins themselves (withUser), renew the session
+// cookie on reads themselves, and their JSON needs no page policy; each request through the proxy costs
+// the server some milliseconds of CPU (README, Load).
 export const config = {
-  matcher: ['/((?!_next/static|_next/image|favicon.ico).*)'],
+  matcher: ['/((?!api/|_next/static|_next/image|favicon.ico).*)'],
 };

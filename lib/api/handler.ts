@@ -1,9 +1,13 @@
 import 'server-only';
+import { cookies } from 'next/headers';
 import { NextResponse, type NextRequest } from 'next/server';
 import { ZodError, z } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
 import { refuseUntilOwnPassword } from '@/lib/auth/own-password';
 import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { SESSION_COOKIE } from '@/lib/auth/session-config';
+import { readSealedSession } from '@/lib/auth/session-read';
+import { renewedSessionCookie } from '@/lib/auth/session-renewal';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { env } from '@/lib/env';
 import { AppError, isAppError } from '@/lib/errors';
@@ -21,6 +25,15 @@ function checkOrigin(request: NextRequest): void {
   if (!origin || !allowed.has(origin)) {
     throw new AppError('forbidden', 'This request did not come from a Gatewell page (Origin header missing or foreign).');
   }
+}
+
+/**
+ * Moves the session's idle clock on a signed-in read, at most once a minute, as the proxy does for pages
+ * (API routes do not pass through the proxy). Changing requests leave the cookie alone.
+ */
+async function renewSession(request: NextRequest): Promise<void> {
+  const renewed = await renewedSessionCookie(await readSealedSession(request.cookies.get(SESSION_COOKIE)?.value));
+  if (renewed) (await cookies()).set(renewed.name, renewed.value, renewed.options);
 }
 
 /** Maps an error to a JSON answer: zod → 422, AppError → its status, a lost database → a logged 503, anything else → a logged 500. */
@@ -51,7 +64,9 @@ export function withUser<Params = Record<string, never>>(handler: Handler<Params
       if (!actor) throw new AppError('unauthorized', 'Sign in first.');
       refuseUntilOwnPassword(actor);
       if (options.roles?.length) requireRole(actor, ...options.roles);
-      return await handler(request, actor, context);
+      const response = await handler(request, actor, context);
+      if (request.method === 'GET') await renewSession(request);
+      return response;
     } catch (error) {
       return errorResponse(error);
     }

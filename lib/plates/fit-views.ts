@@ -23,10 +23,14 @@ function grid(lowest: number, highest: number): number[] {
 export async function listFitViews(actor: Actor, plateId: string): Promise<FitView[]> {
   const fits = await listPlateFits(actor, plateId);
   const rows = await db().query<{ id: string; estimate: Estimate | null; lowest: number | null; highest: number | null }>(
-    `select f.id, f.estimate,
-            (select min(w.concentration_um) from wells w where w.plate_id = f.plate_id and w.compound_id = f.compound_id and w.concentration_um > 0) as lowest,
-            (select max(w.concentration_um) from wells w where w.plate_id = f.plate_id and w.compound_id = f.compound_id) as highest
-       from fits f where f.plate_id = :plateId`,
+    // Each compound's tested range, read once over the plate's wells (not once per fit and target).
+    `with ranges as (
+       select w.compound_id, min(w.concentration_um) filter (where w.concentration_um > 0) as lowest, max(w.concentration_um) as highest
+         from wells w where w.plate_id = :plateId and w.compound_id is not null group by w.compound_id
+     )
+     select f.id, f.estimate, r.lowest, r.highest
+       from fits f left join ranges r on r.compound_id = f.compound_id
+      where f.plate_id = :plateId`,
     { type: QueryTypes.SELECT, replacements: { plateId } },
   );
   const byId = new Map(rows.map((r) => [r.id, r]));

@@ -1,5 +1,5 @@
 import { expect, test, type BrowserContext } from '@playwright/test';
-import { sealData } from 'iron-session';
+import { sealData, unsealData } from 'iron-session';
 import { dbRow, PEOPLE } from './signoff-support';
 
 // Session fixation and expiry against the built app. Cookies are sealed here with the run's
@@ -62,5 +62,32 @@ test('a genuine cookie works; an idle or too old one sends the visitor to sign-i
     if (c.signedIn) await expect(page.getByRole('heading', { name: 'Plates' }), c.name).toBeVisible();
     else await expect(page, c.name).toHaveURL(/\/sign-in\?next=%2Fplates$/);
     await context.close();
+  }
+});
+
+test('a read moves the idle clock at most once a minute, on pages (the proxy) and on the API (withUser) alike; an idle cookie gets 401 from the API', async ({ playwright, baseURL }) => {
+  const now = Date.now();
+  const lastSeen = async (setCookie: string | undefined) => {
+    if (!setCookie) return null;
+    const value = /gatewell_session=([^;]+)/.exec(setCookie)?.[1];
+    return value ? ((await unsealData<{ lastSeenAt: number }>(value, { password: process.env.SESSION_SECRET!, ttl: TWELVE_HOURS })).lastSeenAt) : null;
+  };
+  const plate = await dbRow<{ id: string }>("select id from plates where label = 'NAV-P01'");
+  for (const path of ['/plates', `/api/plates/${plate!.id}/jobs`]) {
+    const api = await playwright.request.newContext({ baseURL: baseURL! });
+    const get = async (times: { issuedAt: number; lastSeenAt: number }) =>
+      api.get(path, { headers: { cookie: `${COOKIE}=${await sealedFor(PEOPLE.biologist.email, times)}` }, maxRedirects: 0 });
+
+    const due = await get({ issuedAt: now - 10 * 60_000, lastSeenAt: now - 5 * 60_000 });
+    expect(due.status(), path).toBe(200);
+    expect(await lastSeen(due.headers()['set-cookie']), path).toBeGreaterThanOrEqual(now);
+
+    const recent = await get({ issuedAt: now - 10 * 60_000, lastSeenAt: Date.now() - 5_000 });
+    expect(recent.status(), path).toBe(200);
+    expect(recent.headers()['set-cookie'], path).toBeUndefined();
+
+    const idle = await get({ issuedAt: now - 40 * 60_000, lastSeenAt: now - 31 * 60_000 });
+    expect(idle.status(), path).toBe(path.startsWith('/api/') ? 401 : 307);
+    await api.dispose();
   }
 });

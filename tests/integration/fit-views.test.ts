@@ -1,0 +1,50 @@
+// The fits tab's curves on the real database: each fitted curve is drawn over 121 log-spaced points from
+// a decade below its compound's lowest tested concentration to a decade above its highest (ranges read
+// from the plate's wells), and a fit without a fitted estimate has no curve.
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { listPlateWells } from '@/lib/plates/detail';
+import { listFitViews } from '@/lib/plates/fit-views';
+import { commitImport, inspectUpload } from '@/lib/plates/import-service';
+import { makeActor } from '../support/actors';
+import { resetDatabase } from '../support/database';
+import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { fitsCurrent } from '../support/jobs';
+
+describe('fit views', () => {
+  let biologist: Actor;
+  let plateId: string;
+
+  beforeAll(async () => {
+    await resetDatabase();
+    const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
+    biologist = await makeActor(['biologist']);
+    const { bytes, manifest } = demoFile('nav-384-plate-02.xlsx');
+    const upload = { screenId: screens[manifest.target]!, bytes, filename: 'nav-384-plate-02.xlsx', mediaType: 'application/octet-stream' };
+    const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
+    ({ plateId } = await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate }));
+    await fitsCurrent(plateId);
+  });
+  afterAll(() => db().close());
+
+  test('each fitted curve spans a decade either side of its compound’s tested concentrations', async () => {
+    const wells = await listPlateWells(biologist, plateId);
+    const tested = new Map<string, number[]>();
+    for (const well of wells) {
+      if (well.compoundId && well.concentrationUm && well.concentrationUm > 0) tested.set(well.compoundId, [...(tested.get(well.compoundId) ?? []), well.concentrationUm]);
+    }
+    const views = await listFitViews(biologist, plateId);
+    const drawn = views.filter((v) => v.curve.length > 0);
+    expect(drawn.length).toBeGreaterThanOrEqual(5);
+    for (const view of views) {
+      if (view.status !== 'fitted' && view.status !== 'above_range') expect(view.curve).toEqual([]);
+    }
+    for (const view of drawn) {
+      const concentrations = tested.get(view.compoundId)!;
+      expect(view.curve).toHaveLength(121);
+      expect(view.curve[0]!.concentration_uM).toBeCloseTo(Math.min(...concentrations) / 10, 9);
+      expect(view.curve.at(-1)!.concentration_uM).toBeCloseTo(Math.max(...concentrations) * 10, 6);
+    }
+  });
+});
