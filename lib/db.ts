@@ -1,7 +1,7 @@
 import 'server-only';
 import pg from 'pg';
 import { Sequelize } from 'sequelize';
-import { backgroundNiceness, lowerBackendPriority } from '@/lib/jobs/background-priority';
+import { backgroundPriority, lowerBackendPriority } from '@/lib/jobs/background-priority';
 import { initModels } from '@/models';
 import { env } from './env';
 
@@ -20,11 +20,11 @@ function connect(): Sequelize {
     dialectOptions: { options: '-c jit=off' },
     pool: { max: 10, min: 0, idle: 10_000, acquire: 30_000 },
     define: { underscored: true },
-    // A job worker at a background nice value puts its database sessions there too (lib/jobs/background-priority.ts).
+    // A job worker at a background priority puts its database sessions there too (lib/jobs/background-priority.ts).
     hooks: {
       afterConnect: async (connection) => {
-        const niceness = backgroundNiceness();
-        if (niceness !== null) await lowerBackendPriority(connection as pg.Client, niceness);
+        const priority = backgroundPriority();
+        if (priority !== null) await lowerBackendPriority(connection as pg.Client, priority);
       },
     },
   });

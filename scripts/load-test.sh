@@ -67,7 +67,7 @@ fi
 if [ "${GATEWELL_LOAD_WORKERS:-1}" -gt 0 ]; then
   export GATEWELL_JOB_WORKER=off
   say "starting a job worker (log in .var/load-worker.log)"
-  node --conditions=react-server --import tsx scripts/worker.ts ${GATEWELL_LOAD_WORKER_NICE:+--nice "$GATEWELL_LOAD_WORKER_NICE"} >.var/load-worker.log 2>&1 &
+  node --conditions=react-server --import tsx scripts/worker.ts ${GATEWELL_LOAD_WORKER_NICE:+--nice "$GATEWELL_LOAD_WORKER_NICE"} ${GATEWELL_LOAD_WORKER_SCHEDULING:+--scheduling "$GATEWELL_LOAD_WORKER_SCHEDULING"} >.var/load-worker.log 2>&1 &
   worker_pid=$!
 fi
 processes=${GATEWELL_WEB_PROCESSES:-$(nproc 2>/dev/null || echo 1)}

@@ -47,16 +47,23 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
                        instead of the client-side navigations a browser makes after the first page
   --p95-limit MS       reads must answer within this at the 95th percentile (default 100)
   --timeout S          seconds before a read counts as timed out (default 10)
-  --import-timeout S   seconds before an import counts as timed out (default 60: a web process reads one upload at a
-                       time and answers 503 to one that waited 60 s for its turn)
+  --import-timeout S   seconds before an import counts as timed out (default 60: the server withdraws an import no job
+                       worker took within 60 s and answers 503)
   --grow N             import N more exports before the clock starts (not measured), so that reads meet a longer
                        plate list (default 0)
-  --prepare N          commit requests encoded before the run (default 1 + grow + importers × (warm-up + duration); more are built
-                       on demand)
+  --prepare N          commit requests encoded before the run (default 1 + grow + the imports of warm-up and duration at
+                       the import rate, or at 2 a second per importer when back to back); more are built on demand
   --seed N             first seed of the generated exports (default from the clock)
   --server-pid PID     the server's process id: prints the CPU time it and the processes below it used during the load (Linux)
   --worker-pid PID     a job worker's process id: prints its CPU time too
   --report-only        print the figures and exit 0 even when a target is missed`;
+
+/** About how many imports warm-up and measured load post: at the import rate, or at 2 a second per importer back to back. */
+function expectedImports(options: { importers: number; importRate: number; durationS: number; warmUpS: number }): number {
+  if (options.importers === 0) return 0;
+  const perSecond = options.importRate > 0 ? options.importRate : 2 * options.importers;
+  return Math.ceil(perSecond * (options.durationS + options.warmUpS));
+}
 
 /** The options of this run, or a message saying what is wrong with the command line. */
 export function parseOptions(argv: string[]): { ok: true; options: LoadOptions } | { ok: false; message: string; exitCode: number } {
@@ -87,7 +94,7 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   return {
     ok: true,
     options: {
-      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? 1 + options.grow + options.importers * (options.durationS + options.warmUpS),
+      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? 1 + options.grow + expectedImports(options),
       seed: options.seed ?? Date.now() % 2 ** 31,
     },
   };

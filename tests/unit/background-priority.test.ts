@@ -32,10 +32,30 @@ describe.runIf(linux)('background priority', () => {
       worker.on('online', () => { console.log(JSON.stringify({ set, nices: nices() })); worker.terminate(); });
     `;
     const output = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { cwd: path.resolve(__dirname, '../..'), encoding: 'utf8' });
-    const { set, nices } = JSON.parse(output) as { set: number; nices: number[] };
-    expect(set).toBe(7);
+    const { set, nices } = JSON.parse(output) as { set: { niceness: number; idle: boolean }; nices: number[] };
+    expect(set).toEqual({ niceness: 7, idle: false });
     expect(nices.length).toBeGreaterThan(2);
     expect(new Set(nices)).toEqual(new Set([7]));
+  });
+
+  test('with idle, every thread goes into SCHED_IDLE, and threads started later inherit it', () => {
+    const script = `
+      import { readdirSync } from 'node:fs';
+      import { Worker } from 'node:worker_threads';
+      const loaded = await import('./lib/jobs/background-priority.ts');
+      const { runInBackground, schedulingPolicy } = loaded.default ?? loaded;
+      const policies = () => readdirSync('/proc/self/task').map((tid) => schedulingPolicy(process.pid, Number(tid)));
+      const before = policies();
+      const set = runInBackground(19, { idle: true });
+      const worker = new Worker('setTimeout(() => {}, 300)', { eval: true });
+      worker.on('online', () => { console.log(JSON.stringify({ set, before, after: policies() })); worker.terminate(); });
+    `;
+    const output = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { cwd: path.resolve(__dirname, '../..'), encoding: 'utf8' });
+    const { set, before, after } = JSON.parse(output) as { set: { niceness: number; idle: boolean }; before: string[]; after: string[] };
+    expect(set).toEqual({ niceness: 19, idle: true });
+    expect(new Set(before)).toEqual(new Set(['normal']));
+    expect(after.length).toBeGreaterThan(before.length); // the worker thread and its helpers
+    expect(new Set(after)).toEqual(new Set(['idle']));
   });
 
   test('a file is read in a thread at nice 10 while the thread that asked stays as it was', async () => {
