@@ -1,7 +1,7 @@
 import 'server-only';
 import { hostname } from 'node:os';
 import type PgBoss from 'pg-boss';
-import { QueryTypes } from 'sequelize';
+import { Op, QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
 import { isAppError } from '@/lib/errors';
 import { runPlateForecasts, type PlateForecastsJobData } from '@/lib/forecasts/plate-run';
@@ -59,7 +59,8 @@ async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<Record<s
   };
   try {
     const message = await HANDLERS[kind](job.data, progress, { id: job.id });
-    await ComputeJob.update({ state: 'done', finishedAt: new Date(), message }, { where: { id: job.id } });
+    // An import job records its end inside the plate's own transaction: that row is left as it is.
+    await ComputeJob.update({ state: 'done', finishedAt: new Date(), message }, { where: { id: job.id, state: { [Op.ne]: 'done' } } });
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     // A refusal (bad input) will not change on a retry: the job ends here. Anything else is retried.

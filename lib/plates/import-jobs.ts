@@ -81,18 +81,17 @@ async function removeUpload(uploadId: string, transaction?: Transaction): Promis
  * Withdraws an upload no worker has taken yet: true when it was removed here (its job then ends
  * without storing anything), false when a worker holds it (the import goes on) or it is gone.
  */
-async function withdraw(jobId: string): Promise<boolean> {
-  const job = await ComputeJob.findByPk(jobId, { rejectOnEmpty: true });
+async function withdraw(job: ComputeJob, waitedMs: number): Promise<boolean> {
   const uploadId = job.jobKey.slice('plate-import:'.length);
   const removed = await db().query<{ id: string }>(
     'delete from import_uploads where id in (select id from import_uploads where id = :id for update skip locked) returning id',
     { type: QueryTypes.SELECT, replacements: { id: uploadId } },
   );
   if (removed.length === 0) return false;
-  const message = `No worker took the import within ${IMPORT_QUEUE_WAIT_MS / 1000} s; it was withdrawn and nothing was stored.`;
-  await ComputeJob.update({ state: 'failed', finishedAt: new Date(), message }, { where: { id: jobId, state: ['queued', 'running'] } });
+  const message = `No worker took the import within ${waitedMs / 1000} s; it was withdrawn and nothing was stored.`;
+  await ComputeJob.update({ state: 'failed', finishedAt: new Date(), message }, { where: { id: job.id, state: ['queued', 'running'] } });
   const boss = await jobQueue();
-  await boss.cancel(QUEUE_NAMES['plate-import'], jobId).catch(() => undefined);
+  await boss.cancel(QUEUE_NAMES['plate-import'], job.id).catch(() => undefined);
   return true;
 }
 
@@ -127,7 +126,7 @@ export async function awaitImport(jobId: string, waits: { queuedMs?: number; run
     if (job.state === 'failed' || job.state === 'done') throw refusal(job);
     if (job.state === 'running') runningSince ??= Date.now();
     if (Date.now() >= deadline) {
-      if (runningSince === null && (await withdraw(jobId))) {
+      if (runningSince === null && (await withdraw(job, queuedMs))) {
         throw new AppError('unavailable', `No worker took the import within ${queuedMs / 1000} s, so nothing was changed. Try again in a minute.`);
       }
       if (runningSince !== null) return { state: 'storing', jobId };

@@ -8,7 +8,7 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
-import { enqueueJob } from '@/lib/jobs/queue';
+import { enqueueJob, QUEUE_SCHEMA } from '@/lib/jobs/queue';
 import { listenForJobs } from '@/lib/jobs/wake';
 import { startJobWorkers, stopJobWorkers, sweepJobs } from '@/lib/jobs/worker';
 import { awaitImport, queueImport } from '@/lib/plates/import-jobs';
@@ -62,6 +62,15 @@ describe('imports as jobs', () => {
     const job = await ComputeJob.findByPk(jobId, { rejectOnEmpty: true });
     expect(job).toMatchObject({ kind: 'plate-import', state: 'done', plateId: plate.id, requestedBy: biologist.id, message: 'Stored as plate JOB-P01.' });
     expect(await uploads()).toBe(0);
+    // The job's end is written once, by the plate's own transaction: once the queue has closed the job,
+    // its compute_jobs row still carries that transaction's id (xmin), as the import's audit row (never
+    // updated) does.
+    for (let i = 0; i < 100 && (await one<{ state: string }>(`select state from ${QUEUE_SCHEMA}.job where id = :id`, { id: jobId })).state !== 'completed'; i++) await sleep(50);
+    const writers = await one<{ job: string; audit: string }>(
+      "select (select xmin::text from compute_jobs where id = :job) as job, (select xmin::text from audit_events where action = 'import' and entity_id = :plate) as audit",
+      { job: jobId, plate: plate.id },
+    );
+    expect(writers.job).toBe(writers.audit);
     // The audit trail names the person who uploaded, not the worker.
     const audit = await one<{ actorId: string }>("select actor_id as \"actorId\" from audit_events where action = 'import' and entity_id = :id", { id: plate.id });
     expect(audit.actorId).toBe(biologist.id);
@@ -92,7 +101,7 @@ describe('imports as jobs', () => {
     const jobId = await queueImport(biologist, await request('nav-96-plate-01.xlsx', 'JOB-WITHDRAWN'));
     await expect(awaitImport(jobId, { queuedMs: 300 })).rejects.toMatchObject({ code: 'unavailable', message: /No worker took the import within 0.3 s, so nothing was changed/ });
     expect(await uploads()).toBe(0);
-    expect(await ComputeJob.findByPk(jobId, { rejectOnEmpty: true })).toMatchObject({ state: 'failed', message: expect.stringMatching(/withdrawn and nothing was stored/) });
+    expect(await ComputeJob.findByPk(jobId, { rejectOnEmpty: true })).toMatchObject({ state: 'failed', message: 'No worker took the import within 0.3 s; it was withdrawn and nothing was stored.' });
     await startJobWorkers({ sweep: false });
     await sleep(1500); // more than a worker's polling interval
     expect(await importRowCounts()).toEqual(before);
