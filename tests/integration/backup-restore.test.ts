@@ -6,11 +6,10 @@ import { promisify } from 'node:util';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { db } from '@/lib/db';
-import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
-import { demoFile, makeDemoScreens } from '../support/demo-scenario';
-import { fitsCurrent } from '../support/jobs';
+import { importDemoPlate } from '../support/demo-plates';
+import { makeDemoScreens } from '../support/demo-scenario';
 
 const run = promisify(execFile);
 const TARGET = `gatewell_restore_${process.pid}`;
@@ -53,10 +52,7 @@ describe('a backup restores into a fresh database with every row and the audit g
     await resetDatabase();
     const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
     const biologist = await makeActor(['biologist']);
-    const { bytes, manifest } = demoFile('nav-96-plate-01.xlsx');
-    const upload = { screenId: screens[manifest.target]!, bytes, filename: 'p.xlsx', mediaType: 'application/octet-stream' };
-    const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-    await fitsCurrent((await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate })).plateId);
+    await importDemoPlate(biologist, screens, 'nav-96-plate-01.xlsx');
   });
   afterAll(async () => {
     await withClient(Object.assign(new URL(testUrl.href), { pathname: '/postgres' }).href, (client) => client.query(`drop database if exists ${TARGET} with (force)`));

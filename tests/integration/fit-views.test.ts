@@ -6,11 +6,10 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { listPlateWells } from '@/lib/plates/detail';
 import { listFitViews } from '@/lib/plates/fit-views';
-import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
-import { demoFile, makeDemoScreens } from '../support/demo-scenario';
-import { fitsCurrent } from '../support/jobs';
+import { importDemoPlate } from '../support/demo-plates';
+import { makeDemoScreens } from '../support/demo-scenario';
 
 describe('fit views', () => {
   let biologist: Actor;
@@ -20,11 +19,7 @@ describe('fit views', () => {
     await resetDatabase();
     const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
     biologist = await makeActor(['biologist']);
-    const { bytes, manifest } = demoFile('nav-384-plate-02.xlsx');
-    const upload = { screenId: screens[manifest.target]!, bytes, filename: 'nav-384-plate-02.xlsx', mediaType: 'application/octet-stream' };
-    const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-    ({ plateId } = await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate }));
-    await fitsCurrent(plateId);
+    plateId = await importDemoPlate(biologist, screens, 'nav-384-plate-02.xlsx');
   });
   afterAll(() => db().close());
 

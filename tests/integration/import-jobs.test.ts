@@ -12,13 +12,14 @@ import { enqueueJob, QUEUE_SCHEMA } from '@/lib/jobs/queue';
 import { listenForJobs } from '@/lib/jobs/wake';
 import { startJobWorkers, stopJobWorkers, sweepJobs } from '@/lib/jobs/worker';
 import { awaitImport, queueImport } from '@/lib/plates/import-jobs';
-import { inspectUpload, type CommitRequest } from '@/lib/plates/import-service';
+import type { CommitRequest } from '@/lib/plates/import-service';
 import { ComputeJob, Plate } from '@/models';
 import type { ComputeJobKind } from '@/models/compute-job';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { importRowCounts } from '../support/import-counts';
-import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { demoCommitRequest } from '../support/demo-plates';
+import { makeDemoScreens } from '../support/demo-scenario';
 
 const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) => (await db().query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
 const uploads = async () => (await one<{ n: number }>('select count(*)::int as n from import_uploads')).n;
@@ -46,10 +47,7 @@ describe('imports as jobs', () => {
   afterAll(() => stopJobWorkers());
 
   async function request(file: string, label?: string): Promise<CommitRequest> {
-    const { bytes, manifest } = demoFile(file);
-    const upload = { screenId: screens[manifest.target]!, bytes, filename: file, mediaType: 'application/octet-stream' };
-    const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-    return { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: label ?? manifest.plate };
+    return demoCommitRequest(biologist, screens, file, label ? { label } : {});
   }
 
   test('a queued import is stored by a worker, which removes the upload and puts the plate on the job', async () => {

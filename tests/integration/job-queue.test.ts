@@ -14,14 +14,15 @@ import { waitForJob } from '@/lib/jobs/progress';
 import { closeJobQueue, jobQueue } from '@/lib/jobs/queue';
 import { startJobWorkers, stopJobWorkers, sweepJobs } from '@/lib/jobs/worker';
 import { listPlateFits, listPlateWells } from '@/lib/plates/detail';
-import { commitImport, inspectUpload } from '@/lib/plates/import-service';
+import { commitImport } from '@/lib/plates/import-service';
 import { setWellExclusion } from '@/lib/plates/review';
 import { closeForecastPool } from '@/lib/science/forecast/pool';
 import { signPlateStep } from '@/lib/signoff/service';
 import { ComputeJob, Fit, Plate, Signature } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
-import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { demoCommitRequest } from '../support/demo-plates';
+import { makeDemoScreens } from '../support/demo-scenario';
 import { fitsCurrent } from '../support/jobs';
 
 const PASSWORD = 'test-password-123';
@@ -34,10 +35,7 @@ describe('job queue for fits and forecasts', () => {
   let chemist: Actor;
 
   async function importPlate(file: string, label?: string): Promise<string> {
-    const { bytes, manifest } = demoFile(file);
-    const upload = { screenId: screens[manifest.target]!, bytes, filename: file, mediaType: 'application/octet-stream' };
-    const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-    return (await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: label ?? manifest.plate })).plateId;
+    return (await commitImport(biologist, await demoCommitRequest(biologist, screens, file, label ? { label } : {}))).plateId;
   }
 
   beforeAll(async () => {

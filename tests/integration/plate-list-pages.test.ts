@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { listPlatePage, listPlates, PLATE_PAGE_SIZE } from '@/lib/plates/list';
-import { platePageHref, platePageSchema } from '@/lib/validation/plate-filter';
+import { myWorkPageHref, platePageHref, platePageSchema } from '@/lib/validation/plate-filter';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { importDemoPlate } from '../support/demo-plates';
@@ -45,6 +45,20 @@ describe('plates list pages on the real database', () => {
     );
     for (const { label, failing } of expected) expect(page.plates.find((p) => p.label === label)!.failingWellCount).toBe(failing);
     expect(expected.every(({ failing }) => failing > 0)).toBe(true);
+  });
+
+  test('My work comes in pages too: the plates waiting for a person, newest first, with their total', async () => {
+    // Freshly imported plates wait for a chemist to verify their compound maps; nothing waits for the biologist yet.
+    const chemist = await makeActor(['chemist']);
+    const waiting = await listPlates(chemist, { waitingFor: chemist });
+    expect(waiting.map((p) => p.label)).toEqual(['NAV-P03', 'KV-P01', 'NAV-P01']);
+    const first = await listPlatePage(chemist, { waitingFor: chemist }, 1, 2);
+    const second = await listPlatePage(chemist, { waitingFor: chemist }, 2, 2);
+    expect(first).toMatchObject({ total: 3, page: 1 });
+    expect([...first.plates, ...second.plates]).toEqual(waiting);
+    expect(await listPlatePage(chemist, { waitingFor: chemist }, 3, 2)).toMatchObject({ plates: [], total: 3 });
+    expect(await listPlatePage(biologist, { waitingFor: biologist }, 1)).toMatchObject({ plates: [], total: 0 });
+    expect([myWorkPageHref(1), myWorkPageHref(2)]).toEqual(['/', '/?page=2']);
   });
 
   test.each([

@@ -3,12 +3,12 @@ import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { listPlateFits, listPlateWells } from '@/lib/plates/detail';
-import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { setFitModel, setWellExclusion } from '@/lib/plates/review';
 import { AuditEvent, ComputeJob, Plate, Well } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
-import { demoFile, makeDemoScreens } from '../support/demo-scenario';
+import { importDemoPlate } from '../support/demo-plates';
+import { makeDemoScreens } from '../support/demo-scenario';
 import { fitsCurrent } from '../support/jobs';
 
 describe('plate review on the real database', () => {
@@ -19,11 +19,7 @@ describe('plate review on the real database', () => {
     await resetDatabase();
     const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
     biologist = await makeActor(['biologist']);
-    const { bytes, manifest } = demoFile('nav-96-plate-01.xlsx');
-    const upload = { screenId: screens[manifest.target]!, bytes, filename: 'p.xlsx', mediaType: 'application/octet-stream' };
-    const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-    ({ plateId } = await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate }));
-    await fitsCurrent(plateId);
+    plateId = await importDemoPlate(biologist, screens, 'nav-96-plate-01.xlsx');
   });
   afterAll(() => db().close());
 

@@ -1,8 +1,7 @@
 import type { Actor } from '@/lib/auth/roles';
-import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { makeActor } from './actors';
-import { demoFile, makeDemoScreens } from './demo-scenario';
-import { fitsCurrent } from './jobs';
+import { importDemoPlate } from './demo-plates';
+import { makeDemoScreens } from './demo-scenario';
 
 export const PASSWORD = 'test-password-123';
 
@@ -23,10 +22,6 @@ export async function signoffCast(file = 'nav-96-plate-01.xlsx'): Promise<Signof
   const biologist = await makeActor(['biologist']);
   const approver = await makeActor(['approver']);
   const approver2 = await makeActor(['approver']);
-  const { bytes, manifest } = demoFile(file);
-  const upload = { screenId: screens[manifest.target]!, bytes, filename: file, mediaType: 'application/octet-stream' };
-  const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-  const { plateId } = await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate });
-  await fitsCurrent(plateId);
+  const plateId = await importDemoPlate(biologist, screens, file);
   return { admin, chemist, biologist, approver, approver2, plateId };
 }
