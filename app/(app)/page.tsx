@@ -1,10 +1,13 @@
 import type { Metadata } from 'next';
+import { PlatePager } from '@/components/plates/plate-pager';
 import { PlateTable } from '@/components/plates/plate-table';
+import { AppLink } from '@/components/ui/app-link';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { listPlates } from '@/lib/plates/list';
+import { listPlatePage } from '@/lib/plates/list';
 import { plateSignoffPath } from '@/lib/signoff/notices';
+import { myWorkPageHref, platePageSchema } from '@/lib/validation/plate-filter';
 
 export const metadata: Metadata = { title: 'My work' };
 
@@ -15,16 +18,23 @@ const WHAT_YOU_DO: Record<string, string> = {
   admin: 'manage users, screens and thresholds',
 };
 
-export default async function MyWorkPage() {
+export default async function MyWorkPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const actor = await requireActor();
-  // Plates in a state this person signs next, less those segregation of duties keeps from them.
-  const plates = await listPlates(actor, { waitingFor: actor });
+  // Plates in a state this person signs next, less those segregation of duties keeps from them, a page at a time.
+  const result = await listPlatePage(actor, { waitingFor: actor }, platePageSchema.parse((await searchParams).page));
   const duties = actor.roles.map((role) => WHAT_YOU_DO[role]).filter(Boolean).join('; ');
   return (
     <>
-      <PageHeader title={`My work`} intro={`Signed in as ${actor.name}. You ${duties || 'can read results'}.`} />
-      {plates.length ? (
-        <PlateTable plates={plates} caption="Plates waiting for your action" linkTo={(p) => plateSignoffPath(p.id)} />
+      <PageHeader title="My work" intro={`Signed in as ${actor.name}. You ${duties || 'can read results'}.`} />
+      {result.plates.length ? (
+        <>
+          <PlatePager result={result} pageHref={myWorkPageHref} />
+          <PlateTable plates={result.plates} caption="Plates waiting for your action" linkTo={(p) => plateSignoffPath(p.id)} />
+        </>
+      ) : result.total ? (
+        <EmptyState title="This page is past the last plate waiting for you">
+          <AppLink href={myWorkPageHref(1)} className="underline">Go to the first page</AppLink>.
+        </EmptyState>
       ) : (
         <EmptyState title="Nothing is waiting for you">
           Plates appear here when they reach a step that needs your role. The Plates page lists every plate.

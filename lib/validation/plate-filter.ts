@@ -27,3 +27,8 @@ export function platePageHref(filter: PlateFilterParams, page: number): string {
   const query = params.toString();
   return query ? `/plates?${query}` : '/plates';
 }
+
+/** The address of one page of My work (the home page; page 1 has no page parameter). */
+export function myWorkPageHref(page: number): string {
+  return page > 1 ? `/?page=${page}` : '/';
+}

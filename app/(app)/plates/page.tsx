@@ -31,7 +31,7 @@ export default async function PlatesPage({ searchParams }: { searchParams: Promi
       <PlateFilters filter={filter} screens={screens} importers={importers} />
       {result.plates.length ? (
         <>
-          <PlatePager filter={filter} result={result} />
+          <PlatePager result={result} pageHref={(page) => platePageHref(filter, page)} />
           <PlateTable plates={result.plates} caption="Plates" />
         </>
       ) : result.total ? (
