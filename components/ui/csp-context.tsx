@@ -1,6 +1,6 @@
 'use client';
 
-import { createContext, useContext, type ReactNode } from 'react';
+import { createContext, useContext, useState, type ReactNode } from 'react';
 import { z } from 'zod';
 
 // What client code needs to live under Gatewell's CSP (lib/security/content-security-policy.ts), loaded on every page by the root layout.
@@ -11,9 +11,15 @@ if (typeof window !== 'undefined') z.config({ jitless: true });
 
 const StyleNonceContext = createContext<string | undefined>(undefined);
 
-/** Hands this request's CSP nonce (from the proxy, read by the root layout) to client code that injects style tags. */
+/**
+ * Hands the document's CSP nonce (from the proxy, read by the root layout) to client code that injects
+ * style tags. A browser holds a document to the policy of the answer that loaded it, while an RSC payload
+ * that renders the root layout again (the redirect after signing in, a refresh after a server action)
+ * brings the nonce of its own request: the provider keeps the nonce it was first rendered with.
+ */
 export function StyleNonceProvider({ nonce, children }: { nonce: string | undefined; children: ReactNode }) {
-  return <StyleNonceContext.Provider value={nonce}>{children}</StyleNonceContext.Provider>;
+  const [documentNonce] = useState(nonce);
+  return <StyleNonceContext.Provider value={documentNonce}>{children}</StyleNonceContext.Provider>;
 }
 
 /** The nonce that style tags injected on this page must carry, or undefined outside a proxied request. */

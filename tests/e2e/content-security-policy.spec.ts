@@ -75,3 +75,22 @@ test('the main pages work under the Content-Security-Policy with no violation', 
 
   expect(violations).toEqual([]);
 });
+
+// The browser keeps the policy, and so the nonce, of the answer that loaded the document. Signing in
+// through the form renders the signed-in pages from the server action's answer, with a nonce of its own:
+// grids opened by links from there must still carry the document's nonce.
+test('after signing in through the form, grids opened by links are styled under the document’s nonce', async ({ page }) => {
+  const violations = await watchViolations(page);
+  policyOf(await page.goto('/sign-in'));
+  await page.getByLabel('E-mail').fill(DEMO.biologist.email);
+  await page.getByLabel('Password').fill(DEMO.biologist.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByRole('heading', { name: 'My work' })).toBeVisible();
+
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Compounds' }).click();
+  await expectStyledGrid(page, 'Registered compounds');
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Plates' }).click();
+  await page.getByRole('link', { name: 'NAV-P01' }).click();
+  await expectStyledGrid(page, /^Wells of /);
+  expect(violations).toEqual([]);
+});
