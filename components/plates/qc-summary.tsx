@@ -17,7 +17,8 @@ export function QcSummary({ header }: { header: PlateHeader }) {
               <p className={`text-sm font-medium ${z.passes ? 'text-signal-pass' : 'text-signal-fail'}`}>
                 {z.passes ? 'Passes' : 'Fails'} the screen limit of {header.zprimeMin}{z.band ? ` · ${z.band}` : ''}
               </p>
-              <p className="mt-1 text-xs text-ink-700">{z.message}</p>
+              {/* With a value, the lines above say what the message says; without one, it says why. */}
+              {z.zPrime === null ? <p className="mt-1 text-xs text-ink-700">{z.message}</p> : null}
               <p className="mt-1 text-xs text-ink-500">
                 {t.rundownCorrected ? `Run-down corrected (vehicle ratio ${t.vehicleMeanRatio?.toFixed(3)})` : 'No run-down correction'}
                 {t.normalised ? ' · normalised to vehicle and reference' : ''}

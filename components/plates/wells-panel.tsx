@@ -1,6 +1,6 @@
 'use client';
 
-import type { ColDef } from 'ag-grid-community';
+import type { ColDef, RowDataUpdatedEvent, SelectionChangedEvent } from 'ag-grid-community';
 import { useMemo, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { DataGrid } from '@/components/ui/data-grid';
@@ -79,7 +79,7 @@ export function WellsPanel({ plateId, format, canEdit }: { plateId: string; form
           ))}
         </fieldset>
       </div>
-      <PlateMap format={format} wells={wells} colouring={colouring} selected={selected} onToggle={toggle} />
+      <PlateMap format={format} wells={wells} colouring={colouring} selected={selected} onToggle={editable ? toggle : () => undefined} />
       {editable ? (
         <div className="gw-card flex flex-wrap items-end gap-3 p-4">
           <p className="text-sm font-medium">{selected.size} well(s) selected</p>
@@ -100,9 +100,12 @@ export function WellsPanel({ plateId, format, canEdit }: { plateId: string; form
         columns={COLUMNS}
         height={480}
         getRowId={(p) => p.data.readoutId}
-        rowSelection={{ mode: 'multiRow', checkboxes: true, headerCheckbox: true, enableClickSelection: false }}
-        onSelectionChanged={(e) => setSelected(new Set(e.api.getSelectedRows().map((r) => r.id)))}
-        onRowDataUpdated={(e) => e.api.forEachNode((node) => node.setSelected(Boolean(node.data && selected.has(node.data.id))))}
+        // Wells are picked only where they can be excluded: a locked plate's grid has no selection boxes.
+        {...(editable ? {
+          rowSelection: { mode: 'multiRow', checkboxes: true, headerCheckbox: true, enableClickSelection: false } as const,
+          onSelectionChanged: (e: SelectionChangedEvent<WellRowView>) => setSelected(new Set(e.api.getSelectedRows().map((r) => r.id))),
+          onRowDataUpdated: (e: RowDataUpdatedEvent<WellRowView>) => e.api.forEachNode((node) => node.setSelected(Boolean(node.data && selected.has(node.data.id)))),
+        } : {})}
       />
     </section>
   );
