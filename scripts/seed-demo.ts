@@ -1,6 +1,8 @@
 // Seeds the invented demo scenario through Gatewell's own services, so every row is validated and
-// audited like a user's: two screens with their targets, the demo compounds with a batch each, and the
-// generated plate exports of seeders/data/demo-plates imported as the demo biologist.
+// audited like a user's: two screens with their targets, the demo compounds with a batch each, the
+// generated plate exports of seeders/data/demo-plates imported as the demo biologist, and two of those
+// plates taken on through sign-off with the demo users' signatures (one approved, one submitted), so that
+// every role finds a plate at its own step.
 // Run by seeders/20261201000200-demo-scenario.js as
 //   node --conditions=react-server --import tsx scripts/seed-demo.ts
 // (the react-server condition makes the 'server-only' marker an empty module outside Next).
@@ -13,6 +15,8 @@ import { screenSchema } from '@/lib/validation/screens';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
+import { signPlateStep } from '@/lib/signoff/service';
+import type { SignoffAction } from '@/lib/validation/signoff';
 import { startJobWorkers, stopJobWorkers } from '@/lib/jobs/worker';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { Compound, Plate, Screen } from '@/models';
@@ -100,6 +104,37 @@ async function fitDemoPlates(): Promise<void> {
   await stopJobWorkers();
 }
 
+/** Demo sign-off: which plates go how far, signed by whom (the demo passwords of seeders/20261201000100-demo-users.js). */
+const DEMO_SIGNOFF: { plate: string; steps: { action: SignoffAction; role: 'chemist' | 'biologist' | 'approver'; comment: string }[] }[] = [
+  {
+    plate: 'NAV-P02',
+    steps: [
+      { action: 'verify', role: 'chemist', comment: 'Demo: compound map checked against the plate layout.' },
+      { action: 'submit', role: 'biologist', comment: 'Demo: QC, exclusions and fits reviewed.' },
+      { action: 'approve', role: 'approver', comment: 'Demo: potencies accepted.' },
+    ],
+  },
+  {
+    plate: 'NAV-P03',
+    steps: [
+      { action: 'verify', role: 'chemist', comment: 'Demo: compound map checked against the plate layout.' },
+      { action: 'submit', role: 'biologist', comment: 'Demo: Z′ is below the screen limit on this noisy plate; for an approver to decide.' },
+    ],
+  },
+];
+
+/** Takes the demo plates still at import through their demo sign-off steps, each a signed step as in the app. */
+async function seedSignoff(): Promise<void> {
+  for (const demo of DEMO_SIGNOFF) {
+    const plate = await Plate.findOne({ where: { label: demo.plate } });
+    if (!plate || plate.state !== 'imported') continue;
+    for (const step of demo.steps) {
+      const actor = await demoActor(`${step.role}@gatewell.test`);
+      await signPlateStep(actor, plate.id, { action: step.action, password: `demo-${step.role}-pass`, comment: step.comment });
+    }
+  }
+}
+
 async function main(): Promise<void> {
   const admin = await demoActor('admin@gatewell.test');
   const chemist = await demoActor('chemist@gatewell.test');
@@ -107,6 +142,7 @@ async function main(): Promise<void> {
   await seedCompounds(chemist);
   await seedPlates(await demoActor('biologist@gatewell.test'));
   await fitDemoPlates();
+  await seedSignoff();
   await db().close();
 }
 
