@@ -7,6 +7,7 @@ export const DEMO = {
   chemist: { email: 'chemist@gatewell.test', password: 'demo-chemist-pass' },
   biologist: { email: 'biologist@gatewell.test', password: 'demo-biologist-pass' },
   approver: { email: 'approver@gatewell.test', password: 'demo-approver-pass' },
+  approver2: { email: 'approver2@gatewell.test', password: 'demo-approver2-pass' },
 } as const;
 
 export type DemoRole = keyof typeof DEMO;
@@ -15,7 +16,7 @@ export type DemoRole = keyof typeof DEMO;
 export async function signIn(page: Page, email: string, password: string): Promise<void> {
   await page.goto('/sign-in');
   await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(password);
+  await page.getByLabel('Password', { exact: true }).fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
 }
