@@ -22,6 +22,7 @@ export function deltaText(v: number | null, unit: string): string {
 const FLAG_TEXT: Record<string, string> = {
   'loss-of-firing': 'Loss of firing',
   'depolarisation-block': 'Depolarisation block',
+  'firing-stops': 'Firing stops during the step',
   'spontaneous-firing': 'Fires at rest',
   'no-stable-rest': 'No stable rest',
 };

@@ -6,7 +6,7 @@ const round = (v: number | null, digits = 4): number | null => (v === null ? nul
 const pct = (v: number | null): number | null => (v === null ? null : Number((v * 100).toFixed(2)));
 
 const FLAG_WORDS: Record<string, string> = {
-  'loss-of-firing': 'loss of firing', 'depolarisation-block': 'depolarisation block', 'spontaneous-firing': 'fires at rest', 'no-stable-rest': 'no stable rest',
+  'loss-of-firing': 'loss of firing', 'depolarisation-block': 'depolarisation block', 'firing-stops': 'firing stops during the step', 'spontaneous-firing': 'fires at rest', 'no-stable-rest': 'no stable rest',
 };
 
 export const FORECAST_COLUMNS = [

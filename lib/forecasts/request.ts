@@ -5,7 +5,7 @@ import type { TargetPotency } from '@/lib/validation/forecasts';
 import { isExposure, sweepConcentrations } from './sweep';
 
 /** Part of every stored input: a change to how Gatewell builds or computes forecasts changes the key. */
-export const FORECAST_ENGINE = 'gatewell-forecast/1';
+export const FORECAST_ENGINE = 'gatewell-forecast/2'; // 2: the 'firing-stops' flag
 
 /** The f–I curve: 12 drives up to 3 × the control rheobase (our choice, no source). */
 export const FORECAST_FI_CURVE = { points: 12, upToFactor: 3 } as const;

@@ -32,7 +32,9 @@ describe('forecast CLI', () => {
     expect(Object.keys(out.rates_Hz)).toEqual(['10', '20']);
     expect(Math.abs(out.rates_Hz['10'] - 68.3)).toBeLessThanOrEqual(0.1);
     expect(Math.abs(out.rates_Hz['20'] - 86.5)).toBeLessThanOrEqual(0.1);
-    expect(out.flags).toEqual([]);
+    // The reference drive is twice the rheobase (about 4.5 µA/cm²), below the HH axon's onset of repetitive
+    // firing (about 6.3 µA/cm², from memory: Rinzel & Miller 1980): it fires at the start, then stops.
+    expect(out.flags).toEqual(['firing-stops']);
   });
 
   test('30 % sodium block raises the rheobase', () => {

@@ -41,6 +41,23 @@ describe('sodium block (gNa) makes the cell harder to fire', () => {
     expect(blocked.reference!.spikes).toBe(0);
     expect(blocked.flags).toContain('loss-of-firing');
   });
+
+  // Common practice, no published number: a cell losing most of its sodium current fires at the start
+  // of a step and then falls silent (tonic to phasic). The 90 % level was found by running this model
+  // (Gatewell's own computation, not a source value); 70 % still fires tonically.
+  test('RS: 90 % block at the control’s reference drive fires at onset, then stops below threshold', () => {
+    const control = measure('pospischil-rs-2008', {});
+    const at = (block: number) => measureExcitability(compileModel(getPreset('pospischil-rs-2008'), { gNa: 1 - block }), {
+      referenceDrive_uA_cm2: control.referenceDrive_uA_cm2!,
+    });
+    const phasic = at(0.9);
+    expect(phasic.reference!.spikes).toBeGreaterThan(0);
+    expect(phasic.reference!.lateSpikes).toBe(0);
+    expect(phasic.reference!.rate_Hz).toBe(0);
+    expect(phasic.flags).toEqual(['firing-stops']);
+    expect(at(0.7).flags).toEqual([]);
+    expect(control.flags).toEqual([]);
+  });
 });
 
 describe('delayed-rectifier block (gK)', () => {
@@ -88,8 +105,16 @@ describe('M-current block (gM) removes spike-frequency adaptation (Pospischil et
   });
 });
 
-test('HH at 200 µA/cm² sits in depolarisation block; at the reference drive it does not', () => {
+// From memory (Rinzel & Miller 1980, the HH equations' bifurcations): the unblocked HH axon fires
+// repetitively for a step only above about 6.3 µA/cm², so at twice its 2.24 µA/cm² rheobase it fires at
+// the start of the step and then stops, while 200 µA/cm² holds it depolarised.
+test('HH at 200 µA/cm² sits in depolarisation block; at the reference drive (2 × rheobase) it fires, then stops', () => {
   const e = measure('hh-squid-1952', {}, [200]);
-  expect(e.flags).toEqual(['depolarisation-block']);
-  expect(measure('hh-squid-1952', {}).flags).toEqual([]);
+  expect(e.flags).toEqual(['depolarisation-block', 'firing-stops']);
+  const reference = measure('hh-squid-1952', {});
+  expect(reference.referenceDrive_uA_cm2!).toBeLessThan(6.3);
+  expect(reference.reference!.spikes).toBeGreaterThan(0);
+  expect(reference.flags).toEqual(['firing-stops']);
+  // Above the repetitive-firing onset the same axon fires through the step: no flag.
+  expect(measureExcitability(compileModel(getPreset('hh-squid-1952'), {}), { referenceDrive_uA_cm2: 10 }).flags).toEqual([]);
 });

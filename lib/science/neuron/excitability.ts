@@ -11,9 +11,12 @@ import { findRheobase } from './rheobase';
  * - 'no-stable-rest': no stable rest, but no spike either (a sub-threshold oscillation);
  * - 'loss-of-firing': no step up to the ceiling gives a spike, or no spike at the reference drive;
  * - 'depolarisation-block': at some measured drive the cell spiked, then stopped (fewer than 3 spikes
- *   in the last half) while sitting above its own spike threshold (or −40 mV if that is unknown).
+ *   in the last half) while sitting above its own spike threshold (or −40 mV if that is unknown);
+ * - 'firing-stops': at the reference drive the cell spiked at the start of the step, then fell silent
+ *   below that level (no spike in the last half, where the rate is taken): its rate there is 0 although
+ *   it still fires, the tonic-to-phasic change of a cell losing its sodium current.
  */
-export type ExcitabilityFlag = 'spontaneous-firing' | 'no-stable-rest' | 'loss-of-firing' | 'depolarisation-block';
+export type ExcitabilityFlag = 'spontaneous-firing' | 'no-stable-rest' | 'loss-of-firing' | 'depolarisation-block' | 'firing-stops';
 
 export interface ExcitabilityProtocol {
   /** @default DEFAULT_DT_MS (0.025 ms) */
@@ -140,6 +143,7 @@ export function measureExcitability(model: CompiledModel, request: ExcitabilityR
   for (const r of reference ? [reference, ...fI] : fI) {
     if (r.spikes > 0 && r.lateSpikes < 3 && r.lateMeanV_mV > blockLevel) flags.add('depolarisation-block');
   }
+  if (reference && reference.spikes > 0 && reference.lateSpikes === 0 && reference.lateMeanV_mV <= blockLevel) flags.add('firing-stops');
   return {
     rest_mV: rest.rest_mV,
     rheobase_uA_cm2: rheo?.rheobase_uA_cm2 ?? null,
