@@ -4,9 +4,10 @@
 // --fits, --forecasts and --imports set how many jobs of each kind this process runs at once (default 2, 2, 1).
 // --nice sets the nice value of the process and of the PostgreSQL sessions it opens on this machine
 // (default 19, the lowest priority; 0 with --scheduling nice keeps the normal one), so that a worker beside
-// the web server on one machine takes only the CPU that people's page requests leave. --scheduling idle (the default on Linux) also puts
-// the process and those sessions in the kernel's SCHED_IDLE class through chrt(1), so that a page request
-// takes a core from the worker the moment it wakes; --scheduling nice keeps the nice value alone.
+// the web server on one machine takes only the CPU that people's page requests leave. --scheduling idle
+// (the default on Linux) also puts the process and those sessions in the kernel's SCHED_IDLE class through
+// chrt(1), so that a page request takes a core from the worker the moment it wakes; --scheduling nice keeps
+// the nice value alone.
 // SIGINT/SIGTERM stop it gracefully: jobs under way finish, waiting jobs stay for other workers.
 import { parseArgs } from 'node:util';
 import { runInBackground } from '../lib/jobs/background-priority';
