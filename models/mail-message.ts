@@ -21,6 +21,8 @@ export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreati
   declare nextAttemptAt: CreationOptional<Date>;
   declare lastAttemptAt: CreationOptional<Date | null>;
   declare lastError: CreationOptional<string | null>;
+  /** End of a sender's claim while it sends the message; null when no sender holds it. */
+  declare claimedUntil: CreationOptional<Date | null>;
   declare smtpResponse: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare sentAt: CreationOptional<Date | null>;
@@ -42,6 +44,7 @@ export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreati
         nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
         lastAttemptAt: { type: DataTypes.DATE, allowNull: true },
         lastError: { type: DataTypes.TEXT, allowNull: true },
+        claimedUntil: { type: DataTypes.DATE, allowNull: true },
         smtpResponse: { type: DataTypes.TEXT, allowNull: true },
         createdAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
         sentAt: { type: DataTypes.DATE, allowNull: true },

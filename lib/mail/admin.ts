@@ -50,6 +50,27 @@ export async function outboxCounts(actor: Actor): Promise<Record<MailState, numb
   return { queued: 0, sent: 0, failed: 0, ...Object.fromEntries(rows.map((r) => [r.state, r.n])) };
 }
 
+/**
+ * Brings every message waiting for a later attempt forward to now, for when the SMTP server is back
+ * before the next retry; messages a sender holds at this moment are left to it. Audited once, with the
+ * ids. Admins only. Returns how many were brought forward.
+ */
+export async function hurryWaitingMail(actor: Actor): Promise<number> {
+  requireRole(actor, 'admin');
+  return db().transaction(async (transaction) => {
+    const rows = await db().query<{ id: string }>(
+      `update mail_outbox set next_attempt_at = now()
+        where state = 'queued' and next_attempt_at > now() and (claimed_until is null or claimed_until <= now())
+        returning id`,
+      { type: QueryTypes.SELECT, transaction },
+    );
+    if (rows.length) {
+      await recordAudit({ actorId: actor.id, action: 'hurry_mail', entityType: 'mail_outbox', after: { messages: rows.map((r) => r.id) }, address: actor.address }, transaction);
+    }
+    return rows.length;
+  });
+}
+
 /** Puts a message that gave up back in the queue for a fresh round of attempts; audited. Admins only. */
 export async function requeueMail(actor: Actor, messageId: string): Promise<void> {
   requireRole(actor, 'admin');

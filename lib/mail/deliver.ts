@@ -41,10 +41,13 @@ interface Claimed {
   maxAttempts: number;
 }
 
-/** Reserves due messages (skipping any another process holds), counting the attempt before it is made. */
+/**
+ * Reserves due messages (skipping any another process holds), counting the attempt before it is made.
+ * The claim ends at the lease's end (claimed_until); a sender that dies leaves the message due then.
+ */
 async function claimDue(now: Date, limit: number): Promise<Claimed[]> {
   return db().query<Claimed>(
-    `update mail_outbox m set attempts = m.attempts + 1, last_attempt_at = :now, next_attempt_at = :leaseEnd
+    `update mail_outbox m set attempts = m.attempts + 1, last_attempt_at = :now, next_attempt_at = :leaseEnd, claimed_until = :leaseEnd
       where m.id in (select id from mail_outbox where state = 'queued' and next_attempt_at <= :now
                       order by next_attempt_at, created_at limit :limit for update skip locked)
       returning m.id, m.to_address as "toAddress", m.subject, m.body_text as "bodyText", m.attempts, m.max_attempts as "maxAttempts"`,
@@ -54,11 +57,11 @@ async function claimDue(now: Date, limit: number): Promise<Claimed[]> {
 
 async function settle(id: string, outcome: { sent: true; response: string } | { sent: false; error: string; giveUp: boolean; retryAt: Date }) {
   if (outcome.sent) {
-    await db().query(`update mail_outbox set state = 'sent', sent_at = now(), smtp_response = :response, last_error = null where id = :id`, {
+    await db().query(`update mail_outbox set state = 'sent', sent_at = now(), smtp_response = :response, last_error = null, claimed_until = null where id = :id`, {
       replacements: { id, response: outcome.response.slice(0, 500) },
     });
   } else {
-    await db().query(`update mail_outbox set state = :state, next_attempt_at = :retryAt, last_error = :error where id = :id`, {
+    await db().query(`update mail_outbox set state = :state, next_attempt_at = :retryAt, last_error = :error, claimed_until = null where id = :id`, {
       replacements: { id, state: outcome.giveUp ? 'failed' : 'queued', retryAt: outcome.retryAt, error: outcome.error.slice(0, 500) },
     });
   }

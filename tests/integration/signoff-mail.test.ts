@@ -1,10 +1,10 @@
 import { createServer } from 'node:net';
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import { db } from '@/lib/db';
-import { requeueMail } from '@/lib/mail/admin';
+import { hurryWaitingMail, requeueMail } from '@/lib/mail/admin';
 import { deliverDueMail, retryDelayMs } from '@/lib/mail/deliver';
 import { signPlateStep } from '@/lib/signoff/service';
-import { MailMessage, Plate } from '@/models';
+import { AuditEvent, MailMessage, Plate } from '@/models';
 import { resetDatabase } from '../support/database';
 import { fakeSmtpSettings, waitForMessages } from '../support/fake-smtp';
 import { PASSWORD, signoffCast, type SignoffCast } from '../support/signoff-scenario';
@@ -92,6 +92,27 @@ describe('notifications: queued with the transition, delivered over SMTP to the 
     await requeueMail(cast.admin, gaveUp!.id);
     expect(await deliverDueMail({ smtp: fakeSmtpSettings() })).toMatchObject({ sent: 1 });
     await expect(requeueMail(cast.admin, gaveUp!.id)).rejects.toMatchObject({ code: 'conflict', message: 'This message is sent; only a failed message can be sent again.' });
+  });
+
+  test('an admin brings the messages waiting for a retry forward, leaving one a sender holds to it', async () => {
+    const down = { ...fakeSmtpSettings(), port: await closedPort() };
+    await sign('chemist', 'verify');
+    expect(await deliverDueMail({ smtp: down })).toMatchObject({ attempted: 2, retrying: 2 });
+    const [imported] = await queued('plate_imported');
+    const [verified] = await queued('plate_verified');
+    // A sender is sending the import notice right now (its claim, as claimDue writes it).
+    await db().query("update mail_outbox set claimed_until = now() + interval '5 minutes', next_attempt_at = now() + interval '5 minutes' where id = :id", { replacements: { id: imported!.id } });
+
+    await expect(hurryWaitingMail(cast.chemist)).rejects.toMatchObject({ code: 'forbidden' });
+    expect(await hurryWaitingMail(cast.admin)).toBe(1);
+    expect(await deliverDueMail({ smtp: fakeSmtpSettings() })).toMatchObject({ attempted: 1, sent: 1 });
+    expect((await MailMessage.findByPk(verified!.id))).toMatchObject({ state: 'sent', attempts: 2, claimedUntil: null });
+    expect((await MailMessage.findByPk(imported!.id))).toMatchObject({ state: 'queued', attempts: 1 });
+    const audits = await AuditEvent.findAll({ where: { action: 'hurry_mail' } });
+    expect(audits.map((a) => [a.actorId, a.after])).toEqual([[cast.admin.id, { messages: [verified!.id] }]]);
+    // Nothing else waits that no sender holds: nothing is brought forward, and nothing more is audited.
+    expect(await hurryWaitingMail(cast.admin)).toBe(0);
+    expect(await AuditEvent.count({ where: { action: 'hurry_mail' } })).toBe(1);
   });
 
   test('two senders at once deliver each message exactly once', async () => {

@@ -5,8 +5,10 @@ import { PEOPLE, signedIn } from '../signoff-support';
 import { importThroughApi, mailServer, potassiumScreenId } from './fault-support';
 
 // The mail server is down while a chemist signs a step: the step is recorded at once and its notice
-// waits in the outbox with the failed attempt; once the server is back, the sender's own retry
-// (lib/mail/deliver.ts: the first retry after one minute) delivers it. Nobody restarts anything else.
+// waits in the outbox with the failed attempt; an admin's "Send waiting mail now" tries it again at once,
+// without waiting for the sender's own retry (lib/mail/deliver.ts: a minute after the first attempt, then
+// two, four …, covered in tests/integration/signoff-mail.test.ts), and once the server is back the same
+// button delivers it. Nobody restarts anything else.
 const LABEL = 'KV-MAIL-DOWN';
 const SUBJECT = `Gatewell: plate ${LABEL} compound map verified: ready to review and submit`;
 
@@ -56,15 +58,24 @@ test('with the mail server down a sign-off step is recorded and its notice waits
     await expect(row).toContainText('ECONNREFUSED');
     await expect(row).toContainText('Next attempt');
     await screenshot(admin, 'fault-mail-down-outbox');
+
+    // The admin need not wait for the retry: "Send waiting mail now" tries it at once (still down here).
+    await admin.getByRole('button', { name: 'Send waiting mail now' }).click();
+    await expect(admin.getByRole('status').filter({ hasText: /it tried (one message|\d+ messages) waiting for a retry at once/ })).toBeVisible();
+    await expect.poll(async () => (await notice(plateId))?.attempts, { timeout: 30_000 }).toBeGreaterThan(waiting.attempts);
+    expect(await notice(plateId)).toMatchObject({ state: 'queued', lastError: expect.stringMatching(/ECONNREFUSED/) });
   } finally {
     mailServer('start');
   }
 
-  // Back up: the sender's retry delivers the notice to the biologist, no later than a few retries on.
-  const [delivered] = await waitForMessages((m) => m.subject === SUBJECT && m.envelope.to.includes(PEOPLE.biologist.email), 1, 240_000);
+  // Back up: the admin sends the waiting mail at once, and the notice reaches the biologist.
+  const admin = await signedIn(browser, 'admin');
+  await admin.goto('/admin/outbox?state=queued');
+  await admin.getByRole('button', { name: 'Send waiting mail now' }).click();
+  await expect(admin.getByRole('status').filter({ hasText: 'Delivery pass finished' })).toBeVisible();
+  const [delivered] = await waitForMessages((m) => m.subject === SUBJECT && m.envelope.to.includes(PEOPLE.biologist.email), 1, 60_000);
   expect(delivered!.text).toContain(`/plates/${plateId}/history`);
   await expect.poll(async () => (await notice(plateId))?.state, { timeout: 30_000 }).toBe('sent');
-  const admin = await signedIn(browser, 'admin');
   await admin.goto('/admin/outbox?state=sent');
   const row = admin.getByRole('row').filter({ has: admin.getByRole('link', { name: SUBJECT }) });
   await expect(row).toContainText('Sent');

@@ -3,7 +3,7 @@
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
 import { validatedAction } from '@/lib/actions/validated-action';
-import { requeueMail } from '@/lib/mail/admin';
+import { hurryWaitingMail, requeueMail } from '@/lib/mail/admin';
 import { sendDueMailNow } from '@/lib/mail/sender-loop';
 import { parseId } from '@/lib/validation/ids';
 
@@ -15,9 +15,11 @@ export const requeueMailAction = validatedAction(z.object({ messageId: z.string(
   return { ok: true, message: 'Queued again and tried.' };
 });
 
-/** Runs a delivery pass now instead of waiting for the sender's next round. */
-export const sendDueMailAction = validatedAction(z.object({}), ['admin'], async () => {
+/** Brings every waiting message forward and runs a delivery pass now, instead of waiting for retries. */
+export const sendWaitingMailAction = validatedAction(z.object({}), ['admin'], async (_input, actor) => {
+  const hurried = await hurryWaitingMail(actor);
   await sendDueMailNow();
   revalidatePath('/admin/outbox');
-  return { ok: true, message: 'Delivery pass finished.' };
+  const waited = hurried === 1 ? 'one message waiting for a retry' : `${hurried} messages waiting for a retry`;
+  return { ok: true, message: hurried ? `Delivery pass finished; it tried ${waited} at once.` : 'Delivery pass finished.' };
 });

@@ -7,7 +7,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
 import { listOutbox, outboxCounts } from '@/lib/mail/admin';
 import { MAIL_STATES, type MailState } from '@/models/mail-message';
-import { requeueMailAction, sendDueMailAction } from './actions';
+import { requeueMailAction, sendWaitingMailAction } from './actions';
 
 export const metadata: Metadata = { title: 'Mail outbox' };
 
@@ -25,7 +25,7 @@ export default async function OutboxPage({ searchParams }: { searchParams: Promi
       <PageHeader
         title="Mail outbox"
         intro={`Notifications queued with each sign-off step and sent over SMTP, retried with growing waits. ${counts.queued} waiting, ${counts.sent} sent, ${counts.failed} gave up.`}
-        actions={<OutboxButton action={sendDueMailAction} label="Send due mail now" busyLabel="Sending…" />}
+        actions={<OutboxButton action={sendWaitingMailAction} label="Send waiting mail now" busyLabel="Sending…" />}
       />
       <nav aria-label="Filter by delivery" className="mb-4 flex gap-2 text-sm">
         {FILTERS.map((f) => (
