@@ -3,7 +3,8 @@ import { QueryTypes } from 'sequelize';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { parseOrRefuse } from '@/lib/validation/parse';
-import { AUDIT_PAGE_SIZE, auditFilterSchema } from '@/lib/validation/audit';
+import { AppError } from '@/lib/errors';
+import { AUDIT_PAGE_SIZE, auditFilterSchema, type AuditFilter } from '@/lib/validation/audit';
 
 /** One audit event as the audit trail shows it. */
 export interface AuditRow {
@@ -35,6 +36,36 @@ export interface AuditPage {
 export async function searchAudit(actor: Actor, rawFilter: unknown): Promise<AuditPage> {
   requireRole(actor, 'admin', 'approver');
   const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
+  const { whereSql, replacements } = filterSql(filter);
+  const sequelize = db();
+  const [counted] = await sequelize.query<{ total: number }>(`select count(*)::int as total from audit_events a ${whereSql}`, {
+    type: QueryTypes.SELECT,
+    replacements,
+  });
+  const rows = await selectRows(whereSql, replacements, AUDIT_PAGE_SIZE, (filter.page - 1) * AUDIT_PAGE_SIZE);
+  return { rows, total: counted?.total ?? 0, page: filter.page, pageSize: AUDIT_PAGE_SIZE };
+}
+
+/** Most events one export holds: beyond it the person narrows the filter. */
+export const AUDIT_EXPORT_LIMIT = 100_000;
+
+/**
+ * Every event the filter matches (its page ignored), newest first, for an export: refused with a clear
+ * message when more than `limit` match. Admins and approvers only.
+ */
+export async function auditEventsForExport(actor: Actor, rawFilter: unknown, limit = AUDIT_EXPORT_LIMIT): Promise<{ filter: AuditFilter; rows: AuditRow[] }> {
+  requireRole(actor, 'admin', 'approver');
+  const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
+  const { whereSql, replacements } = filterSql(filter);
+  const rows = await selectRows(whereSql, replacements, limit + 1, 0);
+  if (rows.length > limit) {
+    throw new AppError('invalid', `More than ${limit.toLocaleString('en-GB')} events match; an export holds at most that many. Narrow the time range or the filter.`);
+  }
+  return { filter, rows };
+}
+
+/** The filter as SQL conditions on `audit_events a`. */
+function filterSql(filter: AuditFilter): { whereSql: string; replacements: Record<string, unknown> } {
   const where: string[] = [];
   const replacements: Record<string, unknown> = {};
   const clauses: [keyof typeof filter, string][] = [
@@ -49,14 +80,12 @@ export async function searchAudit(actor: Actor, rawFilter: unknown): Promise<Aud
     where.push(sql);
     replacements[key] = filter[key];
   }
-  const whereSql = where.length ? `where ${where.join(' and ')}` : '';
-  const sequelize = db();
+  return { whereSql: where.length ? `where ${where.join(' and ')}` : '', replacements };
+}
 
-  const [counted] = await sequelize.query<{ total: number }>(`select count(*)::int as total from audit_events a ${whereSql}`, {
-    type: QueryTypes.SELECT,
-    replacements,
-  });
-  const rows = await sequelize.query<AuditRow>(
+/** Events matching the conditions, newest first, with the acting person. */
+function selectRows(whereSql: string, replacements: Record<string, unknown>, limit: number, offset: number): Promise<AuditRow[]> {
+  return db().query<AuditRow>(
     `select a.id, to_char(a.occurred_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as "occurredAt",
             a.actor_id as "actorId", u.name as "actorName", u.email as "actorEmail", a.action,
             a.entity_type as "entityType", a.entity_id as "entityId", a.reason, a.before, a.after, a.address
@@ -64,9 +93,8 @@ export async function searchAudit(actor: Actor, rawFilter: unknown): Promise<Aud
        ${whereSql}
       order by a.occurred_at desc, a.id desc
       limit :limit offset :offset`,
-    { type: QueryTypes.SELECT, replacements: { ...replacements, limit: AUDIT_PAGE_SIZE, offset: (filter.page - 1) * AUDIT_PAGE_SIZE } },
+    { type: QueryTypes.SELECT, replacements: { ...replacements, limit, offset } },
   );
-  return { rows, total: counted?.total ?? 0, page: filter.page, pageSize: AUDIT_PAGE_SIZE };
 }
 
 /** The choices of the audit filter: record types that occur, and people. Admins and approvers only. */

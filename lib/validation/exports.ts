@@ -2,6 +2,7 @@ import { z } from 'zod';
 
 export const PLATE_EXPORT_TABLES = ['wells', 'fits', 'forecast', 'signoff'] as const;
 export const COMPOUND_EXPORT_TABLES = ['potency', 'selectivity', 'forecast', 'signoff'] as const;
+export const AUDIT_EXPORT_TABLES = ['events'] as const;
 
 /** format=xlsx (every table as a sheet) or format=csv with the one table to write. */
 function exportQuery<const T extends readonly [string, ...string[]]>(tables: T) {
@@ -15,5 +16,6 @@ function exportQuery<const T extends readonly [string, ...string[]]>(tables: T) 
 
 export const plateExportQuerySchema = exportQuery(PLATE_EXPORT_TABLES);
 export const compoundExportQuerySchema = exportQuery(COMPOUND_EXPORT_TABLES);
+export const auditExportQuerySchema = exportQuery(AUDIT_EXPORT_TABLES);
 
 export type ExportQuery = z.infer<typeof plateExportQuerySchema> | z.infer<typeof compoundExportQuerySchema>;

@@ -51,6 +51,7 @@ export const ROUTE_CASES: RouteCase[] = [
   page('/admin/outbox', ['admin']),
   page('/audit', ['admin', 'approver']),
   api('GET /api/audit', ['admin', 'approver']),
+  api('GET /api/audit/export', ['admin', 'approver']),
   api('GET /api/import-templates'),
   api('GET /api/compounds/[compoundId]/export', undefined, 'passes'),
   api('GET /api/compounds/[compoundId]/forecast', undefined, 'passes'),

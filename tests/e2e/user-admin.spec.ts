@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import { DEMO, screenshot, signedInContext, signIn } from './support';
 
@@ -128,6 +129,17 @@ test('an approver follows the account in the audit trail, filtered on the server
   await grid.getByText('left the screening team').click();
   await expect(page.getByRole('region', { name: 'Chosen event' })).toContainText('"enabled": false');
   await screenshot(page, 'audit-trail-user');
+
+  // The filtered trail downloads whole as csv: the filter in its head, only user events below.
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'csv', exact: true }).click()]);
+  expect(download.suggestedFilename()).toMatch(/^gatewell-audit-trail-\d{4}-\d{2}-\d{2}-events\.csv$/);
+  const lines = readFileSync((await download.path())!, 'utf8').split('\r\n');
+  expect(lines).toContain('Filter,record type user');
+  const header = lines.indexOf('Event,Time (UTC),Person,E-mail,Action,Record type,Record id,Reason,Before,After,Address');
+  const events = lines.slice(header + 1).filter(Boolean);
+  expect(events.length).toBeGreaterThan(0);
+  expect(events.every((line) => line.split(',')[5] === 'user')).toBe(true);
+  expect(events.some((line) => line.includes('left the screening team'))).toBe(true);
 
   await page.getByLabel('From (UTC)').fill('2026-12-02T10:00');
   await page.getByLabel('To (UTC)').fill('2026-12-01T10:00');

@@ -1,8 +1,10 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { recordAudit } from '@/lib/audit/record';
-import { auditFilterChoices, searchAudit } from '@/lib/audit/search';
+import { auditEventsForExport, auditFilterChoices, searchAudit } from '@/lib/audit/search';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
+import { csvText } from '@/lib/exports/document';
+import { auditExport } from '@/lib/exports/audit-export';
 import { AuditEvent } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
@@ -80,6 +82,27 @@ describe('the append-only audit trail', () => {
     const someone = await makeActor([role]);
     await expect(searchAudit(someone, {})).rejects.toMatchObject({ code: 'forbidden' });
     await expect(auditFilterChoices(someone)).rejects.toMatchObject({ code: 'forbidden' });
+  });
+
+  test('an export holds every event the filter selects, all pages, newest first, with the filter in its about lines', async () => {
+    const document = await auditExport(approver, { entityType: 'plate', page: '2' });
+    const [table] = document.tables;
+    expect(table!.rows.map((row) => row[1])).toEqual(['2026-12-01T09:31:00.000Z', '2026-12-01T09:30:10.000Z', '2026-12-01T08:00:00.000Z']);
+    expect(table!.rows[0]!.slice(2)).toEqual([approver.name, approver.email, 'sign', 'plate', 'p-2', 'test', '{"n":1}', '{"n":2}', null]);
+    expect(document.about).toEqual(expect.arrayContaining([['Filter', 'record type plate'], ['Events', 3], ['Exported by', `${approver.name} <${approver.email}>`]]));
+    // RFC 4180 csv: the JSON's quotes doubled inside a quoted field.
+    const csv = csvText(document, table!);
+    expect(csv).toContain(`,sign,plate,p-2,test,"{""n"":1}","{""n"":2}",\r\n`);
+    expect((await auditExport(admin, { from: '2026-12-01T09:30', to: '2026-12-01T09:30' })).about).toEqual(
+      expect.arrayContaining([['Filter', 'from 2026-12-01T09:30:00Z; before 2026-12-01T09:31:00Z'], ['Events', 1]]),
+    );
+  });
+
+  test('an export past its limit is refused with a clear message, and other roles may not export', async () => {
+    await expect(auditEventsForExport(admin, {}, 4)).rejects.toMatchObject({ code: 'invalid', message: 'More than 4 events match; an export holds at most that many. Narrow the time range or the filter.' });
+    expect((await auditEventsForExport(admin, {}, 5)).rows).toHaveLength(5);
+    await expect(auditExport(await makeActor(['chemist']), {})).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(auditExport(admin, { to: 'soon' })).rejects.toMatchObject({ code: 'invalid' });
   });
 
   test('filter choices list the record types that occur and every person', async () => {

@@ -28,6 +28,11 @@ function pageHref(values: FilterValues, page: number): string {
   return `/audit?${new URLSearchParams({ ...values, page: String(page) })}`;
 }
 
+/** The download of every event the filter selects (all pages), as csv or xlsx. */
+function exportHref(values: FilterValues, format: 'csv' | 'xlsx'): string {
+  return `/api/audit/export?${new URLSearchParams({ ...values, format, ...(format === 'csv' ? { table: 'events' } : {}) })}`;
+}
+
 export default async function AuditPage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const actor = await requirePageRole('admin', 'approver');
   const params = await searchParams;
@@ -52,6 +57,11 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         <>
           <div className="mb-2 flex items-center justify-between text-sm text-ink-700">
             <p aria-live="polite">Events {first}–{last} of {result.total}, newest first</p>
+            <p className="flex items-center gap-2">
+              <span className="text-ink-500">Download all {result.total}:</span>
+              <a className="gw-button-quiet py-1" href={exportHref(values, 'csv')} download>csv</a>
+              <a className="gw-button-quiet py-1" href={exportHref(values, 'xlsx')} download>xlsx</a>
+            </p>
             <nav aria-label="Pages of events" className="flex gap-2">
               {result.page > 1 ? <AppLink href={pageHref(values, result.page - 1)} className="gw-button-quiet py-1">Newer</AppLink> : null}
               {last < result.total ? <AppLink href={pageHref(values, result.page + 1)} className="gw-button-quiet py-1">Older</AppLink> : null}

@@ -1,0 +1,17 @@
+import { withUser } from '@/lib/api/handler';
+import { auditExport } from '@/lib/exports/audit-export';
+import { exportResponse } from '@/lib/exports/respond';
+import { auditExportQuerySchema } from '@/lib/validation/exports';
+
+export const dynamic = 'force-dynamic';
+
+/**
+ * The audit trail the query's filter selects (entityType, entityId, userId, from, to; every page) as an
+ * xlsx workbook, or with format=csv&table=events as csv. Admins and approvers.
+ */
+export const GET = withUser(async (request, actor) => {
+  const { format, table, ...filter } = Object.fromEntries(request.nextUrl.searchParams);
+  const query = auditExportQuerySchema.parse({ format, table });
+  const document = await auditExport(actor, filter);
+  return exportResponse(document, query, `gatewell-audit-trail-${new Date().toISOString().slice(0, 10)}`);
+}, { roles: ['admin', 'approver'] });
