@@ -8,10 +8,10 @@ import { fitsCurrent } from './jobs';
  * sheet (or the first) with the mapping inspect guessed, the manifest's plate label unless one is given.
  */
 export async function demoCommitRequest(
-  biologist: Actor, screens: Record<string, string>, file: string, options: { label?: string; filename?: string; mediaType?: string } = {},
+  biologist: Actor, screens: Record<string, string>, file: string, options: { label?: string } = {},
 ): Promise<CommitRequest> {
   const { bytes, manifest } = demoFile(file);
-  const upload = { screenId: screens[manifest.target]!, bytes, filename: options.filename ?? file, mediaType: options.mediaType ?? 'application/octet-stream' };
+  const upload = { screenId: screens[manifest.target]!, bytes, filename: file, mediaType: 'application/octet-stream' };
   const sheets = (await inspectUpload(biologist, upload)).sheets;
   const sheet = sheets.find((s) => s.name === manifest.dataSheet) ?? sheets[0]!;
   return { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: options.label ?? manifest.plate };
