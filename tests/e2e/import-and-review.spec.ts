@@ -1,14 +1,8 @@
-import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
+import { freshPotassiumExport } from './support';
 
 // Demo biologist from seeders/20261201000100-demo-users.js (password for the local demo only).
 const BIOLOGIST = { email: 'biologist@gatewell.test', password: 'demo-biologist-pass' };
-
-/** The demo potassium export with extra blank lines (skipped on import), so its bytes and SHA-256 are new and it is not a duplicate. */
-function freshExport(): Buffer {
-  const text = readFileSync('seeders/data/demo-plates/kv-96-plate-01.csv', 'utf8');
-  return Buffer.from(`${text.trimEnd()}${'\n'.repeat(2 + (Date.now() % 997))}`, 'utf8');
-}
 
 test('a biologist imports an export, reviews QC, excludes a well and sees the fit change', async ({ page }) => {
   await page.goto('/sign-in');
@@ -19,7 +13,7 @@ test('a biologist imports an export, reviews QC, excludes a well and sees the fi
 
   await page.getByRole('link', { name: 'Import a plate' }).click();
   await page.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-  await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: freshExport() });
+  await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByLabel('well position')).not.toHaveValue('');
   await page.screenshot({ path: 'test-output/screenshots/import-mapping.png', fullPage: true });

@@ -1,3 +1,5 @@
+import { randomBytes } from 'node:crypto';
+import { readFileSync } from 'node:fs';
 import { expect, type Browser, type BrowserContext, type Page } from '@playwright/test';
 import pg from 'pg';
 
@@ -42,3 +44,14 @@ export async function queryOne<Row>(sql: string, values: unknown[] = []): Promis
 }
 
 export const screenshot = (page: Page, name: string) => page.screenshot({ path: `test-output/screenshots/${name}.png`, fullPage: true });
+
+/**
+ * The demo potassium export made new for one import: 64 trailing blank lines, each ended by LF or CRLF
+ * as random bits pick (blank lines are skipped on import), so its bytes and SHA-256 differ from every
+ * other import of the run; two draws agree once in 2^64.
+ */
+export function freshPotassiumExport(): Buffer {
+  const text = readFileSync('seeders/data/demo-plates/kv-96-plate-01.csv', 'utf8').trimEnd();
+  const bits = [...randomBytes(8)].flatMap((byte) => Array.from({ length: 8 }, (_, bit) => (byte >> bit) & 1));
+  return Buffer.from(`${text}\n${bits.map((bit) => (bit ? '\r\n' : '\n')).join('')}`, 'utf8');
+}

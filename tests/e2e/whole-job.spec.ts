@@ -1,18 +1,12 @@
-import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import * as XLSX from 'xlsx';
 import { PEOPLE, shot, signedIn } from './signoff-support';
+import { freshPotassiumExport } from './support';
 
 // The whole job on demo data, in the browser: a biologist imports an export, reviews QC, excludes a
 // well, reads the fits and the forecast and submits; a chemist verifies the compound map; an approver
 // approves with an e-signature; the signed, locked plate is exported.
 const LABEL = 'KV-WHOLE-JOB';
-
-/** The demo potassium export with many trailing blank lines (skipped on import), so its SHA-256 is new. */
-function freshExport(): Buffer {
-  const text = readFileSync('seeders/data/demo-plates/kv-96-plate-01.csv', 'utf8');
-  return Buffer.from(`${text.trimEnd()}${'\n'.repeat(1000 + (Date.now() % 997))}`, 'utf8');
-}
 
 async function signStep(page: Page, plateUrl: string, button: string, password: string, state: string) {
   await page.goto(`${plateUrl}/history`);
@@ -28,7 +22,7 @@ test('import, review, exclude, fits and forecast, verify, submit, approve with s
   // Import.
   await biologist.getByRole('link', { name: 'Import a plate' }).click();
   await biologist.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-  await biologist.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-whole-job.csv', mimeType: 'text/csv', buffer: freshExport() });
+  await biologist.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-whole-job.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
   await biologist.getByRole('button', { name: 'Read file' }).click();
   await biologist.getByRole('button', { name: 'Check every row' }).click();
   await biologist.getByLabel('Plate label').fill(LABEL);

@@ -1,8 +1,7 @@
 import { execFileSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
 import { expect, type APIRequestContext } from '@playwright/test';
 import { testCluster, testClusterInstance } from '../../support/test-cluster';
-import { queryOne } from '../support';
+import { freshPotassiumExport, queryOne } from '../support';
 
 /** Stops or starts this run's fake SMTP server (scripts/fake-smtp.sh) and fails with the script's own words if it fails. */
 export function mailServer(command: 'stop' | 'start'): void {
@@ -19,12 +18,6 @@ export const database = testCluster;
 /** Waits until the server's health check says the database answers again. */
 export async function waitForHealthy(request: APIRequestContext): Promise<void> {
   await expect.poll(async () => (await request.get('/api/health')).status(), { timeout: 90_000, intervals: [250, 500, 1000] }).toBe(200);
-}
-
-/** The demo potassium export with extra blank lines (skipped on import), so that its SHA-256 is new. */
-export function freshPotassiumExport(): Buffer {
-  const text = readFileSync('seeders/data/demo-plates/kv-96-plate-01.csv', 'utf8');
-  return Buffer.from(`${text.trimEnd()}${'\n'.repeat(1 + (Date.now() % 997))}`, 'utf8');
 }
 
 /** The demo potassium screen's id (read while the database answers). */

@@ -1,7 +1,6 @@
 import { expect, test } from '@playwright/test';
 import pg from 'pg';
-import { queryOne, screenshot, signedInContext } from '../support';
-import { freshPotassiumExport } from './fault-support';
+import { freshPotassiumExport, queryOne, screenshot, signedInContext } from '../support';
 
 // A worker that takes an import and is held up storing it (here: a session holding a SHARE lock on
 // plates, so the worker's insert waits) answers the person after a minute with "still storing" (202)
