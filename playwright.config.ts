@@ -46,7 +46,8 @@ export default defineConfig({
       timeout: 120_000,
       stdout: 'ignore',
       stderr: 'pipe',
-      env: { GATEWELL_JOB_WORKER: 'off' },
+      // The servers get the app's role only, not the schema owner's URL the test run holds.
+      env: { GATEWELL_JOB_WORKER: 'off', DATABASE_OWNER_URL: '' },
     },
     ...(process.env.GATEWELL_E2E_REUSE
       ? []
@@ -56,6 +57,7 @@ export default defineConfig({
           timeout: 60_000,
           stdout: 'pipe' as const,
           stderr: 'pipe' as const,
+          env: { DATABASE_OWNER_URL: '' },
         }]),
   ],
 });

@@ -1,9 +1,10 @@
 #!/usr/bin/env bash
 # Gatewell backup: a pg_dump of the database in PostgreSQL's custom format, named with the time (UTC).
 # Usage: scripts/backup.sh [dev|test|test-NAME] [--out FILE]
-#   Without DATABASE_URL, dumps the project cluster of that instance (default dev) as the postgres user;
-#   with DATABASE_URL, dumps that database as its user. Writes .var/backups/<database>-<time>.dump unless
-#   --out says otherwise, and prints the file's path. Restore with scripts/restore.sh.
+#   Without DATABASE_OWNER_URL or DATABASE_URL, dumps the project cluster of that instance (default dev)
+#   as the postgres user; with one, dumps that database as its user (the owner's first). Writes
+#   .var/backups/<database>-<time>.dump unless --out says otherwise, and prints the file's path.
+#   Restore with scripts/restore.sh.
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/pg-connect.sh"
 
@@ -12,7 +13,7 @@ out=
 while [ $# -gt 0 ]; do
   case "$1" in
     --out) out=${2:?--out needs a file}; shift 2 ;;
-    -h | --help) sed -n '2,7p' "$0"; exit 0 ;;
+    -h | --help) sed -n '2,8p' "$0"; exit 0 ;;
     -*) echo "backup.sh: unknown option '$1'" >&2; exit 2 ;;
     *) instance=$1; shift ;;
   esac

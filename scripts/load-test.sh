@@ -11,8 +11,10 @@ source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 instance=test-load
 export GATEWELL_PG_TEST_PORT=${GATEWELL_PG_TEST_PORT:-54340}
 port=${GATEWELL_LOAD_PORT:-4340}
+# The app connects as its own role; migrations and seeders run as the schema's owner (scripts/pg.sh).
 DATABASE_URL=$(bash scripts/pg.sh url "$instance")
-export DATABASE_URL
+DATABASE_OWNER_URL=$(bash scripts/pg.sh owner-url "$instance")
+export DATABASE_URL DATABASE_OWNER_URL
 export SESSION_SECRET=${LOAD_SESSION_SECRET:-gatewell-load-secret-0123456789-abcdefghij}
 export APP_URL=http://127.0.0.1:$port
 export GATEWELL_DIST_DIR=.next-load
@@ -50,6 +52,8 @@ bash scripts/pg.sh reset "$instance"
 say "migrating and seeding the demo data"
 migrate
 seed
+# The servers get the app's role only.
+unset DATABASE_OWNER_URL
 
 mkdir -p .var
 if [ -n "${GATEWELL_LOAD_REUSE_BUILD:-}" ] && [ -f "$GATEWELL_DIST_DIR/BUILD_ID" ]; then

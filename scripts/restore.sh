@@ -1,9 +1,10 @@
 #!/usr/bin/env bash
 # Gatewell restore: loads a dump made by scripts/backup.sh into a named database, in one transaction.
 # Usage: scripts/restore.sh FILE DATABASE [dev|test|test-NAME] [--replace]
-#   Creates DATABASE when missing (owned by the app's user in the project cluster). Refuses a database that
-#   already holds tables unless --replace is given, which drops and re-creates it first. Connects like
-#   scripts/backup.sh: DATABASE_URL's server and user when set, else the instance's cluster (default dev).
+#   Creates DATABASE when missing (owned by the schema's owner: the URL's user, or gatewell_owner in the
+#   project cluster). Refuses a database that already holds tables unless --replace is given, which drops
+#   and re-creates it first. Connects like scripts/backup.sh: DATABASE_OWNER_URL's (else DATABASE_URL's)
+#   server and user when set, else the instance's cluster (default dev).
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/pg-connect.sh"
 
@@ -13,7 +14,7 @@ args=()
 while [ $# -gt 0 ]; do
   case "$1" in
     --replace) replace=true; shift ;;
-    -h | --help) sed -n '2,6p' "$0"; exit 0 ;;
+    -h | --help) sed -n '2,7p' "$0"; exit 0 ;;
     -*) echo "restore.sh: unknown option '$1'" >&2; exit 2 ;;
     *) args+=("$1"); shift ;;
   esac
@@ -27,7 +28,7 @@ target=${args[1]}
 [ "$(head -c 5 "$file")" = PGDMP ] || { echo "restore.sh: $file is not a pg_dump custom-format file" >&2; exit 1; }
 
 pick_connection "$instance"
-owner=$( [ "$conn_mode" = url ] && node -e 'console.log(decodeURIComponent(new URL(process.argv[1]).username))' "$DATABASE_URL" || echo gatewell )
+owner=$( [ "$conn_mode" = url ] && node -e 'console.log(decodeURIComponent(new URL(process.argv[1]).username))' "$conn_url" || echo gatewell_owner )
 exists=$(pg_sql postgres "select 1 from pg_database where datname = '$target'")
 if [ "$exists" = 1 ]; then
   relations=$(pg_sql "$target" "select count(*) from pg_class c join pg_namespace n on n.oid = c.relnamespace

@@ -13,14 +13,18 @@ if [ -z "${SMTP_HOST:-}" ]; then
   SMTP_PORT=$(bash scripts/fake-smtp.sh port dev)
   export SMTP_PORT
 fi
+# The app connects as its own role; migrations and seeders run as the schema's owner (scripts/pg.sh).
 DATABASE_URL=$(bash scripts/pg.sh url dev)
-export DATABASE_URL
+DATABASE_OWNER_URL=$(bash scripts/pg.sh owner-url dev)
+export DATABASE_URL DATABASE_OWNER_URL
 export PORT=${PORT:-4310}
 export APP_URL=${APP_URL:-http://127.0.0.1:$PORT}
 
 say "migrating and seeding the demo database"
 migrate
 seed
+# The servers get the app's role only.
+unset DATABASE_OWNER_URL
 
 say "building"
 mkdir -p .var

@@ -1,4 +1,7 @@
 // Prints the closing line of Gatewell's test command: passed and failed tests over Vitest and Playwright.
+// Arguments: the names of the steps that failed (scripts/test.sh). A failed step that no failing test
+// accounts for (lint, type check, build, a server that did not start) counts as one failure, so that
+// the line never reads "0 failed" for a red run.
 import { existsSync, readFileSync } from 'node:fs';
 
 function read(file) {
@@ -21,6 +24,15 @@ if (playwright) {
   failed += playwright.stats.unexpected + playwright.stats.flaky;
   skipped += playwright.stats.skipped;
 }
+const vitestFailed = vitest ? vitest.numFailedTests : 0;
+const playwrightFailed = playwright ? playwright.stats.unexpected + playwright.stats.flaky : 0;
+const unaccounted = process.argv.slice(2).filter((step) => {
+  if (step.includes('(vitest)') && vitestFailed > 0) return false;
+  if (step.includes('(playwright)') && playwrightFailed > 0) return false;
+  return true;
+});
+failed += unaccounted.length;
+if (unaccounted.length) console.log(`counted as one failure each, with no failing test of their own: ${unaccounted.join('; ')}`);
 const missing = [!vitest && 'vitest', !playwright && 'playwright'].filter(Boolean);
 if (missing.length) console.log(`no results from: ${missing.join(', ')}`);
 console.log(`${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);

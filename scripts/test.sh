@@ -11,8 +11,10 @@ ensure_chromium
 instance=${GATEWELL_TEST_INSTANCE:-test}
 export instance
 bash scripts/pg.sh reset "$instance"
+# The app connects as its own role; migrations and seeders run as the schema's owner (scripts/pg.sh).
 DATABASE_URL=$(bash scripts/pg.sh url "$instance")
-export DATABASE_URL
+DATABASE_OWNER_URL=$(bash scripts/pg.sh owner-url "$instance")
+export DATABASE_URL DATABASE_OWNER_URL
 export SESSION_SECRET=${TEST_SESSION_SECRET:-gatewell-test-secret-0123456789-abcdefghij}
 export GATEWELL_E2E_PORT=${GATEWELL_E2E_PORT:-4311}
 export APP_URL=http://127.0.0.1:$GATEWELL_E2E_PORT
@@ -42,5 +44,5 @@ step "production build" bash -c 'npx next build >test-output/build.log 2>&1 || {
 step "end-to-end tests (playwright)" npx playwright test
 
 [ ${#failed_steps[@]} -eq 0 ] || printf 'failed steps: %s\n' "${failed_steps[*]}"
-node scripts/test-summary.mjs
+node scripts/test-summary.mjs "${failed_steps[@]}"
 exit $status

@@ -7,7 +7,7 @@ import { csvText } from '@/lib/exports/document';
 import { auditExport } from '@/lib/exports/audit-export';
 import { AuditEvent } from '@/models';
 import { makeActor } from '../support/actors';
-import { resetDatabase } from '../support/database';
+import { asSchemaOwner, resetDatabase } from '../support/database';
 
 let admin: Actor;
 let approver: Actor;
@@ -16,9 +16,13 @@ async function eventAt(actor: Actor | null, at: string, entityType: string, enti
   await db().transaction(async (transaction) => {
     await recordAudit({ actorId: actor?.id ?? null, action, entityType, entityId, before: { n: 1 }, after: { n: 2 }, reason: 'test' }, transaction);
   });
-  await db().query(`alter table audit_events disable trigger audit_events_no_update`);
-  await db().query(`update audit_events set occurred_at = :at where id = (select max(id) from audit_events)`, { replacements: { at } });
-  await db().query(`alter table audit_events enable trigger audit_events_no_update`);
+  await asSchemaOwner(async (client) => {
+    await client.query('begin');
+    await client.query('alter table audit_events disable trigger audit_events_no_update');
+    await client.query('update audit_events set occurred_at = $1 where id = (select max(id) from audit_events)', [at]);
+    await client.query('alter table audit_events enable trigger audit_events_no_update');
+    await client.query('commit');
+  });
 }
 
 describe('the append-only audit trail', () => {
@@ -26,7 +30,7 @@ describe('the append-only audit trail', () => {
     await resetDatabase();
     admin = await makeActor(['admin']);
     approver = await makeActor(['approver']);
-    // Back-dating needs the guard lifted, as only the test set-up may; the app itself never does.
+    // Back-dating needs the guard lifted, as only the schema's owner may (test set-up); the app's role cannot.
     await eventAt(admin, '2026-11-30T23:59:59Z', 'user', 'u-1', 'create');
     await eventAt(admin, '2026-12-01T08:00:00Z', 'plate', 'p-1');
     await eventAt(approver, '2026-12-01T09:30:10Z', 'plate', 'p-1', 'sign');
@@ -41,9 +45,27 @@ describe('the append-only audit trail', () => {
     ['update', `update audit_events set reason = 'rewritten'`],
     ['delete', 'delete from audit_events'],
     ['truncate', 'truncate audit_events'],
-  ])('the database refuses %s on audit_events', async (operation, sql) => {
-    await expect(db().query(sql)).rejects.toThrow(`audit_events is append-only: ${operation.toUpperCase()} refused`);
+  ])('the database refuses %s on audit_events: the app is not granted it, and the owner meets the trigger', async (operation, sql) => {
+    await expect(db().query(sql)).rejects.toThrow('permission denied for table audit_events');
+    await expect(asSchemaOwner((client) => client.query(sql))).rejects.toThrow(`audit_events is append-only: ${operation.toUpperCase()} refused`);
     expect(await AuditEvent.count()).toBe(5);
+  });
+
+  test.each([
+    'alter table audit_events disable trigger audit_events_no_update',
+    'alter table plates disable trigger plates_locked',
+    'drop trigger signatures_no_change on signatures',
+    'drop table signoff_events',
+  ])('the app cannot lift a guard or drop a table: %s', async (sql) => {
+    await expect(db().query(sql)).rejects.toThrow(/must be owner of (table|relation)/);
+  });
+
+  test.each(['signatures', 'signoff_events'])('the app may read and add to %s but not change or remove a row', async (table) => {
+    const [grants] = await db().query(
+      `select privilege_type from information_schema.role_table_grants where table_name = :table and grantee = current_user order by 1`,
+      { replacements: { table } },
+    );
+    expect(grants.map((row) => (row as { privilege_type: string }).privilege_type)).toEqual(['INSERT', 'SELECT']);
   });
 
   test.each<[Record<string, string>, number]>([

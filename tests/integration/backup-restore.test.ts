@@ -7,7 +7,7 @@ import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { db } from '@/lib/db';
 import { makeActor } from '../support/actors';
-import { resetDatabase } from '../support/database';
+import { ownerUrl, resetDatabase } from '../support/database';
 import { importDemoPlate } from '../support/demo-plates';
 import { makeDemoScreens } from '../support/demo-scenario';
 
@@ -15,11 +15,15 @@ const run = promisify(execFile);
 const TARGET = `gatewell_restore_${process.pid}`;
 const testUrl = new URL(process.env.DATABASE_URL!);
 const targetUrl = Object.assign(new URL(testUrl.href), { pathname: `/${TARGET}` }).href;
+const targetOwnerUrl = Object.assign(new URL(ownerUrl()), { pathname: `/${TARGET}` }).href;
 
-/** Runs scripts/backup.sh or restore.sh; the restore reaches the test cluster by its port, as the postgres user. */
+/** Runs scripts/backup.sh or restore.sh: by the URLs (the owner's first), or by the test cluster's port as the postgres user. */
 async function script(name: 'backup.sh' | 'restore.sh', args: string[], how: 'url' | 'cluster') {
   const env: NodeJS.ProcessEnv = { ...process.env, GATEWELL_PG_TEST_PORT: testUrl.port };
-  if (how === 'cluster') delete env.DATABASE_URL;
+  if (how === 'cluster') {
+    delete env.DATABASE_URL;
+    delete env.DATABASE_OWNER_URL;
+  }
   return run('bash', [`scripts/${name}`, ...args], { env, timeout: 60_000 });
 }
 
@@ -55,7 +59,7 @@ describe('a backup restores into a fresh database with every row and the audit g
     await importDemoPlate(biologist, screens, 'nav-96-plate-01.xlsx');
   });
   afterAll(async () => {
-    await withClient(Object.assign(new URL(testUrl.href), { pathname: '/postgres' }).href, (client) => client.query(`drop database if exists ${TARGET} with (force)`));
+    await withClient(Object.assign(new URL(ownerUrl()), { pathname: '/postgres' }).href, (client) => client.query(`drop database if exists ${TARGET} with (force)`));
     rmSync(folder, { recursive: true, force: true });
     await db().close();
   });
@@ -73,7 +77,12 @@ describe('a backup restores into a fresh database with every row and the audit g
     expect(restored.counts).toEqual(original.counts);
     expect(restored.audit).toEqual(original.audit);
 
+    // The restored database keeps both guards: the app's role is not granted changes, and the owner meets the trigger.
     await withClient(targetUrl, async (client) => {
+      await expect(client.query(`update audit_events set reason = 'rewritten'`)).rejects.toThrow('permission denied for table audit_events');
+      await expect(client.query('alter table audit_events disable trigger audit_events_no_update')).rejects.toThrow('must be owner of table audit_events');
+    });
+    await withClient(targetOwnerUrl, async (client) => {
       await expect(client.query(`update audit_events set reason = 'rewritten'`)).rejects.toThrow('audit_events is append-only: UPDATE refused');
       await expect(client.query('delete from audit_events')).rejects.toThrow('audit_events is append-only: DELETE refused');
     });

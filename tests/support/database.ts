@@ -1,19 +1,44 @@
-import { QueryTypes } from 'sequelize';
-import { db } from '@/lib/db';
+import pg from 'pg';
 
-/** Empties every domain table of the test database (the audit trail only by TRUNCATE with its guard lifted) and the waiting jobs. */
+/** The schema owner's connection string (scripts/pg.sh owner-url), or the app's where one role does both. */
+export function ownerUrl(): string {
+  const url = process.env.DATABASE_OWNER_URL || process.env.DATABASE_URL;
+  if (!url) throw new Error('DATABASE_OWNER_URL or DATABASE_URL must be set for database tests');
+  return url;
+}
+
+/** Runs work on a connection of its own as the schema's owner: test set-up that the app's role may not do. */
+export async function asSchemaOwner<T>(work: (client: pg.Client) => Promise<T>): Promise<T> {
+  const client = new pg.Client({ connectionString: ownerUrl(), application_name: 'gatewell-test-owner' });
+  await client.connect();
+  try {
+    return await work(client);
+  } finally {
+    await client.end();
+  }
+}
+
+/**
+ * Empties every domain table of the test database and the waiting jobs, as the schema's owner: the app's
+ * role may not truncate, and the audit trail only with its guard lifted.
+ */
 export async function resetDatabase(): Promise<void> {
-  const sequelize = db();
-  const tables = await sequelize.query<{ tablename: string }>(
-    `select tablename from pg_tables where schemaname = 'public' and tablename not in ('SequelizeMeta', 'sequelize_seeds')`,
-    { type: QueryTypes.SELECT },
-  );
-  await sequelize.transaction(async (transaction) => {
-    await sequelize.query('alter table audit_events disable trigger audit_events_no_truncate', { transaction });
-    await sequelize.query(`truncate ${tables.map((t) => `"${t.tablename}"`).join(', ')} restart identity cascade`, { transaction });
-    await sequelize.query('alter table audit_events enable trigger audit_events_no_truncate', { transaction });
-    // Jobs still waiting on the queue belong to the rows just removed.
-    const [queue] = await sequelize.query<{ present: boolean }>("select to_regclass('pgboss.job') is not null as present", { type: QueryTypes.SELECT, transaction });
-    if (queue?.present) await sequelize.query("delete from pgboss.job where state in ('created', 'retry')", { transaction });
+  await asSchemaOwner(async (client) => {
+    const tables = (await client.query<{ tablename: string }>(
+      `select tablename from pg_tables where schemaname = 'public' and tablename not in ('SequelizeMeta', 'sequelize_seeds')`,
+    )).rows;
+    await client.query('begin');
+    try {
+      await client.query('alter table audit_events disable trigger audit_events_no_truncate');
+      await client.query(`truncate ${tables.map((t) => `"${t.tablename}"`).join(', ')} restart identity cascade`);
+      await client.query('alter table audit_events enable trigger audit_events_no_truncate');
+      // Jobs still waiting on the queue belong to the rows just removed.
+      const queue = await client.query<{ present: boolean }>("select to_regclass('pgboss.job') is not null as present");
+      if (queue.rows[0]?.present) await client.query("delete from pgboss.job where state in ('created', 'retry')");
+      await client.query('commit');
+    } catch (error) {
+      await client.query('rollback');
+      throw error;
+    }
   });
 }

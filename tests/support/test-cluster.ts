@@ -3,6 +3,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { promisify } from 'node:util';
 import pg from 'pg';
+import { ownerUrl } from './database';
 
 /** The test run's instance (scripts/pg.sh and scripts/fake-smtp.sh test or test-NAME, as scripts/test.sh names it). */
 export function testClusterInstance(): string {
@@ -37,9 +38,12 @@ export async function testCluster(command: 'restart' | 'stop' | 'start', mode: '
   await promisify(execFile)('bash', ['scripts/pg.sh', command, instance, mode], { timeout: 120_000 });
 }
 
-/** A connection of its own to the test database, outside Gatewell's pool; errors after a restart are expected and ignored. */
-export async function outsideClient(): Promise<pg.Client> {
-  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+/**
+ * A connection of its own to the test database, outside Gatewell's pool, as the app's role or as the
+ * schema's owner (for a lock the app may not take); errors after a restart are expected and ignored.
+ */
+export async function outsideClient(as: 'app' | 'owner' = 'app'): Promise<pg.Client> {
+  const client = new pg.Client({ connectionString: as === 'owner' ? ownerUrl() : process.env.DATABASE_URL });
   client.on('error', () => undefined);
   await client.connect();
   return client;
