@@ -1,28 +1,14 @@
-import pg from 'pg';
+import { db } from '@/lib/db';
+import { asSchemaOwner } from './schema-owner';
 
-/** The schema owner's connection string (scripts/pg.sh owner-url), or the app's where one role does both. */
-export function ownerUrl(): string {
-  const url = process.env.DATABASE_OWNER_URL || process.env.DATABASE_URL;
-  if (!url) throw new Error('DATABASE_OWNER_URL or DATABASE_URL must be set for database tests');
-  return url;
-}
-
-/** Runs work on a connection of its own as the schema's owner: test set-up that the app's role may not do. */
-export async function asSchemaOwner<T>(work: (client: pg.Client) => Promise<T>): Promise<T> {
-  const client = new pg.Client({ connectionString: ownerUrl(), application_name: 'gatewell-test-owner' });
-  await client.connect();
-  try {
-    return await work(client);
-  } finally {
-    await client.end();
-  }
-}
+export { asSchemaOwner, ownerUrl } from './schema-owner';
 
 /**
  * Empties every domain table of the test database and the waiting jobs, as the schema's owner: the app's
  * role may not truncate, and the audit trail only with its guard lifted.
  */
 export async function resetDatabase(): Promise<void> {
+  db(); // the app's connection and models, set up before the test uses them
   await asSchemaOwner(async (client) => {
     const tables = (await client.query<{ tablename: string }>(
       `select tablename from pg_tables where schemaname = 'public' and tablename not in ('SequelizeMeta', 'sequelize_seeds')`,

@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { promisify } from 'node:util';
 import pg from 'pg';
-import { ownerUrl } from './database';
+import { ownerUrl } from './schema-owner';
 
 /** The test run's instance (scripts/pg.sh and scripts/fake-smtp.sh test or test-NAME, as scripts/test.sh names it). */
 export function testClusterInstance(): string {
