@@ -6,7 +6,7 @@ import { renewedSessionCookie } from '@/lib/auth/session-renewal';
 import { contentSecurityPolicy, newNonce, NONCE_HEADER } from '@/lib/security/content-security-policy';
 
 // Paths that anonymous visitors may open. API routes do not come here (see the matcher below).
-const PUBLIC_PREFIXES = ['/sign-in', '/_next/', '/favicon'];
+const PUBLIC_PREFIXES = ['/sign-in', '/lost-password', '/password-link/', '/_next/', '/favicon'];
 
 /** Sends anonymous or expired visitors to sign-in, keeps an active session's idle clock current, and sets this answer's CSP. */
 export async function proxy(request: NextRequest) {

@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-export const MAIL_KINDS = ['plate_imported', 'plate_verified', 'plate_submitted', 'plate_approved', 'plate_rejected', 'plate_reopened'] as const;
+export const MAIL_KINDS = ['plate_imported', 'plate_verified', 'plate_submitted', 'plate_approved', 'plate_rejected', 'plate_reopened', 'password_link'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 export const MAIL_STATES = ['queued', 'sent', 'failed'] as const;
 export type MailState = (typeof MAIL_STATES)[number];

@@ -32,21 +32,32 @@ export function validatedAction<Schema extends ZodType, Result extends ActionSta
       if (!options.beforeOwnPassword) refuseUntilOwnPassword(actor);
       if (roles.length) requireRole(actor, ...roles);
       const parsed = schema.safeParse(formFields(formData));
-      if (!parsed.success) {
-        return { message: 'Some fields need attention.', fieldErrors: z.flattenError(parsed.error).fieldErrors as ActionState['fieldErrors'] };
-      }
+      if (!parsed.success) return invalidFormState(parsed.error);
       return await run(parsed.data, actor, formData);
     } catch (error) {
-      unstable_rethrow(error); // redirect() and notFound() inside run must reach Next
-      if (isAppError(error)) return { message: error.message, fieldErrors: fieldErrorsOf(error.details) };
-      if (isDatabaseUnavailable(error)) {
-        console.error('database unavailable during an action', error);
-        return { message: DATABASE_UNAVAILABLE_MESSAGE };
-      }
-      console.error('unhandled action error', error);
-      return { message: 'Something failed on the server; nothing was changed.' };
+      return failedActionState(error);
     }
   };
+}
+
+/**
+ * What a failed action answers: an AppError's own message and fields, an unreachable database's message,
+ * or that nothing was changed. redirect() and notFound() are thrown on, as Next needs them.
+ */
+export function failedActionState(error: unknown): ActionState {
+  unstable_rethrow(error);
+  if (isAppError(error)) return { message: error.message, fieldErrors: fieldErrorsOf(error.details) };
+  if (isDatabaseUnavailable(error)) {
+    console.error('database unavailable during an action', error);
+    return { message: DATABASE_UNAVAILABLE_MESSAGE };
+  }
+  console.error('unhandled action error', error);
+  return { message: 'Something failed on the server; nothing was changed.' };
+}
+
+/** A form's parse failure as an action answers it. */
+export function invalidFormState(error: z.ZodError): ActionState {
+  return { message: 'Some fields need attention.', fieldErrors: z.flattenError(error).fieldErrors as ActionState['fieldErrors'] };
 }
 
 /** The form's fields; a name sent more than once (checkboxes) becomes an array; Next's own fields are left out. */

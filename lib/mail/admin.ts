@@ -78,6 +78,8 @@ export async function requeueMail(actor: Actor, messageId: string): Promise<void
     const message = await MailMessage.findByPk(messageId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!message) throw new AppError('not_found', 'No such message in the outbox.');
     if (message.state !== 'failed') throw new AppError('conflict', `This message is ${message.state}; only a failed message can be sent again.`);
+    // Its link was cut from the kept copy when it failed (lib/mail/deliver.ts), and would have run out anyway.
+    if (message.kind === 'password_link') throw new AppError('conflict', 'A password link is not sent again; the person asks for a new one on the sign-in page.');
     const before = { state: message.state, attempts: message.attempts, lastError: message.lastError };
     await message.update({ state: 'queued', attempts: 0, nextAttemptAt: new Date() }, { transaction });
     await recordAudit({ actorId: actor.id, action: 'requeue_mail', entityType: 'mail_message', entityId: message.id, before, after: { state: 'queued', toAddress: message.toAddress }, address: actor.address }, transaction);

@@ -55,13 +55,21 @@ async function claimDue(now: Date, limit: number): Promise<Claimed[]> {
   );
 }
 
+/**
+ * Once a message has gone out (or will never go), a password link in it is cut from the kept copy: the
+ * outbox keeps what was sent, not a key that still opens the account (lib/auth/password-link.ts).
+ */
+const REDACTED_BODY_VALUE = `case when kind = 'password_link' then regexp_replace(body_text, '/password-link/[A-Za-z0-9_-]+', '/password-link/(removed once sent)', 'g') else body_text end`;
+const REDACTED_BODY = `body_text = ${REDACTED_BODY_VALUE}`;
+
 async function settle(id: string, outcome: { sent: true; response: string } | { sent: false; error: string; giveUp: boolean; retryAt: Date }) {
   if (outcome.sent) {
-    await db().query(`update mail_outbox set state = 'sent', sent_at = now(), smtp_response = :response, last_error = null, claimed_until = null where id = :id`, {
+    await db().query(`update mail_outbox set state = 'sent', sent_at = now(), smtp_response = :response, last_error = null, claimed_until = null, ${REDACTED_BODY} where id = :id`, {
       replacements: { id, response: outcome.response.slice(0, 500) },
     });
   } else {
-    await db().query(`update mail_outbox set state = :state, next_attempt_at = :retryAt, last_error = :error, claimed_until = null where id = :id`, {
+    await db().query(`update mail_outbox set state = :state, next_attempt_at = :retryAt, last_error = :error, claimed_until = null,
+      body_text = case when :state = 'failed' then ${REDACTED_BODY_VALUE} else body_text end where id = :id`, {
       replacements: { id, state: outcome.giveUp ? 'failed' : 'queued', retryAt: outcome.retryAt, error: outcome.error.slice(0, 500) },
     });
   }

@@ -10,6 +10,8 @@ export interface OutgoingMail {
   toAddress: string;
   subject: string;
   bodyText: string;
+  /** Attempts before the message is marked failed; MAX_ATTEMPTS unless the message is worth less later. */
+  maxAttempts?: number;
 }
 
 /** Most attempts before a message is marked failed (about three hours with the backoff of deliver.ts). */
@@ -22,7 +24,7 @@ export const MAX_ATTEMPTS = 8;
 export async function queueMail(messages: OutgoingMail[], transaction: Transaction): Promise<number> {
   if (!messages.length) return 0;
   await MailMessage.bulkCreate(
-    messages.map((m) => ({ ...m, maxAttempts: MAX_ATTEMPTS })),
+    messages.map((m) => ({ ...m, maxAttempts: m.maxAttempts ?? MAX_ATTEMPTS })),
     { transaction },
   );
   return messages.length;

@@ -30,6 +30,9 @@ const api = (route: string, only?: Role[], allowed: Outcome = 200): RouteCase =>
 
 export const ROUTE_CASES: RouteCase[] = [
   { route: 'PAGE /sign-in', expect: { anonymous: 200, ...each(() => 'home') } },
+  // Open to anyone: asking for a password link, and the page a link opens (here with a token that is none).
+  { route: 'PAGE /lost-password', expect: { anonymous: 200, ...each(() => 200) } },
+  { route: 'PAGE /password-link/[token]', expect: { anonymous: 200, ...each(() => 200) } },
   { route: 'GET /api/health', expect: { anonymous: 200, ...each(() => 200) } },
   page('/'),
   page('/account'),

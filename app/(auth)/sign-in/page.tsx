@@ -1,36 +1,27 @@
 import type { Metadata } from 'next';
 import { redirect } from 'next/navigation';
+import { AuthFrame } from '@/components/auth/auth-frame';
+import { AppLink } from '@/components/ui/app-link';
 import { currentActor } from '@/lib/auth/current-actor';
 import { safeNextPath } from '@/lib/validation/auth';
 import { SignInForm } from './sign-in-form';
 
 export const metadata: Metadata = { title: 'Sign in' };
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string }> }) {
-  const { next } = await searchParams;
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string; password?: string }> }) {
+  const { next, password } = await searchParams;
   if (await currentActor()) redirect(safeNextPath(next));
   return (
-    <main className="grid min-h-screen lg:grid-cols-[1.1fr_1fr]">
-      <section className="hidden flex-col justify-between bg-ink-950 p-12 text-ink-100 lg:flex" aria-hidden="true">
-        <p className="text-lg font-semibold tracking-wide text-white">Gatewell</p>
-        <div className="max-w-md space-y-4">
-          <p className="text-3xl font-semibold leading-tight text-white">
-            From patch-clamp plate to signed-off potency, in one trail.
-          </p>
-          <p className="text-ink-300">
-            Quality control per well, Hill fits with honest uncertainty, excitability forecasts and
-            e-signatures for every plate.
-          </p>
-        </div>
-        <p className="text-sm text-ink-300">Forecasts are research decision support, not a safety determination.</p>
-      </section>
-      <section className="flex items-center justify-center p-6">
-        <div className="gw-card w-full max-w-sm p-8">
-          <h1 className="text-2xl font-semibold">Sign in to Gatewell</h1>
-          <p className="mt-1 mb-6 text-sm text-ink-500">Use the e-mail address your administrator registered.</p>
-          <SignInForm next={safeNextPath(next)} />
-        </div>
-      </section>
-    </main>
+    <AuthFrame title="Sign in to Gatewell" intro="Use the e-mail address your administrator registered.">
+      {password === 'set' ? (
+        <p role="status" className="mb-4 rounded-md border border-lagoon-100 bg-lagoon-100 p-3 text-sm font-medium text-lagoon-700">
+          Your new password is set, and every earlier session has ended. Sign in with it.
+        </p>
+      ) : null}
+      <SignInForm next={safeNextPath(next)} />
+      <p className="mt-4 text-sm">
+        <AppLink href="/lost-password" className="text-lagoon-700 underline-offset-2 hover:underline">Lost your password?</AppLink>
+      </p>
+    </AuthFrame>
   );
 }

@@ -1,0 +1,182 @@
+import 'server-only';
+import { createHash, randomBytes, randomUUID } from 'node:crypto';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { recordAudit } from '@/lib/audit/record';
+import { db } from '@/lib/db';
+import { env } from '@/lib/env';
+import { AppError } from '@/lib/errors';
+import { queueMail } from '@/lib/mail/outbox';
+import { parseOrRefuse } from '@/lib/validation/parse';
+import { passwordLinkRequestSchema, setPasswordByLinkSchema, type SetPasswordByLinkInput } from '@/lib/validation/password-link';
+import { User } from '@/models';
+import { hashPassword } from './passwords';
+
+/** How long a link works (common practice, no source). */
+export const LINK_LIFETIME_MS = 30 * 60 * 1000;
+/** Links sent to one address within the window; later requests send nothing (common practice, no source). */
+export const MAX_LINKS_PER_EMAIL = 3;
+/** Requests taken from one client address within the window (common practice, no source). */
+export const MAX_REQUESTS_PER_ADDRESS = 10;
+export const LINK_WINDOW_MS = 15 * 60 * 1000;
+/** Sending attempts of a link's mail: after its retries (about 7 minutes) the link is near its end anyway. */
+const LINK_MAIL_ATTEMPTS = 3;
+
+/** The path a link opens, holding its token. */
+export const passwordLinkPath = (token: string) => `/password-link/${token}`;
+
+const sha256 = (token: string) => createHash('sha256').update(token, 'utf8').digest();
+
+export type LinkRequestResult = { ok: true } | { ok: false; reason: 'throttled' };
+
+/**
+ * Someone asks for a link to choose a new password. For an active account (and fewer than
+ * MAX_LINKS_PER_EMAIL links to it within the window) a single-use link is made and its mail queued in
+ * the same transaction; earlier unused links of the account stop working. Unknown and disabled
+ * addresses get the same answer and no mail, so the answer tells nobody whether an account exists.
+ * Every request is kept and audited. Only a client address that asks too often is told so.
+ */
+export async function requestPasswordLink(raw: { email: unknown }, address: string): Promise<LinkRequestResult> {
+  const { email } = parseOrRefuse(passwordLinkRequestSchema, raw);
+  const sequelize = db();
+  const since = new Date(Date.now() - LINK_WINDOW_MS);
+  const [counts] = await sequelize.query<{ byAddress: number; linksToEmail: number }>(
+    `select (select count(*) from password_links where address = :address and requested_at >= :since)::int as "byAddress",
+            (select count(*) from password_links where email = :email and token_sha256 is not null and requested_at >= :since)::int as "linksToEmail"`,
+    { type: QueryTypes.SELECT, replacements: { address, email, since } },
+  );
+  if (counts!.byAddress >= MAX_REQUESTS_PER_ADDRESS) {
+    await sequelize.transaction((transaction) =>
+      recordAudit({ actorId: null, action: 'password_link_throttled', entityType: 'session', after: { email }, address }, transaction),
+    );
+    return { ok: false, reason: 'throttled' };
+  }
+
+  await sequelize.transaction(async (transaction) => {
+    const user = await User.findOne({ where: { email }, transaction, lock: transaction.LOCK.UPDATE });
+    const sends = Boolean(user && !user.disabledAt && counts!.linksToEmail < MAX_LINKS_PER_EMAIL);
+    const token = sends ? randomBytes(32).toString('base64url') : null;
+    const id = randomUUID();
+    const requestedAt = new Date();
+    if (sends && user) {
+      // A newer link replaces the ones before it.
+      await sequelize.query(`update password_links set expires_at = greatest(requested_at + interval '1 millisecond', least(expires_at, :now)) where user_id = :userId and used_at is null and expires_at > :now`, {
+        replacements: { userId: user.id, now: requestedAt }, transaction,
+      });
+    }
+    await sequelize.query(
+      `insert into password_links (id, email, user_id, token_sha256, requested_at, expires_at, address) values (:id, :email, :userId, :tokenSha256, :requestedAt, :expiresAt, :address)`,
+      {
+        replacements: {
+          id, email, address, requestedAt,
+          userId: sends && user ? user.id : null,
+          tokenSha256: token ? sha256(token) : null,
+          expiresAt: token ? new Date(requestedAt.getTime() + LINK_LIFETIME_MS) : null,
+        },
+        transaction,
+      },
+    );
+    if (sends && user && token) await queueLinkMail(user, token, address, requestedAt, transaction);
+    // The record says what happened (an admin reading the trail sees whether a link went out), never the token.
+    await recordAudit(
+      {
+        actorId: null, action: 'password_link_requested', entityType: 'user', entityId: sends && user ? user.id : null,
+        after: { email, linkId: id, sent: sends, why: sends ? null : !user ? 'no such account' : user.disabledAt ? 'account disabled' : 'too many links to this address' },
+        address,
+      },
+      transaction,
+    );
+  });
+  return { ok: true };
+}
+
+async function queueLinkMail(user: User, token: string, address: string, requestedAt: Date, transaction: Transaction): Promise<void> {
+  const link = `${env().APP_URL.replace(/\/$/, '')}${passwordLinkPath(token)}`;
+  await queueMail(
+    [{
+      kind: 'password_link', plateId: null, signoffEventId: null, recipientId: user.id, toAddress: user.email,
+      subject: 'Gatewell: choose a new password', maxAttempts: LINK_MAIL_ATTEMPTS,
+      bodyText: [
+        `Hello ${user.name},`,
+        '',
+        `Someone asked Gatewell for a link to choose a new password for ${user.email} (from ${address}, ${requestedAt.toISOString()}).`,
+        '',
+        `Choose your new password here within ${LINK_LIFETIME_MS / 60_000} minutes; the link works once:`,
+        link,
+        '',
+        'If you did not ask, ignore this message: your password stays as it is.',
+        '',
+        'Gatewell',
+      ].join('\n'),
+    }],
+    transaction,
+  );
+}
+
+interface LinkRow {
+  id: string;
+  userId: string;
+  email: string;
+  expiresAt: Date;
+  usedAt: Date | null;
+  requestedAt: Date;
+}
+
+export type LinkState = { usable: true; email: string } | { usable: false; why: string };
+
+const UNKNOWN = 'This link is not one Gatewell sent, or it was cut short when it was copied. Ask for a new one.';
+
+/** Why a link does not work, or null when it does (the account active and its password unchanged since the request). */
+function linkProblem(link: LinkRow | undefined, user: User | null, now: Date): string | null {
+  if (!link || !user) return UNKNOWN;
+  if (link.usedAt) return 'This link has been used already. Ask for a new one if you need it.';
+  if (link.expiresAt <= now) return 'This link has run out (links work for 30 minutes, and a newer link replaces older ones). Ask for a new one.';
+  if (user.disabledAt) return 'This account is disabled; an administrator can enable it again.';
+  if (user.passwordChangedAt && user.passwordChangedAt > link.requestedAt) return 'The password of this account has changed since this link was sent. Ask for a new one if you need it.';
+  return null;
+}
+
+async function findLink(token: string, transaction?: Transaction, lock = false): Promise<LinkRow | undefined> {
+  const [row] = await db().query<LinkRow>(
+    `select id, user_id as "userId", email, expires_at as "expiresAt", used_at as "usedAt", requested_at as "requestedAt"
+       from password_links where token_sha256 = :hash ${lock ? 'for update' : ''}`,
+    { type: QueryTypes.SELECT, replacements: { hash: sha256(token) }, ...(transaction ? { transaction } : {}) },
+  );
+  return row;
+}
+
+/** Whether a link opened from a mail still works, for the page that asks for the new password. */
+export async function passwordLinkState(token: string): Promise<LinkState> {
+  if (!/^[A-Za-z0-9_-]{43}$/.test(token)) return { usable: false, why: UNKNOWN };
+  const link = await findLink(token);
+  const user = link ? await User.findByPk(link.userId) : null;
+  const problem = linkProblem(link, user, new Date());
+  return problem ? { usable: false, why: problem } : { usable: true, email: link!.email };
+}
+
+/**
+ * Sets the new password through a link: once, within its time, for an active account whose password has
+ * not changed since. Every session of the account ends (its session version moves on), the link is spent,
+ * and the change is audited; the person then signs in with the new password.
+ */
+export async function setPasswordByLink(raw: SetPasswordByLinkInput, address: string): Promise<{ email: string }> {
+  const input = parseOrRefuse(setPasswordByLinkSchema, raw);
+  const passwordHash = await hashPassword(input.newPassword);
+  return db().transaction(async (transaction) => {
+    const link = await findLink(input.token, transaction, true);
+    const user = link ? await User.findByPk(link.userId, { transaction, lock: transaction.LOCK.UPDATE }) : null;
+    const now = new Date();
+    const problem = linkProblem(link, user, now);
+    if (problem || !link || !user) throw new AppError('conflict', problem ?? UNKNOWN);
+    await db().query('update password_links set used_at = :now where id = :id', { replacements: { id: link.id, now }, transaction });
+    const before = { passwordChangedAt: user.passwordChangedAt?.toISOString() ?? null, sessionVersion: user.sessionVersion };
+    await user.update({ passwordHash, passwordChangedAt: now, passwordChangeRequired: false, sessionVersion: user.sessionVersion + 1 }, { transaction });
+    await recordAudit(
+      {
+        actorId: user.id, action: 'set_password_by_link', entityType: 'user', entityId: user.id,
+        before, after: { passwordChangedAt: now.toISOString(), sessionVersion: user.sessionVersion, linkId: link.id }, address,
+      },
+      transaction,
+    );
+    return { email: user.email };
+  });
+}
