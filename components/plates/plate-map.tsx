@@ -25,13 +25,16 @@ function fill(w: WellRowView | undefined, colouring: MapColouring): string {
   return w.fractionalBlock === null ? QC_COLOUR.empty : blockColour(w.fractionalBlock);
 }
 
-/** The plate as a grid of wells, coloured by block or QC; arrow keys move, Enter or Space selects. */
+/**
+ * The plate as a grid of wells, coloured by block or QC; arrow keys move, and where wells may be picked
+ * (no `onToggle` on a locked plate) Enter, Space or a click selects.
+ */
 export function PlateMap({ format, wells, colouring, selected, onToggle }: {
   format: number;
   wells: WellRowView[];
   colouring: MapColouring;
   selected: ReadonlySet<string>;
-  onToggle: (wellId: string) => void;
+  onToggle?: ((wellId: string) => void) | undefined;
 }) {
   const { rows, columns } = GEOMETRY[format] ?? GEOMETRY[96]!;
   const [focus, setFocus] = useState(0);
@@ -47,7 +50,7 @@ export function PlateMap({ format, wells, colouring, selected, onToggle }: {
     if (event.key in moves) {
       event.preventDefault();
       setFocus((f) => Math.min(rows * columns - 1, Math.max(0, f + moves[event.key]!)));
-    } else if ((event.key === 'Enter' || event.key === ' ') && focused) {
+    } else if ((event.key === 'Enter' || event.key === ' ') && focused && onToggle) {
       event.preventDefault();
       onToggle(focused.id);
     }
@@ -70,8 +73,8 @@ export function PlateMap({ format, wells, colouring, selected, onToggle }: {
           const y = margin + Math.floor(i / columns) * cell;
           const isSelected = w ? selected.has(w.id) : false;
           return (
-            <g key={i} id={w ? `well-${w.id}` : undefined} role={w ? 'gridcell' : undefined} aria-selected={w ? isSelected : undefined}
-              aria-label={w ? describe(w) : undefined} onClick={() => { setFocus(i); if (w) onToggle(w.id); }} className={w ? 'cursor-pointer' : undefined}>
+            <g key={i} id={w ? `well-${w.id}` : undefined} role={w ? 'gridcell' : undefined} aria-selected={w && onToggle ? isSelected : undefined}
+              aria-label={w ? describe(w) : undefined} onClick={() => { setFocus(i); if (w) onToggle?.(w.id); }} className={w && onToggle ? 'cursor-pointer' : undefined}>
               {w ? <title>{describe(w)}</title> : null}
               <rect x={x + 1} y={y + 1} width={cell - 2} height={cell - 2} rx={cell / 2.5} fill={fill(w, colouring)}
                 stroke={isSelected ? '#0b1622' : i === focus ? '#168f94' : '#d3dbe3'} strokeWidth={isSelected || i === focus ? 2 : 1} />

@@ -79,7 +79,7 @@ export function WellsPanel({ plateId, format, canEdit }: { plateId: string; form
           ))}
         </fieldset>
       </div>
-      <PlateMap format={format} wells={wells} colouring={colouring} selected={selected} onToggle={editable ? toggle : () => undefined} />
+      <PlateMap format={format} wells={wells} colouring={colouring} selected={selected} onToggle={editable ? toggle : undefined} />
       {editable ? (
         <div className="gw-card flex flex-wrap items-end gap-3 p-4">
           <p className="text-sm font-medium">{selected.size} well(s) selected</p>
