@@ -1,4 +1,7 @@
 import 'server-only';
+import { recordAudit } from '@/lib/audit/record';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
 import { csvText, workbookBytes, type ExportDocument } from './document';
 
 const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
@@ -18,4 +21,33 @@ export function exportResponse(doc: ExportDocument, query: { format: 'xlsx' | 'c
   return new Response(csvText(doc, table), {
     headers: { ...headers, 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${safe(`${baseName}-${table.key}`)}.csv"` },
   });
+}
+
+/** What an export took out of Gatewell, for its audit event. */
+export interface ExportSubject {
+  entityType: 'plate' | 'compound' | 'audit_trail';
+  entityId: string | null;
+  /** More of what was exported, e.g. the audit trail's filter. */
+  details?: Record<string, unknown>;
+}
+
+/**
+ * The export as a download, recorded in the audit trail before it is handed out: who took which data out
+ * of Gatewell, when, in which form and how many rows of each table. Without the record, no file.
+ */
+export async function auditedExportResponse(actor: Actor, doc: ExportDocument, query: { format: 'xlsx' | 'csv'; table?: string }, baseName: string, subject: ExportSubject): Promise<Response> {
+  const response = exportResponse(doc, query, baseName);
+  const file = /filename="([^"]+)"/.exec(response.headers.get('content-disposition') ?? '')?.[1] ?? null;
+  const tables = query.format === 'csv' ? doc.tables.filter((t) => t.key === query.table) : doc.tables;
+  await db().transaction((transaction) =>
+    recordAudit(
+      {
+        actorId: actor.id, action: 'export', entityType: subject.entityType, entityId: subject.entityId,
+        after: { format: query.format, file, rows: Object.fromEntries(tables.map((t) => [t.key, t.rows.length])), ...subject.details },
+        address: actor.address,
+      },
+      transaction,
+    ),
+  );
+  return response;
 }

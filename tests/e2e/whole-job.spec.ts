@@ -1,6 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import * as XLSX from 'xlsx';
-import { PEOPLE, shot, signedIn } from './signoff-support';
+import { dbRow, PEOPLE, shot, signedIn } from './signoff-support';
 import { freshPotassiumExport } from './support';
 
 // The whole job on demo data, in the browser: a biologist imports an export, reviews QC, excludes a
@@ -68,4 +68,12 @@ test('import, review, exclude, fits and forecast, verify, submit, approve with s
   expect(about.Caution).toMatch(/research decision support/i);
   const signoff = XLSX.utils.sheet_to_json<Record<string, unknown>>(book.Sheets['Sign-off']!, { range: 0 });
   expect(JSON.stringify(signoff)).toContain('Arun Approver');
+
+  // The download is in the audit trail: the approver, the plate, the form and the file.
+  const plateId = plateUrl.split('/').at(-1);
+  const exported = await dbRow<{ email: string; after: { format: string; file: string } }>(
+    `select u.email, a.after from audit_events a join users u on u.id = a.actor_id where a.action = 'export' and a.entity_type = 'plate' and a.entity_id = $1`,
+    [plateId],
+  );
+  expect(exported).toMatchObject({ email: PEOPLE.approver.email, after: { format: 'xlsx', file: `gatewell-plate-${LABEL}.xlsx` } });
 });

@@ -7,11 +7,11 @@ import { db } from '@/lib/db';
 import { csvText, workbookBytes } from '@/lib/exports/document';
 import { compoundExport } from '@/lib/exports/compound-export';
 import { plateExport } from '@/lib/exports/plate-export';
-import { exportResponse } from '@/lib/exports/respond';
+import { auditedExportResponse, exportResponse } from '@/lib/exports/respond';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
 import { closeForecastPool } from '@/lib/science/forecast/pool';
 import { compoundExportQuerySchema, plateExportQuerySchema } from '@/lib/validation/exports';
-import { Compound, Signature, SignoffEvent } from '@/models';
+import { AuditEvent, Compound, Signature, SignoffEvent } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { importDemoPlate } from '../support/demo-plates';
@@ -70,6 +70,20 @@ describe('exports', () => {
     const response = exportResponse(document, { format: 'csv', table: 'wells' }, 'gatewell-plate-NAV-P01');
     expect(response.headers.get('content-disposition')).toBe('attachment; filename="gatewell-plate-NAV-P01-wells.csv"');
     expect(response.headers.get('content-type')).toBe('text/csv; charset=utf-8');
+  });
+
+  test('a download is an audit event first: who, which record, which form, file and rows of each table', async () => {
+    const { document } = await plateExport(reader, plateId);
+    const before = await AuditEvent.count({ where: { action: 'export' } });
+    const workbook = await auditedExportResponse(reader, document, { format: 'xlsx' }, 'gatewell-plate-NAV-P01', { entityType: 'plate', entityId: plateId });
+    expect(workbook.headers.get('content-disposition')).toBe('attachment; filename="gatewell-plate-NAV-P01.xlsx"');
+    await auditedExportResponse(reader, document, { format: 'csv', table: 'wells' }, 'gatewell-plate-NAV-P01', { entityType: 'plate', entityId: plateId });
+    const events = await AuditEvent.findAll({ where: { action: 'export' }, order: [['id', 'ASC']] });
+    expect(events).toHaveLength(before + 2);
+    expect(events.slice(-2).map((e) => ({ actorId: e.actorId, entityType: e.entityType, entityId: e.entityId, after: e.after }))).toEqual([
+      { actorId: reader.id, entityType: 'plate', entityId: plateId, after: { format: 'xlsx', file: 'gatewell-plate-NAV-P01.xlsx', rows: { signoff: 1, wells: 96, fits: 5, forecast: expect.any(Number) } } },
+      { actorId: reader.id, entityType: 'plate', entityId: plateId, after: { format: 'csv', file: 'gatewell-plate-NAV-P01-wells.csv', rows: { wells: 96 } } },
+    ]);
   });
 
   test('csv fields: quotes, line breaks and text a spreadsheet would run as a formula', () => {

@@ -1,13 +1,13 @@
 import { withUser } from '@/lib/api/handler';
 import { plateExport } from '@/lib/exports/plate-export';
-import { exportResponse } from '@/lib/exports/respond';
+import { auditedExportResponse } from '@/lib/exports/respond';
 import { plateExportQuerySchema } from '@/lib/validation/exports';
 import { parseId } from '@/lib/validation/ids';
 
-/** The plate's wells, fits, forecast and sign-off as an xlsx workbook, or one of them as csv. */
+/** The plate's wells, fits, forecast and sign-off as an xlsx workbook, or one of them as csv; audited. */
 export const GET = withUser<{ plateId: string }>(async (request, actor, { params }) => {
   const plateId = parseId((await params).plateId, 'plate');
   const query = plateExportQuerySchema.parse(Object.fromEntries(request.nextUrl.searchParams));
   const { label, document } = await plateExport(actor, plateId);
-  return exportResponse(document, query, `gatewell-plate-${label}`);
+  return auditedExportResponse(actor, document, query, `gatewell-plate-${label}`, { entityType: 'plate', entityId: plateId });
 });
