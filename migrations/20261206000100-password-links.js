@@ -1,9 +1,9 @@
 'use strict';
 // Someone who lost their password asks for a link by e-mail (the sign-in page's "Lost your password?").
 // Every request is kept, for throttling and the record, also for addresses that match no active account
-// (no user, no token then). A link's token is kept only as its SHA-256; the link works once, within its
-// expiry, and only while the account's password is the one it had when the link was asked for. The mail
-// outbox learns the kind of message that carries it.
+// (no user, no token then). A new account's invitation is such a link too. A link's token is kept only as
+// its SHA-256; the link works once, within its expiry, and only while the account's password is the one
+// it had when the link was made. The mail outbox learns the two kinds of message that carry one.
 
 const PLATE_KINDS = ['plate_imported', 'plate_verified', 'plate_submitted', 'plate_approved', 'plate_rejected', 'plate_reopened'];
 
@@ -34,7 +34,7 @@ module.exports = {
         create index password_links_email on password_links (email, requested_at desc);
         create index password_links_address on password_links (address, requested_at desc);
         create index password_links_user on password_links (user_id, requested_at desc) where user_id is not null;
-        ${kindCheck([...PLATE_KINDS, 'password_link'])};
+        ${kindCheck([...PLATE_KINDS, 'password_link', 'account_invitation'])};
         `,
         { transaction },
       );
@@ -45,7 +45,7 @@ module.exports = {
     await queryInterface.sequelize.transaction(async (transaction) => {
       await queryInterface.sequelize.query(
         `
-        delete from mail_outbox where kind = 'password_link';
+        delete from mail_outbox where kind in ('password_link', 'account_invitation');
         ${kindCheck(PLATE_KINDS)};
         drop table if exists password_links;
         `,

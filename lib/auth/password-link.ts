@@ -11,8 +11,10 @@ import { passwordLinkRequestSchema, setPasswordByLinkSchema, type SetPasswordByL
 import { User } from '@/models';
 import { hashPassword } from './passwords';
 
-/** How long a link works (common practice, no source). */
+/** How long a link asked for on the sign-in page works (common practice, no source). */
 export const LINK_LIFETIME_MS = 30 * 60 * 1000;
+/** How long the link of a new account's invitation works (common practice, no source). */
+export const INVITATION_LIFETIME_MS = 3 * 24 * 60 * 60 * 1000;
 /** Links sent to one address within the window; later requests send nothing (common practice, no source). */
 export const MAX_LINKS_PER_EMAIL = 3;
 /** Requests taken from one client address within the window (common practice, no source). */
@@ -54,33 +56,14 @@ export async function requestPasswordLink(raw: { email: unknown }, address: stri
   await sequelize.transaction(async (transaction) => {
     const user = await User.findOne({ where: { email }, transaction, lock: transaction.LOCK.UPDATE });
     const sends = Boolean(user && !user.disabledAt && counts!.linksToEmail < MAX_LINKS_PER_EMAIL);
-    const token = sends ? randomBytes(32).toString('base64url') : null;
-    const id = randomUUID();
-    const requestedAt = new Date();
-    if (sends && user) {
-      // A newer link replaces the ones before it.
-      await sequelize.query(`update password_links set expires_at = greatest(requested_at + interval '1 millisecond', least(expires_at, :now)) where user_id = :userId and used_at is null and expires_at > :now`, {
-        replacements: { userId: user.id, now: requestedAt }, transaction,
-      });
-    }
-    await sequelize.query(
-      `insert into password_links (id, email, user_id, token_sha256, requested_at, expires_at, address) values (:id, :email, :userId, :tokenSha256, :requestedAt, :expiresAt, :address)`,
-      {
-        replacements: {
-          id, email, address, requestedAt,
-          userId: sends && user ? user.id : null,
-          tokenSha256: token ? sha256(token) : null,
-          expiresAt: token ? new Date(requestedAt.getTime() + LINK_LIFETIME_MS) : null,
-        },
-        transaction,
-      },
-    );
-    if (sends && user && token) await queueLinkMail(user, token, address, requestedAt, transaction);
+    const linkId = sends && user
+      ? await issuePasswordLink(user, { purpose: 'lost-password', address }, transaction)
+      : await recordRequestWithoutLink(email, address, transaction);
     // The record says what happened (an admin reading the trail sees whether a link went out), never the token.
     await recordAudit(
       {
         actorId: null, action: 'password_link_requested', entityType: 'user', entityId: sends && user ? user.id : null,
-        after: { email, linkId: id, sent: sends, why: sends ? null : !user ? 'no such account' : user.disabledAt ? 'account disabled' : 'too many links to this address' },
+        after: { email, linkId, sent: sends, why: sends ? null : !user ? 'no such account' : user.disabledAt ? 'account disabled' : 'too many links to this address' },
         address,
       },
       transaction,
@@ -89,24 +72,81 @@ export async function requestPasswordLink(raw: { email: unknown }, address: stri
   return { ok: true };
 }
 
-async function queueLinkMail(user: User, token: string, address: string, requestedAt: Date, transaction: Transaction): Promise<void> {
-  const link = `${env().APP_URL.replace(/\/$/, '')}${passwordLinkPath(token)}`;
-  await queueMail(
-    [{
-      kind: 'password_link', plateId: null, signoffEventId: null, recipientId: user.id, toAddress: user.email,
-      subject: 'Gatewell: choose a new password', maxAttempts: LINK_MAIL_ATTEMPTS,
-      bodyText: [
-        `Hello ${user.name},`,
+async function recordRequestWithoutLink(email: string, address: string, transaction: Transaction): Promise<string> {
+  const id = randomUUID();
+  await db().query('insert into password_links (id, email, address) values (:id, :email, :address)', { replacements: { id, email, address }, transaction });
+  return id;
+}
+
+/** Why a link is sent: a person asked on the sign-in page, or an admin created their account. */
+export type LinkPurpose =
+  | { purpose: 'lost-password'; address: string }
+  | { purpose: 'invitation'; address: string; invitedBy: { name: string }; roles: string[] };
+
+/**
+ * Makes a single-use link for an account and queues its mail, in the caller's transaction; the account's
+ * earlier unused links stop working. The request time is the database's, the same clock as the account's
+ * password_changed_at, so a link made with a new account is not taken for older than its password.
+ */
+export async function issuePasswordLink(user: User, why: LinkPurpose, transaction: Transaction): Promise<string> {
+  const sequelize = db();
+  const token = randomBytes(32).toString('base64url');
+  const id = randomUUID();
+  const lifetimeMs = why.purpose === 'invitation' ? INVITATION_LIFETIME_MS : LINK_LIFETIME_MS;
+  // A newer link replaces the ones before it.
+  await sequelize.query(
+    `update password_links set expires_at = greatest(requested_at + interval '1 millisecond', least(expires_at, now()))
+      where user_id = :userId and used_at is null and expires_at > now()`,
+    { replacements: { userId: user.id }, transaction },
+  );
+  const [row] = await sequelize.query<{ requestedAt: Date }>(
+    `insert into password_links (id, email, user_id, token_sha256, requested_at, expires_at, address)
+       values (:id, :email, :userId, :tokenSha256, now(), now() + :lifetimeMs * interval '1 millisecond', :address)
+     returning requested_at as "requestedAt"`,
+    { type: QueryTypes.SELECT, replacements: { id, email: user.email, userId: user.id, tokenSha256: sha256(token), lifetimeMs, address: why.address }, transaction },
+  );
+  await queueLinkMail(user, token, why, row!.requestedAt, lifetimeMs, transaction);
+  return id;
+}
+
+function linkMailText(user: User, link: string, why: LinkPurpose, requestedAt: Date, lifetimeMs: number): { subject: string; lines: string[] } {
+  const within = lifetimeMs >= 24 * 60 * 60 * 1000 ? `${lifetimeMs / (24 * 60 * 60 * 1000)} days` : `${lifetimeMs / 60_000} minutes`;
+  if (why.purpose === 'invitation') {
+    return {
+      subject: 'Gatewell: your account, and a link to choose your password',
+      lines: [
+        `${why.invitedBy.name} made a Gatewell account for you: ${user.email}, ${why.roles.length ? `as ${why.roles.join(', ')}` : 'to read results'}.`,
         '',
-        `Someone asked Gatewell for a link to choose a new password for ${user.email} (from ${address}, ${requestedAt.toISOString()}).`,
-        '',
-        `Choose your new password here within ${LINK_LIFETIME_MS / 60_000} minutes; the link works once:`,
+        `Choose your password here within ${within}; the link works once:`,
         link,
         '',
-        'If you did not ask, ignore this message: your password stays as it is.',
-        '',
-        'Gatewell',
-      ].join('\n'),
+        `Afterwards you sign in at ${env().APP_URL.replace(/\/$/, '')}/sign-in. If the link has run out, "Lost your password?" there sends a new one.`,
+      ],
+    };
+  }
+  return {
+    subject: 'Gatewell: choose a new password',
+    lines: [
+      `Someone asked Gatewell for a link to choose a new password for ${user.email} (from ${why.address}, ${requestedAt.toISOString()}).`,
+      '',
+      `Choose your new password here within ${within}; the link works once:`,
+      link,
+      '',
+      'If you did not ask, ignore this message: your password stays as it is.',
+    ],
+  };
+}
+
+async function queueLinkMail(user: User, token: string, why: LinkPurpose, requestedAt: Date, lifetimeMs: number, transaction: Transaction): Promise<void> {
+  const link = `${env().APP_URL.replace(/\/$/, '')}${passwordLinkPath(token)}`;
+  const { subject, lines } = linkMailText(user, link, why, requestedAt, lifetimeMs);
+  await queueMail(
+    [{
+      kind: why.purpose === 'invitation' ? 'account_invitation' : 'password_link', plateId: null, signoffEventId: null,
+      recipientId: user.id, toAddress: user.email, subject,
+      // A lost-password link is worth little after its retries; an invitation keeps the usual attempts.
+      ...(why.purpose === 'lost-password' ? { maxAttempts: LINK_MAIL_ATTEMPTS } : {}),
+      bodyText: [`Hello ${user.name},`, '', ...lines, '', 'Gatewell'].join('\n'),
     }],
     transaction,
   );
@@ -129,7 +169,7 @@ const UNKNOWN = 'This link is not one Gatewell sent, or it was cut short when it
 function linkProblem(link: LinkRow | undefined, user: User | null, now: Date): string | null {
   if (!link || !user) return UNKNOWN;
   if (link.usedAt) return 'This link has been used already. Ask for a new one if you need it.';
-  if (link.expiresAt <= now) return 'This link has run out (links work for 30 minutes, and a newer link replaces older ones). Ask for a new one.';
+  if (link.expiresAt <= now) return 'This link has run out (a link works for a set time, and a newer link replaces older ones). Ask for a new one.';
   if (user.disabledAt) return 'This account is disabled; an administrator can enable it again.';
   if (user.passwordChangedAt && user.passwordChangedAt > link.requestedAt) return 'The password of this account has changed since this link was sent. Ask for a new one if you need it.';
   return null;

@@ -4,7 +4,7 @@ import { recordAudit } from '@/lib/audit/record';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { MailMessage, type MailKind, type MailState } from '@/models/mail-message';
+import { LINK_MAIL_KINDS, MailMessage, type MailKind, type MailState } from '@/models/mail-message';
 
 /** One message of the outbox as the admin page lists it. */
 export interface OutboxRow {
@@ -79,7 +79,7 @@ export async function requeueMail(actor: Actor, messageId: string): Promise<void
     if (!message) throw new AppError('not_found', 'No such message in the outbox.');
     if (message.state !== 'failed') throw new AppError('conflict', `This message is ${message.state}; only a failed message can be sent again.`);
     // Its link was cut from the kept copy when it failed (lib/mail/deliver.ts), and would have run out anyway.
-    if (message.kind === 'password_link') throw new AppError('conflict', 'A password link is not sent again; the person asks for a new one on the sign-in page.');
+    if (LINK_MAIL_KINDS.includes(message.kind)) throw new AppError('conflict', 'A password link is not sent again; the person asks for a new one on the sign-in page ("Lost your password?").');
     const before = { state: message.state, attempts: message.attempts, lastError: message.lastError };
     await message.update({ state: 'queued', attempts: 0, nextAttemptAt: new Date() }, { transaction });
     await recordAudit({ actorId: actor.id, action: 'requeue_mail', entityType: 'mail_message', entityId: message.id, before, after: { state: 'queued', toAddress: message.toAddress }, address: actor.address }, transaction);

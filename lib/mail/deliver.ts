@@ -1,6 +1,7 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
+import { LINK_MAIL_KINDS } from '@/models/mail-message';
 import { smtpSettingsFromEnv, smtpTransport, type SmtpSettings } from './transport';
 
 /** How long a claimed message stays reserved for the process sending it; after that another may retry it. */
@@ -59,7 +60,7 @@ async function claimDue(now: Date, limit: number): Promise<Claimed[]> {
  * Once a message has gone out (or will never go), a password link in it is cut from the kept copy: the
  * outbox keeps what was sent, not a key that still opens the account (lib/auth/password-link.ts).
  */
-const REDACTED_BODY_VALUE = `case when kind = 'password_link' then regexp_replace(body_text, '/password-link/[A-Za-z0-9_-]+', '/password-link/(removed once sent)', 'g') else body_text end`;
+const REDACTED_BODY_VALUE = `case when kind in (${LINK_MAIL_KINDS.map((kind) => `'${kind}'`).join(', ')}) then regexp_replace(body_text, '/password-link/[A-Za-z0-9_-]+', '/password-link/(removed once sent)', 'g') else body_text end`;
 const REDACTED_BODY = `body_text = ${REDACTED_BODY_VALUE}`;
 
 async function settle(id: string, outcome: { sent: true; response: string } | { sent: false; error: string; giveUp: boolean; retryAt: Date }) {

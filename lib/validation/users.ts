@@ -37,12 +37,21 @@ const reasonField = z
 
 const userIdField = z.uuid('This user does not exist.');
 
-export const createUserSchema = z.object({
-  name: z.string('Enter the person’s name.').trim().min(1, 'Enter the person’s name.').max(200, 'Names are at most 200 characters.'),
-  email: emailField,
-  roles: roleList,
-  password: optionalPassword,
-});
+/** How a new account's owner first gets in: a link by e-mail to choose their password, or a one-time password the admin hands over. */
+export const ACCOUNT_ACCESS = ['password', 'link'] as const;
+
+export const createUserSchema = z
+  .object({
+    name: z.string('Enter the person’s name.').trim().min(1, 'Enter the person’s name.').max(200, 'Names are at most 200 characters.'),
+    email: emailField,
+    roles: roleList,
+    access: z.preprocess(emptyToUndefined, z.enum(ACCOUNT_ACCESS, 'Choose how the person gets in.').default('password')),
+    password: optionalPassword,
+  })
+  .refine((input) => !(input.access === 'link' && input.password), {
+    path: ['password'],
+    message: 'Leave the password empty: the person chooses their own through the e-mailed link.',
+  });
 
 export const changeRolesSchema = z.object({ userId: userIdField, roles: roleList, reason: reasonField });
 

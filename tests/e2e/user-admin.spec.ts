@@ -30,6 +30,7 @@ test('an admin creates a user with roles and an initial password', async ({ brow
   await page.getByLabel('Name').fill(newcomer.name);
   await page.getByLabel('E-mail').fill(newcomer.email);
   await page.getByLabel(/^Biologist/).check();
+  await page.getByLabel(/^Give them a one-time password/).check();
   await page.getByLabel('Initial password').fill('short');
   await page.getByRole('button', { name: 'Create account' }).click();
   await expect(page.locator('#field-password-error')).toHaveText('Use at least 10 characters.');

@@ -1,10 +1,11 @@
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
-import { LINK_LIFETIME_MS, MAX_LINKS_PER_EMAIL, MAX_REQUESTS_PER_ADDRESS, passwordLinkState, requestPasswordLink, setPasswordByLink } from '@/lib/auth/password-link';
+import { INVITATION_LIFETIME_MS, LINK_LIFETIME_MS, MAX_LINKS_PER_EMAIL, MAX_REQUESTS_PER_ADDRESS, passwordLinkState, requestPasswordLink, setPasswordByLink } from '@/lib/auth/password-link';
 import type { Actor } from '@/lib/auth/roles';
 import { signIn } from '@/lib/auth/sign-in';
 import { db } from '@/lib/db';
 import { deliverDueMail } from '@/lib/mail/deliver';
 import { requeueMail } from '@/lib/mail/admin';
+import { createUser } from '@/lib/users/create';
 import { resetPassword } from '@/lib/users/reset-password';
 import { disableUser } from '@/lib/users/status';
 import { AuditEvent, MailMessage, User } from '@/models';
@@ -118,6 +119,32 @@ describe('a password link by e-mail', () => {
     expect(await AuditEvent.count({ where: { action: 'password_link_throttled' } })).toBe(1);
     // Another client address is not held up.
     expect(await requestPasswordLink({ email: 'one-more@example.org' }, '10.250.0.1')).toEqual({ ok: true });
+  });
+
+  test('an admin creates an account by invitation: a link for 3 days, no one-time password, and the owner\'s own password from the first sign-in', async () => {
+    const admin = await makeActor(['admin']);
+    const email = 'invited-person@example.org';
+    const created = await createUser(admin, { name: 'Ines Invited', email, roles: ['chemist'], access: 'link' });
+    expect(created).toMatchObject({ initialPassword: null, invited: true });
+    const mail = (await MailMessage.findOne({ where: { toAddress: email } }))!;
+    expect(mail.kind).toBe('account_invitation');
+    expect(mail.subject).toBe('Gatewell: your account, and a link to choose your password');
+    expect(mail.bodyText).toContain(`${admin.name} made a Gatewell account for you: ${email}, as chemist.`);
+    expect(mail.bodyText).toContain('within 3 days');
+    const [[link]] = await db().query(`select extract(epoch from expires_at - requested_at) * 1000 as lifetime from password_links where email = :email`, { replacements: { email } });
+    expect(Number((link as { lifetime: string }).lifetime)).toBe(INVITATION_LIFETIME_MS);
+    const createEvent = (await AuditEvent.findOne({ where: { action: 'create', entityId: created.user.id } }))!;
+    expect(createEvent.after).toMatchObject({ initialPassword: 'link by e-mail' });
+
+    const token = await tokenMailedTo(email);
+    expect(await passwordLinkState(token)).toEqual({ usable: true, email });
+    await setPasswordByLink({ token, newPassword: NEW_PASSWORD, confirmPassword: NEW_PASSWORD }, address);
+    expect(await signIn(email, NEW_PASSWORD, address)).toMatchObject({ ok: true, passwordChangeRequired: false });
+
+    // A password and a link at once is refused on the field.
+    await expect(createUser(admin, { name: 'Both Ways', email: 'both@example.org', roles: [], access: 'link', password: 'a password too long enough' }))
+      .rejects.toMatchObject({ details: { fieldErrors: { password: [expect.stringContaining('Leave the password empty')] } } });
+    expect(await User.count({ where: { email: 'both@example.org' } })).toBe(0);
   });
 
   test('the mail goes out through SMTP with the link; the outbox keeps the message without it, and does not send it again', async () => {

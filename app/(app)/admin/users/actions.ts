@@ -3,6 +3,8 @@
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
 import { validatedAction } from '@/lib/actions/validated-action';
+import { INVITATION_LIFETIME_MS } from '@/lib/auth/password-link';
+import { sendDueMailNow } from '@/lib/mail/sender-loop';
 import { changeRoles } from '@/lib/users/change-roles';
 import { createUser } from '@/lib/users/create';
 import { resetPassword } from '@/lib/users/reset-password';
@@ -14,11 +16,18 @@ function refresh(userId?: string) {
   if (userId) revalidatePath(`/admin/users/${userId}`);
 }
 
-/** Creates an account; a generated initial password comes back once, for the admin to hand over. */
+/**
+ * Creates an account; with a link, the person is e-mailed one at once; else a generated initial password
+ * comes back once, for the admin to hand over.
+ */
 export const createUserAction = validatedAction(createUserSchema, ['admin'], async (input, actor) => {
-  const { user, initialPassword } = await createUser(actor, input);
+  const { user, initialPassword, invited } = await createUser(actor, input);
   refresh();
-  return { ok: true, message: `Account created for ${user.name}.`, userId: user.id, userName: user.name, initialPassword };
+  if (invited && process.env.GATEWELL_MAIL_SENDER !== 'off') void sendDueMailNow();
+  const message = invited
+    ? `Account created for ${user.name}. A link to choose their password is on its way to ${user.email}; it works once, within ${INVITATION_LIFETIME_MS / 86_400_000} days.`
+    : `Account created for ${user.name}.`;
+  return { ok: true, message, userId: user.id, userName: user.name, initialPassword, invited };
 });
 
 /** Replaces a user's roles, with the reason kept in the audit trail. */
