@@ -85,8 +85,8 @@ export type LinkPurpose =
 
 /**
  * Makes a single-use link for an account and queues its mail, in the caller's transaction; the account's
- * earlier unused links stop working. The request time is the database's, the same clock as the account's
- * password_changed_at, so a link made with a new account is not taken for older than its password.
+ * earlier unused links stop working. The link is never older than the account's password (a link made
+ * with a new account, whose password time the app's clock set, must not look older than it).
  */
 export async function issuePasswordLink(user: User, why: LinkPurpose, transaction: Transaction): Promise<string> {
   const sequelize = db();
@@ -100,10 +100,15 @@ export async function issuePasswordLink(user: User, why: LinkPurpose, transactio
     { replacements: { userId: user.id }, transaction },
   );
   const [row] = await sequelize.query<{ requestedAt: Date }>(
-    `insert into password_links (id, email, user_id, token_sha256, requested_at, expires_at, address)
-       values (:id, :email, :userId, :tokenSha256, now(), now() + :lifetimeMs * interval '1 millisecond', :address)
+    `with made as (select greatest(clock_timestamp(), :passwordChangedAt::timestamptz) as at)
+     insert into password_links (id, email, user_id, token_sha256, requested_at, expires_at, address)
+       select :id, :email, :userId, :tokenSha256, made.at, made.at + :lifetimeMs * interval '1 millisecond', :address from made
      returning requested_at as "requestedAt"`,
-    { type: QueryTypes.SELECT, replacements: { id, email: user.email, userId: user.id, tokenSha256: sha256(token), lifetimeMs, address: why.address }, transaction },
+    {
+      type: QueryTypes.SELECT,
+      replacements: { id, email: user.email, userId: user.id, tokenSha256: sha256(token), lifetimeMs, address: why.address, passwordChangedAt: user.passwordChangedAt ?? new Date(0) },
+      transaction,
+    },
   );
   await queueLinkMail(user, token, why, row!.requestedAt, lifetimeMs, transaction);
   return id;

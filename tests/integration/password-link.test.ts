@@ -9,6 +9,7 @@ import { createUser } from '@/lib/users/create';
 import { resetPassword } from '@/lib/users/reset-password';
 import { disableUser } from '@/lib/users/status';
 import { AuditEvent, MailMessage, User } from '@/models';
+import { LINK_MAIL_KINDS } from '@/models/mail-message';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { fakeSmtpSettings, waitForMessages } from '../support/fake-smtp';
@@ -20,7 +21,7 @@ let person: Actor;
 
 /** The token of the newest link mail queued for an address (the outbox's copy, before it is sent). */
 async function tokenMailedTo(email: string): Promise<string> {
-  const mail = await MailMessage.findOne({ where: { toAddress: email, kind: 'password_link' }, order: [['createdAt', 'DESC']] });
+  const mail = await MailMessage.findOne({ where: { toAddress: email, kind: [...LINK_MAIL_KINDS] }, order: [['createdAt', 'DESC']] });
   const match = /\/password-link\/([A-Za-z0-9_-]{43})\b/.exec(mail?.bodyText ?? '');
   if (!match) throw new Error(`no password link mailed to ${email}`);
   return match[1]!;
