@@ -12,7 +12,7 @@ test('an account by invitation: the owner gets a link by e-mail, chooses a passw
   const { context: adminContext, page: admin } = await signedInContext(browser, 'admin');
   await admin.goto('/admin/users/new');
   await admin.getByLabel('Name').fill(invitee.name);
-  await admin.getByLabel('E-mail').fill(invitee.email);
+  await admin.getByLabel('E-mail', { exact: true }).fill(invitee.email);
   // No role: this person reads results only, so other tests' sign-off notices pass them by.
   await expect(admin.getByLabel(/^E-mail them a link/)).toBeChecked();
   await expect(admin.getByLabel('Initial password')).toHaveCount(0);
@@ -34,7 +34,7 @@ test('an account by invitation: the owner gets a link by e-mail, chooses a passw
   await owner.getByLabel('New password again').fill(invitee.password);
   await owner.getByRole('button', { name: 'Set new password' }).click();
   await expect(owner).toHaveURL(/\/sign-in\?password=set$/);
-  await owner.getByLabel('E-mail').fill(invitee.email);
+  await owner.getByLabel('E-mail', { exact: true }).fill(invitee.email);
   await owner.getByLabel('Password', { exact: true }).fill(invitee.password);
   await owner.getByRole('button', { name: 'Sign in' }).click();
   // Their own password from the start: no detour to the Account page.

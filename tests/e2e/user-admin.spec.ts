@@ -28,7 +28,7 @@ test('an admin creates a user with roles and an initial password', async ({ brow
   await expect(page.locator('#field-email-error')).toHaveText('Enter an e-mail address.');
 
   await page.getByLabel('Name').fill(newcomer.name);
-  await page.getByLabel('E-mail').fill(newcomer.email);
+  await page.getByLabel('E-mail', { exact: true }).fill(newcomer.email);
   await page.getByLabel(/^Biologist/).check();
   await page.getByLabel(/^Give them a one-time password/).check();
   await page.getByLabel('Initial password').fill('short');
@@ -85,7 +85,7 @@ test('the new user changes their password: their other session ends, this one st
 
   await page.getByRole('button', { name: 'Sign out' }).first().click();
   await expect(page).toHaveURL(/\/sign-in$/);
-  await page.getByLabel('E-mail').fill(newcomer.email);
+  await page.getByLabel('E-mail', { exact: true }).fill(newcomer.email);
   await page.getByLabel('Password').fill(newcomer.first);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page.getByRole('main').getByRole('alert')).toHaveText('That e-mail and password do not match an active account.');
