@@ -18,57 +18,46 @@ function appRole() {
   return decodeURIComponent(new URL(url).username);
 }
 
-async function separateAppRole(queryInterface, transaction) {
-  const role = appRole();
-  const [[me]] = await queryInterface.sequelize.query('select current_user as name', { transaction });
-  return role === me.name ? null : role;
-}
-
 /** Double-quotes an identifier as PostgreSQL does (quote_ident). */
 function ident(name) {
   return `"${name.replace(/"/g, '""')}"`;
 }
 
+/**
+ * Runs the SQL that `statements` makes from the app's role and the database (both quoted) in one
+ * transaction; nothing when the app's role is the one migrating (a single-role set-up).
+ */
+async function forAppRole(queryInterface, statements) {
+  await queryInterface.sequelize.transaction(async (transaction) => {
+    const [[{ me, database }]] = await queryInterface.sequelize.query('select current_user as me, current_database() as database', { transaction });
+    const role = appRole();
+    if (role === me) return;
+    await queryInterface.sequelize.query(statements(ident(role), ident(database)), { transaction });
+  });
+}
+
 /** @type {import('sequelize-cli').Migration} */
 module.exports = {
   async up(queryInterface) {
-    await queryInterface.sequelize.transaction(async (transaction) => {
-      const role = await separateAppRole(queryInterface, transaction);
-      if (!role) return;
-      const app = ident(role);
-      const [[database]] = await queryInterface.sequelize.query('select current_database() as name', { transaction });
-      await queryInterface.sequelize.query(
-        `
-        grant connect, create on database ${ident(database.name)} to ${app};
-        grant usage on schema public to ${app};
-        grant select, insert, update, delete on all tables in schema public to ${app};
-        revoke update, delete, truncate on ${APPEND_ONLY.join(', ')} from ${app};
-        grant usage, select on all sequences in schema public to ${app};
-        -- Tables and sequences later migrations add (created by this owner) get the same rows access.
-        alter default privileges in schema public grant select, insert, update, delete on tables to ${app};
-        alter default privileges in schema public grant usage, select on sequences to ${app};
-        `,
-        { transaction },
-      );
-    });
+    await forAppRole(queryInterface, (app, database) => `
+      grant connect, create on database ${database} to ${app};
+      grant usage on schema public to ${app};
+      grant select, insert, update, delete on all tables in schema public to ${app};
+      revoke update, delete, truncate on ${APPEND_ONLY.join(', ')} from ${app};
+      grant usage, select on all sequences in schema public to ${app};
+      -- Tables and sequences later migrations add (created by this owner) get the same rows access.
+      alter default privileges in schema public grant select, insert, update, delete on tables to ${app};
+      alter default privileges in schema public grant usage, select on sequences to ${app};
+    `);
   },
 
   async down(queryInterface) {
-    await queryInterface.sequelize.transaction(async (transaction) => {
-      const role = await separateAppRole(queryInterface, transaction);
-      if (!role) return;
-      const app = ident(role);
-      const [[database]] = await queryInterface.sequelize.query('select current_database() as name', { transaction });
-      await queryInterface.sequelize.query(
-        `
-        revoke create on database ${ident(database.name)} from ${app};
-        alter default privileges in schema public revoke select, insert, update, delete on tables from ${app};
-        alter default privileges in schema public revoke usage, select on sequences from ${app};
-        revoke all on all sequences in schema public from ${app};
-        revoke all on all tables in schema public from ${app};
-        `,
-        { transaction },
-      );
-    });
+    await forAppRole(queryInterface, (app, database) => `
+      revoke create on database ${database} from ${app};
+      alter default privileges in schema public revoke select, insert, update, delete on tables from ${app};
+      alter default privileges in schema public revoke usage, select on sequences from ${app};
+      revoke all on all sequences in schema public from ${app};
+      revoke all on all tables in schema public from ${app};
+    `);
   },
 };
