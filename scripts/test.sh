@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Every Gatewell test on a fresh machine: installs what is missing, starts its own PostgreSQL test
-# cluster, then lint, type check, Vitest (unit + integration on the real database) and Playwright
+# cluster, then Prettier's check, lint (with the boundary rules), type check, Vitest (unit + integration on the real database) and Playwright
 # (end-to-end in Debian's Chromium against a production build). Ends with "N passed, N failed".
 set -uo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
@@ -33,7 +33,8 @@ status=0
 failed_steps=()
 step() { local name=$1; shift; say "$name"; "$@" || { status=1; failed_steps+=("$name"); say "FAILED: $name"; }; }
 
-step "lint (eslint)" npx eslint . --max-warnings=0
+step "format (prettier --check)" npx prettier --check . --log-level warn
+step "lint (eslint, boundary rules)" npx eslint . --max-warnings=0
 step "type check (tsc)" npx tsc --noEmit -p .
 step "migrating the test database" migrate
 step "unit and integration tests (vitest)" npx vitest run

@@ -2,6 +2,7 @@ import { headers } from 'next/headers';
 import { forbidden, redirect } from 'next/navigation';
 import type { ReactNode } from 'react';
 import { AppShell } from '@/components/shell/app-shell';
+import { signOutAction } from '@/app/(auth)/sign-in/actions';
 import { requireActor } from '@/lib/auth/current-actor';
 import { PATHNAME_HEADER, rolesForPath } from '@/lib/auth/page-roles';
 import { hasRole } from '@/lib/auth/roles';
@@ -14,5 +15,5 @@ export default async function SignedInLayout({ children }: { children: ReactNode
   if (actor.passwordChangeRequired && pathname !== '/account') redirect('/account');
   const needed = rolesForPath(pathname);
   if (needed && !hasRole(actor, ...needed)) forbidden();
-  return <AppShell actor={actor}>{children}</AppShell>;
+  return <AppShell actor={actor} signOut={signOutAction}>{children}</AppShell>;
 }

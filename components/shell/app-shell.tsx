@@ -1,11 +1,21 @@
 import type { ReactNode } from 'react';
-import { signOutAction } from '@/app/(auth)/sign-in/actions';
 import type { Actor } from '@/lib/auth/roles';
 import { navItemsFor } from './nav-items';
 import { NavLinks } from './nav-links';
 
-/** The frame of every signed-in page: navigation, the signed-in person and their roles, sign-out. */
-export function AppShell({ actor, children }: { actor: Actor; children: ReactNode }) {
+/**
+ * The frame of every signed-in page: navigation, the signed-in person and their roles, sign-out.
+ * The sign-out action comes from the layout, so that components import no app code.
+ */
+export function AppShell({
+  actor,
+  signOut,
+  children,
+}: {
+  actor: Actor;
+  signOut: () => Promise<void>;
+  children: ReactNode;
+}) {
   return (
     <div className="min-h-screen lg:grid lg:grid-cols-[15rem_1fr]">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
@@ -22,7 +32,7 @@ export function AppShell({ actor, children }: { actor: Actor; children: ReactNod
         <div className="hidden border-t border-ink-800 px-5 py-4 text-sm lg:block">
           <p className="font-medium text-white">{actor.name}</p>
           <p className="text-xs text-ink-300">{actor.roles.join(', ') || 'no role'}</p>
-          <form action={signOutAction} className="mt-3">
+          <form action={signOut} className="mt-3">
             <button type="submit" className="rounded-md border border-ink-700 px-3 py-1.5 text-xs font-medium text-ink-100 hover:bg-ink-800">
               Sign out
             </button>
@@ -32,7 +42,7 @@ export function AppShell({ actor, children }: { actor: Actor; children: ReactNod
       <div className="min-w-0">
         <div className="flex items-center justify-end gap-3 border-b border-ink-100 bg-card px-4 py-2 text-sm lg:hidden">
           <span>{actor.name}</span>
-          <form action={signOutAction}>
+          <form action={signOut}>
             <button type="submit" className="gw-button-quiet px-3 py-1">Sign out</button>
           </form>
         </div>
