@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Every Gatewell test on a fresh machine: installs what is missing, starts its own PostgreSQL test
-# cluster, then Prettier's check, lint (with the boundary rules), type check, Vitest (unit + integration on the real database) and Playwright
-# (end-to-end in Debian's Chromium against a production build). Ends with "N passed, N failed".
+# cluster, then Prettier's check, lint (with the boundary rules), type check, Vitest (unit +
+# integration on the real database) and Playwright (end-to-end in Debian's Chromium against a
+# production build). Ends with "N passed, N failed".
 set -uo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 set -e
