@@ -36,7 +36,7 @@ export default defineConfig({
   ],
   // The topology of a team install in miniature: two web processes on one port (scripts/serve.mjs) that
   // only enqueue (GATEWELL_JOB_WORKER=off), and a separate worker process that takes the import, fit and
-  // forecast jobs (README, "Topology").
+  // forecast jobs (docs/operations.md, "Topology").
   webServer: [
     {
       command: `node scripts/serve.mjs --port ${port} --hostname 127.0.0.1 --processes 2`,

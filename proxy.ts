@@ -48,7 +48,7 @@ export async function proxy(request: NextRequest) {
 
 // API routes skip the proxy: they answer 401 and check origins themselves (withUser), renew the session
 // cookie on reads themselves, and their JSON needs no page policy; each request through the proxy costs
-// the server some milliseconds of CPU (README, Load).
+// the server some milliseconds of CPU (docs/performance.md, Session 4).
 export const config = {
   matcher: ['/((?!api/|_next/static|_next/image|favicon.ico).*)'],
 };

@@ -66,7 +66,7 @@ else
   cp .var/load-tsconfig.json tsconfig.json
 fi
 
-# The team topology (README, "Topology"): the web server only enqueues fits and forecasts, and one
+# The team topology (docs/operations.md, "Topology"): the web server only enqueues fits and forecasts, and one
 # worker process takes them (GATEWELL_LOAD_WORKERS=0 leaves the jobs to the web server instead).
 if [ "${GATEWELL_LOAD_WORKERS:-1}" -gt 0 ]; then
   export GATEWELL_JOB_WORKER=off

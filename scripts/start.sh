@@ -34,7 +34,7 @@ npx next build >.var/build.log 2>&1 || { tail -n 40 .var/build.log; say "the bui
 # sets another number), all on the one port.
 # Fits and forecasts are jobs on the queue in PostgreSQL. By default the web server takes them itself;
 # GATEWELL_WORKERS=N starts N separate worker processes instead (logs in .var/worker-N.log), as a
-# team install runs them on other machines (README, "Topology").
+# team install runs them on other machines (docs/operations.md, "Topology").
 workers=${GATEWELL_WORKERS:-0}
 if [ "$workers" -gt 0 ] 2>/dev/null; then
   export GATEWELL_JOB_WORKER=off

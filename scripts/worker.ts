@@ -1,5 +1,5 @@
 // Gatewell job worker: takes import, fit and forecast jobs from the queue in PostgreSQL until stopped.
-// Start as many as you like, on this machine or others that reach the database (README, "Topology"):
+// Start as many as you like, on this machine or others that reach the database (docs/operations.md, "Topology"):
 //   DATABASE_URL=postgres://… SESSION_SECRET=… node --conditions=react-server --import tsx scripts/worker.ts [--fits N] [--forecasts N] [--imports N] [--nice N] [--scheduling idle|nice]
 // --fits, --forecasts and --imports set how many jobs of each kind this process runs at once (default 2, 2, 1).
 // --nice sets the nice value of the process and of the PostgreSQL sessions it opens on this machine
