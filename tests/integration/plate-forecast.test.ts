@@ -45,7 +45,8 @@ describe('plate forecasts', () => {
     expect(list.compounds.map((c) => c.compound)).toEqual(['GW-0001', 'GW-0002', 'GW-0003', 'GW-0004', 'GW-0005']);
     const [target] = list.compounds[0]!.targets;
     expect(target).toMatchObject({ target: 'Nav1.7', conductance: 'gNa', use: 'used' });
-    // Simple pore block of the fitted IC50 and slope (Mirams et al. 2011), at 0.1 and 1 µM.
+    // Simple pore block of the fitted IC50 and slope (Mirams et al. 2011, tests/fixtures/check-values/
+    // pore-block-mirams-2011.json), at 0.1 and 1 µM.
     expect(target!.blockAtExposures).toEqual([0.1, 1].map((c) => poreBlockFraction(c, target!.ic50Um!, target!.hill!)));
     expect(list.compounds.every((c) => !c.stored && c.reason === null)).toBe(true);
     expect(list.caution).toMatch(/research decision support.*not a clinical or regulatory safety determination/);

@@ -1,4 +1,7 @@
-// Gatewell's Levenberg–Marquardt optimiser against NIST StRD nonlinear regression certified values.
+// Gatewell's Levenberg–Marquardt optimiser against NIST StRD nonlinear regression certified values
+// (tests/fixtures/check-values/nist-strd-rat42.json and nist-strd-rat43.json).
+import rat42Data from '../fixtures/check-values/nist-strd-rat42.json';
+import rat43Data from '../fixtures/check-values/nist-strd-rat43.json';
 import { describe, expect, test } from 'vitest';
 import { fitLeastSquares, type CurveModel } from '@/lib/science/levenberg-marquardt';
 
@@ -36,35 +39,25 @@ const rat43: CurveModel = {
   },
 };
 
-// NIST StRD Rat42 data and certified values.
-const RAT42 = {
-  x: [9, 14, 21, 28, 42, 57, 63, 70, 79],
-  y: [8.93, 10.8, 18.59, 22.33, 39.35, 56.11, 61.73, 64.62, 67.08],
-  starts: [
-    [100, 1, 0.1],
-    [75, 2.5, 0.07],
-  ],
-  b: [7.2462237576e1, 2.6180768402, 6.7359200066e-2],
-  sd: [1.7340283401, 8.8295217536e-2, 3.4465663377e-3],
-  rss: 8.0565229338,
-  residualSd: 1.1587725499,
-  df: 6,
-};
+/** A NIST StRD data set and its certified values, from its fixture file. */
+function certified(data: typeof rat42Data | typeof rat43Data) {
+  return {
+    x: data.x,
+    y: data.y,
+    starts: data.starts,
+    b: data.certified.parameters,
+    sd: data.certified.standardDeviations,
+    rss: data.certified.residualSumOfSquares,
+    residualSd: data.certified.residualStandardDeviation,
+    df: data.certified.degreesOfFreedom,
+  };
+}
 
-// NIST StRD Rat43 data and certified values.
-const RAT43 = {
-  x: Array.from({ length: 15 }, (_, i) => i + 1),
-  y: [16.08, 33.83, 65.8, 97.2, 191.55, 326.2, 386.87, 520.53, 590.03, 651.92, 724.93, 699.56, 689.96, 637.56, 717.41],
-  starts: [
-    [100, 10, 1, 1],
-    [700, 5, 0.75, 1.3],
-  ],
-  b: [6.996415127e2, 5.2771253025, 7.5962938329e-1, 1.2792483859],
-  sd: [1.6302297817e1, 2.0828735829, 1.9566123451e-1, 6.8761936385e-1],
-  rss: 8.786404908e3,
-  residualSd: 2.8262414662e1,
-  df: 11,
-};
+// NIST StRD Rat42 data and certified values (nist-strd-rat42.json).
+const RAT42 = certified(rat42Data);
+
+// NIST StRD Rat43 data and certified values (nist-strd-rat43.json).
+const RAT43 = certified(rat43Data);
 
 const relative = (actual: number, expected: number) => Math.abs(actual - expected) / Math.abs(expected);
 
@@ -85,7 +78,8 @@ describe.each([
 
 describe('bounds and inputs', () => {
   test('an upper bound below the optimum holds the parameter on the bound and fits the rest', () => {
-    // Certified Rat42 b1 = 72.46; capped at 70 the estimate must sit on 70 and the RSS must exceed the certified 8.0565.
+    // Certified Rat42 b1 = 72.46; capped at 70 the estimate must sit on 70 and the RSS must exceed the certified 8.0565
+    // (nist-strd-rat42.json).
     const fit = fitLeastSquares(rat42, RAT42.x, RAT42.y, { initial: [60, 1, 0.1], upper: [70, Infinity, Infinity] });
     expect(fit.converged).toBe(true);
     expect(fit.parameters[0]).toBe(70);

@@ -1,14 +1,23 @@
-// The Hill block formula against the pore-block worked values of Mirams et al. 2011.
+// The Hill block formula against the pore-block worked values of Mirams et al. 2011
+// (tests/fixtures/check-values/pore-block-mirams-2011.json).
+import poreBlock from '../fixtures/check-values/pore-block-mirams-2011.json';
 import { expect, test } from 'vitest';
 import { hillBlock, hillCurveModel } from '@/lib/science/hill-model';
 
-// Mirams et al. 2011, Cardiovasc Res 91:53–61: block = 1/(1 + (IC50/C)^h).
-test.each([
-  ['C = IC50', 2.5, 2.5, 1, 0.5],
-  ['h = 1, C = 10·IC50', 10 * 0.7, 0.7, 1, 0.909091],
-  ['h = 2, C = IC50/3', 4 / 3, 4, 2, 0.1],
-  ['C = 0', 0, 3, 1.3, 0],
-])('%s', (_case, concentration_uM, ic50_uM, h, expected) => {
+// Mirams et al. 2011, Cardiovasc Res 91:53–61: block = 1/(1 + (IC50/C)^h), at this test's own IC50
+// and slope (the slope only where the worked value holds for any slope).
+const chosen: Record<string, { ic50_uM: number; h: number }> = {
+  'C = IC50': { ic50_uM: 2.5, h: 1 },
+  'h = 1, C = 10·IC50': { ic50_uM: 0.7, h: 1 },
+  'h = 2, C = IC50/3': { ic50_uM: 4, h: 2 },
+  'C = 0': { ic50_uM: 3, h: 1.3 },
+};
+test.each(
+  poreBlock.workedValues.map((w) => {
+    const { ic50_uM, h } = chosen[w.case]!;
+    return [w.case, w.concentrationOverIc50 * ic50_uM, ic50_uM, w.hillSlope ?? h, w.blockFraction] as const;
+  }),
+)('%s', (_case, concentration_uM, ic50_uM, h, expected) => {
   expect(hillBlock(concentration_uM, ic50_uM, h)).toBeCloseTo(expected, 6);
   // The fitting model (on log10 C) gives the same value.
   const model = hillCurveModel('hill2');

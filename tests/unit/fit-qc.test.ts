@@ -1,4 +1,6 @@
 // Well QC: every reason, the defaults and their sources, and threshold checking.
+import commonPractice from '../fixtures/check-values/qc-common-practice.json';
+import lei from '../fixtures/check-values/qc-lei-2019.json';
 import { describe, expect, test } from 'vitest';
 import { checkWells, type QcWell } from '@/lib/science/qc';
 import { DEFAULT_QC_THRESHOLDS, resolveQcThresholds } from '@/lib/science/qc-thresholds';
@@ -16,17 +18,18 @@ const good: QcWell = {
 
 describe('well QC', () => {
   test('defaults: Lei et al. 2019 ranges (seal ≤ 1000 GΩ, capacitance 1–100 pF, series 1–25 MΩ); the rest common practice', () => {
-    // Lei et al. 2019, Biophys J 117:2438–2454: seal 0.1–1000 GΩ, capacitance 1–100 pF, series resistance 1–25 MΩ.
-    // Seal ≥ 0.5 GΩ, control current ≥ 200 pA and vehicle run-down ≤ 20 % are common practice (no source).
+    // Lei et al. 2019, Biophys J 117:2438–2454: seal 0.1–1000 GΩ, capacitance 1–100 pF, series resistance 1–25 MΩ
+    // (qc-lei-2019.json). Seal ≥ 0.5 GΩ, control current ≥ 200 pA and vehicle run-down ≤ 20 % are common
+    // practice, no source (qc-common-practice.json).
     expect(DEFAULT_QC_THRESHOLDS).toEqual({
-      sealResistanceMin_GOhm: 0.5,
-      sealResistanceMax_GOhm: 1000,
-      controlCurrentMin_pA: 200,
-      seriesResistanceMin_MOhm: 1,
-      seriesResistanceMax_MOhm: 25,
-      capacitanceMin_pF: 1,
-      capacitanceMax_pF: 100,
-      vehicleRundownMax: 0.2,
+      sealResistanceMin_GOhm: commonPractice.sealResistanceMin_GOhm,
+      sealResistanceMax_GOhm: lei.sealResistance_GOhm.max,
+      controlCurrentMin_pA: commonPractice.controlCurrentMin_pA,
+      seriesResistanceMin_MOhm: lei.seriesResistance_MOhm.min,
+      seriesResistanceMax_MOhm: lei.seriesResistance_MOhm.max,
+      capacitanceMin_pF: lei.capacitance_pF.min,
+      capacitanceMax_pF: lei.capacitance_pF.max,
+      vehicleRundownMax: commonPractice.vehicleRundownMax_fraction,
     });
   });
 

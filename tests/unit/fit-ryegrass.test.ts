@@ -1,27 +1,27 @@
 // Gatewell's four-parameter Hill fit against a published dose-response analysis (ryegrass, drc).
+// Data and estimates with their sources: tests/fixtures/check-values/ryegrass.json.
+import ryegrass from '../fixtures/check-values/ryegrass.json';
 import { describe, expect, test } from 'vitest';
 import { fitHillCurve } from '@/lib/science/hill-curve';
 import { resolveHillFitOptions } from '@/lib/science/hill-options';
 
 // Inderjit, Streibig & Olofsdotter 2002, Physiol Plant 114:422–428: ferulic acid (mM) vs ryegrass root
 // length (cm), 24 observations, as distributed with the R package drc.
-const conc = [0, 0, 0, 0, 0, 0, 0.94, 0.94, 0.94, 1.88, 1.88, 1.88, 3.75, 3.75, 3.75, 7.5, 7.5, 7.5, 15, 15, 15, 30, 30, 30];
-const rootLength = [
-  7.58, 8, 8.328571429, 7.25, 7.375, 7.9625, 8.355555556, 6.914285714, 7.75, 6.871428571, 6.45, 5.922222222, 1.925,
-  2.885714286, 4.233333333, 1.1875, 0.857142857, 1.057142857, 0.6875, 0.525, 0.825, 0.25, 0.22, 0.44,
-];
+const conc = ryegrass.concentration_mM;
+const rootLength = ryegrass.rootLength_cm;
 
 // drc documentation, four-parameter log-logistic f(x) = c + (d − c)/(1 + exp(b(ln x − ln e))).
 // Gatewell's Hill form bottom + (top − bottom)/(1 + (IC50/C)^n) is the same curve with
 // n = −b, bottom = c, top = d, IC50 = e.
+const drc = ryegrass.drcLogLogistic4;
 const DRC = {
-  b: { estimate: 2.98222, se: 0.46506 },
-  c: { estimate: 0.48141, se: 0.21219 },
-  d: { estimate: 7.79296, se: 0.18857 },
-  e: { estimate: 3.05795, se: 0.18573 },
-  residualSe: 0.5196256,
-  df: 20,
-  rss: 5.400215,
+  b: { estimate: drc.b_slope.estimate, se: drc.b_slope.standardError },
+  c: { estimate: drc.c_lower_cm.estimate, se: drc.c_lower_cm.standardError },
+  d: { estimate: drc.d_upper_cm.estimate, se: drc.d_upper_cm.standardError },
+  e: { estimate: drc.e_ed50_mM.estimate, se: drc.e_ed50_mM.standardError },
+  residualSe: drc.residualStandardError_cm,
+  df: drc.degreesOfFreedom,
+  rss: drc.residualSumOfSquares_cm2,
 };
 
 describe('ryegrass four-parameter fit (drc estimates)', () => {

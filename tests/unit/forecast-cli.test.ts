@@ -3,6 +3,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import numerical from '../fixtures/check-values/hodgkin-huxley-1952-numerical.json';
 import { afterAll, describe, expect, test } from 'vitest';
 
 const root = resolve(__dirname, '../..');
@@ -26,14 +27,15 @@ describe('forecast CLI', () => {
     expect(code).toBe(0);
     const out = JSON.parse(stdout);
     expect(Object.keys(out)).toEqual(['rest_mV', 'rheobase_uA_cm2', 'threshold_mV', 'rates_Hz', 'flags']);
-    // HH 1952 published behaviour (CHECK-VALUES.md): rest −64.996 mV, rheobase ≈ 2.24, ≈ 68.3 and 86.5 Hz.
-    expect(out.rest_mV).toBeCloseTo(-64.996, 3);
-    expect(Math.abs(out.rheobase_uA_cm2 - 2.24)).toBeLessThanOrEqual(0.005);
+    // HH 1952 behaviour (hodgkin-huxley-1952-numerical.json): rest −64.996 mV, rheobase ≈ 2.24, ≈ 68.3 and 86.5 Hz.
+    expect(out.rest_mV).toBeCloseTo(numerical.rest_mV, 3);
+    expect(Math.abs(out.rheobase_uA_cm2 - numerical.rheobase_uA_cm2)).toBeLessThanOrEqual(0.005);
     expect(Object.keys(out.rates_Hz)).toEqual(['10', '20']);
-    expect(Math.abs(out.rates_Hz['10'] - 68.3)).toBeLessThanOrEqual(0.1);
-    expect(Math.abs(out.rates_Hz['20'] - 86.5)).toBeLessThanOrEqual(0.1);
+    for (const { drive_uA_cm2, rate_Hz } of numerical.ratesFromRest_Hz) {
+      expect(Math.abs(out.rates_Hz[String(drive_uA_cm2)] - rate_Hz)).toBeLessThanOrEqual(0.1);
+    }
     // The reference drive is twice the rheobase (about 4.5 µA/cm²), below the HH axon's onset of repetitive
-    // firing (about 6.3 µA/cm², from memory: Rinzel & Miller 1980): it fires at the start, then stops.
+    // firing (the fold of limit cycles near 6.26 µA/cm², hodgkin-huxley-1952-bifurcations.json): it fires at the start, then stops.
     expect(out.flags).toEqual(['firing-stops']);
   });
 

@@ -1,4 +1,6 @@
 // The forecast request schema: what it accepts, and the exact messages people see when it refuses.
+import hhConstants from '../fixtures/check-values/hodgkin-huxley-1952.json';
+import numerical from '../fixtures/check-values/hodgkin-huxley-1952-numerical.json';
 import { describe, expect, test } from 'vitest';
 import { computeForecast } from '@/lib/science/forecast/forecast';
 import { describeIssues, forecastRequestSchema, parseForecastRequest } from '@/lib/science/forecast/request-schema';
@@ -47,7 +49,9 @@ describe('computeForecast', () => {
     const r = computeForecast({ preset: 'hh-squid-1952', block: { gNa: 0.3 }, protocol: { drives_uA_cm2: [20] }, trace: { points: 400 } });
     const c = r.conditions[0]!;
     expect(c.block).toEqual({ gNa: 0.3, gK: 0 });
-    expect(c.conductances_mS_cm2).toEqual({ gNa: 120 * 0.7, gK: 36, gL: 0.3 });
+    // HH 1952 Table 3 conductances (hodgkin-huxley-1952.json), gNa scaled by 1 − 0.3.
+    const g = hhConstants.conductances;
+    expect(c.conductances_mS_cm2).toEqual({ gNa: g.gNa.g_mS_cm2 * 0.7, gK: g.gK.g_mS_cm2, gL: g.gL.g_mS_cm2 });
     const s = c.shifts.rheobase_uA_cm2;
     expect(s.control).toBe(r.control.measures.rheobase_uA_cm2);
     expect(s.value).toBe(c.measures.rheobase_uA_cm2);
@@ -83,6 +87,6 @@ describe('computeForecast', () => {
     const r = computeForecast({ preset: 'hh-squid-1952', trace: false });
     expect(r.conditions).toEqual([]);
     expect(r.traces).toBeNull();
-    expect(r.control.measures.rest_mV).toBeCloseTo(-64.996, 3);
+    expect(r.control.measures.rest_mV).toBeCloseTo(numerical.rest_mV, 3); // hodgkin-huxley-1952-numerical.json
   });
 });

@@ -1,3 +1,4 @@
+import tQuantiles from '../fixtures/check-values/student-t-quantiles.json';
 import { describe, expect, test } from 'vitest';
 import { hillBand } from '@/lib/science/hill-band';
 import { fitHill } from '@/lib/science/hill-fit';
@@ -24,7 +25,8 @@ describe('confidence band of a Hill fit', () => {
     // For hill2, ∂f/∂log10IC50 at C = IC50 is −n·ln10·s(1−s) = −n·ln10/4 and ∂f/∂n is 0 there,
     // so Var f = (n·ln10/4)²·Var(log10 IC50). t from jStat; worked by hand (no outside source).
     const [point] = hillBand('hill2', e.parameters, e.covariance, e.degreesOfFreedom, [e.ic50_uM]);
-    const t = 2.4469118511449692; // t₀.₉₇₅ with 6 degrees of freedom (standard t tables: 2.447)
+    // t₀.₉₇₅ with 6 degrees of freedom (student-t-quantiles.json; standard t tables: 2.447).
+    const t = tQuantiles.quantiles.find((q) => q.probability === 0.975 && q.degreesOfFreedom === e.degreesOfFreedom)!.t;
     const expected = t * e.log10Ic50Se! * (e.hillSlope * Math.LN10) / 4;
     expect(point!.high! - point!.block).toBeCloseTo(expected, 8);
   });

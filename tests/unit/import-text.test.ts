@@ -1,10 +1,12 @@
+import utf8 from '../fixtures/check-values/utf8-well-formed-unicode.json';
 import { describe, expect, test } from 'vitest';
 import { sniffUpload } from '@/lib/imports/sniff-upload';
 import { decodeText, firstInvalidUtf8 } from '@/lib/imports/text-decoding';
 
-// Well-formed UTF-8 byte sequences: RFC 3629 section 4 and the Unicode Standard, table 3-7.
+// Well-formed UTF-8 byte sequences: RFC 3629 section 4 and the Unicode Standard, table 3-7
+// (utf8-well-formed-unicode.json in tests/fixtures/check-values).
 describe('firstInvalidUtf8', () => {
-  test.each<[string, number[], number]>([
+  const cases: [string, number[], number][] = [
     ['ASCII', [0x41, 0x42], 2],
     ['µ (C2 B5)', [0x41, 0xc2, 0xb5], 3],
     ['Ω (E2 84 A6)', [0xe2, 0x84, 0xa6], 3],
@@ -15,8 +17,30 @@ describe('firstInvalidUtf8', () => {
     ['a surrogate (ED A0 80)', [0xed, 0xa0, 0x80], 0],
     ['above U+10FFFF (F4 90 80 80)', [0xf4, 0x90, 0x80, 0x80], 0],
     ['a truncated sequence at the end', [0x41, 0xe2, 0x84], 1],
-  ])('%s', (_name, bytes, expected) => {
+  ];
+  test.each(cases)('%s', (_name, bytes, expected) => {
     expect(firstInvalidUtf8(new Uint8Array(bytes))).toBe(expected);
+  });
+
+  test('the expected offsets above agree with a plain reading of table 3-7', () => {
+    // Each row of the table: the allowed range of each byte ("C2..DF", or one byte "E0").
+    const rows = utf8.wellFormedSequences.map((row) =>
+      row.bytes.map((range) => {
+        const [lo, hi = lo] = range.split('..').map((hex) => parseInt(hex, 16));
+        return [lo!, hi!] as const;
+      }),
+    );
+    const firstIllFormed = (bytes: number[]) => {
+      let i = 0;
+      while (i < bytes.length) {
+        const at = i;
+        const row = rows.find((r) => r.every(([lo, hi], k) => at + k < bytes.length && bytes[at + k]! >= lo && bytes[at + k]! <= hi));
+        if (!row) return i;
+        i += row.length;
+      }
+      return i;
+    };
+    for (const [, bytes, expected] of cases) expect(firstIllFormed(bytes)).toBe(expected);
   });
 });
 

@@ -1,10 +1,12 @@
+import si from '../fixtures/check-values/si-prefixes-bipm-2019.json';
 import { describe, expect, test } from 'vitest';
 import { readQuantity, readText } from '@/lib/imports/read-cell';
 import { fromCanonical, parseUnit, toCanonical, type QuantityKind, type Unit } from '@/lib/imports/units';
 
-// Unit factors are SI prefixes (BIPM SI Brochure, 9th edition, table 7): p = 1e-12, n = 1e-9, µ = 1e-6, m = 1e-3, M = 1e6, G = 1e9.
+// Unit factors are SI prefixes (BIPM SI Brochure, 9th edition, table 7; si-prefixes-bipm-2019.json in
+// tests/fixtures/check-values): p = 1e-12, n = 1e-9, µ = 1e-6, m = 1e-3, M = 1e6, G = 1e9.
 describe('toCanonical', () => {
-  test.each<[number, Unit, QuantityKind, number]>([
+  const cases: [number, Unit, QuantityKind, number][] = [
     [1000, 'nM', 'concentration', 1],
     [300, 'nM', 'concentration', 0.3],
     [0.3, 'nM', 'concentration', 0.0003],
@@ -20,8 +22,19 @@ describe('toCanonical', () => {
     [7.5, 'MOhm', 'seriesResistance', 7.5],
     [0.018, 'nF', 'capacitance', 18],
     [18, 'pF', 'capacitance', 18],
-  ])('%d %s of %s is %d in the canonical unit', (value, unit, kind, expected) => {
+  ];
+  test.each(cases)('%d %s of %s is %d in the canonical unit', (value, unit, kind, expected) => {
     expect(toCanonical(value, unit, kind)).toBe(expected);
+  });
+
+  test('the expected values above follow from the SI prefixes', () => {
+    // Canonical units: µM, pA, GΩ (seal), MΩ (series), pF. Each unit's prefix, and each kind's canonical prefix.
+    const prefix: Record<Unit, keyof typeof si.prefixFactors> = { pM: 'p', nM: 'n', uM: 'µ', mM: 'm', M: '', pA: 'p', nA: 'n', MOhm: 'M', GOhm: 'G', pF: 'p', nF: 'n' };
+    const canonical: Record<QuantityKind, keyof typeof si.prefixFactors> = { concentration: 'µ', current: 'p', sealResistance: 'G', seriesResistance: 'M', capacitance: 'p' };
+    for (const [value, unit, kind, expected] of cases) {
+      const fromPrefixes = (value * si.prefixFactors[prefix[unit]]) / si.prefixFactors[canonical[kind]];
+      expect(Math.abs(expected - fromPrefixes)).toBeLessThanOrEqual(1e-12 * Math.abs(expected));
+    }
   });
 
   test('fromCanonical undoes toCanonical', () => {

@@ -1,6 +1,7 @@
 // Blocking a conductance moves excitability the way cellular physiology expects. These are
 // qualitative expectations of common practice (textbook pharmacology of Na and K channel blockers),
 // not published numbers; each test says which direction and why.
+import bifurcations from '../fixtures/check-values/hodgkin-huxley-1952-bifurcations.json';
 import { describe, expect, test } from 'vitest';
 import { measureExcitability, type Excitability } from '@/lib/science/neuron/excitability';
 import { simulate } from '@/lib/science/neuron/integrate';
@@ -105,14 +106,15 @@ describe('M-current block (gM) removes spike-frequency adaptation (Pospischil et
   });
 });
 
-// From memory (Rinzel & Miller 1980, the HH equations' bifurcations): the unblocked HH axon fires
-// repetitively for a step only above about 6.3 µA/cm², so at twice its 2.24 µA/cm² rheobase it fires at
-// the start of the step and then stops, while 200 µA/cm² holds it depolarised.
+// The unblocked HH axon fires repetitively for a step only above the fold of limit cycles, 6.2603 µA/cm²
+// (hodgkin-huxley-1952-bifurcations.json: Hendrick; classically Rinzel & Miller 1980, from memory), so at
+// twice its 2.24 µA/cm² rheobase it fires at the start of the step and then stops, while 200 µA/cm² holds it
+// depolarised.
 test('HH at 200 µA/cm² sits in depolarisation block; at the reference drive (2 × rheobase) it fires, then stops', () => {
   const e = measure('hh-squid-1952', {}, [200]);
   expect(e.flags).toEqual(['depolarisation-block', 'firing-stops']);
   const reference = measure('hh-squid-1952', {});
-  expect(reference.referenceDrive_uA_cm2!).toBeLessThan(6.3);
+  expect(reference.referenceDrive_uA_cm2!).toBeLessThan(bifurcations.limitCycleFold_uA_cm2);
   expect(reference.reference!.spikes).toBeGreaterThan(0);
   expect(reference.flags).toEqual(['firing-stops']);
   // Above the repetitive-firing onset the same axon fires through the step: no flag.

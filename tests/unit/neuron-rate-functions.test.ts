@@ -1,4 +1,8 @@
-// Rate functions of the neuron presets, including the removable 0/0 points.
+// Rate functions of the neuron presets, including the removable 0/0 points. Published formulas and
+// constants come from tests/fixtures/check-values/ (hodgkin-huxley-1952*.{json,ts}, pospischil-2008-rates.ts).
+import hhConstants from '../fixtures/check-values/hodgkin-huxley-1952.json';
+import { hhRates_per_ms as hh } from '../fixtures/check-values/hodgkin-huxley-1952-rates';
+import { singularLimits as traubLimits, traubRates_per_ms as traub } from '../fixtures/check-values/pospischil-2008-rates';
 import { describe, expect, test } from 'vitest';
 import { evaluateRate, expLinear } from '@/lib/science/neuron/rate-forms';
 import { hhSquid1952 } from '@/lib/science/neuron/presets/hh-squid-1952';
@@ -11,24 +15,14 @@ function kinetics(preset: NeuronPreset, conductance: string, gate: string): Alph
   return k;
 }
 
-// Hodgkin & Huxley 1952 rate functions as written in CHECK-VALUES.md (the NEURON hh.mod form), ms⁻¹.
-const hh = {
-  am: (v: number) => (0.1 * (v + 40)) / (1 - Math.exp(-(v + 40) / 10)),
-  bm: (v: number) => 4 * Math.exp(-(v + 65) / 18),
-  ah: (v: number) => 0.07 * Math.exp(-(v + 65) / 20),
-  bh: (v: number) => 1 / (1 + Math.exp(-(v + 35) / 10)),
-  an: (v: number) => (0.01 * (v + 55)) / (1 - Math.exp(-(v + 55) / 10)),
-  bn: (v: number) => 0.125 * Math.exp(-(v + 65) / 80),
-};
-
 describe('Hodgkin–Huxley 1952 rates', () => {
   const m = kinetics(hhSquid1952, 'gNa', 'm');
   const h = kinetics(hhSquid1952, 'gNa', 'h');
   const n = kinetics(hhSquid1952, 'gK', 'n');
 
-  test('αm = 1 ms⁻¹ at −40 mV and αn = 0.1 ms⁻¹ at −55 mV (limits of the 0/0, CHECK-VALUES.md)', () => {
-    expect(evaluateRate(m.alpha, -40)).toBe(1);
-    expect(evaluateRate(n.alpha, -55)).toBeCloseTo(0.1, 15);
+  test('αm = 1 ms⁻¹ at −40 mV and αn = 0.1 ms⁻¹ at −55 mV (limits of the 0/0, hodgkin-huxley-1952.json)', () => {
+    expect(evaluateRate(m.alpha, -40)).toBe(hhConstants.rateLimits.alphaM_at_minus40_mV_per_ms);
+    expect(evaluateRate(n.alpha, -55)).toBeCloseTo(hhConstants.rateLimits.alphaN_at_minus55_mV_per_ms, 15);
   });
 
   test.each([-40 - 1e-9, -40 + 1e-9, -40 - 1e-5, -40 + 1e-5, -40.001, -39.999])('αm is continuous through −40 mV (V = %s)', (v) => {
@@ -37,52 +31,44 @@ describe('Hodgkin–Huxley 1952 rates', () => {
     expect(evaluateRate(m.alpha, v)).toBeCloseTo(1 + x / 2 + (x * x) / 12, 12);
   });
 
-  test.each([-90, -77, -65, -54.387, -30, 0, 20, 50])('every rate matches the published formula at %s mV', (v) => {
-    expect(evaluateRate(m.alpha, v)).toBeCloseTo(hh.am(v), 12);
-    expect(evaluateRate(m.beta, v)).toBeCloseTo(hh.bm(v), 12);
-    expect(evaluateRate(h.alpha, v)).toBeCloseTo(hh.ah(v), 12);
-    expect(evaluateRate(h.beta, v)).toBeCloseTo(hh.bh(v), 12);
-    expect(evaluateRate(n.alpha, v)).toBeCloseTo(hh.an(v), 12);
-    expect(evaluateRate(n.beta, v)).toBeCloseTo(hh.bn(v), 12);
+  test.each([-90, -77, -65, -54.387, -30, 0, 20, 50])('every rate matches the published formula (hodgkin-huxley-1952-rates.ts) at %s mV', (v) => {
+    expect(evaluateRate(m.alpha, v)).toBeCloseTo(hh.alphaM(v), 12);
+    expect(evaluateRate(m.beta, v)).toBeCloseTo(hh.betaM(v), 12);
+    expect(evaluateRate(h.alpha, v)).toBeCloseTo(hh.alphaH(v), 12);
+    expect(evaluateRate(h.beta, v)).toBeCloseTo(hh.betaH(v), 12);
+    expect(evaluateRate(n.alpha, v)).toBeCloseTo(hh.alphaN(v), 12);
+    expect(evaluateRate(n.beta, v)).toBeCloseTo(hh.betaN(v), 12);
   });
 
-  test('preset constants are those of HH 1952 Table 3, modern convention (CHECK-VALUES.md)', () => {
+  test('preset constants are those of HH 1952 Table 3, modern convention (hodgkin-huxley-1952.json)', () => {
     const g = Object.fromEntries(hhSquid1952.conductances.map((c) => [c.name, [c.g_mS_cm2, c.reversal_mV]]));
-    expect(g).toEqual({ gNa: [120, 50], gK: [36, -77], gL: [0.3, -54.387] });
-    expect(hhSquid1952.capacitance_uF_cm2).toBe(1);
-    expect(hhSquid1952.temperature_C).toBe(6.3);
+    const published = Object.fromEntries(Object.entries(hhConstants.conductances).map(([name, c]) => [name, [c.g_mS_cm2, c.reversal_mV]]));
+    expect(g).toEqual(published);
+    expect(hhSquid1952.capacitance_uF_cm2).toBe(hhConstants.capacitance_uF_cm2);
+    expect(hhSquid1952.temperature_C).toBe(hhConstants.temperature_C);
   });
 });
 
 describe('Pospischil et al. 2008 regular-spiking rates (V_T = −55 mV, as in the authors’ sPY_template)', () => {
-  // HH_traub.mod as distributed with the paper: v2 = V − V_T; removable 0/0 where the numerator vanishes,
-  // limits 0.32·4, 0.28·5 and 0.032·5 (l'Hôpital).
-  const v2 = (v: number) => v + 55;
-  const traub = {
-    am: (v: number) => (0.32 * (13 - v2(v))) / (Math.exp((13 - v2(v)) / 4) - 1),
-    bm: (v: number) => (0.28 * (v2(v) - 40)) / (Math.exp((v2(v) - 40) / 5) - 1),
-    ah: (v: number) => 0.128 * Math.exp((17 - v2(v)) / 18),
-    bh: (v: number) => 4 / (1 + Math.exp((40 - v2(v)) / 5)),
-    an: (v: number) => (0.032 * (15 - v2(v))) / (Math.exp((15 - v2(v)) / 5) - 1),
-    bn: (v: number) => 0.5 * Math.exp((10 - v2(v)) / 40),
-  };
+  // HH_traub.mod as distributed with the paper (pospischil-2008-rates.ts): v2 = V − V_T; removable 0/0
+  // where the numerator vanishes, limits 0.32·4, 0.28·5 and 0.032·5 (l'Hôpital).
   const m = kinetics(pospischilRs2008, 'gNa', 'm');
   const h = kinetics(pospischilRs2008, 'gNa', 'h');
   const n = kinetics(pospischilRs2008, 'gK', 'n');
 
   test('limits at the singular points: αm(−42) = 1.28, βm(−15) = 1.4, αn(−40) = 0.16 ms⁻¹', () => {
-    expect(evaluateRate(m.alpha, -42)).toBeCloseTo(1.28, 14);
-    expect(evaluateRate(m.beta, -15)).toBeCloseTo(1.4, 14);
-    expect(evaluateRate(n.alpha, -40)).toBeCloseTo(0.16, 14);
+    const gate = { alphaM: m.alpha, betaM: m.beta, alphaN: n.alpha };
+    expect(traubLimits.map((l) => l.rate)).toEqual(['alphaM', 'betaM', 'alphaN']);
+    for (const l of traubLimits) expect(evaluateRate(gate[l.rate], l.v_mV)).toBeCloseTo(l.limit_per_ms, 14);
   });
 
-  test.each([-100, -70.5, -55, -30, 0, 30])('every rate matches HH_traub.mod at %s mV', (v) => {
-    expect(evaluateRate(m.alpha, v)).toBeCloseTo(traub.am(v), 12);
-    expect(evaluateRate(m.beta, v)).toBeCloseTo(traub.bm(v), 12);
-    expect(evaluateRate(h.alpha, v)).toBeCloseTo(traub.ah(v), 12);
-    expect(evaluateRate(h.beta, v)).toBeCloseTo(traub.bh(v), 12);
-    expect(evaluateRate(n.alpha, v)).toBeCloseTo(traub.an(v), 12);
-    expect(evaluateRate(n.beta, v)).toBeCloseTo(traub.bn(v), 12);
+  test.each([-100, -70.5, -55, -30, 0, 30])('every rate matches HH_traub.mod (pospischil-2008-rates.ts) at %s mV', (v) => {
+    expect(evaluateRate(m.alpha, v)).toBeCloseTo(traub.alphaM(v), 12);
+    expect(evaluateRate(m.beta, v)).toBeCloseTo(traub.betaM(v), 12);
+    expect(evaluateRate(h.alpha, v)).toBeCloseTo(traub.alphaH(v), 12);
+    expect(evaluateRate(h.beta, v)).toBeCloseTo(traub.betaH(v), 12);
+    expect(evaluateRate(n.alpha, v)).toBeCloseTo(traub.alphaN(v), 12);
+    expect(evaluateRate(n.beta, v)).toBeCloseTo(traub.betaN(v), 12);
   });
 
   test('conductance names and which may be blocked', () => {

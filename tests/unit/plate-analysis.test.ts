@@ -2,7 +2,8 @@ import { describe, expect, test } from 'vitest';
 import { analysePlate, fitKey, type AnalysisReadout, type AnalysisWell } from '@/lib/science/plate-analysis';
 
 // Noise-free generated plate: currents follow simple pore block, block = 1/(1+(IC50/C)^h)
-// (Mirams et al. 2011, Cardiovasc Res 91:53–61), so the fit must return the generating IC50.
+// (Mirams et al. 2011, Cardiovasc Res 91:53–61; pore-block-mirams-2011.json in tests/fixtures/check-values),
+// so the fit must return the generating IC50.
 const TRUE_IC50_UM = 0.3;
 const TRUE_HILL = 1.2;
 const CONCENTRATIONS_UM = [0.01, 0.03, 0.1, 0.3, 1, 3, 10];
@@ -59,7 +60,8 @@ describe('plate analysis', () => {
   test('Z′ per target comes from vehicle and reference wells', () => {
     const { wells, readouts } = plate();
     const [target] = analysePlate(wells, readouts).targets;
-    // Identical controls: σ = 0, so Z′ = 1 − 0/|μp − μn| = 1 (Zhang, Chung & Oldenburg 1999 definition).
+    // Identical controls: σ = 0, so Z′ = 1 − 0/|μp − μn| = 1 (Zhang, Chung & Oldenburg 1999 definition,
+    // zprime-zhang-1999.json).
     expect(target!.zPrime.zPrime).toBeCloseTo(1, 12);
   });
 });
