@@ -1,6 +1,6 @@
 // Gatewell's Levenberg–Marquardt optimiser against NIST StRD nonlinear regression certified values.
 import { describe, expect, test } from 'vitest';
-import { fitLeastSquares, type CurveModel } from '@/lib/science/levenberg-marquardt';
+import { fitLeastSquares, type CurveModel } from '@/lib/science/fit/levenberg-marquardt';
 
 // NIST StRD Rat42 (Ratkowsky 1983): y = b1/(1 + exp(b2 − b3·x)).
 const rat42: CurveModel = {

@@ -1,6 +1,6 @@
 // The Hill block formula against the pore-block worked values of Mirams et al. 2011.
 import { expect, test } from 'vitest';
-import { hillBlock, hillCurveModel } from '@/lib/science/hill-model';
+import { hillBlock, hillCurveModel } from '@/lib/science/fit/hill-model';
 
 // Mirams et al. 2011, Cardiovasc Res 91:53–61: block = 1/(1 + (IC50/C)^h).
 test.each([

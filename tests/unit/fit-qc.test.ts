@@ -1,7 +1,7 @@
 // Well QC: every reason, the defaults and their sources, and threshold checking.
 import { describe, expect, test } from 'vitest';
-import { checkWells, type QcWell } from '@/lib/science/qc';
-import { DEFAULT_QC_THRESHOLDS, resolveQcThresholds } from '@/lib/science/qc-thresholds';
+import { checkWells, type QcWell } from '@/lib/science/qc/qc';
+import { DEFAULT_QC_THRESHOLDS, resolveQcThresholds } from '@/lib/science/qc/qc-thresholds';
 
 /** A well inside every default limit (values invented for the test). */
 const good: QcWell = {
