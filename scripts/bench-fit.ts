@@ -5,10 +5,10 @@
 // (half-log 0.01–30 µM, one well each) = 320 wells, plus 32 vehicle and 32 reference-blocker wells.
 // Each well is read for 2 targets (for example peak and late current of one voltage protocol),
 // so a plate has 80 compound × target fits of 8 wells each.
-import { computeFractionalBlock, type BlockWell } from '../lib/science/block';
-import { fitCompoundCurves, type CurvePoint } from '../lib/science/compound-fits';
-import { hillBlock, type HillModelName } from '../lib/science/hill-model';
-import { checkWells, type QcWell } from '../lib/science/qc';
+import { computeFractionalBlock, type BlockWell } from '../lib/science/fit/block';
+import { fitCompoundCurves, type CurvePoint } from '../lib/science/fit/compound-fits';
+import { hillBlock, type HillModelName } from '../lib/science/fit/hill-model';
+import { checkWells, type QcWell } from '../lib/science/qc/qc';
 
 const SERIES_uM = [0.01, 0.03, 0.1, 0.3, 1, 3, 10, 30];
 const TARGETS = ['peak', 'late'];

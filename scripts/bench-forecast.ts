@@ -1,10 +1,12 @@
-// Gatewell forecast benchmark: `npx tsx scripts/bench-forecast.ts [repeats]` prints figures; it checks
-// nothing and times no test. For each preset: one rheobase bisection from rest, one 1 s voltage trace,
-// and a whole forecast (control + 4 concentrations: rheobase, threshold, rate at 2× control rheobase)
-// in this thread and on the worker pool (cache emptied before each run). Median and range over repeats,
-// after one warm-up run (rate tables built, code compiled).
+// Gatewell forecast benchmark:
+//   node --conditions=react-server --import tsx scripts/bench-forecast.ts [repeats]
+// prints figures; it checks nothing and times no test (the condition lets the worker pool, server code
+// in lib/compute, load outside Next). For each preset: one rheobase bisection from rest, one 1 s voltage
+// trace, and a whole forecast (control + 4 concentrations: rheobase, threshold, rate at 2× control
+// rheobase) in this thread and on the worker pool (cache emptied before each run). Median and range
+// over repeats, after one warm-up run (rate tables built, code compiled).
 import { computeForecast } from '../lib/science/forecast/forecast';
-import { clearForecastCache, closeForecastPool, runForecast } from '../lib/science/forecast/pool';
+import { clearForecastCache, closeForecastPool, runForecast } from '../lib/compute/forecast-pool';
 import { compileModel } from '../lib/science/neuron/model';
 import { getPreset, PRESET_NAMES } from '../lib/science/neuron/presets';
 import { findRest } from '../lib/science/neuron/rest';

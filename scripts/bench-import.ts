@@ -11,6 +11,7 @@ import { db } from '@/lib/db';
 import { guessMapping } from '@/lib/imports/guess-mapping';
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
 import { validatePlateSheet } from '@/lib/imports/validate-plate-sheet';
+import { parsedPlateInput } from '@/lib/plates/analysis-input';
 import { analysisSettings } from '@/lib/plates/settings';
 import { storePlate } from '@/lib/plates/store';
 import { analysePlate } from '@/lib/science/plate-analysis';
@@ -40,13 +41,11 @@ async function once(bytes: Uint8Array) {
   );
   if (!preview.ok || !preview.plate) throw new Error(`the demo export did not validate: ${preview.issues[0]?.message}`);
   const plate = preview.plate;
-  const [, analyseMs] = await time(() =>
-    analysePlate(
-      plate.wells.map((w, i) => ({ id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false })),
-      plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: `${i}-${r.target}`, wellId: String(i), target: r.target, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa }))),
-      analysisSettings(screen),
-    ),
-  );
+  const [, analyseMs] = await time(() => {
+    // As a preview analyses it (lib/plates/import-service.ts), fits included.
+    const { wells, readouts } = parsedPlateInput(plate);
+    return analysePlate(wells, readouts, analysisSettings(screen));
+  });
   const [user] = await sequelize.query<{ id: string }>("select u.id from users u join user_roles r on r.user_id = u.id where r.role = 'biologist' limit 1", { type: QueryTypes.SELECT });
   const actor = user && (await loadActor(user.id, '127.0.0.1'));
   if (!actor) throw new Error('no biologist in this database: seed it first');

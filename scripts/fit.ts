@@ -3,7 +3,7 @@
 // Exit 0 with the fit (whatever its status), 1 for input that cannot be read or is invalid, 2 for wrong usage.
 import { z } from 'zod';
 import { readCliInput } from './cli-input';
-import { fitHill, type HillFitResult } from '../lib/science/hill-fit';
+import { fitHill, type HillFitResult } from '../lib/science/fit/hill-fit';
 
 const pointSchema = z.strictObject({
   concentration_uM: z.number({ error: 'must be a number (µM)' }).nonnegative({ error: 'must be ≥ 0 µM' }),

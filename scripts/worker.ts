@@ -11,7 +11,7 @@
 // SIGINT/SIGTERM stop it gracefully: jobs under way finish, waiting jobs stay for other workers.
 import { parseArgs } from 'node:util';
 import { runInBackground } from '../lib/jobs/background-priority';
-import { closeForecastPool } from '../lib/science/forecast/pool';
+import { closeForecastPool } from '../lib/compute/forecast-pool';
 import { startJobWorkers, stopJobWorkers } from '../lib/jobs/worker';
 
 async function main(): Promise<void> {

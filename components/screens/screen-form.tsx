@@ -8,7 +8,7 @@ import type { ScreenDetail } from '@/lib/screens/list';
 
 type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
-/** Values a new screen starts from: the QC defaults of lib/science/qc-thresholds.ts. */
+/** Values a new screen starts from: the QC defaults of lib/science/qc/qc-thresholds.ts. */
 const NEW_SCREEN = { zprimeMin: 0.5, sealMinGohm: 0.5, controlCurrentMinPa: 200, seriesMaxMohm: 25, capacitanceMinPf: 1, capacitanceMaxPf: 100, rundownMaxFraction: 0.2 };
 
 export function ScreenForm({ action, screen, presets, submitLabel }: {

@@ -4,7 +4,7 @@ import { contentSha256 } from '@/lib/auth/canonical-json';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import type { ForecastResult } from '@/lib/science/forecast/assemble';
-import { runForecast } from '@/lib/science/forecast/pool';
+import { runForecast } from '@/lib/compute/forecast-pool';
 import { ForecastRequestError, parseForecastRequest, type ForecastRequest } from '@/lib/science/forecast/request-schema';
 import { waitForJob } from '@/lib/jobs/progress';
 import { enqueueJob } from '@/lib/jobs/queue';

@@ -2,7 +2,7 @@ import 'server-only';
 import { QueryTypes } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
-import { hillBand, type BandPoint } from '@/lib/science/hill-band';
+import { hillBand, type BandPoint } from '@/lib/science/fit/hill-band';
 import type { FitView } from '@/lib/validation/plates';
 import { listPlateFits, type FitRow } from './detail';
 

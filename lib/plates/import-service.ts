@@ -13,6 +13,7 @@ import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-pl
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { queueImportNotices } from '@/lib/signoff/import-notice';
 import { ImportTemplate, Screen, Target } from '@/models';
+import { parsedPlateInput } from './analysis-input';
 import { analysisSettings } from './settings';
 import { findDuplicateUpload, sha256Hex, storePlate } from './store';
 
@@ -93,12 +94,8 @@ export async function previewImport(actor: Actor, request: PreviewRequest, optio
 
 /** QC messages per spreadsheet row, from the same analysis the commit stores. */
 function qcByRow(preview: PlatePreview, settings: ReturnType<typeof analysisSettings>): Record<number, string[]> {
-  const plate = preview.plate!;
-  const wells = plate.wells.map((w, i) => ({
-    id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentrationUm,
-    sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false,
-  }));
-  const readouts = plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), target: r.target, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa })));
+  // Readouts are named by their spreadsheet row (parsedPlateInput), so the messages map back to rows.
+  const { wells, readouts } = parsedPlateInput(preview.plate!);
   const analysis = analysePlate(wells, readouts, settings);
   return Object.fromEntries(analysis.readouts.filter((r) => r.qcReasons.length).map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]));
 }

@@ -3,6 +3,7 @@ import type { Transaction } from 'sequelize';
 import { enqueueJob, type QueuedJob } from '@/lib/jobs/queue';
 import { analysePlate, fitKey, type PlateAnalysis } from '@/lib/science/plate-analysis';
 import { Fit, Plate, Readout, Screen, Well } from '@/models';
+import { analysisInput } from './analysis-input';
 import { fitRow } from './fit-row';
 import { analysisSettings } from './settings';
 
@@ -14,15 +15,8 @@ async function analyseStored(plate: Plate, transaction: Transaction, fits: boole
   // Each fit keeps its chosen model; QC alone (fits: false) needs none of them.
   const previous = fits ? await Fit.findAll({ where: { plateId: plate.id }, transaction }) : [];
   const chosen = Object.fromEntries(previous.map((f) => [fitKey(f.compoundId, f.targetId), f.model]));
-  const analysis = analysePlate(
-    wells.map((w) => ({
-      id: w.id, role: w.role, compoundId: w.compoundId, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm,
-      seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: w.excluded,
-    })),
-    readouts.map((r) => ({ id: r.id, wellId: r.wellId, target: r.targetId, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa })),
-    analysisSettings(screen, chosen),
-    { fits },
-  );
+  const science = analysisInput(wells, readouts);
+  const analysis = analysePlate(science.wells, science.readouts, analysisSettings(screen, chosen), { fits });
   return { analysis, readouts };
 }
 

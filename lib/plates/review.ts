@@ -4,7 +4,7 @@ import { recordAudit } from '@/lib/audit/record';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import type { HillModelName } from '@/lib/science/hill-model';
+import type { HillModelName } from '@/lib/science/fit/hill-model';
 import { Fit, Plate, Well } from '@/models';
 import type { PlateState } from '@/models/plate';
 import { recomputePlate } from './recompute';

@@ -1,5 +1,5 @@
 import type { AnalysisSettings } from '@/lib/science/plate-analysis';
-import type { HillModelName } from '@/lib/science/hill-model';
+import type { HillModelName } from '@/lib/science/fit/hill-model';
 
 export interface ScreenLimits {
   sealMinGohm: number;

@@ -5,8 +5,9 @@ import { recordAudit } from '@/lib/audit/record';
 import type { Actor } from '@/lib/auth/roles';
 import { AppError } from '@/lib/errors';
 import type { ParsedPlate } from '@/lib/imports/build-plate';
-import { analysePlate, type AnalysisReadout, type AnalysisWell } from '@/lib/science/plate-analysis';
+import { analysePlate } from '@/lib/science/plate-analysis';
 import { Plate, Screen, Target, UploadedFile } from '@/models';
+import { analysisInput, type ReadoutData } from './analysis-input';
 import { queueRefit } from './recompute';
 import { analysisSettings } from './settings';
 
@@ -86,14 +87,12 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
     { transaction },
   );
   const plateId = randomUUID();
-  const wells: AnalysisWell[] = [];
-  const readouts: AnalysisReadout[] = [];
+  const readouts: ReadoutData[] = [];
   const wellRows = input.plate.wells.map((w) => {
     const id = randomUUID();
     const compoundId = w.role === 'test' ? ids.compound(w.compound) : null;
-    wells.push({ id, role: w.role, compoundId, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false });
     for (const r of w.readouts) {
-      readouts.push({ id: randomUUID(), wellId: id, target: ids.target(r.target), controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa });
+      readouts.push({ id: randomUUID(), wellId: id, targetId: ids.target(r.target), controlCurrentPa: r.controlCurrentPa, compoundCurrentPa: r.compoundCurrentPa });
     }
     return {
       id, plateId, position: w.position, rowIndex: w.rowIndex, columnIndex: w.columnIndex, role: w.role, compoundId, batchId: null,
@@ -102,7 +101,8 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
     };
   });
   // QC, block and Z′ are stored with the plate; the fits come from the job queued below.
-  const analysis = analysePlate(wells, readouts, analysisSettings(screen), { fits: false });
+  const science = analysisInput(wellRows, readouts);
+  const analysis = analysePlate(science.wells, science.readouts, analysisSettings(screen), { fits: false });
 
   await Plate.create(
     { id: plateId, screenId: screen.id, uploadedFileId: file.id, importTemplateId: input.importTemplateId ?? null, supersedesPlateId: input.supersedesPlateId ?? null, label: input.label, format: input.plate.format, importedBy: actor.id, verifiedBy: null, submittedBy: null, decidedBy: null, qcSummary: analysis.targets, fitsPending: true, fitsRequestedAt: new Date(), fittedAt: null },
@@ -115,7 +115,7 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
     concentration_um: w.concentrationUm, seal_resistance_gohm: w.sealResistanceGohm, series_resistance_mohm: w.seriesResistanceMohm, capacitance_pf: w.capacitancePf,
   })), transaction);
   await insertRows('readouts', READOUT_COLUMNS, readouts.map((r, i) => ({
-    id: r.id, well_id: r.wellId, target_id: r.target, control_current_pa: r.controlCurrent_pA, compound_current_pa: r.compoundCurrent_pA,
+    id: r.id, well_id: r.wellId, target_id: r.targetId, control_current_pa: r.controlCurrentPa, compound_current_pa: r.compoundCurrentPa,
     fractional_block: analysis.readouts[i]!.block, qc_reasons: analysis.readouts[i]!.qcReasons,
   })), transaction);
   const fitJob = await queueRefit(plateId, actor.id, transaction);

@@ -1,12 +1,12 @@
 // A whole plate through the science: well QC per readout, fractional block and Z′ per target, Hill fits
 // per compound × target. Pure and deterministic; the import and every exclusion change call it.
-import { computeFractionalBlock, type BlockNoteCode } from './block';
-import { fitHill, type HillFitResult } from './hill-fit';
-import type { HillModelName } from './hill-model';
-import { checkWells, type QcReason } from './qc';
-import type { QcThresholds } from './qc-thresholds';
-import type { WellRole } from './well';
-import type { ZPrimeResult } from './zprime';
+import { computeFractionalBlock, type BlockNoteCode } from './fit/block';
+import { fitHill, type HillFitResult } from './fit/hill-fit';
+import type { HillModelName } from './fit/hill-model';
+import { checkWells, type QcReason } from './qc/qc';
+import type { QcThresholds } from './qc/qc-thresholds';
+import type { WellRole } from './qc/well';
+import type { ZPrimeResult } from './qc/zprime';
 
 export interface AnalysisWell {
   id: string;

@@ -6,7 +6,7 @@ import type { Actor } from '@/lib/auth/roles';
 import { getCompoundProfile } from '@/lib/compounds/profile';
 import { db } from '@/lib/db';
 import { getCompoundForecast } from '@/lib/forecasts/compound-forecast';
-import { closeForecastPool } from '@/lib/science/forecast/pool';
+import { closeForecastPool } from '@/lib/compute/forecast-pool';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { importDemoPlate } from '../support/demo-plates';

@@ -9,7 +9,7 @@ import { compoundExport } from '@/lib/exports/compound-export';
 import { plateExport } from '@/lib/exports/plate-export';
 import { auditedExportResponse, exportResponse } from '@/lib/exports/respond';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
-import { closeForecastPool } from '@/lib/science/forecast/pool';
+import { closeForecastPool } from '@/lib/compute/forecast-pool';
 import { compoundExportQuerySchema, plateExportQuerySchema } from '@/lib/validation/exports';
 import { AuditEvent, Compound, Signature, SignoffEvent } from '@/models';
 import { makeActor } from '../support/actors';

@@ -16,7 +16,7 @@ import { startJobWorkers, stopJobWorkers, sweepJobs } from '@/lib/jobs/worker';
 import { listPlateFits, listPlateWells } from '@/lib/plates/detail';
 import { commitImport } from '@/lib/plates/import-service';
 import { setWellExclusion } from '@/lib/plates/review';
-import { closeForecastPool } from '@/lib/science/forecast/pool';
+import { closeForecastPool } from '@/lib/compute/forecast-pool';
 import { signPlateStep } from '@/lib/signoff/service';
 import { ComputeJob, Fit, Plate, Signature } from '@/models';
 import { makeActor } from '../support/actors';

@@ -9,7 +9,7 @@ import { db } from '@/lib/db';
 import { getPlateForecast, listPlateForecasts } from '@/lib/forecasts/plate-forecast';
 import { listPlateWells } from '@/lib/plates/detail';
 import { setWellExclusion } from '@/lib/plates/review';
-import { closeForecastPool } from '@/lib/science/forecast/pool';
+import { closeForecastPool } from '@/lib/compute/forecast-pool';
 import { poreBlockFraction } from '@/lib/science/forecast/pore-block';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';

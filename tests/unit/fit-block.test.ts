@@ -1,7 +1,7 @@
 // Fractional block per well: run-down correction, normalisation, Z′ per target, excluded wells.
 import { describe, expect, test } from 'vitest';
-import { computeFractionalBlock, type BlockWell } from '@/lib/science/block';
-import type { WellRole } from '@/lib/science/well';
+import { computeFractionalBlock, type BlockWell } from '@/lib/science/fit/block';
+import type { WellRole } from '@/lib/science/qc/well';
 
 const well = (wellId: string, role: WellRole, control: number | null, compound: number | null, excluded = false, target = 'NaV'): BlockWell => ({
   wellId,

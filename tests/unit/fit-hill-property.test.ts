@@ -1,8 +1,8 @@
 // Property tests: a Hill fit recovers the parameters of noise-free data generated from known values.
 import fc from 'fast-check';
 import { expect, test } from 'vitest';
-import { fitHill } from '@/lib/science/hill-fit';
-import { hillBlock } from '@/lib/science/hill-model';
+import { fitHill } from '@/lib/science/fit/hill-fit';
+import { hillBlock } from '@/lib/science/fit/hill-model';
 
 // Half-log series over 3.5 decades, as on a typical 8-point plate layout (Gatewell's demo layout, invented).
 const SERIES_uM = [0.01, 0.03, 0.1, 0.3, 1, 3, 10, 30];

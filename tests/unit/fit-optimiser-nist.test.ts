@@ -3,7 +3,7 @@
 import rat42Data from '../fixtures/check-values/nist-strd-rat42.json';
 import rat43Data from '../fixtures/check-values/nist-strd-rat43.json';
 import { describe, expect, test } from 'vitest';
-import { fitLeastSquares, type CurveModel } from '@/lib/science/levenberg-marquardt';
+import { fitLeastSquares, type CurveModel } from '@/lib/science/fit/levenberg-marquardt';
 
 // NIST StRD Rat42 (Ratkowsky 1983): y = b1/(1 + exp(b2 − b3·x)).
 const rat42: CurveModel = {

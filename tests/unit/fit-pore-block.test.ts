@@ -2,7 +2,7 @@
 // (tests/fixtures/check-values/pore-block-mirams-2011.json).
 import poreBlock from '../fixtures/check-values/pore-block-mirams-2011.json';
 import { expect, test } from 'vitest';
-import { hillBlock, hillCurveModel } from '@/lib/science/hill-model';
+import { hillBlock, hillCurveModel } from '@/lib/science/fit/hill-model';
 
 // Mirams et al. 2011, Cardiovasc Res 91:53–61: block = 1/(1 + (IC50/C)^h), at this test's own IC50
 // and slope (the slope only where the worked value holds for any slope).

@@ -2,8 +2,8 @@
 import commonPractice from '../fixtures/check-values/qc-common-practice.json';
 import lei from '../fixtures/check-values/qc-lei-2019.json';
 import { describe, expect, test } from 'vitest';
-import { checkWells, type QcWell } from '@/lib/science/qc';
-import { DEFAULT_QC_THRESHOLDS, resolveQcThresholds } from '@/lib/science/qc-thresholds';
+import { checkWells, type QcWell } from '@/lib/science/qc/qc';
+import { DEFAULT_QC_THRESHOLDS, resolveQcThresholds } from '@/lib/science/qc/qc-thresholds';
 
 /** A well inside every default limit (values invented for the test). */
 const good: QcWell = {

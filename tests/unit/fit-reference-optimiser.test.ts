@@ -1,9 +1,9 @@
 // Gatewell's Hill fits agree with an independent optimiser (ml-levenberg-marquardt) on generated data.
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { describe, expect, test } from 'vitest';
-import { fitHillCurve } from '@/lib/science/hill-curve';
-import { hillBlock, hillCurveModel, type HillModelName } from '@/lib/science/hill-model';
-import { resolveHillFitOptions } from '@/lib/science/hill-options';
+import { fitHillCurve } from '@/lib/science/fit/hill-curve';
+import { hillBlock, hillCurveModel, type HillModelName } from '@/lib/science/fit/hill-model';
+import { resolveHillFitOptions } from '@/lib/science/fit/hill-options';
 
 /** Deterministic Gaussian noise (mulberry32 + Box–Muller) so the generated data are the same every run. */
 function gaussian(seed: number): () => number {

@@ -2,8 +2,8 @@
 // Data and estimates with their sources: tests/fixtures/check-values/ryegrass.json.
 import ryegrass from '../fixtures/check-values/ryegrass.json';
 import { describe, expect, test } from 'vitest';
-import { fitHillCurve } from '@/lib/science/hill-curve';
-import { resolveHillFitOptions } from '@/lib/science/hill-options';
+import { fitHillCurve } from '@/lib/science/fit/hill-curve';
+import { resolveHillFitOptions } from '@/lib/science/fit/hill-options';
 
 // Inderjit, Streibig & Olofsdotter 2002, Physiol Plant 114:422–428: ferulic acid (mM) vs ryegrass root
 // length (cm), 24 observations, as distributed with the R package drc.

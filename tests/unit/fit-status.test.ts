@@ -1,8 +1,8 @@
 // Every outcome of a Hill fit, table-driven: status, message, flags, excluded wells and replicates.
 import { describe, expect, test } from 'vitest';
-import { fitHill, type HillFitInput, type HillFitStatus } from '@/lib/science/hill-fit';
-import type { HillFitOptions } from '@/lib/science/hill-options';
-import { hillBlock } from '@/lib/science/hill-model';
+import { fitHill, type HillFitInput, type HillFitStatus } from '@/lib/science/fit/hill-fit';
+import type { HillFitOptions } from '@/lib/science/fit/hill-options';
+import { hillBlock } from '@/lib/science/fit/hill-model';
 
 const SERIES_uM = [0.1, 0.3, 1, 3, 10, 30];
 /** Noise-free hill2 block at the series above (values from the Hill equation, no fit involved). */

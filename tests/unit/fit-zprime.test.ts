@@ -1,7 +1,7 @@
 // Z′ factor, its bands and the plate limit. Published values: tests/fixtures/check-values/zprime-zhang-1999.json.
 import zhang from '../fixtures/check-values/zprime-zhang-1999.json';
 import { describe, expect, test } from 'vitest';
-import { plateZPrime, zPrimeBand, zPrimeFromStatistics } from '@/lib/science/zprime';
+import { plateZPrime, zPrimeBand, zPrimeFromStatistics } from '@/lib/science/qc/zprime';
 
 describe('Z′ (Zhang, Chung & Oldenburg 1999, J Biomol Screen 4:67–73)', () => {
   test('worked case: μp 100, σp 5, μn 10, σn 5 gives Z′ = 0.6667 (zprime-zhang-1999.json)', () => {

@@ -1,7 +1,7 @@
 // The worker-thread pool gives exactly the in-thread forecast, and caches results.
 import { afterAll, beforeEach, expect, test } from 'vitest';
 import { computeForecast } from '@/lib/science/forecast/forecast';
-import { clearForecastCache, closeForecastPool, FORECAST_WORKER_FILE, forecastPoolStats, runForecast } from '@/lib/science/forecast/pool';
+import { clearForecastCache, closeForecastPool, FORECAST_WORKER_FILE, forecastPoolStats, runForecast } from '@/lib/compute/forecast-pool';
 import { ForecastRequestError } from '@/lib/science/forecast/request-schema';
 
 afterAll(closeForecastPool);
@@ -16,7 +16,7 @@ const request = {
 } as const;
 
 test('the worker file is resolved from the repository root', () => {
-  expect(FORECAST_WORKER_FILE).toBe(`${process.cwd()}/lib/science/forecast/forecast-worker.ts`);
+  expect(FORECAST_WORKER_FILE).toBe(`${process.cwd()}/lib/compute/forecast-worker.ts`);
 });
 
 test('runForecast on worker threads returns the same as computeForecast', async () => {

@@ -1,7 +1,7 @@
 import tQuantiles from '../fixtures/check-values/student-t-quantiles.json';
 import { describe, expect, test } from 'vitest';
-import { hillBand } from '@/lib/science/hill-band';
-import { fitHill } from '@/lib/science/hill-fit';
+import { hillBand } from '@/lib/science/fit/hill-band';
+import { fitHill } from '@/lib/science/fit/hill-fit';
 
 describe('confidence band of a Hill fit', () => {
   // Generated data with known truth (IC50 1 µM, slope 1) plus fixed alternating offsets of ±0.03.

@@ -58,7 +58,7 @@ test('the same seed gives the same plate; failing wells fail as planned', () => 
   const first = makeDemoPlate(plan!);
   expect(makeDemoPlate(plan!).bytes).toEqual(first.bytes);
   const byWell = new Map(first.wells.map((well) => [well.position, well]));
-  // Thresholds the demo aims past: seal 0.5 GΩ, |control| 200 pA, series 25 MΩ (lib/science/qc-thresholds.ts defaults).
+  // Thresholds the demo aims past: seal 0.5 GΩ, |control| 200 pA, series 25 MΩ (lib/science/qc/qc-thresholds.ts defaults).
   expect(byWell.get('B03')!.sealResistanceGohm).toBeLessThan(0.5);
   expect(Math.abs(byWell.get('E05')!.controlCurrentPa!)).toBeLessThan(200);
   expect(byWell.get('G08')!.seriesResistanceMohm).toBeGreaterThan(25);

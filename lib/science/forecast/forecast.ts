@@ -5,7 +5,7 @@ import { runMeasureTask, runTraceTask } from './tasks';
 
 /**
  * Excitability forecast computed in this thread: control, every blocked condition and the traces.
- * The app calls runForecast (pool.ts) instead, which does the same work on worker threads.
+ * The app calls runForecast (lib/compute/forecast-pool.ts) instead, which does the same work on worker threads.
  * Throws ForecastRequestError on an invalid request.
  */
 export function computeForecast(input: unknown): ForecastResult {

@@ -13,4 +13,3 @@ export { DEFAULT_FORECAST_PROTOCOL, planForecast, type ForecastPlan, type Foreca
 export { FORECAST_CAUTION, type ConditionForecast, type ConditionMeasures, type ForecastResult, type Shift } from './assemble';
 export { computeForecast } from './forecast';
 export { runForecastTask, type ForecastTask, type MeasureTask, type TraceTask } from './tasks';
-export { LruCache } from './lru-cache';

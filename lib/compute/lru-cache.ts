@@ -1,3 +1,4 @@
+import 'server-only';
 /**
  * Bounded least-recently-used cache on a Map (insertion order = recency). The lru-cache package
  * would do; it is not among the project's declared dependencies.

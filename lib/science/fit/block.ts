@@ -1,7 +1,7 @@
 // Fractional block per well, corrected for vehicle run-down, with plate Z′ per target.
 import { mean } from 'simple-statistics';
-import type { WellRole } from './well';
-import { plateZPrime, type ZPrimeResult } from './zprime';
+import type { WellRole } from '../qc/well';
+import { plateZPrime, type ZPrimeResult } from '../qc/zprime';
 
 export interface BlockWell {
   wellId: string;

@@ -1,17 +1,22 @@
+import 'server-only';
 import { createHash } from 'node:crypto';
 import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { Piscina } from 'piscina';
-import type { VoltageTrace } from '../neuron/downsample';
-import type { Excitability } from '../neuron/excitability';
-import { assembleForecast, type ForecastResult } from './assemble';
+import { assembleForecast, type ForecastResult } from '@/lib/science/forecast/assemble';
+import { conditionTasks, controlTask, planForecast, traceTasks } from '@/lib/science/forecast/plan';
+import { parseForecastRequest } from '@/lib/science/forecast/request-schema';
+import type { ForecastTask, MeasureTask, TraceTask } from '@/lib/science/forecast/tasks';
+import type { VoltageTrace } from '@/lib/science/neuron/downsample';
+import type { Excitability } from '@/lib/science/neuron/excitability';
 import { LruCache } from './lru-cache';
-import { conditionTasks, controlTask, planForecast, traceTasks } from './plan';
-import { parseForecastRequest } from './request-schema';
-import type { ForecastTask, MeasureTask, TraceTask } from './tasks';
 
-/** The worker file, resolved from the repository root (the app and scripts run from there). */
-export const FORECAST_WORKER_FILE = path.join(process.cwd(), 'lib', 'science', 'forecast', 'forecast-worker.ts');
+/**
+ * The worker file, resolved from the repository root (the app and scripts run from there): the
+ * TypeScript source, never a bundled copy, so that the app's build, tsx scripts and Vitest all start
+ * the same file.
+ */
+export const FORECAST_WORKER_FILE = path.join(process.cwd(), 'lib', 'compute', 'forecast-worker.ts');
 
 /** Results kept per preset + scaled conductances + protocol (one entry per condition or trace). */
 export const FORECAST_CACHE_ENTRIES = 500;

@@ -1,0 +1,59 @@
+import 'server-only';
+import type { ParsedPlate } from '@/lib/imports/build-plate';
+import type { AnalysisReadout, AnalysisWell } from '@/lib/science/plate-analysis';
+
+/** What the analysis reads of a well, named as the wells table names it (a `Well`, or a row about to be stored). */
+export interface WellData {
+  id: string;
+  role: AnalysisWell['role'];
+  compoundId: string | null;
+  concentrationUm: number | null;
+  sealResistanceGohm: number | null;
+  seriesResistanceMohm: number | null;
+  capacitancePf: number | null;
+  /** @default false (a well not stored yet has not been excluded by anyone) */
+  excluded?: boolean;
+}
+
+/** What the analysis reads of a readout, named as the readouts table names it (a `Readout`, or a row about to be stored). */
+export interface ReadoutData {
+  id: string;
+  wellId: string;
+  targetId: string;
+  controlCurrentPa: number | null;
+  compoundCurrentPa: number | null;
+}
+
+/** The wells and readouts `analysePlate` takes (lib/science/plate-analysis.ts). */
+export interface AnalysisInput {
+  wells: AnalysisWell[];
+  readouts: AnalysisReadout[];
+}
+
+/**
+ * Stored plate data as the analysis input: the one place where the columns of wells and readouts
+ * become the science's names and units. Order is kept, so the analysis's readouts line up with `readouts`.
+ */
+export function analysisInput(wells: readonly WellData[], readouts: readonly ReadoutData[]): AnalysisInput {
+  return {
+    wells: wells.map((w) => ({
+      id: w.id, role: w.role, compoundId: w.compoundId, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm,
+      seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: w.excluded ?? false,
+    })),
+    readouts: readouts.map((r) => ({ id: r.id, wellId: r.wellId, target: r.targetId, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa })),
+  };
+}
+
+/**
+ * A parsed export before anything is stored (previews, benchmarks): each well is named by its place
+ * in the plate's list, each readout by its spreadsheet row, compounds and targets by the names in the file.
+ */
+export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
+  return analysisInput(
+    plate.wells.map((w, i) => ({
+      id: String(i), role: w.role, compoundId: w.compound, concentrationUm: w.concentrationUm,
+      sealResistanceGohm: w.sealResistanceGohm, seriesResistanceMohm: w.seriesResistanceMohm, capacitancePf: w.capacitancePf,
+    })),
+    plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), targetId: r.target, controlCurrentPa: r.controlCurrentPa, compoundCurrentPa: r.compoundCurrentPa }))),
+  );
+}
