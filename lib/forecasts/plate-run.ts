@@ -2,17 +2,10 @@ import 'server-only';
 import { loadActor } from '@/lib/auth/load-actor';
 import type { Actor } from '@/lib/auth/roles';
 import { AppError } from '@/lib/errors';
+import type { JobContext } from '@/lib/jobs/job-types';
+import type { PlateForecastsPayload } from '@/lib/jobs/payloads';
 import { enqueueJob, type QueuedJob } from '@/lib/jobs/queue';
-import type { Progress } from '@/lib/jobs/worker';
 import { getPlateForecast, listPlateForecasts } from './plate-forecast';
-
-/** The job data of a forecast run over a plate. */
-export interface PlateForecastsJobData {
-  plateId: string;
-  /** Exposure index for the traces (default the highest). */
-  at: number | null;
-  requestedBy: string;
-}
 
 /**
  * Queues a forecast run over the plate: every compound with usable potencies whose forecast is not
@@ -22,13 +15,12 @@ export async function startPlateForecasts(actor: Actor, plateId: string, at: num
   const list = await listPlateForecasts(actor, plateId);
   const total = list.compounds.filter((c) => c.reason === null && !c.stored).length;
   if (total === 0) throw new AppError('conflict', `Every forecast of plate ${list.plate.label} that can be computed is stored already.`);
-  const data: PlateForecastsJobData = { plateId, at, requestedBy: actor.id };
-  const job = await enqueueJob({ kind: 'plate-forecasts', key: `plate-forecasts:${plateId}`, data: { ...data }, plateId, requestedBy: actor.id, total });
+  const job = await enqueueJob({ kind: 'plate-forecasts', key: `plate-forecasts:${plateId}`, data: { plateId, at, requestedBy: actor.id }, plateId, requestedBy: actor.id, total });
   return { ...job, total };
 }
 
-/** The forecast run's work, on a worker: computes each missing forecast here and reports progress. */
-export async function runPlateForecasts(data: PlateForecastsJobData, progress: Progress): Promise<string> {
+/** The plate-forecasts job's handler (lib/jobs/registry.ts): computes each missing forecast here and reports progress. */
+export async function runPlateForecasts(data: PlateForecastsPayload, { progress }: Pick<JobContext, 'progress'>): Promise<string> {
   const actor = await loadActor(data.requestedBy, 'job');
   if (!actor) throw new AppError('invalid', 'The person who asked for this run can no longer sign in.');
   const list = await listPlateForecasts(actor, data.plateId);

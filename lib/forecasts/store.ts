@@ -6,6 +6,7 @@ import { AppError } from '@/lib/errors';
 import type { ForecastResult } from '@/lib/science/forecast/assemble';
 import { runForecast } from '@/lib/compute/forecast-pool';
 import { ForecastRequestError, parseForecastRequest, type ForecastRequest } from '@/lib/science/forecast/request-schema';
+import type { ForecastPayload } from '@/lib/jobs/payloads';
 import { waitForJob } from '@/lib/jobs/progress';
 import { enqueueJob } from '@/lib/jobs/queue';
 import { Forecast } from '@/models';
@@ -53,7 +54,7 @@ export async function storedKeys(plateId: string, inputSha256s: string[]): Promi
 
 /**
  * Computes a forecast here, on this process's worker threads, and stores it (the forecast job's work,
- * lib/jobs/worker.ts). Two computations racing for the same input store one row.
+ * runForecastJob). Two computations racing for the same input store one row.
  */
 export async function computeAndStoreForecast(owner: ForecastOwner, request: ForecastRequest): Promise<StoredForecast> {
   const { input, inputSha256 } = forecastInput(request);
@@ -82,10 +83,10 @@ export async function computeAndStoreForecast(owner: ForecastOwner, request: For
 /** How long a web request waits for a queued forecast before answering that it is still queued. */
 export const FORECAST_WAIT_MS = 45_000;
 
-/** The job data of one forecast: who it belongs to and the request. */
-export interface ForecastJobData {
-  owner: ForecastOwner;
-  request: ForecastRequest;
+/** The forecast job's handler (lib/jobs/registry.ts): computes and stores the forecast here. */
+export async function runForecastJob(payload: ForecastPayload): Promise<string> {
+  const stored = await computeAndStoreForecast(payload.owner, payload.request);
+  return stored.reused ? 'Already stored.' : 'Computed and stored.';
 }
 
 /**
@@ -104,9 +105,8 @@ export async function storedOrComputedForecast(owner: ForecastOwner, request: Fo
     if (error instanceof ForecastRequestError) throw new AppError('invalid', `The forecast cannot run: ${error.message}`);
     throw error;
   }
-  const data: ForecastJobData = { owner, request };
   const job = await enqueueJob({
-    kind: 'forecast', key: `forecast:${owner.plateId ?? 'profile'}:${owner.compoundId}:${inputSha256}`, data: data as unknown as Record<string, unknown>,
+    kind: 'forecast', key: `forecast:${owner.plateId ?? 'profile'}:${owner.compoundId}:${inputSha256}`, data: { owner, request },
     plateId: owner.plateId, compoundId: owner.compoundId, requestedBy: options.requestedBy ?? null, joinRunning: true,
   });
   const finished = await waitForJob(job.id, FORECAST_WAIT_MS);

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { WellRole } from './import-fields';
 import { PLATE_FORMATS, type PlateFormat } from './plate-format';
 import type { PreviewRow } from './read-row';

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { ImportField } from './import-fields';
 import { makeIssue, type ImportIssueCode } from './import-issue';
 import { normaliseLabel } from './normalise-text';

@@ -1,3 +1,4 @@
+import 'server-only';
 import { HEADER_RULES } from './header-words';
 import { splitHeaderUnit } from './header-unit';
 import { IMPORT_FIELDS, REQUIRED_FIELDS, UNIT_FIELDS, type ImportField, type UnitField } from './import-fields';

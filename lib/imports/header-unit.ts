@@ -1,3 +1,4 @@
+import 'server-only';
 import { parseUnit, type QuantityKind } from './units';
 
 const KINDS: QuantityKind[] = ['concentration', 'current', 'sealResistance', 'capacitance'];

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { ImportField } from './import-fields';
 
 /** How Gatewell recognises a field in a header whose unit has been removed and that was normalised ("icontrol"). */

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { ImportField } from './import-fields';
 
 /** Stable codes of everything Gatewell may say about a sheet or one of its rows. */

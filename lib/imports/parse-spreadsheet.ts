@@ -1,3 +1,4 @@
+import 'server-only';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { checkPlainSheets } from './plain-sheets';

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Cell, SheetData } from './spreadsheet-types';
 
 /** Checks that what came back from the parse worker is sheets of plain cells, and copies it; null if not. */

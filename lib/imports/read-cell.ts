@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Cell } from './spreadsheet-types';
 import { parseUnit, toCanonical, UNIT_LABEL, unitsOf, type QuantityKind, type Unit } from './units';
 

@@ -1,3 +1,4 @@
+import 'server-only';
 import { FIELD_LABEL, type ImportField, type UnitField, type WellRole } from './import-fields';
 import { makeIssue, type ImportIssue, type ImportIssueCode } from './import-issue';
 import { UNIT_KIND } from './guess-mapping';

@@ -1,3 +1,4 @@
+import 'server-only';
 import { FIELD_LABEL, IMPORT_FIELDS, REQUIRED_FIELDS, type ImportField } from './import-fields';
 import { makeIssue, type ImportIssue } from './import-issue';
 import type { ColumnMapping } from './mapping-schema';

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { WellRole } from './import-fields';
 import type { ColumnMapping } from './mapping-schema';
 import { normaliseIdentifier, normaliseLabel } from './normalise-text';

@@ -1,3 +1,4 @@
+import 'server-only';
 import { decodeText } from './text-decoding';
 import type { SpreadsheetError } from './spreadsheet-types';
 

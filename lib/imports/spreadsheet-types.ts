@@ -1,3 +1,4 @@
+import 'server-only';
 // Plain data that leaves the parse worker: what a sheet holds, and why a file could not be read.
 
 /** One cell as Gatewell keeps it: text, a finite number, a boolean, or nothing. Dates arrive as ISO 8601 text. */

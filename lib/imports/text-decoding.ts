@@ -1,3 +1,4 @@
+import 'server-only';
 // Decoding uploaded delimited text: UTF-8 (with or without a byte-order mark) or UTF-16 with a mark.
 
 /** Decoded text, or where the bytes stop being valid UTF-8 (0-based byte offset, 1-based line). */

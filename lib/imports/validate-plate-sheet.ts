@@ -1,3 +1,4 @@
+import 'server-only';
 import { buildPlate, type ParsedPlate } from './build-plate';
 import { checkPlateRows } from './check-plate-rows';
 import type { ImportField } from './import-fields';

@@ -5,38 +5,20 @@ import { Op, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
 import { env } from '@/lib/env';
 import { ComputeJob } from '@/models';
+import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job-kinds';
+import { checkJobPayload, JOB_KINDS, queueOptions, type JobPayload } from './kinds';
+import { lockJobKey, QUEUE_SCHEMA } from './queries';
 import { notifyWorkers } from './wake';
-import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job';
 
 /**
  * Gatewell's job queue: fits and forecasts are jobs on pg-boss queues in the same PostgreSQL database
  * (schema "pgboss"), taken by worker processes on any machine that reaches the database
  * (scripts/worker.ts, and the web server itself unless GATEWELL_JOB_WORKER=off). Each job also has a
  * compute_jobs row, written in the same transaction as the job, that holds what people see of it.
+ * What each kind is (queue, payload schema, retry policy) is in lib/jobs/kinds.ts.
  */
 
-export const QUEUE_SCHEMA = 'pgboss';
-
-/** Queue name per kind of job. */
-export const QUEUE_NAMES: Record<ComputeJobKind, string> = {
-  'plate-fits': 'gatewell-plate-fits',
-  forecast: 'gatewell-forecast',
-  'plate-forecasts': 'gatewell-plate-forecasts',
-  'plate-import': 'gatewell-plate-import',
-};
-
-/**
- * Policy "short": at most one job per key waits in the queue, so a burst of changes to one plate
- * queues one refit, and many people asking for one forecast queue one computation. Imports are
- * "standard": every upload is a job of its own.
- */
-const QUEUE_OPTIONS: Record<ComputeJobKind, Omit<PgBoss.Queue, 'name'>> = {
-  'plate-fits': { policy: 'short', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 },
-  forecast: { policy: 'short', retryLimit: 2, retryDelay: 2, expireInSeconds: 300 },
-  'plate-forecasts': { policy: 'short', retryLimit: 1, retryDelay: 5, expireInSeconds: 3600 },
-  // Every upload is its own job, never retried: the request waiting on it has told the person what happened.
-  'plate-import': { policy: 'standard', retryLimit: 0, expireInSeconds: 120 },
-};
+export { QUEUE_SCHEMA };
 
 interface QueueState {
   boss: Promise<PgBoss> | null;
@@ -61,7 +43,7 @@ export function jobQueue(): Promise<PgBoss> {
     });
     boss.on('error', (error: Error) => console.error(`[gatewell jobs] ${error.message}`));
     await boss.start();
-    for (const kind of COMPUTE_JOB_KINDS) await boss.createQueue(QUEUE_NAMES[kind], { name: QUEUE_NAMES[kind], ...QUEUE_OPTIONS[kind] });
+    for (const kind of COMPUTE_JOB_KINDS) await boss.createQueue(JOB_KINDS[kind].queue, queueOptions(kind));
     return boss;
   })().catch((error: unknown) => {
     state.boss = null;
@@ -94,17 +76,24 @@ export function wakeWorkers(kind: ComputeJobKind): void {
   void state.boss?.then((boss) => wakeLocalWorkers(boss, kind), () => undefined);
 }
 
+/** Cancels a job that no worker has taken (its compute_jobs row is the caller's to close). */
+export async function cancelJob(kind: ComputeJobKind, jobId: string): Promise<void> {
+  const boss = await jobQueue();
+  await boss.cancel(JOB_KINDS[kind].queue, jobId);
+}
+
 /** pg-boss writes the job through the transaction's own connection, so the job exists only if the transaction commits. */
 function throughTransaction(transaction: Transaction): PgBoss.Db {
   const connection = (transaction as unknown as { connection: ClientBase }).connection;
   return { executeSql: (text, values) => connection.query(text, values) };
 }
 
-export interface JobRequest {
-  kind: ComputeJobKind;
+export interface JobRequest<Kind extends ComputeJobKind = ComputeJobKind> {
+  kind: Kind;
   /** The work it stands for; a second request with the same key while one waits joins that one. */
   key: string;
-  data: Record<string, unknown>;
+  /** The payload, checked against the kind's schema (lib/jobs/payloads.ts) before anything is written. */
+  data: JobPayload<Kind>;
   plateId?: string | null;
   compoundId?: string | null;
   requestedBy: string | null;
@@ -125,20 +114,22 @@ export interface QueuedJob {
 
 /**
  * Puts a job on its queue with its compute_jobs row, inside the caller's transaction when given (the
- * job then exists only if that transaction commits), otherwise in a transaction of its own.
+ * job then exists only if that transaction commits), otherwise in a transaction of its own. A payload
+ * that does not match its kind's schema is refused with a JobPayloadError before anything is written.
  */
-export async function enqueueJob(request: JobRequest, transaction?: Transaction): Promise<QueuedJob> {
+export async function enqueueJob<Kind extends ComputeJobKind>(request: JobRequest<Kind>, transaction?: Transaction): Promise<QueuedJob> {
+  const data = checkJobPayload(request.kind, request.data);
   const boss = await jobQueue();
   const open = (t: Transaction, states: ComputeJob['state'][]) =>
     ComputeJob.findOne({ where: { jobKey: request.key, kind: request.kind, state: { [Op.in]: states } }, order: [['createdAt', 'DESC']], transaction: t });
   const run = async (t: Transaction): Promise<QueuedJob> => {
     // One enqueue per key at a time: a second request sees the first one's job once it is committed.
-    await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', { replacements: { key: `job:${request.key}` }, transaction: t });
+    await lockJobKey(request.key, t);
     if (request.joinRunning) {
       const running = await open(t, ['queued', 'running']);
       if (running) return { id: running.id, created: false };
     }
-    const id = await boss.send(QUEUE_NAMES[request.kind], request.data, { singletonKey: request.key, db: throughTransaction(t) });
+    const id = await boss.send(JOB_KINDS[request.kind].queue, data, { singletonKey: request.key, db: throughTransaction(t) });
     if (id) {
       await ComputeJob.create(
         { id, kind: request.kind, jobKey: request.key, plateId: request.plateId ?? null, compoundId: request.compoundId ?? null, requestedBy: request.requestedBy, total: request.total ?? null },

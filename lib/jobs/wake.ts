@@ -1,9 +1,9 @@
 import 'server-only';
 import pg from 'pg';
 import type { Transaction } from 'sequelize';
-import { db } from '@/lib/db';
 import { env } from '@/lib/env';
-import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job';
+import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job-kinds';
+import { listenOn, notifyChannel } from './queries';
 
 /**
  * Wakes workers in other processes when a job is queued. pg-boss workers look for jobs on a timer
@@ -16,7 +16,7 @@ export const WAKE_CHANNEL = 'gatewell_jobs';
 
 /** Notifies the listening workers of a job of this kind, delivered when the transaction commits. */
 export async function notifyWorkers(kind: ComputeJobKind, transaction: Transaction): Promise<void> {
-  await db().query('select pg_notify(:channel, :kind)', { replacements: { channel: WAKE_CHANNEL, kind }, transaction });
+  await notifyChannel(WAKE_CHANNEL, kind, transaction);
 }
 
 interface Listener {
@@ -62,7 +62,7 @@ export function listenForJobs(wake: (kind: ComputeJobKind) => void): Listener {
     });
     try {
       await next.connect();
-      await next.query(`listen ${WAKE_CHANNEL}`);
+      await listenOn(next, WAKE_CHANNEL);
       delay = RECONNECT_MS.first;
       if (stopped) await next.end();
     } catch {

@@ -1,40 +1,22 @@
 import 'server-only';
 import { hostname } from 'node:os';
 import type PgBoss from 'pg-boss';
-import { Op, QueryTypes } from 'sequelize';
+import { Op } from 'sequelize';
 import { db } from '@/lib/db';
 import { isAppError } from '@/lib/errors';
-import { runPlateForecasts, type PlateForecastsJobData } from '@/lib/forecasts/plate-run';
-import { computeAndStoreForecast, type ForecastJobData } from '@/lib/forecasts/store';
-import { queueRefit, refitPlate } from '@/lib/plates/recompute';
 import { ComputeJob } from '@/models';
-import type { ComputeJobKind } from '@/models/compute-job';
-import { runQueuedImport, type ImportJobData } from '@/lib/plates/import-jobs';
-import { closeJobQueue, jobQueue, QUEUE_NAMES, QUEUE_SCHEMA, registerLocalWorker, wakeWorkers } from './queue';
+import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job-kinds';
+import type { JobContext } from './job-types';
+import { closeJobsEndedOnQueue } from './queries';
+import { closeJobQueue, jobQueue, registerLocalWorker, wakeWorkers } from './queue';
+import { jobRegistry } from './registry';
 import { listenForJobs } from './wake';
 
-/** What a handler may report while it works. */
-export type Progress = (done: number, total?: number) => Promise<void>;
-
-type Handler = (data: Record<string, unknown>, progress: Progress, job: { id: string }) => Promise<string | null>;
-
-const HANDLERS: Record<ComputeJobKind, Handler> = {
-  'plate-fits': async (data) => {
-    const { plateId, requestedBy } = data as { plateId: string; requestedBy: string | null };
-    const outcome = await db().transaction((transaction) => refitPlate(plateId, requestedBy, transaction));
-    return outcome.refitted ? `${outcome.fits} fit(s) computed.` : `Nothing to do: ${outcome.reason}.`;
-  },
-  forecast: async (data) => {
-    const { owner, request } = data as unknown as ForecastJobData;
-    const stored = await computeAndStoreForecast(owner, request);
-    return stored.reused ? 'Already stored.' : 'Computed and stored.';
-  },
-  'plate-forecasts': async (data, progress) => runPlateForecasts(data as unknown as PlateForecastsJobData, progress),
-  'plate-import': async (data, _progress, job) => runQueuedImport(data as unknown as ImportJobData, job.id),
-};
-
-/** Parallel jobs per queue in one worker process (each forecast also spreads over the forecast threads). */
-export const DEFAULT_CONCURRENCY: Record<ComputeJobKind, number> = { 'plate-fits': 2, forecast: 2, 'plate-forecasts': 1, 'plate-import': 1 };
+/**
+ * The worker: takes jobs from the queues of the kinds in the registry (lib/jobs/registry.ts) and runs
+ * each through its registry entry, recording state, attempts, worker and progress on its compute_jobs
+ * row. It knows no kind of job by name.
+ */
 
 /** How often each worker process looks for plates whose fit job was lost, and for jobs that ended unseen. */
 export const SWEEP_INTERVAL_MS = 60_000;
@@ -50,20 +32,23 @@ const STATE_KEY = Symbol.for('gatewell.jobs.worker');
 const state: WorkerState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as WorkerState | undefined) ?? { sweep: null, running: false, wake: null };
 (globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
 
-async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<Record<string, unknown>>): Promise<void> {
+async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<unknown>): Promise<void> {
   db();
   const attempt = job.retryCount + 1;
   await ComputeJob.update({ state: 'running', startedAt: new Date(), attempts: attempt, worker: workerName, message: null }, { where: { id: job.id } });
-  const progress: Progress = async (done, total) => {
-    await ComputeJob.update(total === undefined ? { done } : { done, total }, { where: { id: job.id } });
+  const context: JobContext = {
+    id: job.id,
+    progress: async (done, total) => {
+      await ComputeJob.update(total === undefined ? { done } : { done, total }, { where: { id: job.id } });
+    },
   };
   try {
-    const message = await HANDLERS[kind](job.data, progress, { id: job.id });
+    const message = await jobRegistry[kind].run(job.data, context);
     // An import job records its end inside the plate's own transaction: that row is left as it is.
     await ComputeJob.update({ state: 'done', finishedAt: new Date(), message }, { where: { id: job.id, state: { [Op.ne]: 'done' } } });
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
-    // A refusal (bad input) will not change on a retry: the job ends here. Anything else is retried.
+    // A refusal (bad input, a payload that fails its schema) will not change on a retry: the job ends here. Anything else is retried.
     const final = (isAppError(error) && error.code === 'invalid') || job.retryCount >= job.retryLimit;
     await ComputeJob.update(
       final
@@ -78,31 +63,16 @@ async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<Record<s
 
 /**
  * Repairs what a crash can leave: a compute_jobs row still open whose queue job has ended (marked
- * failed), a plate whose fits wait with no fit job open (a new one is queued), and an upload whose
- * import job has ended (removed). Returns the counts of the first two.
+ * failed), and whatever each kind's own sweep repairs (a plate whose fits wait with no fit job open
+ * gets a new one; an upload whose import job has ended is removed). Returns how many rows were closed
+ * and how many jobs were queued again.
  */
 export async function sweepJobs(): Promise<{ closed: number; requeued: number }> {
-  const sequelize = db();
-  const [, closed] = await sequelize.query(
-    `update compute_jobs c set state = 'failed', finished_at = now(),
-            message = 'The job ended on the queue without finishing (its worker stopped or it ran out of time).'
-      where c.state in ('queued', 'running') and c.created_at < now() - interval '30 seconds'
-        and not exists (select 1 from ${QUEUE_SCHEMA}.job j where j.id = c.id and j.state in ('created', 'retry', 'active'))`,
-    { type: QueryTypes.UPDATE },
-  );
-  const stranded = await sequelize.query<{ id: string }>(
-    `select p.id from plates p
-      where p.fits_pending
-        and not exists (select 1 from compute_jobs j where j.plate_id = p.id and j.kind = 'plate-fits' and j.state in ('queued', 'running'))`,
-    { type: QueryTypes.SELECT },
-  );
-  for (const plate of stranded) await queueRefit(plate.id, null);
-  // Uploads whose import job ended without removing them (a worker stopped, the database went away).
-  await sequelize.query(
-    `delete from import_uploads u
-      where not exists (select 1 from compute_jobs c where c.job_key = 'plate-import:' || u.id::text and c.state in ('queued', 'running'))`,
-  );
-  return { closed: Number(closed ?? 0), requeued: stranded.length };
+  db();
+  const closed = await closeJobsEndedOnQueue();
+  let requeued = 0;
+  for (const kind of COMPUTE_JOB_KINDS) requeued += (await jobRegistry[kind].sweep?.()) ?? 0;
+  return { closed, requeued };
 }
 
 /**
@@ -114,13 +84,14 @@ export async function startJobWorkers(options: { kinds?: ComputeJobKind[]; concu
   if (state.running) return;
   state.running = true;
   const boss = await jobQueue();
-  const kinds = options.kinds ?? (Object.keys(HANDLERS) as ComputeJobKind[]);
+  const kinds = options.kinds ?? [...COMPUTE_JOB_KINDS];
   state.wake = listenForJobs((kind) => { if (kinds.includes(kind)) wakeWorkers(kind); });
   for (const kind of kinds) {
-    const count = options.concurrency?.[kind] ?? DEFAULT_CONCURRENCY[kind];
+    const entry = jobRegistry[kind];
+    const count = options.concurrency?.[kind] ?? entry.concurrency;
     for (let i = 0; i < count; i++) {
-      const id = await boss.work<Record<string, unknown>>(
-        QUEUE_NAMES[kind],
+      const id = await boss.work<unknown>(
+        entry.definition.queue,
         { batchSize: 1, pollingIntervalSeconds: 1, includeMetadata: true },
         async ([job]) => { if (job) await runJob(kind, job); },
       );

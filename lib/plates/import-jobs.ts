@@ -1,14 +1,19 @@
 import 'server-only';
 import { setTimeout as sleep } from 'node:timers/promises';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
+import type { z } from 'zod';
 import { loadActor } from '@/lib/auth/load-actor';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { db } from '@/lib/db';
 import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
-import { enqueueJob, jobQueue, QUEUE_NAMES } from '@/lib/jobs/queue';
-import { ComputeJob } from '@/models';
+import type { JobContext } from '@/lib/jobs/job-types';
+import type { PlateImportPayload } from '@/lib/jobs/payloads';
+import { cancelJob, enqueueJob } from '@/lib/jobs/queue';
+import { storedImportRequestSchema, type StoredImportRequest } from '@/lib/validation/imports';
+import { ComputeJob, ImportUpload } from '@/models';
 import { commitImport, type CommitRequest } from './import-service';
+import { importJobKey, removeUploadNoWorkerHolds, removeUploadsOfEndedJobs } from './import-queries';
 
 /**
  * Imports as jobs. The web server keeps the upload (import_uploads) and queues a plate-import job in one
@@ -18,63 +23,68 @@ import { commitImport, type CommitRequest } from './import-service';
  * pages. The person sees the same answer as before: the new plate, or the refusal with its reasons.
  */
 
-export interface ImportJobData {
-  uploadId: string;
-}
-
 /** How long a request waits for a worker to take its import before withdrawing it. */
 export const IMPORT_QUEUE_WAIT_MS = 60_000;
 /** How long it then waits for an import a worker is storing (the job's own limit is 120 s). */
 export const IMPORT_RUN_WAIT_MS = 60_000;
 
-type StoredRequest = Omit<CommitRequest, 'bytes'>;
-
-const jobKey = (uploadId: string) => `plate-import:${uploadId}`;
-
 /** Keeps the upload and queues its job, in one transaction; returns the job's id. */
 export async function queueImport(actor: Actor, request: CommitRequest): Promise<string> {
   requireRole(actor, 'biologist');
-  const { bytes, ...fields } = request;
-  const stored: StoredRequest = fields;
+  const { bytes, parsed: _parsed, ...fields } = request;
+  const stored: StoredImportRequest = fields;
   return db().transaction(async (transaction) => {
-    const [row] = await db().query<{ id: string }>(
-      'insert into import_uploads (requested_by, address, request, bytes) values ($1, $2, $3::jsonb, $4) returning id',
-      { type: QueryTypes.SELECT, bind: [actor.id, actor.address, JSON.stringify(stored), Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)], transaction },
+    const upload = await ImportUpload.create(
+      { requestedBy: actor.id, address: actor.address, request: { ...stored }, bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) },
+      { transaction },
     );
-    const uploadId = row!.id;
-    const data: ImportJobData = { uploadId };
-    const job = await enqueueJob({ kind: 'plate-import', key: jobKey(uploadId), data: { ...data }, requestedBy: actor.id }, transaction);
+    const job = await enqueueJob({ kind: 'plate-import', key: importJobKey(upload.id), data: { uploadId: upload.id }, requestedBy: actor.id }, transaction);
     return job.id;
   });
 }
 
-/** The worker's part: reads, checks and stores the upload under its row lock and removes it; the plate's id goes on the job. */
-export async function runQueuedImport(data: ImportJobData, jobId: string): Promise<string> {
+/**
+ * The plate-import job's handler (lib/jobs/registry.ts): reads the upload once under its row lock,
+ * checks and stores it, and removes it; the plate's id goes on the job.
+ */
+export async function runQueuedImport(payload: PlateImportPayload, job: Pick<JobContext, 'id'>): Promise<string> {
   try {
     return await db().transaction(async (transaction) => {
-      const [upload] = await db().query<{ requestedBy: string; address: string | null; request: StoredRequest; bytes: Buffer }>(
-        'select requested_by as "requestedBy", address, request, bytes from import_uploads where id = :id for update',
-        { type: QueryTypes.SELECT, replacements: { id: data.uploadId }, transaction },
-      );
+      const upload = await ImportUpload.findByPk(payload.uploadId, { transaction, lock: transaction.LOCK.UPDATE });
       if (!upload) throw new AppError('conflict', 'The import was withdrawn before a worker took it; nothing was stored.');
+      const request = storedRequest(upload.request);
       const actor = await loadActor(upload.requestedBy, upload.address ?? '');
       if (!actor) throw new AppError('forbidden', 'The account that uploaded this file is no longer active; nothing was stored.');
       const bytes = new Uint8Array(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
-      const { plateId } = await commitImport(actor, { ...upload.request, bytes }, { transaction });
-      const message = `Stored as plate ${upload.request.label}.`;
-      await removeUpload(data.uploadId, transaction);
+      const { plateId } = await commitImport(actor, { ...request, bytes }, { transaction });
+      const message = `Stored as plate ${request.label}.`;
+      await removeUpload(payload.uploadId, transaction);
       // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
-      await ComputeJob.update({ state: 'done', plateId, finishedAt: new Date(), message }, { where: { id: jobId }, transaction });
+      await ComputeJob.update({ state: 'done', plateId, finishedAt: new Date(), message }, { where: { id: job.id }, transaction });
       return message;
     });
   } catch (error) {
-    if (!isDatabaseUnavailable(error)) await removeUpload(data.uploadId).catch(() => undefined);
+    if (!isDatabaseUnavailable(error)) await removeUpload(payload.uploadId).catch(() => undefined);
     throw error;
   }
 }
 
+/** The stored commit request, checked: one that fails ends the job as refused, with nothing stored. */
+function storedRequest(request: unknown): z.output<typeof storedImportRequestSchema> {
+  const parsed = storedImportRequestSchema.safeParse(request);
+  if (!parsed.success) throw new AppError('invalid', 'The stored import request is not valid; nothing was stored. Upload the file again.', { issues: parsed.error.issues });
+  return parsed.data;
+}
+
 async function removeUpload(uploadId: string, transaction?: Transaction): Promise<void> {
-  await db().query('delete from import_uploads where id = :id', { replacements: { id: uploadId }, ...(transaction ? { transaction } : {}) });
+  db();
+  await ImportUpload.destroy({ where: { id: uploadId }, ...(transaction ? { transaction } : {}) });
+}
+
+/** The plate-import sweep (lib/jobs/registry.ts): removes uploads whose job has ended; queues nothing again. */
+export async function removeEndedUploads(): Promise<number> {
+  await removeUploadsOfEndedJobs();
+  return 0;
 }
 
 /**
@@ -82,16 +92,11 @@ async function removeUpload(uploadId: string, transaction?: Transaction): Promis
  * without storing anything), false when a worker holds it (the import goes on) or it is gone.
  */
 async function withdraw(job: ComputeJob, waitedMs: number): Promise<boolean> {
-  const uploadId = job.jobKey.slice('plate-import:'.length);
-  const removed = await db().query<{ id: string }>(
-    'delete from import_uploads where id in (select id from import_uploads where id = :id for update skip locked) returning id',
-    { type: QueryTypes.SELECT, replacements: { id: uploadId } },
-  );
-  if (removed.length === 0) return false;
+  const uploadId = job.jobKey.slice(importJobKey('').length);
+  if (!(await removeUploadNoWorkerHolds(uploadId))) return false;
   const message = `No worker took the import within ${waitedMs / 1000} s; it was withdrawn and nothing was stored.`;
   await ComputeJob.update({ state: 'failed', finishedAt: new Date(), message }, { where: { id: job.id, state: ['queued', 'running'] } });
-  const boss = await jobQueue();
-  await boss.cancel(QUEUE_NAMES['plate-import'], job.id).catch(() => undefined);
+  await cancelJob('plate-import', job.id).catch(() => undefined);
   return true;
 }
 

@@ -1,10 +1,10 @@
 import 'server-only';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { findHeaderRow, guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
+import { guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
 import { columnMappingSchema, type ColumnMappingInput } from '@/lib/imports/mapping-schema';
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
 import type { PlateFormat } from '@/lib/imports/plate-format';
@@ -12,16 +12,30 @@ import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { queueImportNotices } from '@/lib/signoff/import-notice';
-import { ImportTemplate, Screen, Target } from '@/models';
+import { Compound, ImportTemplate, Screen, Target } from '@/models';
 import { parsedPlateInput } from './analysis-input';
 import { analysisSettings } from './settings';
 import { findDuplicateUpload, sha256Hex, storePlate } from './store';
+
+/**
+ * Import in three requests, inspect → preview → commit (the browser sends the file with each). Within
+ * one request the file is read and parsed once (`readOnce`, in a worker thread with limits); every
+ * later step (duplicate check, sheet choice, validation, QC, storing) takes the parsed sheets.
+ */
 
 export interface Upload {
   screenId: string;
   bytes: Uint8Array;
   filename: string;
   mediaType: string;
+  /** The file once read (readOnce): later steps take its sheets and never read the bytes again. */
+  parsed?: ParsedFile;
+}
+
+/** An uploaded file read once: the SHA-256 of its bytes and its sheets. */
+export interface ParsedFile {
+  sha256: string;
+  sheets: SheetData[];
 }
 
 export interface SheetInspection {
@@ -33,11 +47,14 @@ export interface SheetInspection {
   guess: MappingGuess;
 }
 
-async function readUpload(upload: Upload): Promise<SheetData[]> {
-  const parsed = await parseSpreadsheet(upload.bytes, upload.filename);
-  if (!parsed.ok) throw new AppError(parsed.error.code === 'too_large' ? 'too_large' : 'invalid', parsed.error.message, { code: parsed.error.code });
-  if (parsed.sheets.length === 0) throw new AppError('invalid', `${upload.filename} holds no sheets.`);
-  return parsed.sheets;
+/** The upload read and parsed, once per request: the parse worker's result, or the one it was given before. */
+export async function readOnce<T extends Upload>(upload: T): Promise<T & { parsed: ParsedFile }> {
+  if (upload.parsed) return { ...upload, parsed: upload.parsed };
+  const sha256 = sha256Hex(upload.bytes);
+  const result = await parseSpreadsheet(upload.bytes, upload.filename);
+  if (!result.ok) throw new AppError(result.error.code === 'too_large' ? 'too_large' : 'invalid', result.error.message, { code: result.error.code });
+  if (result.sheets.length === 0) throw new AppError('invalid', `${upload.filename} holds no sheets.`);
+  return { ...upload, parsed: { sha256, sheets: result.sheets } };
 }
 
 async function loadScreen(screenId: string) {
@@ -53,22 +70,21 @@ async function loadScreen(screenId: string) {
 export async function inspectUpload(actor: Actor, upload: Upload) {
   requireRole(actor, 'biologist');
   await loadScreen(upload.screenId);
-  const sha256 = sha256Hex(upload.bytes);
-  const duplicateOf = await findDuplicateUpload(upload.screenId, sha256);
-  const sheets = await readUpload(upload);
-  const inspected: SheetInspection[] = sheets.map((sheet) => {
-    const headerRow = findHeaderRow(sheet.rows);
+  const { parsed } = await readOnce(upload);
+  const duplicateOf = await findDuplicateUpload(upload.screenId, parsed.sha256);
+  const inspected: SheetInspection[] = parsed.sheets.map((sheet) => {
     const guess = guessMapping(sheet);
+    const headerRow = guess.mapping.headerRow;
     return {
       name: sheet.name,
       rowCount: sheet.rows.length,
-      headerRow: guess.mapping.headerRow,
+      headerRow,
       headers: (sheet.rows[headerRow - 1] ?? []).map((cell) => (cell === null ? '' : String(cell))),
       sample: sheet.rows.slice(headerRow, headerRow + 5),
       guess,
     };
   });
-  return { sha256, duplicateOf, sheets: inspected };
+  return { sha256: parsed.sha256, duplicateOf, sheets: inspected };
 }
 
 export interface PreviewRequest extends Upload {
@@ -81,10 +97,10 @@ export interface PreviewRequest extends Upload {
 export async function previewImport(actor: Actor, request: PreviewRequest, options: { qc?: boolean } = {}): Promise<PlatePreview & { qc: Record<number, string[]> }> {
   requireRole(actor, 'biologist');
   const { screen, targets } = await loadScreen(request.screenId);
-  const sheets = await readUpload(request);
-  const sheet = sheets.find((s) => s.name === request.sheet);
+  const { parsed } = await readOnce(request);
+  const sheet = parsed.sheets.find((s) => s.name === request.sheet);
   if (!sheet) throw new AppError('invalid', `${request.filename} has no sheet named "${request.sheet}".`);
-  const compounds = await db().query<{ identifier: string }>('select identifier from compounds', { type: QueryTypes.SELECT });
+  const compounds = await Compound.findAll({ attributes: ['identifier'], raw: true });
   const preview = validatePlateSheet(sheet, request.mapping, {
     knownCompounds: compounds.map((c) => c.identifier), knownTargets: targets, ...(request.format ? { plateFormat: request.format } : {}),
   });
@@ -111,6 +127,7 @@ export interface CommitRequest extends PreviewRequest {
  * transaction (the caller's when given: a queued import also removes its upload in it, lib/plates/import-jobs.ts).
  */
 export async function commitImport(actor: Actor, request: CommitRequest, options: { transaction?: Transaction } = {}): Promise<{ plateId: string }> {
+  // The preview reads the file (once) and checks role and screen; the commit only stores what it built.
   const preview = await previewImport(actor, request, { qc: false });
   if (!preview.ok || !preview.plate) {
     const first = preview.issues.find((issue) => issue.severity === 'error');

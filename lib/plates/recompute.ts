@@ -1,5 +1,8 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
+import { db } from '@/lib/db';
+import type { PlateFitsPayload } from '@/lib/jobs/payloads';
+import { platesWithoutOpenRefit } from '@/lib/jobs/queries';
 import { enqueueJob, type QueuedJob } from '@/lib/jobs/queue';
 import { analysePlate, fitKey, type PlateAnalysis } from '@/lib/science/plate-analysis';
 import { Fit, Plate, Readout, Screen, Well } from '@/models';
@@ -64,4 +67,17 @@ export async function refitPlate(plateId: string, computedBy: string | null, tra
   await Fit.bulkCreate(analysis.fits.map((f) => fitRow(f, { plateId: plate.id, compoundId: f.compoundId, targetId: f.target, computedBy })), { transaction });
   await plate.update({ fitsPending: false, fittedAt: new Date() }, { transaction });
   return { refitted: true, fits: analysis.fits.length };
+}
+
+/** The plate-fits job's handler (lib/jobs/registry.ts): the refit in a transaction of its own. */
+export async function runPlateFitsJob(payload: PlateFitsPayload): Promise<string> {
+  const outcome = await db().transaction((transaction) => refitPlate(payload.plateId, payload.requestedBy, transaction));
+  return outcome.refitted ? `${outcome.fits} fit(s) computed.` : `Nothing to do: ${outcome.reason}.`;
+}
+
+/** The plate-fits sweep: queues a refit for every plate whose fits wait with no fit job open; returns how many. */
+export async function requeueLostRefits(): Promise<number> {
+  const plateIds = await platesWithoutOpenRefit();
+  for (const plateId of plateIds) await queueRefit(plateId, null);
+  return plateIds.length;
 }

@@ -31,3 +31,20 @@ export const commitFieldsSchema = previewFieldsSchema.extend({
   templateName: z.string().trim().max(100).optional().transform((v) => (v ? v : undefined)),
   supersedesPlateId: z.union([z.uuid(), z.literal('')]).optional().transform((v) => (v ? v : undefined)),
 });
+
+/**
+ * The commit request kept with a queued upload (import_uploads.request): the commit's fields and the
+ * file's name and type, without its bytes. Checked again when a worker reads it back.
+ */
+export const storedImportRequestSchema = z.object({
+  screenId: z.uuid(),
+  filename: z.string().max(255),
+  mediaType: z.string(),
+  sheet: z.string().min(1).max(200),
+  mapping: columnMappingDraftSchema,
+  format: z.literal([96, 384, 1536]).optional(),
+  label: z.string().min(1).max(120),
+  templateName: z.string().max(100).optional(),
+  supersedesPlateId: z.uuid().optional(),
+});
+export type StoredImportRequest = z.input<typeof storedImportRequestSchema>;

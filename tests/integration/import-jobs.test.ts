@@ -130,7 +130,8 @@ describe('queued jobs wake workers in other processes', () => {
       const queue = (key: string) => enqueueJob({ kind: 'plate-fits', key, data: { plateId: '00000000-0000-4000-8000-000000000000', requestedBy: null }, requestedBy: null });
 
       await db().transaction(async (transaction) => {
-        await enqueueJob({ kind: 'forecast', key: 'wake-test-a', data: {}, requestedBy: null }, transaction);
+        const forecast = { owner: { plateId: null, compoundId: '00000000-0000-4000-8000-000000000001', screenId: '00000000-0000-4000-8000-000000000002' }, request: { preset: 'hh-squid-1952' as const, block: { gNa: 0.3 } } };
+        await enqueueJob({ kind: 'forecast', key: 'wake-test-a', data: forecast, requestedBy: null }, transaction);
         await sleep(200);
         expect(heard).toEqual([]); // not before the commit
       });

@@ -1,0 +1,30 @@
+import 'server-only';
+import { QueryTypes } from 'sequelize';
+import { db } from '@/lib/db';
+
+/** The compute_jobs key of an upload's import job. */
+export const importJobKey = (uploadId: string): string => `plate-import:${uploadId}`;
+
+/**
+ * Removes the upload unless a worker holds it; true when it was removed here.
+ * SQL: "skip locked" in one statement, so that a worker's row lock answers at once instead of blocking.
+ */
+export async function removeUploadNoWorkerHolds(uploadId: string): Promise<boolean> {
+  const removed = await db().query<{ id: string }>(
+    'delete from import_uploads where id in (select id from import_uploads where id = :id for update skip locked) returning id',
+    { type: QueryTypes.SELECT, replacements: { id: uploadId } },
+  );
+  return removed.length > 0;
+}
+
+/**
+ * Removes every upload whose import job has ended (a worker stopped, the database went away); the key
+ * is importJobKey's. SQL: one anti-join on the job key in the database, instead of reading every upload
+ * and its job back.
+ */
+export async function removeUploadsOfEndedJobs(): Promise<void> {
+  await db().query(
+    `delete from import_uploads u
+      where not exists (select 1 from compute_jobs c where c.job_key = 'plate-import:' || u.id::text and c.state in ('queued', 'running'))`,
+  );
+}
