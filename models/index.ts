@@ -8,6 +8,7 @@ import { Forecast } from './forecast';
 import { ImportTemplate } from './import-template';
 import { LoginAttempt } from './login-attempt';
 import { MailMessage } from './mail-message';
+import { PasswordLink } from './password-link';
 import { Plate } from './plate';
 import { Readout } from './readout';
 import { Screen } from './screen';
@@ -19,9 +20,9 @@ import { User } from './user';
 import { UserRole } from './user-role';
 import { Well } from './well';
 
-export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
+export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
 
-const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
+const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {
