@@ -2,14 +2,12 @@
 
 import { redirect } from 'next/navigation';
 import { z } from 'zod';
-import { recordAudit } from '@/lib/audit/record';
 import { currentActor } from '@/lib/auth/current-actor';
 import { requestAddress } from '@/lib/auth/request-address';
 import { getSession } from '@/lib/auth/session';
 import { signIn } from '@/lib/auth/sign-in';
+import { recordSignOut } from '@/lib/auth/sign-out';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
-import { db } from '@/lib/db';
-import { User } from '@/models';
 import { safeNextPath, signInSchema } from '@/lib/validation/auth';
 
 export interface SignInState {
@@ -59,11 +57,6 @@ export async function signOutAction(): Promise<void> {
   const actor = await currentActor();
   const session = await getSession();
   session.destroy();
-  if (actor) {
-    await db().transaction(async (transaction) => {
-      await User.increment('sessionVersion', { where: { id: actor.id }, transaction });
-      await recordAudit({ actorId: actor.id, action: 'sign_out', entityType: 'session', entityId: actor.id, address: actor.address }, transaction);
-    });
-  }
+  if (actor) await recordSignOut(actor);
   redirect('/sign-in');
 }
