@@ -9,6 +9,7 @@ import { ImportTemplate } from './import-template';
 import { ImportUpload } from './import-upload';
 import { LoginAttempt } from './login-attempt';
 import { MailMessage } from './mail-message';
+import { PasswordLink } from './password-link';
 import { Plate } from './plate';
 import { Readout } from './readout';
 import { Screen } from './screen';
@@ -20,9 +21,9 @@ import { User } from './user';
 import { UserRole } from './user-role';
 import { Well } from './well';
 
-export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
+export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
 
-const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
+const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {

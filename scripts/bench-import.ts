@@ -5,7 +5,6 @@
 //     node --conditions=react-server --import tsx scripts/bench-import.ts [repeats]
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { QueryTypes } from 'sequelize';
 import { loadActor } from '@/lib/auth/load-actor';
 import { db } from '@/lib/db';
 import { guessMapping } from '@/lib/imports/guess-mapping';
@@ -15,7 +14,7 @@ import { parsedPlateInput } from '@/lib/plates/analysis-input';
 import { analysisSettings } from '@/lib/plates/settings';
 import { storePlate } from '@/lib/plates/store';
 import { analysePlate } from '@/lib/science/plate-analysis';
-import { Screen, Target } from '@/models';
+import { Compound, Screen, Target, UserRole } from '@/models';
 import { closeJobQueue } from '@/lib/jobs/queue';
 
 const FILE = path.join(process.cwd(), 'seeders', 'data', 'demo-plates', 'nav-384-plate-02.xlsx');
@@ -35,7 +34,7 @@ async function once(bytes: Uint8Array) {
   if (!parsed.ok) throw new Error(parsed.error.message);
   const sheet = parsed.sheets.find((s) => s.name === 'Readouts') ?? parsed.sheets[0]!;
   const screen = await Screen.findOne({ where: { name: 'Pain sodium screen' }, include: [{ model: Target, as: 'targets' }], rejectOnEmpty: true });
-  const compounds = await sequelize.query<{ identifier: string }>('select identifier from compounds', { type: QueryTypes.SELECT });
+  const compounds = await Compound.findAll({ attributes: ['identifier'], raw: true });
   const [preview, validateMs] = await time(() =>
     validatePlateSheet(sheet, guessMapping(sheet).mapping, { knownCompounds: compounds.map((c) => c.identifier), knownTargets: (screen.get('targets') as Target[]).map((t) => t.name) }),
   );
@@ -46,8 +45,8 @@ async function once(bytes: Uint8Array) {
     const { wells, readouts } = parsedPlateInput(plate);
     return analysePlate(wells, readouts, analysisSettings(screen));
   });
-  const [user] = await sequelize.query<{ id: string }>("select u.id from users u join user_roles r on r.user_id = u.id where r.role = 'biologist' limit 1", { type: QueryTypes.SELECT });
-  const actor = user && (await loadActor(user.id, '127.0.0.1'));
+  const biologist = await UserRole.findOne({ attributes: ['userId'], where: { role: 'biologist' }, raw: true });
+  const actor = biologist && (await loadActor(biologist.userId, '127.0.0.1'));
   if (!actor) throw new Error('no biologist in this database: seed it first');
   let storeMs = 0;
   await sequelize

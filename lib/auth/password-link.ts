@@ -1,6 +1,6 @@
 import 'server-only';
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import { db } from '@/lib/db';
 import { env } from '@/lib/env';
@@ -8,8 +8,9 @@ import { AppError } from '@/lib/errors';
 import { queueMail } from '@/lib/mail/outbox';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { passwordLinkRequestSchema, setPasswordByLinkSchema, type SetPasswordByLinkInput } from '@/lib/validation/password-link';
-import { User } from '@/models';
+import { PasswordLink, User } from '@/models';
 import { hashPassword } from './passwords';
+import { countRecentLinkRequests, expireUnusedLinks, insertLinkWithToken } from './queries';
 
 /** How long a link asked for on the sign-in page works (common practice, no source). */
 export const LINK_LIFETIME_MS = 30 * 60 * 1000;
@@ -41,12 +42,8 @@ export async function requestPasswordLink(raw: { email: unknown }, address: stri
   const { email } = parseOrRefuse(passwordLinkRequestSchema, raw);
   const sequelize = db();
   const since = new Date(Date.now() - LINK_WINDOW_MS);
-  const [counts] = await sequelize.query<{ byAddress: number; linksToEmail: number }>(
-    `select (select count(*) from password_links where address = :address and requested_at >= :since)::int as "byAddress",
-            (select count(*) from password_links where email = :email and token_sha256 is not null and requested_at >= :since)::int as "linksToEmail"`,
-    { type: QueryTypes.SELECT, replacements: { address, email, since } },
-  );
-  if (counts!.byAddress >= MAX_REQUESTS_PER_ADDRESS) {
+  const counts = await countRecentLinkRequests(address, email, since);
+  if (counts.byAddress >= MAX_REQUESTS_PER_ADDRESS) {
     await sequelize.transaction((transaction) =>
       recordAudit({ actorId: null, action: 'password_link_throttled', entityType: 'session', after: { email }, address }, transaction),
     );
@@ -55,7 +52,7 @@ export async function requestPasswordLink(raw: { email: unknown }, address: stri
 
   await sequelize.transaction(async (transaction) => {
     const user = await User.findOne({ where: { email }, transaction, lock: transaction.LOCK.UPDATE });
-    const sends = Boolean(user && !user.disabledAt && counts!.linksToEmail < MAX_LINKS_PER_EMAIL);
+    const sends = Boolean(user && !user.disabledAt && counts.linksToEmail < MAX_LINKS_PER_EMAIL);
     const linkId = sends && user
       ? await issuePasswordLink(user, { purpose: 'lost-password', address }, transaction)
       : await recordRequestWithoutLink(email, address, transaction);
@@ -74,7 +71,7 @@ export async function requestPasswordLink(raw: { email: unknown }, address: stri
 
 async function recordRequestWithoutLink(email: string, address: string, transaction: Transaction): Promise<string> {
   const id = randomUUID();
-  await db().query('insert into password_links (id, email, address) values (:id, :email, :address)', { replacements: { id, email, address }, transaction });
+  await PasswordLink.create({ id, email, address }, { transaction });
   return id;
 }
 
@@ -89,28 +86,16 @@ export type LinkPurpose =
  * with a new account, whose password time the app's clock set, must not look older than it).
  */
 export async function issuePasswordLink(user: User, why: LinkPurpose, transaction: Transaction): Promise<string> {
-  const sequelize = db();
   const token = randomBytes(32).toString('base64url');
   const id = randomUUID();
   const lifetimeMs = why.purpose === 'invitation' ? INVITATION_LIFETIME_MS : LINK_LIFETIME_MS;
   // A newer link replaces the ones before it.
-  await sequelize.query(
-    `update password_links set expires_at = greatest(requested_at + interval '1 millisecond', least(expires_at, now()))
-      where user_id = :userId and used_at is null and expires_at > now()`,
-    { replacements: { userId: user.id }, transaction },
+  await expireUnusedLinks(user.id, transaction);
+  const { requestedAt } = await insertLinkWithToken(
+    { id, email: user.email, userId: user.id, tokenSha256: sha256(token), lifetimeMs, address: why.address, passwordChangedAt: user.passwordChangedAt ?? new Date(0) },
+    transaction,
   );
-  const [row] = await sequelize.query<{ requestedAt: Date }>(
-    `with made as (select greatest(clock_timestamp(), :passwordChangedAt::timestamptz) as at)
-     insert into password_links (id, email, user_id, token_sha256, requested_at, expires_at, address)
-       select :id, :email, :userId, :tokenSha256, made.at, made.at + :lifetimeMs * interval '1 millisecond', :address from made
-     returning requested_at as "requestedAt"`,
-    {
-      type: QueryTypes.SELECT,
-      replacements: { id, email: user.email, userId: user.id, tokenSha256: sha256(token), lifetimeMs, address: why.address, passwordChangedAt: user.passwordChangedAt ?? new Date(0) },
-      transaction,
-    },
-  );
-  await queueLinkMail(user, token, why, row!.requestedAt, lifetimeMs, transaction);
+  await queueLinkMail(user, token, why, requestedAt, lifetimeMs, transaction);
   return id;
 }
 
@@ -181,12 +166,14 @@ function linkProblem(link: LinkRow | undefined, user: User | null, now: Date): s
 }
 
 async function findLink(token: string, transaction?: Transaction, lock = false): Promise<LinkRow | undefined> {
-  const [row] = await db().query<LinkRow>(
-    `select id, user_id as "userId", email, expires_at as "expiresAt", used_at as "usedAt", requested_at as "requestedAt"
-       from password_links where token_sha256 = :hash ${lock ? 'for update' : ''}`,
-    { type: QueryTypes.SELECT, replacements: { hash: sha256(token) }, ...(transaction ? { transaction } : {}) },
-  );
-  return row;
+  db();
+  const row = await PasswordLink.findOne({
+    attributes: ['id', 'userId', 'email', 'expiresAt', 'usedAt', 'requestedAt'],
+    where: { tokenSha256: sha256(token) },
+    raw: true,
+    ...(transaction ? { transaction, ...(lock ? { lock: transaction.LOCK.UPDATE } : {}) } : {}),
+  });
+  return (row as LinkRow | null) ?? undefined;
 }
 
 /** Whether a link opened from a mail still works, for the page that asks for the new password. */
@@ -212,7 +199,7 @@ export async function setPasswordByLink(raw: SetPasswordByLinkInput, address: st
     const now = new Date();
     const problem = linkProblem(link, user, now);
     if (problem || !link || !user) throw new AppError('conflict', problem ?? UNKNOWN);
-    await db().query('update password_links set used_at = :now where id = :id', { replacements: { id: link.id, now }, transaction });
+    await PasswordLink.update({ usedAt: now }, { where: { id: link.id }, transaction });
     const before = { passwordChangedAt: user.passwordChangedAt?.toISOString() ?? null, sessionVersion: user.sessionVersion };
     await user.update({ passwordHash, passwordChangedAt: now, passwordChangeRequired: false, sessionVersion: user.sessionVersion + 1 }, { transaction });
     await recordAudit(

@@ -5,15 +5,12 @@ import { User } from '@/models';
 import type { Actor } from './roles';
 
 /**
- * Moves the person's session_version on and records the sign-out: the current cookie, any copy of it
- * and the person's sessions in other browsers all stop working.
+ * Records a sign-out and moves the person's session version on, so that every copy of their session
+ * cookie (an earlier copy, another browser's) stops working.
  */
-export async function endAllSessions(actor: Actor): Promise<void> {
+export async function recordSignOut(actor: Actor): Promise<void> {
   await db().transaction(async (transaction) => {
     await User.increment('sessionVersion', { where: { id: actor.id }, transaction });
-    await recordAudit(
-      { actorId: actor.id, action: 'sign_out', entityType: 'session', entityId: actor.id, address: actor.address },
-      transaction,
-    );
+    await recordAudit({ actorId: actor.id, action: 'sign_out', entityType: 'session', entityId: actor.id, address: actor.address }, transaction);
   });
 }

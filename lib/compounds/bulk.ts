@@ -1,10 +1,10 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
 import { readRegistrationSheet, type BulkRowResult } from './bulk-sheet';
+import { selectRegisteredIdentifiers } from './queries';
 import { insertBatch, insertCompound } from './service';
 
 export interface BulkRegistration {
@@ -25,9 +25,7 @@ export async function registerCompoundsFromSheet(actor: Actor, file: { bytes: Ui
   const sheet = parsed.sheets[0];
   if (!sheet) throw new AppError('invalid', `${file.filename} holds no sheets.`);
   const { rows, problems } = readRegistrationSheet(sheet);
-  const known = await db().query<{ identifier: string }>('select identifier from compounds where upper(identifier) in (:ids)', {
-    type: QueryTypes.SELECT, replacements: { ids: rows.filter((r) => r.input).map((r) => r.input!.identifier.toUpperCase()).concat('') },
-  });
+  const known = await selectRegisteredIdentifiers(rows.filter((r) => r.input).map((r) => r.input!.identifier.toUpperCase()).concat(''));
   const registered = new Set(known.map((k) => k.identifier.toUpperCase()));
   for (const row of rows) {
     if (row.input && registered.has(row.input.identifier.toUpperCase())) {

@@ -1,50 +1,14 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
-import { db } from '@/lib/db';
-import type { FitModel, FitStatus } from '@/models/fit';
-import type { PlateState } from '@/models/plate';
+import type { FitStatus } from '@/models/fit';
+import { selectCompoundFits, type ProfileFit } from './queries';
 
-/** One fit of a compound on one plate, with where it stands in sign-off. */
-export interface ProfileFit {
-  fitId: string;
-  plateId: string;
-  plateLabel: string;
-  plateState: PlateState;
-  /** Only approved plates count as results (DESIGN.md, Results); the rest are shown as not yet approved. */
-  approved: boolean;
-  importedAt: string;
-  screenId: string;
-  screenName: string;
-  targetId: string;
-  target: string;
-  conductance: string;
-  model: FitModel;
-  status: FitStatus;
-  message: string;
-  ic50Um: number | null;
-  ic50CiLowUm: number | null;
-  ic50CiHighUm: number | null;
-  ic50LowerBoundUm: number | null;
-  hill: number | null;
-  r2: number | null;
-  n: number;
-}
+export type { ProfileFit } from './queries';
 
 /** Every fit of the compound across plates and screens: approved plates first, then newest first. */
 export async function listCompoundFits(actor: Actor, compoundId: string): Promise<ProfileFit[]> {
   void actor; // every signed-in role may read results
-  return db().query<ProfileFit>(
-    `select f.id as "fitId", p.id as "plateId", p.label as "plateLabel", p.state as "plateState", (p.state = 'approved') as approved,
-            to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
-            s.id as "screenId", s.name as "screenName", t.id as "targetId", t.name as target, t.conductance,
-            f.model, f.status, f.message, f.ic50_um as "ic50Um", f.ic50_ci_low_um as "ic50CiLowUm", f.ic50_ci_high_um as "ic50CiHighUm",
-            f.ic50_lower_bound_um as "ic50LowerBoundUm", f.hill, f.r2, f.n
-       from fits f join plates p on p.id = f.plate_id join screens s on s.id = p.screen_id join targets t on t.id = f.target_id
-      where f.compound_id = :compoundId
-      order by (p.state = 'approved') desc, p.imported_at desc, p.label, t.name`,
-    { type: QueryTypes.SELECT, replacements: { compoundId } },
-  );
+  return selectCompoundFits(compoundId);
 }
 
 const USABLE: FitStatus[] = ['fitted', 'above_range', 'inactive'];

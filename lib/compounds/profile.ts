@@ -1,8 +1,8 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
+import { Compound, Screen } from '@/models';
 import { choosePotencies, listCompoundFits, type ProfileFit } from './profile-fits';
 import { selectivityRatios, type SelectivityRatio } from './selectivity';
 
@@ -26,18 +26,14 @@ export interface CompoundProfile {
 
 /** A compound's results across plates and screens: every fit, the potency per target and selectivity. */
 export async function getCompoundProfile(actor: Actor, compoundId: string): Promise<CompoundProfile> {
-  const [compound] = await db().query<CompoundProfile['compound']>(
-    'select id, identifier, name from compounds where id = :compoundId', { type: QueryTypes.SELECT, replacements: { compoundId } },
-  );
+  db();
+  const compound: CompoundProfile['compound'] | null = await Compound.findByPk(compoundId, { attributes: ['id', 'identifier', 'name'], raw: true });
   if (!compound) throw new AppError('not_found', 'No such compound.');
   const fits = await listCompoundFits(actor, compoundId);
   const potencies = [...choosePotencies(fits).values()].sort((a, b) => a.target.localeCompare(b.target));
   const screenIds = [...new Set(fits.map((f) => f.screenId))];
   const screens = screenIds.length
-    ? await db().query<Omit<ProfileScreen, 'hasApproved'>>(
-        'select id, name, neuron_preset as "neuronPreset", exposures_um as "exposuresUm" from screens where id in (:screenIds) order by name',
-        { type: QueryTypes.SELECT, replacements: { screenIds } },
-      )
+    ? await Screen.findAll({ attributes: ['id', 'name', 'neuronPreset', 'exposuresUm'], where: { id: screenIds }, order: [['name', 'ASC']], raw: true })
     : [];
   return {
     compound,

@@ -1,8 +1,7 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
-import { db } from '@/lib/db';
 import type { PlateState } from '@/models/plate';
 import type { Cell, ExportTable } from './document';
+import { selectPlateSignoffs } from './queries';
 
 export interface PlateSignoff {
   plateId: string;
@@ -25,14 +24,7 @@ export const STATE_WORDS: Record<PlateState, string> = {
 /** Every signed transition of these plates, oldest first, with who signed, meaning and comment. */
 export async function listPlateSignoffs(plateIds: string[]): Promise<PlateSignoff[]> {
   if (plateIds.length === 0) return [];
-  return db().query<PlateSignoff>(
-    `select e.plate_id as "plateId", p.label as "plateLabel", e.from_state as "fromState", e.to_state as "toState", u.name as signer, u.email as "signerEmail",
-            s.meaning, s.comment, to_char(s.signed_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "signedAt", s.content_sha256 as "contentSha256"
-       from signoff_events e join signatures s on s.id = e.signature_id join users u on u.id = s.signer_id join plates p on p.id = e.plate_id
-      where e.plate_id in (:plateIds)
-      order by p.label, e.occurred_at, e.id`,
-    { type: QueryTypes.SELECT, replacements: { plateIds } },
-  );
+  return selectPlateSignoffs(plateIds);
 }
 
 /** One about line per signature, e.g. "Map verified → Awaiting approval: signed by …". */

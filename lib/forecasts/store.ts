@@ -1,5 +1,5 @@
 import 'server-only';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { contentSha256 } from '@/lib/auth/canonical-json';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
@@ -10,6 +10,7 @@ import type { ForecastPayload } from '@/lib/jobs/payloads';
 import { waitForJob } from '@/lib/jobs/progress';
 import { enqueueJob } from '@/lib/jobs/queue';
 import { Forecast } from '@/models';
+import { lockForecastInput, selectStoredForecast, selectStoredKeys } from './queries';
 import { FORECAST_ENGINE } from './request';
 
 export interface StoredForecast {
@@ -33,22 +34,14 @@ export function forecastInput(request: ForecastRequest): { input: Record<string,
 }
 
 async function findStored(owner: ForecastOwner, inputSha256: string, transaction?: Transaction) {
-  const [row] = await db().query<{ result: ForecastResult; computedAt: Date }>(
-    `select result, computed_at as "computedAt" from forecasts
-      where compound_id = :compoundId and input_sha256 = :inputSha256 and plate_id is not distinct from :plateId
-      order by computed_at limit 1`,
-    { type: QueryTypes.SELECT, replacements: { compoundId: owner.compoundId, plateId: owner.plateId, inputSha256 }, transaction },
-  );
+  const row = await selectStoredForecast(owner, inputSha256, transaction);
   return row ? { result: row.result, inputSha256, computedAt: new Date(row.computedAt).toISOString(), reused: true } : null;
 }
 
 /** Which of these keys already have a stored forecast for the owner's plate and compounds. */
 export async function storedKeys(plateId: string, inputSha256s: string[]): Promise<Set<string>> {
   if (inputSha256s.length === 0) return new Set();
-  const rows = await db().query<{ sha: string }>(
-    'select distinct input_sha256 as sha from forecasts where plate_id = :plateId and input_sha256 in (:inputSha256s)',
-    { type: QueryTypes.SELECT, replacements: { plateId, inputSha256s } },
-  );
+  const rows = await selectStoredKeys(plateId, inputSha256s);
   return new Set(rows.map((r) => r.sha));
 }
 
@@ -69,7 +62,7 @@ export async function computeAndStoreForecast(owner: ForecastOwner, request: For
     throw error;
   }
   return db().transaction(async (transaction) => {
-    await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', { replacements: { key: `forecast:${inputSha256}` }, transaction });
+    await lockForecastInput(inputSha256, transaction);
     const raced = await findStored(owner, inputSha256, transaction);
     if (raced) return raced;
     const row = await Forecast.create(

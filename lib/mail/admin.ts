@@ -1,52 +1,24 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { LINK_MAIL_KINDS, MailMessage, type MailKind, type MailState } from '@/models/mail-message';
+import { LINK_MAIL_KINDS, MailMessage, type MailState } from '@/models/mail-message';
+import { bringWaitingMailForward, countOutboxByState, selectOutbox, type OutboxRow } from './queries';
 
 /** One message of the outbox as the admin page lists it. */
-export interface OutboxRow {
-  id: string;
-  kind: MailKind;
-  plateId: string | null;
-  plateLabel: string | null;
-  toAddress: string;
-  recipientName: string;
-  subject: string;
-  state: MailState;
-  attempts: number;
-  maxAttempts: number;
-  createdAt: string;
-  nextAttemptAt: string | null;
-  sentAt: string | null;
-  lastError: string | null;
-  smtpResponse: string | null;
-}
-
-const iso = (column: string) => `to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"')`;
+export type { OutboxRow } from './queries';
 
 /** The newest messages of the outbox with their delivery state, optionally of one state. Admins only. */
 export async function listOutbox(actor: Actor, filter: { state?: MailState } = {}): Promise<OutboxRow[]> {
   requireRole(actor, 'admin');
-  return db().query<OutboxRow>(
-    `select m.id, m.kind, m.plate_id as "plateId", p.label as "plateLabel", m.to_address as "toAddress", u.name as "recipientName", m.subject, m.state,
-            m.attempts, m.max_attempts as "maxAttempts", ${iso('m.created_at')} as "createdAt",
-            case when m.state = 'queued' then ${iso('m.next_attempt_at')} end as "nextAttemptAt", ${iso('m.sent_at')} as "sentAt",
-            m.last_error as "lastError", m.smtp_response as "smtpResponse"
-       from mail_outbox m join users u on u.id = m.recipient_id left join plates p on p.id = m.plate_id
-      ${filter.state ? 'where m.state = :state' : ''}
-      order by m.created_at desc, m.to_address
-      limit 300`,
-    { type: QueryTypes.SELECT, replacements: { state: filter.state ?? null } },
-  );
+  return selectOutbox(filter.state);
 }
 
 /** Counts by delivery state, for the page's summary line. Admins only. */
 export async function outboxCounts(actor: Actor): Promise<Record<MailState, number>> {
   requireRole(actor, 'admin');
-  const rows = await db().query<{ state: MailState; n: number }>('select state, count(*)::int as n from mail_outbox group by state', { type: QueryTypes.SELECT });
+  const rows = await countOutboxByState();
   return { queued: 0, sent: 0, failed: 0, ...Object.fromEntries(rows.map((r) => [r.state, r.n])) };
 }
 
@@ -58,12 +30,7 @@ export async function outboxCounts(actor: Actor): Promise<Record<MailState, numb
 export async function hurryWaitingMail(actor: Actor): Promise<number> {
   requireRole(actor, 'admin');
   return db().transaction(async (transaction) => {
-    const rows = await db().query<{ id: string }>(
-      `update mail_outbox set next_attempt_at = now()
-        where state = 'queued' and next_attempt_at > now() and (claimed_until is null or claimed_until <= now())
-        returning id`,
-      { type: QueryTypes.SELECT, transaction },
-    );
+    const rows = await bringWaitingMailForward(transaction);
     if (rows.length) {
       await recordAudit({ actorId: actor.id, action: 'hurry_mail', entityType: 'mail_outbox', after: { messages: rows.map((r) => r.id) }, address: actor.address }, transaction);
     }

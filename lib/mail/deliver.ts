@@ -1,7 +1,5 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
-import { db } from '@/lib/db';
-import { LINK_MAIL_KINDS } from '@/models/mail-message';
+import { claimDueMail, markMailAttemptFailed, markMailSent, type ClaimedMail } from './queries';
 import { smtpSettingsFromEnv, smtpTransport, type SmtpSettings } from './transport';
 
 /** How long a claimed message stays reserved for the process sending it; after that another may retry it. */
@@ -33,47 +31,18 @@ export interface DeliveryReport {
   failed: number;
 }
 
-interface Claimed {
-  id: string;
-  toAddress: string;
-  subject: string;
-  bodyText: string;
-  attempts: number;
-  maxAttempts: number;
-}
-
 /**
  * Reserves due messages (skipping any another process holds), counting the attempt before it is made.
  * The claim ends at the lease's end (claimed_until); a sender that dies leaves the message due then.
  */
-async function claimDue(now: Date, limit: number): Promise<Claimed[]> {
-  return db().query<Claimed>(
-    `update mail_outbox m set attempts = m.attempts + 1, last_attempt_at = :now, next_attempt_at = :leaseEnd, claimed_until = :leaseEnd
-      where m.id in (select id from mail_outbox where state = 'queued' and next_attempt_at <= :now
-                      order by next_attempt_at, created_at limit :limit for update skip locked)
-      returning m.id, m.to_address as "toAddress", m.subject, m.body_text as "bodyText", m.attempts, m.max_attempts as "maxAttempts"`,
-    { type: QueryTypes.SELECT, replacements: { now, leaseEnd: new Date(now.getTime() + LEASE_MS), limit } },
-  );
+async function claimDue(now: Date, limit: number): Promise<ClaimedMail[]> {
+  return claimDueMail(now, new Date(now.getTime() + LEASE_MS), limit);
 }
 
-/**
- * Once a message has gone out (or will never go), a password link in it is cut from the kept copy: the
- * outbox keeps what was sent, not a key that still opens the account (lib/auth/password-link.ts).
- */
-const REDACTED_BODY_VALUE = `case when kind in (${LINK_MAIL_KINDS.map((kind) => `'${kind}'`).join(', ')}) then regexp_replace(body_text, '/password-link/[A-Za-z0-9_-]+', '/password-link/(removed once sent)', 'g') else body_text end`;
-const REDACTED_BODY = `body_text = ${REDACTED_BODY_VALUE}`;
-
+/** Records an attempt's outcome; once a message has gone out (or never will), a password link in it is cut from the kept copy. */
 async function settle(id: string, outcome: { sent: true; response: string } | { sent: false; error: string; giveUp: boolean; retryAt: Date }) {
-  if (outcome.sent) {
-    await db().query(`update mail_outbox set state = 'sent', sent_at = now(), smtp_response = :response, last_error = null, claimed_until = null, ${REDACTED_BODY} where id = :id`, {
-      replacements: { id, response: outcome.response.slice(0, 500) },
-    });
-  } else {
-    await db().query(`update mail_outbox set state = :state, next_attempt_at = :retryAt, last_error = :error, claimed_until = null,
-      body_text = case when :state = 'failed' then ${REDACTED_BODY_VALUE} else body_text end where id = :id`, {
-      replacements: { id, state: outcome.giveUp ? 'failed' : 'queued', retryAt: outcome.retryAt, error: outcome.error.slice(0, 500) },
-    });
-  }
+  if (outcome.sent) await markMailSent(id, outcome.response.slice(0, 500));
+  else await markMailAttemptFailed(id, { state: outcome.giveUp ? 'failed' : 'queued', retryAt: outcome.retryAt, error: outcome.error.slice(0, 500) });
 }
 
 /**

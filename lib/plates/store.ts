@@ -1,6 +1,6 @@
 import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import type { Actor } from '@/lib/auth/roles';
 import { AppError } from '@/lib/errors';
@@ -8,6 +8,7 @@ import type { ParsedPlate } from '@/lib/imports/build-plate';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { Plate, Screen, Target, UploadedFile } from '@/models';
 import { analysisInput, type ReadoutData } from './analysis-input';
+import { insertReadouts, insertWells, selectCompoundsByUpperIdentifier, selectDuplicateUpload } from './queries';
 import { queueRefit } from './recompute';
 import { analysisSettings } from './settings';
 
@@ -24,11 +25,7 @@ export const sha256Hex = (bytes: Uint8Array): string => createHash('sha256').upd
 
 /** The plate already made from these exact bytes for this screen, if any. */
 export async function findDuplicateUpload(screenId: string, sha256: string, transaction?: Transaction): Promise<{ plateId: string; label: string } | null> {
-  const [row] = await Plate.sequelize!.query<{ plateId: string; label: string }>(
-    `select p.id as "plateId", p.label from uploaded_files f join plates p on p.uploaded_file_id = f.id
-      where f.screen_id = :screenId and f.sha256 = :sha256 limit 1`,
-    { type: QueryTypes.SELECT, replacements: { screenId, sha256 }, ...(transaction ? { transaction } : {}) },
-  );
+  const row = await selectDuplicateUpload(screenId, sha256, transaction);
   return row ?? null;
 }
 
@@ -37,9 +34,7 @@ async function idsByName(screenId: string, plate: ParsedPlate, transaction: Tran
   const targetId = new Map(targets.map((t) => [t.name.toLowerCase(), t.id]));
   const wanted = [...new Set(plate.wells.filter((w) => w.role === 'test').map((w) => w.compound).filter((c): c is string => c !== null))];
   const compounds = wanted.length
-    ? await Plate.sequelize!.query<{ id: string; identifier: string }>('select id, identifier from compounds where upper(identifier) in (:wanted)', {
-        type: QueryTypes.SELECT, replacements: { wanted: wanted.map((c) => c.toUpperCase()) }, transaction,
-      })
+    ? await selectCompoundsByUpperIdentifier(wanted.map((c) => c.toUpperCase()), transaction)
     : [];
   const compoundId = new Map(compounds.map((c) => [c.identifier.toUpperCase(), c.id]));
   const missingTarget = plate.targets.find((t) => !targetId.has(t.toLowerCase()));
@@ -47,25 +42,6 @@ async function idsByName(screenId: string, plate: ParsedPlate, transaction: Tran
   const missingCompound = wanted.find((c) => !compoundId.has(c.toUpperCase()));
   if (missingCompound) throw new AppError('invalid', `Compound "${missingCompound}" is not registered.`);
   return { target: (name: string) => targetId.get(name.toLowerCase())!, compound: (id: string | null) => (id === null ? null : compoundId.get(id.toUpperCase())!) };
-}
-
-const WELL_COLUMNS = {
-  id: 'uuid', plate_id: 'uuid', position: 'text', row_index: 'smallint', column_index: 'smallint', role: 'text', compound_id: 'uuid',
-  concentration_um: 'double precision', seal_resistance_gohm: 'double precision', series_resistance_mohm: 'double precision', capacitance_pf: 'double precision',
-} as const;
-const READOUT_COLUMNS = {
-  id: 'uuid', well_id: 'uuid', target_id: 'uuid', control_current_pa: 'double precision', compound_current_pa: 'double precision',
-  fractional_block: 'double precision', qc_reasons: 'jsonb',
-} as const;
-
-/** Inserts rows (plain objects keyed by column) with one statement and one JSON parameter. */
-async function insertRows(table: string, columns: Record<string, string>, rows: Record<string, unknown>[], transaction: Transaction): Promise<void> {
-  if (rows.length === 0) return;
-  const names = Object.keys(columns);
-  await Plate.sequelize!.query(
-    `insert into ${table} (${names.join(', ')}) select ${names.join(', ')} from jsonb_to_recordset($1::jsonb) as r(${names.map((n) => `${n} ${columns[n]}`).join(', ')})`,
-    { bind: [JSON.stringify(rows)], transaction },
-  );
 }
 
 /**
@@ -110,11 +86,11 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
   );
   // Wells and readouts go in as one JSON parameter each: a 384-well plate is hundreds of rows, and
   // building model instances and escaped SQL for each took most of an import's time on the server.
-  await insertRows('wells', WELL_COLUMNS, wellRows.map((w) => ({
+  await insertWells(wellRows.map((w) => ({
     id: w.id, plate_id: plateId, position: w.position, row_index: w.rowIndex, column_index: w.columnIndex, role: w.role, compound_id: w.compoundId,
     concentration_um: w.concentrationUm, seal_resistance_gohm: w.sealResistanceGohm, series_resistance_mohm: w.seriesResistanceMohm, capacitance_pf: w.capacitancePf,
   })), transaction);
-  await insertRows('readouts', READOUT_COLUMNS, readouts.map((r, i) => ({
+  await insertReadouts(readouts.map((r, i) => ({
     id: r.id, well_id: r.wellId, target_id: r.targetId, control_current_pa: r.controlCurrentPa, compound_current_pa: r.compoundCurrentPa,
     fractional_block: analysis.readouts[i]!.block, qc_reasons: analysis.readouts[i]!.qcReasons,
   })), transaction);

@@ -1,11 +1,11 @@
 import 'server-only';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import type { Actor, Role } from '@/lib/auth/roles';
-import { db } from '@/lib/db';
 import { env } from '@/lib/env';
 import type { OutgoingMail } from '@/lib/mail/outbox';
 import type { SignoffAction } from '@/lib/validation/signoff';
 import type { MailKind } from '@/models/mail-message';
+import { selectRecipients, type RecipientRow } from './queries';
 
 /** Where a plate's sign-off panel and history live; e-mails link here. */
 export const plateSignoffPath = (plateId: string) => `/plates/${plateId}/history`;
@@ -16,12 +16,6 @@ export interface NoticePlate {
   screenName: string;
   importedBy: string;
   submittedBy: string | null;
-}
-
-interface Recipient {
-  id: string;
-  email: string;
-  name: string;
 }
 
 interface Audience {
@@ -63,12 +57,9 @@ const AUDIENCE: Record<SignoffAction | 'import', Audience> = {
 };
 
 /** Enabled users holding one of the roles, or with one of the ids. */
-async function users(where: 'role' | 'id', values: string[], transaction: Transaction): Promise<Recipient[]> {
+async function users(where: 'role' | 'id', values: string[], transaction: Transaction): Promise<RecipientRow[]> {
   if (!values.length) return [];
-  const condition = where === 'role' ? 'u.id in (select user_id from user_roles where role in (:values))' : 'u.id in (:values)';
-  return db().query<Recipient>(`select u.id, u.email, u.name from users u where u.disabled_at is null and ${condition} order by u.email`, {
-    type: QueryTypes.SELECT, replacements: { values }, transaction,
-  });
+  return selectRecipients(where, values, transaction);
 }
 
 /**

@@ -1,11 +1,10 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
 import { hasRole, type Actor } from '@/lib/auth/roles';
-import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import type { SignoffAction } from '@/lib/validation/signoff';
 import type { PlateState } from '@/models/plate';
 import { plateContentSha256 } from './plate-content';
+import { selectLastPlateSignature, selectPanelPlate } from './queries';
 import { stepsFrom, WAITING_FOR } from './steps';
 
 export interface SignoffChoice {
@@ -32,37 +31,11 @@ export interface SignoffPanelData {
   notYours: string | null;
 }
 
-interface PlateRow {
-  id: string;
-  label: string;
-  state: PlateState;
-  version: number;
-  importedById: string;
-  verifiedById: string | null;
-  submittedById: string | null;
-  importedBy: string;
-  verifiedBy: string | null;
-  submittedBy: string | null;
-  decidedBy: string | null;
-}
-
 /** The sign-off panel of a plate for this person: its state, who signed, the data hash, and what they may sign. */
 export async function signoffPanel(actor: Actor, plateId: string): Promise<SignoffPanelData> {
-  const sequelize = db();
-  const [plate] = await sequelize.query<PlateRow>(
-    `select p.id, p.label, p.state, p.version, p.imported_by as "importedById", p.verified_by as "verifiedById", p.submitted_by as "submittedById",
-            i.name as "importedBy", v.name as "verifiedBy", s.name as "submittedBy", d.name as "decidedBy"
-       from plates p join users i on i.id = p.imported_by left join users v on v.id = p.verified_by
-       left join users s on s.id = p.submitted_by left join users d on d.id = p.decided_by
-      where p.id = :plateId`,
-    { type: QueryTypes.SELECT, replacements: { plateId } },
-  );
+  const plate = await selectPanelPlate(plateId);
   if (!plate) throw new AppError('not_found', 'No such plate.');
-  const [last] = await sequelize.query<NonNullable<SignoffPanelData['lastSignature']>>(
-    `select u.name as "signerName", to_char(s.signed_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "signedAt", s.meaning, s.content_sha256 as "contentSha256"
-       from signatures s join users u on u.id = s.signer_id where s.entity_type = 'plate' and s.entity_id = :plateId order by s.signed_at desc limit 1`,
-    { type: QueryTypes.SELECT, replacements: { plateId } },
-  );
+  const last = await selectLastPlateSignature(plateId);
   const signers = { importedBy: plate.importedById, verifiedBy: plate.verifiedById, submittedBy: plate.submittedById };
   const steps = stepsFrom(plate.state);
   const withRole = steps.filter((step) => hasRole(actor, step.role));

@@ -1,8 +1,8 @@
 import 'server-only';
-import { QueryTypes, type Transaction } from 'sequelize';
-import { db } from '@/lib/db';
+import type { Transaction } from 'sequelize';
 import { AppError, isAppError } from '@/lib/errors';
 import type { Plate, PlateState } from '@/models/plate';
+import { selectLastSignoff } from './queries';
 import type { SignoffStep } from './steps';
 
 /** How a plate's state reads in a sentence. */
@@ -21,11 +21,7 @@ const timeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeS
  * this is what the slower of two people signing at once reads. An approved plate is refused as locked.
  */
 export async function refuseWrongState(plate: Plate, step: SignoffStep, transaction: Transaction): Promise<never> {
-  const [last] = await db().query<{ name: string; signedAt: Date }>(
-    `select u.name, s.signed_at as "signedAt" from signoff_events e join signatures s on s.id = e.signature_id join users u on u.id = s.signer_id
-      where e.plate_id = :plateId order by e.occurred_at desc, s.signed_at desc limit 1`,
-    { type: QueryTypes.SELECT, replacements: { plateId: plate.id }, transaction },
-  );
+  const last = await selectLastSignoff(plate.id, transaction);
   const by = last ? ` by ${last.name} (${timeFormat.format(new Date(last.signedAt))} UTC)` : '';
   if (plate.state === 'approved') {
     throw new AppError('locked', `Plate ${plate.label} was approved${by} and is locked: no signature, edit or exclusion can change it. A correction is a new import that references it. Nothing was signed.`);

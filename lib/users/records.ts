@@ -1,8 +1,9 @@
 import 'server-only';
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import type { Role } from '@/lib/auth/roles';
 import { AppError } from '@/lib/errors';
 import { User, UserRole } from '@/models';
+import { countOtherEnabledAdmins, lockAdminSetKey } from './queries';
 
 /** A user as the admin pages show it (never the password hash). */
 export interface UserSummary {
@@ -63,17 +64,13 @@ export async function lockUser(userId: string, transaction: Transaction): Promis
 
 /** Serialises every change that could leave Gatewell without an enabled admin. */
 export async function lockAdminSet(transaction: Transaction): Promise<void> {
-  await User.sequelize!.query(`select pg_advisory_xact_lock(hashtext('gatewell.admin-set'))`, { transaction });
+  await lockAdminSetKey(transaction);
 }
 
 /** Refuses a change (removing the admin role, disabling) that would leave no other enabled admin. */
 export async function assertAnotherEnabledAdmin(userId: string, change: string, transaction: Transaction): Promise<void> {
-  const [row] = await User.sequelize!.query<{ n: number }>(
-    `select count(*)::int as n from users u join user_roles r on r.user_id = u.id
-      where r.role = 'admin' and u.disabled_at is null and u.id <> :userId`,
-    { replacements: { userId }, transaction, type: QueryTypes.SELECT },
-  );
-  if (!row || row.n === 0) {
+  const others = await countOtherEnabledAdmins(userId, transaction);
+  if (!others) {
     throw new AppError('conflict', `This is the last enabled admin, so Gatewell cannot ${change}. Give another person the admin role first.`);
   }
 }

@@ -6,7 +6,7 @@ import { currentActor } from '@/lib/auth/current-actor';
 import { requestAddress } from '@/lib/auth/request-address';
 import { getSession } from '@/lib/auth/session';
 import { signIn } from '@/lib/auth/sign-in';
-import { endAllSessions } from '@/lib/auth/sign-out';
+import { recordSignOut } from '@/lib/auth/sign-out';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { safeNextPath, signInSchema } from '@/lib/validation/auth';
 
@@ -57,6 +57,6 @@ export async function signOutAction(): Promise<void> {
   const actor = await currentActor();
   const session = await getSession();
   session.destroy();
-  if (actor) await endAllSessions(actor);
+  if (actor) await recordSignOut(actor);
   redirect('/sign-in');
 }

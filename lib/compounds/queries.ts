@@ -1,0 +1,75 @@
+import 'server-only';
+import { QueryTypes } from 'sequelize';
+import { db } from '@/lib/db';
+import type { FitModel, FitStatus } from '@/models/fit';
+import type { PlateState } from '@/models/plate';
+
+/** One fit of a compound on one plate, with where it stands in sign-off. */
+export interface ProfileFit {
+  fitId: string;
+  plateId: string;
+  plateLabel: string;
+  plateState: PlateState;
+  /** Only approved plates count as results (DESIGN.md, Results); the rest are shown as not yet approved. */
+  approved: boolean;
+  importedAt: string;
+  screenId: string;
+  screenName: string;
+  targetId: string;
+  target: string;
+  conductance: string;
+  model: FitModel;
+  status: FitStatus;
+  message: string;
+  ic50Um: number | null;
+  ic50CiLowUm: number | null;
+  ic50CiHighUm: number | null;
+  ic50LowerBoundUm: number | null;
+  hill: number | null;
+  r2: number | null;
+  n: number;
+}
+
+// SQL for speed: every fit of the compound with its plate, screen and target in one query, approved plates first.
+export async function selectCompoundFits(compoundId: string): Promise<ProfileFit[]> {
+  return db().query<ProfileFit>(
+    `select f.id as "fitId", p.id as "plateId", p.label as "plateLabel", p.state as "plateState", (p.state = 'approved') as approved,
+            to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
+            s.id as "screenId", s.name as "screenName", t.id as "targetId", t.name as target, t.conductance,
+            f.model, f.status, f.message, f.ic50_um as "ic50Um", f.ic50_ci_low_um as "ic50CiLowUm", f.ic50_ci_high_um as "ic50CiHighUm",
+            f.ic50_lower_bound_um as "ic50LowerBoundUm", f.hill, f.r2, f.n
+       from fits f join plates p on p.id = f.plate_id join screens s on s.id = p.screen_id join targets t on t.id = f.target_id
+      where f.compound_id = :compoundId
+      order by (p.state = 'approved') desc, p.imported_at desc, p.label, t.name`,
+    { type: QueryTypes.SELECT, replacements: { compoundId } },
+  );
+}
+
+export interface CompoundSummary {
+  id: string;
+  identifier: string;
+  name: string;
+  smiles: string;
+  molecularWeight: number | null;
+  batchCount: number;
+  plateCount: number;
+}
+
+// SQL: counts of batches and distinct plates per compound (aggregates the ORM cannot say), ordered case-blind.
+export async function selectCompoundSummaries(): Promise<CompoundSummary[]> {
+  return db().query<CompoundSummary>(
+    `select c.id, c.identifier, c.name, c.smiles, c.molecular_weight as "molecularWeight",
+            (select count(*)::int from batches b where b.compound_id = c.id) as "batchCount",
+            (select count(distinct w.plate_id)::int from wells w where w.compound_id = c.id) as "plateCount"
+       from compounds c
+      order by upper(c.identifier)`,
+    { type: QueryTypes.SELECT },
+  );
+}
+
+// SQL: compounds matched case-blind on upper(identifier), which the ORM's where cannot say plainly.
+export async function selectRegisteredIdentifiers(upperIds: string[]): Promise<{ identifier: string }[]> {
+  return db().query<{ identifier: string }>('select identifier from compounds where upper(identifier) in (:ids)', {
+    type: QueryTypes.SELECT, replacements: { ids: upperIds },
+  });
+}

@@ -1,0 +1,32 @@
+import 'server-only';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { db } from '@/lib/db';
+import type { ForecastResult } from '@/lib/science/forecast/assemble';
+
+// SQL: one null-safe match on the plate (`is not distinct from`, a profile forecast has none), oldest first.
+export async function selectStoredForecast(
+  owner: { compoundId: string; plateId: string | null },
+  inputSha256: string,
+  transaction?: Transaction,
+): Promise<{ result: ForecastResult; computedAt: Date } | undefined> {
+  const [row] = await db().query<{ result: ForecastResult; computedAt: Date }>(
+    `select result, computed_at as "computedAt" from forecasts
+      where compound_id = :compoundId and input_sha256 = :inputSha256 and plate_id is not distinct from :plateId
+      order by computed_at limit 1`,
+    { type: QueryTypes.SELECT, replacements: { compoundId: owner.compoundId, plateId: owner.plateId, inputSha256 }, transaction },
+  );
+  return row;
+}
+
+// SQL for speed: only the distinct keys, not the stored results (large JSON) the model would read.
+export async function selectStoredKeys(plateId: string, inputSha256s: string[]): Promise<{ sha: string }[]> {
+  return db().query<{ sha: string }>(
+    'select distinct input_sha256 as sha from forecasts where plate_id = :plateId and input_sha256 in (:inputSha256s)',
+    { type: QueryTypes.SELECT, replacements: { plateId, inputSha256s } },
+  );
+}
+
+// SQL for a lock: a transaction-level advisory lock on the input's key, so that two computations store one row.
+export async function lockForecastInput(inputSha256: string, transaction: Transaction): Promise<void> {
+  await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', { replacements: { key: `forecast:${inputSha256}` }, transaction });
+}

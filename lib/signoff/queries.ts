@@ -1,0 +1,165 @@
+import 'server-only';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { db } from '@/lib/db';
+import type { PlateState } from '@/models/plate';
+
+const opts = (plateId: string, transaction?: Transaction) => ({ type: QueryTypes.SELECT, replacements: { plateId }, ...(transaction ? { transaction } : {}) }) as const;
+
+// SQL: the signed content is exactly these columns, named and ordered here, so that the same data always hashes the same.
+export async function selectContentPlate(plateId: string, transaction?: Transaction): Promise<Record<string, unknown> | undefined> {
+  const [plate] = await db().query<Record<string, unknown>>(
+    `select p.id, p.label, p.format, p.screen_id as "screenId", p.supersedes_plate_id as "supersedesPlateId", p.imported_by as "importedBy",
+            f.filename, f.sha256 as "fileSha256", p.qc_summary as "qcSummary"
+       from plates p join uploaded_files f on f.id = p.uploaded_file_id where p.id = :plateId`,
+    opts(plateId, transaction),
+  );
+  return plate;
+}
+
+// SQL for speed and a fixed shape: every well of the plate in plate order, as the signature covers it.
+export async function selectContentWells(plateId: string, transaction?: Transaction): Promise<object[]> {
+  return db().query(
+    `select w.id, w.position, w.role, w.compound_id as "compoundId", c.identifier as compound, w.batch_id as "batchId",
+            w.concentration_um as "concentrationUm", w.seal_resistance_gohm as "sealResistanceGohm", w.series_resistance_mohm as "seriesResistanceMohm",
+            w.capacitance_pf as "capacitancePf", w.excluded, w.exclusion_reason as "exclusionReason", w.excluded_by as "excludedBy"
+       from wells w left join compounds c on c.id = w.compound_id where w.plate_id = :plateId order by w.row_index, w.column_index`,
+    opts(plateId, transaction),
+  );
+}
+
+// SQL for speed and a fixed shape: every readout of the plate in plate order, as the signature covers it.
+export async function selectContentReadouts(plateId: string, transaction?: Transaction): Promise<object[]> {
+  return db().query(
+    `select r.well_id as "wellId", r.target_id as "targetId", r.control_current_pa as "controlCurrentPa", r.compound_current_pa as "compoundCurrentPa",
+            r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons"
+       from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by w.row_index, w.column_index, r.target_id`,
+    opts(plateId, transaction),
+  );
+}
+
+// SQL: the fits exactly as the signature covers them (columns, names and order fixed here).
+export async function selectContentFits(plateId: string, transaction?: Transaction): Promise<object[]> {
+  return db().query(
+    `select compound_id as "compoundId", target_id as "targetId", model, status, message, ic50_um as "ic50Um", ic50_ci_low_um as "ic50CiLowUm",
+            ic50_ci_high_um as "ic50CiHighUm", ic50_lower_bound_um as "ic50LowerBoundUm", log10_ic50_se as "log10Ic50Se", hill, top, bottom,
+            r2, residual_sd as "residualSd", n, flags, estimate
+       from fits where plate_id = :plateId order by compound_id, target_id`,
+    opts(plateId, transaction),
+  );
+}
+
+// SQL: reads the system columns xmin and ctid and aggregates them in PostgreSQL, which the ORM cannot say.
+export async function selectRowVersionFingerprint(plateId: string, transaction?: Transaction): Promise<string | null> {
+  const [row] = await db().query<{ fingerprint: string | null }>(
+    `select md5(string_agg(part, ',')) as fingerprint from (
+       select 'p' || p.xmin || p.ctid || f.xmin || f.ctid as part from plates p join uploaded_files f on f.id = p.uploaded_file_id where p.id = :plateId
+       union all (select 'w' || w.xmin || w.ctid || coalesce(c.xmin::text || c.ctid::text, '') from wells w left join compounds c on c.id = w.compound_id
+                   where w.plate_id = :plateId order by w.id)
+       union all (select 'r' || r.xmin || r.ctid from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by r.id)
+       union all (select 'f' || x.xmin || x.ctid from fits x where x.plate_id = :plateId order by x.id)
+     ) parts`,
+    opts(plateId, transaction),
+  );
+  return row?.fingerprint ?? null;
+}
+
+export interface PanelPlateRow {
+  id: string;
+  label: string;
+  state: PlateState;
+  version: number;
+  importedById: string;
+  verifiedById: string | null;
+  submittedById: string | null;
+  importedBy: string;
+  verifiedBy: string | null;
+  submittedBy: string | null;
+  decidedBy: string | null;
+}
+
+// SQL for speed: the plate and the names of its four signers in one query (four joins to users the models do not declare).
+export async function selectPanelPlate(plateId: string): Promise<PanelPlateRow | undefined> {
+  const [plate] = await db().query<PanelPlateRow>(
+    `select p.id, p.label, p.state, p.version, p.imported_by as "importedById", p.verified_by as "verifiedById", p.submitted_by as "submittedById",
+            i.name as "importedBy", v.name as "verifiedBy", s.name as "submittedBy", d.name as "decidedBy"
+       from plates p join users i on i.id = p.imported_by left join users v on v.id = p.verified_by
+       left join users s on s.id = p.submitted_by left join users d on d.id = p.decided_by
+      where p.id = :plateId`,
+    { type: QueryTypes.SELECT, replacements: { plateId } },
+  );
+  return plate;
+}
+
+export interface LastSignatureRow {
+  signerName: string;
+  signedAt: string;
+  meaning: string;
+  contentSha256: string;
+}
+
+// SQL: the time is written as UTC text by PostgreSQL (to_char), with the signer's name, in one query.
+export async function selectLastPlateSignature(plateId: string): Promise<LastSignatureRow | undefined> {
+  const [last] = await db().query<LastSignatureRow>(
+    `select u.name as "signerName", to_char(s.signed_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "signedAt", s.meaning, s.content_sha256 as "contentSha256"
+       from signatures s join users u on u.id = s.signer_id where s.entity_type = 'plate' and s.entity_id = :plateId order by s.signed_at desc limit 1`,
+    { type: QueryTypes.SELECT, replacements: { plateId } },
+  );
+  return last;
+}
+
+export interface HistoryRow {
+  id: number;
+  occurredAt: string;
+  actorName: string | null;
+  action: string;
+  entityType: string;
+  wellPosition: string | null;
+  reason: string | null;
+  before: Record<string, unknown> | null;
+  after: Record<string, unknown> | null;
+  meaning: string | null;
+  comment: string | null;
+  contentSha256: string | null;
+  signedAt: string | null;
+}
+
+// SQL: audit events joined to wells and signatures through text ids and a JSON field, which the ORM cannot say.
+export async function selectPlateHistory(plateId: string): Promise<HistoryRow[]> {
+  return db().query<HistoryRow>(
+    `select a.id, to_char(a.occurred_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "occurredAt", u.name as "actorName", a.action,
+            a.entity_type as "entityType", w.position as "wellPosition", a.reason, a.before, a.after,
+            s.meaning, s.comment, s.content_sha256 as "contentSha256", to_char(s.signed_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "signedAt"
+       from audit_events a
+       left join users u on u.id = a.actor_id
+       left join wells w on a.entity_type = 'well' and w.plate_id = :plateId and w.id::text = a.entity_id
+       left join signatures s on a.action = 'sign' and s.id::text = a.after ->> 'signatureId'
+      where (a.entity_type = 'plate' and a.entity_id = :plateId)
+         or (a.entity_type = 'well' and a.entity_id in (select id::text from wells where plate_id = :plateId))
+      order by a.id`,
+    { type: QueryTypes.SELECT, replacements: { plateId } },
+  );
+}
+
+// SQL for speed: the latest sign-off's signer and time in one query, in the caller's transaction (two joins the models do not declare).
+export async function selectLastSignoff(plateId: string, transaction: Transaction): Promise<{ name: string; signedAt: Date } | undefined> {
+  const [last] = await db().query<{ name: string; signedAt: Date }>(
+    `select u.name, s.signed_at as "signedAt" from signoff_events e join signatures s on s.id = e.signature_id join users u on u.id = s.signer_id
+      where e.plate_id = :plateId order by e.occurred_at desc, s.signed_at desc limit 1`,
+    { type: QueryTypes.SELECT, replacements: { plateId }, transaction },
+  );
+  return last;
+}
+
+export interface RecipientRow {
+  id: string;
+  email: string;
+  name: string;
+}
+
+// SQL for speed: enabled users holding one of the roles, or with one of the ids, in the caller's transaction, as plain rows.
+export async function selectRecipients(where: 'role' | 'id', values: string[], transaction: Transaction): Promise<RecipientRow[]> {
+  const condition = where === 'role' ? 'u.id in (select user_id from user_roles where role in (:values))' : 'u.id in (:values)';
+  return db().query<RecipientRow>(`select u.id, u.email, u.name from users u where u.disabled_at is null and ${condition} order by u.email`, {
+    type: QueryTypes.SELECT, replacements: { values }, transaction,
+  });
+}
