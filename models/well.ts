@@ -1,7 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-
-export const WELL_ROLES = ['vehicle', 'reference', 'test'] as const;
-export type WellRole = (typeof WELL_ROLES)[number];
+import type { WellRole } from '@/lib/domain/well-roles';
 
 /** One well (one cell): what it holds and the recording's cell properties; never deleted, only excluded. */
 export class Well extends Model<InferAttributes<Well>, InferCreationAttributes<Well>> {

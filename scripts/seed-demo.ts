@@ -16,7 +16,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { signPlateStep } from '@/lib/signoff/service';
-import type { SignoffAction } from '@/lib/validation/signoff';
+import type { SignoffAction } from '@/lib/domain/plate-states';
 import { startJobWorkers, stopJobWorkers } from '@/lib/jobs/worker';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { Compound, Plate, Screen } from '@/models';

@@ -1,6 +1,6 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { AppError } from '@/lib/errors';
@@ -34,7 +34,7 @@ export interface AuditPage {
  * range (from inclusive, to exclusive). Admins and approvers only.
  */
 export async function searchAudit(actor: Actor, rawFilter: unknown): Promise<AuditPage> {
-  requireRole(actor, 'admin', 'approver');
+  requireCapability(actor, 'readAudit');
   const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
   const { whereSql, replacements } = filterSql(filter);
   const sequelize = db();
@@ -54,7 +54,7 @@ export const AUDIT_EXPORT_LIMIT = 100_000;
  * message when more than `limit` match. Admins and approvers only.
  */
 export async function auditEventsForExport(actor: Actor, rawFilter: unknown, limit = AUDIT_EXPORT_LIMIT): Promise<{ filter: AuditFilter; rows: AuditRow[] }> {
-  requireRole(actor, 'admin', 'approver');
+  requireCapability(actor, 'readAudit');
   const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
   const { whereSql, replacements } = filterSql(filter);
   const rows = await selectRows(whereSql, replacements, limit + 1, 0);
@@ -99,7 +99,7 @@ function selectRows(whereSql: string, replacements: Record<string, unknown>, lim
 
 /** The choices of the audit filter: record types that occur, and people. Admins and approvers only. */
 export async function auditFilterChoices(actor: Actor): Promise<{ entityTypes: string[]; people: { id: string; label: string }[] }> {
-  requireRole(actor, 'admin', 'approver');
+  requireCapability(actor, 'readAudit');
   const sequelize = db();
   const [types, people] = await Promise.all([
     sequelize.query<{ entityType: string }>('select distinct entity_type as "entityType" from audit_events order by 1', { type: QueryTypes.SELECT }),

@@ -1,7 +1,8 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
-import type { Actor, Role } from './roles';
+import type { Role } from '@/lib/domain/roles';
+import type { Actor } from './roles';
 
 interface ActorRow {
   id: string;

@@ -1,6 +1,6 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
@@ -19,7 +19,7 @@ export interface BulkRegistration {
  * given. All rows are checked first; with any error nothing is registered (commit false previews only).
  */
 export async function registerCompoundsFromSheet(actor: Actor, file: { bytes: Uint8Array; filename: string }, commit: boolean): Promise<BulkRegistration> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   const parsed = await parseSpreadsheet(file.bytes, file.filename);
   if (!parsed.ok) throw new AppError(parsed.error.code === 'too_large' ? 'too_large' : 'invalid', parsed.error.message);
   const sheet = parsed.sheets[0];

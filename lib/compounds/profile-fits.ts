@@ -3,7 +3,7 @@ import { QueryTypes } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import type { FitModel, FitStatus } from '@/models/fit';
-import type { PlateState } from '@/models/plate';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 /** One fit of a compound on one plate, with where it stands in sign-off. */
 export interface ProfileFit {

@@ -1,7 +1,7 @@
 import 'server-only';
 import { UniqueConstraintError, type Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import type { BatchInput, CompoundInput } from '@/lib/validation/compounds';
@@ -48,13 +48,13 @@ export async function insertCompound(actor: Actor, input: CompoundInput, transac
 
 /** Registers one compound (chemist or admin). */
 export async function createCompound(actor: Actor, input: CompoundInput): Promise<CompoundRecord> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   return db().transaction((transaction) => insertCompound(actor, input, transaction));
 }
 
 /** Edits a compound's identity fields; the audit event keeps before and after. */
 export async function updateCompound(actor: Actor, compoundId: string, input: CompoundInput): Promise<CompoundRecord> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   return db().transaction(async (transaction) => {
     const compound = await Compound.findByPk(compoundId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!compound) throw new AppError('not_found', 'No such compound.');
@@ -80,7 +80,7 @@ export async function insertBatch(actor: Actor, compoundId: string, input: Batch
 
 /** Registers a batch of an existing compound (chemist or admin). */
 export async function addBatch(actor: Actor, compoundId: string, input: BatchInput): Promise<BatchRecord> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   return db().transaction(async (transaction) => {
     const compound = await Compound.findByPk(compoundId, { transaction });
     if (!compound) throw new AppError('not_found', 'No such compound.');

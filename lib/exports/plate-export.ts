@@ -1,11 +1,12 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
+import { PLATE_STATE_LABEL } from '@/lib/domain/plate-states';
 import { listPlateForecasts, getPlateForecast } from '@/lib/forecasts/plate-forecast';
 import { getPlateHeader, listPlateFits, listPlateWells } from '@/lib/plates/detail';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
 import type { ExportDocument, ExportTable } from './document';
 import { forecastTable } from './forecast-rows';
-import { listPlateSignoffs, signoffLines, signoffTable, STATE_WORDS } from './signoffs';
+import { listPlateSignoffs, signoffLines, signoffTable } from './signoffs';
 
 const FIT_STATUS_WORDS: Record<string, string> = {
   fitted: 'Fitted', above_range: 'IC50 above the tested range', inactive: 'Inactive', insufficient: 'Too few concentrations', not_converged: 'Did not converge',
@@ -44,7 +45,7 @@ export async function plateExport(actor: Actor, plateId: string): Promise<{ labe
     ['Gatewell export', `Plate ${header.label}: wells, fits and forecast`],
     ['Caution', FORECAST_CAUTION],
     ['Plate', header.label],
-    ['State', STATE_WORDS[header.state]],
+    ['State', PLATE_STATE_LABEL[header.state]],
     ['Plate version', header.version],
     ['Fits', header.fitsPending ? 'being recomputed after the last change: these are the fits before it; export again once the plate page shows them current' : 'current'],
     ['Screen', header.screenName],

@@ -1,5 +1,5 @@
-import type { WellRole } from './import-fields';
-import { PLATE_FORMATS, type PlateFormat } from './plate-format';
+import type { WellRole } from '@/lib/domain/well-roles';
+import { PLATE_FORMAT_SIZE, type PlateFormat } from '@/lib/domain/plate-formats';
 import type { PreviewRow } from './read-row';
 
 /** The currents of one target in one well, pA (sign as recorded: inward currents are negative). */
@@ -65,5 +65,5 @@ export function buildPlate(rows: readonly PreviewRow[], format: PlateFormat, for
     if (!targets.includes(values.target)) targets.push(values.target);
   }
   const sorted = [...wells.values()].sort((a, b) => a.rowIndex - b.rowIndex || a.columnIndex - b.columnIndex);
-  return { format, formatSource, ...PLATE_FORMATS[format], targets, wells: sorted };
+  return { format, formatSource, ...PLATE_FORMAT_SIZE[format], targets, wells: sorted };
 }

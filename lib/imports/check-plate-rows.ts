@@ -1,7 +1,8 @@
 import type { ImportField } from './import-fields';
 import { makeIssue, type ImportIssueCode } from './import-issue';
 import { normaliseLabel } from './normalise-text';
-import { describeFormat, fitsFormat, inferPlateFormat, type PlateFormat } from './plate-format';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
+import { describeFormat, fitsFormat, inferPlateFormat } from './plate-format';
 import type { PreviewRow, RowValues } from './read-row';
 import type { ResolvedColumns } from './resolve-columns';
 

@@ -1,4 +1,5 @@
-import { FIELD_LABEL, type ImportField, type UnitField, type WellRole } from './import-fields';
+import type { WellRole } from '@/lib/domain/well-roles';
+import { FIELD_LABEL, type ImportField, type UnitField } from './import-fields';
 import { makeIssue, type ImportIssue, type ImportIssueCode } from './import-issue';
 import { UNIT_KIND } from './guess-mapping';
 import { normaliseIdentifier, normaliseLabel } from './normalise-text';

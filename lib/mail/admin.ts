@@ -1,7 +1,7 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { LINK_MAIL_KINDS, MailMessage, type MailKind, type MailState } from '@/models/mail-message';
@@ -29,7 +29,7 @@ const iso = (column: string) => `to_char(${column} at time zone 'UTC', 'YYYY-MM-
 
 /** The newest messages of the outbox with their delivery state, optionally of one state. Admins only. */
 export async function listOutbox(actor: Actor, filter: { state?: MailState } = {}): Promise<OutboxRow[]> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   return db().query<OutboxRow>(
     `select m.id, m.kind, m.plate_id as "plateId", p.label as "plateLabel", m.to_address as "toAddress", u.name as "recipientName", m.subject, m.state,
             m.attempts, m.max_attempts as "maxAttempts", ${iso('m.created_at')} as "createdAt",
@@ -45,7 +45,7 @@ export async function listOutbox(actor: Actor, filter: { state?: MailState } = {
 
 /** Counts by delivery state, for the page's summary line. Admins only. */
 export async function outboxCounts(actor: Actor): Promise<Record<MailState, number>> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   const rows = await db().query<{ state: MailState; n: number }>('select state, count(*)::int as n from mail_outbox group by state', { type: QueryTypes.SELECT });
   return { queued: 0, sent: 0, failed: 0, ...Object.fromEntries(rows.map((r) => [r.state, r.n])) };
 }
@@ -56,7 +56,7 @@ export async function outboxCounts(actor: Actor): Promise<Record<MailState, numb
  * ids. Admins only. Returns how many were brought forward.
  */
 export async function hurryWaitingMail(actor: Actor): Promise<number> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   return db().transaction(async (transaction) => {
     const rows = await db().query<{ id: string }>(
       `update mail_outbox set next_attempt_at = now()
@@ -73,7 +73,7 @@ export async function hurryWaitingMail(actor: Actor): Promise<number> {
 
 /** Puts a message that gave up back in the queue for a fresh round of attempts; audited. Admins only. */
 export async function requeueMail(actor: Actor, messageId: string): Promise<void> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   await db().transaction(async (transaction) => {
     const message = await MailMessage.findByPk(messageId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!message) throw new AppError('not_found', 'No such message in the outbox.');

@@ -3,7 +3,7 @@ import { QueryTypes } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import type { PlateState } from '@/models/plate';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 export interface PlateHeader {
   id: string;

@@ -2,7 +2,7 @@ import 'server-only';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { loadActor } from '@/lib/auth/load-actor';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { db } from '@/lib/db';
 import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
@@ -33,7 +33,7 @@ const jobKey = (uploadId: string) => `plate-import:${uploadId}`;
 
 /** Keeps the upload and queues its job, in one transaction; returns the job's id. */
 export async function queueImport(actor: Actor, request: CommitRequest): Promise<string> {
-  requireRole(actor, 'biologist');
+  requireCapability(actor, 'importPlates');
   const { bytes, ...fields } = request;
   const stored: StoredRequest = fields;
   return db().transaction(async (transaction) => {

@@ -1,6 +1,6 @@
 // Fractional block per well, corrected for vehicle run-down, with plate Z′ per target.
 import { mean } from 'simple-statistics';
-import type { WellRole } from './well';
+import type { WellRole } from '@/lib/domain/well-roles';
 import { plateZPrime, type ZPrimeResult } from './zprime';
 
 export interface BlockWell {

@@ -1,16 +1,16 @@
 // A whole plate through the science: well QC per readout, fractional block and Z′ per target, Hill fits
 // per compound × target. Pure and deterministic; the import and every exclusion change call it.
+import type { WellRole } from '@/lib/domain/well-roles';
 import { computeFractionalBlock, type BlockNoteCode } from './block';
 import { fitHill, type HillFitResult } from './hill-fit';
 import type { HillModelName } from './hill-model';
 import { checkWells, type QcReason } from './qc';
 import type { QcThresholds } from './qc-thresholds';
-import type { WellRole } from './well';
 import type { ZPrimeResult } from './zprime';
 
 export interface AnalysisWell {
   id: string;
-  role: 'vehicle' | 'reference' | 'test';
+  role: WellRole;
   compoundId: string | null;
   concentration_uM: number | null;
   sealResistance_GOhm: number | null;
@@ -68,8 +68,6 @@ export interface PlateAnalysis {
   fits: FitAnalysis[];
 }
 
-const SCIENCE_ROLE: Record<AnalysisWell['role'], WellRole> = { vehicle: 'vehicle', reference: 'reference', test: 'compound' };
-
 export const fitKey = (compoundId: string, target: string): string => `${compoundId}|${target}`;
 
 /**
@@ -88,7 +86,7 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
     readouts.map((r) => {
       const w = wellOf(r);
       return {
-        wellId: r.id, role: SCIENCE_ROLE[w.role], controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA,
+        wellId: r.id, role: w.role, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA,
         sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
       };
     }),
@@ -98,7 +96,7 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
 
   const blocks = computeFractionalBlock(
     readouts.map((r, i) => ({
-      wellId: r.id, target: r.target, role: SCIENCE_ROLE[wellOf(r).role],
+      wellId: r.id, target: r.target, role: wellOf(r).role,
       controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA, excluded: !used[i],
     })),
     { normalise: settings.normalise ?? false, zPrimeLimit: settings.zPrimeLimit ?? 0.5 },

@@ -1,6 +1,7 @@
 // Well QC: each well against the screen's thresholds, with every reason it fails.
 import { resolveQcThresholds, type QcThresholds } from './qc-thresholds';
-import type { RawValue, WellRole } from './well';
+import type { WellRole } from '@/lib/domain/well-roles';
+import type { RawValue } from './well';
 
 /** The readouts of one well, as imported (values may be missing or text). */
 export interface QcWell {

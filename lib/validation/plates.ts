@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { wellRoleSchema } from '@/lib/domain/well-roles';
 
 /** Exclude or re-include wells: the same schema checks the form in the browser and the request on the server. */
 export const exclusionSchema = z.object({
@@ -26,7 +27,7 @@ export const wellRowSchema = z.object({
   position: z.string(),
   rowIndex: z.number().int(),
   columnIndex: z.number().int(),
-  role: z.enum(['vehicle', 'reference', 'test']),
+  role: wellRoleSchema,
   compoundId: z.uuid().nullable(),
   compound: z.string().nullable(),
   concentrationUm: z.number().nullable(),

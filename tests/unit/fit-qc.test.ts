@@ -6,7 +6,7 @@ import { DEFAULT_QC_THRESHOLDS, resolveQcThresholds } from '@/lib/science/qc-thr
 /** A well inside every default limit (values invented for the test). */
 const good: QcWell = {
   wellId: 'A01',
-  role: 'compound',
+  role: 'test',
   controlCurrent_pA: -1500,
   compoundCurrent_pA: -700,
   sealResistance_GOhm: 1.2,

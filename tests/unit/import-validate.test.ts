@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { guessMapping } from '@/lib/imports/guess-mapping';
-import type { PlateFormat } from '@/lib/imports/plate-format';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet } from '@/lib/imports/validate-plate-sheet';
 

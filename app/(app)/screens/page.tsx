@@ -3,7 +3,7 @@ import { AppLink } from '@/components/ui/app-link';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { listScreens } from '@/lib/screens/list';
 
 export const metadata: Metadata = { title: 'Screens' };
@@ -20,7 +20,7 @@ function Threshold({ label, value }: { label: string; value: string }) {
 export default async function ScreensPage() {
   const actor = await requireActor();
   const screens = await listScreens(actor);
-  const actions = hasRole(actor, 'admin') ? <AppLink href="/screens/new" className="gw-button">New screen</AppLink> : undefined;
+  const actions = can(actor, 'manageScreens') ? <AppLink href="/screens/new" className="gw-button">New screen</AppLink> : undefined;
   if (!screens.length) {
     return (
       <>
