@@ -42,8 +42,8 @@ async function once(bytes: Uint8Array) {
   const plate = preview.plate;
   const [, analyseMs] = await time(() =>
     analysePlate(
-      plate.wells.map((w, i) => ({ id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false })),
-      plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: `${i}-${r.target}`, wellId: String(i), target: r.target, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa }))),
+      plate.wells.map((w, i) => ({ id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF, excluded: false })),
+      plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: `${i}-${r.target}`, wellId: String(i), target: r.target, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA }))),
       analysisSettings(screen),
     ),
   );

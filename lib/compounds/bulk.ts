@@ -39,9 +39,9 @@ export async function registerCompoundsFromSheet(actor: Actor, file: { bytes: Ui
   if (!commit || !ok) return { rows, problems, ok, registered: 0 };
   await db().transaction(async (transaction) => {
     for (const row of rows) {
-      const { lot, purityPercent, stockConcentrationMm, solvent, ...compound } = row.input!;
+      const { lot, purity_percent, stockConcentration_mM, solvent, ...compound } = row.input!;
       const created = await insertCompound(actor, compound, transaction);
-      if (lot) await insertBatch(actor, created.id, { lot, purityPercent, stockConcentrationMm, solvent: solvent || 'DMSO' }, transaction);
+      if (lot) await insertBatch(actor, created.id, { lot, purity_percent, stockConcentration_mM, solvent: solvent || 'DMSO' }, transaction);
     }
   });
   return { rows, problems, ok, registered: rows.length };

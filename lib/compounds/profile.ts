@@ -10,7 +10,7 @@ export interface ProfileScreen {
   id: string;
   name: string;
   neuronPreset: string;
-  exposuresUm: number[];
+  exposures_uM: number[];
   /** The compound has at least one fit on an approved plate of this screen. */
   hasApproved: boolean;
 }
@@ -35,7 +35,7 @@ export async function getCompoundProfile(actor: Actor, compoundId: string): Prom
   const screenIds = [...new Set(fits.map((f) => f.screenId))];
   const screens = screenIds.length
     ? await db().query<Omit<ProfileScreen, 'hasApproved'>>(
-        'select id, name, neuron_preset as "neuronPreset", exposures_um as "exposuresUm" from screens where id in (:screenIds) order by name',
+        'select id, name, neuron_preset as "neuronPreset", exposures_um as "exposures_uM" from screens where id in (:screenIds) order by name',
         { type: QueryTypes.SELECT, replacements: { screenIds } },
       )
     : [];
@@ -44,6 +44,6 @@ export async function getCompoundProfile(actor: Actor, compoundId: string): Prom
     fits,
     potencies,
     selectivity: selectivityRatios(potencies),
-    screens: screens.map((s) => ({ ...s, exposuresUm: [...s.exposuresUm].sort((a, b) => a - b), hasApproved: fits.some((f) => f.screenId === s.id && f.approved) })),
+    screens: screens.map((s) => ({ ...s, exposures_uM: [...s.exposures_uM].sort((a, b) => a - b), hasApproved: fits.some((f) => f.screenId === s.id && f.approved) })),
   };
 }

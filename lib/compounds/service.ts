@@ -19,8 +19,8 @@ export interface BatchRecord {
   id: string;
   compoundId: string;
   lot: string;
-  purityPercent: number | null;
-  stockConcentrationMm: number | null;
+  purity_percent: number | null;
+  stockConcentration_mM: number | null;
   solvent: string;
 }
 
@@ -28,7 +28,7 @@ const toCompound = (c: Compound): CompoundRecord => ({
   id: c.id, identifier: c.identifier, name: c.name, smiles: c.smiles, molecularWeight: c.molecularWeight,
 });
 const toBatch = (b: Batch): BatchRecord => ({
-  id: b.id, compoundId: b.compoundId, lot: b.lot, purityPercent: b.purityPercent, stockConcentrationMm: b.stockConcentrationMm, solvent: b.solvent,
+  id: b.id, compoundId: b.compoundId, lot: b.lot, purity_percent: b.purity_percent, stockConcentration_mM: b.stockConcentration_mM, solvent: b.solvent,
 });
 
 function duplicate(error: unknown, message: string, field: string): never {

@@ -15,7 +15,7 @@ function potencyTable(profile: CompoundProfile): ExportTable {
     columns: ['Plate', 'Screen', 'Plate state', 'Approved', 'Target', 'Conductance', 'Model', 'Status', 'IC50 (µM)', 'IC50 95 % CI low (µM)', 'IC50 95 % CI high (µM)',
       'IC50 above (µM)', 'Hill slope', 'R²', 'Wells used', 'Stands for the target in this profile', 'Message'],
     rows: profile.fits.map((f) => [f.plateLabel, f.screenName, PLATE_STATE_LABEL[f.plateState], f.approved ? 'yes' : 'no, not yet approved', f.target, f.conductance,
-      f.model === 'hill2' ? '2 parameters' : '4 parameters', f.status, f.ic50Um, f.ic50CiLowUm, f.ic50CiHighUm, f.ic50LowerBoundUm, f.hill, f.r2, f.n,
+      f.model === 'hill2' ? '2 parameters' : '4 parameters', f.status, f.ic50_uM, f.ic50CiLow_uM, f.ic50CiHigh_uM, f.ic50LowerBound_uM, f.hill, f.r2, f.n,
       standing.has(f.fitId), f.message]),
     note: 'Only fits on approved plates are results; fits on plates not yet approved are marked so.',
   };

@@ -95,10 +95,10 @@ export async function previewImport(actor: Actor, request: PreviewRequest, optio
 function qcByRow(preview: PlatePreview, settings: ReturnType<typeof analysisSettings>): Record<number, string[]> {
   const plate = preview.plate!;
   const wells = plate.wells.map((w, i) => ({
-    id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentrationUm,
-    sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false,
+    id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentration_uM,
+    sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF, excluded: false,
   }));
-  const readouts = plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), target: r.target, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa })));
+  const readouts = plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), target: r.target, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA })));
   const analysis = analysePlate(wells, readouts, settings);
   return Object.fromEntries(analysis.readouts.filter((r) => r.qcReasons.length).map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]));
 }

@@ -16,10 +16,10 @@ async function analyseStored(plate: Plate, transaction: Transaction, fits: boole
   const chosen = Object.fromEntries(previous.map((f) => [fitKey(f.compoundId, f.targetId), f.model]));
   const analysis = analysePlate(
     wells.map((w) => ({
-      id: w.id, role: w.role, compoundId: w.compoundId, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm,
-      seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: w.excluded,
+      id: w.id, role: w.role, compoundId: w.compoundId, concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm,
+      seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF, excluded: w.excluded,
     })),
-    readouts.map((r) => ({ id: r.id, wellId: r.wellId, target: r.targetId, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa })),
+    readouts.map((r) => ({ id: r.id, wellId: r.wellId, target: r.targetId, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA })),
     analysisSettings(screen, chosen),
     { fits },
   );

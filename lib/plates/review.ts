@@ -63,7 +63,7 @@ export async function setFitModel(actor: Actor, plateId: string, change: { compo
     if (!fit) throw new AppError('not_found', 'This plate has no fit for that compound and target.');
     if (fit.model !== change.model) {
       // The refit job keeps each fit's chosen model: record the choice, then queue the refit.
-      const before = { compoundId: change.compoundId, targetId: change.targetId, model: fit.model, status: fit.status, ic50Um: fit.ic50Um };
+      const before = { compoundId: change.compoundId, targetId: change.targetId, model: fit.model, status: fit.status, ic50_uM: fit.ic50_uM };
       await fit.update({ model: change.model }, { transaction });
       await recomputePlate(plate, actor.id, transaction);
       await recordAudit({

@@ -91,13 +91,13 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
   const wellRows = input.plate.wells.map((w) => {
     const id = randomUUID();
     const compoundId = w.role === 'test' ? ids.compound(w.compound) : null;
-    wells.push({ id, role: w.role, compoundId, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm, seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: false });
+    wells.push({ id, role: w.role, compoundId, concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF, excluded: false });
     for (const r of w.readouts) {
-      readouts.push({ id: randomUUID(), wellId: id, target: ids.target(r.target), controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa });
+      readouts.push({ id: randomUUID(), wellId: id, target: ids.target(r.target), controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA });
     }
     return {
       id, plateId, position: w.position, rowIndex: w.rowIndex, columnIndex: w.columnIndex, role: w.role, compoundId, batchId: null,
-      concentrationUm: w.concentrationUm, sealResistanceGohm: w.sealResistanceGohm, seriesResistanceMohm: w.seriesResistanceMohm, capacitancePf: w.capacitancePf,
+      concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
       exclusionReason: null, excludedBy: null, excludedAt: null,
     };
   });
@@ -112,7 +112,7 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
   // building model instances and escaped SQL for each took most of an import's time on the server.
   await insertRows('wells', WELL_COLUMNS, wellRows.map((w) => ({
     id: w.id, plate_id: plateId, position: w.position, row_index: w.rowIndex, column_index: w.columnIndex, role: w.role, compound_id: w.compoundId,
-    concentration_um: w.concentrationUm, seal_resistance_gohm: w.sealResistanceGohm, series_resistance_mohm: w.seriesResistanceMohm, capacitance_pf: w.capacitancePf,
+    concentration_um: w.concentration_uM, seal_resistance_gohm: w.sealResistance_GOhm, series_resistance_mohm: w.seriesResistance_MOhm, capacitance_pf: w.capacitance_pF,
   })), transaction);
   await insertRows('readouts', READOUT_COLUMNS, readouts.map((r, i) => ({
     id: r.id, well_id: r.wellId, target_id: r.target, control_current_pa: r.controlCurrent_pA, compound_current_pa: r.compoundCurrent_pA,

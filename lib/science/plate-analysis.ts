@@ -1,5 +1,6 @@
 // A whole plate through the science: well QC per readout, fractional block and Z′ per target, Hill fits
 // per compound × target. Pure and deterministic; the import and every exclusion change call it.
+import type { CurrentReadouts, WellQuantities } from '@/lib/domain/readouts';
 import type { WellRole } from '@/lib/domain/well-roles';
 import { computeFractionalBlock, type BlockNoteCode } from './block';
 import { fitHill, type HillFitResult } from './hill-fit';
@@ -8,32 +9,26 @@ import { checkWells, type QcReason } from './qc';
 import type { QcThresholds } from './qc-thresholds';
 import type { ZPrimeResult } from './zprime';
 
-export interface AnalysisWell {
+export interface AnalysisWell extends WellQuantities {
   id: string;
   role: WellRole;
   compoundId: string | null;
-  concentration_uM: number | null;
-  sealResistance_GOhm: number | null;
-  seriesResistance_MOhm: number | null;
-  capacitance_pF: number | null;
   /** Excluded by a person (with a reason); never deleted. */
   excluded: boolean;
 }
 
-export interface AnalysisReadout {
+export interface AnalysisReadout extends CurrentReadouts {
   id: string;
   wellId: string;
   /** Target identity (id or name), the same for every readout of one target. */
   target: string;
-  controlCurrent_pA: number | null;
-  compoundCurrent_pA: number | null;
 }
 
 export interface AnalysisSettings {
   thresholds?: Partial<QcThresholds>;
   normalise?: boolean;
   /** @default 0.5 (Zhang, Chung & Oldenburg 1999: Z′ ≥ 0.5 excellent) */
-  zPrimeLimit?: number;
+  zPrimeMin?: number;
   /** Model per `compoundId|target`; others use hill2. */
   models?: Record<string, HillModelName>;
 }
@@ -99,7 +94,7 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
       wellId: r.id, target: r.target, role: wellOf(r).role,
       controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA, excluded: !used[i],
     })),
-    { normalise: settings.normalise ?? false, zPrimeLimit: settings.zPrimeLimit ?? 0.5 },
+    { normalise: settings.normalise ?? false, zPrimeMin: settings.zPrimeMin ?? 0.5 },
   );
   const blockById = new Map(blocks.flatMap((t) => t.wells.map((w) => [w.wellId, w.block] as const)));
 

@@ -8,8 +8,8 @@ import { blockableConductances, type ScreenInput, type TargetInput } from '@/lib
 import { Screen, Target } from '@/models';
 
 function columns(input: ScreenInput) {
-  const { rundownMaxPercent, ...rest } = input;
-  return { ...rest, rundownMaxFraction: rundownMaxPercent / 100 };
+  const { vehicleRundownMax_percent, ...rest } = input;
+  return { ...rest, vehicleRundownMax_fraction: vehicleRundownMax_percent / 100 };
 }
 
 function plainScreen(screen: Screen) {

@@ -26,7 +26,7 @@ describe('well QC', () => {
       seriesResistanceMax_MOhm: 25,
       capacitanceMin_pF: 1,
       capacitanceMax_pF: 100,
-      vehicleRundownMax: 0.2,
+      vehicleRundownMax_fraction: 0.2,
     });
   });
 

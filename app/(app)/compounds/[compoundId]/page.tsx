@@ -46,8 +46,8 @@ export default async function CompoundPage({ params }: { params: Promise<{ compo
         {compound.batches.length ? (
           <DataTable caption="Batches" rows={compound.batches} rowKey={(b) => b.id} columns={[
             { header: 'Lot', cell: (b) => <span className="font-mono">{b.lot}</span> },
-            { header: 'Purity (%)', cell: (b) => b.purityPercent ?? '—', align: 'right' },
-            { header: 'Stock (mM)', cell: (b) => b.stockConcentrationMm ?? '—', align: 'right' },
+            { header: 'Purity (%)', cell: (b) => b.purity_percent ?? '—', align: 'right' },
+            { header: 'Stock (mM)', cell: (b) => b.stockConcentration_mM ?? '—', align: 'right' },
             { header: 'Solvent', cell: (b) => b.solvent },
           ]} />
         ) : (
