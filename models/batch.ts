@@ -5,8 +5,8 @@ export class Batch extends Model<InferAttributes<Batch>, InferCreationAttributes
   declare id: CreationOptional<string>;
   declare compoundId: string;
   declare lot: string;
-  declare purityPercent: number | null;
-  declare stockConcentrationMm: number | null;
+  declare purity_percent: number | null;
+  declare stockConcentration_mM: number | null;
   declare solvent: CreationOptional<string>;
   declare createdBy: string;
   declare createdAt: CreationOptional<Date>;
@@ -18,8 +18,8 @@ export class Batch extends Model<InferAttributes<Batch>, InferCreationAttributes
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         compoundId: { type: DataTypes.UUID, allowNull: false },
         lot: { type: DataTypes.TEXT, allowNull: false },
-        purityPercent: { type: DataTypes.DOUBLE, allowNull: true },
-        stockConcentrationMm: { type: DataTypes.DOUBLE, allowNull: true },
+        purity_percent: { type: DataTypes.DOUBLE, allowNull: true, field: 'purity_percent' },
+        stockConcentration_mM: { type: DataTypes.DOUBLE, allowNull: true, field: 'stock_concentration_mm' },
         solvent: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'DMSO' },
         createdBy: { type: DataTypes.UUID, allowNull: false },
         createdAt: DataTypes.DATE,

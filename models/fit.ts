@@ -14,10 +14,10 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
   declare model: CreationOptional<FitModel>;
   declare status: FitStatus;
   declare message: CreationOptional<string>;
-  declare ic50Um: number | null;
-  declare ic50CiLowUm: number | null;
-  declare ic50CiHighUm: number | null;
-  declare ic50LowerBoundUm: number | null;
+  declare ic50_uM: number | null;
+  declare ic50CiLow_uM: number | null;
+  declare ic50CiHigh_uM: number | null;
+  declare ic50LowerBound_uM: number | null;
   declare log10Ic50Se: number | null;
   declare hill: number | null;
   declare top: number | null;
@@ -43,10 +43,10 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
         model: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'hill2' },
         status: { type: DataTypes.TEXT, allowNull: false },
         message: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-        ic50Um: { ...value(), field: 'ic50_um' },
-        ic50CiLowUm: { ...value(), field: 'ic50_ci_low_um' },
-        ic50CiHighUm: { ...value(), field: 'ic50_ci_high_um' },
-        ic50LowerBoundUm: { ...value(), field: 'ic50_lower_bound_um' },
+        ic50_uM: { ...value(), field: 'ic50_um' },
+        ic50CiLow_uM: { ...value(), field: 'ic50_ci_low_um' },
+        ic50CiHigh_uM: { ...value(), field: 'ic50_ci_high_um' },
+        ic50LowerBound_uM: { ...value(), field: 'ic50_lower_bound_um' },
         log10Ic50Se: { ...value(), field: 'log10_ic50_se' },
         hill: value(),
         top: value(),

@@ -1,9 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-
-export const PLATE_STATES = ['imported', 'verified', 'submitted', 'approved', 'rejected'] as const;
-export type PlateState = (typeof PLATE_STATES)[number];
-export const PLATE_FORMATS = [96, 384, 1536] as const;
-export type PlateFormat = (typeof PLATE_FORMATS)[number];
+import type { PlateFormat } from '@/lib/domain/plate-formats';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 /** One imported plate and where it stands in sign-off; version guards concurrent transitions. */
 export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes<Plate>> {

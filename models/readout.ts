@@ -11,8 +11,8 @@ export class Readout extends Model<InferAttributes<Readout>, InferCreationAttrib
   declare id: CreationOptional<string>;
   declare wellId: string;
   declare targetId: string;
-  declare controlCurrentPa: number | null;
-  declare compoundCurrentPa: number | null;
+  declare controlCurrent_pA: number | null;
+  declare compoundCurrent_pA: number | null;
   declare fractionalBlock: number | null;
   declare qcReasons: CreationOptional<QcReason[]>;
 
@@ -22,8 +22,8 @@ export class Readout extends Model<InferAttributes<Readout>, InferCreationAttrib
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         wellId: { type: DataTypes.UUID, allowNull: false },
         targetId: { type: DataTypes.UUID, allowNull: false },
-        controlCurrentPa: { type: DataTypes.DOUBLE, allowNull: true },
-        compoundCurrentPa: { type: DataTypes.DOUBLE, allowNull: true },
+        controlCurrent_pA: { type: DataTypes.DOUBLE, allowNull: true, field: 'control_current_pa' },
+        compoundCurrent_pA: { type: DataTypes.DOUBLE, allowNull: true, field: 'compound_current_pa' },
         fractionalBlock: { type: DataTypes.DOUBLE, allowNull: true },
         qcReasons: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
       },

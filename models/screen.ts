@@ -6,15 +6,15 @@ export class Screen extends Model<InferAttributes<Screen>, InferCreationAttribut
   declare name: string;
   declare description: CreationOptional<string>;
   declare neuronPreset: string;
-  declare zprimeMin: CreationOptional<number>;
-  declare sealMinGohm: CreationOptional<number>;
-  declare controlCurrentMinPa: CreationOptional<number>;
-  declare seriesMaxMohm: CreationOptional<number>;
-  declare capacitanceMinPf: CreationOptional<number>;
-  declare capacitanceMaxPf: CreationOptional<number>;
-  declare rundownMaxFraction: CreationOptional<number>;
+  declare zPrimeMin: CreationOptional<number>;
+  declare sealResistanceMin_GOhm: CreationOptional<number>;
+  declare controlCurrentMin_pA: CreationOptional<number>;
+  declare seriesResistanceMax_MOhm: CreationOptional<number>;
+  declare capacitanceMin_pF: CreationOptional<number>;
+  declare capacitanceMax_pF: CreationOptional<number>;
+  declare vehicleRundownMax_fraction: CreationOptional<number>;
   declare normaliseToReference: CreationOptional<boolean>;
-  declare exposuresUm: CreationOptional<number[]>;
+  declare exposures_uM: CreationOptional<number[]>;
   declare createdBy: string;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -27,15 +27,15 @@ export class Screen extends Model<InferAttributes<Screen>, InferCreationAttribut
         name: { type: DataTypes.TEXT, allowNull: false },
         description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         neuronPreset: { type: DataTypes.TEXT, allowNull: false },
-        zprimeMin: double(0.5),
-        sealMinGohm: double(0.5),
-        controlCurrentMinPa: double(200),
-        seriesMaxMohm: double(25),
-        capacitanceMinPf: double(1),
-        capacitanceMaxPf: double(100),
-        rundownMaxFraction: double(0.2),
+        zPrimeMin: { ...double(0.5), field: 'z_prime_min' },
+        sealResistanceMin_GOhm: { ...double(0.5), field: 'seal_resistance_min_gohm' },
+        controlCurrentMin_pA: { ...double(200), field: 'control_current_min_pa' },
+        seriesResistanceMax_MOhm: { ...double(25), field: 'series_resistance_max_mohm' },
+        capacitanceMin_pF: { ...double(1), field: 'capacitance_min_pf' },
+        capacitanceMax_pF: { ...double(100), field: 'capacitance_max_pf' },
+        vehicleRundownMax_fraction: { ...double(0.2), field: 'vehicle_rundown_max_fraction' },
         normaliseToReference: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
-        exposuresUm: { type: DataTypes.ARRAY(DataTypes.DOUBLE), allowNull: false, defaultValue: [] },
+        exposures_uM: { type: DataTypes.ARRAY(DataTypes.DOUBLE), allowNull: false, defaultValue: [], field: 'exposures_um' },
         createdBy: { type: DataTypes.UUID, allowNull: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import type { PlateState } from './plate';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 /** One signed transition of a plate's state. */
 export class SignoffEvent extends Model<InferAttributes<SignoffEvent>, InferCreationAttributes<SignoffEvent>> {

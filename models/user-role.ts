@@ -1,7 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-
-export const ROLES = ['chemist', 'biologist', 'approver', 'admin'] as const;
-export type Role = (typeof ROLES)[number];
+import { ROLES, type Role } from '@/lib/domain/roles';
 
 /** One role held by one user. */
 export class UserRole extends Model<InferAttributes<UserRole>, InferCreationAttributes<UserRole>> {

@@ -1,7 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-
-export const WELL_ROLES = ['vehicle', 'reference', 'test'] as const;
-export type WellRole = (typeof WELL_ROLES)[number];
+import type { WellRole } from '@/lib/domain/well-roles';
 
 /** One well (one cell): what it holds and the recording's cell properties; never deleted, only excluded. */
 export class Well extends Model<InferAttributes<Well>, InferCreationAttributes<Well>> {
@@ -13,10 +11,10 @@ export class Well extends Model<InferAttributes<Well>, InferCreationAttributes<W
   declare role: WellRole;
   declare compoundId: string | null;
   declare batchId: string | null;
-  declare concentrationUm: number | null;
-  declare sealResistanceGohm: number | null;
-  declare seriesResistanceMohm: number | null;
-  declare capacitancePf: number | null;
+  declare concentration_uM: number | null;
+  declare sealResistance_GOhm: number | null;
+  declare seriesResistance_MOhm: number | null;
+  declare capacitance_pF: number | null;
   declare excluded: CreationOptional<boolean>;
   declare exclusionReason: string | null;
   declare excludedBy: string | null;
@@ -35,10 +33,10 @@ export class Well extends Model<InferAttributes<Well>, InferCreationAttributes<W
         role: { type: DataTypes.TEXT, allowNull: false },
         compoundId: { type: DataTypes.UUID, allowNull: true },
         batchId: { type: DataTypes.UUID, allowNull: true },
-        concentrationUm: measure(),
-        sealResistanceGohm: measure(),
-        seriesResistanceMohm: measure(),
-        capacitancePf: measure(),
+        concentration_uM: { ...measure(), field: 'concentration_um' },
+        sealResistance_GOhm: { ...measure(), field: 'seal_resistance_gohm' },
+        seriesResistance_MOhm: { ...measure(), field: 'series_resistance_mohm' },
+        capacitance_pF: { ...measure(), field: 'capacitance_pf' },
         excluded: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         exclusionReason: { type: DataTypes.TEXT, allowNull: true },
         excludedBy: { type: DataTypes.UUID, allowNull: true },

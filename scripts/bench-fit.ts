@@ -33,7 +33,7 @@ function generatePlate(): (QcWell & BlockWell & { compoundId: string | null; con
   for (let index = 0; index < 384; index++) {
     const wellId = `${String.fromCharCode(65 + Math.floor(index / 24))}${String((index % 24) + 1).padStart(2, '0')}`;
     const compound = index < COMPOUNDS * SERIES_uM.length ? Math.floor(index / SERIES_uM.length) : null;
-    const role = compound !== null ? 'compound' : index < 352 ? 'vehicle' : 'reference';
+    const role = compound !== null ? 'test' : index < 352 ? 'vehicle' : 'reference';
     const concentration_uM = compound !== null ? SERIES_uM[index % SERIES_uM.length]! : 0;
     TARGETS.forEach((target, t) => {
       const control = -(800 + random() * 1500);
@@ -58,7 +58,7 @@ function analyse(wells: ReturnType<typeof generatePlate>, model: HillModelName) 
   const points: CurvePoint[] = [];
   for (const target of blocks) {
     for (const w of target.wells) {
-      if (w.role !== 'compound') continue;
+      if (w.role !== 'test') continue;
       const well = source.get(`${target.target} ${w.wellId}`)!;
       points.push({ compoundId: well.compoundId!, target: target.target, concentration_uM: well.concentration_uM, block: w.block, excluded: w.excluded });
     }

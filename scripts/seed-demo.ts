@@ -16,7 +16,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { commitImport, inspectUpload } from '@/lib/plates/import-service';
 import { signPlateStep } from '@/lib/signoff/service';
-import type { SignoffAction } from '@/lib/validation/signoff';
+import type { SignoffAction } from '@/lib/domain/plate-states';
 import { startJobWorkers, stopJobWorkers } from '@/lib/jobs/worker';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { Compound, Plate, Screen } from '@/models';
@@ -53,9 +53,9 @@ async function seedScreens(admin: Actor): Promise<void> {
   for (const demo of DEMO_SCREENS) {
     if (await Screen.findOne({ where: { name: demo.name } })) continue;
     const input = screenSchema.parse({
-      name: demo.name, description: demo.description, neuronPreset: 'pospischil-rs-2008', zprimeMin: 0.5, sealMinGohm: 0.5,
-      controlCurrentMinPa: 200, seriesMaxMohm: 25, capacitanceMinPf: 1, capacitanceMaxPf: 100, rundownMaxPercent: 20,
-      exposuresUm: '0.03, 0.1, 0.3, 1',
+      name: demo.name, description: demo.description, neuronPreset: 'pospischil-rs-2008', zPrimeMin: 0.5, sealResistanceMin_GOhm: 0.5,
+      controlCurrentMin_pA: 200, seriesResistanceMax_MOhm: 25, capacitanceMin_pF: 1, capacitanceMax_pF: 100, vehicleRundownMax_percent: 20,
+      exposures_uM: '0.03, 0.1, 0.3, 1',
     });
     const { id } = await createScreen(admin, input);
     for (const name of demo.targets) await addTarget(admin, id, { name, conductance: demo.conductance, description: '' });
@@ -67,7 +67,7 @@ async function seedCompounds(chemist: Actor): Promise<void> {
     if (await Compound.findOne({ where: { identifier: demo.identifier } })) continue;
     const compound = await createCompound(chemist, { identifier: demo.identifier, name: demo.name, smiles: '', molecularWeight: demo.molecularWeight });
     await db().transaction((transaction) =>
-      insertBatch(chemist, compound.id, { lot: `${demo.identifier}-B01`, purityPercent: 98.5, stockConcentrationMm: 10, solvent: 'DMSO' }, transaction),
+      insertBatch(chemist, compound.id, { lot: `${demo.identifier}-B01`, purity_percent: 98.5, stockConcentration_mM: 10, solvent: 'DMSO' }, transaction),
     );
   }
 }

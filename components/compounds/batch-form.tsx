@@ -14,8 +14,8 @@ export function BatchForm({ action, compoundId }: { action: Action; compoundId: 
     <form action={formAction} className="grid gap-x-4 gap-y-1 sm:grid-cols-4" noValidate>
       <input type="hidden" name="compoundId" value={compoundId} />
       <Field label="Batch / lot" name="lot" required errors={errors.lot} />
-      <Field label="Purity (%)" name="purityPercent" inputMode="decimal" errors={errors.purityPercent} />
-      <Field label="Stock (mM)" name="stockConcentrationMm" inputMode="decimal" errors={errors.stockConcentrationMm} />
+      <Field label="Purity (%)" name="purity_percent" inputMode="decimal" errors={errors.purity_percent} />
+      <Field label="Stock (mM)" name="stockConcentration_mM" inputMode="decimal" errors={errors.stockConcentration_mM} />
       <Field label="Solvent" name="solvent" defaultValue="DMSO" errors={errors.solvent} />
       <div className="flex items-center gap-3 sm:col-span-4">
         <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Adding…' : 'Add batch'}</button>

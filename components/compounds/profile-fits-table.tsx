@@ -9,8 +9,8 @@ const STATUS_TEXT: Record<ProfileFit['status'], string> = {
 const sig = (v: number | null) => (v === null ? '—' : Number(v.toPrecision(3)).toString());
 
 function ic50Text(f: ProfileFit): string {
-  if (f.status === 'fitted') return `${sig(f.ic50Um)} µM (${sig(f.ic50CiLowUm)}–${sig(f.ic50CiHighUm)})`;
-  if (f.ic50LowerBoundUm !== null) return `> ${sig(f.ic50LowerBoundUm)} µM`;
+  if (f.status === 'fitted') return `${sig(f.ic50_uM)} µM (${sig(f.ic50CiLow_uM)}–${sig(f.ic50CiHigh_uM)})`;
+  if (f.ic50LowerBound_uM !== null) return `> ${sig(f.ic50LowerBound_uM)} µM`;
   return '—';
 }
 

@@ -11,7 +11,7 @@ const M = { top: 12, right: 14, bottom: 40, left: 46 };
  * curve with its 95 % band, and the IC50 marker. Log concentration axis.
  */
 export function DoseResponsePlot({ fit, points }: { fit: FitView; points: WellRowView[] }) {
-  const concentrations = points.map((p) => p.concentrationUm!).filter((c) => c > 0);
+  const concentrations = points.map((p) => p.concentration_uM!).filter((c) => c > 0);
   const lo = Math.min(...concentrations, ...(fit.curve.length ? [fit.curve[0]!.concentration_uM] : []));
   const hi = Math.max(...concentrations, ...(fit.curve.length ? [fit.curve.at(-1)!.concentration_uM] : []));
   const x = scaleLog().domain([lo, hi]).range([M.left, W - M.right]).nice();
@@ -36,18 +36,18 @@ export function DoseResponsePlot({ fit, points }: { fit: FitView; points: WellRo
       <text transform={`translate(12 ${(M.top + H - M.bottom) / 2}) rotate(-90)`} textAnchor="middle" fontSize={10} fill="#2b4157">Fractional block</text>
       {fit.curve.length && fit.curve[0]!.low !== null ? <path d={band(fit.curve) ?? ''} fill="#168f94" opacity={0.18} /> : null}
       {fit.curve.length ? <path d={curve(fit.curve) ?? ''} fill="none" stroke="#0b5f63" strokeWidth={2} /> : null}
-      {fit.ic50Um !== null && fit.ic50Um >= x.domain()[0]! && fit.ic50Um <= x.domain()[1]! ? (
+      {fit.ic50_uM !== null && fit.ic50_uM >= x.domain()[0]! && fit.ic50_uM <= x.domain()[1]! ? (
         <g>
-          <line x1={x(fit.ic50Um)} x2={x(fit.ic50Um)} y1={y(0.5)} y2={H - M.bottom} stroke="#9a5b00" strokeDasharray="4 2" />
-          <text x={x(fit.ic50Um) + 4} y={H - M.bottom - 4} fontSize={10} fill="#9a5b00">IC50</text>
+          <line x1={x(fit.ic50_uM)} x2={x(fit.ic50_uM)} y1={y(0.5)} y2={H - M.bottom} stroke="#9a5b00" strokeDasharray="4 2" />
+          <text x={x(fit.ic50_uM) + 4} y={H - M.bottom - 4} fontSize={10} fill="#9a5b00">IC50</text>
         </g>
       ) : null}
-      {points.filter((p) => p.concentrationUm && p.concentrationUm > 0 && p.fractionalBlock !== null).map((p) => {
+      {points.filter((p) => p.concentration_uM && p.concentration_uM > 0 && p.fractionalBlock !== null).map((p) => {
         const used = !p.excluded && p.qcReasons.length === 0;
         return (
-          <circle key={p.readoutId} cx={x(p.concentrationUm!)} cy={y(Math.max(-0.2, Math.min(1.2, p.fractionalBlock!)))} r={3.5}
+          <circle key={p.readoutId} cx={x(p.concentration_uM!)} cy={y(Math.max(-0.2, Math.min(1.2, p.fractionalBlock!)))} r={3.5}
             fill={used ? '#12202f' : 'white'} stroke={used ? '#12202f' : '#b42318'} strokeWidth={1.4}>
-            <title>{`${p.position}: ${(p.fractionalBlock! * 100).toFixed(1)} % at ${p.concentrationUm!.toPrecision(3)} µM${used ? '' : p.excluded ? ' (excluded)' : ' (failed QC)'}`}</title>
+            <title>{`${p.position}: ${(p.fractionalBlock! * 100).toFixed(1)} % at ${p.concentration_uM!.toPrecision(3)} µM${used ? '' : p.excluded ? ' (excluded)' : ' (failed QC)'}`}</title>
           </circle>
         );
       })}

@@ -15,8 +15,8 @@ const STATUS_TEXT: Record<FitView['status'], string> = {
 const num = (v: number | null, digits = 3) => (v === null ? '—' : v.toPrecision(digits));
 
 function ic50Text(fit: FitView): string {
-  if (fit.status === 'fitted') return `${num(fit.ic50Um)} µM (95 % CI ${num(fit.ic50CiLowUm)}–${num(fit.ic50CiHighUm)})`;
-  if (fit.ic50LowerBoundUm !== null) return `> ${num(fit.ic50LowerBoundUm)} µM`;
+  if (fit.status === 'fitted') return `${num(fit.ic50_uM)} µM (95 % CI ${num(fit.ic50CiLow_uM)}–${num(fit.ic50CiHigh_uM)})`;
+  if (fit.ic50LowerBound_uM !== null) return `> ${num(fit.ic50LowerBound_uM)} µM`;
   return '—';
 }
 

@@ -9,7 +9,7 @@ export interface ForecastScreen {
   id: string;
   name: string;
   neuronPreset: string;
-  exposuresUm: number[];
+  exposures_uM: number[];
   hasApproved: boolean;
 }
 
@@ -21,7 +21,7 @@ export function CompoundForecastPanel({ compoundId, screens }: { compoundId: str
   const [screenId, setScreenId] = useState((screens.find((s) => s.hasApproved) ?? screens[0])!.id);
   const [chosenAt, setChosenAt] = useState<number | null>(null);
   const screen = screens.find((s) => s.id === screenId)!;
-  const at = screen.exposuresUm.length ? Math.min(chosenAt ?? Infinity, screen.exposuresUm.length - 1) : null;
+  const at = screen.exposures_uM.length ? Math.min(chosenAt ?? Infinity, screen.exposures_uM.length - 1) : null;
   const forecast = useCompoundForecast(compoundId, screenId, at);
   const shown = forecast.data?.screen.id === screenId ? forecast.data : undefined;
   return (
@@ -30,7 +30,7 @@ export function CompoundForecastPanel({ compoundId, screens }: { compoundId: str
         <div className="max-w-md">
           <label htmlFor="forecast-screen" className="gw-label">Preset and exposures of</label>
           <select id="forecast-screen" className="gw-input mt-1" value={screenId} onChange={(e) => { setScreenId(e.target.value); setChosenAt(null); }}>
-            {screens.map((s) => <option key={s.id} value={s.id}>{s.name} ({s.neuronPreset}, {s.exposuresUm.length ? s.exposuresUm.join(', ') + ' µM' : 'no exposures'})</option>)}
+            {screens.map((s) => <option key={s.id} value={s.id}>{s.name} ({s.neuronPreset}, {s.exposures_uM.length ? s.exposures_uM.join(', ') + ' µM' : 'no exposures'})</option>)}
           </select>
         </div>
       ) : null}

@@ -7,11 +7,11 @@ import { CONTROL_COLOR, exposureColors, umText } from './series-colors';
 type Point = ConditionView['measures']['fI'][number];
 
 /** Firing rate against step current for control and every exposure; the chosen exposure drawn heavier. */
-export function FiPlot({ control, exposures, chosenUm }: { control: ConditionView; exposures: ConditionView[]; chosenUm: number | null }) {
+export function FiPlot({ control, exposures, chosen_uM }: { control: ConditionView; exposures: ConditionView[]; chosen_uM: number | null }) {
   const colors = exposureColors(exposures.length);
   const series = [
     { name: 'Control', points: control.measures.fI, color: CONTROL_COLOR, dash: undefined as string | undefined, heavy: true },
-    ...exposures.map((c, i) => ({ name: umText(c.concentrationUm), points: c.measures.fI, color: colors[i]!, dash: i % 2 ? '5 3' : undefined, heavy: c.concentrationUm === chosenUm })),
+    ...exposures.map((c, i) => ({ name: umText(c.concentration_uM), points: c.measures.fI, color: colors[i]!, dash: i % 2 ? '5 3' : undefined, heavy: c.concentration_uM === chosen_uM })),
   ];
   const drives = series.flatMap((s) => s.points.map((p) => p.drive_uA_cm2));
   const rates = series.flatMap((s) => s.points.map((p) => p.rate_Hz));

@@ -54,7 +54,7 @@ export function MeasuresTable({ control, conditions, referenceDrive, protocol }:
         {head}
         <tbody className="divide-y divide-ink-100">
           <Row c={control} name="Control" />
-          {conditions.filter((c) => c.exposure).map((c) => <Row key={c.concentrationUm} c={c} name={umText(c.concentrationUm)} />)}
+          {conditions.filter((c) => c.exposure).map((c) => <Row key={c.concentration_uM} c={c} name={umText(c.concentration_uM)} />)}
         </tbody>
       </table>
       <p className="px-3 pb-2 text-xs text-ink-500">
@@ -69,7 +69,7 @@ export function MeasuresTable({ control, conditions, referenceDrive, protocol }:
             <caption className="sr-only">Excitability at every concentration of the sweep</caption>
             {head}
             <tbody className="divide-y divide-ink-100">
-              {conditions.map((c) => <Row key={c.concentrationUm} c={c} name={`${umText(c.concentrationUm)}${c.exposure ? ' (exposure)' : ''}`} />)}
+              {conditions.map((c) => <Row key={c.concentration_uM} c={c} name={`${umText(c.concentration_uM)}${c.exposure ? ' (exposure)' : ''}`} />)}
             </tbody>
           </table>
         </details>

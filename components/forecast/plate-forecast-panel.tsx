@@ -15,7 +15,7 @@ export function PlateForecastPanel({ plateId }: { plateId: string }) {
   const [picked, setPicked] = useState<string | null>(null);
   const [chosenAt, setChosenAt] = useState<number | null>(null);
   const compounds = list.data?.compounds ?? [];
-  const exposures = list.data?.exposuresUm ?? [];
+  const exposures = list.data?.exposures_uM ?? [];
   const selected = picked ?? compounds.find((c) => c.reason === null)?.compoundId ?? compounds[0]?.compoundId ?? null;
   const at = exposures.length ? (chosenAt ?? exposures.length - 1) : null;
   const forecast = usePlateForecast(plateId, selected, at);

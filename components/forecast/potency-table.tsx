@@ -6,7 +6,7 @@ import { umText } from './series-colors';
 const STATE_TEXT: Record<string, string> = { approved: 'approved', imported: 'not yet approved', verified: 'not yet approved', submitted: 'not yet approved', rejected: 'returned, not approved' };
 
 /** Each target's potency as the forecast uses it, the block at every exposure, and what was done with it. */
-export function PotencyTable({ targets, exposuresUm, showPlate }: { targets: TargetPotency[]; exposuresUm: number[]; showPlate?: boolean }) {
+export function PotencyTable({ targets, exposures_uM, showPlate }: { targets: TargetPotency[]; exposures_uM: number[]; showPlate?: boolean }) {
   return (
     <div className="gw-card overflow-x-auto">
       <table className="min-w-full text-sm">
@@ -16,7 +16,7 @@ export function PotencyTable({ targets, exposuresUm, showPlate }: { targets: Tar
             <th scope="col" className="px-4 py-2">Target</th>
             <th scope="col" className="px-4 py-2 text-right">IC50</th>
             <th scope="col" className="px-4 py-2 text-right">Hill slope</th>
-            {exposuresUm.map((c) => <th key={c} scope="col" className="px-4 py-2 text-right">Block at {umText(c)}</th>)}
+            {exposures_uM.map((c) => <th key={c} scope="col" className="px-4 py-2 text-right">Block at {umText(c)}</th>)}
             <th scope="col" className="px-4 py-2">How the forecast uses it</th>
           </tr>
         </thead>
@@ -24,9 +24,9 @@ export function PotencyTable({ targets, exposuresUm, showPlate }: { targets: Tar
           {targets.map((t) => (
             <tr key={t.targetId}>
               <th scope="row" className="px-4 py-2 text-left font-medium">{t.target} <span className="font-mono text-xs text-ink-500">{t.conductance}</span></th>
-              <td className="px-4 py-2 text-right tabular-nums">{t.ic50Um !== null ? `${sig(t.ic50Um)} µM` : t.ic50LowerBoundUm !== null ? `> ${sig(t.ic50LowerBoundUm)} µM` : '—'}</td>
+              <td className="px-4 py-2 text-right tabular-nums">{t.ic50_uM !== null ? `${sig(t.ic50_uM)} µM` : t.ic50LowerBound_uM !== null ? `> ${sig(t.ic50LowerBound_uM)} µM` : '—'}</td>
               <td className="px-4 py-2 text-right tabular-nums">{sig(t.hill)}</td>
-              {t.blockAtExposures.map((b, i) => <td key={exposuresUm[i]} className="px-4 py-2 text-right tabular-nums">{t.use === 'used' ? percent(b) : 'none'}</td>)}
+              {t.blockAtExposures.map((b, i) => <td key={exposures_uM[i]} className="px-4 py-2 text-right tabular-nums">{t.use === 'used' ? percent(b) : 'none'}</td>)}
               <td className={`px-4 py-2 ${t.use === 'used' ? 'text-ink-800' : 'text-signal-warn'}`}>
                 {t.note}
                 {showPlate && t.plate ? (

@@ -20,13 +20,13 @@ export function SweepPlot({ measure, control, conditions }: { measure: keyof typ
   const values = conditions.map((c) => m.value(c));
   const known = values.filter((v): v is number => v !== null);
   const controlValue = m.value(control);
-  const concentrations = conditions.map((c) => c.concentrationUm);
+  const concentrations = conditions.map((c) => c.concentration_uM);
   const x = scaleLog().domain([Math.min(...concentrations), Math.max(...concentrations)]).range([PLOT.left, PLOT.width - PLOT.right]).nice();
   const y = scaleLinear().domain([0, Math.max(1, controlValue ?? 0, ...known) * 1.08]).nice().range([PLOT.height - PLOT.bottom, PLOT.top]);
-  const path = line<ConditionView>().defined((c) => m.value(c) !== null).x((c) => x(c.concentrationUm)).y((c) => y(m.value(c)!));
+  const path = line<ConditionView>().defined((c) => m.value(c) !== null).x((c) => x(c.concentration_uM)).y((c) => y(m.value(c)!));
   const decades = x.ticks().filter((t) => Number.isInteger(Math.log10(t)));
   const text = (v: number | null) => (v === null ? 'no firing' : `${v.toPrecision(3)} ${m.unit}`);
-  const label = `${m.title}. Control ${text(controlValue)}. ${conditions.map((c) => `${umText(c.concentrationUm)}: ${text(m.value(c))}`).join('; ')}.`;
+  const label = `${m.title}. Control ${text(controlValue)}. ${conditions.map((c) => `${umText(c.concentration_uM)}: ${text(m.value(c))}`).join('; ')}.`;
   return (
     <PlotFigure
       title={m.title}
@@ -43,11 +43,11 @@ export function SweepPlot({ measure, control, conditions }: { measure: keyof typ
       <path d={path(conditions) ?? ''} fill="none" stroke={LINE} strokeWidth={2} />
       {conditions.map((c) => {
         const v = m.value(c);
-        const cx = x(c.concentrationUm);
+        const cx = x(c.concentration_uM);
         if (v === null) {
-          return <text key={c.concentrationUm} x={cx} y={PLOT.top + 8} textAnchor="middle" fontSize={12} fill="#b42318">×</text>;
+          return <text key={c.concentration_uM} x={cx} y={PLOT.top + 8} textAnchor="middle" fontSize={12} fill="#b42318">×</text>;
         }
-        return <circle key={c.concentrationUm} cx={cx} cy={y(v)} r={c.exposure ? 4.5 : 2.5} fill={c.exposure ? LINE : 'white'} stroke={LINE} strokeWidth={1.5} />;
+        return <circle key={c.concentration_uM} cx={cx} cy={y(v)} r={c.exposure ? 4.5 : 2.5} fill={c.exposure ? LINE : 'white'} stroke={LINE} strokeWidth={1.5} />;
       })}
     </PlotFigure>
   );

@@ -16,7 +16,7 @@ type Trace = Traces['control'];
  */
 export function TracePlot({ traces, compound, color }: { traces: Traces; compound: string; color: string }) {
   const panels: { name: string; trace: Trace; color: string }[] = [{ name: 'Control', trace: traces.control, color: CONTROL_COLOR }];
-  const at = traces.concentrationUm === null ? '' : ` at ${umText(traces.concentrationUm)}`;
+  const at = traces.concentration_uM === null ? '' : ` at ${umText(traces.concentration_uM)}`;
   if (traces.condition) panels.push({ name: `${compound}${at}`, trace: traces.condition, color });
   const all = panels.flatMap((p) => p.trace.v_mV);
   const tEnd = Math.max(...panels.map((p) => p.trace.t_ms.at(-1) ?? 0));

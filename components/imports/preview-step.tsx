@@ -9,11 +9,11 @@ interface PreviewGridRow {
   status: string;
   well: string | null;
   compound: string | null;
-  concentrationUm: number | null;
+  concentration_uM: number | null;
   target: string | null;
-  controlCurrentPa: number | null;
-  compoundCurrentPa: number | null;
-  sealResistanceGohm: number | null;
+  controlCurrent_pA: number | null;
+  compoundCurrent_pA: number | null;
+  sealResistance_GOhm: number | null;
   notes: string;
 }
 
@@ -24,11 +24,11 @@ const COLUMNS: ColDef<PreviewGridRow>[] = [
   { field: 'status', headerName: 'Result', width: 120, cellClass: (p) => (p.value === 'error' ? 'text-signal-fail font-semibold' : p.value === 'QC flag' ? 'text-signal-warn font-semibold' : 'text-signal-pass') },
   { field: 'well', headerName: 'Well', width: 80 },
   { field: 'compound', headerName: 'Compound', width: 120 },
-  { field: 'concentrationUm', headerName: 'Conc. (µM)', width: 120, type: 'numericColumn', valueFormatter: num(3) },
+  { field: 'concentration_uM', headerName: 'Conc. (µM)', width: 120, type: 'numericColumn', valueFormatter: num(3) },
   { field: 'target', headerName: 'Target', width: 100 },
-  { field: 'controlCurrentPa', headerName: 'Control (pA)', width: 120, type: 'numericColumn', valueFormatter: num(4) },
-  { field: 'compoundCurrentPa', headerName: 'Compound (pA)', width: 130, type: 'numericColumn', valueFormatter: num(4) },
-  { field: 'sealResistanceGohm', headerName: 'Seal (GΩ)', width: 110, type: 'numericColumn', valueFormatter: num(3) },
+  { field: 'controlCurrent_pA', headerName: 'Control (pA)', width: 120, type: 'numericColumn', valueFormatter: num(4) },
+  { field: 'compoundCurrent_pA', headerName: 'Compound (pA)', width: 130, type: 'numericColumn', valueFormatter: num(4) },
+  { field: 'sealResistance_GOhm', headerName: 'Seal (GΩ)', width: 110, type: 'numericColumn', valueFormatter: num(3) },
   { field: 'notes', headerName: 'Messages', flex: 1, minWidth: 320, wrapText: true, autoHeight: true },
 ];
 
@@ -38,8 +38,8 @@ export function PreviewStep({ preview }: { preview: Preview }) {
     const qc = preview.qc[String(r.row)] ?? [];
     const status = r.status === 'error' ? 'error' : qc.length ? 'QC flag' : 'ok';
     return {
-      row: r.row, status, well: r.values.well, compound: r.values.compound, concentrationUm: r.values.concentrationUm, target: r.values.target,
-      controlCurrentPa: r.values.controlCurrentPa, compoundCurrentPa: r.values.compoundCurrentPa, sealResistanceGohm: r.values.sealResistanceGohm,
+      row: r.row, status, well: r.values.well, compound: r.values.compound, concentration_uM: r.values.concentration_uM, target: r.values.target,
+      controlCurrent_pA: r.values.controlCurrent_pA, compoundCurrent_pA: r.values.compoundCurrent_pA, sealResistance_GOhm: r.values.sealResistance_GOhm,
       notes: [...r.issues.map((i) => i.message.replace(/^Sheet "[^"]*", row \d+, /, '')), ...qc.map((q) => `QC: ${q}`)].join(' · '),
     };
   });

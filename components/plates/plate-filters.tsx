@@ -1,8 +1,6 @@
 import { AppLink } from '@/components/ui/app-link';
-import { PLATE_STATES } from '@/models/plate';
+import { PLATE_STATE_LABEL, PLATE_STATES } from '@/lib/domain/plate-states';
 import type { PlateFilterParams } from '@/lib/validation/plate-filter';
-
-const STATE_LABEL: Record<string, string> = { imported: 'Imported', verified: 'Map verified', submitted: 'Awaiting approval', approved: 'Approved', rejected: 'Returned' };
 
 /** Filters of the plates list as a plain GET form, so every filtered view has its own address. */
 export function PlateFilters({ filter, screens, importers }: {
@@ -23,7 +21,7 @@ export function PlateFilters({ filter, screens, importers }: {
         <label htmlFor="f-state" className="gw-label">State</label>
         <select id="f-state" name="state" defaultValue={filter.state ?? ''} className="gw-input mt-1">
           <option value="">Any state</option>
-          {PLATE_STATES.map((s) => <option key={s} value={s}>{STATE_LABEL[s]}</option>)}
+          {PLATE_STATES.map((s) => <option key={s} value={s}>{PLATE_STATE_LABEL[s]}</option>)}
         </select>
       </div>
       <div>

@@ -13,7 +13,7 @@ const QC_COLOUR = { pass: '#3f9a63', fail: '#c8402f', excluded: '#9fb0c1', empty
 const rowLetter = (r: number) => (r < 26 ? String.fromCharCode(65 + r) : `A${String.fromCharCode(65 + r - 26)}`);
 
 function describe(w: WellRowView): string {
-  const what = w.role === 'test' ? `${w.compound} at ${w.concentrationUm?.toPrecision(3)} µM` : w.role;
+  const what = w.role === 'test' ? `${w.compound} at ${w.concentration_uM?.toPrecision(3)} µM` : w.role;
   const block = w.fractionalBlock === null ? 'no block' : `block ${(w.fractionalBlock * 100).toFixed(0)} %`;
   const qc = w.qcReasons.length ? `QC: ${w.qcReasons.map((q) => q.message).join('; ')}` : 'QC passed';
   return `${w.position} · ${what} · ${block} · ${qc}${w.excluded ? ` · excluded: ${w.exclusionReason}` : ''}`;

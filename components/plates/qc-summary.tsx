@@ -15,7 +15,7 @@ export function QcSummary({ header }: { header: PlateHeader }) {
               <p className="text-sm font-medium">{name}</p>
               <p className="mt-1 text-2xl font-semibold tabular-nums">Z′ {z.zPrime === null ? '—' : z.zPrime.toFixed(2)}</p>
               <p className={`text-sm font-medium ${z.passes ? 'text-signal-pass' : 'text-signal-fail'}`}>
-                {z.passes ? 'Passes' : 'Fails'} the screen limit of {header.zprimeMin}{z.band ? ` · ${z.band}` : ''}
+                {z.passes ? 'Passes' : 'Fails'} the screen limit of {header.zPrimeMin}{z.band ? ` · ${z.band}` : ''}
               </p>
               {/* With a value, the lines above say what the message says; without one, it says why. */}
               {z.zPrime === null ? <p className="mt-1 text-xs text-ink-700">{z.message}</p> : null}

@@ -9,7 +9,7 @@ import type { ScreenDetail } from '@/lib/screens/list';
 type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
 /** Values a new screen starts from: the QC defaults of lib/science/qc/qc-thresholds.ts. */
-const NEW_SCREEN = { zprimeMin: 0.5, sealMinGohm: 0.5, controlCurrentMinPa: 200, seriesMaxMohm: 25, capacitanceMinPf: 1, capacitanceMaxPf: 100, rundownMaxFraction: 0.2 };
+const NEW_SCREEN = { zPrimeMin: 0.5, sealResistanceMin_GOhm: 0.5, controlCurrentMin_pA: 200, seriesResistanceMax_MOhm: 25, capacitanceMin_pF: 1, capacitanceMax_pF: 100, vehicleRundownMax_fraction: 0.2 };
 
 export function ScreenForm({ action, screen, presets, submitLabel }: {
   action: Action;
@@ -25,17 +25,17 @@ export function ScreenForm({ action, screen, presets, submitLabel }: {
       {screen ? <input type="hidden" name="screenId" value={screen.id} /> : null}
       <Field label="Name" name="name" required defaultValue={screen?.name} errors={e.name} />
       <SelectField label="Neuron preset" name="neuronPreset" options={presets} defaultValue={screen?.neuronPreset} errors={e.neuronPreset} />
-      <Field label="Exposures of interest (µM)" name="exposuresUm" hint="Separated by commas, e.g. 0.1, 0.3, 1" defaultValue={screen?.exposuresUm.join(', ') ?? ''} errors={e.exposuresUm} />
+      <Field label="Exposures of interest (µM)" name="exposures_uM" hint="Separated by commas, e.g. 0.1, 0.3, 1" defaultValue={screen?.exposures_uM.join(', ') ?? ''} errors={e.exposures_uM} />
       <div className="sm:col-span-2 lg:col-span-3">
         <Field label="Description" name="description" defaultValue={screen?.description} errors={e.description} />
       </div>
-      <Field label="Seal resistance at least (GΩ)" name="sealMinGohm" inputMode="decimal" defaultValue={v.sealMinGohm} errors={e.sealMinGohm} />
-      <Field label="Control current at least (pA)" name="controlCurrentMinPa" inputMode="decimal" defaultValue={v.controlCurrentMinPa} errors={e.controlCurrentMinPa} />
-      <Field label="Series resistance at most (MΩ)" name="seriesMaxMohm" inputMode="decimal" defaultValue={v.seriesMaxMohm} errors={e.seriesMaxMohm} />
-      <Field label="Capacitance from (pF)" name="capacitanceMinPf" inputMode="decimal" defaultValue={v.capacitanceMinPf} errors={e.capacitanceMinPf} />
-      <Field label="Capacitance to (pF)" name="capacitanceMaxPf" inputMode="decimal" defaultValue={v.capacitanceMaxPf} errors={e.capacitanceMaxPf} />
-      <Field label="Vehicle run-down at most (%)" name="rundownMaxPercent" inputMode="decimal" defaultValue={Math.round(v.rundownMaxFraction * 1000) / 10} errors={e.rundownMaxPercent} />
-      <Field label="Plate Z′ at least" name="zprimeMin" inputMode="decimal" defaultValue={v.zprimeMin} errors={e.zprimeMin} />
+      <Field label="Seal resistance at least (GΩ)" name="sealResistanceMin_GOhm" inputMode="decimal" defaultValue={v.sealResistanceMin_GOhm} errors={e.sealResistanceMin_GOhm} />
+      <Field label="Control current at least (pA)" name="controlCurrentMin_pA" inputMode="decimal" defaultValue={v.controlCurrentMin_pA} errors={e.controlCurrentMin_pA} />
+      <Field label="Series resistance at most (MΩ)" name="seriesResistanceMax_MOhm" inputMode="decimal" defaultValue={v.seriesResistanceMax_MOhm} errors={e.seriesResistanceMax_MOhm} />
+      <Field label="Capacitance from (pF)" name="capacitanceMin_pF" inputMode="decimal" defaultValue={v.capacitanceMin_pF} errors={e.capacitanceMin_pF} />
+      <Field label="Capacitance to (pF)" name="capacitanceMax_pF" inputMode="decimal" defaultValue={v.capacitanceMax_pF} errors={e.capacitanceMax_pF} />
+      <Field label="Vehicle run-down at most (%)" name="vehicleRundownMax_percent" inputMode="decimal" defaultValue={Math.round(v.vehicleRundownMax_fraction * 1000) / 10} errors={e.vehicleRundownMax_percent} />
+      <Field label="Plate Z′ at least" name="zPrimeMin" inputMode="decimal" defaultValue={v.zPrimeMin} errors={e.zPrimeMin} />
       <div className="flex items-center gap-3 sm:col-span-2 lg:col-span-3">
         <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Saving…' : submitLabel}</button>
         <FormMessage ok={state.ok} message={state.message} />

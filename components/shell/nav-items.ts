@@ -1,25 +1,25 @@
-import type { Role } from '@/models/user-role';
+import { rolesAllow, type Capability, type Role } from '@/lib/domain/roles';
 
 export interface NavItem {
   href: string;
   label: string;
-  /** Roles that see the entry; empty means every signed-in user. */
-  roles: Role[];
+  /** The work the page is for (lib/domain/roles.ts); null means every signed-in user sees the entry. */
+  capability: Capability | null;
 }
 
 /** Gatewell's main navigation, in the order of the daily flow. */
 export const NAV_ITEMS: NavItem[] = [
-  { href: '/', label: 'My work', roles: [] },
-  { href: '/plates', label: 'Plates', roles: [] },
-  { href: '/plates/import', label: 'Import a plate', roles: ['biologist'] },
-  { href: '/compounds', label: 'Compounds', roles: [] },
-  { href: '/screens', label: 'Screens', roles: [] },
-  { href: '/audit', label: 'Audit trail', roles: ['admin', 'approver'] },
-  { href: '/admin/users', label: 'Users', roles: ['admin'] },
-  { href: '/admin/outbox', label: 'Mail outbox', roles: ['admin'] },
-  { href: '/account', label: 'Account', roles: [] },
+  { href: '/', label: 'My work', capability: null },
+  { href: '/plates', label: 'Plates', capability: null },
+  { href: '/plates/import', label: 'Import a plate', capability: 'importPlates' },
+  { href: '/compounds', label: 'Compounds', capability: null },
+  { href: '/screens', label: 'Screens', capability: null },
+  { href: '/audit', label: 'Audit trail', capability: 'readAudit' },
+  { href: '/admin/users', label: 'Users', capability: 'manageUsers' },
+  { href: '/admin/outbox', label: 'Mail outbox', capability: 'manageMail' },
+  { href: '/account', label: 'Account', capability: null },
 ];
 
 export function navItemsFor(roles: Role[]): NavItem[] {
-  return NAV_ITEMS.filter((item) => item.roles.length === 0 || item.roles.some((role) => roles.includes(role)));
+  return NAV_ITEMS.filter((item) => item.capability === null || rolesAllow(roles, item.capability));
 }

@@ -3,7 +3,7 @@
 import { startTransition, useActionState, useRef, useState, type FormEvent } from 'react';
 import { FormMessage } from '@/components/forms/field';
 import type { ActionState } from '@/lib/actions/validated-action';
-import type { SignoffAction } from '@/lib/validation/signoff';
+import type { SignoffAction } from '@/lib/domain/plate-states';
 
 type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 

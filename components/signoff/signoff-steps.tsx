@@ -1,16 +1,14 @@
 import type { SignoffPanelData } from '@/lib/signoff/panel';
-import type { PlateState } from '@/models/plate';
-
-const ORDER: PlateState[] = ['imported', 'verified', 'submitted', 'approved'];
+import { PLATE_STATE_PATH, PLATE_STATE_STATION, type PlateState } from '@/lib/domain/plate-states';
 
 /** The four stations of sign-off with who signed each in this round; a returned plate shows its return last. */
 export function SignoffSteps({ state, signers }: { state: PlateState; signers: SignoffPanelData['signers'] }) {
-  const reached = state === 'rejected' ? 3 : ORDER.indexOf(state);
+  const reached = state === 'rejected' ? 3 : PLATE_STATE_PATH.indexOf(state);
   const stations = [
-    { name: 'Imported', by: signers.importedBy },
-    { name: 'Map verified', by: signers.verifiedBy },
-    { name: 'Submitted', by: signers.submittedBy },
-    { name: state === 'rejected' ? 'Returned' : 'Approved', by: signers.decidedBy },
+    { name: PLATE_STATE_STATION.imported, by: signers.importedBy },
+    { name: PLATE_STATE_STATION.verified, by: signers.verifiedBy },
+    { name: PLATE_STATE_STATION.submitted, by: signers.submittedBy },
+    { name: PLATE_STATE_STATION[state === 'rejected' ? 'rejected' : 'approved'], by: signers.decidedBy },
   ];
   return (
     <ol className="grid gap-2 sm:grid-cols-4" aria-label="Sign-off steps">

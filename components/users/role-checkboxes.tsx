@@ -1,6 +1,6 @@
 'use client';
 
-import type { Role } from '@/models/user-role';
+import type { Role } from '@/lib/domain/roles';
 import { ROLE_CHOICES } from './role-choices';
 
 /** Role checkboxes (a user may hold several, or none to read results only), with errors announced. */

@@ -3,7 +3,8 @@ import { unstable_rethrow } from 'next/navigation';
 import { z, type ZodType } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
 import { refuseUntilOwnPassword } from '@/lib/auth/own-password';
-import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { requireRole, type Actor } from '@/lib/auth/roles';
+import type { Role } from '@/lib/domain/roles';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { isAppError } from '@/lib/errors';
 
@@ -21,7 +22,7 @@ export interface ActionState {
  */
 export function validatedAction<Schema extends ZodType, Result extends ActionState = ActionState>(
   schema: Schema,
-  roles: Role[],
+  roles: readonly Role[],
   run: (input: z.infer<Schema>, actor: Actor, formData: FormData) => Promise<Result>,
   options: { beforeOwnPassword?: boolean } = {},
 ) {

@@ -4,7 +4,8 @@ import { NextResponse, type NextRequest } from 'next/server';
 import { ZodError, z } from 'zod';
 import { currentActor } from '@/lib/auth/current-actor';
 import { refuseUntilOwnPassword } from '@/lib/auth/own-password';
-import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { requireRole, type Actor } from '@/lib/auth/roles';
+import type { Role } from '@/lib/domain/roles';
 import { SESSION_COOKIE } from '@/lib/auth/session-config';
 import { readSealedSession } from '@/lib/auth/session-read';
 import { renewedSessionCookie } from '@/lib/auth/session-renewal';
@@ -56,7 +57,7 @@ export function errorResponse(error: unknown): NextResponse {
  * Wraps a route handler: checks the Origin of changing requests, loads the signed-in actor (401 when
  * there is none), checks roles (403), and maps errors in one place.
  */
-export function withUser<Params = Record<string, never>>(handler: Handler<Params>, options: { roles?: Role[] } = {}) {
+export function withUser<Params = Record<string, never>>(handler: Handler<Params>, options: { roles?: readonly Role[] } = {}) {
   return async (request: NextRequest, context: RouteContext<Params>): Promise<Response> => {
     try {
       checkOrigin(request);

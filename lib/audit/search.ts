@@ -1,5 +1,5 @@
 import 'server-only';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { AppError } from '@/lib/errors';
 import { AUDIT_PAGE_SIZE, auditFilterSchema, type AuditFilter } from '@/lib/validation/audit';
@@ -19,7 +19,7 @@ export interface AuditPage {
  * range (from inclusive, to exclusive). Admins and approvers only.
  */
 export async function searchAudit(actor: Actor, rawFilter: unknown): Promise<AuditPage> {
-  requireRole(actor, 'admin', 'approver');
+  requireCapability(actor, 'readAudit');
   const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
   const total = await countAuditEvents(filter);
   const rows = await selectAuditEvents(filter, AUDIT_PAGE_SIZE, (filter.page - 1) * AUDIT_PAGE_SIZE);
@@ -34,7 +34,7 @@ export const AUDIT_EXPORT_LIMIT = 100_000;
  * message when more than `limit` match. Admins and approvers only.
  */
 export async function auditEventsForExport(actor: Actor, rawFilter: unknown, limit = AUDIT_EXPORT_LIMIT): Promise<{ filter: AuditFilter; rows: AuditRow[] }> {
-  requireRole(actor, 'admin', 'approver');
+  requireCapability(actor, 'readAudit');
   const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
   const rows = await selectAuditEvents(filter, limit + 1, 0);
   if (rows.length > limit) {
@@ -45,7 +45,7 @@ export async function auditEventsForExport(actor: Actor, rawFilter: unknown, lim
 
 /** The choices of the audit filter: record types that occur, and people. Admins and approvers only. */
 export async function auditFilterChoices(actor: Actor): Promise<{ entityTypes: string[]; people: { id: string; label: string }[] }> {
-  requireRole(actor, 'admin', 'approver');
+  requireCapability(actor, 'readAudit');
   const [types, people] = await Promise.all([selectAuditEntityTypes(), selectPeopleLabels()]);
   return { entityTypes: types.map((row) => row.entityType), people };
 }

@@ -1,7 +1,8 @@
 import 'server-only';
 import { forbidden } from 'next/navigation';
 import { requireActor } from './current-actor';
-import { hasRole, type Actor, type Role } from './roles';
+import type { Role } from '@/lib/domain/roles';
+import { hasRole, type Actor } from './roles';
 
 /**
  * For pages that need a role: the actor, a redirect to sign-in when there is none, or the forbidden

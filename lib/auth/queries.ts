@@ -1,7 +1,7 @@
 import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
-import type { Role } from './roles';
+import type { Role } from '@/lib/domain/roles';
 
 export interface ActorRow {
   id: string;

@@ -1,7 +1,5 @@
 import { AppError } from '@/lib/errors';
-import type { Role } from '@/models/user-role';
-
-export { ROLES, type Role } from '@/models/user-role';
+import { rolesFor, type Capability, type Role } from '@/lib/domain/roles';
 
 /** The signed-in person as every service function receives it. */
 export interface Actor {
@@ -23,4 +21,14 @@ export function requireRole(actor: Actor, ...roles: Role[]): void {
   if (!hasRole(actor, ...roles)) {
     throw new AppError('forbidden', `This needs the ${roles.join(' or ')} role.`);
   }
+}
+
+/** Whether the actor may do the work (lib/domain/roles.ts, CAPABILITIES). */
+export function can(actor: Actor, capability: Capability): boolean {
+  return hasRole(actor, ...rolesFor(capability));
+}
+
+/** Refuses the call unless the actor holds one of the roles the work needs. */
+export function requireCapability(actor: Actor, capability: Capability): void {
+  requireRole(actor, ...rolesFor(capability));
 }

@@ -10,8 +10,8 @@ const HEADERS: Record<keyof BulkCompoundRow, string[]> = {
   smiles: ['smiles', 'structure'],
   molecularWeight: ['molecularweight', 'mw', 'molweight', 'mwgmol'],
   lot: ['lot', 'batch', 'batchlot', 'lotnumber', 'batchid'],
-  purityPercent: ['purity', 'puritypercent', 'puritypct'],
-  stockConcentrationMm: ['stock', 'stockmm', 'stockconcentration', 'stockconcentrationmm', 'stockconc', 'stockconcmm'],
+  purity_percent: ['purity', 'puritypercent', 'puritypct'],
+  stockConcentration_mM: ['stock', 'stockmm', 'stockconcentration', 'stockconcentrationmm', 'stockconc', 'stockconcmm'],
   solvent: ['solvent'],
 };
 

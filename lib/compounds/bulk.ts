@@ -1,5 +1,5 @@
 import 'server-only';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
@@ -19,7 +19,7 @@ export interface BulkRegistration {
  * given. All rows are checked first; with any error nothing is registered (commit false previews only).
  */
 export async function registerCompoundsFromSheet(actor: Actor, file: { bytes: Uint8Array; filename: string }, commit: boolean): Promise<BulkRegistration> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   const parsed = await parseSpreadsheet(file.bytes, file.filename);
   if (!parsed.ok) throw new AppError(parsed.error.code === 'too_large' ? 'too_large' : 'invalid', parsed.error.message);
   const sheet = parsed.sheets[0];
@@ -37,9 +37,9 @@ export async function registerCompoundsFromSheet(actor: Actor, file: { bytes: Ui
   if (!commit || !ok) return { rows, problems, ok, registered: 0 };
   await db().transaction(async (transaction) => {
     for (const row of rows) {
-      const { lot, purityPercent, stockConcentrationMm, solvent, ...compound } = row.input!;
+      const { lot, purity_percent, stockConcentration_mM, solvent, ...compound } = row.input!;
       const created = await insertCompound(actor, compound, transaction);
-      if (lot) await insertBatch(actor, created.id, { lot, purityPercent, stockConcentrationMm, solvent: solvent || 'DMSO' }, transaction);
+      if (lot) await insertBatch(actor, created.id, { lot, purity_percent, stockConcentration_mM, solvent: solvent || 'DMSO' }, transaction);
     }
   });
   return { rows, problems, ok, registered: rows.length };

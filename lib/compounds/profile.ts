@@ -10,7 +10,7 @@ export interface ProfileScreen {
   id: string;
   name: string;
   neuronPreset: string;
-  exposuresUm: number[];
+  exposures_uM: number[];
   /** The compound has at least one fit on an approved plate of this screen. */
   hasApproved: boolean;
 }
@@ -33,13 +33,13 @@ export async function getCompoundProfile(actor: Actor, compoundId: string): Prom
   const potencies = [...choosePotencies(fits).values()].sort((a, b) => a.target.localeCompare(b.target));
   const screenIds = [...new Set(fits.map((f) => f.screenId))];
   const screens = screenIds.length
-    ? await Screen.findAll({ attributes: ['id', 'name', 'neuronPreset', 'exposuresUm'], where: { id: screenIds }, order: [['name', 'ASC']], raw: true })
+    ? await Screen.findAll({ attributes: ['id', 'name', 'neuronPreset', 'exposures_uM'], where: { id: screenIds }, order: [['name', 'ASC']], raw: true })
     : [];
   return {
     compound,
     fits,
     potencies,
     selectivity: selectivityRatios(potencies),
-    screens: screens.map((s) => ({ ...s, exposuresUm: [...s.exposuresUm].sort((a, b) => a - b), hasApproved: fits.some((f) => f.screenId === s.id && f.approved) })),
+    screens: screens.map((s) => ({ ...s, exposures_uM: [...s.exposures_uM].sort((a, b) => a - b), hasApproved: fits.some((f) => f.screenId === s.id && f.approved) })),
   };
 }

@@ -2,7 +2,7 @@ import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
 import type { FitModel, FitStatus } from '@/models/fit';
-import type { PlateState } from '@/models/plate';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 /** One fit of a compound on one plate, with where it stands in sign-off. */
 export interface ProfileFit {
@@ -21,10 +21,10 @@ export interface ProfileFit {
   model: FitModel;
   status: FitStatus;
   message: string;
-  ic50Um: number | null;
-  ic50CiLowUm: number | null;
-  ic50CiHighUm: number | null;
-  ic50LowerBoundUm: number | null;
+  ic50_uM: number | null;
+  ic50CiLow_uM: number | null;
+  ic50CiHigh_uM: number | null;
+  ic50LowerBound_uM: number | null;
   hill: number | null;
   r2: number | null;
   n: number;
@@ -36,8 +36,8 @@ export async function selectCompoundFits(compoundId: string): Promise<ProfileFit
     `select f.id as "fitId", p.id as "plateId", p.label as "plateLabel", p.state as "plateState", (p.state = 'approved') as approved,
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
             s.id as "screenId", s.name as "screenName", t.id as "targetId", t.name as target, t.conductance,
-            f.model, f.status, f.message, f.ic50_um as "ic50Um", f.ic50_ci_low_um as "ic50CiLowUm", f.ic50_ci_high_um as "ic50CiHighUm",
-            f.ic50_lower_bound_um as "ic50LowerBoundUm", f.hill, f.r2, f.n
+            f.model, f.status, f.message, f.ic50_um as "ic50_uM", f.ic50_ci_low_um as "ic50CiLow_uM", f.ic50_ci_high_um as "ic50CiHigh_uM",
+            f.ic50_lower_bound_um as "ic50LowerBound_uM", f.hill, f.r2, f.n
        from fits f join plates p on p.id = f.plate_id join screens s on s.id = p.screen_id join targets t on t.id = f.target_id
       where f.compound_id = :compoundId
       order by (p.state = 'approved') desc, p.imported_at desc, p.label, t.name`,

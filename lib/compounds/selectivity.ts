@@ -19,8 +19,8 @@ const sig = (v: number) => Number(v.toPrecision(3)).toString();
 
 /** The IC50 (exact) or its lower bound (above the tested range, or inactive) of a chosen fit. */
 function potencyOf(fit: ProfileFit): { value: number; exact: boolean } | null {
-  if (fit.status === 'fitted' && fit.ic50Um !== null) return { value: fit.ic50Um, exact: true };
-  if ((fit.status === 'above_range' || fit.status === 'inactive') && fit.ic50LowerBoundUm !== null) return { value: fit.ic50LowerBoundUm, exact: false };
+  if (fit.status === 'fitted' && fit.ic50_uM !== null) return { value: fit.ic50_uM, exact: true };
+  if ((fit.status === 'above_range' || fit.status === 'inactive') && fit.ic50LowerBound_uM !== null) return { value: fit.ic50LowerBound_uM, exact: false };
   return null;
 }
 

@@ -1,7 +1,7 @@
 import 'server-only';
 import { UniqueConstraintError, type Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import type { BatchInput, CompoundInput } from '@/lib/validation/compounds';
@@ -19,8 +19,8 @@ export interface BatchRecord {
   id: string;
   compoundId: string;
   lot: string;
-  purityPercent: number | null;
-  stockConcentrationMm: number | null;
+  purity_percent: number | null;
+  stockConcentration_mM: number | null;
   solvent: string;
 }
 
@@ -28,7 +28,7 @@ const toCompound = (c: Compound): CompoundRecord => ({
   id: c.id, identifier: c.identifier, name: c.name, smiles: c.smiles, molecularWeight: c.molecularWeight,
 });
 const toBatch = (b: Batch): BatchRecord => ({
-  id: b.id, compoundId: b.compoundId, lot: b.lot, purityPercent: b.purityPercent, stockConcentrationMm: b.stockConcentrationMm, solvent: b.solvent,
+  id: b.id, compoundId: b.compoundId, lot: b.lot, purity_percent: b.purity_percent, stockConcentration_mM: b.stockConcentration_mM, solvent: b.solvent,
 });
 
 function duplicate(error: unknown, message: string, field: string): never {
@@ -48,13 +48,13 @@ export async function insertCompound(actor: Actor, input: CompoundInput, transac
 
 /** Registers one compound (chemist or admin). */
 export async function createCompound(actor: Actor, input: CompoundInput): Promise<CompoundRecord> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   return db().transaction((transaction) => insertCompound(actor, input, transaction));
 }
 
 /** Edits a compound's identity fields; the audit event keeps before and after. */
 export async function updateCompound(actor: Actor, compoundId: string, input: CompoundInput): Promise<CompoundRecord> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   return db().transaction(async (transaction) => {
     const compound = await Compound.findByPk(compoundId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!compound) throw new AppError('not_found', 'No such compound.');
@@ -80,7 +80,7 @@ export async function insertBatch(actor: Actor, compoundId: string, input: Batch
 
 /** Registers a batch of an existing compound (chemist or admin). */
 export async function addBatch(actor: Actor, compoundId: string, input: BatchInput): Promise<BatchRecord> {
-  requireRole(actor, 'chemist', 'admin');
+  requireCapability(actor, 'registerCompounds');
   return db().transaction(async (transaction) => {
     const compound = await Compound.findByPk(compoundId, { transaction });
     if (!compound) throw new AppError('not_found', 'No such compound.');

@@ -1,11 +1,12 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
 import { getCompoundProfile, type CompoundProfile } from '@/lib/compounds/profile';
+import { PLATE_STATE_LABEL } from '@/lib/domain/plate-states';
 import { getCompoundForecast } from '@/lib/forecasts/compound-forecast';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
 import type { Cell, ExportDocument, ExportTable } from './document';
 import { forecastTable } from './forecast-rows';
-import { listPlateSignoffs, signoffLines, signoffTable, STATE_WORDS } from './signoffs';
+import { listPlateSignoffs, signoffLines, signoffTable } from './signoffs';
 
 function potencyTable(profile: CompoundProfile): ExportTable {
   const standing = new Set(profile.potencies.map((p) => p.fitId));
@@ -13,8 +14,8 @@ function potencyTable(profile: CompoundProfile): ExportTable {
     sheet: 'Potency across plates', key: 'potency',
     columns: ['Plate', 'Screen', 'Plate state', 'Approved', 'Target', 'Conductance', 'Model', 'Status', 'IC50 (µM)', 'IC50 95 % CI low (µM)', 'IC50 95 % CI high (µM)',
       'IC50 above (µM)', 'Hill slope', 'R²', 'Wells used', 'Stands for the target in this profile', 'Message'],
-    rows: profile.fits.map((f) => [f.plateLabel, f.screenName, STATE_WORDS[f.plateState], f.approved ? 'yes' : 'no, not yet approved', f.target, f.conductance,
-      f.model === 'hill2' ? '2 parameters' : '4 parameters', f.status, f.ic50Um, f.ic50CiLowUm, f.ic50CiHighUm, f.ic50LowerBoundUm, f.hill, f.r2, f.n,
+    rows: profile.fits.map((f) => [f.plateLabel, f.screenName, PLATE_STATE_LABEL[f.plateState], f.approved ? 'yes' : 'no, not yet approved', f.target, f.conductance,
+      f.model === 'hill2' ? '2 parameters' : '4 parameters', f.status, f.ic50_uM, f.ic50CiLow_uM, f.ic50CiHigh_uM, f.ic50LowerBound_uM, f.hill, f.r2, f.n,
       standing.has(f.fitId), f.message]),
     note: 'Only fits on approved plates are results; fits on plates not yet approved are marked so.',
   };
@@ -43,7 +44,7 @@ export async function compoundExport(actor: Actor, compoundId: string): Promise<
     ['Compound', profile.compound.identifier],
     ['Name', profile.compound.name],
     ['Potency basis', 'Per target, the newest fit on an approved plate; without one, the newest fit on a plate not yet approved (marked so).'],
-    ...plates.map((p): [string, Cell] => [`Plate ${p.plateLabel}`, `${p.screenName}; state ${STATE_WORDS[p.plateState]}${p.approved ? '' : ' (not yet approved)'}`]),
+    ...plates.map((p): [string, Cell] => [`Plate ${p.plateLabel}`, `${p.screenName}; state ${PLATE_STATE_LABEL[p.plateState]}${p.approved ? '' : ' (not yet approved)'}`]),
     ['Exported by', `${actor.name} <${actor.email}>`],
     ['Exported at (UTC)', new Date().toISOString().replace(/\.\d+Z$/, 'Z')],
     ...(plates.length ? signoffLines(signoffs, true) : []),

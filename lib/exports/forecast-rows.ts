@@ -21,7 +21,7 @@ export function forecastRows(f: CompoundForecast): Cell[][] {
   const view = f.forecast;
   if (!view) return [[...head, 'No forecast', null, null, null, null, null, null, null, null, null, null, null, f.reason, potencies, null]];
   const row = (name: string, c: ConditionView): Cell[] => [
-    ...head, name, c.concentrationUm,
+    ...head, name, c.concentration_uM,
     Object.entries(c.block).filter(([, b]) => b > 0).map(([g, b]) => `${g} ${(b * 100).toFixed(1)}`).join('; ') || 'none',
     round(c.measures.rest_mV), round(c.measures.rheobase_uA_cm2), pct(c.shifts.rheobase_uA_cm2.relative),
     round(c.measures.threshold_mV), round(c.shifts.threshold_mV.delta, 3), round(view.referenceDrive_uA_cm2), round(c.measures.referenceRate_Hz),

@@ -1,11 +1,12 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
+import { PLATE_STATE_LABEL } from '@/lib/domain/plate-states';
 import { listPlateForecasts, getPlateForecast } from '@/lib/forecasts/plate-forecast';
 import { getPlateHeader, listPlateFits, listPlateWells } from '@/lib/plates/detail';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
 import type { ExportDocument, ExportTable } from './document';
 import { forecastTable } from './forecast-rows';
-import { listPlateSignoffs, signoffLines, signoffTable, STATE_WORDS } from './signoffs';
+import { listPlateSignoffs, signoffLines, signoffTable } from './signoffs';
 
 const FIT_STATUS_WORDS: Record<string, string> = {
   fitted: 'Fitted', above_range: 'IC50 above the tested range', inactive: 'Inactive', insufficient: 'Too few concentrations', not_converged: 'Did not converge',
@@ -16,8 +17,8 @@ function wellsTable(wells: Awaited<ReturnType<typeof listPlateWells>>): ExportTa
     sheet: 'Wells', key: 'wells',
     columns: ['Well', 'Role', 'Compound', 'Concentration (µM)', 'Target', 'Control current (pA)', 'Compound current (pA)', 'Fractional block',
       'Seal resistance (GΩ)', 'Series resistance (MΩ)', 'Capacitance (pF)', 'QC', 'Excluded', 'Exclusion reason'],
-    rows: wells.map((w) => [w.position, w.role, w.compound, w.concentrationUm, w.target, w.controlCurrentPa, w.compoundCurrentPa, w.fractionalBlock,
-      w.sealResistanceGohm, w.seriesResistanceMohm, w.capacitancePf, w.qcReasons.length ? w.qcReasons.map((q) => q.message).join(' ') : 'pass', w.excluded, w.exclusionReason]),
+    rows: wells.map((w) => [w.position, w.role, w.compound, w.concentration_uM, w.target, w.controlCurrent_pA, w.compoundCurrent_pA, w.fractionalBlock,
+      w.sealResistance_GOhm, w.seriesResistance_MOhm, w.capacitance_pF, w.qcReasons.length ? w.qcReasons.map((q) => q.message).join(' ') : 'pass', w.excluded, w.exclusionReason]),
   };
 }
 
@@ -27,7 +28,7 @@ function fitsTable(fits: Awaited<ReturnType<typeof listPlateFits>>): ExportTable
     columns: ['Compound', 'Target', 'Conductance', 'Model', 'Status', 'IC50 (µM)', 'IC50 95 % CI low (µM)', 'IC50 95 % CI high (µM)', 'IC50 above (µM)',
       'Hill slope', 'Bottom', 'Top', 'R²', 'Residual SD', 'Wells used', 'Message', 'Flags'],
     rows: fits.map((f) => [f.compound, f.target, f.conductance, f.model === 'hill2' ? '2 parameters' : '4 parameters', FIT_STATUS_WORDS[f.status] ?? f.status,
-      f.ic50Um, f.ic50CiLowUm, f.ic50CiHighUm, f.ic50LowerBoundUm, f.hill, f.bottom, f.top, f.r2, f.residualSd, f.n, f.message, f.flags.map((x) => x.message).join(' ')]),
+      f.ic50_uM, f.ic50CiLow_uM, f.ic50CiHigh_uM, f.ic50LowerBound_uM, f.hill, f.bottom, f.top, f.r2, f.residualSd, f.n, f.message, f.flags.map((x) => x.message).join(' ')]),
   };
 }
 
@@ -44,7 +45,7 @@ export async function plateExport(actor: Actor, plateId: string): Promise<{ labe
     ['Gatewell export', `Plate ${header.label}: wells, fits and forecast`],
     ['Caution', FORECAST_CAUTION],
     ['Plate', header.label],
-    ['State', STATE_WORDS[header.state]],
+    ['State', PLATE_STATE_LABEL[header.state]],
     ['Plate version', header.version],
     ['Fits', header.fitsPending ? 'being recomputed after the last change: these are the fits before it; export again once the plate page shows them current' : 'current'],
     ['Screen', header.screenName],
@@ -54,7 +55,7 @@ export async function plateExport(actor: Actor, plateId: string): Promise<{ labe
     ['Source file', header.filename],
     ['Source file SHA-256', header.sha256],
     ['Neuron preset', header.neuronPreset],
-    ['Exposures (µM)', list.exposuresUm.join(', ')],
+    ['Exposures (µM)', list.exposures_uM.join(', ')],
     ['Exported by', `${actor.name} <${actor.email}>`],
     ['Exported at (UTC)', new Date().toISOString().replace(/\.\d+Z$/, 'Z')],
     ...signoffLines(signoffs, false),

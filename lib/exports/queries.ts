@@ -1,7 +1,7 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
-import type { PlateState } from '@/models/plate';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 /** One signed transition of a plate, as the export reads it. */
 export interface PlateSignoffRow {

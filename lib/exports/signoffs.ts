@@ -1,5 +1,5 @@
 import 'server-only';
-import type { PlateState } from '@/models/plate';
+import { PLATE_STATE_LABEL, type PlateState } from '@/lib/domain/plate-states';
 import type { Cell, ExportTable } from './document';
 import { selectPlateSignoffs } from './queries';
 
@@ -16,11 +16,6 @@ export interface PlateSignoff {
   contentSha256: string;
 }
 
-/** Gatewell's words for plate states (the same as the state badge). */
-export const STATE_WORDS: Record<PlateState, string> = {
-  imported: 'Imported', verified: 'Map verified', submitted: 'Awaiting approval', approved: 'Approved', rejected: 'Returned',
-};
-
 /** Every signed transition of these plates, oldest first, with who signed, meaning and comment. */
 export async function listPlateSignoffs(plateIds: string[]): Promise<PlateSignoff[]> {
   if (plateIds.length === 0) return [];
@@ -32,7 +27,7 @@ export function signoffLines(signoffs: PlateSignoff[], withPlate: boolean): [str
   if (signoffs.length === 0) return [['Signatures', 'None yet: the plate has not been signed in sign-off.']];
   return signoffs.map((s, i) => [
     `Signature ${i + 1}`,
-    `${withPlate ? `${s.plateLabel}: ` : ''}${STATE_WORDS[s.fromState]} → ${STATE_WORDS[s.toState]}, signed by ${s.signer} <${s.signerEmail}> at ${s.signedAt} meaning “${s.meaning}”${s.comment ? `, comment “${s.comment}”` : ''}`,
+    `${withPlate ? `${s.plateLabel}: ` : ''}${PLATE_STATE_LABEL[s.fromState]} → ${PLATE_STATE_LABEL[s.toState]}, signed by ${s.signer} <${s.signerEmail}> at ${s.signedAt} meaning “${s.meaning}”${s.comment ? `, comment “${s.comment}”` : ''}`,
   ]);
 }
 
@@ -41,6 +36,6 @@ export function signoffTable(signoffs: PlateSignoff[]): ExportTable {
   return {
     sheet: 'Sign-off', key: 'signoff',
     columns: ['Plate', 'From state', 'To state', 'Signed by', 'E-mail', 'Meaning', 'Comment', 'Signed at (UTC)', 'Signed content SHA-256'],
-    rows: signoffs.map((s) => [s.plateLabel, STATE_WORDS[s.fromState], STATE_WORDS[s.toState], s.signer, s.signerEmail, s.meaning, s.comment, s.signedAt, s.contentSha256]),
+    rows: signoffs.map((s) => [s.plateLabel, PLATE_STATE_LABEL[s.fromState], PLATE_STATE_LABEL[s.toState], s.signer, s.signerEmail, s.meaning, s.comment, s.signedAt, s.contentSha256]),
   };
 }

@@ -11,7 +11,7 @@ import { storedOrComputedForecast } from './store';
 import { forecastView } from './view';
 
 const potencyFit = (f: ProfileFit): PotencyFit => ({
-  status: f.status, model: f.model, ic50Um: f.ic50Um, hill: f.hill, ic50LowerBoundUm: f.ic50LowerBoundUm,
+  status: f.status, model: f.model, ic50_uM: f.ic50_uM, hill: f.hill, ic50LowerBound_uM: f.ic50LowerBound_uM,
   plate: { id: f.plateId, label: f.plateLabel, state: f.plateState },
 });
 
@@ -36,13 +36,13 @@ export async function getCompoundForecast(actor: Actor, compoundId: string, opti
     const f = chosen.get(targetId) ?? latest.get(targetId);
     return f ? potencyFit(f) : undefined;
   };
-  const potencies = targetPotencies(screen.neuronPreset, targets, fitOf, screen.exposuresUm);
-  const plan = planCompoundForecast(screen.neuronPreset, potencies, screen.exposuresUm, options.at);
+  const potencies = targetPotencies(screen.neuronPreset, targets, fitOf, screen.exposures_uM);
+  const plan = planCompoundForecast(screen.neuronPreset, potencies, screen.exposures_uM, options.at);
   const base = {
     compoundId, compound: profile.compound.identifier, screen: { id: screen.id, name: screen.name }, preset: screen.neuronPreset,
-    exposuresUm: screen.exposuresUm, targets: potencies, caution: FORECAST_CAUTION,
+    exposures_uM: screen.exposures_uM, targets: potencies, caution: FORECAST_CAUTION,
   };
   if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
   const stored = await storedOrComputedForecast({ plateId: null, compoundId, screenId: screen.id }, plan.request, { requestedBy: actor.id });
-  return { ...base, reason: null, forecast: forecastView(stored, screen.exposuresUm) };
+  return { ...base, reason: null, forecast: forecastView(stored, screen.exposures_uM) };
 }

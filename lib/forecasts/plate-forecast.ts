@@ -11,7 +11,7 @@ import { forecastView } from './view';
 
 interface PlateContext {
   header: PlateHeader;
-  exposuresUm: number[];
+  exposures_uM: number[];
   compounds: { compoundId: string; compound: string; targets: TargetPotency[] }[];
 }
 
@@ -19,7 +19,7 @@ interface PlateContext {
 async function plateContext(actor: Actor, plateId: string): Promise<PlateContext> {
   const header = await getPlateHeader(actor, plateId);
   const fits = await listPlateFits(actor, plateId);
-  const exposuresUm = [...header.exposuresUm].sort((a, b) => a - b);
+  const exposures_uM = [...header.exposures_uM].sort((a, b) => a - b);
   const plate = { id: header.id, label: header.label, state: header.state };
   const byCompound = new Map<string, { compound: string; fits: Map<string, FitRow> }>();
   for (const fit of fits) {
@@ -32,25 +32,25 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
     compound,
     targets: targetPotencies(header.neuronPreset, header.targets, (targetId) => {
       const f = own.get(targetId);
-      return f ? ({ status: f.status, model: f.model, ic50Um: f.ic50Um, hill: f.hill, ic50LowerBoundUm: f.ic50LowerBoundUm, plate } as PotencyFit) : undefined;
-    }, exposuresUm),
+      return f ? ({ status: f.status, model: f.model, ic50_uM: f.ic50_uM, hill: f.hill, ic50LowerBound_uM: f.ic50LowerBound_uM, plate } as PotencyFit) : undefined;
+    }, exposures_uM),
   }));
-  return { header, exposuresUm, compounds };
+  return { header, exposures_uM, compounds };
 }
 
 /** Every compound of the plate with its potencies, whether it can be forecast, and whether its forecast is stored. */
 export async function listPlateForecasts(actor: Actor, plateId: string): Promise<PlateForecastList> {
-  const { header, exposuresUm, compounds } = await plateContext(actor, plateId);
+  const { header, exposures_uM, compounds } = await plateContext(actor, plateId);
   // A compound counts as stored when its forecast is, with the traces at any of the exposures.
-  const plans = compounds.map((c) => exposuresUm.map((_, at) => planCompoundForecast(header.neuronPreset, c.targets, exposuresUm, at)));
+  const plans = compounds.map((c) => exposures_uM.map((_, at) => planCompoundForecast(header.neuronPreset, c.targets, exposures_uM, at)));
   const keys = plans.map((variants) => variants.flatMap((p) => ('request' in p ? [forecastInput(p.request).inputSha256] : [])));
   const stored = await storedKeys(header.id, keys.flat());
   return {
     plate: { id: header.id, label: header.label, state: header.state },
     preset: header.neuronPreset,
-    exposuresUm,
+    exposures_uM,
     compounds: compounds.map((c, i) => {
-      const plan = plans[i]![0] ?? planCompoundForecast(header.neuronPreset, c.targets, exposuresUm);
+      const plan = plans[i]![0] ?? planCompoundForecast(header.neuronPreset, c.targets, exposures_uM);
       return { ...c, reason: 'reason' in plan ? plan.reason : null, stored: keys[i]!.some((k) => stored.has(k)) };
     }),
     caution: FORECAST_CAUTION,
@@ -63,15 +63,15 @@ export async function listPlateForecasts(actor: Actor, plateId: string): Promise
  * forecast job (or here, with `here: true`, when the caller is a job itself) and stored.
  */
 export async function getPlateForecast(actor: Actor, plateId: string, compoundId: string, at?: number, options: { here?: boolean } = {}): Promise<CompoundForecast> {
-  const { header, exposuresUm, compounds } = await plateContext(actor, plateId);
+  const { header, exposures_uM, compounds } = await plateContext(actor, plateId);
   const entry = compounds.find((c) => c.compoundId === compoundId);
   if (!entry) throw new AppError('not_found', `No compound with that id is tested on plate ${header.label}.`);
-  const plan = planCompoundForecast(header.neuronPreset, entry.targets, exposuresUm, at);
+  const plan = planCompoundForecast(header.neuronPreset, entry.targets, exposures_uM, at);
   const base = {
     compoundId, compound: entry.compound, screen: { id: header.screenId, name: header.screenName }, preset: header.neuronPreset,
-    exposuresUm, targets: entry.targets, caution: FORECAST_CAUTION,
+    exposures_uM, targets: entry.targets, caution: FORECAST_CAUTION,
   };
   if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
   const stored = await storedOrComputedForecast({ plateId: header.id, compoundId, screenId: header.screenId }, plan.request, { here: options.here ?? false, requestedBy: actor.id });
-  return { ...base, reason: null, forecast: forecastView(stored, exposuresUm) };
+  return { ...base, reason: null, forecast: forecastView(stored, exposures_uM) };
 }

@@ -25,7 +25,7 @@ export async function runPlateForecasts(data: PlateForecastsPayload, { progress 
   if (!actor) throw new AppError('invalid', 'The person who asked for this run can no longer sign in.');
   const list = await listPlateForecasts(actor, data.plateId);
   const todo = list.compounds.filter((c) => c.reason === null && !c.stored);
-  const at = data.at ?? Math.max(0, list.exposuresUm.length - 1);
+  const at = data.at ?? Math.max(0, list.exposures_uM.length - 1);
   await progress(0, todo.length);
   let done = 0;
   for (const compound of todo) {

@@ -16,9 +16,9 @@ export interface PotencyTarget {
 export interface PotencyFit {
   status: 'fitted' | 'above_range' | 'inactive' | 'insufficient' | 'not_converged';
   model: 'hill2' | 'hill4';
-  ic50Um: number | null;
+  ic50_uM: number | null;
   hill: number | null;
-  ic50LowerBoundUm: number | null;
+  ic50LowerBound_uM: number | null;
   plate: { id: string; label: string; state: string } | null;
 }
 
@@ -26,7 +26,7 @@ const num = (v: number) => Number(v.toPrecision(3)).toString();
 
 function useOf(fit: PotencyFit | undefined): { use: PotencyUse; note: string } {
   if (!fit) return { use: 'not_tested', note: 'Not tested: treated as no block.' };
-  const bound = fit.ic50LowerBoundUm === null ? '' : ` ${num(fit.ic50LowerBoundUm)} µM`;
+  const bound = fit.ic50LowerBound_uM === null ? '' : ` ${num(fit.ic50LowerBound_uM)} µM`;
   switch (fit.status) {
     case 'fitted':
       if (fit.hill === null || !(fit.hill > 0) || fit.hill > MAX_HILL) {
@@ -52,7 +52,7 @@ function useOf(fit: PotencyFit | undefined): { use: PotencyUse; note: string } {
  * every exposure, or in words why it counts as no block. A conductance takes its potency from the first
  * target (by name) that gives one; later targets on the same conductance are said to be unused.
  */
-export function targetPotencies(presetName: string, targets: PotencyTarget[], fitOf: (targetId: string) => PotencyFit | undefined, exposuresUm: number[]): TargetPotency[] {
+export function targetPotencies(presetName: string, targets: PotencyTarget[], fitOf: (targetId: string) => PotencyFit | undefined, exposures_uM: number[]): TargetPotency[] {
   const { blockable } = conductanceNames(getPreset(presetName));
   const taken = new Map<string, string>();
   return [...targets].sort((a, b) => a.name.localeCompare(b.name)).map((target) => {
@@ -67,10 +67,10 @@ export function targetPotencies(presetName: string, targets: PotencyTarget[], fi
     } else if (use === 'used') {
       taken.set(target.conductance, target.name);
     }
-    const blockAtExposures = exposuresUm.map((c) => (use === 'used' ? poreBlockFraction(c, fit!.ic50Um!, fit!.hill!) : 0));
+    const blockAtExposures = exposures_uM.map((c) => (use === 'used' ? poreBlockFraction(c, fit!.ic50_uM!, fit!.hill!) : 0));
     return {
       targetId: target.id, target: target.name, conductance: target.conductance, use,
-      ic50Um: fit?.ic50Um ?? null, hill: fit?.hill ?? null, ic50LowerBoundUm: fit?.ic50LowerBoundUm ?? null,
+      ic50_uM: fit?.ic50_uM ?? null, hill: fit?.hill ?? null, ic50LowerBound_uM: fit?.ic50LowerBound_uM ?? null,
       note, blockAtExposures, plate: fit?.plate ?? null,
     };
   });

@@ -15,8 +15,8 @@ export const TRACE_POINTS = 1200;
 
 export interface PlannedForecast {
   request: ForecastRequest;
-  concentrationsUm: number[];
-  traceConcentrationUm: number;
+  concentrations_uM: number[];
+  traceConcentration_uM: number;
 }
 
 /**
@@ -24,26 +24,26 @@ export interface PlannedForecast {
  * exposures (ascending) and the concentration sweep, with traces at exposure `at` (default the highest).
  * Returns the reason instead when there is nothing to forecast.
  */
-export function planCompoundForecast(preset: string, potencies: TargetPotency[], exposuresUm: number[], at?: number): PlannedForecast | { reason: string } {
-  if (at !== undefined && at >= exposuresUm.length) {
-    throw new AppError('invalid', `at must be the index of one of the screen’s ${exposuresUm.length} exposures (0–${Math.max(0, exposuresUm.length - 1)}).`);
+export function planCompoundForecast(preset: string, potencies: TargetPotency[], exposures_uM: number[], at?: number): PlannedForecast | { reason: string } {
+  if (at !== undefined && at >= exposures_uM.length) {
+    throw new AppError('invalid', `at must be the index of one of the screen’s ${exposures_uM.length} exposures (0–${Math.max(0, exposures_uM.length - 1)}).`);
   }
-  if (exposuresUm.length === 0) return { reason: 'The screen has no exposures of interest. An admin adds them on the screen’s page; the forecast runs at those concentrations.' };
+  if (exposures_uM.length === 0) return { reason: 'The screen has no exposures of interest. An admin adds them on the screen’s page; the forecast runs at those concentrations.' };
   const used = potencies.filter((p) => p.use === 'used');
   if (used.length === 0) return { reason: 'No target gives a usable IC50 here, so every exposure would equal control. Nothing to forecast.' };
-  const concentrationsUm = sweepConcentrations(exposuresUm, used.map((p) => p.ic50Um!));
-  const traceConcentrationUm = exposuresUm[at ?? exposuresUm.length - 1]!;
-  const condition = concentrationsUm.findIndex((c) => isExposure(c, [traceConcentrationUm]));
+  const concentrations_uM = sweepConcentrations(exposures_uM, used.map((p) => p.ic50_uM!));
+  const traceConcentration_uM = exposures_uM[at ?? exposures_uM.length - 1]!;
+  const condition = concentrations_uM.findIndex((c) => isExposure(c, [traceConcentration_uM]));
   return {
     request: {
       preset: preset as ForecastRequest['preset'],
-      potencies: Object.fromEntries(used.map((p) => [p.conductance, { ic50: p.ic50Um!, hill: p.hill! }])),
-      concentrations: concentrationsUm,
+      potencies: Object.fromEntries(used.map((p) => [p.conductance, { ic50: p.ic50_uM!, hill: p.hill! }])),
+      concentrations: concentrations_uM,
       concentrationUnit: 'µM',
       protocol: { fiCurve: { ...FORECAST_FI_CURVE } },
       trace: { condition, points: TRACE_POINTS },
     },
-    concentrationsUm,
-    traceConcentrationUm,
+    concentrations_uM,
+    traceConcentration_uM,
   };
 }

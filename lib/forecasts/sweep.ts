@@ -9,11 +9,11 @@ const SAME = 1e-6;
  * and the strongest used IC50, so that rheobase and rate can be drawn against concentration. At most
  * 40 points (the forecast accepts 50). The 1–3 spacing is common practice for dilution series, no source.
  */
-export function sweepConcentrations(exposuresUm: readonly number[], ic50sUm: readonly number[]): number[] {
-  const exposures = exposuresUm.filter((c) => c > 0 && Number.isFinite(c));
+export function sweepConcentrations(exposures_uM: readonly number[], ic50s_uM: readonly number[]): number[] {
+  const exposures = exposures_uM.filter((c) => c > 0 && Number.isFinite(c));
   if (exposures.length === 0) return [];
   const lowest = Math.min(...exposures);
-  const top = Math.max(...exposures, ...ic50sUm.filter((c) => c > 0 && Number.isFinite(c)));
+  const top = Math.max(...exposures, ...ic50s_uM.filter((c) => c > 0 && Number.isFinite(c)));
   const fromDecade = Math.floor(Math.log10(lowest) + SAME);
   const toDecade = Math.min(fromDecade + 12, Math.ceil(Math.log10(top) - SAME) + 1);
   const sweep: number[] = [];
@@ -28,6 +28,6 @@ export function sweepConcentrations(exposuresUm: readonly number[], ic50sUm: rea
 }
 
 /** Whether a concentration is one of the exposures (same tolerance as the sweep). */
-export function isExposure(concentrationUm: number, exposuresUm: readonly number[]): boolean {
-  return exposuresUm.some((e) => Math.abs(concentrationUm / e - 1) <= SAME);
+export function isExposure(concentration_uM: number, exposures_uM: readonly number[]): boolean {
+  return exposures_uM.some((e) => Math.abs(concentration_uM / e - 1) <= SAME);
 }

@@ -4,12 +4,12 @@ import type { ConditionView, ForecastView } from '@/lib/validation/forecasts';
 import { isExposure } from './sweep';
 import type { StoredForecast } from './store';
 
-function conditionView(c: ConditionForecast, exposuresUm: number[]): ConditionView {
-  const concentrationUm = c.concentration ?? 0;
+function conditionView(c: ConditionForecast, exposures_uM: number[]): ConditionView {
+  const concentration_uM = c.concentration ?? 0;
   const { rest_mV, rheobase_uA_cm2, threshold_mV, referenceRate_Hz, fI, flags } = c.measures;
   return {
-    concentrationUm,
-    exposure: concentrationUm > 0 && isExposure(concentrationUm, exposuresUm),
+    concentration_uM,
+    exposure: concentration_uM > 0 && isExposure(concentration_uM, exposures_uM),
     block: c.block,
     measures: { rest_mV, rheobase_uA_cm2, threshold_mV, referenceRate_Hz, fI, flags },
     shifts: c.shifts,
@@ -17,7 +17,7 @@ function conditionView(c: ConditionForecast, exposuresUm: number[]): ConditionVi
 }
 
 /** What a page shows of a stored forecast: measures, shifts, f–I curves and traces (the detail stays stored). */
-export function forecastView(stored: StoredForecast, exposuresUm: number[]): ForecastView {
+export function forecastView(stored: StoredForecast, exposures_uM: number[]): ForecastView {
   const r = stored.result;
   const traceIndex = r.traces?.conditionIndex ?? null;
   return {
@@ -30,12 +30,12 @@ export function forecastView(stored: StoredForecast, exposuresUm: number[]): For
       thresholdSlope_mV_ms: r.protocol.thresholdSlope_mV_ms, referenceDriveFactor: r.protocol.referenceDriveFactor,
     },
     referenceDrive_uA_cm2: r.referenceDrive_uA_cm2,
-    control: conditionView(r.control, exposuresUm),
-    conditions: r.conditions.map((c) => conditionView(c, exposuresUm)),
+    control: conditionView(r.control, exposures_uM),
+    conditions: r.conditions.map((c) => conditionView(c, exposures_uM)),
     traces: r.traces
       ? {
           drive_uA_cm2: r.traces.drive_uA_cm2,
-          concentrationUm: traceIndex === null ? null : (r.conditions[traceIndex]?.concentration ?? null),
+          concentration_uM: traceIndex === null ? null : (r.conditions[traceIndex]?.concentration ?? null),
           control: r.traces.control,
           condition: r.traces.condition,
         }

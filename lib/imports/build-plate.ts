@@ -1,13 +1,13 @@
 import 'server-only';
-import type { WellRole } from './import-fields';
-import { PLATE_FORMATS, type PlateFormat } from './plate-format';
+import type { WellRole } from '@/lib/domain/well-roles';
+import { PLATE_FORMAT_SIZE, type PlateFormat } from '@/lib/domain/plate-formats';
 import type { PreviewRow } from './read-row';
 
 /** The currents of one target in one well, pA (sign as recorded: inward currents are negative). */
 export interface ParsedReadout {
   target: string;
-  controlCurrentPa: number | null;
-  compoundCurrentPa: number | null;
+  controlCurrent_pA: number | null;
+  compoundCurrent_pA: number | null;
   /** The spreadsheet row it came from. */
   row: number;
 }
@@ -19,10 +19,10 @@ export interface ParsedWell {
   columnIndex: number;
   role: WellRole;
   compound: string | null;
-  concentrationUm: number | null;
-  sealResistanceGohm: number | null;
-  seriesResistanceMohm: number | null;
-  capacitancePf: number | null;
+  concentration_uM: number | null;
+  sealResistance_GOhm: number | null;
+  seriesResistance_MOhm: number | null;
+  capacitance_pF: number | null;
   readouts: ParsedReadout[];
 }
 
@@ -51,20 +51,20 @@ export function buildPlate(rows: readonly PreviewRow[], format: PlateFormat, for
         columnIndex: values.columnIndex,
         role: values.role,
         compound: values.compound,
-        concentrationUm: values.concentrationUm,
-        sealResistanceGohm: null,
-        seriesResistanceMohm: null,
-        capacitancePf: null,
+        concentration_uM: values.concentration_uM,
+        sealResistance_GOhm: null,
+        seriesResistance_MOhm: null,
+        capacitance_pF: null,
         readouts: [],
       };
       wells.set(values.well, well);
     }
-    well.sealResistanceGohm ??= values.sealResistanceGohm;
-    well.seriesResistanceMohm ??= values.seriesResistanceMohm;
-    well.capacitancePf ??= values.capacitancePf;
-    well.readouts.push({ target: values.target, controlCurrentPa: values.controlCurrentPa, compoundCurrentPa: values.compoundCurrentPa, row });
+    well.sealResistance_GOhm ??= values.sealResistance_GOhm;
+    well.seriesResistance_MOhm ??= values.seriesResistance_MOhm;
+    well.capacitance_pF ??= values.capacitance_pF;
+    well.readouts.push({ target: values.target, controlCurrent_pA: values.controlCurrent_pA, compoundCurrent_pA: values.compoundCurrent_pA, row });
     if (!targets.includes(values.target)) targets.push(values.target);
   }
   const sorted = [...wells.values()].sort((a, b) => a.rowIndex - b.rowIndex || a.columnIndex - b.columnIndex);
-  return { format, formatSource, ...PLATE_FORMATS[format], targets, wells: sorted };
+  return { format, formatSource, ...PLATE_FORMAT_SIZE[format], targets, wells: sorted };
 }

@@ -1,8 +1,10 @@
 import 'server-only';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
+import { READOUT_LABEL } from '@/lib/domain/readouts';
 import type { ImportField } from './import-fields';
 import { makeIssue, type ImportIssueCode } from './import-issue';
 import { normaliseLabel } from './normalise-text';
-import { describeFormat, fitsFormat, inferPlateFormat, type PlateFormat } from './plate-format';
+import { describeFormat, fitsFormat, inferPlateFormat } from './plate-format';
 import type { PreviewRow, RowValues } from './read-row';
 import type { ResolvedColumns } from './resolve-columns';
 
@@ -61,16 +63,17 @@ function compareWellRows(first: PreviewRow, row: PreviewRow, add: Add): void {
   const a = first.values;
   const b = row.values;
   const well = b.well;
-  if (a.role !== b.role || a.compound !== b.compound || !sameNumber(a.concentrationUm, b.concentrationUm)) {
-    const holds = (v: RowValues) => `${v.role} ${v.compound ?? '(no compound)'} at ${v.concentrationUm ?? '(no concentration)'} µM`;
+  if (a.role !== b.role || a.compound !== b.compound || !sameNumber(a.concentration_uM, b.concentration_uM)) {
+    const holds = (v: RowValues) => `${v.role} ${v.compound ?? '(no compound)'} at ${v.concentration_uM ?? '(no concentration)'} µM`;
     add(row, 'compound', 'inconsistent_well', `well ${well} holds ${holds(b)} here but ${holds(a)} in row ${first.row}; a well holds one compound at one concentration.`);
   }
   const properties = [
-    ['sealResistance', 'sealResistanceGohm', 'GΩ'],
-    ['seriesResistance', 'seriesResistanceMohm', 'MΩ'],
-    ['capacitance', 'capacitancePf', 'pF'],
+    ['sealResistance', 'sealResistance_GOhm'],
+    ['seriesResistance', 'seriesResistance_MOhm'],
+    ['capacitance', 'capacitance_pF'],
   ] as const;
-  for (const [field, key, unit] of properties) {
+  for (const [field, key] of properties) {
+    const { unit } = READOUT_LABEL[key];
     const x = a[key];
     const y = b[key];
     if (x !== null && y !== null && !sameNumber(x, y)) {

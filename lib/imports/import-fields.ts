@@ -1,4 +1,5 @@
 // The fields a plate export's columns can be mapped to.
+import type { WellRole } from '@/lib/domain/well-roles';
 
 /** Every field a column may be mapped to, in the order the mapping form shows them. */
 export const IMPORT_FIELDS = [
@@ -42,10 +43,7 @@ export const FIELD_LABEL: Record<ImportField, string> = {
   role: 'well role',
 };
 
-/** The role of a well: test compound, vehicle only (0 % block) or reference blocker (full block). */
-export type WellRole = 'vehicle' | 'reference' | 'test';
-
-/** Default words that mark vehicle and reference wells, in a role column or as the compound identifier. */
+/** Default words that mark each well role (lib/domain/well-roles.ts), in a role column or as the compound identifier. */
 export const DEFAULT_MARKERS: Record<WellRole, string[]> = {
   vehicle: ['VEH', 'VEHICLE', 'DMSO', 'NEG', 'NEGATIVE'],
   reference: ['REF', 'REFERENCE', 'POS', 'POSITIVE'],

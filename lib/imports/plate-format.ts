@@ -1,16 +1,5 @@
 // Plate formats and well positions: A1, A01 and a01 name the same well; rows run A–Z then AA–AF.
-
-/** Wells per plate. */
-export type PlateFormat = 96 | 384 | 1536;
-
-/** Rows and columns of each format: 96 = 8 × 12, 384 = 16 × 24, 1536 = 32 × 48. */
-export const PLATE_FORMATS: Record<PlateFormat, { rows: number; columns: number }> = {
-  96: { rows: 8, columns: 12 },
-  384: { rows: 16, columns: 24 },
-  1536: { rows: 32, columns: 48 },
-};
-
-const FORMATS_SMALL_FIRST: PlateFormat[] = [96, 384, 1536];
+import { PLATE_FORMAT_SIZE, PLATE_FORMATS, type PlateFormat } from '@/lib/domain/plate-formats';
 
 /** A well on a plate: 0-based row and column indices and the canonical label ("B07"). */
 export interface WellPosition {
@@ -42,7 +31,7 @@ export function rowLetters(rowIndex: number): string {
 
 /** Whether a well lies on a plate of the given format. */
 export function fitsFormat(position: WellPosition, format: PlateFormat): boolean {
-  const size = PLATE_FORMATS[format];
+  const size = PLATE_FORMAT_SIZE[format];
   return position.rowIndex < size.rows && position.columnIndex < size.columns;
 }
 
@@ -54,11 +43,11 @@ export function inferPlateFormat(positions: Iterable<WellPosition>): PlateFormat
     rows = Math.max(rows, position.rowIndex + 1);
     columns = Math.max(columns, position.columnIndex + 1);
   }
-  return FORMATS_SMALL_FIRST.find((format) => PLATE_FORMATS[format].rows >= rows && PLATE_FORMATS[format].columns >= columns) ?? null;
+  return PLATE_FORMATS.find((format) => PLATE_FORMAT_SIZE[format].rows >= rows && PLATE_FORMAT_SIZE[format].columns >= columns) ?? null;
 }
 
 /** "a 384-well plate (rows A–P, columns 1–24)". */
 export function describeFormat(format: PlateFormat): string {
-  const size = PLATE_FORMATS[format];
+  const size = PLATE_FORMAT_SIZE[format];
   return `a ${format}-well plate (rows A–${rowLetters(size.rows - 1)}, columns 1–${size.columns})`;
 }

@@ -1,5 +1,6 @@
 import 'server-only';
-import { FIELD_LABEL, type ImportField, type UnitField, type WellRole } from './import-fields';
+import type { WellRole } from '@/lib/domain/well-roles';
+import { FIELD_LABEL, type ImportField, type UnitField } from './import-fields';
 import { makeIssue, type ImportIssue, type ImportIssueCode } from './import-issue';
 import { UNIT_KIND } from './guess-mapping';
 import { normaliseIdentifier, normaliseLabel } from './normalise-text';
@@ -16,13 +17,13 @@ export interface RowValues {
   columnIndex: number | null;
   role: WellRole | null;
   compound: string | null;
-  concentrationUm: number | null;
+  concentration_uM: number | null;
   target: string | null;
-  controlCurrentPa: number | null;
-  compoundCurrentPa: number | null;
-  sealResistanceGohm: number | null;
-  seriesResistanceMohm: number | null;
-  capacitancePf: number | null;
+  controlCurrent_pA: number | null;
+  compoundCurrent_pA: number | null;
+  sealResistance_GOhm: number | null;
+  seriesResistance_MOhm: number | null;
+  capacitance_pF: number | null;
 }
 
 /** A data row of the preview: its spreadsheet row number, values and findings. */
@@ -70,28 +71,28 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
   const compoundText = readText(cell('compound'));
   const role = readRole(readText(cell('role')), compoundText, ctx, (detail) => report('role', 'unknown_role', detail));
   const compound = role === 'test' ? checkCompound(compoundText, ctx, (code, detail) => report('compound', code, detail)) : compoundText;
-  const concentrationUm = quantity('concentration', rowUnit('concentrationUnit', 'concentration', units.concentration));
-  if (role === 'test' && concentrationUm === null && !issues.some((issue) => issue.field === 'concentration')) {
+  const concentration_uM = quantity('concentration', rowUnit('concentrationUnit', 'concentration', units.concentration));
+  if (role === 'test' && concentration_uM === null && !issues.some((issue) => issue.field === 'concentration')) {
     report('concentration', 'missing_concentration', 'a test well needs a concentration; the cell is empty.');
-  } else if (role === 'test' && concentrationUm === 0) {
+  } else if (role === 'test' && concentration_uM === 0) {
     report('concentration', 'missing_concentration', 'a test well needs a concentration above 0.');
   }
   const currentUnit = (fallback: Unit) => (ctx.columns.currentUnit ? rowUnit('currentUnit', 'current', fallback) : fallback);
-  const controlCurrentPa = quantity('controlCurrent', currentUnit(units.controlCurrent));
-  if (controlCurrentPa === 0) report('controlCurrent', 'zero_control_current', 'control current is 0; block cannot be computed without a control current.');
+  const controlCurrent_pA = quantity('controlCurrent', currentUnit(units.controlCurrent));
+  if (controlCurrent_pA === 0) report('controlCurrent', 'zero_control_current', 'control current is 0; block cannot be computed without a control current.');
   const values: RowValues = {
     well: position?.label ?? null,
     rowIndex: position?.rowIndex ?? null,
     columnIndex: position?.columnIndex ?? null,
     role,
     compound,
-    concentrationUm,
+    concentration_uM,
     target,
-    controlCurrentPa,
-    compoundCurrentPa: quantity('compoundCurrent', currentUnit(units.compoundCurrent)),
-    sealResistanceGohm: quantity('sealResistance', units.sealResistance),
-    seriesResistanceMohm: quantity('seriesResistance', units.seriesResistance),
-    capacitancePf: quantity('capacitance', units.capacitance),
+    controlCurrent_pA,
+    compoundCurrent_pA: quantity('compoundCurrent', currentUnit(units.compoundCurrent)),
+    sealResistance_GOhm: quantity('sealResistance', units.sealResistance),
+    seriesResistance_MOhm: quantity('seriesResistance', units.seriesResistance),
+    capacitance_pF: quantity('capacitance', units.capacitance),
   };
   return { row, status: issues.some((issue) => issue.severity === 'error') ? 'error' : 'ok', values, issues };
 }

@@ -1,5 +1,5 @@
 import 'server-only';
-import type { WellRole } from './import-fields';
+import type { WellRole } from '@/lib/domain/well-roles';
 import type { ColumnMapping } from './mapping-schema';
 import { normaliseIdentifier, normaliseLabel } from './normalise-text';
 import type { ResolvedColumns } from './resolve-columns';

@@ -4,7 +4,7 @@ import { checkPlateRows } from './check-plate-rows';
 import type { ImportField } from './import-fields';
 import { makeIssue, type ImportIssue } from './import-issue';
 import { columnMappingDraftSchema, type ColumnMappingInput } from './mapping-schema';
-import type { PlateFormat } from './plate-format';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
 import { readRow, type PreviewRow } from './read-row';
 import { resolveColumns, type ResolvedColumn } from './resolve-columns';
 import { makeRowContext } from './row-context';

@@ -1,6 +1,6 @@
 import 'server-only';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { LINK_MAIL_KINDS, MailMessage, type MailState } from '@/models/mail-message';
@@ -11,13 +11,13 @@ export type { OutboxRow } from './queries';
 
 /** The newest messages of the outbox with their delivery state, optionally of one state. Admins only. */
 export async function listOutbox(actor: Actor, filter: { state?: MailState } = {}): Promise<OutboxRow[]> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   return selectOutbox(filter.state);
 }
 
 /** Counts by delivery state, for the page's summary line. Admins only. */
 export async function outboxCounts(actor: Actor): Promise<Record<MailState, number>> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   const rows = await countOutboxByState();
   return { queued: 0, sent: 0, failed: 0, ...Object.fromEntries(rows.map((r) => [r.state, r.n])) };
 }
@@ -28,7 +28,7 @@ export async function outboxCounts(actor: Actor): Promise<Record<MailState, numb
  * ids. Admins only. Returns how many were brought forward.
  */
 export async function hurryWaitingMail(actor: Actor): Promise<number> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   return db().transaction(async (transaction) => {
     const rows = await bringWaitingMailForward(transaction);
     if (rows.length) {
@@ -40,7 +40,7 @@ export async function hurryWaitingMail(actor: Actor): Promise<number> {
 
 /** Puts a message that gave up back in the queue for a fresh round of attempts; audited. Admins only. */
 export async function requeueMail(actor: Actor, messageId: string): Promise<void> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageMail');
   await db().transaction(async (transaction) => {
     const message = await MailMessage.findByPk(messageId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!message) throw new AppError('not_found', 'No such message in the outbox.');

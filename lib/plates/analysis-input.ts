@@ -7,10 +7,10 @@ export interface WellData {
   id: string;
   role: AnalysisWell['role'];
   compoundId: string | null;
-  concentrationUm: number | null;
-  sealResistanceGohm: number | null;
-  seriesResistanceMohm: number | null;
-  capacitancePf: number | null;
+  concentration_uM: number | null;
+  sealResistance_GOhm: number | null;
+  seriesResistance_MOhm: number | null;
+  capacitance_pF: number | null;
   /** @default false (a well not stored yet has not been excluded by anyone) */
   excluded?: boolean;
 }
@@ -20,8 +20,8 @@ export interface ReadoutData {
   id: string;
   wellId: string;
   targetId: string;
-  controlCurrentPa: number | null;
-  compoundCurrentPa: number | null;
+  controlCurrent_pA: number | null;
+  compoundCurrent_pA: number | null;
 }
 
 /** The wells and readouts `analysePlate` takes (lib/science/plate-analysis.ts). */
@@ -37,10 +37,10 @@ export interface AnalysisInput {
 export function analysisInput(wells: readonly WellData[], readouts: readonly ReadoutData[]): AnalysisInput {
   return {
     wells: wells.map((w) => ({
-      id: w.id, role: w.role, compoundId: w.compoundId, concentration_uM: w.concentrationUm, sealResistance_GOhm: w.sealResistanceGohm,
-      seriesResistance_MOhm: w.seriesResistanceMohm, capacitance_pF: w.capacitancePf, excluded: w.excluded ?? false,
+      id: w.id, role: w.role, compoundId: w.compoundId, concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm,
+      seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF, excluded: w.excluded ?? false,
     })),
-    readouts: readouts.map((r) => ({ id: r.id, wellId: r.wellId, target: r.targetId, controlCurrent_pA: r.controlCurrentPa, compoundCurrent_pA: r.compoundCurrentPa })),
+    readouts: readouts.map((r) => ({ id: r.id, wellId: r.wellId, target: r.targetId, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA })),
   };
 }
 
@@ -51,9 +51,9 @@ export function analysisInput(wells: readonly WellData[], readouts: readonly Rea
 export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
   return analysisInput(
     plate.wells.map((w, i) => ({
-      id: String(i), role: w.role, compoundId: w.compound, concentrationUm: w.concentrationUm,
-      sealResistanceGohm: w.sealResistanceGohm, seriesResistanceMohm: w.seriesResistanceMohm, capacitancePf: w.capacitancePf,
+      id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentration_uM,
+      sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
     })),
-    plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), targetId: r.target, controlCurrentPa: r.controlCurrentPa, compoundCurrentPa: r.compoundCurrentPa }))),
+    plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), targetId: r.target, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA }))),
   );
 }

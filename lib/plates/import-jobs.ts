@@ -3,7 +3,7 @@ import { setTimeout as sleep } from 'node:timers/promises';
 import type { Transaction } from 'sequelize';
 import type { z } from 'zod';
 import { loadActor } from '@/lib/auth/load-actor';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { isDatabaseUnavailable } from '@/lib/database-unavailable';
 import { db } from '@/lib/db';
 import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
@@ -30,7 +30,7 @@ export const IMPORT_RUN_WAIT_MS = 60_000;
 
 /** Keeps the upload and queues its job, in one transaction; returns the job's id. */
 export async function queueImport(actor: Actor, request: CommitRequest): Promise<string> {
-  requireRole(actor, 'biologist');
+  requireCapability(actor, 'importPlates');
   const { bytes, parsed: _parsed, ...fields } = request;
   const stored: StoredImportRequest = fields;
   return db().transaction(async (transaction) => {

@@ -1,13 +1,13 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
 import { columnMappingSchema, type ColumnMappingInput } from '@/lib/imports/mapping-schema';
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
-import type { PlateFormat } from '@/lib/imports/plate-format';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import { analysePlate } from '@/lib/science/plate-analysis';
@@ -68,7 +68,7 @@ async function loadScreen(screenId: string) {
 
 /** Step 1: reads the file, refuses a duplicate, and proposes a mapping for every sheet. Nothing is written. */
 export async function inspectUpload(actor: Actor, upload: Upload) {
-  requireRole(actor, 'biologist');
+  requireCapability(actor, 'importPlates');
   await loadScreen(upload.screenId);
   const { parsed } = await readOnce(upload);
   const duplicateOf = await findDuplicateUpload(upload.screenId, parsed.sha256);
@@ -95,7 +95,7 @@ export interface PreviewRequest extends Upload {
 
 /** Step 2: every row with its parse result and QC flags, the plate built from good rows. Nothing is written. */
 export async function previewImport(actor: Actor, request: PreviewRequest, options: { qc?: boolean } = {}): Promise<PlatePreview & { qc: Record<number, string[]> }> {
-  requireRole(actor, 'biologist');
+  requireCapability(actor, 'importPlates');
   const { screen, targets } = await loadScreen(request.screenId);
   const { parsed } = await readOnce(request);
   const sheet = parsed.sheets.find((s) => s.name === request.sheet);

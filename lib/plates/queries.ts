@@ -3,7 +3,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { awaitingCondition } from '@/lib/signoff/awaiting';
-import type { PlateState } from '@/models/plate';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 export interface PlateHeader {
   id: string;
@@ -16,8 +16,8 @@ export interface PlateHeader {
   screenId: string;
   screenName: string;
   neuronPreset: string;
-  zprimeMin: number;
-  exposuresUm: number[];
+  zPrimeMin: number;
+  exposures_uM: number[];
   importedBy: string;
   importedByName: string;
   importedAt: string;
@@ -36,16 +36,16 @@ export interface WellRow {
   role: 'vehicle' | 'reference' | 'test';
   compoundId: string | null;
   compound: string | null;
-  concentrationUm: number | null;
-  sealResistanceGohm: number | null;
-  seriesResistanceMohm: number | null;
-  capacitancePf: number | null;
+  concentration_uM: number | null;
+  sealResistance_GOhm: number | null;
+  seriesResistance_MOhm: number | null;
+  capacitance_pF: number | null;
   excluded: boolean;
   exclusionReason: string | null;
   targetId: string;
   target: string;
-  controlCurrentPa: number | null;
-  compoundCurrentPa: number | null;
+  controlCurrent_pA: number | null;
+  compoundCurrent_pA: number | null;
   fractionalBlock: number | null;
   qcReasons: { code: string; message: string }[];
 }
@@ -60,10 +60,10 @@ export interface FitRow {
   model: 'hill2' | 'hill4';
   status: string;
   message: string;
-  ic50Um: number | null;
-  ic50CiLowUm: number | null;
-  ic50CiHighUm: number | null;
-  ic50LowerBoundUm: number | null;
+  ic50_uM: number | null;
+  ic50CiLow_uM: number | null;
+  ic50CiHigh_uM: number | null;
+  ic50LowerBound_uM: number | null;
   log10Ic50Se: number | null;
   hill: number | null;
   top: number | null;
@@ -78,7 +78,7 @@ export interface FitRow {
 export async function selectPlateHeader(plateId: string): Promise<Omit<PlateHeader, 'targets'> | undefined> {
   const [plate] = await db().query<Omit<PlateHeader, 'targets'>>(
     `select p.id, p.label, p.format, p.state, p.version, p.fits_pending as "fitsPending", p.screen_id as "screenId", s.name as "screenName", s.neuron_preset as "neuronPreset",
-            s.zprime_min as "zprimeMin", s.exposures_um as "exposuresUm", p.imported_by as "importedBy", u.name as "importedByName",
+            s.z_prime_min as "zPrimeMin", s.exposures_um as "exposures_uM", p.imported_by as "importedBy", u.name as "importedByName",
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt", f.filename, f.sha256, p.qc_summary as "qcSummary"
        from plates p join screens s on s.id = p.screen_id join users u on u.id = p.imported_by join uploaded_files f on f.id = p.uploaded_file_id
       where p.id = :plateId`,
@@ -91,9 +91,9 @@ export async function selectPlateHeader(plateId: string): Promise<Omit<PlateHead
 export async function selectPlateWells(plateId: string): Promise<WellRow[]> {
   return db().query<WellRow>(
     `select w.id, r.id as "readoutId", w.position, w.row_index as "rowIndex", w.column_index as "columnIndex", w.role, w.compound_id as "compoundId",
-            c.identifier as compound, w.concentration_um as "concentrationUm", w.seal_resistance_gohm as "sealResistanceGohm",
-            w.series_resistance_mohm as "seriesResistanceMohm", w.capacitance_pf as "capacitancePf", w.excluded, w.exclusion_reason as "exclusionReason",
-            r.target_id as "targetId", t.name as target, r.control_current_pa as "controlCurrentPa", r.compound_current_pa as "compoundCurrentPa",
+            c.identifier as compound, w.concentration_um as "concentration_uM", w.seal_resistance_gohm as "sealResistance_GOhm",
+            w.series_resistance_mohm as "seriesResistance_MOhm", w.capacitance_pf as "capacitance_pF", w.excluded, w.exclusion_reason as "exclusionReason",
+            r.target_id as "targetId", t.name as target, r.control_current_pa as "controlCurrent_pA", r.compound_current_pa as "compoundCurrent_pA",
             r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons"
        from wells w join readouts r on r.well_id = w.id join targets t on t.id = r.target_id left join compounds c on c.id = w.compound_id
       where w.plate_id = :plateId
@@ -106,7 +106,7 @@ export async function selectPlateWells(plateId: string): Promise<WellRow[]> {
 export async function selectPlateFits(plateId: string): Promise<FitRow[]> {
   return db().query<FitRow>(
     `select f.id, f.compound_id as "compoundId", c.identifier as compound, f.target_id as "targetId", t.name as target, t.conductance, f.model, f.status, f.message,
-            f.ic50_um as "ic50Um", f.ic50_ci_low_um as "ic50CiLowUm", f.ic50_ci_high_um as "ic50CiHighUm", f.ic50_lower_bound_um as "ic50LowerBoundUm",
+            f.ic50_um as "ic50_uM", f.ic50_ci_low_um as "ic50CiLow_uM", f.ic50_ci_high_um as "ic50CiHigh_uM", f.ic50_lower_bound_um as "ic50LowerBound_uM",
             f.log10_ic50_se as "log10Ic50Se", f.hill, f.top, f.bottom, f.r2, f.residual_sd as "residualSd", f.n, f.flags
        from fits f join compounds c on c.id = f.compound_id join targets t on t.id = f.target_id
       where f.plate_id = :plateId

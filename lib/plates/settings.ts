@@ -1,30 +1,20 @@
+import type { ScreenQcLimits } from '@/lib/domain/readouts';
 import type { AnalysisSettings } from '@/lib/science/plate-analysis';
 import type { HillModelName } from '@/lib/science/fit/hill-model';
 
-export interface ScreenLimits {
-  sealMinGohm: number;
-  controlCurrentMinPa: number;
-  seriesMaxMohm: number;
-  capacitanceMinPf: number;
-  capacitanceMaxPf: number;
-  rundownMaxFraction: number;
-  normaliseToReference: boolean;
-  zprimeMin: number;
-}
-
 /** The analysis settings of a plate: its screen's QC limits and Z′ limit, and the model chosen per fit. */
-export function analysisSettings(screen: ScreenLimits, models: Record<string, HillModelName> = {}): AnalysisSettings {
+export function analysisSettings(screen: ScreenQcLimits, models: Record<string, HillModelName> = {}): AnalysisSettings {
   return {
     thresholds: {
-      sealResistanceMin_GOhm: screen.sealMinGohm,
-      controlCurrentMin_pA: screen.controlCurrentMinPa,
-      seriesResistanceMax_MOhm: screen.seriesMaxMohm,
-      capacitanceMin_pF: screen.capacitanceMinPf,
-      capacitanceMax_pF: screen.capacitanceMaxPf,
-      vehicleRundownMax: screen.rundownMaxFraction,
+      sealResistanceMin_GOhm: screen.sealResistanceMin_GOhm,
+      controlCurrentMin_pA: screen.controlCurrentMin_pA,
+      seriesResistanceMax_MOhm: screen.seriesResistanceMax_MOhm,
+      capacitanceMin_pF: screen.capacitanceMin_pF,
+      capacitanceMax_pF: screen.capacitanceMax_pF,
+      vehicleRundownMax_fraction: screen.vehicleRundownMax_fraction,
     },
     normalise: screen.normaliseToReference,
-    zPrimeLimit: screen.zprimeMin,
+    zPrimeMin: screen.zPrimeMin,
     models,
   };
 }

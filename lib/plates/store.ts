@@ -68,11 +68,11 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
     const id = randomUUID();
     const compoundId = w.role === 'test' ? ids.compound(w.compound) : null;
     for (const r of w.readouts) {
-      readouts.push({ id: randomUUID(), wellId: id, targetId: ids.target(r.target), controlCurrentPa: r.controlCurrentPa, compoundCurrentPa: r.compoundCurrentPa });
+      readouts.push({ id: randomUUID(), wellId: id, targetId: ids.target(r.target), controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA });
     }
     return {
       id, plateId, position: w.position, rowIndex: w.rowIndex, columnIndex: w.columnIndex, role: w.role, compoundId, batchId: null,
-      concentrationUm: w.concentrationUm, sealResistanceGohm: w.sealResistanceGohm, seriesResistanceMohm: w.seriesResistanceMohm, capacitancePf: w.capacitancePf,
+      concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
       exclusionReason: null, excludedBy: null, excludedAt: null,
     };
   });
@@ -88,10 +88,10 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
   // building model instances and escaped SQL for each took most of an import's time on the server.
   await insertWells(wellRows.map((w) => ({
     id: w.id, plate_id: plateId, position: w.position, row_index: w.rowIndex, column_index: w.columnIndex, role: w.role, compound_id: w.compoundId,
-    concentration_um: w.concentrationUm, seal_resistance_gohm: w.sealResistanceGohm, series_resistance_mohm: w.seriesResistanceMohm, capacitance_pf: w.capacitancePf,
+    concentration_um: w.concentration_uM, seal_resistance_gohm: w.sealResistance_GOhm, series_resistance_mohm: w.seriesResistance_MOhm, capacitance_pf: w.capacitance_pF,
   })), transaction);
   await insertReadouts(readouts.map((r, i) => ({
-    id: r.id, well_id: r.wellId, target_id: r.targetId, control_current_pa: r.controlCurrentPa, compound_current_pa: r.compoundCurrentPa,
+    id: r.id, well_id: r.wellId, target_id: r.targetId, control_current_pa: r.controlCurrent_pA, compound_current_pa: r.compoundCurrent_pA,
     fractional_block: analysis.readouts[i]!.block, qc_reasons: analysis.readouts[i]!.qcReasons,
   })), transaction);
   const fitJob = await queueRefit(plateId, actor.id, transaction);

@@ -1,5 +1,6 @@
 // A whole plate through the science: well QC per readout, fractional block and Z′ per target, Hill fits
 // per compound × target. Pure and deterministic; the import and every exclusion change call it.
+import type { CurrentReadouts, WellQuantities } from './qc/quantities';
 import { computeFractionalBlock, type BlockNoteCode } from './fit/block';
 import { fitHill, type HillFitResult } from './fit/hill-fit';
 import type { HillModelName } from './fit/hill-model';
@@ -8,32 +9,26 @@ import type { QcThresholds } from './qc/qc-thresholds';
 import type { WellRole } from './qc/well';
 import type { ZPrimeResult } from './qc/zprime';
 
-export interface AnalysisWell {
+export interface AnalysisWell extends WellQuantities {
   id: string;
-  role: 'vehicle' | 'reference' | 'test';
+  role: WellRole;
   compoundId: string | null;
-  concentration_uM: number | null;
-  sealResistance_GOhm: number | null;
-  seriesResistance_MOhm: number | null;
-  capacitance_pF: number | null;
   /** Excluded by a person (with a reason); never deleted. */
   excluded: boolean;
 }
 
-export interface AnalysisReadout {
+export interface AnalysisReadout extends CurrentReadouts {
   id: string;
   wellId: string;
   /** Target identity (id or name), the same for every readout of one target. */
   target: string;
-  controlCurrent_pA: number | null;
-  compoundCurrent_pA: number | null;
 }
 
 export interface AnalysisSettings {
   thresholds?: Partial<QcThresholds>;
   normalise?: boolean;
   /** @default 0.5 (Zhang, Chung & Oldenburg 1999: Z′ ≥ 0.5 excellent) */
-  zPrimeLimit?: number;
+  zPrimeMin?: number;
   /** Model per `compoundId|target`; others use hill2. */
   models?: Record<string, HillModelName>;
 }
@@ -68,8 +63,6 @@ export interface PlateAnalysis {
   fits: FitAnalysis[];
 }
 
-const SCIENCE_ROLE: Record<AnalysisWell['role'], WellRole> = { vehicle: 'vehicle', reference: 'reference', test: 'compound' };
-
 export const fitKey = (compoundId: string, target: string): string => `${compoundId}|${target}`;
 
 /**
@@ -88,7 +81,7 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
     readouts.map((r) => {
       const w = wellOf(r);
       return {
-        wellId: r.id, role: SCIENCE_ROLE[w.role], controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA,
+        wellId: r.id, role: w.role, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA,
         sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
       };
     }),
@@ -98,10 +91,10 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
 
   const blocks = computeFractionalBlock(
     readouts.map((r, i) => ({
-      wellId: r.id, target: r.target, role: SCIENCE_ROLE[wellOf(r).role],
+      wellId: r.id, target: r.target, role: wellOf(r).role,
       controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA, excluded: !used[i],
     })),
-    { normalise: settings.normalise ?? false, zPrimeLimit: settings.zPrimeLimit ?? 0.5 },
+    { normalise: settings.normalise ?? false, zPrimeMin: settings.zPrimeMin ?? 0.5 },
   );
   const blockById = new Map(blocks.flatMap((t) => t.wells.map((w) => [w.wellId, w.block] as const)));
 

@@ -1,22 +1,16 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
+import type { ScreenQcLimits } from '@/lib/domain/readouts';
 import { AppError } from '@/lib/errors';
 import { Screen, Target } from '@/models';
 
-export interface ScreenDetail {
+export interface ScreenDetail extends Omit<ScreenQcLimits, 'normaliseToReference'> {
   id: string;
   name: string;
   description: string;
   neuronPreset: string;
-  zprimeMin: number;
-  sealMinGohm: number;
-  controlCurrentMinPa: number;
-  seriesMaxMohm: number;
-  capacitanceMinPf: number;
-  capacitanceMaxPf: number;
-  rundownMaxFraction: number;
-  exposuresUm: number[];
+  exposures_uM: number[];
   targets: { id: string; name: string; conductance: string }[];
 }
 
@@ -50,14 +44,14 @@ function toDetail(screen: Screen): ScreenDetail {
       name: plain.name,
       description: plain.description,
       neuronPreset: plain.neuronPreset,
-      zprimeMin: plain.zprimeMin,
-      sealMinGohm: plain.sealMinGohm,
-      controlCurrentMinPa: plain.controlCurrentMinPa,
-      seriesMaxMohm: plain.seriesMaxMohm,
-      capacitanceMinPf: plain.capacitanceMinPf,
-      capacitanceMaxPf: plain.capacitanceMaxPf,
-      rundownMaxFraction: plain.rundownMaxFraction,
-      exposuresUm: plain.exposuresUm,
+      zPrimeMin: plain.zPrimeMin,
+      sealResistanceMin_GOhm: plain.sealResistanceMin_GOhm,
+      controlCurrentMin_pA: plain.controlCurrentMin_pA,
+      seriesResistanceMax_MOhm: plain.seriesResistanceMax_MOhm,
+      capacitanceMin_pF: plain.capacitanceMin_pF,
+      capacitanceMax_pF: plain.capacitanceMax_pF,
+      vehicleRundownMax_fraction: plain.vehicleRundownMax_fraction,
+      exposures_uM: plain.exposures_uM,
       targets: plain.targets.map((t) => ({ id: t.id, name: t.name, conductance: t.conductance })),
     };
 }

@@ -1,15 +1,15 @@
 import 'server-only';
 import { UniqueConstraintError } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { blockableConductances, type ScreenInput, type TargetInput } from '@/lib/validation/screens';
 import { Screen, Target } from '@/models';
 
 function columns(input: ScreenInput) {
-  const { rundownMaxPercent, ...rest } = input;
-  return { ...rest, rundownMaxFraction: rundownMaxPercent / 100 };
+  const { vehicleRundownMax_percent, ...rest } = input;
+  return { ...rest, vehicleRundownMax_fraction: vehicleRundownMax_percent / 100 };
 }
 
 function plainScreen(screen: Screen) {
@@ -24,7 +24,7 @@ function conflict(error: unknown, message: string, field: string): never {
 
 /** Creates a screen with its QC thresholds (admin). */
 export async function createScreen(actor: Actor, input: ScreenInput): Promise<{ id: string }> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageScreens');
   return db().transaction(async (transaction) => {
     const screen = await Screen.create({ ...columns(input), createdBy: actor.id }, { transaction }).catch((e) =>
       conflict(e, `A screen named ${input.name} already exists.`, 'name'),
@@ -36,7 +36,7 @@ export async function createScreen(actor: Actor, input: ScreenInput): Promise<{ 
 
 /** Changes a screen's description, preset, thresholds or exposures (admin); plates keep their stored QC. */
 export async function updateScreen(actor: Actor, screenId: string, input: ScreenInput): Promise<void> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageScreens');
   await db().transaction(async (transaction) => {
     const screen = await Screen.findByPk(screenId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!screen) throw new AppError('not_found', 'No such screen.');
@@ -56,7 +56,7 @@ export async function updateScreen(actor: Actor, screenId: string, input: Screen
 
 /** Adds a target to a screen, mapped to a blockable conductance of the screen's preset (admin). */
 export async function addTarget(actor: Actor, screenId: string, input: TargetInput): Promise<{ id: string }> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageScreens');
   return db().transaction(async (transaction) => {
     const screen = await Screen.findByPk(screenId, { transaction });
     if (!screen) throw new AppError('not_found', 'No such screen.');

@@ -1,5 +1,5 @@
 import 'server-only';
-import { hasRole, type Actor } from '@/lib/auth/roles';
+import { can, type Actor } from '@/lib/auth/roles';
 
 /**
  * SQL condition on `plates p` for plates waiting for this person's signature: the state a role acts
@@ -8,9 +8,9 @@ import { hasRole, type Actor } from '@/lib/auth/roles';
  */
 export function awaitingCondition(actor: Actor): { sql: string; replacements: Record<string, unknown> } | null {
   const parts: string[] = [];
-  if (hasRole(actor, 'chemist')) parts.push(`(p.state = 'imported' and p.imported_by <> :awaitingActor)`);
-  if (hasRole(actor, 'biologist')) parts.push(`p.state in ('verified', 'rejected')`);
-  if (hasRole(actor, 'approver')) {
+  if (can(actor, 'verifyCompoundMap')) parts.push(`(p.state = 'imported' and p.imported_by <> :awaitingActor)`);
+  if (can(actor, 'submitPlates')) parts.push(`p.state in ('verified', 'rejected')`);
+  if (can(actor, 'decidePlates')) {
     parts.push(
       `(p.state = 'submitted' and p.imported_by <> :awaitingActor and p.verified_by is distinct from :awaitingActor and p.submitted_by is distinct from :awaitingActor)`,
     );

@@ -1,9 +1,10 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
-import type { Actor, Role } from '@/lib/auth/roles';
+import type { Actor } from '@/lib/auth/roles';
+import { PLATE_TRANSITIONS, type SignoffAction } from '@/lib/domain/plate-states';
+import { rolesFor, type Role } from '@/lib/domain/roles';
 import { env } from '@/lib/env';
 import type { OutgoingMail } from '@/lib/mail/outbox';
-import type { SignoffAction } from '@/lib/validation/signoff';
 import type { MailKind } from '@/models/mail-message';
 import { selectRecipients, type RecipientRow } from './queries';
 
@@ -20,7 +21,7 @@ export interface NoticePlate {
 
 interface Audience {
   kind: MailKind;
-  roles: Role[];
+  roles: readonly Role[];
   /** Whether the importer and submitter hear of it too. */
   owners: boolean;
   subject: string;
@@ -28,18 +29,21 @@ interface Audience {
   next: string;
 }
 
+/** Who may sign the step that follows (its capability, lib/domain/roles.ts). */
+const signersOf = (next: SignoffAction) => rolesFor(PLATE_TRANSITIONS[next].capability);
+
 /** Who hears of each step: the people of the next role, and on a decision the importer and submitter. */
 const AUDIENCE: Record<SignoffAction | 'import', Audience> = {
   import: {
-    kind: 'plate_imported', roles: ['chemist'], owners: false, subject: 'imported: compound map to verify', done: 'imported',
+    kind: 'plate_imported', roles: signersOf('verify'), owners: false, subject: 'imported: compound map to verify', done: 'imported',
     next: 'It waits for a chemist to verify its compound map.',
   },
   verify: {
-    kind: 'plate_verified', roles: ['biologist'], owners: false, subject: 'compound map verified: ready to review and submit', done: 'verified the compound map of',
+    kind: 'plate_verified', roles: signersOf('submit'), owners: false, subject: 'compound map verified: ready to review and submit', done: 'verified the compound map of',
     next: 'It waits for a biologist to review and submit it for approval.',
   },
   submit: {
-    kind: 'plate_submitted', roles: ['approver'], owners: false, subject: 'submitted for approval', done: 'submitted',
+    kind: 'plate_submitted', roles: signersOf('approve'), owners: false, subject: 'submitted for approval', done: 'submitted',
     next: 'It waits for an approver to approve it or return it for rework.',
   },
   approve: {
@@ -47,17 +51,17 @@ const AUDIENCE: Record<SignoffAction | 'import', Audience> = {
     next: 'It is now locked; a correction is a new import that references it.',
   },
   reject: {
-    kind: 'plate_rejected', roles: ['biologist'], owners: true, subject: 'returned for rework', done: 'returned',
+    kind: 'plate_rejected', roles: signersOf('rework'), owners: true, subject: 'returned for rework', done: 'returned',
     next: 'It waits for a biologist to reopen it for rework.',
   },
   rework: {
-    kind: 'plate_reopened', roles: ['chemist'], owners: false, subject: 'reopened: compound map to verify again', done: 'reopened',
+    kind: 'plate_reopened', roles: signersOf('verify'), owners: false, subject: 'reopened: compound map to verify again', done: 'reopened',
     next: 'It waits for a chemist to verify its compound map again.',
   },
 };
 
 /** Enabled users holding one of the roles, or with one of the ids. */
-async function users(where: 'role' | 'id', values: string[], transaction: Transaction): Promise<RecipientRow[]> {
+async function users(where: 'role' | 'id', values: readonly string[], transaction: Transaction): Promise<RecipientRow[]> {
   if (!values.length) return [];
   return selectRecipients(where, values, transaction);
 }

@@ -1,8 +1,9 @@
 import 'server-only';
-import { hasRole, type Actor } from '@/lib/auth/roles';
+import { can, type Actor } from '@/lib/auth/roles';
+import { rolesFor } from '@/lib/domain/roles';
 import { AppError } from '@/lib/errors';
-import type { SignoffAction } from '@/lib/validation/signoff';
-import type { PlateState } from '@/models/plate';
+import type { SignoffAction } from '@/lib/domain/plate-states';
+import type { PlateState } from '@/lib/domain/plate-states';
 import { plateContentSha256 } from './plate-content';
 import { selectLastPlateSignature, selectPanelPlate } from './queries';
 import { stepsFrom, WAITING_FOR } from './steps';
@@ -38,9 +39,9 @@ export async function signoffPanel(actor: Actor, plateId: string): Promise<Signo
   const last = await selectLastPlateSignature(plateId);
   const signers = { importedBy: plate.importedById, verifiedBy: plate.verifiedById, submittedBy: plate.submittedById };
   const steps = stepsFrom(plate.state);
-  const withRole = steps.filter((step) => hasRole(actor, step.role));
+  const withRole = steps.filter((step) => can(actor, step.capability));
   const allowed = withRole.filter((step) => step.dutyConflict(signers, actor.id) === null);
-  const notYours = steps.length === 0 || allowed.length ? null : withRole.length ? withRole[0]!.dutyConflict(signers, actor.id) : `This step needs the ${steps[0]!.role} role.`;
+  const notYours = steps.length === 0 || allowed.length ? null : withRole.length ? withRole[0]!.dutyConflict(signers, actor.id) : `This step needs the ${rolesFor(steps[0]!.capability).join(' or ')} role.`;
   return {
     plateId: plate.id, label: plate.label, state: plate.state, version: plate.version, waitingFor: WAITING_FOR[plate.state],
     signers: { importedBy: plate.importedBy, verifiedBy: plate.verifiedBy, submittedBy: plate.submittedBy, decidedBy: plate.decidedBy },

@@ -1,7 +1,7 @@
 import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
-import type { PlateState } from '@/models/plate';
+import type { PlateState } from '@/lib/domain/plate-states';
 
 const opts = (plateId: string, transaction?: Transaction) => ({ type: QueryTypes.SELECT, replacements: { plateId }, ...(transaction ? { transaction } : {}) }) as const;
 
@@ -157,7 +157,7 @@ export interface RecipientRow {
 }
 
 // SQL for speed: enabled users holding one of the roles, or with one of the ids, in the caller's transaction, as plain rows.
-export async function selectRecipients(where: 'role' | 'id', values: string[], transaction: Transaction): Promise<RecipientRow[]> {
+export async function selectRecipients(where: 'role' | 'id', values: readonly string[], transaction: Transaction): Promise<RecipientRow[]> {
   const condition = where === 'role' ? 'u.id in (select user_id from user_roles where role in (:values))' : 'u.id in (:values)';
   return db().query<RecipientRow>(`select u.id, u.email, u.name from users u where u.disabled_at is null and ${condition} order by u.email`, {
     type: QueryTypes.SELECT, replacements: { values }, transaction,

@@ -1,18 +1,10 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import { AppError, isAppError } from '@/lib/errors';
-import type { Plate, PlateState } from '@/models/plate';
+import { PLATE_STATE_PHRASE, type PlateState } from '@/lib/domain/plate-states';
+import type { Plate } from '@/models/plate';
 import { selectLastSignoff } from './queries';
 import type { SignoffStep } from './steps';
-
-/** How a plate's state reads in a sentence. */
-export const STATE_WORDS: Record<PlateState, string> = {
-  imported: 'imported and waiting for compound-map verification',
-  verified: 'verified and waiting for submission',
-  submitted: 'submitted and waiting for a decision',
-  approved: 'approved',
-  rejected: 'returned for rework',
-};
 
 const timeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
 
@@ -26,7 +18,7 @@ export async function refuseWrongState(plate: Plate, step: SignoffStep, transact
   if (plate.state === 'approved') {
     throw new AppError('locked', `Plate ${plate.label} was approved${by} and is locked: no signature, edit or exclusion can change it. A correction is a new import that references it. Nothing was signed.`);
   }
-  throw new AppError('conflict', `Plate ${plate.label} is ${STATE_WORDS[plate.state as PlateState]}${by}; “${step.label}” needs a plate that is ${STATE_WORDS[step.from]}. Nothing was signed; reload to see the plate as it is.`);
+  throw new AppError('conflict', `Plate ${plate.label} is ${PLATE_STATE_PHRASE[plate.state as PlateState]}${by}; “${step.label}” needs a plate that is ${PLATE_STATE_PHRASE[step.from]}. Nothing was signed; reload to see the plate as it is.`);
 }
 
 interface PgCause {

@@ -1,15 +1,15 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { signRecord } from '@/lib/auth/signature';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { queueMail } from '@/lib/mail/outbox';
 import { parseOrRefuse } from '@/lib/validation/parse';
-import { signoffRequestSchema, type SignoffAction, type SignoffRequest } from '@/lib/validation/signoff';
+import { signoffRequestSchema, type SignoffRequest } from '@/lib/validation/signoff';
 import { Plate, Screen, SignoffEvent } from '@/models';
-import type { PlateState } from '@/models/plate';
+import type { PlateState, SignoffAction } from '@/lib/domain/plate-states';
 import { refusalFromDatabase, refuseWrongState } from './refusals';
 import { noticesFor } from './notices';
 import { plateContent } from './plate-content';
@@ -68,7 +68,7 @@ async function lockForStep(actor: Actor, plateId: string, step: SignoffStep, exp
 export async function signPlateStep(actor: Actor, plateId: string, raw: SignoffRequest): Promise<SignoffResult> {
   const input = parseOrRefuse(signoffRequestSchema, raw, 'The signature is not complete.');
   const step = SIGNOFF_STEPS[input.action];
-  requireRole(actor, step.role);
+  requireCapability(actor, step.capability);
   try {
     return await db().transaction(async (transaction) => {
       const plate = await lockForStep(actor, plateId, step, input.expectedVersion, transaction);

@@ -1,7 +1,5 @@
 import 'server-only';
-import type { Role } from '@/lib/auth/roles';
-import type { SignoffAction } from '@/lib/validation/signoff';
-import type { PlateState } from '@/models/plate';
+import { PLATE_TRANSITIONS, type PlateState, type PlateTransition, type SignoffAction } from '@/lib/domain/plate-states';
 
 /** Who has signed what on the plate so far in this round (the plate row's *_by columns). */
 export interface PlateSigners {
@@ -10,11 +8,9 @@ export interface PlateSigners {
   submittedBy: string | null;
 }
 
-export interface SignoffStep {
+/** One signed step: its transition and capability (lib/domain/plate-states.ts), wording and duties. */
+export interface SignoffStep extends PlateTransition {
   action: SignoffAction;
-  from: PlateState;
-  to: PlateState;
-  role: Role;
   /** Button and history wording. */
   label: string;
   /** The meaning of the signature, fixed per step and shown before signing. */
@@ -34,30 +30,30 @@ function deciderConflict(plate: PlateSigners, actorId: string): string | null {
   return null;
 }
 
-/** Gatewell's sign-off: imported → verified → submitted → approved | rejected, and rejected → imported. */
+/** Gatewell's sign-off steps over the transitions of PLATE_TRANSITIONS. */
 export const SIGNOFF_STEPS: Record<SignoffAction, SignoffStep> = {
   verify: {
-    action: 'verify', from: 'imported', to: 'verified', role: 'chemist', label: 'Verify the compound map', commentRequired: false,
+    action: 'verify', ...PLATE_TRANSITIONS.verify, label: 'Verify the compound map', commentRequired: false,
     meaning: 'Compound map verified: each well holds the compound and concentration the export states.',
     dutyConflict: (plate, actorId) => (actorId === plate.importedBy ? 'You imported this plate, so another chemist verifies its compound map.' : null),
   },
   submit: {
-    action: 'submit', from: 'verified', to: 'submitted', role: 'biologist', label: 'Submit for approval', commentRequired: false,
+    action: 'submit', ...PLATE_TRANSITIONS.submit, label: 'Submit for approval', commentRequired: false,
     meaning: 'Reviewed and submitted: the QC, exclusions and fits of this plate are ready for approval.',
     dutyConflict: none,
   },
   approve: {
-    action: 'approve', from: 'submitted', to: 'approved', role: 'approver', label: 'Approve', commentRequired: false,
+    action: 'approve', ...PLATE_TRANSITIONS.approve, label: 'Approve', commentRequired: false,
     meaning: 'Approved: the results of this plate are accepted as they stand, and the plate is locked.',
     dutyConflict: deciderConflict,
   },
   reject: {
-    action: 'reject', from: 'submitted', to: 'rejected', role: 'approver', label: 'Return for rework', commentRequired: true,
+    action: 'reject', ...PLATE_TRANSITIONS.reject, label: 'Return for rework', commentRequired: true,
     meaning: 'Returned for rework: the results of this plate are not accepted as they stand.',
     dutyConflict: deciderConflict,
   },
   rework: {
-    action: 'rework', from: 'rejected', to: 'imported', role: 'biologist', label: 'Reopen for rework', commentRequired: false,
+    action: 'rework', ...PLATE_TRANSITIONS.rework, label: 'Reopen for rework', commentRequired: false,
     meaning: 'Reopened for rework: the plate goes back to compound-map verification.',
     dutyConflict: none,
   },

@@ -1,6 +1,6 @@
 import 'server-only';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseOrRefuse } from '@/lib/validation/parse';
@@ -13,7 +13,7 @@ import { assertAnotherEnabledAdmin, lockAdminSet, lockUser, snapshotOf, summaryO
  * every request, so the change applies to the user's open sessions at once. Admins only.
  */
 export async function changeRoles(actor: Actor, raw: ChangeRolesInput): Promise<UserSummary> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageUsers');
   const input = parseOrRefuse(changeRolesSchema, raw);
   return db().transaction(async (transaction) => {
     await lockAdminSet(transaction);

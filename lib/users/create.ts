@@ -4,7 +4,7 @@ import { UniqueConstraintError } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import { issuePasswordLink } from '@/lib/auth/password-link';
 import { generatePassword, hashPassword } from '@/lib/auth/passwords';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseOrRefuse } from '@/lib/validation/parse';
@@ -31,7 +31,7 @@ const emailTaken = () =>
  * or with an initial password the admin set or Gatewell generated, good for one sign-in. Admins only.
  */
 export async function createUser(actor: Actor, raw: CreateUserInput): Promise<CreatedUser> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageUsers');
   const input = parseOrRefuse(createUserSchema, raw);
   const invited = input.access === 'link';
   const password = invited ? randomBytes(32).toString('base64url') : (input.password ?? generatePassword());

@@ -1,5 +1,6 @@
 import 'server-only';
-import { requireRole, type Actor, type Role } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
+import type { Role } from '@/lib/domain/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseId } from '@/lib/validation/ids';
@@ -12,7 +13,7 @@ function rolesOf(user: User): Role[] {
 
 /** Every user, enabled ones first, then by name. Admins only. */
 export async function listUsers(actor: Actor): Promise<UserSummary[]> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageUsers');
   db();
   const users = await User.findAll({ include: [{ model: UserRole, as: 'roles' }], order: [['name', 'ASC']] });
   return users
@@ -22,7 +23,7 @@ export async function listUsers(actor: Actor): Promise<UserSummary[]> {
 
 /** One user by id. Admins only; an unknown id is not found. */
 export async function getUser(actor: Actor, rawUserId: string): Promise<UserSummary> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageUsers');
   db();
   const user = await User.findByPk(parseId(rawUserId, 'user'), { include: [{ model: UserRole, as: 'roles' }] });
   if (!user) throw new AppError('not_found', 'No such user.');

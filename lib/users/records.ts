@@ -1,6 +1,6 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
-import type { Role } from '@/lib/auth/roles';
+import type { Role } from '@/lib/domain/roles';
 import { AppError } from '@/lib/errors';
 import { User, UserRole } from '@/models';
 import { countOtherEnabledAdmins, lockAdminSetKey } from './queries';

@@ -1,7 +1,7 @@
 import 'server-only';
 import { recordAudit } from '@/lib/audit/record';
 import { generatePassword, hashPassword } from '@/lib/auth/passwords';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseOrRefuse } from '@/lib/validation/parse';
@@ -19,7 +19,7 @@ export interface PasswordReset {
  * own at their next sign-in. Admins only, and not for their own account (that goes through the password change, which asks for the current one).
  */
 export async function resetPassword(actor: Actor, raw: ResetPasswordInput): Promise<PasswordReset> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageUsers');
   const input = parseOrRefuse(resetPasswordSchema, raw);
   if (input.userId === actor.id) {
     throw new AppError('conflict', 'Change your own password on the Account page; it asks for your current one.');

@@ -1,6 +1,6 @@
 import 'server-only';
 import { recordAudit } from '@/lib/audit/record';
-import { requireRole, type Actor } from '@/lib/auth/roles';
+import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseOrRefuse } from '@/lib/validation/parse';
@@ -12,7 +12,7 @@ import { assertAnotherEnabledAdmin, lockAdminSet, lockUser, snapshotOf, summaryO
  * so re-enabling later does not revive them). Refuses the last enabled admin and the acting admin.
  */
 export async function disableUser(actor: Actor, raw: UserStatusInput): Promise<UserSummary> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageUsers');
   const input = parseOrRefuse(userStatusSchema, raw);
   if (input.userId === actor.id) {
     throw new AppError('conflict', 'You cannot disable your own account. Ask another admin to do it.');
@@ -34,7 +34,7 @@ export async function disableUser(actor: Actor, raw: UserStatusInput): Promise<U
 
 /** Enables a disabled account again; the person signs in afresh. Admins only. */
 export async function enableUser(actor: Actor, raw: UserStatusInput): Promise<UserSummary> {
-  requireRole(actor, 'admin');
+  requireCapability(actor, 'manageUsers');
   const input = parseOrRefuse(userStatusSchema, raw);
   return db().transaction(async (transaction) => {
     await lockAdminSet(transaction);

@@ -26,8 +26,8 @@ export type CompoundInput = z.infer<typeof compoundSchema>;
 /** A batch (lot) of a compound. */
 export const batchSchema = z.object({
   lot: z.string().trim().min(1, 'Enter the batch or lot.').max(64, 'Lots are at most 64 characters.'),
-  purityPercent: optionalNumber(z.number().gt(0, 'Purity must be above 0 %.').max(100, 'Purity cannot exceed 100 %.')),
-  stockConcentrationMm: optionalNumber(z.number().positive('Stock concentration must be above 0 mM.')),
+  purity_percent: optionalNumber(z.number().gt(0, 'Purity must be above 0 %.').max(100, 'Purity cannot exceed 100 %.')),
+  stockConcentration_mM: optionalNumber(z.number().positive('Stock concentration must be above 0 mM.')),
   solvent: z.string().trim().min(1, 'Enter the solvent.').max(40).default('DMSO'),
 });
 
@@ -36,8 +36,8 @@ export type BatchInput = z.infer<typeof batchSchema>;
 /** One row of a bulk registration: the compound and, optionally, its first batch. */
 export const bulkCompoundRowSchema = compoundSchema.extend({
   lot: z.string().trim().max(64).default(''),
-  purityPercent: batchSchema.shape.purityPercent,
-  stockConcentrationMm: batchSchema.shape.stockConcentrationMm,
+  purity_percent: batchSchema.shape.purity_percent,
+  stockConcentration_mM: batchSchema.shape.stockConcentration_mM,
   solvent: z.string().trim().max(40).default('DMSO'),
 });
 

@@ -10,9 +10,9 @@ export const targetPotencySchema = z.object({
   target: z.string(),
   conductance: z.string(),
   use: z.enum(POTENCY_USES),
-  ic50Um: z.number().nullable(),
+  ic50_uM: z.number().nullable(),
   hill: z.number().nullable(),
-  ic50LowerBoundUm: z.number().nullable(),
+  ic50LowerBound_uM: z.number().nullable(),
   note: z.string(),
   /** Fraction of the conductance blocked at each exposure of the screen (0 where no potency is used). */
   blockAtExposures: z.array(z.number()),
@@ -24,7 +24,7 @@ const nullableNumber = z.number().nullable();
 const shiftSchema = z.object({ control: nullableNumber, value: nullableNumber, delta: nullableNumber, relative: nullableNumber });
 
 export const conditionViewSchema = z.object({
-  concentrationUm: z.number(),
+  concentration_uM: z.number(),
   /** One of the screen's exposures of interest (the others belong to the concentration sweep). */
   exposure: z.boolean(),
   block: z.record(z.string(), z.number()),
@@ -51,7 +51,7 @@ export const forecastViewSchema = z.object({
   referenceDrive_uA_cm2: nullableNumber,
   control: conditionViewSchema,
   conditions: z.array(conditionViewSchema),
-  traces: z.object({ drive_uA_cm2: z.number(), concentrationUm: nullableNumber, control: traceSchema, condition: traceSchema.nullable() }).nullable(),
+  traces: z.object({ drive_uA_cm2: z.number(), concentration_uM: nullableNumber, control: traceSchema, condition: traceSchema.nullable() }).nullable(),
   caution: z.string(),
 });
 
@@ -62,7 +62,7 @@ export const compoundForecastSchema = z.object({
   /** The screen whose preset and exposures the forecast uses. */
   screen: z.object({ id: z.uuid(), name: z.string() }),
   preset: z.string(),
-  exposuresUm: z.array(z.number()),
+  exposures_uM: z.array(z.number()),
   targets: z.array(targetPotencySchema),
   /** Why no forecast is computed (no usable potency, no exposures); null when one is. */
   reason: z.string().nullable(),
@@ -74,7 +74,7 @@ export const compoundForecastSchema = z.object({
 export const plateForecastListSchema = z.object({
   plate: z.object({ id: z.uuid(), label: z.string(), state: z.string() }),
   preset: z.string(),
-  exposuresUm: z.array(z.number()),
+  exposures_uM: z.array(z.number()),
   compounds: z.array(z.object({ compoundId: z.uuid(), compound: z.string(), targets: z.array(targetPotencySchema), reason: z.string().nullable(), stored: z.boolean() })),
   caution: z.string(),
 });

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { wellRoleSchema } from '@/lib/domain/well-roles';
 
 /** Exclude or re-include wells: the same schema checks the form in the browser and the request on the server. */
 export const exclusionSchema = z.object({
@@ -26,19 +27,19 @@ export const wellRowSchema = z.object({
   position: z.string(),
   rowIndex: z.number().int(),
   columnIndex: z.number().int(),
-  role: z.enum(['vehicle', 'reference', 'test']),
+  role: wellRoleSchema,
   compoundId: z.uuid().nullable(),
   compound: z.string().nullable(),
-  concentrationUm: z.number().nullable(),
-  sealResistanceGohm: z.number().nullable(),
-  seriesResistanceMohm: z.number().nullable(),
-  capacitancePf: z.number().nullable(),
+  concentration_uM: z.number().nullable(),
+  sealResistance_GOhm: z.number().nullable(),
+  seriesResistance_MOhm: z.number().nullable(),
+  capacitance_pF: z.number().nullable(),
   excluded: z.boolean(),
   exclusionReason: z.string().nullable(),
   targetId: z.uuid(),
   target: z.string(),
-  controlCurrentPa: z.number().nullable(),
-  compoundCurrentPa: z.number().nullable(),
+  controlCurrent_pA: z.number().nullable(),
+  compoundCurrent_pA: z.number().nullable(),
   fractionalBlock: z.number().nullable(),
   qcReasons: z.array(qcReason),
 });
@@ -58,10 +59,10 @@ export const fitViewSchema = z.object({
   model: z.enum(['hill2', 'hill4']),
   status: z.enum(['fitted', 'above_range', 'inactive', 'insufficient', 'not_converged']),
   message: z.string(),
-  ic50Um: z.number().nullable(),
-  ic50CiLowUm: z.number().nullable(),
-  ic50CiHighUm: z.number().nullable(),
-  ic50LowerBoundUm: z.number().nullable(),
+  ic50_uM: z.number().nullable(),
+  ic50CiLow_uM: z.number().nullable(),
+  ic50CiHigh_uM: z.number().nullable(),
+  ic50LowerBound_uM: z.number().nullable(),
   log10Ic50Se: z.number().nullable(),
   hill: z.number().nullable(),
   top: z.number().nullable(),

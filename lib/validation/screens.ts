@@ -15,16 +15,16 @@ export const screenSchema = z
     name: z.string().trim().min(1, 'Enter a name.').max(120),
     description: z.string().trim().max(2000).default(''),
     neuronPreset: z.enum(PRESET_NAMES, { error: `Choose a preset: ${PRESET_NAMES.join(', ')}.` }),
-    zprimeMin: number('Enter Z′ as a number.').pipe(z.number().max(1, 'Z′ cannot exceed 1.')),
-    sealMinGohm: number('Enter a number of GΩ.').pipe(z.number().min(0, 'Must be 0 or more.')),
-    controlCurrentMinPa: number('Enter a number of pA.').pipe(z.number().min(0, 'Must be 0 or more.')),
-    seriesMaxMohm: number('Enter a number of MΩ.').pipe(z.number().positive('Must be above 0.')),
-    capacitanceMinPf: number('Enter a number of pF.').pipe(z.number().min(0, 'Must be 0 or more.')),
-    capacitanceMaxPf: number('Enter a number of pF.').pipe(z.number().positive('Must be above 0.')),
-    rundownMaxPercent: number('Enter a percentage.').pipe(z.number().min(0, 'Must be 0 or more.').max(100, 'Cannot exceed 100 %.')),
-    exposuresUm: exposures,
+    zPrimeMin: number('Enter Z′ as a number.').pipe(z.number().max(1, 'Z′ cannot exceed 1.')),
+    sealResistanceMin_GOhm: number('Enter a number of GΩ.').pipe(z.number().min(0, 'Must be 0 or more.')),
+    controlCurrentMin_pA: number('Enter a number of pA.').pipe(z.number().min(0, 'Must be 0 or more.')),
+    seriesResistanceMax_MOhm: number('Enter a number of MΩ.').pipe(z.number().positive('Must be above 0.')),
+    capacitanceMin_pF: number('Enter a number of pF.').pipe(z.number().min(0, 'Must be 0 or more.')),
+    capacitanceMax_pF: number('Enter a number of pF.').pipe(z.number().positive('Must be above 0.')),
+    vehicleRundownMax_percent: number('Enter a percentage.').pipe(z.number().min(0, 'Must be 0 or more.').max(100, 'Cannot exceed 100 %.')),
+    exposures_uM: exposures,
   })
-  .refine((s) => s.capacitanceMaxPf > s.capacitanceMinPf, { path: ['capacitanceMaxPf'], message: 'Must be above the minimum capacitance.' });
+  .refine((s) => s.capacitanceMax_pF > s.capacitanceMin_pF, { path: ['capacitanceMax_pF'], message: 'Must be above the minimum capacitance.' });
 
 export type ScreenInput = z.infer<typeof screenSchema>;
 

@@ -1,14 +1,11 @@
 import { z } from 'zod';
 import { MAX_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
-
-/** The five signed steps of a plate's sign-off, by the name the forms and services use. */
-export const SIGNOFF_ACTIONS = ['verify', 'submit', 'approve', 'reject', 'rework'] as const;
-export type SignoffAction = (typeof SIGNOFF_ACTIONS)[number];
+import { signoffActionSchema } from '@/lib/domain/plate-states';
 
 /** What a person sends to sign one step: the step, the password again, a comment, the version they saw. */
 export const signoffRequestSchema = z
   .object({
-    action: z.enum(SIGNOFF_ACTIONS, 'Choose what you are signing.'),
+    action: signoffActionSchema,
     password: z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(MAX_PASSWORD_LENGTH, 'That password is too long.'),
     comment: z.string().trim().max(2000, 'Keep the comment under 2000 characters.').default(''),
     expectedVersion: z.coerce.number('The form lost the plate version; reload the page.').int().positive('The form lost the plate version; reload the page.').optional(),

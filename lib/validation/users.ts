@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
-import { ROLES } from '@/models/user-role';
+import { roleSchema } from '@/lib/domain/roles';
 
 const emptyToUndefined = (value: unknown) => (value === '' || value === null ? undefined : value);
 
@@ -25,7 +25,7 @@ export const emailField = z
 export const roleList = z.preprocess(
   (value) => (value === undefined || value === '' ? [] : Array.isArray(value) ? value : [value]),
   z
-    .array(z.enum(ROLES, 'Choose roles from the list.'))
+    .array(roleSchema)
     .transform((roles) => [...new Set(roles)].sort()),
 );
 

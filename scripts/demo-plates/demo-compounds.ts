@@ -2,15 +2,15 @@
 
 /** Targets of the two demo screens: the sodium pain screen and the potassium counter-screen. */
 export const DEMO_TARGETS = {
-  'Nav1.7': { screen: 'Pain sodium screen', conductance: 'transient sodium', sign: -1, controlMedianPa: 2500 },
-  'Kv7.2': { screen: 'Potassium counter-screen', conductance: 'M-type potassium', sign: 1, controlMedianPa: 900 },
+  'Nav1.7': { screen: 'Pain sodium screen', conductance: 'transient sodium', sign: -1, controlMedian_pA: 2500 },
+  'Kv7.2': { screen: 'Potassium counter-screen', conductance: 'M-type potassium', sign: 1, controlMedian_pA: 900 },
 } as const;
 
 export type DemoTarget = keyof typeof DEMO_TARGETS;
 
 /** True potency of one compound on one target: IC50 (µM) and Hill slope. */
 export interface TruePotency {
-  ic50Um: number;
+  ic50_uM: number;
   hillSlope: number;
 }
 
@@ -23,7 +23,7 @@ export interface DemoCompound {
   truth: Record<DemoTarget, TruePotency>;
 }
 
-const potency = (ic50Um: number, hillSlope: number): TruePotency => ({ ic50Um, hillSlope });
+const potency = (ic50_uM: number, hillSlope: number): TruePotency => ({ ic50_uM, hillSlope });
 
 /** A dozen invented sodium-channel blockers; some touch the potassium counter-target, some do not. */
 export const DEMO_COMPOUNDS: DemoCompound[] = [
@@ -48,6 +48,6 @@ export const REFERENCE_IDENTIFIER = 'REF';
 export const REFERENCE_CONCENTRATION_UM = 1;
 
 /** Fractional block of simple pore block: `1 / (1 + (IC50 / C)^n)`. */
-export function trueBlock(concentrationUm: number, truth: TruePotency): number {
-  return 1 / (1 + (truth.ic50Um / concentrationUm) ** truth.hillSlope);
+export function trueBlock(concentration_uM: number, truth: TruePotency): number {
+  return 1 / (1 + (truth.ic50_uM / concentration_uM) ** truth.hillSlope);
 }

@@ -17,19 +17,19 @@ export interface DemoManifest {
   dataSheet: string;
   headerRow: number;
   wellCount: number;
-  concentrationsUm: number[];
+  concentrations_uM: number[];
   replicates: number;
   noise: NoiseModel;
   /** Z′ the noise model implies: 1 − 3 (σ_ref + σ_veh) / |μ_ref − μ_veh| on the ratio I_compound / I_control. */
   zPrimeFromNoiseModel: number;
-  truth: { compound: string; target: DemoTarget; ic50Um: number; hillSlope: number; blockAtHighest: number; ic50WithinTestedRange: boolean }[];
+  truth: { compound: string; target: DemoTarget; ic50_uM: number; hillSlope: number; blockAtHighest: number; ic50WithinTestedRange: boolean }[];
   failingWells: { well: string; target: DemoTarget; kind: FailureKind; missing: string | null }[];
 }
 
 /** Builds the manifest of one plan's export. */
 export function makeManifest(plan: PlatePlan, wells: DemoWell[], exported: DemoExport): DemoManifest {
-  const highest = Math.max(...plan.concentrationsUm);
-  const lowest = Math.min(...plan.concentrationsUm);
+  const highest = Math.max(...plan.concentrations_uM);
+  const lowest = Math.min(...plan.concentrations_uM);
   const { noise } = plan;
   const sdVehicle = Math.hypot(noise.rundownSd, noise.ratioSd);
   const zPrime = 1 - (3 * (noise.referenceSd + sdVehicle)) / Math.abs(noise.referenceRatio - noise.rundownMean);
@@ -45,7 +45,7 @@ export function makeManifest(plan: PlatePlan, wells: DemoWell[], exported: DemoE
     dataSheet: exported.dataSheet,
     headerRow: exported.headerRow,
     wellCount: wells.length,
-    concentrationsUm: plan.concentrationsUm,
+    concentrations_uM: plan.concentrations_uM,
     replicates: plan.replicates,
     noise,
     zPrimeFromNoiseModel: Number(zPrime.toFixed(3)),
@@ -57,7 +57,7 @@ export function makeManifest(plan: PlatePlan, wells: DemoWell[], exported: DemoE
         target: plan.target,
         ...potency,
         blockAtHighest: Number(trueBlock(highest, potency).toFixed(4)),
-        ic50WithinTestedRange: potency.ic50Um >= lowest && potency.ic50Um <= highest,
+        ic50WithinTestedRange: potency.ic50_uM >= lowest && potency.ic50_uM <= highest,
       };
     }),
     failingWells: plan.failures.map((f) => ({ well: f.well, target: plan.target, kind: f.kind, missing: f.missing ?? null })),

@@ -8,7 +8,7 @@ export type FailureKind = 'low_seal' | 'small_current' | 'high_series_resistance
 export interface PlannedFailure {
   well: string;
   kind: FailureKind;
-  missing?: 'compoundCurrentPa' | 'sealResistanceGohm' | 'capacitancePf';
+  missing?: 'compoundCurrent_pA' | 'sealResistance_GOhm' | 'capacitance_pF';
 }
 
 /** Noise of the ratio I_compound / I_control: run-down of vehicle wells and scatter of every well. */
@@ -24,7 +24,7 @@ export interface NoiseModel {
   /** SD of the ratio in reference wells (fraction). */
   referenceSd: number;
   /** Additive recording noise on the compound current, pA. */
-  currentNoisePa: number;
+  currentNoise_pA: number;
 }
 
 /** Gatewell's names for the two export layouts of the imagined demo rig. */
@@ -38,7 +38,7 @@ export interface PlatePlan {
   seed: number;
   compounds: string[];
   /** Concentration series, µM, highest first. */
-  concentrationsUm: number[];
+  concentrations_uM: number[];
   replicates: number;
   /** 1-based plate columns of vehicle and reference wells; test wells fill the columns between, down each column. */
   vehicleColumns: number[];
@@ -50,9 +50,9 @@ export interface PlatePlan {
 
 const HALF_LOG_SERIES_UM = [30, 10, 3, 1, 0.3, 0.1, 0.03, 0.01];
 /** Quiet plates: σ_veh ≈ 0.032, σ_ref = 0.015, so Z′ ≈ 1 − 3 (0.032 + 0.015) / 0.93 ≈ 0.85. */
-const QUIET: NoiseModel = { rundownMean: 0.95, rundownSd: 0.02, ratioSd: 0.025, referenceRatio: 0.02, referenceSd: 0.015, currentNoisePa: 8 };
+const QUIET: NoiseModel = { rundownMean: 0.95, rundownSd: 0.02, ratioSd: 0.025, referenceRatio: 0.02, referenceSd: 0.015, currentNoise_pA: 8 };
 /** Noisy controls: σ_veh = √(0.09² + 0.06²) ≈ 0.11, σ_ref = 0.10, so Z′ ≈ 1 − 3 (0.11 + 0.10) / 0.93 ≈ 0.33, below the default limit 0.5. */
-const NOISY_CONTROLS: NoiseModel = { rundownMean: 0.95, rundownSd: 0.09, ratioSd: 0.06, referenceRatio: 0.02, referenceSd: 0.1, currentNoisePa: 8 };
+const NOISY_CONTROLS: NoiseModel = { rundownMean: 0.95, rundownSd: 0.09, ratioSd: 0.06, referenceRatio: 0.02, referenceSd: 0.1, currentNoise_pA: 8 };
 
 const ids = (...numbers: number[]) => numbers.map((n) => `GW-${String(n).padStart(4, '0')}`);
 
@@ -69,7 +69,7 @@ export const PLATE_PLANS: PlatePlan[] = [
     format: 96,
     seed: 9601,
     compounds: ids(1, 2, 3, 4, 5),
-    concentrationsUm: HALF_LOG_SERIES_UM,
+    concentrations_uM: HALF_LOG_SERIES_UM,
     replicates: 2,
     vehicleColumns: [1],
     referenceColumns: [12],
@@ -78,7 +78,7 @@ export const PLATE_PLANS: PlatePlan[] = [
       { well: 'B03', kind: 'low_seal' },
       { well: 'E05', kind: 'small_current' },
       { well: 'G08', kind: 'high_series_resistance' },
-      { well: 'C10', kind: 'missing_value', missing: 'capacitancePf' },
+      { well: 'C10', kind: 'missing_value', missing: 'capacitance_pF' },
     ],
     layout: 'flat-sheet',
   },
@@ -89,7 +89,7 @@ export const PLATE_PLANS: PlatePlan[] = [
     format: 384,
     seed: 38403,
     compounds: ids(1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12),
-    concentrationsUm: HALF_LOG_SERIES_UM,
+    concentrations_uM: HALF_LOG_SERIES_UM,
     replicates: 3,
     vehicleColumns: [1, 2],
     referenceColumns: [23, 24],
@@ -99,8 +99,8 @@ export const PLATE_PLANS: PlatePlan[] = [
       { well: 'K09', kind: 'low_seal' },
       { well: 'F12', kind: 'small_current' },
       { well: 'N15', kind: 'high_series_resistance' },
-      { well: 'H18', kind: 'missing_value', missing: 'compoundCurrentPa' },
-      { well: 'D20', kind: 'missing_value', missing: 'sealResistanceGohm' },
+      { well: 'H18', kind: 'missing_value', missing: 'compoundCurrent_pA' },
+      { well: 'D20', kind: 'missing_value', missing: 'sealResistance_GOhm' },
     ],
     layout: 'run-workbook',
   },
@@ -111,14 +111,14 @@ export const PLATE_PLANS: PlatePlan[] = [
     format: 96,
     seed: 9611,
     compounds: ids(1, 3, 6, 9, 12),
-    concentrationsUm: HALF_LOG_SERIES_UM,
+    concentrations_uM: HALF_LOG_SERIES_UM,
     replicates: 2,
     vehicleColumns: [1],
     referenceColumns: [12],
     noise: QUIET,
     failures: [
       { well: 'D04', kind: 'low_seal' },
-      { well: 'F09', kind: 'missing_value', missing: 'compoundCurrentPa' },
+      { well: 'F09', kind: 'missing_value', missing: 'compoundCurrent_pA' },
     ],
     layout: 'flat-text',
   },
@@ -129,7 +129,7 @@ export const PLATE_PLANS: PlatePlan[] = [
     format: 96,
     seed: 9603,
     compounds: ids(6, 7, 8, 9, 10),
-    concentrationsUm: HALF_LOG_SERIES_UM,
+    concentrations_uM: HALF_LOG_SERIES_UM,
     replicates: 2,
     vehicleColumns: [1],
     referenceColumns: [12],

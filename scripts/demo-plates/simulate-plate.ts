@@ -11,15 +11,15 @@ export interface DemoWell {
   columnIndex: number;
   role: 'vehicle' | 'reference' | 'test';
   compound: string;
-  concentrationUm: number | null;
+  concentration_uM: number | null;
   target: DemoTarget;
   /** The block the generator applied (0 for vehicle wells), before run-down and noise. */
   trueBlock: number;
-  controlCurrentPa: number | null;
-  compoundCurrentPa: number | null;
-  sealResistanceGohm: number | null;
-  seriesResistanceMohm: number | null;
-  capacitancePf: number | null;
+  controlCurrent_pA: number | null;
+  compoundCurrent_pA: number | null;
+  sealResistance_GOhm: number | null;
+  seriesResistance_MOhm: number | null;
+  capacitance_pF: number | null;
   failure: PlannedFailure | null;
 }
 
@@ -33,13 +33,13 @@ export function simulatePlate(plan: PlatePlan): DemoWell[] {
   return wells.sort((a, b) => a.rowIndex - b.rowIndex || a.columnIndex - b.columnIndex);
 }
 
-type Placement = Pick<DemoWell, 'rowIndex' | 'columnIndex' | 'role' | 'compound' | 'concentrationUm'>;
+type Placement = Pick<DemoWell, 'rowIndex' | 'columnIndex' | 'role' | 'compound' | 'concentration_uM'>;
 
 function layOutWells(plan: PlatePlan): Placement[] {
   const rows = PLATE_ROWS[plan.format];
   const placements: Placement[] = [];
-  const columnsOf = (list: number[], role: 'vehicle' | 'reference', compound: string, concentrationUm: number | null) => {
-    for (const column of list) for (let row = 0; row < rows; row += 1) placements.push({ rowIndex: row, columnIndex: column - 1, role, compound, concentrationUm });
+  const columnsOf = (list: number[], role: 'vehicle' | 'reference', compound: string, concentration_uM: number | null) => {
+    for (const column of list) for (let row = 0; row < rows; row += 1) placements.push({ rowIndex: row, columnIndex: column - 1, role, compound, concentration_uM });
   };
   columnsOf(plan.vehicleColumns, 'vehicle', VEHICLE_IDENTIFIER, null);
   columnsOf(plan.referenceColumns, 'reference', REFERENCE_IDENTIFIER, REFERENCE_CONCENTRATION_UM);
@@ -47,11 +47,11 @@ function layOutWells(plan: PlatePlan): Placement[] {
   const testColumns = Array.from({ length: PLATE_COLUMNS[plan.format] }, (_, i) => i + 1).filter((column) => !controls.has(column));
   plan.compounds.forEach((compound, k) => {
     for (let rep = 0; rep < plan.replicates; rep += 1) {
-      plan.concentrationsUm.forEach((concentrationUm, j) => {
-        const index = (k * plan.replicates + rep) * plan.concentrationsUm.length + j;
+      plan.concentrations_uM.forEach((concentration_uM, j) => {
+        const index = (k * plan.replicates + rep) * plan.concentrations_uM.length + j;
         const column = testColumns[Math.floor(index / rows)];
         if (column === undefined) throw new RangeError(`${plan.file}: the test wells do not fit on a ${plan.format}-well plate`);
-        placements.push({ rowIndex: index % rows, columnIndex: column - 1, role: 'test', compound, concentrationUm });
+        placements.push({ rowIndex: index % rows, columnIndex: column - 1, role: 'test', compound, concentration_uM });
       });
     }
   });
@@ -63,13 +63,13 @@ function recordWell(plan: PlatePlan, placement: Placement, random: Random): Demo
   const failure = plan.failures.find((f) => f.well === position) ?? null;
   const target = DEMO_TARGETS[plan.target];
   const { noise } = plan;
-  const block = placement.role === 'test' ? trueBlock(placement.concentrationUm ?? 0, potencyOf(placement.compound, plan.target)) : placement.role === 'reference' ? 1 : 0;
+  const block = placement.role === 'test' ? trueBlock(placement.concentration_uM ?? 0, potencyOf(placement.compound, plan.target)) : placement.role === 'reference' ? 1 : 0;
   const rundown = random.normal(noise.rundownMean, noise.rundownSd);
   const ratio =
     placement.role === 'reference' ? random.normal(noise.referenceRatio, noise.referenceSd) : (1 - block) * rundown + random.normal(0, noise.ratioSd);
-  const magnitude = failure?.kind === 'small_current' ? random.uniform(60, 150) : clamp(random.logNormal(target.controlMedianPa, 0.35), 600, 9000);
+  const magnitude = failure?.kind === 'small_current' ? random.uniform(60, 150) : clamp(random.logNormal(target.controlMedian_pA, 0.35), 600, 9000);
   const control = target.sign * magnitude;
-  const compound = control * ratio + random.normal(0, noise.currentNoisePa);
+  const compound = control * ratio + random.normal(0, noise.currentNoise_pA);
   const seal = failure?.kind === 'low_seal' ? random.uniform(0.1, 0.35) : clamp(random.logNormal(1.6, 0.35), 0.7, 6);
   const series = failure?.kind === 'high_series_resistance' ? random.uniform(30, 45) : clamp(random.logNormal(6, 0.3), 2, 15);
   const capacitance = clamp(random.logNormal(18, 0.3), 6, 45);
@@ -78,11 +78,11 @@ function recordWell(plan: PlatePlan, placement: Placement, random: Random): Demo
     ...placement,
     target: plan.target,
     trueBlock: block,
-    controlCurrentPa: roundTo(control, 1),
-    compoundCurrentPa: roundTo(compound, 1),
-    sealResistanceGohm: roundTo(seal, 3),
-    seriesResistanceMohm: roundTo(series, 2),
-    capacitancePf: roundTo(capacitance, 2),
+    controlCurrent_pA: roundTo(control, 1),
+    compoundCurrent_pA: roundTo(compound, 1),
+    sealResistance_GOhm: roundTo(seal, 3),
+    seriesResistance_MOhm: roundTo(series, 2),
+    capacitance_pF: roundTo(capacitance, 2),
     failure,
   };
   if (failure?.missing) well[failure.missing] = null;

@@ -48,15 +48,15 @@ describe('compound profile', () => {
     const nav = profile.potencies.find((p) => p.target === 'Nav1.7')!;
     const [ratio] = profile.selectivity;
     expect(ratio).toMatchObject({ numerator: 'Kv7.2', denominator: 'Nav1.7', relation: '>', approved: false });
-    expect(ratio!.ratio).toBeCloseTo(30 / nav.ic50Um!, 9);
-    expect(ratio!.text).toBe(`Kv7.2 ÷ Nav1.7 > ${Number((30 / nav.ic50Um!).toPrecision(3))}`);
+    expect(ratio!.ratio).toBeCloseTo(30 / nav.ic50_uM!, 9);
+    expect(ratio!.text).toBe(`Kv7.2 ÷ Nav1.7 > ${Number((30 / nav.ic50_uM!).toPrecision(3))}`);
     expect(ratio!.meaning).toMatch(/^at least \d+-fold more potent on Nav1\.7$/);
   });
 
   test('a compound with both IC50s fitted gets an exact ratio', async () => {
     const profile = await getCompoundProfile(reader, await idOf('GW-0003'));
     const [nav, kv] = ['Nav1.7', 'Kv7.2'].map((t) => profile.potencies.find((p) => p.target === t)!);
-    expect(profile.selectivity).toEqual([expect.objectContaining({ relation: '=', numerator: 'Kv7.2', denominator: 'Nav1.7', ratio: kv!.ic50Um! / nav!.ic50Um! })]);
+    expect(profile.selectivity).toEqual([expect.objectContaining({ relation: '=', numerator: 'Kv7.2', denominator: 'Nav1.7', ratio: kv!.ic50_uM! / nav!.ic50_uM! })]);
   });
 
   test('a compound never tested has an empty profile and no forecast', async () => {

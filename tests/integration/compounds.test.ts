@@ -15,7 +15,7 @@ describe('compound registry on the real database', () => {
   test('a chemist registers a compound and a batch; both are audited', async () => {
     const chemist = await makeActor(['chemist']);
     const compound = await createCompound(chemist, aspirinLike);
-    const batch = await addBatch(chemist, compound.id, { lot: 'L-01', purityPercent: 99.1, stockConcentrationMm: 10, solvent: 'DMSO' });
+    const batch = await addBatch(chemist, compound.id, { lot: 'L-01', purity_percent: 99.1, stockConcentration_mM: 10, solvent: 'DMSO' });
     expect((await getCompound(chemist, compound.id)).batches).toEqual([batch]);
     expect(await AuditEvent.count({ where: { entityType: 'compound', action: 'create', actorId: chemist.id } })).toBe(1);
     expect(await AuditEvent.count({ where: { entityType: 'batch', action: 'create' } })).toBe(1);

@@ -41,13 +41,13 @@ describe('plate forecasts', () => {
   test('the list gives each compound its potency and block at every exposure, nothing stored yet', async () => {
     const list = await listPlateForecasts(reader, navPlate);
     expect(list.preset).toBe('pospischil-rs-2008');
-    expect(list.exposuresUm).toEqual([0.1, 1]);
+    expect(list.exposures_uM).toEqual([0.1, 1]);
     expect(list.compounds.map((c) => c.compound)).toEqual(['GW-0001', 'GW-0002', 'GW-0003', 'GW-0004', 'GW-0005']);
     const [target] = list.compounds[0]!.targets;
     expect(target).toMatchObject({ target: 'Nav1.7', conductance: 'gNa', use: 'used' });
     // Simple pore block of the fitted IC50 and slope (Mirams et al. 2011, tests/fixtures/check-values/
     // pore-block-mirams-2011.json), at 0.1 and 1 µM.
-    expect(target!.blockAtExposures).toEqual([0.1, 1].map((c) => poreBlockFraction(c, target!.ic50Um!, target!.hill!)));
+    expect(target!.blockAtExposures).toEqual([0.1, 1].map((c) => poreBlockFraction(c, target!.ic50_uM!, target!.hill!)));
     expect(list.compounds.every((c) => !c.stored && c.reason === null)).toBe(true);
     expect(list.caution).toMatch(/research decision support.*not a clinical or regulatory safety determination/);
   });
@@ -74,8 +74,8 @@ describe('plate forecasts', () => {
     const id = await compoundId(navPlate, 'GW-0003');
     const high = await getPlateForecast(reader, navPlate, id);
     const low = await getPlateForecast(reader, navPlate, id, 0);
-    expect(high.forecast!.traces!.concentrationUm).toBe(1);
-    expect(low.forecast!.traces!.concentrationUm).toBe(0.1);
+    expect(high.forecast!.traces!.concentration_uM).toBe(1);
+    expect(low.forecast!.traces!.concentration_uM).toBe(0.1);
     expect(low.forecast!.inputSha256).not.toBe(high.forecast!.inputSha256);
     // A forecast stored with the traces at any exposure marks the compound as stored.
     const other = await compoundId(navPlate, 'GW-0005');
@@ -91,7 +91,7 @@ describe('plate forecasts', () => {
   test('Nav1.7 block raises rheobase and depolarises threshold at every exposure (common-practice physiology of sodium-channel block)', async () => {
     const { forecast } = await getPlateForecast(reader, navPlate, await compoundId(navPlate, 'GW-0001'));
     const exposures = forecast!.conditions.filter((c) => c.exposure);
-    expect(exposures.map((c) => c.concentrationUm)).toEqual([0.1, 1]);
+    expect(exposures.map((c) => c.concentration_uM)).toEqual([0.1, 1]);
     let previous = forecast!.control;
     for (const c of exposures) {
       expect(c.block.gNa).toBeGreaterThan(previous.block.gNa ?? 0);
@@ -113,13 +113,13 @@ describe('plate forecasts', () => {
     // An M-current blocker lowers rheobase (Pospischil et al. 2008 RS cell; common-practice physiology of Kv7 block).
     const kv = await getPlateForecast(reader, kvPlate, await compoundId(kvPlate, 'GW-0009'));
     expect(kv.targets[0]!.conductance).toBe('gM');
-    expect(kv.forecast!.conditions.find((c) => c.concentrationUm === 1)!.shifts.rheobase_uA_cm2.relative).toBeLessThan(0);
+    expect(kv.forecast!.conditions.find((c) => c.concentration_uM === 1)!.shifts.rheobase_uA_cm2.relative).toBeLessThan(0);
   });
 
   test('a changed fit is a new input: excluding a well gives a new forecast beside the old one', async () => {
     const id = await compoundId(navPlate, 'GW-0004');
     const before = await getPlateForecast(reader, navPlate, id);
-    const well = (await listPlateWells(biologist, navPlate)).find((w) => w.compoundId === id && w.qcReasons.length === 0 && w.concentrationUm === 0.03)!;
+    const well = (await listPlateWells(biologist, navPlate)).find((w) => w.compoundId === id && w.qcReasons.length === 0 && w.concentration_uM === 0.03)!;
     await setWellExclusion(biologist, navPlate, { wellIds: [well.id], excluded: true, reason: 'seal lost during the compound addition' });
     await fitsCurrent(navPlate);
     const after = await getPlateForecast(reader, navPlate, id);

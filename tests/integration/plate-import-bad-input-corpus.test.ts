@@ -88,7 +88,7 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     const sheet = (await inspectUpload(biologist, workbook)).sheets[0]!;
     expect(sheet.sample[4]).toEqual(['A05', 'GW-0001', 1, 'Kv7.2', null, 700, 1.8, 4, 18]);
     const preview = await previewImport(biologist, { ...workbook, sheet: sheet.name, mapping: sheet.guess.mapping });
-    expect(preview.rows.find((r) => r.row === 6)!.values.controlCurrentPa).toBeNull();
+    expect(preview.rows.find((r) => r.row === 6)!.values.controlCurrent_pA).toBeNull();
   });
 
   test('HTML in cells comes back from the preview as the same plain text, never as markup', async () => {

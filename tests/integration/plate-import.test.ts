@@ -45,8 +45,8 @@ describe('plate import on the real database', () => {
       expect(await Well.count({ where: { plateId } })).toBe(manifest.wellCount);
       // What is stored, not only what was fitted in memory: test wells hold the generator's concentrations.
       const stored = await Well.findAll({ where: { plateId, role: 'test' } });
-      const concentrations = [...new Set(stored.map((w) => w.concentrationUm!.toPrecision(6)))].map(Number).sort((a, b) => b - a);
-      expect(concentrations).toEqual([...manifest.concentrationsUm].sort((a, b) => b - a));
+      const concentrations = [...new Set(stored.map((w) => w.concentration_uM!.toPrecision(6)))].map(Number).sort((a, b) => b - a);
+      expect(concentrations).toEqual([...manifest.concentrations_uM].sort((a, b) => b - a));
       const fits = await db().query<{ identifier: string; status: string; ic50_ci_low_um: number; ic50_ci_high_um: number; ic50_lower_bound_um: number | null }>(
         'select c.identifier, f.status, f.ic50_ci_low_um, f.ic50_ci_high_um, f.ic50_lower_bound_um from fits f join compounds c on c.id = f.compound_id where f.plate_id = :plateId',
         { replacements: { plateId }, type: 'SELECT' as never },
@@ -55,8 +55,8 @@ describe('plate import on the real database', () => {
         const fit = fits.find((f) => f.identifier === truth.compound)!;
         if (truth.ic50WithinTestedRange) {
           expect(fit.status, truth.compound).toBe('fitted');
-          expect(fit.ic50_ci_low_um, truth.compound).toBeLessThanOrEqual(truth.ic50Um);
-          expect(fit.ic50_ci_high_um, truth.compound).toBeGreaterThanOrEqual(truth.ic50Um);
+          expect(fit.ic50_ci_low_um, truth.compound).toBeLessThanOrEqual(truth.ic50_uM);
+          expect(fit.ic50_ci_high_um, truth.compound).toBeGreaterThanOrEqual(truth.ic50_uM);
         } else if (truth.blockAtHighest < 0.5) {
           expect(['above_range', 'inactive'], truth.compound).toContain(fit.status);
         }

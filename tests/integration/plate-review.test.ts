@@ -34,7 +34,7 @@ describe('plate review on the real database', () => {
     await fitsCurrent(plateId);
     const after = await fitOf('GW-0001');
     expect(after.n).toBe(before.n - 1);
-    expect(after.ic50Um).not.toBe(before.ic50Um);
+    expect(after.ic50_uM).not.toBe(before.ic50_uM);
     expect(await AuditEvent.count({ where: { action: 'exclude_well', entityId: well.id, reason: 'bubble seen in the trace' } })).toBe(1);
     await setWellExclusion(biologist, plateId, { wellIds: [well.id], excluded: false, reason: 'trace re-read: fine' });
     await fitsCurrent(plateId);

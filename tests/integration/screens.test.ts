@@ -8,8 +8,8 @@ import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 
 const form = {
-  name: 'Pain series', description: '', neuronPreset: 'pospischil-rs-2008', zprimeMin: '0.5', sealMinGohm: '0.5', controlCurrentMinPa: '200',
-  seriesMaxMohm: '25', capacitanceMinPf: '1', capacitanceMaxPf: '100', rundownMaxPercent: '20', exposuresUm: '0.1, 0.3 1',
+  name: 'Pain series', description: '', neuronPreset: 'pospischil-rs-2008', zPrimeMin: '0.5', sealResistanceMin_GOhm: '0.5', controlCurrentMin_pA: '200',
+  seriesResistanceMax_MOhm: '25', capacitanceMin_pF: '1', capacitanceMax_pF: '100', vehicleRundownMax_percent: '20', exposures_uM: '0.1, 0.3 1',
 };
 
 describe('screens and targets on the real database', () => {
@@ -19,12 +19,12 @@ describe('screens and targets on the real database', () => {
   test('an admin creates a screen from form values and maps targets to blockable conductances', async () => {
     const admin = await makeActor(['admin']);
     const input = screenSchema.parse(form);
-    expect(input.exposuresUm).toEqual([0.1, 0.3, 1]);
+    expect(input.exposures_uM).toEqual([0.1, 0.3, 1]);
     const { id } = await createScreen(admin, input);
     await addTarget(admin, id, { name: 'Nav peak', conductance: 'gNa', description: '' });
     await addTarget(admin, id, { name: 'Kv7 M-current', conductance: 'gM', description: '' });
     const screen = await getScreen(admin, id);
-    expect(screen.rundownMaxFraction).toBeCloseTo(0.2, 12);
+    expect(screen.vehicleRundownMax_fraction).toBeCloseTo(0.2, 12);
     expect(screen.targets.map((t) => t.conductance).sort()).toEqual(['gM', 'gNa']);
     expect(await AuditEvent.count({ where: { entityType: 'target' } })).toBe(2);
   });
@@ -54,9 +54,9 @@ describe('screens and targets on the real database', () => {
 
   test.each([
     [{ neuronPreset: 'frog' }, 'neuronPreset', 'Choose a preset: hh-squid-1952, pospischil-rs-2008.'],
-    [{ capacitanceMaxPf: '0.5' }, 'capacitanceMaxPf', 'Must be above the minimum capacitance.'],
-    [{ exposuresUm: '1, -2' }, 'exposuresUm', 'Exposures must be above 0 µM.'],
-    [{ zprimeMin: 'high' }, 'zprimeMin', 'Enter Z′ as a number.'],
+    [{ capacitanceMax_pF: '0.5' }, 'capacitanceMax_pF', 'Must be above the minimum capacitance.'],
+    [{ exposures_uM: '1, -2' }, 'exposures_uM', 'Exposures must be above 0 µM.'],
+    [{ zPrimeMin: 'high' }, 'zPrimeMin', 'Enter Z′ as a number.'],
   ])('bad screen input %j names %s', (change, field, message) => {
     const result = screenSchema.safeParse({ ...form, ...change });
     expect(result.error?.issues.find((issue) => issue.path[0] === field)?.message).toBe(message);

@@ -1,5 +1,6 @@
 import { hashPassword } from '@/lib/auth/passwords';
-import type { Actor, Role } from '@/lib/auth/roles';
+import type { Actor } from '@/lib/auth/roles';
+import type { Role } from '@/lib/domain/roles';
 import { db } from '@/lib/db';
 import { User, UserRole } from '@/models';
 

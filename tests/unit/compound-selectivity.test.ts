@@ -11,8 +11,8 @@ function fit(target: string, status: ProfileFit['status'], value: number | null,
   return {
     fitId: `f${next}`, plateId: `p${next}`, plateLabel: `P${next}`, plateState: 'imported', approved: false, importedAt: '2026-11-01T00:00:00Z',
     screenId: 's', screenName: 'S', targetId: target, target, conductance: 'gNa', model: 'hill2', status, message: '',
-    ic50Um: status === 'fitted' ? value : null, ic50CiLowUm: null, ic50CiHighUm: null,
-    ic50LowerBoundUm: status === 'above_range' || status === 'inactive' ? value : null, hill: 1, r2: null, n: 16, ...extra,
+    ic50_uM: status === 'fitted' ? value : null, ic50CiLow_uM: null, ic50CiHigh_uM: null,
+    ic50LowerBound_uM: status === 'above_range' || status === 'inactive' ? value : null, hill: 1, r2: null, n: 16, ...extra,
   };
 }
 

@@ -19,7 +19,7 @@ const plate: BlockWell[] = [
   well('A02', 'vehicle', -1000, -800),
   well('A03', 'reference', -1000, -100),
   well('A04', 'reference', -2000, -100),
-  well('B01', 'compound', -2000, -850),
+  well('B01', 'test', -2000, -850),
 ];
 
 describe('fractional block', () => {
@@ -64,7 +64,7 @@ describe('fractional block', () => {
   });
 
   test('a well without both currents, or with a zero control, has no block', () => {
-    const [target] = computeFractionalBlock([...plate, well('B02', 'compound', null, -100), well('B03', 'compound', 0, -100)]);
+    const [target] = computeFractionalBlock([...plate, well('B02', 'test', null, -100), well('B03', 'test', 0, -100)]);
     expect(target!.wells.slice(-2).map((w) => [w.ratio, w.block])).toEqual([
       [null, null],
       [null, null],
@@ -72,7 +72,7 @@ describe('fractional block', () => {
   });
 
   test('without vehicle wells: no correction, and a note says why', () => {
-    const [target] = computeFractionalBlock([well('B01', 'compound', -2000, -850)], { normalise: true });
+    const [target] = computeFractionalBlock([well('B01', 'test', -2000, -850)], { normalise: true });
     expect(target!.rundownCorrected).toBe(false);
     expect(target!.normalised).toBe(false);
     expect(target!.notes.map((n) => n.code)).toEqual(['no_vehicle_wells', 'no_reference_wells']);

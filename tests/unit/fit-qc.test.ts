@@ -8,7 +8,7 @@ import { DEFAULT_QC_THRESHOLDS, resolveQcThresholds } from '@/lib/science/qc/qc-
 /** A well inside every default limit (values invented for the test). */
 const good: QcWell = {
   wellId: 'A01',
-  role: 'compound',
+  role: 'test',
   controlCurrent_pA: -1500,
   compoundCurrent_pA: -700,
   sealResistance_GOhm: 1.2,
@@ -29,7 +29,7 @@ describe('well QC', () => {
       seriesResistanceMax_MOhm: lei.seriesResistance_MOhm.max,
       capacitanceMin_pF: lei.capacitance_pF.min,
       capacitanceMax_pF: lei.capacitance_pF.max,
-      vehicleRundownMax: commonPractice.vehicleRundownMax_fraction,
+      vehicleRundownMax_fraction: commonPractice.vehicleRundownMax_fraction,
     });
   });
 

@@ -31,11 +31,11 @@ describe.each(PLATE_PLANS.map((plan) => [plan.file, plan] as const))('demo plate
         columnIndex: well.columnIndex,
         role: well.role,
         compound: well.compound,
-        concentrationUm: well.concentrationUm,
-        sealResistanceGohm: well.sealResistanceGohm,
-        seriesResistanceMohm: well.seriesResistanceMohm,
-        capacitancePf: well.capacitancePf,
-        readouts: [{ target: well.target, controlCurrentPa: well.controlCurrentPa, compoundCurrentPa: well.compoundCurrentPa, row: expect.any(Number) }],
+        concentration_uM: well.concentration_uM,
+        sealResistance_GOhm: well.sealResistance_GOhm,
+        seriesResistance_MOhm: well.seriesResistance_MOhm,
+        capacitance_pF: well.capacitance_pF,
+        readouts: [{ target: well.target, controlCurrent_pA: well.controlCurrent_pA, compoundCurrent_pA: well.compoundCurrent_pA, row: expect.any(Number) }],
       })),
     );
   });
@@ -59,12 +59,12 @@ test('the same seed gives the same plate; failing wells fail as planned', () => 
   expect(makeDemoPlate(plan!).bytes).toEqual(first.bytes);
   const byWell = new Map(first.wells.map((well) => [well.position, well]));
   // Thresholds the demo aims past: seal 0.5 GΩ, |control| 200 pA, series 25 MΩ (lib/science/qc/qc-thresholds.ts defaults).
-  expect(byWell.get('B03')!.sealResistanceGohm).toBeLessThan(0.5);
-  expect(Math.abs(byWell.get('E05')!.controlCurrentPa!)).toBeLessThan(200);
-  expect(byWell.get('G08')!.seriesResistanceMohm).toBeGreaterThan(25);
-  expect(byWell.get('C10')!.capacitancePf).toBeNull();
+  expect(byWell.get('B03')!.sealResistance_GOhm).toBeLessThan(0.5);
+  expect(Math.abs(byWell.get('E05')!.controlCurrent_pA!)).toBeLessThan(200);
+  expect(byWell.get('G08')!.seriesResistance_MOhm).toBeGreaterThan(25);
+  expect(byWell.get('C10')!.capacitance_pF).toBeNull();
   const healthy = first.wells.filter((well) => !well.failure);
-  expect(Math.min(...healthy.map((well) => well.sealResistanceGohm!))).toBeGreaterThanOrEqual(0.5);
-  expect(Math.min(...healthy.map((well) => Math.abs(well.controlCurrentPa!)))).toBeGreaterThanOrEqual(200);
-  expect(Math.max(...healthy.map((well) => well.seriesResistanceMohm!))).toBeLessThanOrEqual(25);
+  expect(Math.min(...healthy.map((well) => well.sealResistance_GOhm!))).toBeGreaterThanOrEqual(0.5);
+  expect(Math.min(...healthy.map((well) => Math.abs(well.controlCurrent_pA!)))).toBeGreaterThanOrEqual(200);
+  expect(Math.max(...healthy.map((well) => well.seriesResistance_MOhm!))).toBeLessThanOrEqual(25);
 });

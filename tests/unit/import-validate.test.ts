@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { guessMapping } from '@/lib/imports/guess-mapping';
-import type { PlateFormat } from '@/lib/imports/plate-format';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet } from '@/lib/imports/validate-plate-sheet';
 
@@ -71,7 +71,7 @@ describe('row errors name sheet, row and column', () => {
     const second = ['A01', 'GW-0001', 1000, 'Kv7.2', 800, 700, 1.2, 5, 15, 'test'];
     const ok = preview([HEADERS, GOOD, second]);
     expect(ok.ok).toBe(true);
-    expect(ok.plate?.wells[0]?.readouts.map((r) => [r.target, r.controlCurrentPa, r.compoundCurrentPa])).toEqual([
+    expect(ok.plate?.wells[0]?.readouts.map((r) => [r.target, r.controlCurrent_pA, r.compoundCurrent_pA])).toEqual([
       ['Nav1.7', -2000, -1000],
       ['Kv7.2', 800, 700],
     ]);
@@ -91,7 +91,7 @@ describe('row errors name sheet, row and column', () => {
         message: 'Sheet "Readouts", row 3, column G "Rseal (GOhm)": well A01 has 1.5 GΩ here but 1.2 GΩ in row 2; Gatewell keeps the value of row 2.',
       }),
     ]);
-    expect(result.plate?.wells[0]?.sealResistanceGohm).toBe(1.2);
+    expect(result.plate?.wells[0]?.sealResistance_GOhm).toBe(1.2);
   });
 
   test('unknown compounds are listed with their rows so a chemist can register them', () => {
@@ -149,8 +149,8 @@ describe('values and the plate', () => {
   test('missing cell properties and currents stay null without an error; QC judges them later', () => {
     const result = preview([HEADERS, GOOD, rowWith({ 'Rseal (GOhm)': null, 'Cm (pF)': 'NA', 'I compound [pA]': '' })]);
     expect(result.ok).toBe(true);
-    expect(result.plate?.wells[1]).toMatchObject({ position: 'B02', sealResistanceGohm: null, capacitancePf: null, seriesResistanceMohm: 5 });
-    expect(result.plate?.wells[1]?.readouts).toEqual([{ target: 'Nav1.7', controlCurrentPa: -2000, compoundCurrentPa: null, row: 3 }]);
+    expect(result.plate?.wells[1]).toMatchObject({ position: 'B02', sealResistance_GOhm: null, capacitance_pF: null, seriesResistance_MOhm: 5 });
+    expect(result.plate?.wells[1]?.readouts).toEqual([{ target: 'Nav1.7', controlCurrent_pA: -2000, compoundCurrent_pA: null, row: 3 }]);
   });
 
   test('roles come from the role column, else from the compound identifier', () => {
@@ -184,9 +184,9 @@ describe('values and the plate', () => {
     expect(result.ok).toBe(true);
     expect(result.plate).toMatchObject({ format: 96, formatSource: 'inferred', rows: 8, columns: 12, targets: ['Kv7.2'] });
     expect(result.plate?.wells).toEqual([
-      { position: 'A01', rowIndex: 0, columnIndex: 0, role: 'test', compound: 'GW-0001', concentrationUm: 0.3, sealResistanceGohm: 2, seriesResistanceMohm: 7, capacitancePf: 19, readouts: [{ target: 'Kv7.2', controlCurrentPa: 1250, compoundCurrentPa: 500, row: 3 }] },
-      { position: 'A02', rowIndex: 0, columnIndex: 1, role: 'vehicle', compound: 'DMSO', concentrationUm: null, sealResistanceGohm: 0.9, seriesResistanceMohm: 5, capacitancePf: 17, readouts: [{ target: 'Kv7.2', controlCurrentPa: 1000, compoundCurrentPa: 950, row: 4 }] },
-      { position: 'B01', rowIndex: 1, columnIndex: 0, role: 'test', compound: 'GW-0002', concentrationUm: 3000, sealResistanceGohm: 1.5, seriesResistanceMohm: 6.5, capacitancePf: 21, readouts: [{ target: 'Kv7.2', controlCurrentPa: 900, compoundCurrentPa: 450, row: 2 }] },
+      { position: 'A01', rowIndex: 0, columnIndex: 0, role: 'test', compound: 'GW-0001', concentration_uM: 0.3, sealResistance_GOhm: 2, seriesResistance_MOhm: 7, capacitance_pF: 19, readouts: [{ target: 'Kv7.2', controlCurrent_pA: 1250, compoundCurrent_pA: 500, row: 3 }] },
+      { position: 'A02', rowIndex: 0, columnIndex: 1, role: 'vehicle', compound: 'DMSO', concentration_uM: null, sealResistance_GOhm: 0.9, seriesResistance_MOhm: 5, capacitance_pF: 17, readouts: [{ target: 'Kv7.2', controlCurrent_pA: 1000, compoundCurrent_pA: 950, row: 4 }] },
+      { position: 'B01', rowIndex: 1, columnIndex: 0, role: 'test', compound: 'GW-0002', concentration_uM: 3000, sealResistance_GOhm: 1.5, seriesResistance_MOhm: 6.5, capacitance_pF: 21, readouts: [{ target: 'Kv7.2', controlCurrent_pA: 900, compoundCurrent_pA: 450, row: 2 }] },
     ]);
   });
 
@@ -194,7 +194,7 @@ describe('values and the plate', () => {
     const sheet: SheetData = { name: 'k', decimalComma: true, rows: [['Well', 'Compound', 'Conc (µM)', 'I control', 'I compound'], ['A1', 'GW-0001', '0,3', '812,5', '400,25']] };
     const mapping = guessMapping(sheet, { base: { fixedTarget: 'nav1.7' } }).mapping;
     const result = validatePlateSheet(sheet, mapping, OPTIONS);
-    expect(result.plate?.wells[0]).toMatchObject({ concentrationUm: 0.3, readouts: [{ target: 'Nav1.7', controlCurrentPa: 812.5, compoundCurrentPa: 400.25, row: 2 }] });
+    expect(result.plate?.wells[0]).toMatchObject({ concentration_uM: 0.3, readouts: [{ target: 'Nav1.7', controlCurrent_pA: 812.5, compoundCurrent_pA: 400.25, row: 2 }] });
   });
 
   test('format is inferred from the highest position', () => {

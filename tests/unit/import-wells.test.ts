@@ -1,5 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { describeFormat, fitsFormat, inferPlateFormat, parseWellPosition, wellLabel, type PlateFormat } from '@/lib/imports/plate-format';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
+import { describeFormat, fitsFormat, inferPlateFormat, parseWellPosition, wellLabel } from '@/lib/imports/plate-format';
 import { columnLetter } from '@/lib/imports/normalise-text';
 
 describe('parseWellPosition', () => {

@@ -8,12 +8,12 @@ describe('analysisInput', () => {
   test('maps each stored column to the quantity of the same name and unit, in order', () => {
     const input = analysisInput(
       [
-        { id: 'w1', role: 'test', compoundId: 'c1', concentrationUm: 3, sealResistanceGohm: 1.2, seriesResistanceMohm: 8, capacitancePf: 15, excluded: true },
-        { id: 'w2', role: 'vehicle', compoundId: null, concentrationUm: null, sealResistanceGohm: null, seriesResistanceMohm: null, capacitancePf: null },
+        { id: 'w1', role: 'test', compoundId: 'c1', concentration_uM: 3, sealResistance_GOhm: 1.2, seriesResistance_MOhm: 8, capacitance_pF: 15, excluded: true },
+        { id: 'w2', role: 'vehicle', compoundId: null, concentration_uM: null, sealResistance_GOhm: null, seriesResistance_MOhm: null, capacitance_pF: null },
       ],
       [
-        { id: 'r2', wellId: 'w2', targetId: 't1', controlCurrentPa: -900, compoundCurrentPa: -880 },
-        { id: 'r1', wellId: 'w1', targetId: 't1', controlCurrentPa: -1000, compoundCurrentPa: -400 },
+        { id: 'r2', wellId: 'w2', targetId: 't1', controlCurrent_pA: -900, compoundCurrent_pA: -880 },
+        { id: 'r1', wellId: 'w1', targetId: 't1', controlCurrent_pA: -1000, compoundCurrent_pA: -400 },
       ],
     );
     expect(input.wells).toEqual([
@@ -32,10 +32,10 @@ describe('parsedPlateInput', () => {
     const plate: ParsedPlate = {
       format: 96, formatSource: 'inferred', rows: 8, columns: 12, targets: ['Nav1.7', 'Kv7.2'],
       wells: [
-        { position: 'A1', rowIndex: 0, columnIndex: 0, role: 'vehicle', compound: null, concentrationUm: null, sealResistanceGohm: 2, seriesResistanceMohm: 6, capacitancePf: 12,
-          readouts: [{ target: 'Nav1.7', controlCurrentPa: -1500, compoundCurrentPa: -1450, row: 7 }] },
-        { position: 'A2', rowIndex: 0, columnIndex: 1, role: 'test', compound: 'GW-1', concentrationUm: 10, sealResistanceGohm: 0.4, seriesResistanceMohm: 30, capacitancePf: 40,
-          readouts: [{ target: 'Nav1.7', controlCurrentPa: -1200, compoundCurrentPa: -300, row: 9 }, { target: 'Kv7.2', controlCurrentPa: 800, compoundCurrentPa: null, row: 10 }] },
+        { position: 'A1', rowIndex: 0, columnIndex: 0, role: 'vehicle', compound: null, concentration_uM: null, sealResistance_GOhm: 2, seriesResistance_MOhm: 6, capacitance_pF: 12,
+          readouts: [{ target: 'Nav1.7', controlCurrent_pA: -1500, compoundCurrent_pA: -1450, row: 7 }] },
+        { position: 'A2', rowIndex: 0, columnIndex: 1, role: 'test', compound: 'GW-1', concentration_uM: 10, sealResistance_GOhm: 0.4, seriesResistance_MOhm: 30, capacitance_pF: 40,
+          readouts: [{ target: 'Nav1.7', controlCurrent_pA: -1200, compoundCurrent_pA: -300, row: 9 }, { target: 'Kv7.2', controlCurrent_pA: 800, compoundCurrent_pA: null, row: 10 }] },
       ],
     };
     const input = parsedPlateInput(plate);

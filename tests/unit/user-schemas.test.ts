@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { z } from 'zod';
-import { ROLES } from '@/lib/auth/roles';
+import { ROLES } from '@/lib/domain/roles';
 import { ROLE_CHOICES } from '@/components/users/role-choices';
 import { changeRolesSchema, createUserSchema, resetPasswordSchema } from '@/lib/validation/users';
 

@@ -5,6 +5,7 @@ import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { auditFilterChoices, searchAudit } from '@/lib/audit/search';
 import { requirePageRole } from '@/lib/auth/page-guard';
+import { rolesFor } from '@/lib/domain/roles';
 import { auditFilterSchema } from '@/lib/validation/audit';
 import { AuditFilterForm, type FilterValues } from './audit-filter-form';
 import { AuditGrid } from './audit-grid';
@@ -34,7 +35,7 @@ function exportHref(values: FilterValues, format: 'csv' | 'xlsx'): string {
 }
 
 export default async function AuditPage({ searchParams }: { searchParams: Promise<SearchParams> }) {
-  const actor = await requirePageRole('admin', 'approver');
+  const actor = await requirePageRole(...rolesFor('readAudit'));
   const params = await searchParams;
   const values = filterValues(params);
   const parsed = auditFilterSchema.safeParse(params);

@@ -5,7 +5,7 @@ import { CompoundGrid } from '@/components/compounds/compound-grid';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { listCompounds } from '@/lib/compounds/list';
 import { createCompoundAction } from './actions';
 
@@ -14,7 +14,7 @@ export const metadata: Metadata = { title: 'Compounds' };
 export default async function CompoundsPage() {
   const actor = await requireActor();
   const compounds = await listCompounds(actor);
-  const canRegister = hasRole(actor, 'chemist', 'admin');
+  const canRegister = can(actor, 'registerCompounds');
   return (
     <>
       <PageHeader title="Compounds" intro="The registry of compounds and batches that plates refer to." />

@@ -4,19 +4,20 @@ import { revalidatePath } from 'next/cache';
 import { redirect } from 'next/navigation';
 import { z } from 'zod';
 import { validatedAction } from '@/lib/actions/validated-action';
+import { rolesFor } from '@/lib/domain/roles';
 import { addTarget, createScreen, updateScreen } from '@/lib/screens/service';
 import { parseId } from '@/lib/validation/ids';
 import { screenSchema, targetSchema } from '@/lib/validation/screens';
 
 /** Creates a screen and opens it to add targets. */
-export const createScreenAction = validatedAction(screenSchema, ['admin'], async (input, actor) => {
+export const createScreenAction = validatedAction(screenSchema, rolesFor('manageScreens'), async (input, actor) => {
   const { id } = await createScreen(actor, input);
   revalidatePath('/screens');
   redirect(`/screens/${id}`);
 });
 
 /** Saves a screen's settings. */
-export const updateScreenAction = validatedAction(screenSchema.and(z.object({ screenId: z.string() })), ['admin'], async (input, actor) => {
+export const updateScreenAction = validatedAction(screenSchema.and(z.object({ screenId: z.string() })), rolesFor('manageScreens'), async (input, actor) => {
   const { screenId, ...fields } = input;
   await updateScreen(actor, parseId(screenId, 'screen'), fields);
   revalidatePath(`/screens/${screenId}`);
@@ -24,7 +25,7 @@ export const updateScreenAction = validatedAction(screenSchema.and(z.object({ sc
 });
 
 /** Adds a target to a screen. */
-export const addTargetAction = validatedAction(targetSchema.extend({ screenId: z.string() }), ['admin'], async (input, actor) => {
+export const addTargetAction = validatedAction(targetSchema.extend({ screenId: z.string() }), rolesFor('manageScreens'), async (input, actor) => {
   const { screenId, ...fields } = input;
   await addTarget(actor, parseId(screenId, 'screen'), fields);
   revalidatePath(`/screens/${screenId}`);

@@ -3,7 +3,7 @@ import { AppLink } from '@/components/ui/app-link';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { listScreens } from '@/lib/screens/list';
 
 export const metadata: Metadata = { title: 'Screens' };
@@ -20,7 +20,7 @@ function Threshold({ label, value }: { label: string; value: string }) {
 export default async function ScreensPage() {
   const actor = await requireActor();
   const screens = await listScreens(actor);
-  const actions = hasRole(actor, 'admin') ? <AppLink href="/screens/new" className="gw-button">New screen</AppLink> : undefined;
+  const actions = can(actor, 'manageScreens') ? <AppLink href="/screens/new" className="gw-button">New screen</AppLink> : undefined;
   if (!screens.length) {
     return (
       <>
@@ -52,15 +52,15 @@ export default async function ScreensPage() {
             </ul>
             <h3 className="mt-4 text-sm font-semibold">Quality limits</h3>
             <dl className="mt-2 grid grid-cols-2 gap-3 text-sm sm:grid-cols-3">
-              <Threshold label="Seal resistance ≥" value={`${screen.sealMinGohm} GΩ`} />
-              <Threshold label="Control current ≥" value={`${screen.controlCurrentMinPa} pA`} />
-              <Threshold label="Series resistance ≤" value={`${screen.seriesMaxMohm} MΩ`} />
-              <Threshold label="Capacitance" value={`${screen.capacitanceMinPf}–${screen.capacitanceMaxPf} pF`} />
-              <Threshold label="Vehicle run-down ≤" value={`${Math.round(screen.rundownMaxFraction * 100)} %`} />
-              <Threshold label="Plate Z′ ≥" value={String(screen.zprimeMin)} />
+              <Threshold label="Seal resistance ≥" value={`${screen.sealResistanceMin_GOhm} GΩ`} />
+              <Threshold label="Control current ≥" value={`${screen.controlCurrentMin_pA} pA`} />
+              <Threshold label="Series resistance ≤" value={`${screen.seriesResistanceMax_MOhm} MΩ`} />
+              <Threshold label="Capacitance" value={`${screen.capacitanceMin_pF}–${screen.capacitanceMax_pF} pF`} />
+              <Threshold label="Vehicle run-down ≤" value={`${Math.round(screen.vehicleRundownMax_fraction * 100)} %`} />
+              <Threshold label="Plate Z′ ≥" value={String(screen.zPrimeMin)} />
             </dl>
             <p className="mt-4 text-xs text-ink-500">
-              Exposures of interest: {screen.exposuresUm.length ? screen.exposuresUm.map((c) => `${c} µM`).join(', ') : 'none set'}
+              Exposures of interest: {screen.exposures_uM.length ? screen.exposures_uM.map((c) => `${c} µM`).join(', ') : 'none set'}
             </p>
           </section>
         ))}

@@ -1,6 +1,7 @@
 import { NextResponse } from 'next/server';
 import { withUser } from '@/lib/api/handler';
 import { searchAudit } from '@/lib/audit/search';
+import { rolesFor } from '@/lib/domain/roles';
 
 export const dynamic = 'force-dynamic';
 
@@ -10,5 +11,5 @@ export const dynamic = 'force-dynamic';
  */
 export const GET = withUser(
   async (request, actor) => NextResponse.json(await searchAudit(actor, Object.fromEntries(request.nextUrl.searchParams))),
-  { roles: ['admin', 'approver'] },
+  { roles: rolesFor('readAudit') },
 );

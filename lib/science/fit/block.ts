@@ -22,7 +22,7 @@ export interface BlockOptions {
   /** Rescale block so that the vehicle mean is 0 and the reference-blocker mean is 1. @default false */
   normalise?: boolean;
   /** The screen's lowest acceptable Z′. @default 0.5 (Gatewell design, section 4) */
-  zPrimeLimit?: number;
+  zPrimeMin?: number;
 }
 
 export interface WellBlock {
@@ -55,18 +55,18 @@ export interface TargetBlock {
 export function computeFractionalBlock(wells: readonly BlockWell[], options: BlockOptions = {}): TargetBlock[] {
   const rundownCorrection = options.rundownCorrection ?? true;
   const normalise = options.normalise ?? false;
-  const zPrimeLimit = options.zPrimeLimit ?? 0.5;
-  if (!Number.isFinite(zPrimeLimit)) throw new RangeError(`zPrimeLimit must be a finite number, got ${zPrimeLimit}`);
+  const zPrimeMin = options.zPrimeMin ?? 0.5;
+  if (!Number.isFinite(zPrimeMin)) throw new RangeError(`zPrimeMin must be a finite number, got ${zPrimeMin}`);
   const byTarget = new Map<string, BlockWell[]>();
   for (const well of wells) {
     const group = byTarget.get(well.target);
     if (group) group.push(well);
     else byTarget.set(well.target, [well]);
   }
-  return [...byTarget].map(([target, group]) => targetBlock(target, group, rundownCorrection, normalise, zPrimeLimit));
+  return [...byTarget].map(([target, group]) => targetBlock(target, group, rundownCorrection, normalise, zPrimeMin));
 }
 
-function targetBlock(target: string, group: readonly BlockWell[], rundownCorrection: boolean, normalise: boolean, zPrimeLimit: number): TargetBlock {
+function targetBlock(target: string, group: readonly BlockWell[], rundownCorrection: boolean, normalise: boolean, zPrimeMin: number): TargetBlock {
   const notes: TargetBlock['notes'] = [];
   const ratios = group.map((w) => ratioOf(w));
   const inUse = (role: WellRole, values: readonly (number | null)[]) =>
@@ -98,7 +98,7 @@ function targetBlock(target: string, group: readonly BlockWell[], rundownCorrect
     normalised,
     vehicleMeanRatio,
     wells: group.map((w, i) => ({ wellId: w.wellId, role: w.role, excluded: w.excluded, ratio: ratios[i] ?? null, block: blocks[i] ?? null })),
-    zPrime: plateZPrime(inUse('reference', blocks), inUse('vehicle', blocks), zPrimeLimit),
+    zPrime: plateZPrime(inUse('reference', blocks), inUse('vehicle', blocks), zPrimeMin),
     notes,
   };
 }

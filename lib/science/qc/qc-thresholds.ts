@@ -19,7 +19,7 @@ export interface QcThresholds {
    * Largest run-down in a vehicle well, 1 − I_compound/I_control (fraction).
    * @default 0.2 (common practice, no source)
    */
-  vehicleRundownMax: number | null;
+  vehicleRundownMax_fraction: number | null;
 }
 
 export const DEFAULT_QC_THRESHOLDS: Readonly<QcThresholds> = Object.freeze({
@@ -30,7 +30,7 @@ export const DEFAULT_QC_THRESHOLDS: Readonly<QcThresholds> = Object.freeze({
   seriesResistanceMax_MOhm: 25,
   capacitanceMin_pF: 1,
   capacitanceMax_pF: 100,
-  vehicleRundownMax: 0.2,
+  vehicleRundownMax_fraction: 0.2,
 });
 
 /** A screen's thresholds over the defaults; throws RangeError naming a threshold that is not a finite number ≥ 0 or a min above its max. */

@@ -1,19 +1,13 @@
 // Well QC: each well against the screen's thresholds, with every reason it fails.
+import { READOUT_LABEL, type QcField } from './quantities';
 import { resolveQcThresholds, type QcThresholds } from './qc-thresholds';
 import type { RawValue, WellRole } from './well';
 
-/** The readouts of one well, as imported (values may be missing or text). */
-export interface QcWell {
+/** The readouts of one well (QC_FIELDS, ./quantities.ts), as imported: values may be missing or text. */
+export interface QcWell extends Record<QcField, RawValue> {
   wellId: string;
   role: WellRole;
-  controlCurrent_pA: RawValue;
-  compoundCurrent_pA: RawValue;
-  sealResistance_GOhm: RawValue;
-  seriesResistance_MOhm: RawValue;
-  capacitance_pF: RawValue;
 }
-
-export type QcField = 'controlCurrent_pA' | 'compoundCurrent_pA' | 'sealResistance_GOhm' | 'seriesResistance_MOhm' | 'capacitance_pF';
 
 export type QcReasonCode =
   | 'missing_value'
@@ -38,14 +32,6 @@ export interface QcResult {
   passed: boolean;
   reasons: QcReason[];
 }
-
-const LABELS: Record<QcField, [string, string]> = {
-  controlCurrent_pA: ['control current', 'pA'],
-  compoundCurrent_pA: ['compound current', 'pA'],
-  sealResistance_GOhm: ['seal resistance', 'GΩ'],
-  seriesResistance_MOhm: ['series resistance', 'MΩ'],
-  capacitance_pF: ['capacitance', 'pF'],
-};
 
 /** Checks every well against the screen's thresholds (defaults where not given); one result per well, in order. */
 export function checkWells(wells: readonly QcWell[], thresholds?: Partial<QcThresholds>): QcResult[] {
@@ -81,10 +67,10 @@ function checkWell(well: QcWell, t: QcThresholds): QcResult {
   if (capacitance !== null && outside(capacitance, t.capacitanceMin_pF, t.capacitanceMax_pF)) {
     say('capacitance_out_of_range', 'capacitance_pF', `Capacitance ${capacitance} pF is outside the range ${t.capacitanceMin_pF ?? '–'} to ${t.capacitanceMax_pF ?? '–'} pF.`);
   }
-  if (well.role === 'vehicle' && control !== null && compound !== null && control !== 0 && t.vehicleRundownMax !== null) {
+  if (well.role === 'vehicle' && control !== null && compound !== null && control !== 0 && t.vehicleRundownMax_fraction !== null) {
     const rundown = 1 - compound / control;
-    if (rundown > t.vehicleRundownMax) {
-      say('vehicle_rundown', null, `Vehicle well ran down by ${Math.round(rundown * 100)} %, more than the limit of ${Math.round(t.vehicleRundownMax * 100)} %.`);
+    if (rundown > t.vehicleRundownMax_fraction) {
+      say('vehicle_rundown', null, `Vehicle well ran down by ${Math.round(rundown * 100)} %, more than the limit of ${Math.round(t.vehicleRundownMax_fraction * 100)} %.`);
     }
   }
   return { wellId: well.wellId, passed: reasons.length === 0, reasons };
@@ -93,13 +79,13 @@ function checkWell(well: QcWell, t: QcThresholds): QcResult {
 /** The field as a finite number, or null after recording why it is missing or not a number. */
 function numeric(well: QcWell, field: QcField, reasons: QcReason[]): number | null {
   const value = well[field];
-  const [label] = LABELS[field];
+  const { label, unit } = READOUT_LABEL[field];
   if (value === null || value === undefined || (typeof value === 'string' && value.trim() === '')) {
     reasons.push({ code: 'missing_value', field, message: `The ${label} is missing.` });
     return null;
   }
   if (typeof value !== 'number' || !Number.isFinite(value)) {
-    reasons.push({ code: 'non_numeric_value', field, message: `The ${label} (${JSON.stringify(String(value))}) is not a number in ${LABELS[field][1]}.` });
+    reasons.push({ code: 'non_numeric_value', field, message: `The ${label} (${JSON.stringify(String(value))}) is not a number in ${unit}.` });
     return null;
   }
   return value;

@@ -3,12 +3,13 @@
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
 import { validatedAction } from '@/lib/actions/validated-action';
+import { rolesFor } from '@/lib/domain/roles';
 import { hurryWaitingMail, requeueMail } from '@/lib/mail/admin';
 import { sendDueMailNow } from '@/lib/mail/sender-loop';
 import { parseId } from '@/lib/validation/ids';
 
 /** Puts a failed message back in the queue and tries it at once. */
-export const requeueMailAction = validatedAction(z.object({ messageId: z.string() }), ['admin'], async (input, actor) => {
+export const requeueMailAction = validatedAction(z.object({ messageId: z.string() }), rolesFor('manageMail'), async (input, actor) => {
   await requeueMail(actor, parseId(input.messageId, 'message'));
   await sendDueMailNow();
   revalidatePath('/admin/outbox');
@@ -16,7 +17,7 @@ export const requeueMailAction = validatedAction(z.object({ messageId: z.string(
 });
 
 /** Brings every waiting message forward and runs a delivery pass now, instead of waiting for retries. */
-export const sendWaitingMailAction = validatedAction(z.object({}), ['admin'], async (_input, actor) => {
+export const sendWaitingMailAction = validatedAction(z.object({}), rolesFor('manageMail'), async (_input, actor) => {
   const hurried = await hurryWaitingMail(actor);
   await sendDueMailNow();
   revalidatePath('/admin/outbox');

@@ -5,6 +5,7 @@ import { OutboxTable } from '@/components/mail/outbox-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
+import { rolesFor } from '@/lib/domain/roles';
 import { listOutbox, outboxCounts } from '@/lib/mail/admin';
 import { MAIL_STATES, type MailState } from '@/models/mail-message';
 import { requeueMailAction, sendWaitingMailAction } from './actions';
@@ -16,7 +17,7 @@ const FILTERS: { state: MailState | undefined; label: string }[] = [
 ];
 
 export default async function OutboxPage({ searchParams }: { searchParams: Promise<{ state?: string }> }) {
-  const actor = await requirePageRole('admin');
+  const actor = await requirePageRole(...rolesFor('manageMail'));
   const wanted = (await searchParams).state;
   const state = MAIL_STATES.find((s) => s === wanted);
   const [rows, counts] = await Promise.all([listOutbox(actor, { state }), outboxCounts(actor)]);

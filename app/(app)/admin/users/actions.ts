@@ -4,6 +4,7 @@ import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
 import { validatedAction } from '@/lib/actions/validated-action';
 import { INVITATION_LIFETIME_MS } from '@/lib/auth/password-link';
+import { rolesFor } from '@/lib/domain/roles';
 import { sendDueMailNow } from '@/lib/mail/sender-loop';
 import { changeRoles } from '@/lib/users/change-roles';
 import { createUser } from '@/lib/users/create';
@@ -20,7 +21,7 @@ function refresh(userId?: string) {
  * Creates an account; with a link, the person is e-mailed one at once; else a generated initial password
  * comes back once, for the admin to hand over.
  */
-export const createUserAction = validatedAction(createUserSchema, ['admin'], async (input, actor) => {
+export const createUserAction = validatedAction(createUserSchema, rolesFor('manageUsers'), async (input, actor) => {
   const { user, initialPassword, invited } = await createUser(actor, input);
   refresh();
   if (invited && process.env.GATEWELL_MAIL_SENDER !== 'off') void sendDueMailNow();
@@ -31,7 +32,7 @@ export const createUserAction = validatedAction(createUserSchema, ['admin'], asy
 });
 
 /** Replaces a user's roles, with the reason kept in the audit trail. */
-export const changeRolesAction = validatedAction(changeRolesSchema, ['admin'], async (input, actor) => {
+export const changeRolesAction = validatedAction(changeRolesSchema, rolesFor('manageUsers'), async (input, actor) => {
   const user = await changeRoles(actor, input);
   refresh(user.id);
   return { ok: true, message: `Roles saved: ${user.roles.join(', ') || 'none (read only)'}.` };
@@ -40,7 +41,7 @@ export const changeRolesAction = validatedAction(changeRolesSchema, ['admin'], a
 /** Disables an account (ending its sessions) or enables it again, with the reason kept in the audit trail. */
 export const setUserStatusAction = validatedAction(
   userStatusSchema.extend({ status: z.enum(['enabled', 'disabled'], 'Choose enabled or disabled.') }),
-  ['admin'],
+  rolesFor('manageUsers'),
   async ({ status, ...input }, actor) => {
     const user = status === 'disabled' ? await disableUser(actor, input) : await enableUser(actor, input);
     refresh(user.id);
@@ -52,7 +53,7 @@ export const setUserStatusAction = validatedAction(
 );
 
 /** Sets a new password for someone and ends their sessions; a generated one comes back once. */
-export const resetPasswordAction = validatedAction(resetPasswordSchema, ['admin'], async (input, actor) => {
+export const resetPasswordAction = validatedAction(resetPasswordSchema, rolesFor('manageUsers'), async (input, actor) => {
   const { user, temporaryPassword } = await resetPassword(actor, input);
   refresh(user.id);
   return { ok: true, message: `New password set for ${user.name}; their sessions have ended.`, temporaryPassword };

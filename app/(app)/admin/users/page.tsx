@@ -2,13 +2,14 @@ import type { Metadata } from 'next';
 import { AppLink } from '@/components/ui/app-link';
 import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
+import { rolesFor } from '@/lib/domain/roles';
 import { listUsers } from '@/lib/users/list';
 import { UsersGrid } from './users-grid';
 
 export const metadata: Metadata = { title: 'Users' };
 
 export default async function UsersPage() {
-  const actor = await requirePageRole('admin');
+  const actor = await requirePageRole(...rolesFor('manageUsers'));
   const users = await listUsers(actor);
   const enabled = users.filter((user) => !user.disabledAt).length;
   return (

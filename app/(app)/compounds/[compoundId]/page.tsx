@@ -6,7 +6,7 @@ import { CompoundForm } from '@/components/compounds/compound-form';
 import { DataTable } from '@/components/ui/data-table';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { getCompound } from '@/lib/compounds/service';
 import { isAppError } from '@/lib/errors';
 import { parseId } from '@/lib/validation/ids';
@@ -26,7 +26,7 @@ async function load(compoundId: string) {
 
 export default async function CompoundPage({ params }: { params: Promise<{ compoundId: string }> }) {
   const { actor, compound } = await load((await params).compoundId);
-  const canEdit = hasRole(actor, 'chemist', 'admin');
+  const canEdit = can(actor, 'registerCompounds');
   return (
     <>
       <PageHeader title={compound.identifier} intro={compound.name || 'No name recorded.'} actions={<AppLink className="gw-button" href={`/compounds/${compound.id}/profile`}>Profile across plates</AppLink>} />
@@ -46,8 +46,8 @@ export default async function CompoundPage({ params }: { params: Promise<{ compo
         {compound.batches.length ? (
           <DataTable caption="Batches" rows={compound.batches} rowKey={(b) => b.id} columns={[
             { header: 'Lot', cell: (b) => <span className="font-mono">{b.lot}</span> },
-            { header: 'Purity (%)', cell: (b) => b.purityPercent ?? '—', align: 'right' },
-            { header: 'Stock (mM)', cell: (b) => b.stockConcentrationMm ?? '—', align: 'right' },
+            { header: 'Purity (%)', cell: (b) => b.purity_percent ?? '—', align: 'right' },
+            { header: 'Stock (mM)', cell: (b) => b.stockConcentration_mM ?? '—', align: 'right' },
             { header: 'Solvent', cell: (b) => b.solvent },
           ]} />
         ) : (

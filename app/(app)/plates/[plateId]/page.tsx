@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { QcSummary } from '@/components/plates/qc-summary';
 import { WellsPanel } from '@/components/plates/wells-panel';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { loadPlate } from './plate-header';
 
 export const metadata: Metadata = { title: 'Plate' };
@@ -11,7 +11,7 @@ export default async function PlateWellsPage({ params }: { params: Promise<{ pla
   return (
     <div className="space-y-8">
       <QcSummary header={header} />
-      <WellsPanel plateId={header.id} format={header.format} canEdit={hasRole(actor, 'biologist')} />
+      <WellsPanel plateId={header.id} format={header.format} canEdit={can(actor, 'reviewPlates')} />
     </div>
   );
 }

@@ -3,13 +3,14 @@ import { ImportWizard } from '@/components/imports/import-wizard';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
+import { rolesFor } from '@/lib/domain/roles';
 import { listTemplates } from '@/lib/plates/templates';
 import { listScreens } from '@/lib/screens/list';
 
 export const metadata: Metadata = { title: 'Import a plate' };
 
 export default async function ImportPage() {
-  const actor = await requirePageRole('biologist');
+  const actor = await requirePageRole(...rolesFor('importPlates'));
   const [screens, templates] = await Promise.all([listScreens(actor), listTemplates(actor)]);
   const usable = screens.filter((s) => s.targets.length > 0).map((s) => ({ id: s.id, name: s.name, targets: s.targets.map((t) => t.name) }));
   return (

@@ -5,7 +5,7 @@ import { TargetForm } from '@/components/screens/target-form';
 import { DataTable } from '@/components/ui/data-table';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { isAppError } from '@/lib/errors';
 import { getScreen } from '@/lib/screens/list';
 import { parseId } from '@/lib/validation/ids';
@@ -21,7 +21,7 @@ export default async function ScreenPage({ params }: { params: Promise<{ screenI
     if (isAppError(error) && error.code === 'not_found') notFound();
     throw error;
   });
-  const isAdmin = hasRole(actor, 'admin');
+  const isAdmin = can(actor, 'manageScreens');
   return (
     <>
       <PageHeader title={screen.name} intro={screen.description || undefined} />

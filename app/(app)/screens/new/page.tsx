@@ -3,7 +3,7 @@ import { notFound } from 'next/navigation';
 import { ScreenForm } from '@/components/screens/screen-form';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { createScreenAction } from '../actions';
 import { PRESET_OPTIONS } from '../presets';
 
@@ -11,7 +11,7 @@ export const metadata: Metadata = { title: 'New screen' };
 
 export default async function NewScreenPage() {
   const actor = await requireActor();
-  if (!hasRole(actor, 'admin')) notFound();
+  if (!can(actor, 'manageScreens')) notFound();
   return (
     <>
       <PageHeader title="New screen" intro="A campaign: the neuron preset its forecasts use, QC limits and exposures. Targets are added next." />

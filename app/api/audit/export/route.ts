@@ -1,4 +1,5 @@
 import { withUser } from '@/lib/api/handler';
+import { rolesFor } from '@/lib/domain/roles';
 import { auditExport } from '@/lib/exports/audit-export';
 import { auditedExportResponse } from '@/lib/exports/respond';
 import { auditExportQuerySchema } from '@/lib/validation/exports';
@@ -17,4 +18,4 @@ export const GET = withUser(async (request, actor) => {
   return auditedExportResponse(actor, document, query, `gatewell-audit-trail-${new Date().toISOString().slice(0, 10)}`, {
     entityType: 'audit_trail', entityId: null, details: { filter: document.about.find(([key]) => key === 'Filter')?.[1] ?? null },
   });
-}, { roles: ['admin', 'approver'] });
+}, { roles: rolesFor('readAudit') });

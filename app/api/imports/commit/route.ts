@@ -1,6 +1,7 @@
 import { NextResponse } from 'next/server';
 import { withUser } from '@/lib/api/handler';
 import { readUpload } from '@/lib/api/upload';
+import { rolesFor } from '@/lib/domain/roles';
 import { awaitImport, queueImport } from '@/lib/plates/import-jobs';
 import { commitFieldsSchema } from '@/lib/validation/imports';
 
@@ -21,4 +22,4 @@ export const POST = withUser(async (request, actor) => {
     );
   }
   return NextResponse.json({ plateId: result.plateId, href: `/plates/${result.plateId}` }, { status: 201 });
-}, { roles: ['biologist'] });
+}, { roles: rolesFor('importPlates') });

@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { withUser } from '@/lib/api/handler';
+import { rolesFor } from '@/lib/domain/roles';
 import { withImportSlot } from '@/lib/imports/import-slots';
 import { readUpload } from '@/lib/api/upload';
 import { inspectUpload } from '@/lib/plates/import-service';
@@ -9,4 +10,4 @@ import { inspectFieldsSchema } from '@/lib/validation/imports';
 export const POST = withUser(async (request, actor) => {
   const { fields, ...file } = await readUpload(request, inspectFieldsSchema);
   return NextResponse.json(await withImportSlot(() => inspectUpload(actor, { screenId: fields.screenId, ...file })));
-}, { roles: ['biologist'] });
+}, { roles: rolesFor('importPlates') });

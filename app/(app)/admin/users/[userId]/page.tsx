@@ -4,6 +4,7 @@ import { notFound } from 'next/navigation';
 import type { ReactNode } from 'react';
 import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
+import { rolesFor } from '@/lib/domain/roles';
 import { MIN_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
 import { isAppError } from '@/lib/errors';
 import { getUser } from '@/lib/users/list';
@@ -27,7 +28,7 @@ function Panel({ id, title, children }: { id: string; title: string; children: R
 }
 
 export default async function UserPage({ params }: { params: Promise<{ userId: string }> }) {
-  const actor = await requirePageRole('admin');
+  const actor = await requirePageRole(...rolesFor('manageUsers'));
   const user = await getUser(actor, (await params).userId).catch((error: unknown) => {
     if (isAppError(error) && error.code === 'not_found') notFound();
     throw error;

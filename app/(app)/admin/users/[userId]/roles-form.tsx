@@ -5,7 +5,7 @@ import { Field, FormMessage } from '@/components/forms/field';
 import { useFormAction } from '@/components/forms/use-form-action';
 import { RoleCheckboxes } from '@/components/users/role-checkboxes';
 import type { ActionState } from '@/lib/actions/validated-action';
-import type { Role } from '@/models/user-role';
+import type { Role } from '@/lib/domain/roles';
 
 type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 

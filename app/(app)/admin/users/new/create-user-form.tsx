@@ -7,7 +7,7 @@ import { useFormAction } from '@/components/forms/use-form-action';
 import { OneTimePassword } from '@/components/users/one-time-password';
 import { RoleCheckboxes } from '@/components/users/role-checkboxes';
 import type { ActionState } from '@/lib/actions/validated-action';
-import type { Role } from '@/models/user-role';
+import type { Role } from '@/lib/domain/roles';
 
 export type CreateUserState = ActionState & { userId?: string; userName?: string; initialPassword?: string | null; invited?: boolean };
 type Action = (state: CreateUserState, formData: FormData) => Promise<CreateUserState>;

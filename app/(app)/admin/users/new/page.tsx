@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import { AppLink } from '@/components/ui/app-link';
 import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
+import { rolesFor } from '@/lib/domain/roles';
 import { INVITATION_LIFETIME_MS } from '@/lib/auth/password-link';
 import { MIN_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
 import { createUserAction } from '../actions';
@@ -10,7 +11,7 @@ import { CreateUserForm } from './create-user-form';
 export const metadata: Metadata = { title: 'Create user' };
 
 export default async function CreateUserPage() {
-  await requirePageRole('admin');
+  await requirePageRole(...rolesFor('manageUsers'));
   return (
     <>
       <PageHeader

@@ -9,7 +9,7 @@ import { ForecastCaution } from '@/components/forecast/forecast-caution';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { getCompoundProfile } from '@/lib/compounds/profile';
 import { isAppError } from '@/lib/errors';
 import { parseId } from '@/lib/validation/ids';
@@ -42,7 +42,7 @@ export default async function CompoundProfilePage({ params }: { params: Promise<
       {!fits.length ? (
         <EmptyState title="No fits yet">
           {compound.identifier} has not been on an imported plate. Its fits appear here once a plate that holds it is imported
-          {hasRole(actor, 'biologist') ? <>: <AppLink className="underline" href="/plates/import">import a plate</AppLink>.</> : ' by a biologist.'}
+          {can(actor, 'importPlates') ? <>: <AppLink className="underline" href="/plates/import">import a plate</AppLink>.</> : ' by a biologist.'}
         </EmptyState>
       ) : (
         <div className="space-y-8">

@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import { FitsPanel } from '@/components/fits/fits-panel';
-import { hasRole } from '@/lib/auth/roles';
+import { can } from '@/lib/auth/roles';
 import { loadPlate } from '../plate-header';
 
 export const metadata: Metadata = { title: 'Plate fits' };
@@ -14,7 +14,7 @@ export default async function PlateFitsPage({ params }: { params: Promise<{ plat
         Hill fits of fractional block per compound and target. Filled points are used; hollow points failed QC or were excluded.
         The band is the pointwise 95 % confidence band of the fitted curve; the IC50 interval uses the t distribution on log10 IC50.
       </p>
-      <FitsPanel plateId={header.id} canEdit={hasRole(actor, 'biologist')} />
+      <FitsPanel plateId={header.id} canEdit={can(actor, 'reviewPlates')} />
     </section>
   );
 }

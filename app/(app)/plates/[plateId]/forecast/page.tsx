@@ -6,7 +6,7 @@ export const metadata: Metadata = { title: 'Plate forecast' };
 
 export default async function PlateForecastPage({ params }: { params: Promise<{ plateId: string }> }) {
   const { header } = await loadPlate((await params).plateId);
-  const exposures = [...header.exposuresUm].sort((a, b) => a - b).map((c) => `${c} µM`).join(', ');
+  const exposures = [...header.exposures_uM].sort((a, b) => a - b).map((c) => `${c} µM`).join(', ');
   return (
     <section aria-labelledby="forecast-heading">
       <h2 id="forecast-heading" className="mb-1 text-lg font-semibold">Excitability forecast</h2>

@@ -4,9 +4,9 @@ import { revalidatePath } from 'next/cache';
 import { after } from 'next/server';
 import { z } from 'zod';
 import { validatedAction } from '@/lib/actions/validated-action';
+import { PLATE_STATE_PHRASE } from '@/lib/domain/plate-states';
 import { sendDueMailNow } from '@/lib/mail/sender-loop';
 import { signPlateStep } from '@/lib/signoff/service';
-import { STATE_WORDS } from '@/lib/signoff/refusals';
 import { parseId } from '@/lib/validation/ids';
 import { signoffRequestSchema } from '@/lib/validation/signoff';
 
@@ -19,5 +19,5 @@ export const signPlateStepAction = validatedAction(signoffRequestSchema.and(z.ob
   revalidatePath('/');
   // The mail is queued with the signature and sent just after, with retries (the outbox shows where it stands).
   const notice = result.notified === 0 ? 'nobody else needs a notice' : `a notice to ${result.notified === 1 ? '1 person' : `${result.notified} people`} is on its way by e-mail`;
-  return { ok: true, message: `Signed. Plate ${result.label} is now ${STATE_WORDS[result.state]}; ${notice}.` };
+  return { ok: true, message: `Signed. Plate ${result.label} is now ${PLATE_STATE_PHRASE[result.state]}; ${notice}.` };
 });

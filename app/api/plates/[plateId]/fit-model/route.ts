@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { withUser } from '@/lib/api/handler';
+import { rolesFor } from '@/lib/domain/roles';
 import { setFitModel } from '@/lib/plates/review';
 import { parseId } from '@/lib/validation/ids';
 import { fitModelSchema } from '@/lib/validation/plates';
@@ -9,4 +10,4 @@ export const POST = withUser<{ plateId: string }>(async (request, actor, { param
   const plateId = parseId((await params).plateId, 'plate');
   const input = fitModelSchema.parse(await request.json().catch(() => ({})));
   return NextResponse.json(await setFitModel(actor, plateId, input));
-}, { roles: ['biologist'] });
+}, { roles: rolesFor('reviewPlates') });
