@@ -1,3 +1,4 @@
+import 'server-only';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 /** One entry of the append-only audit trail (the database refuses UPDATE and DELETE). */

@@ -1,3 +1,4 @@
+import 'server-only';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 /** A batch (lot) of a compound with its purity, stock concentration and solvent. */

@@ -1,3 +1,4 @@
+import 'server-only';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 /** A registered compound; its identifier is unique regardless of case. */

@@ -1,8 +1,8 @@
+import 'server-only';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-import type { ComputeJobKind, ComputeJobState } from './compute-job-kinds';
+import type { ComputeJobKind, ComputeJobState } from '@/lib/domain/jobs';
 
-export { COMPUTE_JOB_KINDS, COMPUTE_JOB_STATES, type ComputeJobKind, type ComputeJobState } from './compute-job-kinds';
 
 /** What Gatewell shows of one queued fit or forecast job; the id is the job's id on the queue. */
 export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreationAttributes<ComputeJob>> {

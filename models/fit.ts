@@ -1,9 +1,7 @@
+import 'server-only';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-export const FIT_MODELS = ['hill2', 'hill4'] as const;
-export type FitModel = (typeof FIT_MODELS)[number];
-export const FIT_STATUSES = ['fitted', 'above_range', 'inactive', 'insufficient', 'not_converged'] as const;
-export type FitStatus = (typeof FIT_STATUSES)[number];
+import type { FitModel, FitStatus } from '@/lib/domain/fits';
 
 /** The Hill fit of one compound on one target of one plate. */
 export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit>> {

@@ -1,3 +1,4 @@
+import 'server-only';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 /** A stored excitability forecast for one compound, keyed by the SHA-256 of its input. */

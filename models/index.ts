@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Sequelize } from 'sequelize';
 import { AuditEvent } from './audit-event';
 import { Batch } from './batch';

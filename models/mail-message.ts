@@ -1,11 +1,7 @@
+import 'server-only';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-export const MAIL_KINDS = ['plate_imported', 'plate_verified', 'plate_submitted', 'plate_approved', 'plate_rejected', 'plate_reopened', 'password_link', 'account_invitation'] as const;
-export type MailKind = (typeof MAIL_KINDS)[number];
-/** Kinds whose message carries a password link: cut from the outbox's copy once sent, never sent again. */
-export const LINK_MAIL_KINDS: readonly MailKind[] = ['password_link', 'account_invitation'];
-export const MAIL_STATES = ['queued', 'sent', 'failed'] as const;
-export type MailState = (typeof MAIL_STATES)[number];
+import type { MailKind, MailState } from '@/lib/domain/mail';
 
 /** One notification in the mail outbox: queued with the change that caused it, sent later with retries. */
 export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreationAttributes<MailMessage>> {

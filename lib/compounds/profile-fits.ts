@@ -1,6 +1,6 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
-import type { FitStatus } from '@/models/fit';
+import type { FitStatus } from '@/lib/domain/fits';
 import { selectCompoundFits, type ProfileFit } from './queries';
 
 export type { ProfileFit } from './queries';

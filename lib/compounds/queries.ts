@@ -1,7 +1,7 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { db } from '@/lib/db';
-import type { FitModel, FitStatus } from '@/models/fit';
+import type { FitModel, FitStatus } from '@/lib/domain/fits';
 import type { PlateState } from '@/lib/domain/plate-states';
 
 /** One fit of a compound on one plate, with where it stands in sign-off. */

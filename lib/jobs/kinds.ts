@@ -1,7 +1,7 @@
 import 'server-only';
 import type PgBoss from 'pg-boss';
 import type { z } from 'zod';
-import type { ComputeJobKind } from '@/models/compute-job-kinds';
+import type { ComputeJobKind } from '@/lib/domain/jobs';
 import type { JobKindDefinition } from './job-types';
 import { forecastPayloadSchema, plateFitsPayloadSchema, plateForecastsPayloadSchema, plateImportPayloadSchema } from './payloads';
 

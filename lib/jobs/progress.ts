@@ -4,7 +4,7 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { ComputeJob, Plate } from '@/models';
-import type { ComputeJobKind, ComputeJobState } from '@/models/compute-job';
+import type { ComputeJobKind, ComputeJobState } from '@/lib/domain/jobs';
 
 /** A job as people see it: what it is for, where it stands, and how far it has got. */
 export interface JobView {

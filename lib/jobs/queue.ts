@@ -5,7 +5,7 @@ import { Op, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
 import { env } from '@/lib/env';
 import { ComputeJob } from '@/models';
-import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job-kinds';
+import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/lib/domain/jobs';
 import { checkJobPayload, JOB_KINDS, queueOptions, type JobPayload } from './kinds';
 import { lockJobKey, QUEUE_SCHEMA } from './queries';
 import { notifyWorkers } from './wake';

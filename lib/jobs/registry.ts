@@ -5,7 +5,7 @@ import { runPlateForecasts } from '@/lib/forecasts/plate-run';
 import { runForecastJob } from '@/lib/forecasts/store';
 import { removeEndedUploads, runQueuedImport } from '@/lib/plates/import-jobs';
 import { requeueLostRefits, runPlateFitsJob } from '@/lib/plates/recompute';
-import type { ComputeJobKind } from '@/models/compute-job-kinds';
+import type { ComputeJobKind } from '@/lib/domain/jobs';
 import type { JobHandler, JobKindDefinition, PayloadSchema, RegisteredJobKind } from './job-types';
 import { describePayloadIssues, JOB_KINDS } from './kinds';
 

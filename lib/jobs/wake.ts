@@ -2,7 +2,7 @@ import 'server-only';
 import pg from 'pg';
 import type { Transaction } from 'sequelize';
 import { env } from '@/lib/env';
-import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job-kinds';
+import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/lib/domain/jobs';
 import { listenOn, notifyChannel } from './queries';
 
 /**

@@ -5,7 +5,7 @@ import { Op } from 'sequelize';
 import { db } from '@/lib/db';
 import { isAppError } from '@/lib/errors';
 import { ComputeJob } from '@/models';
-import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/models/compute-job-kinds';
+import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/lib/domain/jobs';
 import type { JobContext } from './job-types';
 import { closeJobsEndedOnQueue } from './queries';
 import { closeJobQueue, jobQueue, registerLocalWorker, wakeWorkers } from './queue';

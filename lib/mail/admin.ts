@@ -3,7 +3,8 @@ import { recordAudit } from '@/lib/audit/record';
 import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { LINK_MAIL_KINDS, MailMessage, type MailState } from '@/models/mail-message';
+import { MailMessage } from '@/models/mail-message';
+import { LINK_MAIL_KINDS, type MailState } from '@/lib/domain/mail';
 import { bringWaitingMailForward, countOutboxByState, selectOutbox, type OutboxRow } from './queries';
 
 /** One message of the outbox as the admin page lists it. */

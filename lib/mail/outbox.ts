@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
-import { MailMessage, type MailKind } from '@/models/mail-message';
+import { MailMessage } from '@/models/mail-message';
+import { type MailKind } from '@/lib/domain/mail';
 
 export interface OutgoingMail {
   kind: MailKind;

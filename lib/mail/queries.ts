@@ -1,7 +1,7 @@
 import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
-import { LINK_MAIL_KINDS, type MailKind, type MailState } from '@/models/mail-message';
+import { LINK_MAIL_KINDS, type MailKind, type MailState } from '@/lib/domain/mail';
 
 export interface ClaimedMail {
   id: string;

@@ -5,7 +5,7 @@ import { PLATE_TRANSITIONS, type SignoffAction } from '@/lib/domain/plate-states
 import { rolesFor, type Role } from '@/lib/domain/roles';
 import { env } from '@/lib/env';
 import type { OutgoingMail } from '@/lib/mail/outbox';
-import type { MailKind } from '@/models/mail-message';
+import type { MailKind } from '@/lib/domain/mail';
 import { selectRecipients, type RecipientRow } from './queries';
 
 /** Where a plate's sign-off panel and history live; e-mails link here. */

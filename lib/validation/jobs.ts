@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { COMPUTE_JOB_KINDS, COMPUTE_JOB_STATES } from '@/models/compute-job-kinds';
+import { COMPUTE_JOB_KINDS, COMPUTE_JOB_STATES } from '@/lib/domain/jobs';
 
 /** One queued fit or forecast job as the plate page shows it (lib/jobs/progress.ts). */
 export const jobViewSchema = z.object({

@@ -14,7 +14,7 @@ import { startJobWorkers, stopJobWorkers, sweepJobs } from '@/lib/jobs/worker';
 import { awaitImport, queueImport } from '@/lib/plates/import-jobs';
 import type { CommitRequest } from '@/lib/plates/import-service';
 import { ComputeJob, Plate } from '@/models';
-import type { ComputeJobKind } from '@/models/compute-job';
+import type { ComputeJobKind } from '@/lib/domain/jobs';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { importRowCounts } from '../support/import-counts';

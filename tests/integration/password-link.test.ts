@@ -9,7 +9,7 @@ import { createUser } from '@/lib/users/create';
 import { resetPassword } from '@/lib/users/reset-password';
 import { disableUser } from '@/lib/users/status';
 import { AuditEvent, MailMessage, User } from '@/models';
-import { LINK_MAIL_KINDS } from '@/models/mail-message';
+import { LINK_MAIL_KINDS } from '@/lib/domain/mail';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { fakeSmtpSettings, waitForMessages } from '../support/fake-smtp';

@@ -7,7 +7,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { requirePageRole } from '@/lib/auth/page-guard';
 import { rolesFor } from '@/lib/domain/roles';
 import { listOutbox, outboxCounts } from '@/lib/mail/admin';
-import { MAIL_STATES, type MailState } from '@/models/mail-message';
+import { MAIL_STATES, type MailState } from '@/lib/domain/mail';
 import { requeueMailAction, sendWaitingMailAction } from './actions';
 
 export const metadata: Metadata = { title: 'Mail outbox' };
