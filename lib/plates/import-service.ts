@@ -179,7 +179,6 @@ export async function commitImport(actor: Actor, request: CommitRequest, options
   requireRole(actor, 'biologist');
   // A file sent with the request is read before the transaction opens (the screen checked first).
   const source: ImportSource = 'draftId' in request ? request : await loadScreen(request.screenId).then(() => readOnce(request));
-  const mapping = columnMappingSchema.parse(request.mapping);
   const store = async (transaction: Transaction) => {
     const { file, targets } = await openSource(actor, source, transaction);
     const preview = await checkSheet(file, targets, request, transaction);
@@ -187,6 +186,7 @@ export async function commitImport(actor: Actor, request: CommitRequest, options
       const first = preview.issues.find((issue) => issue.severity === 'error');
       throw new AppError('invalid', first ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}` : 'The sheet holds no wells.', { issues: preview.issues.slice(0, 200) });
     }
+    const mapping = columnMappingSchema.parse(request.mapping);
     let importTemplateId: string | null = null;
     if (request.templateName) {
       const [template, created] = await ImportTemplate.findOrCreate({

@@ -16,8 +16,8 @@ export async function demoCommitRequest(
   const inspection = await inspectUpload(biologist, upload);
   const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet) ?? inspection.sheets[0]!;
   const choice = { sheet: sheet.name, mapping: sheet.guess.mapping, label: options.label ?? manifest.plate };
-  if (options.source === 'file') return { ...upload, ...choice };
-  if (!inspection.draftId) throw new Error(`${file} was already imported for its screen, so inspect kept no draft`);
+  // A file already stored for the screen gets no draft: its request sends the file, and the commit refuses it.
+  if (options.source === 'file' || !inspection.draftId) return { ...upload, ...choice };
   return { draftId: inspection.draftId, ...choice };
 }
 
