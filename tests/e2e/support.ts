@@ -55,3 +55,40 @@ export function freshPotassiumExport(): Buffer {
   const bits = [...randomBytes(8)].flatMap((byte) => Array.from({ length: 8 }, (_, bit) => (byte >> bit) & 1));
   return Buffer.from(`${text}\n${bits.map((bit) => (bit ? '\r\n' : '\n')).join('')}`, 'utf8');
 }
+
+/** One import step a page posted: which step, whether it carried the file, and the draft it named. */
+export interface ImportStepSent {
+  step: string;
+  file: boolean;
+  draftId: string | null;
+}
+
+/** Records the import steps the page posts from now on (inspect, preview, commit), read from their form bodies. */
+export function watchImportSteps(page: Page): ImportStepSent[] {
+  const sent: ImportStepSent[] = [];
+  page.on('request', (request) => {
+    const step = /^\/api\/imports\/(inspect|preview|commit)$/.exec(new URL(request.url()).pathname)?.[1];
+    if (!step || request.method() !== 'POST') return;
+    const body = request.postDataBuffer()?.toString('latin1') ?? '';
+    sent.push({ step, file: /name="file"/.test(body), draftId: /name="draftId"\r\n\r\n([0-9a-f-]{36})\r\n/.exec(body)?.[1] ?? null });
+  });
+  return sent;
+}
+
+/**
+ * Checks that an import read its file once: inspect sent the file, preview and commit named one draft
+ * and sent no file, and the draft was used by the plate with that label.
+ */
+export async function expectOneReadImport(sent: ImportStepSent[], label: string): Promise<void> {
+  expect(sent.map(({ step, file }) => ({ step, file }))).toEqual([
+    { step: 'inspect', file: true }, { step: 'preview', file: false }, { step: 'commit', file: false },
+  ]);
+  const draftId = sent[1]!.draftId;
+  expect(draftId).toMatch(/^[0-9a-f-]{36}$/);
+  expect(sent[2]!.draftId).toBe(draftId);
+  const draft = await queryOne<{ label: string; used: boolean; sheets: boolean }>(
+    'select p.label, d.consumed_at is not null as used, d.sheets is not null as sheets from import_drafts d join plates p on p.id = d.plate_id where d.id = $1',
+    [draftId],
+  );
+  expect(draft).toEqual({ label, used: true, sheets: false });
+}
