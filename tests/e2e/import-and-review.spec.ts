@@ -13,8 +13,9 @@ test('a biologist imports an export, reviews QC, excludes a well and sees the fi
 
   await page.getByRole('link', { name: 'Import a plate' }).click();
   const sent = watchImportSteps(page);
+  const exported = freshPotassiumExport();
   await page.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-  await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
+  await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: exported });
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByLabel('well position')).not.toHaveValue('');
   await page.screenshot({ path: 'test-output/screenshots/import-mapping.png', fullPage: true });
@@ -28,7 +29,7 @@ test('a biologist imports an export, reviews QC, excludes a well and sees the fi
 
   await expect(page.getByRole('heading', { name: /Plate KV-RERUN-E2E/ })).toBeVisible();
   // The file went to the server once; preview and commit named the draft inspect kept, which the plate used.
-  await expectOneReadImport(sent, 'KV-RERUN-E2E');
+  await expectOneReadImport(sent, 'KV-RERUN-E2E', exported);
   await expect(page.getByText(/^Z′ \d\.\d\d$/)).toBeVisible();
   await page.screenshot({ path: 'test-output/screenshots/plate-wells.png', fullPage: true });
 

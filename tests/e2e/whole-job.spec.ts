@@ -22,14 +22,15 @@ test('import, review, exclude, fits and forecast, verify, submit, approve with s
   // Import.
   await biologist.getByRole('link', { name: 'Import a plate' }).click();
   const sent = watchImportSteps(biologist);
+  const importedFile = freshPotassiumExport();
   await biologist.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-  await biologist.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-whole-job.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
+  await biologist.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-whole-job.csv', mimeType: 'text/csv', buffer: importedFile });
   await biologist.getByRole('button', { name: 'Read file' }).click();
   await biologist.getByRole('button', { name: 'Check every row' }).click();
   await biologist.getByLabel('Plate label').fill(LABEL);
   await biologist.getByRole('button', { name: 'Store plate' }).click();
   await expect(biologist.getByRole('heading', { name: new RegExp(`Plate ${LABEL}`) })).toBeVisible();
-  await expectOneReadImport(sent, LABEL);
+  await expectOneReadImport(sent, LABEL, importedFile);
   const plateUrl = new URL(biologist.url()).pathname;
 
   // Review QC and exclude one passing GW-0009 well.
