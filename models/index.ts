@@ -6,6 +6,7 @@ import { Compound } from './compound';
 import { ComputeJob } from './compute-job';
 import { Fit } from './fit';
 import { Forecast } from './forecast';
+import { ImportDraft } from './import-draft';
 import { ImportTemplate } from './import-template';
 import { ImportUpload } from './import-upload';
 import { LoginAttempt } from './login-attempt';
@@ -22,9 +23,9 @@ import { User } from './user';
 import { UserRole } from './user-role';
 import { Well } from './well';
 
-export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
+export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportDraft, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
 
-const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
+const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportDraft, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {

@@ -89,7 +89,8 @@ async function seedPlates(biologist: Actor): Promise<void> {
     const inspection = await inspectUpload(biologist, upload);
     const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet);
     if (!sheet) throw new Error(`${file} has no sheet ${manifest.dataSheet}`);
-    await commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate, templateName: `Demo rig — ${sheet.name}` });
+    if (!inspection.draftId) throw new Error(`${file} was already imported for ${manifest.screen}`);
+    await commitImport(biologist, { draftId: inspection.draftId, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate, templateName: `Demo rig — ${sheet.name}` });
   }
 }
 

@@ -5,6 +5,9 @@ import type { Cell } from '@/lib/imports/spreadsheet-types';
 import type { GuessedColumn } from '@/lib/imports/guess-mapping';
 
 export interface Inspection {
+  /** The import draft the server keeps the parsed file in; null for a file already stored for the screen. */
+  draftId: string | null;
+  expiresAt: string | null;
   sha256: string;
   duplicateOf: { plateId: string; label: string } | null;
   sheets: { name: string; rowCount: number; headerRow: number; headers: string[]; sample: Cell[][]; guess: { mapping: ColumnMapping; matched: GuessedColumn[]; missingFields: string[] } }[];
@@ -28,10 +31,13 @@ export class ImportRequestError extends Error {
   }
 }
 
-/** Posts the file and fields to one import step and returns its JSON, or throws with the server's message. */
-export async function postImportStep<T>(step: 'inspect' | 'preview' | 'commit', file: File, fields: Record<string, string>): Promise<T> {
+/**
+ * Posts one import step and returns its JSON, or throws with the server's message: inspect sends the
+ * file; preview and commit send the draft id inspect answered (in `fields`) and never the file again.
+ */
+export async function postImportStep<T>(step: 'inspect' | 'preview' | 'commit', fields: Record<string, string>, file?: File): Promise<T> {
   const body = new FormData();
-  body.set('file', file);
+  if (file) body.set('file', file);
   for (const [key, value] of Object.entries(fields)) body.set(key, value);
   const response = await fetch(`/api/imports/${step}`, { method: 'POST', body });
   const json = (await response.json().catch(() => ({ message: `The server answered ${response.status}.` }))) as T & { message?: string; details?: unknown; fields?: Record<string, string[]> };

@@ -52,24 +52,25 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
 
   async function inspect() {
     if (!file) return setError('Choose a file first.');
-    const result = await run(() => postImportStep<Inspection>('inspect', file, { screenId }));
+    const result = await run(() => postImportStep<Inspection>('inspect', { screenId }, file));
     if (!result) return;
     setInspection(result);
     const best = [...result.sheets].sort((a, b) => b.guess.matched.length - a.guess.matched.length)[0]!;
     chooseSheet(result, best.name);
     setLabel(file.name.replace(/\.(xlsx|xls|csv)$/i, ''));
-    if (!result.duplicateOf) setStep(1);
+    if (result.draftId) setStep(1);
   }
 
-  const fields = () => ({ screenId, sheet, mapping: JSON.stringify(mapping), format });
+  // The file was read once, at inspect; the later steps name the draft the server keeps it in.
+  const fields = () => ({ draftId: inspection?.draftId ?? '', sheet, mapping: JSON.stringify(mapping), format });
 
   async function check() {
-    const result = await run(() => postImportStep<Preview>('preview', file!, fields()));
+    const result = await run(() => postImportStep<Preview>('preview', fields()));
     if (result) { setPreview(result); setStep(2); }
   }
 
   async function store() {
-    const result = await run(() => postImportStep<{ href: string; plateId?: string; message?: string }>('commit', file!, { ...fields(), label, templateName }));
+    const result = await run(() => postImportStep<{ href: string; plateId?: string; message?: string }>('commit', { ...fields(), label, templateName }));
     if (!result) return;
     if (result.plateId) router.push(result.href);
     else setStoring(result.message ?? 'A worker is still storing this plate.');
@@ -92,7 +93,7 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
         <section className="gw-card grid gap-4 p-5 sm:grid-cols-2">
           <div>
             <label htmlFor="import-screen" className="gw-label">Screen</label>
-            <select id="import-screen" className="gw-input mt-1" value={screenId} onChange={(e) => setScreenId(e.target.value)}>
+            <select id="import-screen" className="gw-input mt-1" value={screenId} onChange={(e) => { setScreenId(e.target.value); setInspection(null); }}>
               {screens.map((s) => <option key={s.id} value={s.id}>{s.name} ({s.targets.join(', ') || 'no targets'})</option>)}
             </select>
           </div>

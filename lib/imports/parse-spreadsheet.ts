@@ -27,6 +27,17 @@ const MB = 1024 * 1024;
 const DEFAULTS = { maxBytes: 10 * MB, timeoutMs: 10_000, maxMemoryMb: 256, maxRows: 20_000, maxColumns: 200 };
 const DEFAULT_NICENESS = 10;
 
+const startsKey = Symbol.for('gatewell.parseWorkerStarts');
+const starts = globalThis as { [startsKey]?: number };
+
+/**
+ * How many parse worker threads this process has started (one per file read): what tests count to show
+ * that an import reads its file once, whichever steps and jobs it passes through.
+ */
+export function parseWorkerStarts(): number {
+  return starts[startsKey] ?? 0;
+}
+
 type WorkerReply = { ok: true; sheets: unknown } | { ok: false; code: SpreadsheetErrorCode; detail: string };
 
 /** Reads an uploaded xlsx, xls or csv file into plain sheets, in a fresh worker thread with limits. */
@@ -89,6 +100,7 @@ function runWorker(workerData: object, limits: ReturnType<typeof checkOptions>):
       execArgv: [],
       resourceLimits: { maxOldGenerationSizeMb: limits.maxMemoryMb, maxYoungGenerationSizeMb: 32, stackSizeMb: 4 },
     });
+    starts[startsKey] = parseWorkerStarts() + 1;
     const settle = (reply: WorkerReply) => {
       if (settled) return;
       settled = true;

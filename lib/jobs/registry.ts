@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import { AppError } from '@/lib/errors';
 import { runPlateForecasts } from '@/lib/forecasts/plate-run';
 import { runForecastJob } from '@/lib/forecasts/store';
-import { removeEndedUploads, runQueuedImport } from '@/lib/plates/import-jobs';
+import { sweepImports, runQueuedImport } from '@/lib/plates/import-jobs';
 import { requeueLostRefits, runPlateFitsJob } from '@/lib/plates/recompute';
 import type { ComputeJobKind } from '@/lib/domain/jobs';
 import type { JobHandler, JobKindDefinition, PayloadSchema, RegisteredJobKind } from './job-types';
@@ -19,7 +19,7 @@ export const jobRegistry: Record<ComputeJobKind, RegisteredJobKind> = {
   'plate-fits': register(JOB_KINDS['plate-fits'], runPlateFitsJob, { concurrency: 2, sweep: requeueLostRefits }),
   forecast: register(JOB_KINDS.forecast, runForecastJob, { concurrency: 2 }),
   'plate-forecasts': register(JOB_KINDS['plate-forecasts'], runPlateForecasts, { concurrency: 1 }),
-  'plate-import': register(JOB_KINDS['plate-import'], runQueuedImport, { concurrency: 1, sweep: removeEndedUploads }),
+  'plate-import': register(JOB_KINDS['plate-import'], runQueuedImport, { concurrency: 1, sweep: sweepImports }),
 };
 
 /**

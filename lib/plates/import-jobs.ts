@@ -10,17 +10,20 @@ import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
 import type { JobContext } from '@/lib/jobs/job-types';
 import type { PlateImportPayload } from '@/lib/jobs/payloads';
 import { cancelJob, enqueueJob } from '@/lib/jobs/queue';
-import { storedImportRequestSchema, type StoredImportRequest } from '@/lib/validation/imports';
+import { storedDraftCommitSchema, storedImportRequestSchema, type StoredDraftCommit, type StoredImportRequest } from '@/lib/validation/imports';
 import { ComputeJob, ImportUpload } from '@/models';
 import { commitImport, type CommitRequest } from './import-service';
+import { readDraft, removeExpiredDrafts } from './import-drafts';
 import { importJobKey, removeUploadNoWorkerHolds, removeUploadsOfEndedJobs } from './import-queries';
 
 /**
- * Imports as jobs. The web server keeps the upload (import_uploads) and queues a plate-import job in one
+ * Imports as jobs. The web server keeps the commit (import_uploads) and queues a plate-import job in one
  * transaction, then waits for it; a worker process (scripts/worker.ts, at a lower CPU priority, on any
- * machine) reads, checks and stores the plate, removing the upload in the same transaction. Reading
- * and checking a file is most of an import's CPU, and it no longer runs in the processes that serve
- * pages. The person sees the same answer as before: the new plate, or the refusal with its reasons.
+ * machine) checks and stores the plate, removing the upload in the same transaction. A commit names the
+ * import draft inspect kept (its sheets were parsed once, at inspect) or, from scripts, sends the file,
+ * which the worker then reads once. Checking and storing a plate is most of an import's CPU, and it does
+ * not run in the processes that serve pages. The person sees the same answer as before: the new plate,
+ * or the refusal with its reasons.
  */
 
 /** How long a request waits for a worker to take its import before withdrawing it. */
@@ -28,35 +31,45 @@ export const IMPORT_QUEUE_WAIT_MS = 60_000;
 /** How long it then waits for an import a worker is storing (the job's own limit is 120 s). */
 export const IMPORT_RUN_WAIT_MS = 60_000;
 
-/** Keeps the upload and queues its job, in one transaction; returns the job's id. */
+/**
+ * Keeps the commit and queues its job, in one transaction; returns the job's id. A draft is checked first
+ * (the actor's, unused, not expired), so that a refusal comes at once and nothing is queued.
+ */
 export async function queueImport(actor: Actor, request: CommitRequest): Promise<string> {
   requireCapability(actor, 'importPlates');
+  if ('draftId' in request) {
+    await readDraft(actor, request.draftId, { content: false });
+    const { draftId, ...fields } = request;
+    const stored: StoredDraftCommit = fields;
+    return keepAndQueue(actor, { request: { ...stored }, bytes: null, draftId });
+  }
   const { bytes, parsed: _parsed, ...fields } = request;
   const stored: StoredImportRequest = fields;
+  return keepAndQueue(actor, { request: { ...stored }, bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), draftId: null });
+}
+
+async function keepAndQueue(actor: Actor, commit: { request: Record<string, unknown>; bytes: Buffer | null; draftId: string | null }): Promise<string> {
   return db().transaction(async (transaction) => {
-    const upload = await ImportUpload.create(
-      { requestedBy: actor.id, address: actor.address, request: { ...stored }, bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) },
-      { transaction },
-    );
+    const upload = await ImportUpload.create({ requestedBy: actor.id, address: actor.address, ...commit }, { transaction });
     const job = await enqueueJob({ kind: 'plate-import', key: importJobKey(upload.id), data: { uploadId: upload.id }, requestedBy: actor.id }, transaction);
     return job.id;
   });
 }
 
 /**
- * The plate-import job's handler (lib/jobs/registry.ts): reads the upload once under its row lock,
- * checks and stores it, and removes it; the plate's id goes on the job.
+ * The plate-import job's handler (lib/jobs/registry.ts): reads the queued commit under its row lock,
+ * takes the draft's sheets (or reads the sent file once), checks and stores the plate, consumes the draft
+ * and removes the upload in one transaction; the plate's id goes on the job.
  */
 export async function runQueuedImport(payload: PlateImportPayload, job: Pick<JobContext, 'id'>): Promise<string> {
   try {
     return await db().transaction(async (transaction) => {
       const upload = await ImportUpload.findByPk(payload.uploadId, { transaction, lock: transaction.LOCK.UPDATE });
       if (!upload) throw new AppError('conflict', 'The import was withdrawn before a worker took it; nothing was stored.');
-      const request = storedRequest(upload.request);
+      const request = storedCommit(upload);
       const actor = await loadActor(upload.requestedBy, upload.address ?? '');
       if (!actor) throw new AppError('forbidden', 'The account that uploaded this file is no longer active; nothing was stored.');
-      const bytes = new Uint8Array(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
-      const { plateId } = await commitImport(actor, { ...request, bytes }, { transaction });
+      const { plateId } = await commitImport(actor, request, { transaction });
       const message = `Stored as plate ${request.label}.`;
       await removeUpload(payload.uploadId, transaction);
       // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
@@ -69,9 +82,16 @@ export async function runQueuedImport(payload: PlateImportPayload, job: Pick<Job
   }
 }
 
-/** The stored commit request, checked: one that fails ends the job as refused, with nothing stored. */
-function storedRequest(request: unknown): z.output<typeof storedImportRequestSchema> {
-  const parsed = storedImportRequestSchema.safeParse(request);
+/** The queued commit, checked: one that fails ends the job as refused, with nothing stored. */
+function storedCommit(upload: ImportUpload): CommitRequest {
+  if (upload.draftId) return { ...checked(storedDraftCommitSchema, upload.request), draftId: upload.draftId };
+  if (!upload.bytes) throw new AppError('invalid', 'The queued import holds neither a file nor a draft; nothing was stored. Upload the file again.');
+  const bytes = new Uint8Array(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
+  return { ...checked(storedImportRequestSchema, upload.request), bytes };
+}
+
+function checked<Schema extends z.ZodType>(schema: Schema, request: unknown): z.output<Schema> {
+  const parsed = schema.safeParse(request);
   if (!parsed.success) throw new AppError('invalid', 'The stored import request is not valid; nothing was stored. Upload the file again.', { issues: parsed.error.issues });
   return parsed.data;
 }
@@ -81,9 +101,13 @@ async function removeUpload(uploadId: string, transaction?: Transaction): Promis
   await ImportUpload.destroy({ where: { id: uploadId }, ...(transaction ? { transaction } : {}) });
 }
 
-/** The plate-import sweep (lib/jobs/registry.ts): removes uploads whose job has ended; queues nothing again. */
-export async function removeEndedUploads(): Promise<number> {
+/**
+ * The plate-import sweep (lib/jobs/registry.ts): removes uploads whose job has ended and import drafts past
+ * their expiry; queues nothing again.
+ */
+export async function sweepImports(): Promise<number> {
   await removeUploadsOfEndedJobs();
+  await removeExpiredDrafts();
   return 0;
 }
 

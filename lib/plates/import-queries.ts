@@ -1,5 +1,5 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
 
 /** The compute_jobs key of an upload's import job. */
@@ -27,4 +27,23 @@ export async function removeUploadsOfEndedJobs(): Promise<void> {
     `delete from import_uploads u
       where not exists (select 1 from compute_jobs c where c.job_key = 'plate-import:' || u.id::text and c.state in ('queued', 'running'))`,
   );
+}
+
+/**
+ * Marks a draft used by the plate and drops its sheets and bytes (the plate's file record keeps the
+ * bytes); true when it was still unused. The caller's transaction also stores the plate.
+ */
+export async function consumeDraftRow(draftId: string, plateId: string, transaction: Transaction): Promise<boolean> {
+  const used = await db().query<{ id: string }>(
+    `update import_drafts set consumed_at = now(), plate_id = :plateId, sheets = null, bytes = null
+      where id = :draftId and consumed_at is null returning id`,
+    { type: QueryTypes.SELECT, replacements: { draftId, plateId }, transaction },
+  );
+  return used.length > 0;
+}
+
+/** Removes every draft past its expiry, used or not (a queued commit of one goes with it); returns how many. */
+export async function removeExpiredDraftRows(): Promise<number> {
+  const removed = await db().query<{ id: string }>('delete from import_drafts where expires_at <= now() returning id', { type: QueryTypes.SELECT });
+  return removed.length;
 }

@@ -14,13 +14,15 @@ import { analysePlate } from '@/lib/science/plate-analysis';
 import { queueImportNotices } from '@/lib/signoff/import-notice';
 import { Compound, ImportTemplate, Screen, Target } from '@/models';
 import { parsedPlateInput } from './analysis-input';
+import { consumeDraft, createDraft, readDraft } from './import-drafts';
 import { analysisSettings } from './settings';
 import { findDuplicateUpload, sha256Hex, storePlate } from './store';
 
 /**
- * Import in three requests, inspect → preview → commit (the browser sends the file with each). Within
- * one request the file is read and parsed once (`readOnce`, in a worker thread with limits); every
- * later step (duplicate check, sheet choice, validation, QC, storing) takes the parsed sheets.
+ * Import in three requests, inspect → preview → commit. Inspect reads and parses the file once (`readOnce`,
+ * in a worker thread with limits) and keeps it as the person's import draft (lib/plates/import-drafts.ts);
+ * preview and commit name the draft and take its sheets, never parsing again. A commit that sends the
+ * file itself (scripts, the load test) reads it once, and every later step takes the parsed sheets.
  */
 
 export interface Upload {
@@ -31,6 +33,14 @@ export interface Upload {
   /** The file once read (readOnce): later steps take its sheets and never read the bytes again. */
   parsed?: ParsedFile;
 }
+
+/** An import draft inspect kept, named by its id. */
+export interface DraftRef {
+  draftId: string;
+}
+
+/** Where an import's sheets come from: a draft of the acting person, or a file sent with the request. */
+export type ImportSource = DraftRef | Upload;
 
 /** An uploaded file read once: the SHA-256 of its bytes and its sheets. */
 export interface ParsedFile {
@@ -57,16 +67,46 @@ export async function readOnce<T extends Upload>(upload: T): Promise<T & { parse
   return { ...upload, parsed: { sha256, sheets: result.sheets } };
 }
 
-async function loadScreen(screenId: string) {
+async function loadScreen(screenId: string, transaction?: Transaction) {
   db();
-  const screen = await Screen.findByPk(screenId, { include: [{ model: Target, as: 'targets' }] });
+  const screen = await Screen.findByPk(screenId, { include: [{ model: Target, as: 'targets' }], ...(transaction ? { transaction } : {}) });
   if (!screen) throw new AppError('not_found', 'No such screen.');
   const targets = (screen.get('targets') as Target[]).map((t) => t.name);
   if (targets.length === 0) throw new AppError('invalid', `Screen ${screen.name} has no targets yet; an administrator adds them first.`);
   return { screen, targets };
 }
 
-/** Step 1: reads the file, refuses a duplicate, and proposes a mapping for every sheet. Nothing is written. */
+/** The file an import works on: its record and its parsed sheets, and the draft it came from (if any). */
+interface OpenedFile {
+  screenId: string;
+  filename: string;
+  mediaType: string;
+  bytes: Uint8Array;
+  sheets: SheetData[];
+  draftId: string | null;
+}
+
+/**
+ * The source's file and screen: a draft is read (owner only; locked when a transaction is given), an
+ * upload is parsed once after its screen is checked.
+ */
+async function openSource(actor: Actor, source: ImportSource, transaction?: Transaction) {
+  if ('draftId' in source) {
+    const draft = await readDraft(actor, source.draftId, transaction ? { transaction } : {});
+    const file: OpenedFile = { ...draft, draftId: draft.id };
+    return { file, ...(await loadScreen(draft.screenId, transaction)) };
+  }
+  const screen = await loadScreen(source.screenId, transaction);
+  const { parsed } = await readOnce(source);
+  const file: OpenedFile = { screenId: source.screenId, filename: source.filename, mediaType: source.mediaType, bytes: source.bytes, sheets: parsed.sheets, draftId: null };
+  return { file, ...screen };
+}
+
+/**
+ * Step 1: reads the file (once), refuses a duplicate, proposes a mapping for every sheet, and keeps the
+ * parsed file as the actor's import draft for preview and commit. A file already stored for this screen
+ * gets no draft (it cannot be stored again); nothing else is written.
+ */
 export async function inspectUpload(actor: Actor, upload: Upload) {
   requireCapability(actor, 'importPlates');
   await loadScreen(upload.screenId);
@@ -84,28 +124,35 @@ export async function inspectUpload(actor: Actor, upload: Upload) {
       guess,
     };
   });
-  return { sha256: parsed.sha256, duplicateOf, sheets: inspected };
+  const draft = duplicateOf ? null : await createDraft(actor, { ...upload, sha256: parsed.sha256, sheets: parsed.sheets });
+  return { draftId: draft?.id ?? null, expiresAt: draft?.expiresAt.toISOString() ?? null, sha256: parsed.sha256, duplicateOf, sheets: inspected };
 }
 
-export interface PreviewRequest extends Upload {
+/** The sheet, mapping and plate format a preview or commit applies. */
+export interface SheetChoice {
   sheet: string;
   mapping: ColumnMappingInput;
   format?: PlateFormat;
 }
 
+export type PreviewRequest = ImportSource & SheetChoice;
+
 /** Step 2: every row with its parse result and QC flags, the plate built from good rows. Nothing is written. */
-export async function previewImport(actor: Actor, request: PreviewRequest, options: { qc?: boolean } = {}): Promise<PlatePreview & { qc: Record<number, string[]> }> {
+export async function previewImport(actor: Actor, request: PreviewRequest): Promise<PlatePreview & { qc: Record<number, string[]> }> {
   requireCapability(actor, 'importPlates');
-  const { screen, targets } = await loadScreen(request.screenId);
-  const { parsed } = await readOnce(request);
-  const sheet = parsed.sheets.find((s) => s.name === request.sheet);
-  if (!sheet) throw new AppError('invalid', `${request.filename} has no sheet named "${request.sheet}".`);
-  const compounds = await Compound.findAll({ attributes: ['identifier'], raw: true });
-  const preview = validatePlateSheet(sheet, request.mapping, {
-    knownCompounds: compounds.map((c) => c.identifier), knownTargets: targets, ...(request.format ? { plateFormat: request.format } : {}),
+  const { file, screen, targets } = await openSource(actor, request);
+  const preview = await checkSheet(file, targets, request);
+  return { ...preview, qc: preview.plate ? qcByRow(preview, analysisSettings(screen)) : {} };
+}
+
+/** Validates the chosen sheet of the file with the mapping against the registered compounds and the screen's targets. */
+async function checkSheet(file: OpenedFile, targets: string[], choice: SheetChoice, transaction?: Transaction): Promise<PlatePreview> {
+  const sheet = file.sheets.find((s) => s.name === choice.sheet);
+  if (!sheet) throw new AppError('invalid', `${file.filename} has no sheet named "${choice.sheet}".`);
+  const compounds = await Compound.findAll({ attributes: ['identifier'], raw: true, ...(transaction ? { transaction } : {}) });
+  return validatePlateSheet(sheet, choice.mapping, {
+    knownCompounds: compounds.map((c) => c.identifier), knownTargets: targets, ...(choice.format ? { plateFormat: choice.format } : {}),
   });
-  // The commit skips the QC messages per row (qc: false): it stores the same analysis itself.
-  return { ...preview, qc: preview.plate && options.qc !== false ? qcByRow(preview, analysisSettings(screen)) : {} };
 }
 
 /** QC messages per spreadsheet row, from the same analysis the commit stores. */
@@ -116,25 +163,30 @@ function qcByRow(preview: PlatePreview, settings: ReturnType<typeof analysisSett
   return Object.fromEntries(analysis.readouts.filter((r) => r.qcReasons.length).map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]));
 }
 
-export interface CommitRequest extends PreviewRequest {
+export type CommitRequest = PreviewRequest & {
   label: string;
   templateName?: string | undefined;
   supersedesPlateId?: string | undefined;
-}
+};
 
 /**
- * Step 3: stores the plate, its wells, readouts and QC, its queued fit job, and the template, all in one
- * transaction (the caller's when given: a queued import also removes its upload in it, lib/plates/import-jobs.ts).
+ * Step 3: stores the plate, its wells, readouts and QC, its queued fit job, and the template, and
+ * consumes the draft it came from, all in one transaction (the caller's when given: a queued import also
+ * removes its upload in it, lib/plates/import-jobs.ts). A draft is read under its row lock in that
+ * transaction, so a second commit of it waits and is then refused as used.
  */
 export async function commitImport(actor: Actor, request: CommitRequest, options: { transaction?: Transaction } = {}): Promise<{ plateId: string }> {
-  // The preview reads the file (once) and checks role and screen; the commit only stores what it built.
-  const preview = await previewImport(actor, request, { qc: false });
-  if (!preview.ok || !preview.plate) {
-    const first = preview.issues.find((issue) => issue.severity === 'error');
-    throw new AppError('invalid', first ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}` : 'The sheet holds no wells.', { issues: preview.issues.slice(0, 200) });
-  }
-  const mapping = columnMappingSchema.parse(request.mapping);
+  requireCapability(actor, 'importPlates');
+  // A file sent with the request is read before the transaction opens (the screen checked first).
+  const source: ImportSource = 'draftId' in request ? request : await loadScreen(request.screenId).then(() => readOnce(request));
   const store = async (transaction: Transaction) => {
+    const { file, targets } = await openSource(actor, source, transaction);
+    const preview = await checkSheet(file, targets, request, transaction);
+    if (!preview.ok || !preview.plate) {
+      const first = preview.issues.find((issue) => issue.severity === 'error');
+      throw new AppError('invalid', first ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}` : 'The sheet holds no wells.', { issues: preview.issues.slice(0, 200) });
+    }
+    const mapping = columnMappingSchema.parse(request.mapping);
     let importTemplateId: string | null = null;
     if (request.templateName) {
       const [template, created] = await ImportTemplate.findOrCreate({
@@ -150,10 +202,11 @@ export async function commitImport(actor: Actor, request: CommitRequest, options
       importTemplateId = template.id;
     }
     const stored = await storePlate(actor, {
-      screenId: request.screenId, label: request.label, plate: preview.plate!, importTemplateId,
-      file: { bytes: request.bytes, filename: request.filename, mediaType: request.mediaType },
+      screenId: file.screenId, label: request.label, plate: preview.plate, importTemplateId,
+      file: { bytes: file.bytes, filename: file.filename, mediaType: file.mediaType },
       supersedesPlateId: request.supersedesPlateId ?? null,
     }, transaction);
+    if (file.draftId) await consumeDraft(file.draftId, stored.plateId, transaction);
     await queueImportNotices(actor, stored.plateId, transaction); // chemists hear of the new plate (lib/signoff)
     return stored;
   };

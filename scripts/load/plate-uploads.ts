@@ -59,7 +59,7 @@ export function encodeCommit(upload: PlateUpload, target: CommitTarget): Encoded
   );
 }
 
-/** Posts one upload to the inspect route (which writes nothing) and returns the sheet and mapping it proposes. */
+/** Posts one upload to the inspect route (which keeps a draft the load never commits) and returns the sheet and mapping it proposes. */
 export async function inspectUpload(baseUrl: string, cookie: string, upload: PlateUpload, screenId: string): Promise<CommitTarget> {
   const { body, contentType } = encodeForm([['screenId', screenId]], upload);
   const answer = await fetch(new URL('/api/imports/inspect', baseUrl), {

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { freshPotassiumExport } from './support';
+import { expectOneReadImport, freshPotassiumExport, watchImportSteps } from './support';
 
 // Demo biologist from seeders/20261201000100-demo-users.js (password for the local demo only).
 const BIOLOGIST = { email: 'biologist@gatewell.test', password: 'demo-biologist-pass' };
@@ -12,8 +12,10 @@ test('a biologist imports an export, reviews QC, excludes a well and sees the fi
   await expect(page.getByRole('heading', { name: 'My work' })).toBeVisible();
 
   await page.getByRole('link', { name: 'Import a plate' }).click();
+  const sent = watchImportSteps(page);
+  const exported = freshPotassiumExport();
   await page.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-  await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
+  await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: exported });
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByLabel('well position')).not.toHaveValue('');
   await page.screenshot({ path: 'test-output/screenshots/import-mapping.png', fullPage: true });
@@ -26,6 +28,8 @@ test('a biologist imports an export, reviews QC, excludes a well and sees the fi
   await page.getByRole('button', { name: 'Store plate' }).click();
 
   await expect(page.getByRole('heading', { name: /Plate KV-RERUN-E2E/ })).toBeVisible();
+  // The file went to the server once; preview and commit named the draft inspect kept, which the plate used.
+  await expectOneReadImport(sent, 'KV-RERUN-E2E', exported);
   await expect(page.getByText(/^Z′ \d\.\d\d$/)).toBeVisible();
   await page.screenshot({ path: 'test-output/screenshots/plate-wells.png', fullPage: true });
 

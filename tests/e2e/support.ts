@@ -1,6 +1,6 @@
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
-import { expect, type Browser, type BrowserContext, type Page } from '@playwright/test';
+import { expect, type Browser, type BrowserContext, type Page, type Request } from '@playwright/test';
 import pg from 'pg';
 
 // Demo accounts from seeders/20261201000100-demo-users.js (passwords for the local demo only).
@@ -54,4 +54,43 @@ export function freshPotassiumExport(): Buffer {
   const text = readFileSync('seeders/data/demo-plates/kv-96-plate-01.csv', 'utf8').trimEnd();
   const bits = [...randomBytes(8)].flatMap((byte) => Array.from({ length: 8 }, (_, bit) => (byte >> bit) & 1));
   return Buffer.from(`${text}\n${bits.map((bit) => (bit ? '\r\n' : '\n')).join('')}`, 'utf8');
+}
+
+/** One import step a page posted (inspect, preview, commit) and its request. */
+export interface ImportStepSent {
+  step: string;
+  request: Request;
+}
+
+/** Records the import steps the page posts from now on. */
+export function watchImportSteps(page: Page): ImportStepSent[] {
+  const sent: ImportStepSent[] = [];
+  page.on('request', (request) => {
+    const step = /^\/api\/imports\/(inspect|preview|commit)$/.exec(new URL(request.url()).pathname)?.[1];
+    if (step && request.method() === 'POST') sent.push({ step, request });
+  });
+  return sent;
+}
+
+/**
+ * Checks that an import sent its file once: preview's and commit's bodies (smaller than the file) named
+ * one draft and held no file, and that draft holds the file's SHA-256 and size (inspect sent it: Chromium
+ * does not show a file's body to the test) and was used by the plate with the label.
+ */
+export async function expectOneReadImport(sent: ImportStepSent[], label: string, file: Buffer): Promise<void> {
+  expect(sent.map((s) => s.step)).toEqual(['inspect', 'preview', 'commit']);
+  const drafts = await Promise.all(sent.slice(1).map(async ({ request }) => {
+    const body = request.postData() ?? '';
+    expect(body).not.toContain('name="file"');
+    expect((await request.sizes()).requestBodySize).toBeLessThan(file.length);
+    return /name="draftId"\r\n\r\n([0-9a-f-]{36})\r\n/.exec(body)?.[1];
+  }));
+  expect(drafts[0]).toMatch(/^[0-9a-f-]{36}$/);
+  expect(drafts[1]).toBe(drafts[0]);
+  const draft = await queryOne<{ label: string; sha256: string; size: number; used: boolean; sheets: boolean }>(
+    `select p.label, d.sha256, d.size_bytes as size, d.consumed_at is not null as used, d.sheets is not null as sheets
+       from import_drafts d join plates p on p.id = d.plate_id where d.id = $1`,
+    [drafts[0]],
+  );
+  expect(draft).toEqual({ label, sha256: createHash('sha256').update(file).digest('hex'), size: file.length, used: true, sheets: false });
 }

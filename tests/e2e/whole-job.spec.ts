@@ -1,7 +1,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import * as XLSX from 'xlsx';
 import { dbRow, PEOPLE, shot, signedIn } from './signoff-support';
-import { freshPotassiumExport } from './support';
+import { expectOneReadImport, freshPotassiumExport, watchImportSteps } from './support';
 
 // The whole job on demo data, in the browser: a biologist imports an export, reviews QC, excludes a
 // well, reads the fits and the forecast and submits; a chemist verifies the compound map; an approver
@@ -21,13 +21,16 @@ test('import, review, exclude, fits and forecast, verify, submit, approve with s
 
   // Import.
   await biologist.getByRole('link', { name: 'Import a plate' }).click();
+  const sent = watchImportSteps(biologist);
+  const importedFile = freshPotassiumExport();
   await biologist.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-  await biologist.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-whole-job.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
+  await biologist.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-whole-job.csv', mimeType: 'text/csv', buffer: importedFile });
   await biologist.getByRole('button', { name: 'Read file' }).click();
   await biologist.getByRole('button', { name: 'Check every row' }).click();
   await biologist.getByLabel('Plate label').fill(LABEL);
   await biologist.getByRole('button', { name: 'Store plate' }).click();
   await expect(biologist.getByRole('heading', { name: new RegExp(`Plate ${LABEL}`) })).toBeVisible();
+  await expectOneReadImport(sent, LABEL, importedFile);
   const plateUrl = new URL(biologist.url()).pathname;
 
   // Review QC and exclude one passing GW-0009 well.

@@ -46,8 +46,8 @@ describe('imports as jobs', () => {
   });
   afterAll(() => stopJobWorkers());
 
-  async function request(file: string, label?: string): Promise<CommitRequest> {
-    return demoCommitRequest(biologist, screens, file, label ? { label } : {});
+  async function request(file: string, label?: string, source: 'draft' | 'file' = 'draft'): Promise<CommitRequest> {
+    return demoCommitRequest(biologist, screens, file, { ...(label ? { label } : {}), source });
   }
 
   test('a queued import is stored by a worker, which removes the upload and puts the plate on the job', async () => {
@@ -75,7 +75,7 @@ describe('imports as jobs', () => {
   });
 
   test('a refused import reaches the waiting request as the same refusal, with its reasons, and writes nothing', async () => {
-    const bad = { ...(await request('kv-96-plate-01.csv')), bytes: new TextEncoder().encode('Well,Compound,Target,I control (pA),I compound (pA)\nA01,DMSO,Kv7.2,900,880\n') };
+    const bad = { ...(await request('kv-96-plate-01.csv', undefined, 'file')), bytes: new TextEncoder().encode('Well,Compound,Target,I control (pA),I compound (pA)\nA01,DMSO,Kv7.2,900,880\n') };
     const before = await importRowCounts();
     const jobId = await queueImport(biologist, bad);
     const refusal = await awaitImport(jobId).catch((error: unknown) => error);
@@ -86,8 +86,8 @@ describe('imports as jobs', () => {
     expect(await ComputeJob.findByPk(jobId, { rejectOnEmpty: true })).toMatchObject({ state: 'failed', outcome: { code: 'invalid' } });
   });
 
-  test('the same file twice: the second import is refused as a duplicate', async () => {
-    const file = await request('nav-96-plate-01.xlsx', 'JOB-TWICE');
+  test('the same file sent twice: the second import is refused as a duplicate', async () => {
+    const file = await request('nav-96-plate-01.xlsx', 'JOB-TWICE', 'file');
     expect((await awaitImport(await queueImport(biologist, file))).state).toBe('stored');
     await expect(awaitImport(await queueImport(biologist, { ...file, label: 'JOB-TWICE-AGAIN' }))).rejects.toMatchObject({ code: 'conflict' });
     expect(await Plate.count({ where: { label: 'JOB-TWICE-AGAIN' } })).toBe(0);

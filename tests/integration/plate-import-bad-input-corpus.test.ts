@@ -43,7 +43,7 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
   async function importAll(bytes: Uint8Array, filename: string) {
     const inspection = await bounded(() => inspectUpload(biologist, upload(bytes, filename)));
     const sheet = inspection.sheets[0]!;
-    return bounded(() => commitImport(biologist, { ...upload(bytes, filename), sheet: sheet.name, mapping: sheet.guess.mapping, label: 'BAD-CORPUS', templateName: 'bad corpus' }));
+    return bounded(() => commitImport(biologist, { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping, label: 'BAD-CORPUS', templateName: 'bad corpus' }));
   }
 
   /** Runs the import and returns its refusal, having checked that nothing was written. */
@@ -85,9 +85,10 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     const rows: (string | number | { formula: string })[][] = [HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(',').map((v) => (v !== '' && !Number.isNaN(Number(v)) ? Number(v) : v)))];
     rows.push(['A05', 'GW-0001', 1, 'Kv7.2', { formula: '400+400' }, 700, 1.8, 4, 18]);
     const workbook = upload(workbookWithCells(rows), 'formula.xlsx');
-    const sheet = (await inspectUpload(biologist, workbook)).sheets[0]!;
+    const inspected = await inspectUpload(biologist, workbook);
+    const sheet = inspected.sheets[0]!;
     expect(sheet.sample[4]).toEqual(['A05', 'GW-0001', 1, 'Kv7.2', null, 700, 1.8, 4, 18]);
-    const preview = await previewImport(biologist, { ...workbook, sheet: sheet.name, mapping: sheet.guess.mapping });
+    const preview = await previewImport(biologist, { draftId: inspected.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping });
     expect(preview.rows.find((r) => r.row === 6)!.values.controlCurrent_pA).toBeNull();
   });
 
@@ -97,7 +98,7 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     const bytes = csv(HEADER, ...GOOD_ROWS, `A05,"${markup}",1,Kv7.2,800,700,1.8,4,18`, `A06,GW-0001,1,"${script}",800,700,1.8,4,18`);
     const inspection = await inspectUpload(biologist, upload(bytes, 'markup.csv'));
     const sheet = inspection.sheets[0]!;
-    const preview = await previewImport(biologist, { ...upload(bytes, 'markup.csv'), sheet: sheet.name, mapping: sheet.guess.mapping });
+    const preview = await previewImport(biologist, { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping });
     const byRow = new Map(preview.rows.map((r) => [r.row, r]));
     expect(byRow.get(6)!.values.compound).toBe(markup);
     expect(byRow.get(6)!.status).toBe('error');
@@ -144,7 +145,7 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     const inspection = await inspectUpload(biologist, upload(marked, 'utf16-bom.csv'));
     const sheet = inspection.sheets[0]!;
     expect(sheet.headers).toEqual(HEADER.split(','));
-    const preview = await previewImport(biologist, { ...upload(marked, 'utf16-bom.csv'), sheet: sheet.name, mapping: sheet.guess.mapping });
+    const preview = await previewImport(biologist, { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping });
     expect(preview.summary.errorRows).toBe(0);
     expect(preview.rows).toHaveLength(GOOD_ROWS.length);
   });

@@ -23,7 +23,7 @@ describe('bad plate exports are refused with a clear message, and nothing is wri
     const upload = { screenId, bytes, filename, mediaType: 'text/csv' };
     const inspection = await inspectUpload(biologist, upload);
     const sheet = inspection.sheets[0]!;
-    return commitImport(biologist, { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: 'BAD' });
+    return commitImport(biologist, { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping, label: 'BAD' });
   }
 
   test.each([

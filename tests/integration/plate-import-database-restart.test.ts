@@ -15,11 +15,12 @@ import { outsideClient, pollFor, testCluster } from '../support/test-cluster';
 // file, plate, wells, readouts and fits, none of them committed.
 const FILE = 'kv-96-plate-01.csv';
 
+/** The commit of the file's import draft: a failed commit leaves the draft unused, so the same request goes through afterwards. */
 async function commitRequest(biologist: Actor, screenId: string): Promise<CommitRequest> {
   const { bytes, manifest } = demoFile(FILE);
-  const upload = { screenId, bytes, filename: FILE, mediaType: 'text/csv' };
-  const sheet = (await inspectUpload(biologist, upload)).sheets.find((s) => s.name === manifest.dataSheet)!;
-  return { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate };
+  const inspection = await inspectUpload(biologist, { screenId, bytes, filename: FILE, mediaType: 'text/csv' });
+  const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet)!;
+  return { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate };
 }
 
 describe('a database restart during an import', () => {

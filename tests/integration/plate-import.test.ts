@@ -25,15 +25,16 @@ describe('plate import on the real database', () => {
   });
   afterAll(() => db().close());
 
+  /** Inspect, then commit the draft inspect kept with the guessed mapping; returns the file's upload too. */
   async function importDemo(name: string, mediaType = XLSX) {
     const { bytes, manifest } = demoFile(name);
     const upload = { screenId: screens[manifest.target]!, bytes, filename: name, mediaType };
     const inspection = await inspectUpload(biologist, upload);
     const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet)!;
-    const request = { ...upload, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate };
-    const stored = await commitImport(biologist, request);
+    const choice = { sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate };
+    const stored = await commitImport(biologist, { draftId: inspection.draftId!, ...choice });
     await fitsCurrent(stored.plateId);
-    return { manifest, request, ...stored };
+    return { manifest, request: { ...upload, ...choice }, ...stored };
   }
 
   test.each(['nav-96-plate-01.xlsx', 'nav-384-plate-02.xlsx', 'kv-96-plate-01.csv'])(
@@ -87,6 +88,7 @@ describe('plate import on the real database', () => {
     const before = await countRows();
     const inspection = await inspectUpload(biologist, request);
     expect(inspection.duplicateOf).toEqual({ plateId, label: 'NAV-P01' });
+    expect(inspection.draftId).toBeNull(); // a file that cannot be stored again gets no draft
     await expect(commitImport(biologist, { ...request, label: 'again' })).rejects.toMatchObject({
       code: 'conflict', message: 'This exact file was already imported for this screen as plate NAV-P01.', details: { plateId },
     });
@@ -98,7 +100,7 @@ describe('plate import on the real database', () => {
     const upload = { screenId: screens[manifest.target]!, bytes, filename: 'x.xlsx', mediaType: XLSX };
     await expect(inspectUpload(await makeActor(['chemist']), upload)).rejects.toMatchObject({ code: 'forbidden' });
     const inspection = await inspectUpload(biologist, upload);
-    const preview = await previewImport(biologist, { ...upload, sheet: manifest.dataSheet, mapping: inspection.sheets.find((s) => s.name === manifest.dataSheet)!.guess.mapping });
+    const preview = await previewImport(biologist, { draftId: inspection.draftId!, sheet: manifest.dataSheet, mapping: inspection.sheets.find((s) => s.name === manifest.dataSheet)!.guess.mapping });
     expect(preview.ok).toBe(true);
     expect(Object.keys(preview.qc).length).toBeGreaterThan(0);
     expect(await countRows()).toEqual({ plates: 0, wells: 0, readouts: 0, fits: 0, files: 0 });
