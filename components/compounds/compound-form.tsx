@@ -1,14 +1,12 @@
 'use client';
 
 import { useActionState } from 'react';
-import { Field, FormMessage } from '@/components/forms/field';
-import type { ActionState } from '@/lib/actions/validated-action';
+import { Field, SubmitRow } from '@/components/forms/field';
+import type { FormAction } from '@/lib/actions/validated-action';
 import type { CompoundRecord } from '@/lib/compounds/service';
 
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
-
 /** Registration or edit form of a compound's identity fields. */
-export function CompoundForm({ action, compound, submitLabel }: { action: Action; compound?: CompoundRecord; submitLabel: string }) {
+export function CompoundForm({ action, compound, submitLabel }: { action: FormAction; compound?: CompoundRecord; submitLabel: string }) {
   const [state, formAction, pending] = useActionState(action, {});
   const errors = state.fieldErrors ?? {};
   return (
@@ -20,10 +18,7 @@ export function CompoundForm({ action, compound, submitLabel }: { action: Action
         <Field label="SMILES" name="smiles" defaultValue={compound?.smiles} errors={errors.smiles} className="gw-input mt-1 font-mono" />
       </div>
       <Field label="Molecular weight (g/mol)" name="molecularWeight" inputMode="decimal" defaultValue={compound?.molecularWeight ?? ''} errors={errors.molecularWeight} />
-      <div className="flex items-end gap-3 pb-5 sm:col-span-2">
-        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Saving…' : submitLabel}</button>
-        <FormMessage ok={state.ok} message={state.message} />
-      </div>
+      <SubmitRow label={submitLabel} pendingLabel="Saving…" pending={pending} state={state} className="flex items-end gap-3 pb-5 sm:col-span-2" />
     </form>
   );
 }

@@ -27,3 +27,20 @@ export function FormMessage({ ok, message }: { ok?: boolean | undefined; message
     </p>
   );
 }
+
+/** A form's submit button, saying `pendingLabel` while the action runs, with the action's message beside it. */
+export function SubmitRow({ label, pendingLabel, pending, state, className }: {
+  label: string;
+  pendingLabel: string;
+  pending: boolean;
+  state: { ok?: boolean | undefined; message?: string | undefined };
+  /** The row's layout classes. */
+  className: string;
+}) {
+  return (
+    <div className={className}>
+      <button type="submit" className="gw-button" disabled={pending}>{pending ? pendingLabel : label}</button>
+      <FormMessage ok={state.ok} message={state.message} />
+    </div>
+  );
+}

@@ -1,13 +1,11 @@
 'use client';
 
 import { useActionState } from 'react';
-import type { ActionState } from '@/lib/actions/validated-action';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
+import type { FormAction } from '@/lib/actions/validated-action';
 
 /** A one-button form for an outbox command, with its answer announced beside it. */
 export function OutboxButton({ action, label, busyLabel, fields = {}, quiet = false }: {
-  action: Action; label: string; busyLabel: string; fields?: Record<string, string>; quiet?: boolean;
+  action: FormAction; label: string; busyLabel: string; fields?: Record<string, string>; quiet?: boolean;
 }) {
   const [state, formAction, pending] = useActionState(action, {});
   return (

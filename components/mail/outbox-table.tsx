@@ -1,10 +1,8 @@
 import { AppLink } from '@/components/ui/app-link';
 import { DataTable } from '@/components/ui/data-table';
-import type { ActionState } from '@/lib/actions/validated-action';
+import type { FormAction } from '@/lib/actions/validated-action';
 import type { OutboxRow } from '@/lib/mail/admin';
 import { OutboxButton } from './outbox-buttons';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
 const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium', timeZone: 'UTC' });
 const at = (iso: string | null) => (iso ? `${when.format(new Date(iso))} UTC` : '');
@@ -20,7 +18,7 @@ function DeliveryState({ row }: { row: OutboxRow }) {
 }
 
 /** The outbox, newest first: to whom, about what, and how delivery went. */
-export function OutboxTable({ rows, requeue }: { rows: OutboxRow[]; requeue: Action }) {
+export function OutboxTable({ rows, requeue }: { rows: OutboxRow[]; requeue: FormAction }) {
   return (
     <DataTable
       caption="Mail outbox"

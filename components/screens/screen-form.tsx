@@ -1,18 +1,16 @@
 'use client';
 
 import { useActionState } from 'react';
-import { Field, FormMessage } from '@/components/forms/field';
+import { Field, SubmitRow } from '@/components/forms/field';
 import { SelectField } from '@/components/forms/select-field';
-import type { ActionState } from '@/lib/actions/validated-action';
+import type { FormAction } from '@/lib/actions/validated-action';
 import type { ScreenDetail } from '@/lib/screens/list';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
 /** Values a new screen starts from: the QC defaults of lib/science/qc/qc-thresholds.ts. */
 const NEW_SCREEN = { zPrimeMin: 0.5, sealResistanceMin_GOhm: 0.5, controlCurrentMin_pA: 200, seriesResistanceMax_MOhm: 25, capacitanceMin_pF: 1, capacitanceMax_pF: 100, vehicleRundownMax_fraction: 0.2 };
 
 export function ScreenForm({ action, screen, presets, submitLabel }: {
-  action: Action;
+  action: FormAction;
   screen?: ScreenDetail;
   presets: { value: string; label: string }[];
   submitLabel: string;
@@ -36,10 +34,7 @@ export function ScreenForm({ action, screen, presets, submitLabel }: {
       <Field label="Capacitance to (pF)" name="capacitanceMax_pF" inputMode="decimal" defaultValue={v.capacitanceMax_pF} errors={e.capacitanceMax_pF} />
       <Field label="Vehicle run-down at most (%)" name="vehicleRundownMax_percent" inputMode="decimal" defaultValue={Math.round(v.vehicleRundownMax_fraction * 1000) / 10} errors={e.vehicleRundownMax_percent} />
       <Field label="Plate Z′ at least" name="zPrimeMin" inputMode="decimal" defaultValue={v.zPrimeMin} errors={e.zPrimeMin} />
-      <div className="flex items-center gap-3 sm:col-span-2 lg:col-span-3">
-        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Saving…' : submitLabel}</button>
-        <FormMessage ok={state.ok} message={state.message} />
-      </div>
+      <SubmitRow label={submitLabel} pendingLabel="Saving…" pending={pending} state={state} className="flex items-center gap-3 sm:col-span-2 lg:col-span-3" />
     </form>
   );
 }

@@ -1,14 +1,12 @@
 'use client';
 
 import { useActionState } from 'react';
-import { Field, FormMessage } from '@/components/forms/field';
+import { Field, SubmitRow } from '@/components/forms/field';
 import { SelectField } from '@/components/forms/select-field';
-import type { ActionState } from '@/lib/actions/validated-action';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
+import type { FormAction } from '@/lib/actions/validated-action';
 
 /** Adds a target (a measured current) and the model conductance it maps to. */
-export function TargetForm({ action, screenId, conductances }: { action: Action; screenId: string; conductances: string[] }) {
+export function TargetForm({ action, screenId, conductances }: { action: FormAction; screenId: string; conductances: string[] }) {
   const [state, formAction, pending] = useActionState(action, {});
   const e = state.fieldErrors ?? {};
   return (
@@ -17,10 +15,7 @@ export function TargetForm({ action, screenId, conductances }: { action: Action;
       <Field label="Target (as the export names it)" name="name" required errors={e.name} />
       <SelectField label="Model conductance" name="conductance" options={conductances.map((c) => ({ value: c, label: c }))} errors={e.conductance} />
       <Field label="Description" name="description" errors={e.description} />
-      <div className="flex items-center gap-3 sm:col-span-3">
-        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Adding…' : 'Add target'}</button>
-        <FormMessage ok={state.ok} message={state.message} />
-      </div>
+      <SubmitRow label="Add target" pendingLabel="Adding…" pending={pending} state={state} className="flex items-center gap-3 sm:col-span-3" />
     </form>
   );
 }

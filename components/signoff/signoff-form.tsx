@@ -2,10 +2,8 @@
 
 import { startTransition, useActionState, useRef, useState, type FormEvent } from 'react';
 import { FormMessage } from '@/components/forms/field';
-import type { ActionState } from '@/lib/actions/validated-action';
+import type { ActionState, FormAction } from '@/lib/actions/validated-action';
 import type { SignoffAction } from '@/lib/domain/plate-states';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
 export interface FormChoice {
   action: SignoffAction;
@@ -20,7 +18,7 @@ export interface FormChoice {
  * after the panel re-renders with the plate's new state.
  */
 export function SignoffForm({ action, plateId, version, choices, notYours }: {
-  action: Action; plateId: string; version: number; choices: FormChoice[]; notYours: string | null;
+  action: FormAction; plateId: string; version: number; choices: FormChoice[]; notYours: string | null;
 }) {
   const [state, formAction, pending] = useActionState(action, {});
   const form = useRef<HTMLFormElement>(null);

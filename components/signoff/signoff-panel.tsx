@@ -1,16 +1,14 @@
 import { StateBadge } from '@/components/ui/state-badge';
-import type { ActionState } from '@/lib/actions/validated-action';
+import type { FormAction } from '@/lib/actions/validated-action';
 import type { SignoffPanelData } from '@/lib/signoff/panel';
 import { SignoffForm } from './signoff-form';
 import { SignoffSteps } from './signoff-steps';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
 
 const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
 const short = (sha: string) => `${sha.slice(0, 12)}…`;
 
 /** Where the plate stands in sign-off, whether its data still match the last signature, and the form for this person's step. */
-export function SignoffPanel({ data, action }: { data: SignoffPanelData; action: Action }) {
+export function SignoffPanel({ data, action }: { data: SignoffPanelData; action: FormAction }) {
   const last = data.lastSignature;
   const unchanged = last?.contentSha256 === data.currentSha256;
   return (

@@ -15,6 +15,9 @@ export interface ActionState {
   fieldErrors?: Record<string, string[] | undefined>;
 }
 
+/** A server action as a form calls it: the state it last answered, and the form's data. */
+export type FormAction<State extends ActionState = ActionState> = (state: State, formData: FormData) => Promise<State>;
+
 /**
  * The one way server actions are written: loads the signed-in actor, refuses anyone who must first
  * choose their own password (unless `beforeOwnPassword`), checks roles, parses the form with

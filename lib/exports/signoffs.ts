@@ -1,20 +1,7 @@
 import 'server-only';
-import { PLATE_STATE_LABEL, type PlateState } from '@/lib/domain/plate-states';
+import { PLATE_STATE_LABEL } from '@/lib/domain/plate-states';
 import type { Cell, ExportTable } from './document';
-import { selectPlateSignoffs } from './queries';
-
-export interface PlateSignoff {
-  plateId: string;
-  plateLabel: string;
-  fromState: PlateState;
-  toState: PlateState;
-  signer: string;
-  signerEmail: string;
-  meaning: string;
-  comment: string;
-  signedAt: string;
-  contentSha256: string;
-}
+import { selectPlateSignoffs, type PlateSignoffRow as PlateSignoff } from './queries';
 
 /** Every signed transition of these plates, oldest first, with who signed, meaning and comment. */
 export async function listPlateSignoffs(plateIds: string[]): Promise<PlateSignoff[]> {

@@ -167,32 +167,20 @@ export interface PlateFilter {
 function filterSql(filter: PlateFilter): { where: string; replacements: Record<string, unknown> } | null {
   const where: string[] = [];
   const replacements: Record<string, unknown> = {};
-  if (filter.state?.length) {
-    where.push('p.state in (:states)');
-    replacements.states = filter.state;
-  }
+  const add = (condition: string, values: Record<string, unknown>) => {
+    where.push(condition);
+    Object.assign(replacements, values);
+  };
+  if (filter.state?.length) add('p.state in (:states)', { states: filter.state });
   if (filter.waitingFor) {
     const awaiting = awaitingCondition(filter.waitingFor);
     if (!awaiting) return null;
-    where.push(awaiting.sql);
-    Object.assign(replacements, awaiting.replacements);
+    add(awaiting.sql, awaiting.replacements);
   }
-  if (filter.screenId) {
-    where.push('p.screen_id = :screenId');
-    replacements.screenId = filter.screenId;
-  }
-  if (filter.importedBy) {
-    where.push('p.imported_by = :importedBy');
-    replacements.importedBy = filter.importedBy;
-  }
-  if (filter.from) {
-    where.push("p.imported_at >= (cast(:from as date) at time zone 'UTC')");
-    replacements.from = filter.from;
-  }
-  if (filter.to) {
-    where.push("p.imported_at < ((cast(:to as date) + 1) at time zone 'UTC')");
-    replacements.to = filter.to;
-  }
+  if (filter.screenId) add('p.screen_id = :screenId', { screenId: filter.screenId });
+  if (filter.importedBy) add('p.imported_by = :importedBy', { importedBy: filter.importedBy });
+  if (filter.from) add("p.imported_at >= (cast(:from as date) at time zone 'UTC')", { from: filter.from });
+  if (filter.to) add("p.imported_at < ((cast(:to as date) + 1) at time zone 'UTC')", { to: filter.to });
   return { where: where.length ? `where ${where.join(' and ')}` : '', replacements };
 }
 

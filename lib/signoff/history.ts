@@ -3,20 +3,10 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { Plate } from '@/models';
-import { selectPlateHistory } from './queries';
+import { selectPlateHistory, type HistoryRow } from './queries';
 
 /** One event of a plate's history: an audit event, with its signature when it is one. */
-export interface HistoryEntry {
-  id: number;
-  occurredAt: string;
-  actorName: string | null;
-  action: string;
-  entityType: string;
-  /** Well position, for events of one of the plate's wells. */
-  wellPosition: string | null;
-  reason: string | null;
-  before: Record<string, unknown> | null;
-  after: Record<string, unknown> | null;
+export interface HistoryEntry extends Omit<HistoryRow, 'meaning' | 'comment' | 'contentSha256' | 'signedAt'> {
   signature: { meaning: string; comment: string; contentSha256: string; signedAt: string } | null;
 }
 

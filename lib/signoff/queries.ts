@@ -113,6 +113,7 @@ export interface HistoryRow {
   actorName: string | null;
   action: string;
   entityType: string;
+  /** Well position, for events of one of the plate's wells. */
   wellPosition: string | null;
   reason: string | null;
   before: Record<string, unknown> | null;

@@ -25,20 +25,28 @@ export interface DemoCompound {
 
 const potency = (ic50_uM: number, hillSlope: number): TruePotency => ({ ic50_uM, hillSlope });
 
+/** The identifier of demo compound `n` (GW-0001 …). */
+export const demoCompoundId = (n: number) => `GW-${String(n).padStart(4, '0')}`;
+
+/** Demo compound `n`: its molecular weight (g/mol) and its true potency on Nav1.7 and on Kv7.2. */
+const compound = (n: number, molecularWeight: number, nav: TruePotency, kv: TruePotency): DemoCompound => ({
+  identifier: demoCompoundId(n), name: `Demo blocker ${n}`, molecularWeight, truth: { 'Nav1.7': nav, 'Kv7.2': kv },
+});
+
 /** A dozen invented sodium-channel blockers; some touch the potassium counter-target, some do not. */
 export const DEMO_COMPOUNDS: DemoCompound[] = [
-  { identifier: 'GW-0001', name: 'Demo blocker 1', molecularWeight: 342.4, truth: { 'Nav1.7': potency(0.045, 1.1), 'Kv7.2': potency(38, 1.0) } },
-  { identifier: 'GW-0002', name: 'Demo blocker 2', molecularWeight: 368.9, truth: { 'Nav1.7': potency(0.21, 0.9), 'Kv7.2': potency(120, 1.0) } },
-  { identifier: 'GW-0003', name: 'Demo blocker 3', molecularWeight: 301.3, truth: { 'Nav1.7': potency(1.3, 1.4), 'Kv7.2': potency(5.2, 1.1) } },
-  { identifier: 'GW-0004', name: 'Demo blocker 4', molecularWeight: 415.5, truth: { 'Nav1.7': potency(0.018, 1.0), 'Kv7.2': potency(2.5, 0.8) } },
-  { identifier: 'GW-0005', name: 'Demo blocker 5', molecularWeight: 289.7, truth: { 'Nav1.7': potency(3.8, 1.0), 'Kv7.2': potency(3000, 1.0) } },
-  { identifier: 'GW-0006', name: 'Demo blocker 6', molecularWeight: 377.2, truth: { 'Nav1.7': potency(0.62, 1.8), 'Kv7.2': potency(45, 1.2) } },
-  { identifier: 'GW-0007', name: 'Demo blocker 7', molecularWeight: 322.8, truth: { 'Nav1.7': potency(9.5, 0.65), 'Kv7.2': potency(9.0, 1.0) } },
-  { identifier: 'GW-0008', name: 'Demo blocker 8', molecularWeight: 398.1, truth: { 'Nav1.7': potency(0.095, 1.2), 'Kv7.2': potency(3000, 1.0) } },
-  { identifier: 'GW-0009', name: 'Demo blocker 9', molecularWeight: 276.3, truth: { 'Nav1.7': potency(60, 1.0), 'Kv7.2': potency(0.9, 1.3) } },
-  { identifier: 'GW-0010', name: 'Demo blocker 10', molecularWeight: 351.0, truth: { 'Nav1.7': potency(0.33, 1.0), 'Kv7.2': potency(18, 0.9) } },
-  { identifier: 'GW-0011', name: 'Demo blocker 11', molecularWeight: 310.6, truth: { 'Nav1.7': potency(5000, 1.0), 'Kv7.2': potency(3000, 1.0) } },
-  { identifier: 'GW-0012', name: 'Demo blocker 12', molecularWeight: 433.9, truth: { 'Nav1.7': potency(2.1, 1.1), 'Kv7.2': potency(70, 1.0) } },
+  compound(1, 342.4, potency(0.045, 1.1), potency(38, 1.0)),
+  compound(2, 368.9, potency(0.21, 0.9), potency(120, 1.0)),
+  compound(3, 301.3, potency(1.3, 1.4), potency(5.2, 1.1)),
+  compound(4, 415.5, potency(0.018, 1.0), potency(2.5, 0.8)),
+  compound(5, 289.7, potency(3.8, 1.0), potency(3000, 1.0)),
+  compound(6, 377.2, potency(0.62, 1.8), potency(45, 1.2)),
+  compound(7, 322.8, potency(9.5, 0.65), potency(9.0, 1.0)),
+  compound(8, 398.1, potency(0.095, 1.2), potency(3000, 1.0)),
+  compound(9, 276.3, potency(60, 1.0), potency(0.9, 1.3)),
+  compound(10, 351.0, potency(0.33, 1.0), potency(18, 0.9)),
+  compound(11, 310.6, potency(5000, 1.0), potency(3000, 1.0)),
+  compound(12, 433.9, potency(2.1, 1.1), potency(70, 1.0)),
 ];
 
 /** Identifier of vehicle wells (0 % block) and of the invented reference blocker (full block). */

@@ -1,5 +1,5 @@
 // The four demo plates: what each holds, how noisy it is, which wells fail, and its export layout.
-import type { DemoTarget } from './demo-compounds';
+import { demoCompoundId, type DemoTarget } from './demo-compounds';
 
 /** Why a demo well should fail well QC. */
 export type FailureKind = 'low_seal' | 'small_current' | 'high_series_resistance' | 'missing_value';
@@ -54,7 +54,12 @@ const QUIET: NoiseModel = { rundownMean: 0.95, rundownSd: 0.02, ratioSd: 0.025, 
 /** Noisy controls: σ_veh = √(0.09² + 0.06²) ≈ 0.11, σ_ref = 0.10, so Z′ ≈ 1 − 3 (0.11 + 0.10) / 0.93 ≈ 0.33, below the default limit 0.5. */
 const NOISY_CONTROLS: NoiseModel = { rundownMean: 0.95, rundownSd: 0.09, ratioSd: 0.06, referenceRatio: 0.02, referenceSd: 0.1, currentNoise_pA: 8 };
 
-const ids = (...numbers: number[]) => numbers.map((n) => `GW-${String(n).padStart(4, '0')}`);
+const ids = (...numbers: number[]) => numbers.map(demoCompoundId);
+
+/** The 96-well demo layout: the half-log series in duplicate, vehicle in column 1 and reference in column 12. */
+const PLATE_96: Pick<PlatePlan, 'format' | 'concentrations_uM' | 'replicates' | 'vehicleColumns' | 'referenceColumns'> = {
+  format: 96, concentrations_uM: HALF_LOG_SERIES_UM, replicates: 2, vehicleColumns: [1], referenceColumns: [12],
+};
 
 /**
  * The demo plates. Seeds were picked so that, with Gatewell's fitting engine as first written, every true
@@ -66,13 +71,9 @@ export const PLATE_PLANS: PlatePlan[] = [
     file: 'nav-96-plate-01.xlsx',
     plateName: 'NAV-P01',
     target: 'Nav1.7',
-    format: 96,
+    ...PLATE_96,
     seed: 9601,
     compounds: ids(1, 2, 3, 4, 5),
-    concentrations_uM: HALF_LOG_SERIES_UM,
-    replicates: 2,
-    vehicleColumns: [1],
-    referenceColumns: [12],
     noise: QUIET,
     failures: [
       { well: 'B03', kind: 'low_seal' },
@@ -108,13 +109,9 @@ export const PLATE_PLANS: PlatePlan[] = [
     file: 'kv-96-plate-01.csv',
     plateName: 'KV-P01',
     target: 'Kv7.2',
-    format: 96,
+    ...PLATE_96,
     seed: 9611,
     compounds: ids(1, 3, 6, 9, 12),
-    concentrations_uM: HALF_LOG_SERIES_UM,
-    replicates: 2,
-    vehicleColumns: [1],
-    referenceColumns: [12],
     noise: QUIET,
     failures: [
       { well: 'D04', kind: 'low_seal' },
@@ -126,13 +123,9 @@ export const PLATE_PLANS: PlatePlan[] = [
     file: 'nav-96-plate-03-noisy.xlsx',
     plateName: 'NAV-P03',
     target: 'Nav1.7',
-    format: 96,
+    ...PLATE_96,
     seed: 9603,
     compounds: ids(6, 7, 8, 9, 10),
-    concentrations_uM: HALF_LOG_SERIES_UM,
-    replicates: 2,
-    vehicleColumns: [1],
-    referenceColumns: [12],
     noise: NOISY_CONTROLS,
     failures: [{ well: 'A06', kind: 'high_series_resistance' }],
     layout: 'flat-sheet',

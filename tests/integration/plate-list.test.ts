@@ -3,20 +3,14 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { listImporters, listPlates } from '@/lib/plates/list';
 import { plateFilterSchema } from '@/lib/validation/plate-filter';
-import { makeActor } from '../support/actors';
-import { resetDatabase } from '../support/database';
-import { importDemoPlate } from '../support/demo-plates';
-import { makeDemoScreens } from '../support/demo-scenario';
+import { threeDemoPlatesSetup } from '../support/demo-plates';
 
 describe('plates list filters on the real database', () => {
   let biologist: Actor;
   let screens: Record<string, string>;
 
   beforeAll(async () => {
-    await resetDatabase();
-    screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
-    biologist = await makeActor(['biologist']);
-    for (const name of ['nav-96-plate-01.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx']) await importDemoPlate(biologist, screens, name);
+    ({ biologist, screens } = await threeDemoPlatesSetup());
   });
   afterAll(() => db().close());
 

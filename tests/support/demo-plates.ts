@@ -1,6 +1,6 @@
 import type { Actor } from '@/lib/auth/roles';
 import { commitImport, inspectUpload, type CommitRequest } from '@/lib/plates/import-service';
-import { demoFile } from './demo-scenario';
+import { demoFile, demoScreensSetup } from './demo-scenario';
 import { fitsCurrent } from './jobs';
 
 /**
@@ -26,4 +26,11 @@ export async function importDemoPlate(biologist: Actor, screens: Record<string, 
   const { plateId } = await commitImport(biologist, await demoCommitRequest(biologist, screens, file, options));
   await fitsCurrent(plateId);
   return plateId;
+}
+
+/** The plates list's scenario: a fresh database with the demo screens, and three demo plates imported by one biologist. */
+export async function threeDemoPlatesSetup(): Promise<{ biologist: Actor; screens: Record<string, string> }> {
+  const setup = await demoScreensSetup();
+  for (const name of ['nav-96-plate-01.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx']) await importDemoPlate(setup.biologist, setup.screens, name);
+  return setup;
 }

@@ -32,9 +32,15 @@ export async function makeDemoScreens(admin: Actor, chemist: Actor): Promise<Rec
   return { 'Nav1.7': nav.id, 'Kv7.2': kv.id };
 }
 
-/** A fresh database with the demo screens and compounds, and a biologist to import onto the potassium screen. */
-export async function potassiumImportSetup(): Promise<{ biologist: Actor; screenId: string }> {
+/** A fresh database with the demo screens and compounds, and a biologist to import onto them. */
+export async function demoScreensSetup(): Promise<{ biologist: Actor; screens: Record<string, string> }> {
   await resetDatabase();
   const screens = await makeDemoScreens(await makeActor(['admin']), await makeActor(['chemist']));
-  return { biologist: await makeActor(['biologist']), screenId: screens['Kv7.2']! };
+  return { biologist: await makeActor(['biologist']), screens };
+}
+
+/** A fresh database with the demo screens and compounds, and a biologist to import onto the potassium screen. */
+export async function potassiumImportSetup(): Promise<{ biologist: Actor; screenId: string }> {
+  const { biologist, screens } = await demoScreensSetup();
+  return { biologist, screenId: screens['Kv7.2']! };
 }

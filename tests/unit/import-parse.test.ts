@@ -1,9 +1,9 @@
-import { crc32 } from 'node:zlib';
 import { describe, expect, test } from 'vitest';
 import XLSX from 'xlsx';
 import { parseSpreadsheet, type ParseSpreadsheetOptions } from '@/lib/imports/parse-spreadsheet';
 import type { SpreadsheetErrorCode } from '@/lib/imports/spreadsheet-types';
 import { makeRandom } from '@/scripts/demo-plates/random';
+import { zip } from '../fixtures/bad-input/build-corpus';
 
 const text = (value: string) => new TextEncoder().encode(value);
 
@@ -11,35 +11,6 @@ function workbookBytes(sheets: Record<string, XLSX.WorkSheet>, bookType: XLSX.Bo
   const book = XLSX.utils.book_new();
   for (const [name, sheet] of Object.entries(sheets)) XLSX.utils.book_append_sheet(book, sheet, name);
   return new Uint8Array(XLSX.write(book, { type: 'array', bookType }) as ArrayBuffer);
-}
-
-/** A ZIP archive with one stored (uncompressed) entry, laid out by hand (PKWARE APPNOTE 4.3). */
-function storedZip(name: string, content: string): Uint8Array {
-  const fileName = Buffer.from(name);
-  const data = Buffer.from(content);
-  const crc = crc32(data);
-  const local = Buffer.alloc(30);
-  local.writeUInt32LE(0x04034b50, 0);
-  local.writeUInt16LE(20, 4);
-  local.writeUInt32LE(crc, 14);
-  local.writeUInt32LE(data.length, 18);
-  local.writeUInt32LE(data.length, 22);
-  local.writeUInt16LE(fileName.length, 26);
-  const central = Buffer.alloc(46);
-  central.writeUInt32LE(0x02014b50, 0);
-  central.writeUInt16LE(20, 4);
-  central.writeUInt16LE(20, 6);
-  central.writeUInt32LE(crc, 16);
-  central.writeUInt32LE(data.length, 20);
-  central.writeUInt32LE(data.length, 24);
-  central.writeUInt16LE(fileName.length, 28);
-  const end = Buffer.alloc(22);
-  end.writeUInt32LE(0x06054b50, 0);
-  end.writeUInt16LE(1, 8);
-  end.writeUInt16LE(1, 10);
-  end.writeUInt32LE(46 + fileName.length, 12);
-  end.writeUInt32LE(30 + fileName.length + data.length, 16);
-  return new Uint8Array(Buffer.concat([local, fileName, data, central, fileName, end]));
 }
 
 describe('parseSpreadsheet reads workbooks into plain cells', () => {
@@ -103,7 +74,7 @@ describe('parseSpreadsheet refuses what it cannot read, and says why', () => {
       'not_utf8',
       'plate.csv is not valid UTF-8 text: byte 0xB5 at offset 12 (line 2) cannot be read. Save the file as CSV with UTF-8 encoding and upload it again.',
     ],
-    ['a ZIP without a workbook', storedZip('notes/readme.txt', 'hello'), 'plate.xlsx', {}, 'not_spreadsheet', 'plate.xlsx holds no readable workbook: it is not an xlsx or xls spreadsheet, or it is damaged.'],
+    ['a ZIP without a workbook', new Uint8Array(zip([{ name: 'notes/readme.txt', data: Buffer.from('hello') }])), 'plate.xlsx', {}, 'not_spreadsheet', 'plate.xlsx holds no readable workbook: it is not an xlsx or xls spreadsheet, or it is damaged.'],
     ['a damaged compound file', new Uint8Array([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1, ...new Array<number>(600).fill(7)]), 'plate.xls', {}, 'unreadable', /^plate\.xls looks like an xls file but could not be read/],
     ['an unclosed quote', text('Well,Note\nA01,"open\n'), 'plate.csv', {}, 'unreadable', 'plate.csv could not be read as CSV: a quoted field that starts on row 2 is never closed.'],
     ['a file over the size limit', text('Well\nA01\n'.repeat(20)), 'plate.csv', { maxBytes: 100 }, 'too_large', 'plate.csv is 180 bytes; Gatewell reads files up to 100 bytes.'],

@@ -15,10 +15,25 @@ function kinetics(preset: NeuronPreset, conductance: string, gate: string): Alph
   return k;
 }
 
+/** The m, h and n gates of a preset's sodium and potassium conductances. */
+function gatesOf(preset: NeuronPreset): Record<'m' | 'h' | 'n', AlphaBetaKinetics> {
+  return { m: kinetics(preset, 'gNa', 'm'), h: kinetics(preset, 'gNa', 'h'), n: kinetics(preset, 'gK', 'n') };
+}
+
+type PublishedRates = Record<'alphaM' | 'betaM' | 'alphaH' | 'betaH' | 'alphaN' | 'betaN', (v_mV: number) => number>;
+
+/** Each of the six rates of the m, h and n gates at v_mV against the published formula of the same name. */
+function expectPublishedRates(gates: Record<'m' | 'h' | 'n', AlphaBetaKinetics>, published: PublishedRates, v_mV: number) {
+  for (const gate of ['m', 'h', 'n'] as const) {
+    const name = gate.toUpperCase() as 'M' | 'H' | 'N';
+    expect(evaluateRate(gates[gate].alpha, v_mV), `alpha${name}`).toBeCloseTo(published[`alpha${name}`](v_mV), 12);
+    expect(evaluateRate(gates[gate].beta, v_mV), `beta${name}`).toBeCloseTo(published[`beta${name}`](v_mV), 12);
+  }
+}
+
 describe('Hodgkin–Huxley 1952 rates', () => {
-  const m = kinetics(hhSquid1952, 'gNa', 'm');
-  const h = kinetics(hhSquid1952, 'gNa', 'h');
-  const n = kinetics(hhSquid1952, 'gK', 'n');
+  const gates = gatesOf(hhSquid1952);
+  const { m, n } = gates;
 
   test('αm = 1 ms⁻¹ at −40 mV and αn = 0.1 ms⁻¹ at −55 mV (limits of the 0/0, hodgkin-huxley-1952.json)', () => {
     expect(evaluateRate(m.alpha, -40)).toBe(hhConstants.rateLimits.alphaM_at_minus40_mV_per_ms);
@@ -32,12 +47,7 @@ describe('Hodgkin–Huxley 1952 rates', () => {
   });
 
   test.each([-90, -77, -65, -54.387, -30, 0, 20, 50])('every rate matches the published formula (hodgkin-huxley-1952-rates.ts) at %s mV', (v) => {
-    expect(evaluateRate(m.alpha, v)).toBeCloseTo(hh.alphaM(v), 12);
-    expect(evaluateRate(m.beta, v)).toBeCloseTo(hh.betaM(v), 12);
-    expect(evaluateRate(h.alpha, v)).toBeCloseTo(hh.alphaH(v), 12);
-    expect(evaluateRate(h.beta, v)).toBeCloseTo(hh.betaH(v), 12);
-    expect(evaluateRate(n.alpha, v)).toBeCloseTo(hh.alphaN(v), 12);
-    expect(evaluateRate(n.beta, v)).toBeCloseTo(hh.betaN(v), 12);
+    expectPublishedRates(gates, hh, v);
   });
 
   test('preset constants are those of HH 1952 Table 3, modern convention (hodgkin-huxley-1952.json)', () => {
@@ -52,9 +62,8 @@ describe('Hodgkin–Huxley 1952 rates', () => {
 describe('Pospischil et al. 2008 regular-spiking rates (V_T = −55 mV, as in the authors’ sPY_template)', () => {
   // HH_traub.mod as distributed with the paper (pospischil-2008-rates.ts): v2 = V − V_T; removable 0/0
   // where the numerator vanishes, limits 0.32·4, 0.28·5 and 0.032·5 (l'Hôpital).
-  const m = kinetics(pospischilRs2008, 'gNa', 'm');
-  const h = kinetics(pospischilRs2008, 'gNa', 'h');
-  const n = kinetics(pospischilRs2008, 'gK', 'n');
+  const gates = gatesOf(pospischilRs2008);
+  const { m, n } = gates;
 
   test('limits at the singular points: αm(−42) = 1.28, βm(−15) = 1.4, αn(−40) = 0.16 ms⁻¹', () => {
     const gate = { alphaM: m.alpha, betaM: m.beta, alphaN: n.alpha };
@@ -63,12 +72,7 @@ describe('Pospischil et al. 2008 regular-spiking rates (V_T = −55 mV, as in th
   });
 
   test.each([-100, -70.5, -55, -30, 0, 30])('every rate matches HH_traub.mod (pospischil-2008-rates.ts) at %s mV', (v) => {
-    expect(evaluateRate(m.alpha, v)).toBeCloseTo(traub.alphaM(v), 12);
-    expect(evaluateRate(m.beta, v)).toBeCloseTo(traub.betaM(v), 12);
-    expect(evaluateRate(h.alpha, v)).toBeCloseTo(traub.alphaH(v), 12);
-    expect(evaluateRate(h.beta, v)).toBeCloseTo(traub.betaH(v), 12);
-    expect(evaluateRate(n.alpha, v)).toBeCloseTo(traub.alphaN(v), 12);
-    expect(evaluateRate(n.beta, v)).toBeCloseTo(traub.betaN(v), 12);
+    expectPublishedRates(gates, traub, v);
   });
 
   test('conductance names and which may be blocked', () => {

@@ -1,13 +1,11 @@
 'use client';
 
 import { useActionState } from 'react';
-import { Field, FormMessage } from '@/components/forms/field';
-import type { ActionState } from '@/lib/actions/validated-action';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
+import { Field, SubmitRow } from '@/components/forms/field';
+import type { FormAction } from '@/lib/actions/validated-action';
 
 /** Current password, new password twice. Password fields are never filled back in after a failure. */
-export function ChangePasswordForm({ action, minPasswordLength }: { action: Action; minPasswordLength: number }) {
+export function ChangePasswordForm({ action, minPasswordLength }: { action: FormAction; minPasswordLength: number }) {
   const [state, formAction, pending] = useActionState(action, {});
   const errors = state.fieldErrors ?? {};
   return (
@@ -16,10 +14,7 @@ export function ChangePasswordForm({ action, minPasswordLength }: { action: Acti
       <Field label="New password" name="newPassword" type="password" autoComplete="new-password" required errors={errors.newPassword}
         hint={`At least ${minPasswordLength} characters. A phrase of several words is easier to remember.`} />
       <Field label="New password again" name="confirmPassword" type="password" autoComplete="new-password" required errors={errors.confirmPassword} />
-      <div className="flex flex-wrap items-center gap-3 pt-2">
-        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Changing…' : 'Change password'}</button>
-        <FormMessage ok={state.ok} message={state.message} />
-      </div>
+      <SubmitRow label="Change password" pendingLabel="Changing…" pending={pending} state={state} className="flex flex-wrap items-center gap-3 pt-2" />
     </form>
   );
 }

@@ -1,16 +1,15 @@
 'use client';
 
-import { Field, FormMessage } from '@/components/forms/field';
+import { Field, SubmitRow } from '@/components/forms/field';
 import { useFormAction } from '@/components/forms/use-form-action';
 import { OneTimePassword } from '@/components/users/one-time-password';
-import type { ActionState } from '@/lib/actions/validated-action';
+import type { ActionState, FormAction } from '@/lib/actions/validated-action';
 
 type ResetState = ActionState & { temporaryPassword?: string | null };
-type Action = (state: ResetState, formData: FormData) => Promise<ResetState>;
 
 /** Sets a new password for someone who lost theirs; generated unless the admin types one. */
 export function ResetPasswordForm({ action, userId, userName, minPasswordLength }: {
-  action: Action;
+  action: FormAction<ResetState>;
   userId: string;
   userName: string;
   minPasswordLength: number;
@@ -23,10 +22,7 @@ export function ResetPasswordForm({ action, userId, userName, minPasswordLength 
       <Field label="New password" name="password" id="reset-password" type="password" autoComplete="new-password" errors={errors.password}
         hint={`Leave empty to generate one. If you type one: at least ${minPasswordLength} characters.`} />
       <Field label="Reason for the new password" name="reason" id="reset-reason" errors={errors.reason} />
-      <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Setting…' : 'Set new password'}</button>
-        <FormMessage ok={state.ok} message={state.message} />
-      </div>
+      <SubmitRow label="Set new password" pendingLabel="Setting…" pending={pending} state={state} className="flex flex-wrap items-center gap-3" />
       {state.ok && state.temporaryPassword ? <OneTimePassword password={state.temporaryPassword} who={userName} /> : null}
     </form>
   );

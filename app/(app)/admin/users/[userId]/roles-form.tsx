@@ -1,16 +1,14 @@
 'use client';
 
 import { useEffect, useState } from 'react';
-import { Field, FormMessage } from '@/components/forms/field';
+import { Field, SubmitRow } from '@/components/forms/field';
 import { useFormAction } from '@/components/forms/use-form-action';
 import { RoleCheckboxes } from '@/components/users/role-checkboxes';
-import type { ActionState } from '@/lib/actions/validated-action';
+import type { FormAction } from '@/lib/actions/validated-action';
 import type { Role } from '@/lib/domain/roles';
 
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
-
 /** Ticks the roles a user holds; the reason goes to the audit trail. */
-export function RolesForm({ action, userId, roles }: { action: Action; userId: string; roles: Role[] }) {
+export function RolesForm({ action, userId, roles }: { action: FormAction; userId: string; roles: Role[] }) {
   const { state, pending, formRef, onSubmit } = useFormAction(action);
   const [selected, setSelected] = useState<Role[]>(roles);
   const [reason, setReason] = useState('');
@@ -24,10 +22,7 @@ export function RolesForm({ action, userId, roles }: { action: Action; userId: s
       <RoleCheckboxes selected={selected} onChange={setSelected} errors={errors.roles} idPrefix="roles" />
       <Field label="Reason for the change" name="reason" id="roles-reason" value={reason} onChange={(e) => setReason(e.target.value)}
         errors={errors.reason} hint="Kept in the audit trail." />
-      <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Saving…' : 'Save roles'}</button>
-        <FormMessage ok={state.ok} message={state.message} />
-      </div>
+      <SubmitRow label="Save roles" pendingLabel="Saving…" pending={pending} state={state} className="flex flex-wrap items-center gap-3" />
     </form>
   );
 }

@@ -2,12 +2,10 @@
 
 import { Field, FormMessage } from '@/components/forms/field';
 import { useFormAction } from '@/components/forms/use-form-action';
-import type { ActionState } from '@/lib/actions/validated-action';
-
-type Action = (state: ActionState, formData: FormData) => Promise<ActionState>;
+import type { FormAction } from '@/lib/actions/validated-action';
 
 /** Disables an enabled account (its sessions end at once) or enables a disabled one. */
-export function StatusForm({ action, userId, enabled }: { action: Action; userId: string; enabled: boolean }) {
+export function StatusForm({ action, userId, enabled }: { action: FormAction; userId: string; enabled: boolean }) {
   const { state, pending, formRef, onSubmit } = useFormAction(action, { resetOnSuccess: true });
   const errors = state.fieldErrors ?? {};
   return (

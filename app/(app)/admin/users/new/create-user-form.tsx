@@ -2,21 +2,20 @@
 
 import { AppLink } from '@/components/ui/app-link';
 import { useState, type ChangeEvent } from 'react';
-import { Field, FormMessage } from '@/components/forms/field';
+import { Field, FormMessage, SubmitRow } from '@/components/forms/field';
 import { useFormAction } from '@/components/forms/use-form-action';
 import { OneTimePassword } from '@/components/users/one-time-password';
 import { RoleCheckboxes } from '@/components/users/role-checkboxes';
-import type { ActionState } from '@/lib/actions/validated-action';
+import type { ActionState, FormAction } from '@/lib/actions/validated-action';
 import type { Role } from '@/lib/domain/roles';
 
 export type CreateUserState = ActionState & { userId?: string; userName?: string; initialPassword?: string | null; invited?: boolean };
-type Action = (state: CreateUserState, formData: FormData) => Promise<CreateUserState>;
 
 /**
  * Name, e-mail, roles, and how the person gets in: a link by e-mail, or an initial password (set here or
  * generated); on success, the account and, for a password, the one-time password.
  */
-export function CreateUserForm({ action, minPasswordLength, invitationDays }: { action: Action; minPasswordLength: number; invitationDays: number }) {
+export function CreateUserForm({ action, minPasswordLength, invitationDays }: { action: FormAction<CreateUserState>; minPasswordLength: number; invitationDays: number }) {
   const { state, pending, formRef, onSubmit } = useFormAction(action);
   const [fields, setFields] = useState({ name: '', email: '', password: '' });
   const [roles, setRoles] = useState<Role[]>([]);
@@ -69,10 +68,7 @@ export function CreateUserForm({ action, minPasswordLength, invitationDays }: { 
         <Field label="Initial password" type="password" autoComplete="new-password" {...bind('password')}
           hint={`Leave empty and Gatewell generates one to show you once. If you set one: at least ${minPasswordLength} characters.`} />
       ) : null}
-      <div className="flex items-center gap-3 pt-2">
-        <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Creating…' : 'Create account'}</button>
-        <FormMessage ok={state.ok} message={state.message} />
-      </div>
+      <SubmitRow label="Create account" pendingLabel="Creating…" pending={pending} state={state} className="flex items-center gap-3 pt-2" />
     </form>
   );
 }
