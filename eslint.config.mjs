@@ -49,7 +49,11 @@ const componentRules = {
         { target: './components', from: './models', message: 'Components import no models.' },
         { target: './components', from: './lib/db.ts', message: 'Components do not reach the database.' },
         { target: './components', from: './lib/**/queries.ts', message: 'Components run no SQL.' },
-        { target: './components', from: './app', message: 'Components import no app code (pass actions as props).' },
+        {
+          target: './components',
+          from: './app',
+          message: 'Components import no app code (pass actions as props).',
+        },
       ],
     },
   ],

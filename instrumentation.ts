@@ -8,6 +8,10 @@ export async function register(): Promise<void> {
   }
   if (process.env.GATEWELL_JOB_WORKER !== 'off') {
     const { startJobWorkers } = await import('./lib/jobs/worker');
-    startJobWorkers().catch((error: unknown) => console.error(`[gatewell jobs] workers did not start: ${error instanceof Error ? error.message : String(error)}`));
+    startJobWorkers().catch((error: unknown) =>
+      console.error(
+        `[gatewell jobs] workers did not start: ${error instanceof Error ? error.message : String(error)}`,
+      ),
+    );
   }
 }

@@ -9,7 +9,16 @@ const securityHeaders = [
 
 const nextConfig: NextConfig = {
   // Database drivers, the job queue, native hashing and worker pools stay outside the server bundle.
-  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'pg-boss', 'argon2', 'piscina', 'xlsx', 'nodemailer'],
+  serverExternalPackages: [
+    'sequelize',
+    'pg',
+    'pg-hstore',
+    'pg-boss',
+    'argon2',
+    'piscina',
+    'xlsx',
+    'nodemailer',
+  ],
   // The test command builds into its own folder so that it never disturbs a running demo.
   distDir: process.env.GATEWELL_DIST_DIR || '.next',
   poweredByHeader: false,

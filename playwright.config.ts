@@ -7,7 +7,14 @@ const browser = {
   viewport: { width: 1280, height: 860 },
   launchOptions: {
     executablePath: '/usr/bin/chromium',
-    args: ['--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+    args: [
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      '--disable-quic',
+    ],
   },
 };
 
@@ -51,13 +58,15 @@ export default defineConfig({
     },
     ...(process.env.GATEWELL_E2E_REUSE
       ? []
-      : [{
-          command: 'node --conditions=react-server --import tsx scripts/worker.ts',
-          wait: { stdout: /taking jobs/ },
-          timeout: 60_000,
-          stdout: 'pipe' as const,
-          stderr: 'pipe' as const,
-          env: { DATABASE_OWNER_URL: '' },
-        }]),
+      : [
+          {
+            command: 'node --conditions=react-server --import tsx scripts/worker.ts',
+            wait: { stdout: /taking jobs/ },
+            timeout: 60_000,
+            stdout: 'pipe' as const,
+            stderr: 'pipe' as const,
+            env: { DATABASE_OWNER_URL: '' },
+          },
+        ]),
   ],
 });

@@ -13,7 +13,9 @@ export default function Forbidden() {
         <p className="mt-2 text-sm text-ink-700">
           Your roles do not cover this page. If your work needs it, ask an administrator for the role.
         </p>
-        <AppLink href="/" className="gw-button mt-5">Back to My work</AppLink>
+        <AppLink href="/" className="gw-button mt-5">
+          Back to My work
+        </AppLink>
       </div>
     </main>
   );

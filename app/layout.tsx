@@ -8,7 +8,8 @@ import './globals.css';
 
 export const metadata: Metadata = {
   title: { default: 'Gatewell', template: '%s · Gatewell' },
-  description: 'Ion-channel plate screening: quality control, Hill fits, excitability forecasts and sign-off.',
+  description:
+    'Ion-channel plate screening: quality control, Hill fits, excitability forecasts and sign-off.',
 };
 
 export const viewport: Viewport = { width: 'device-width', initialScale: 1 };

@@ -2,7 +2,8 @@ import 'server-only';
 import { ConnectionError, DatabaseError } from 'sequelize';
 
 /** What people read when the database cannot be reached: the request changed nothing and may be repeated. */
-export const DATABASE_UNAVAILABLE_MESSAGE = 'Gatewell cannot reach its database just now, so nothing was changed. Try again in a minute.';
+export const DATABASE_UNAVAILABLE_MESSAGE =
+  'Gatewell cannot reach its database just now, so nothing was changed. Try again in a minute.';
 
 /** pg's words for a connection that broke under a query; they come without an SQLSTATE. */
 const BROKEN_CONNECTION = /^(Connection terminated|Client has encountered a connection error)/;

@@ -15,7 +15,9 @@ export type HealthReport =
 
 // SQL: SequelizeMeta is sequelize-cli's own table of applied migrations, with no model of Gatewell's.
 async function appliedMigrations(): Promise<string[]> {
-  const rows = await db().query<{ name: string }>('select name from "SequelizeMeta" order by name', { type: QueryTypes.SELECT });
+  const rows = await db().query<{ name: string }>('select name from "SequelizeMeta" order by name', {
+    type: QueryTypes.SELECT,
+  });
   return rows.map((row) => row.name);
 }
 
@@ -26,7 +28,9 @@ export async function checkHealth(): Promise<HealthReport> {
     const names = await appliedMigrations();
     const latencyMs = Math.round((performance.now() - started) * 10) / 10;
     const applied = new Set(names);
-    const files = (await readdir(path.join(process.cwd(), 'migrations'))).filter((name) => name.endsWith('.js')).sort();
+    const files = (await readdir(path.join(process.cwd(), 'migrations')))
+      .filter((name) => name.endsWith('.js'))
+      .sort();
     const pending = files.filter((name) => !applied.has(name));
     return {
       status: pending.length === 0 ? 'ok' : 'migrations_pending',

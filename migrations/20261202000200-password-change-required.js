@@ -5,7 +5,9 @@
 /** @type {import('sequelize-cli').Migration} */
 module.exports = {
   async up(queryInterface) {
-    await queryInterface.sequelize.query('alter table users add column password_change_required boolean not null default false');
+    await queryInterface.sequelize.query(
+      'alter table users add column password_change_required boolean not null default false',
+    );
   },
 
   async down(queryInterface) {

@@ -29,7 +29,10 @@ function ident(name) {
  */
 async function forAppRole(queryInterface, statements) {
   await queryInterface.sequelize.transaction(async (transaction) => {
-    const [[{ me, database }]] = await queryInterface.sequelize.query('select current_user as me, current_database() as database', { transaction });
+    const [[{ me, database }]] = await queryInterface.sequelize.query(
+      'select current_user as me, current_database() as database',
+      { transaction },
+    );
     const role = appRole();
     if (role === me) return;
     await queryInterface.sequelize.query(statements(ident(role), ident(database)), { transaction });
@@ -39,7 +42,9 @@ async function forAppRole(queryInterface, statements) {
 /** @type {import('sequelize-cli').Migration} */
 module.exports = {
   async up(queryInterface) {
-    await forAppRole(queryInterface, (app, database) => `
+    await forAppRole(
+      queryInterface,
+      (app, database) => `
       grant connect, create on database ${database} to ${app};
       grant usage on schema public to ${app};
       grant select, insert, update, delete on all tables in schema public to ${app};
@@ -48,16 +53,20 @@ module.exports = {
       -- Tables and sequences later migrations add (created by this owner) get the same rows access.
       alter default privileges in schema public grant select, insert, update, delete on tables to ${app};
       alter default privileges in schema public grant usage, select on sequences to ${app};
-    `);
+    `,
+    );
   },
 
   async down(queryInterface) {
-    await forAppRole(queryInterface, (app, database) => `
+    await forAppRole(
+      queryInterface,
+      (app, database) => `
       revoke create on database ${database} from ${app};
       alter default privileges in schema public revoke select, insert, update, delete on tables from ${app};
       alter default privileges in schema public revoke usage, select on sequences from ${app};
       revoke all on all sequences in schema public from ${app};
       revoke all on all tables in schema public from ${app};
-    `);
+    `,
+    );
   },
 };

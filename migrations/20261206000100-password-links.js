@@ -5,7 +5,14 @@
 // its SHA-256; the link works once, within its expiry, and only while the account's password is the one
 // it had when the link was made. The mail outbox learns the two kinds of message that carry one.
 
-const PLATE_KINDS = ['plate_imported', 'plate_verified', 'plate_submitted', 'plate_approved', 'plate_rejected', 'plate_reopened'];
+const PLATE_KINDS = [
+  'plate_imported',
+  'plate_verified',
+  'plate_submitted',
+  'plate_approved',
+  'plate_rejected',
+  'plate_reopened',
+];
 
 function kindCheck(kinds) {
   return `alter table mail_outbox drop constraint mail_outbox_kind_known,

@@ -25,7 +25,9 @@ module.exports = {
 
   async down(queryInterface) {
     await queryInterface.sequelize.transaction(async (transaction) => {
-      await queryInterface.sequelize.query(renameColumns(RENAMES.map(([from, to]) => [to, from])), { transaction });
+      await queryInterface.sequelize.query(renameColumns(RENAMES.map(([from, to]) => [to, from])), {
+        transaction,
+      });
     });
   },
 };

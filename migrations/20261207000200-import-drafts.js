@@ -56,7 +56,10 @@ module.exports = {
       const [[{ me }]] = await queryInterface.sequelize.query('select current_user as me', { transaction });
       const role = appRole();
       if (role !== me) {
-        await queryInterface.sequelize.query(`grant select, insert, update, delete on import_drafts to ${ident(role)}`, { transaction });
+        await queryInterface.sequelize.query(
+          `grant select, insert, update, delete on import_drafts to ${ident(role)}`,
+          { transaction },
+        );
       }
     });
   },

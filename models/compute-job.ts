@@ -1,8 +1,14 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 import type { ComputeJobKind, ComputeJobState } from '@/lib/domain/jobs';
-
 
 /** What Gatewell shows of one queued fit or forecast job; the id is the job's id on the queue. */
 export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreationAttributes<ComputeJob>> {

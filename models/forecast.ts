@@ -1,5 +1,12 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /** A stored excitability forecast for one compound, keyed by the SHA-256 of its input. */
 export class Forecast extends Model<InferAttributes<Forecast>, InferCreationAttributes<Forecast>> {

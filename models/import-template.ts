@@ -1,8 +1,18 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /** A saved column mapping for one instrument's export layout. */
-export class ImportTemplate extends Model<InferAttributes<ImportTemplate>, InferCreationAttributes<ImportTemplate>> {
+export class ImportTemplate extends Model<
+  InferAttributes<ImportTemplate>,
+  InferCreationAttributes<ImportTemplate>
+> {
   declare id: CreationOptional<string>;
   declare name: string;
   declare mapping: Record<string, unknown>;

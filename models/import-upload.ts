@@ -1,12 +1,22 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /**
  * A commit waiting for its plate-import job (lib/plates/import-jobs.ts): the commit request's fields and
  * either the file's bytes or the import draft that holds its parsed sheets. The job removes it in the
  * transaction that stores the plate.
  */
-export class ImportUpload extends Model<InferAttributes<ImportUpload>, InferCreationAttributes<ImportUpload>> {
+export class ImportUpload extends Model<
+  InferAttributes<ImportUpload>,
+  InferCreationAttributes<ImportUpload>
+> {
   declare id: CreationOptional<string>;
   declare requestedBy: string;
   /** The uploader's network address, for the import's audit event. */

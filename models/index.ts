@@ -23,9 +23,55 @@ import { User } from './user';
 import { UserRole } from './user-role';
 import { Well } from './well';
 
-export { AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportDraft, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well };
+export {
+  AuditEvent,
+  Batch,
+  Compound,
+  ComputeJob,
+  Fit,
+  Forecast,
+  ImportDraft,
+  ImportTemplate,
+  ImportUpload,
+  LoginAttempt,
+  MailMessage,
+  PasswordLink,
+  Plate,
+  Readout,
+  Screen,
+  Signature,
+  SignoffEvent,
+  Target,
+  UploadedFile,
+  User,
+  UserRole,
+  Well,
+};
 
-const models = [AuditEvent, Batch, Compound, ComputeJob, Fit, Forecast, ImportDraft, ImportTemplate, ImportUpload, LoginAttempt, MailMessage, PasswordLink, Plate, Readout, Screen, Signature, SignoffEvent, Target, UploadedFile, User, UserRole, Well];
+const models = [
+  AuditEvent,
+  Batch,
+  Compound,
+  ComputeJob,
+  Fit,
+  Forecast,
+  ImportDraft,
+  ImportTemplate,
+  ImportUpload,
+  LoginAttempt,
+  MailMessage,
+  PasswordLink,
+  Plate,
+  Readout,
+  Screen,
+  Signature,
+  SignoffEvent,
+  Target,
+  UploadedFile,
+  User,
+  UserRole,
+  Well,
+];
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {

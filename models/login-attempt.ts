@@ -1,8 +1,18 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /** One sign-in attempt, kept to throttle guessing per account and per address. */
-export class LoginAttempt extends Model<InferAttributes<LoginAttempt>, InferCreationAttributes<LoginAttempt>> {
+export class LoginAttempt extends Model<
+  InferAttributes<LoginAttempt>,
+  InferCreationAttributes<LoginAttempt>
+> {
   declare id: CreationOptional<string>;
   declare email: string;
   declare address: string;

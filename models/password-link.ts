@@ -1,11 +1,22 @@
 import 'server-only';
-import { DataTypes, Model, fn, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  fn,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /**
  * One request for a link to choose a password. Every request is kept (for throttling and the record); only a
  * request for an active account has a user, a token (kept as its SHA-256) and an expiry.
  */
-export class PasswordLink extends Model<InferAttributes<PasswordLink>, InferCreationAttributes<PasswordLink>> {
+export class PasswordLink extends Model<
+  InferAttributes<PasswordLink>,
+  InferCreationAttributes<PasswordLink>
+> {
   declare id: string;
   declare email: string;
   declare userId: CreationOptional<string | null>;

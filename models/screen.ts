@@ -1,5 +1,12 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /** A screening campaign: its neuron preset, QC thresholds and exposures of interest. */
 export class Screen extends Model<InferAttributes<Screen>, InferCreationAttributes<Screen>> {
@@ -36,7 +43,12 @@ export class Screen extends Model<InferAttributes<Screen>, InferCreationAttribut
         capacitanceMax_pF: { ...double(100), field: 'capacitance_max_pf' },
         vehicleRundownMax_fraction: { ...double(0.2), field: 'vehicle_rundown_max_fraction' },
         normaliseToReference: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
-        exposures_uM: { type: DataTypes.ARRAY(DataTypes.DOUBLE), allowNull: false, defaultValue: [], field: 'exposures_um' },
+        exposures_uM: {
+          type: DataTypes.ARRAY(DataTypes.DOUBLE),
+          allowNull: false,
+          defaultValue: [],
+          field: 'exposures_um',
+        },
         createdBy: { type: DataTypes.UUID, allowNull: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -1,5 +1,12 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /** An electronic signature: who signed what (by SHA-256 of its content), meaning, comment and time. */
 export class Signature extends Model<InferAttributes<Signature>, InferCreationAttributes<Signature>> {

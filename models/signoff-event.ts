@@ -1,9 +1,19 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 import type { PlateState } from '@/lib/domain/plate-states';
 
 /** One signed transition of a plate's state. */
-export class SignoffEvent extends Model<InferAttributes<SignoffEvent>, InferCreationAttributes<SignoffEvent>> {
+export class SignoffEvent extends Model<
+  InferAttributes<SignoffEvent>,
+  InferCreationAttributes<SignoffEvent>
+> {
   declare id: CreationOptional<string>;
   declare plateId: string;
   declare signatureId: string;

@@ -1,8 +1,18 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 
 /** An instrument export exactly as uploaded, with its SHA-256 (unique per screen). */
-export class UploadedFile extends Model<InferAttributes<UploadedFile>, InferCreationAttributes<UploadedFile>> {
+export class UploadedFile extends Model<
+  InferAttributes<UploadedFile>,
+  InferCreationAttributes<UploadedFile>
+> {
   declare id: CreationOptional<string>;
   declare screenId: string;
   declare filename: string;

@@ -1,5 +1,12 @@
 import 'server-only';
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
 import { ROLES, type Role } from '@/lib/domain/roles';
 
 /** One role held by one user. */
@@ -12,7 +19,12 @@ export class UserRole extends Model<InferAttributes<UserRole>, InferCreationAttr
     UserRole.init(
       {
         userId: { type: DataTypes.UUID, allowNull: false, primaryKey: true },
-        role: { type: DataTypes.TEXT, allowNull: false, primaryKey: true, validate: { isIn: [ROLES as unknown as string[]] } },
+        role: {
+          type: DataTypes.TEXT,
+          allowNull: false,
+          primaryKey: true,
+          validate: { isIn: [ROLES as unknown as string[]] },
+        },
         grantedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
       },
       { sequelize, tableName: 'user_roles', underscored: true, timestamps: false },

@@ -29,7 +29,9 @@ function generatePlate(): (QcWell & BlockWell & { compoundId: string | null; con
   const random = uniform(384);
   const noise = () => (random() + random() + random() - 1.5) * 0.08;
   const wells: (QcWell & BlockWell & { compoundId: string | null; concentration_uM: number })[] = [];
-  const truth = Array.from({ length: COMPOUNDS }, () => TARGETS.map(() => ({ ic50_uM: 10 ** (-1.5 + random() * 3.5), slope: 0.7 + random() * 0.9 })));
+  const truth = Array.from({ length: COMPOUNDS }, () =>
+    TARGETS.map(() => ({ ic50_uM: 10 ** (-1.5 + random() * 3.5), slope: 0.7 + random() * 0.9 })),
+  );
   for (let index = 0; index < 384; index++) {
     const wellId = `${String.fromCharCode(65 + Math.floor(index / 24))}${String((index % 24) + 1).padStart(2, '0')}`;
     const compound = index < COMPOUNDS * SERIES_uM.length ? Math.floor(index / SERIES_uM.length) : null;
@@ -37,12 +39,25 @@ function generatePlate(): (QcWell & BlockWell & { compoundId: string | null; con
     const concentration_uM = compound !== null ? SERIES_uM[index % SERIES_uM.length]! : 0;
     TARGETS.forEach((target, t) => {
       const control = -(800 + random() * 1500);
-      const trueBlock = role === 'vehicle' ? 0 : role === 'reference' ? 0.97 : hillBlock(concentration_uM, truth[compound!]![t]!.ic50_uM, truth[compound!]![t]!.slope);
+      const trueBlock =
+        role === 'vehicle'
+          ? 0
+          : role === 'reference'
+            ? 0.97
+            : hillBlock(concentration_uM, truth[compound!]![t]!.ic50_uM, truth[compound!]![t]!.slope);
       const ratio = 0.93 * (1 - trueBlock) + noise();
       wells.push({
-        wellId, target, role, compoundId: compound === null ? null : `GW-${String(compound + 1).padStart(4, '0')}`, concentration_uM,
-        controlCurrent_pA: control, compoundCurrent_pA: control * ratio, excluded: false,
-        sealResistance_GOhm: 0.3 + random() * 3, seriesResistance_MOhm: 3 + random() * 20, capacitance_pF: 8 + random() * 30,
+        wellId,
+        target,
+        role,
+        compoundId: compound === null ? null : `GW-${String(compound + 1).padStart(4, '0')}`,
+        concentration_uM,
+        controlCurrent_pA: control,
+        compoundCurrent_pA: control * ratio,
+        excluded: false,
+        sealResistance_GOhm: 0.3 + random() * 3,
+        seriesResistance_MOhm: 3 + random() * 20,
+        capacitance_pF: 8 + random() * 30,
       });
     });
   }
@@ -60,7 +75,13 @@ function analyse(wells: ReturnType<typeof generatePlate>, model: HillModelName) 
     for (const w of target.wells) {
       if (w.role !== 'test') continue;
       const well = source.get(`${target.target} ${w.wellId}`)!;
-      points.push({ compoundId: well.compoundId!, target: target.target, concentration_uM: well.concentration_uM, block: w.block, excluded: w.excluded });
+      points.push({
+        compoundId: well.compoundId!,
+        target: target.target,
+        concentration_uM: well.concentration_uM,
+        block: w.block,
+        excluded: w.excluded,
+      });
     }
   }
   const started = performance.now();
@@ -71,7 +92,9 @@ function analyse(wells: ReturnType<typeof generatePlate>, model: HillModelName) 
 function main(): void {
   const repeats = Number(process.argv[2] ?? 50);
   const wells = generatePlate();
-  console.log(`plate: 384 wells × ${TARGETS.length} targets, ${COMPOUNDS} compounds × ${SERIES_uM.length} concentrations; ${repeats} repeats after warm-up`);
+  console.log(
+    `plate: 384 wells × ${TARGETS.length} targets, ${COMPOUNDS} compounds × ${SERIES_uM.length} concentrations; ${repeats} repeats after warm-up`,
+  );
   for (const model of ['hill2', 'hill4'] as const) {
     for (let i = 0; i < 5; i++) analyse(wells, model);
     const fitTimes: number[] = [];
@@ -85,7 +108,10 @@ function main(): void {
       fits = run.fits;
     }
     const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)]!;
-    const statuses = fits.reduce<Record<string, number>>((acc, f) => ({ ...acc, [f.result.status]: (acc[f.result.status] ?? 0) + 1 }), {});
+    const statuses = fits.reduce<Record<string, number>>(
+      (acc, f) => ({ ...acc, [f.result.status]: (acc[f.result.status] ?? 0) + 1 }),
+      {},
+    );
     console.log(
       `${model}: ${fits.length} fits in ${median(fitTimes).toFixed(2)} ms (median; ${(fits.length / (median(fitTimes) / 1000)).toFixed(0)} fits/s), ` +
         `whole plate with QC and block ${median(totalTimes).toFixed(2)} ms (median), statuses ${JSON.stringify(statuses)}`,

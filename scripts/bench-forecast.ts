@@ -44,10 +44,14 @@ async function main(repeats: number): Promise<void> {
     const model = compileModel(getPreset(name));
     const rest = findRest(model).start;
     const rheobase = findRheobase(model, rest);
-    console.log(`\n${name}: rheobase ${rheobase.rheobase_uA_cm2?.toFixed(4)} µA/cm² in ${rheobase.steps} steps`);
+    console.log(
+      `\n${name}: rheobase ${rheobase.rheobase_uA_cm2?.toFixed(4)} µA/cm² in ${rheobase.steps} steps`,
+    );
     console.log(`  rheobase bisection          ${await time(repeats, () => findRheobase(model, rest))}`);
     const drive = 2 * (rheobase.rheobase_uA_cm2 ?? 1);
-    console.log(`  1 s voltage trace           ${await time(repeats, () => voltageTrace(model, { drive_uA_cm2: drive, duration_ms: 1000 }))}`);
+    console.log(
+      `  1 s voltage trace           ${await time(repeats, () => voltageTrace(model, { drive_uA_cm2: drive, duration_ms: 1000 }))}`,
+    );
     console.log(`  whole forecast, in thread   ${await time(repeats, () => computeForecast(request(name)))}`);
     const pooled = async () => {
       clearForecastCache();

@@ -33,19 +33,31 @@ async function once(bytes: Uint8Array) {
   const [parsed, parseMs] = await time(() => parseSpreadsheet(bytes, 'bench.xlsx'));
   if (!parsed.ok) throw new Error(parsed.error.message);
   const sheet = parsed.sheets.find((s) => s.name === 'Readouts') ?? parsed.sheets[0]!;
-  const screen = await Screen.findOne({ where: { name: 'Pain sodium screen' }, include: [{ model: Target, as: 'targets' }], rejectOnEmpty: true });
+  const screen = await Screen.findOne({
+    where: { name: 'Pain sodium screen' },
+    include: [{ model: Target, as: 'targets' }],
+    rejectOnEmpty: true,
+  });
   const compounds = await Compound.findAll({ attributes: ['identifier'], raw: true });
   const [preview, validateMs] = await time(() =>
-    validatePlateSheet(sheet, guessMapping(sheet).mapping, { knownCompounds: compounds.map((c) => c.identifier), knownTargets: (screen.get('targets') as Target[]).map((t) => t.name) }),
+    validatePlateSheet(sheet, guessMapping(sheet).mapping, {
+      knownCompounds: compounds.map((c) => c.identifier),
+      knownTargets: (screen.get('targets') as Target[]).map((t) => t.name),
+    }),
   );
-  if (!preview.ok || !preview.plate) throw new Error(`the demo export did not validate: ${preview.issues[0]?.message}`);
+  if (!preview.ok || !preview.plate)
+    throw new Error(`the demo export did not validate: ${preview.issues[0]?.message}`);
   const plate = preview.plate;
   const [, analyseMs] = await time(() => {
     // As a preview analyses it (lib/plates/import-service.ts), fits included.
     const { wells, readouts } = parsedPlateInput(plate);
     return analysePlate(wells, readouts, analysisSettings(screen));
   });
-  const biologist = await UserRole.findOne({ attributes: ['userId'], where: { role: 'biologist' }, raw: true });
+  const biologist = await UserRole.findOne({
+    attributes: ['userId'],
+    where: { role: 'biologist' },
+    raw: true,
+  });
   const actor = biologist && (await loadActor(biologist.userId, '127.0.0.1'));
   if (!actor) throw new Error('no biologist in this database: seed it first');
   let storeMs = 0;
@@ -53,10 +65,23 @@ async function once(bytes: Uint8Array) {
     .transaction(async (transaction) => {
       // Store repeats the analysis inside (QC and block; the fits are a queued job) and writes every row, as a real import does.
       const unique = new Uint8Array([...bytes, ...new TextEncoder().encode(String(Math.random()))]);
-      [, storeMs] = await time(() => storePlate(actor, { screenId: screen.id, label: 'bench', plate, file: { bytes: unique, filename: 'bench.xlsx', mediaType: 'application/octet-stream' } }, transaction));
+      [, storeMs] = await time(() =>
+        storePlate(
+          actor,
+          {
+            screenId: screen.id,
+            label: 'bench',
+            plate,
+            file: { bytes: unique, filename: 'bench.xlsx', mediaType: 'application/octet-stream' },
+          },
+          transaction,
+        ),
+      );
       throw new Rollback();
     })
-    .catch((error: unknown) => { if (!(error instanceof Rollback)) throw error; });
+    .catch((error: unknown) => {
+      if (!(error instanceof Rollback)) throw error;
+    });
   return { wells: plate.wells.length, parseMs, validateMs, analyseMs, storeMs };
 }
 
@@ -64,12 +89,20 @@ async function main() {
   const bytes = new Uint8Array(readFileSync(FILE));
   const runs: Awaited<ReturnType<typeof once>>[] = [];
   for (let i = 0; i < repeats; i += 1) runs.push(await once(bytes));
-  const median = (key: 'parseMs' | 'validateMs' | 'analyseMs' | 'storeMs') => [...runs.map((r) => r[key])].sort((a, b) => a - b)[Math.floor(runs.length / 2)]!;
-  const stages = { parse: median('parseMs'), validate: median('validateMs'), analyse: median('analyseMs'), store: median('storeMs') };
+  const median = (key: 'parseMs' | 'validateMs' | 'analyseMs' | 'storeMs') =>
+    [...runs.map((r) => r[key])].sort((a, b) => a - b)[Math.floor(runs.length / 2)]!;
+  const stages = {
+    parse: median('parseMs'),
+    validate: median('validateMs'),
+    analyse: median('analyseMs'),
+    store: median('storeMs'),
+  };
   const total = stages.parse + stages.validate + stages.store;
   console.log(`384-well export (${runs[0]!.wells} wells), median of ${repeats} runs, ms:`);
   for (const [stage, ms] of Object.entries(stages)) console.log(`  ${stage.padEnd(9)} ${ms.toFixed(1)}`);
-  console.log(`  total     ${total.toFixed(1)}  (parse + validate + store; store includes QC and block and queues the fit job)  target < 2000`);
+  console.log(
+    `  total     ${total.toFixed(1)}  (parse + validate + store; store includes QC and block and queues the fit job)  target < 2000`,
+  );
   await closeJobQueue();
   await db().close();
 }

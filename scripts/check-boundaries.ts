@@ -10,7 +10,9 @@ async function main(): Promise<number> {
   const missing = modulesMissingServerOnly(graph, (file) => readFileSync(file, 'utf8'));
   for (const cycle of cycles) console.log(`import cycle: ${[...cycle, cycle[0]].join(' → ')}`);
   for (const file of missing) console.log(`no import 'server-only': ${file}`);
-  console.log(`${graph.size} files: ${cycles.length} cycle(s), ${missing.length} server module(s) without the marker`);
+  console.log(
+    `${graph.size} files: ${cycles.length} cycle(s), ${missing.length} server module(s) without the marker`,
+  );
   return cycles.length + missing.length === 0 ? 0 : 1;
 }
 

@@ -8,11 +8,17 @@ export type CliInput<T> = { ok: true; data: T } | { ok: false; exitCode: number 
 /** A zod issue path as the user wrote it, e.g. points[3].block, block.gNa, or (top level). */
 export function issuePath(path: readonly PropertyKey[]): string {
   if (path.length === 0) return '(top level)';
-  return path.map((key, i) => (typeof key === 'number' ? `[${key}]` : `${i > 0 ? '.' : ''}${String(key)}`)).join('');
+  return path
+    .map((key, i) => (typeof key === 'number' ? `[${key}]` : `${i > 0 ? '.' : ''}${String(key)}`))
+    .join('');
 }
 
 /** Reads the one FILE.json argument of tool `name` and checks it; on a fault writes why to stderr. */
-export function readCliInput<Schema extends z.ZodType>(name: string, argv: readonly string[], schema: Schema): CliInput<z.infer<Schema>> {
+export function readCliInput<Schema extends z.ZodType>(
+  name: string,
+  argv: readonly string[],
+  schema: Schema,
+): CliInput<z.infer<Schema>> {
   const fail = (message: string, exitCode = 1): CliInput<never> => {
     process.stderr.write(exitCode === 2 ? `${message}\n` : `${name}: ${message}\n`);
     return { ok: false, exitCode };

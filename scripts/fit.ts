@@ -12,7 +12,9 @@ const pointSchema = z.strictObject({
 
 const inputSchema = z.strictObject({
   model: z.enum(['hill2', 'hill4'], { error: "must be 'hill2' or 'hill4'" }).default('hill2'),
-  points: z.array(pointSchema, { error: 'must be a list of points' }).min(1, { error: 'must hold at least one point' }),
+  points: z
+    .array(pointSchema, { error: 'must be a list of points' })
+    .min(1, { error: 'must hold at least one point' }),
 });
 
 function main(argv: readonly string[]): number {
@@ -42,7 +44,5 @@ function toOutput(result: HillFitResult) {
     message: [result.message, ...result.flags.map((f) => f.message)].join(' '),
   };
 }
-
-
 
 process.exitCode = main(process.argv.slice(2));

@@ -37,6 +37,4 @@ function round(value: number | null, decimals: number): number | null {
   return Math.round(value * f) / f;
 }
 
-
-
 process.exitCode = main(process.argv.slice(2));

@@ -12,10 +12,19 @@ function main(): void {
   for (const plan of PLATE_PLANS) {
     const plate = makeDemoPlate(plan);
     writeFileSync(path.join(folder, plan.file), plate.bytes);
-    writeFileSync(path.join(folder, `${plan.file}.manifest.json`), `${JSON.stringify(plate.manifest, null, 2)}\n`);
-    console.log(`${plan.file}: ${plate.wells.length} wells, ${plate.bytes.length} bytes, Z′ from noise model ${plate.manifest.zPrimeFromNoiseModel}`);
+    writeFileSync(
+      path.join(folder, `${plan.file}.manifest.json`),
+      `${JSON.stringify(plate.manifest, null, 2)}\n`,
+    );
+    console.log(
+      `${plan.file}: ${plate.wells.length} wells, ${plate.bytes.length} bytes, Z′ from noise model ${plate.manifest.zPrimeFromNoiseModel}`,
+    );
   }
-  const scenario = { note: 'Invented demo data for Gatewell; not measurements.', targets: DEMO_TARGETS, compounds: DEMO_COMPOUNDS };
+  const scenario = {
+    note: 'Invented demo data for Gatewell; not measurements.',
+    targets: DEMO_TARGETS,
+    compounds: DEMO_COMPOUNDS,
+  };
   writeFileSync(path.join(folder, 'demo-compounds.json'), `${JSON.stringify(scenario, null, 2)}\n`);
   console.log(`demo-compounds.json: ${DEMO_COMPOUNDS.length} compounds; files in ${folder}`);
 }

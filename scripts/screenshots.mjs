@@ -17,7 +17,13 @@ const paths = args.length ? args : ['/'];
 mkdirSync('test-output/screenshots', { recursive: true });
 const browser = await chromium.launch({
   executablePath: '/usr/bin/chromium',
-  args: ['--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  args: [
+    '--disable-gpu',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+    '--no-first-run',
+  ],
 });
 const page = await browser.newPage({ viewport: { width, height: 900 } });
 await page.goto(`${base}/sign-in`);

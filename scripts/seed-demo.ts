@@ -39,13 +39,17 @@ const DEMO_SCREENS = [
     name: 'Pain sodium screen',
     description: 'Invented demo: state-dependent blockers of a neuronal sodium current, primary potency.',
     conductance: 'gNa',
-    targets: Object.entries(DEMO_TARGETS).filter(([, t]) => t.screen === 'Pain sodium screen').map(([name]) => name),
+    targets: Object.entries(DEMO_TARGETS)
+      .filter(([, t]) => t.screen === 'Pain sodium screen')
+      .map(([name]) => name),
   },
   {
     name: 'Potassium counter-screen',
     description: 'Invented demo: the same series on a slow M-type potassium current, for selectivity.',
     conductance: 'gM',
-    targets: Object.entries(DEMO_TARGETS).filter(([, t]) => t.screen === 'Potassium counter-screen').map(([name]) => name),
+    targets: Object.entries(DEMO_TARGETS)
+      .filter(([, t]) => t.screen === 'Potassium counter-screen')
+      .map(([name]) => name),
   },
 ];
 
@@ -53,44 +57,80 @@ async function seedScreens(admin: Actor): Promise<void> {
   for (const demo of DEMO_SCREENS) {
     if (await Screen.findOne({ where: { name: demo.name } })) continue;
     const input = screenSchema.parse({
-      name: demo.name, description: demo.description, neuronPreset: 'pospischil-rs-2008', zPrimeMin: 0.5, sealResistanceMin_GOhm: 0.5,
-      controlCurrentMin_pA: 200, seriesResistanceMax_MOhm: 25, capacitanceMin_pF: 1, capacitanceMax_pF: 100, vehicleRundownMax_percent: 20,
+      name: demo.name,
+      description: demo.description,
+      neuronPreset: 'pospischil-rs-2008',
+      zPrimeMin: 0.5,
+      sealResistanceMin_GOhm: 0.5,
+      controlCurrentMin_pA: 200,
+      seriesResistanceMax_MOhm: 25,
+      capacitanceMin_pF: 1,
+      capacitanceMax_pF: 100,
+      vehicleRundownMax_percent: 20,
       exposures_uM: '0.03, 0.1, 0.3, 1',
     });
     const { id } = await createScreen(admin, input);
-    for (const name of demo.targets) await addTarget(admin, id, { name, conductance: demo.conductance, description: '' });
+    for (const name of demo.targets)
+      await addTarget(admin, id, { name, conductance: demo.conductance, description: '' });
   }
 }
 
 async function seedCompounds(chemist: Actor): Promise<void> {
   for (const demo of DEMO_COMPOUNDS) {
     if (await Compound.findOne({ where: { identifier: demo.identifier } })) continue;
-    const compound = await createCompound(chemist, { identifier: demo.identifier, name: demo.name, smiles: '', molecularWeight: demo.molecularWeight });
+    const compound = await createCompound(chemist, {
+      identifier: demo.identifier,
+      name: demo.name,
+      smiles: '',
+      molecularWeight: demo.molecularWeight,
+    });
     await db().transaction((transaction) =>
-      insertBatch(chemist, compound.id, { lot: `${demo.identifier}-B01`, purity_percent: 98.5, stockConcentration_mM: 10, solvent: 'DMSO' }, transaction),
+      insertBatch(
+        chemist,
+        compound.id,
+        { lot: `${demo.identifier}-B01`, purity_percent: 98.5, stockConcentration_mM: 10, solvent: 'DMSO' },
+        transaction,
+      ),
     );
   }
 }
 
 const DEMO_DIR = path.join(process.cwd(), 'seeders', 'data', 'demo-plates');
-const DEMO_FILES = ['nav-96-plate-01.xlsx', 'nav-384-plate-02.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx'];
+const DEMO_FILES = [
+  'nav-96-plate-01.xlsx',
+  'nav-384-plate-02.xlsx',
+  'kv-96-plate-01.csv',
+  'nav-96-plate-03-noisy.xlsx',
+];
 
 /** Imports the generated demo exports through the same inspect → map → commit path a biologist uses. */
 async function seedPlates(biologist: Actor): Promise<void> {
   for (const file of DEMO_FILES) {
-    const manifest = JSON.parse(readFileSync(path.join(DEMO_DIR, `${file}.manifest.json`), 'utf8')) as DemoManifest;
+    const manifest = JSON.parse(
+      readFileSync(path.join(DEMO_DIR, `${file}.manifest.json`), 'utf8'),
+    ) as DemoManifest;
     if (await Plate.findOne({ where: { label: manifest.plate } })) continue;
     const screen = await Screen.findOne({ where: { name: manifest.screen } });
     if (!screen) throw new Error(`demo screen ${manifest.screen} is missing`);
     const upload = {
-      screenId: screen.id, bytes: new Uint8Array(readFileSync(path.join(DEMO_DIR, file))), filename: file,
-      mediaType: file.endsWith('.csv') ? 'text/csv' : 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+      screenId: screen.id,
+      bytes: new Uint8Array(readFileSync(path.join(DEMO_DIR, file))),
+      filename: file,
+      mediaType: file.endsWith('.csv')
+        ? 'text/csv'
+        : 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
     };
     const inspection = await inspectUpload(biologist, upload);
     const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet);
     if (!sheet) throw new Error(`${file} has no sheet ${manifest.dataSheet}`);
     if (!inspection.draftId) throw new Error(`${file} was already imported for ${manifest.screen}`);
-    await commitImport(biologist, { draftId: inspection.draftId, sheet: sheet.name, mapping: sheet.guess.mapping, label: manifest.plate, templateName: `Demo rig — ${sheet.name}` });
+    await commitImport(biologist, {
+      draftId: inspection.draftId,
+      sheet: sheet.name,
+      mapping: sheet.guess.mapping,
+      label: manifest.plate,
+      templateName: `Demo rig — ${sheet.name}`,
+    });
   }
 }
 
@@ -106,7 +146,10 @@ async function fitDemoPlates(): Promise<void> {
 }
 
 /** Demo sign-off: which plates go how far, signed by whom (the demo passwords of seeders/20261201000100-demo-users.js). */
-const DEMO_SIGNOFF: { plate: string; steps: { action: SignoffAction; role: 'chemist' | 'biologist' | 'approver'; comment: string }[] }[] = [
+const DEMO_SIGNOFF: {
+  plate: string;
+  steps: { action: SignoffAction; role: 'chemist' | 'biologist' | 'approver'; comment: string }[];
+}[] = [
   {
     plate: 'NAV-P02',
     steps: [
@@ -119,7 +162,11 @@ const DEMO_SIGNOFF: { plate: string; steps: { action: SignoffAction; role: 'chem
     plate: 'NAV-P03',
     steps: [
       { action: 'verify', role: 'chemist', comment: 'Demo: compound map checked against the plate layout.' },
-      { action: 'submit', role: 'biologist', comment: 'Demo: Z′ is below the screen limit on this noisy plate; for an approver to decide.' },
+      {
+        action: 'submit',
+        role: 'biologist',
+        comment: 'Demo: Z′ is below the screen limit on this noisy plate; for an approver to decide.',
+      },
     ],
   },
 ];
@@ -131,7 +178,11 @@ async function seedSignoff(): Promise<void> {
     if (!plate || plate.state !== 'imported') continue;
     for (const step of demo.steps) {
       const actor = await demoActor(`${step.role}@gatewell.test`);
-      await signPlateStep(actor, plate.id, { action: step.action, password: `demo-${step.role}-pass`, comment: step.comment });
+      await signPlateStep(actor, plate.id, {
+        action: step.action,
+        password: `demo-${step.role}-pass`,
+        comment: step.comment,
+      });
     }
   }
 }

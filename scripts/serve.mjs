@@ -16,13 +16,17 @@ const { values } = parseArgs({
   options: {
     port: { type: 'string', default: process.env.PORT ?? '4310' },
     hostname: { type: 'string', default: '127.0.0.1' },
-    processes: { type: 'string', default: process.env.GATEWELL_WEB_PROCESSES ?? String(Math.min(4, availableParallelism())) },
+    processes: {
+      type: 'string',
+      default: process.env.GATEWELL_WEB_PROCESSES ?? String(Math.min(4, availableParallelism())),
+    },
   },
 });
 const port = Number(values.port);
 const processes = Number(values.processes);
 if (!Number.isInteger(port) || port < 1 || port > 65535) throw new Error('--port must be a port number');
-if (!Number.isInteger(processes) || processes < 1 || processes > 64) throw new Error('--processes must be a whole number from 1 to 64');
+if (!Number.isInteger(processes) || processes < 1 || processes > 64)
+  throw new Error('--processes must be a whole number from 1 to 64');
 
 if (processes > 1 && cluster.isPrimary) {
   cluster.schedulingPolicy = cluster.SCHED_RR;
@@ -39,7 +43,9 @@ if (processes > 1 && cluster.isPrimary) {
     stopping = true;
     for (const worker of Object.values(cluster.workers ?? {})) worker?.process.kill(signal);
     setTimeout(() => process.exit(0), 10_000).unref();
-    cluster.on('exit', () => { if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(0); });
+    cluster.on('exit', () => {
+      if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(0);
+    });
   };
   process.on('SIGINT', () => stop('SIGINT'));
   process.on('SIGTERM', () => stop('SIGTERM'));
@@ -56,8 +62,11 @@ if (processes > 1 && cluster.isPrimary) {
     delay.enable();
     let cpu = process.cpuUsage();
     setInterval(() => {
-      const used = process.cpuUsage(cpu); cpu = process.cpuUsage();
-      console.log(`loop ${process.pid}: delay p50 ${(delay.percentile(50) / 1e6).toFixed(0)} p99 ${(delay.percentile(99) / 1e6).toFixed(0)} max ${(delay.max / 1e6).toFixed(0)} ms, cpu ${((used.user + used.system) / 50000).toFixed(0)} %`);
+      const used = process.cpuUsage(cpu);
+      cpu = process.cpuUsage();
+      console.log(
+        `loop ${process.pid}: delay p50 ${(delay.percentile(50) / 1e6).toFixed(0)} p99 ${(delay.percentile(99) / 1e6).toFixed(0)} max ${(delay.max / 1e6).toFixed(0)} ms, cpu ${((used.user + used.system) / 50000).toFixed(0)} %`,
+      );
       delay.reset();
     }, 5000).unref();
   }

@@ -32,7 +32,8 @@ const unaccounted = process.argv.slice(2).filter((step) => {
   return true;
 });
 failed += unaccounted.length;
-if (unaccounted.length) console.log(`counted as one failure each, with no failing test of their own: ${unaccounted.join('; ')}`);
+if (unaccounted.length)
+  console.log(`counted as one failure each, with no failing test of their own: ${unaccounted.join('; ')}`);
 const missing = [!vitest && 'vitest', !playwright && 'playwright'].filter(Boolean);
 if (missing.length) console.log(`no results from: ${missing.join(', ')}`);
 console.log(`${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);

@@ -15,21 +15,41 @@ import { closeForecastPool } from '../lib/compute/forecast-pool';
 import { startJobWorkers, stopJobWorkers } from '../lib/jobs/worker';
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({ options: { fits: { type: 'string', default: '2' }, forecasts: { type: 'string', default: '2' }, imports: { type: 'string', default: '1' }, nice: { type: 'string', default: '19' }, scheduling: { type: 'string', default: 'idle' } } });
+  const { values } = parseArgs({
+    options: {
+      fits: { type: 'string', default: '2' },
+      forecasts: { type: 'string', default: '2' },
+      imports: { type: 'string', default: '1' },
+      nice: { type: 'string', default: '19' },
+      scheduling: { type: 'string', default: 'idle' },
+    },
+  });
   const count = (name: string, text: string) => {
     const n = Number(text);
-    if (!Number.isInteger(n) || n < 0 || n > 16) throw new Error(`--${name} must be a whole number from 0 to 16`);
+    if (!Number.isInteger(n) || n < 0 || n > 16)
+      throw new Error(`--${name} must be a whole number from 0 to 16`);
     return n;
   };
   const niceness = Number(values.nice);
-  if (!Number.isInteger(niceness) || niceness < 0 || niceness > 19) throw new Error('--nice must be a whole number from 0 to 19');
-  if (values.scheduling !== 'idle' && values.scheduling !== 'nice') throw new Error('--scheduling must be idle or nice');
+  if (!Number.isInteger(niceness) || niceness < 0 || niceness > 19)
+    throw new Error('--nice must be a whole number from 0 to 19');
+  if (values.scheduling !== 'idle' && values.scheduling !== 'nice')
+    throw new Error('--scheduling must be idle or nice');
   const priority = runInBackground(niceness, { idle: values.scheduling === 'idle' });
   const fits = count('fits', values.fits);
   const forecasts = count('forecasts', values.forecasts);
   const imports = count('imports', values.imports);
-  await startJobWorkers({ concurrency: { 'plate-fits': fits, forecast: forecasts, 'plate-forecasts': forecasts > 0 ? 1 : 0, 'plate-import': imports } });
-  console.log(`gatewell worker ${process.pid}: taking jobs (imports ×${imports}, fits ×${fits}, forecasts ×${forecasts}, ${describePriority(priority, values.scheduling === 'idle')})`);
+  await startJobWorkers({
+    concurrency: {
+      'plate-fits': fits,
+      forecast: forecasts,
+      'plate-forecasts': forecasts > 0 ? 1 : 0,
+      'plate-import': imports,
+    },
+  });
+  console.log(
+    `gatewell worker ${process.pid}: taking jobs (imports ×${imports}, fits ×${fits}, forecasts ×${forecasts}, ${describePriority(priority, values.scheduling === 'idle')})`,
+  );
   let stopping = false;
   const stop = async (signal: string) => {
     if (stopping) return;

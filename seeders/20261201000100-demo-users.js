@@ -6,9 +6,24 @@ const argon2 = require('argon2');
 const DEMO_USERS = [
   { email: 'admin@gatewell.test', name: 'Ada Admin', roles: ['admin'], password: 'demo-admin-pass' },
   { email: 'chemist@gatewell.test', name: 'Chen Chemist', roles: ['chemist'], password: 'demo-chemist-pass' },
-  { email: 'biologist@gatewell.test', name: 'Bea Biologist', roles: ['biologist'], password: 'demo-biologist-pass' },
-  { email: 'approver@gatewell.test', name: 'Arun Approver', roles: ['approver'], password: 'demo-approver-pass' },
-  { email: 'approver2@gatewell.test', name: 'Alma Approver', roles: ['approver'], password: 'demo-approver2-pass' },
+  {
+    email: 'biologist@gatewell.test',
+    name: 'Bea Biologist',
+    roles: ['biologist'],
+    password: 'demo-biologist-pass',
+  },
+  {
+    email: 'approver@gatewell.test',
+    name: 'Arun Approver',
+    roles: ['approver'],
+    password: 'demo-approver-pass',
+  },
+  {
+    email: 'approver2@gatewell.test',
+    name: 'Alma Approver',
+    roles: ['approver'],
+    password: 'demo-approver2-pass',
+  },
 ];
 
 /** @type {import('sequelize-cli').Migration} */
@@ -34,7 +49,13 @@ module.exports = {
         await queryInterface.sequelize.query(
           `insert into audit_events (actor_id, action, entity_type, entity_id, after, reason)
            values (null, 'create', 'user', :userId, :after, 'demo data seeded')`,
-          { replacements: { userId, after: JSON.stringify({ email: user.email, name: user.name, roles: user.roles }) }, transaction },
+          {
+            replacements: {
+              userId,
+              after: JSON.stringify({ email: user.email, name: user.name, roles: user.roles }),
+            },
+            transaction,
+          },
         );
       }
     });

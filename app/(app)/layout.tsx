@@ -15,5 +15,9 @@ export default async function SignedInLayout({ children }: { children: ReactNode
   if (actor.passwordChangeRequired && pathname !== '/account') redirect('/account');
   const needed = rolesForPath(pathname);
   if (needed && !hasRole(actor, ...needed)) forbidden();
-  return <AppShell actor={actor} signOut={signOutAction}>{children}</AppShell>;
+  return (
+    <AppShell actor={actor} signOut={signOutAction}>
+      {children}
+    </AppShell>
+  );
 }

@@ -18,22 +18,43 @@ const WHAT_YOU_DO: Record<string, string> = {
   admin: 'manage users, screens and thresholds',
 };
 
-export default async function MyWorkPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function MyWorkPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const actor = await requireActor();
   // Plates in a state this person signs next, less those segregation of duties keeps from them, a page at a time.
-  const result = await listPlatePage(actor, { waitingFor: actor }, platePageSchema.parse((await searchParams).page));
-  const duties = actor.roles.map((role) => WHAT_YOU_DO[role]).filter(Boolean).join('; ');
+  const result = await listPlatePage(
+    actor,
+    { waitingFor: actor },
+    platePageSchema.parse((await searchParams).page),
+  );
+  const duties = actor.roles
+    .map((role) => WHAT_YOU_DO[role])
+    .filter(Boolean)
+    .join('; ');
   return (
     <>
-      <PageHeader title="My work" intro={`Signed in as ${actor.name}. You ${duties || 'can read results'}.`} />
+      <PageHeader
+        title="My work"
+        intro={`Signed in as ${actor.name}. You ${duties || 'can read results'}.`}
+      />
       {result.plates.length ? (
         <>
           <PlatePager result={result} pageHref={myWorkPageHref} />
-          <PlateTable plates={result.plates} caption="Plates waiting for your action" linkTo={(p) => plateSignoffPath(p.id)} />
+          <PlateTable
+            plates={result.plates}
+            caption="Plates waiting for your action"
+            linkTo={(p) => plateSignoffPath(p.id)}
+          />
         </>
       ) : result.total ? (
         <EmptyState title="This page is past the last plate waiting for you">
-          <AppLink href={myWorkPageHref(1)} className="underline">Go to the first page</AppLink>.
+          <AppLink href={myWorkPageHref(1)} className="underline">
+            Go to the first page
+          </AppLink>
+          .
         </EmptyState>
       ) : (
         <EmptyState title="Nothing is waiting for you">

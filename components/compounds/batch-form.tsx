@@ -13,9 +13,20 @@ export function BatchForm({ action, compoundId }: { action: FormAction; compound
       <input type="hidden" name="compoundId" value={compoundId} />
       <Field label="Batch / lot" name="lot" required errors={errors.lot} />
       <Field label="Purity (%)" name="purity_percent" inputMode="decimal" errors={errors.purity_percent} />
-      <Field label="Stock (mM)" name="stockConcentration_mM" inputMode="decimal" errors={errors.stockConcentration_mM} />
+      <Field
+        label="Stock (mM)"
+        name="stockConcentration_mM"
+        inputMode="decimal"
+        errors={errors.stockConcentration_mM}
+      />
       <Field label="Solvent" name="solvent" defaultValue="DMSO" errors={errors.solvent} />
-      <SubmitRow label="Add batch" pendingLabel="Adding…" pending={pending} state={state} className="flex items-center gap-3 sm:col-span-4" />
+      <SubmitRow
+        label="Add batch"
+        pendingLabel="Adding…"
+        pending={pending}
+        state={state}
+        className="flex items-center gap-3 sm:col-span-4"
+      />
     </form>
   );
 }

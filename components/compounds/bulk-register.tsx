@@ -38,7 +38,8 @@ export function BulkRegister() {
       if (commit && answer.ok) {
         setMessage({ ok: true, text: `${answer.registered} compound(s) registered.` });
         router.refresh();
-      } else if (!answer.ok) setMessage({ ok: false, text: 'Nothing was registered: fix the rows below and check again.' });
+      } else if (!answer.ok)
+        setMessage({ ok: false, text: 'Nothing was registered: fix the rows below and check again.' });
     } catch (e) {
       setMessage({ ok: false, text: e instanceof Error ? e.message : 'The request failed.' });
     } finally {
@@ -50,22 +51,54 @@ export function BulkRegister() {
   return (
     <div className="space-y-3">
       <p className="text-sm text-ink-700">
-        One compound per row, under a header row naming Identifier and any of Name, SMILES, Molecular weight, Lot, Purity, Stock (mM) and Solvent.
-        Rows with a lot also register that batch.
+        One compound per row, under a header row naming Identifier and any of Name, SMILES, Molecular weight,
+        Lot, Purity, Stock (mM) and Solvent. Rows with a lot also register that batch.
       </p>
       <div className="flex flex-wrap items-end gap-3">
         <div>
-          <label htmlFor="bulk-file" className="gw-label">Registration sheet (xlsx, xls or csv)</label>
-          <input id="bulk-file" type="file" accept=".xlsx,.xls,.csv" className="gw-input mt-1" onChange={(e) => { setFile(e.target.files?.[0] ?? null); setResult(null); }} />
+          <label htmlFor="bulk-file" className="gw-label">
+            Registration sheet (xlsx, xls or csv)
+          </label>
+          <input
+            id="bulk-file"
+            type="file"
+            accept=".xlsx,.xls,.csv"
+            className="gw-input mt-1"
+            onChange={(e) => {
+              setFile(e.target.files?.[0] ?? null);
+              setResult(null);
+            }}
+          />
         </div>
-        <button type="button" className="gw-button-quiet" disabled={!file || busy} onClick={() => run(false)}>Check rows</button>
-        <button type="button" className="gw-button" disabled={!file || busy || !result?.ok} onClick={() => run(true)}>
+        <button type="button" className="gw-button-quiet" disabled={!file || busy} onClick={() => run(false)}>
+          Check rows
+        </button>
+        <button
+          type="button"
+          className="gw-button"
+          disabled={!file || busy || !result?.ok}
+          onClick={() => run(true)}
+        >
           Register {result?.ok ? result.rows.length : ''} compound(s)
         </button>
       </div>
-      <p role="status" aria-live="polite" className={`min-h-5 text-sm font-medium ${message?.ok ? 'text-signal-pass' : 'text-signal-fail'}`}>{message?.text}</p>
-      {result && errors.length === 0 && !result.registered ? <p className="text-sm text-signal-pass">All {result.rows.length} rows are ready to register.</p> : null}
-      {errors.length ? <ul className="max-h-64 list-disc space-y-1 overflow-auto pl-5 text-sm text-signal-fail">{errors.map((e) => <li key={e}>{e}</li>)}</ul> : null}
+      <p
+        role="status"
+        aria-live="polite"
+        className={`min-h-5 text-sm font-medium ${message?.ok ? 'text-signal-pass' : 'text-signal-fail'}`}
+      >
+        {message?.text}
+      </p>
+      {result && errors.length === 0 && !result.registered ? (
+        <p className="text-sm text-signal-pass">All {result.rows.length} rows are ready to register.</p>
+      ) : null}
+      {errors.length ? (
+        <ul className="max-h-64 list-disc space-y-1 overflow-auto pl-5 text-sm text-signal-fail">
+          {errors.map((e) => (
+            <li key={e}>{e}</li>
+          ))}
+        </ul>
+      ) : null}
     </div>
   );
 }

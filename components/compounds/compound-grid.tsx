@@ -10,7 +10,13 @@ const columns: ColDef<CompoundSummary>[] = [
   { field: 'identifier', headerName: 'Identifier', cellClass: 'font-mono font-medium', width: 150 },
   { field: 'name', headerName: 'Name', flex: 1, minWidth: 160 },
   { field: 'smiles', headerName: 'SMILES', flex: 2, minWidth: 200, cellClass: 'font-mono text-xs' },
-  { field: 'molecularWeight', headerName: 'MW (g/mol)', width: 130, type: 'numericColumn', valueFormatter: (p) => (p.value == null ? '—' : Number(p.value).toFixed(2)) },
+  {
+    field: 'molecularWeight',
+    headerName: 'MW (g/mol)',
+    width: 130,
+    type: 'numericColumn',
+    valueFormatter: (p) => (p.value == null ? '—' : Number(p.value).toFixed(2)),
+  },
   { field: 'batchCount', headerName: 'Batches', width: 110, type: 'numericColumn' },
   { field: 'plateCount', headerName: 'Plates', width: 100, type: 'numericColumn' },
 ];
@@ -22,9 +28,17 @@ export function CompoundGrid({ compounds }: { compounds: CompoundSummary[] }) {
   return (
     <div className="space-y-3">
       <div className="max-w-sm">
-        <label htmlFor="compound-search" className="gw-label">Search the registry</label>
-        <input id="compound-search" type="search" value={search} onChange={(e) => setSearch(e.target.value)}
-          placeholder="Identifier, name or SMILES" className="gw-input mt-1" />
+        <label htmlFor="compound-search" className="gw-label">
+          Search the registry
+        </label>
+        <input
+          id="compound-search"
+          type="search"
+          value={search}
+          onChange={(e) => setSearch(e.target.value)}
+          placeholder="Identifier, name or SMILES"
+          className="gw-input mt-1"
+        />
       </div>
       <DataGrid<CompoundSummary>
         label="Registered compounds"

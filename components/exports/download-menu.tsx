@@ -1,6 +1,16 @@
 const TABLES = {
-  plate: [['wells', 'Wells'], ['fits', 'Fits'], ['forecast', 'Forecast at exposures'], ['signoff', 'Sign-off']],
-  compound: [['potency', 'Potency across plates'], ['selectivity', 'Selectivity'], ['forecast', 'Forecast at exposures'], ['signoff', 'Sign-off']],
+  plate: [
+    ['wells', 'Wells'],
+    ['fits', 'Fits'],
+    ['forecast', 'Forecast at exposures'],
+    ['signoff', 'Sign-off'],
+  ],
+  compound: [
+    ['potency', 'Potency across plates'],
+    ['selectivity', 'Selectivity'],
+    ['forecast', 'Forecast at exposures'],
+    ['signoff', 'Sign-off'],
+  ],
 } as const;
 
 /**
@@ -17,18 +27,32 @@ export function DownloadMenu({ kind, id }: { kind: 'plate' | 'compound'; id: str
       <div className="absolute right-0 z-20 mt-1 w-72 rounded-md border border-ink-100 bg-card p-2 text-sm shadow-lg">
         <ul>
           <li>
-            <a className="block rounded px-3 py-2 font-medium hover:bg-paper" href={`${base}?format=xlsx`} download>
+            <a
+              className="block rounded px-3 py-2 font-medium hover:bg-paper"
+              href={`${base}?format=xlsx`}
+              download
+            >
               Workbook with every table (xlsx)
             </a>
           </li>
           {TABLES[kind].map(([key, label]) => (
             <li key={key}>
-              <a className="block rounded px-3 py-2 hover:bg-paper" href={`${base}?format=csv&table=${key}`} download>{label} (csv)</a>
+              <a
+                className="block rounded px-3 py-2 hover:bg-paper"
+                href={`${base}?format=csv&table=${key}`}
+                download
+              >
+                {label} (csv)
+              </a>
             </li>
           ))}
         </ul>
         <p className="border-t border-ink-100 px-3 pt-2 text-xs text-ink-500">
-          Every file carries the research-use caution{kind === 'plate' ? ', the plate’s state and its signatures' : ', each plate’s state and its signatures'}. Missing forecasts are computed first, which can take a few seconds.
+          Every file carries the research-use caution
+          {kind === 'plate'
+            ? ', the plate’s state and its signatures'
+            : ', each plate’s state and its signatures'}
+          . Missing forecasts are computed first, which can take a few seconds.
         </p>
       </div>
     </details>

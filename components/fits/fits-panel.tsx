@@ -9,13 +9,18 @@ import { plateJobsKey } from '@/components/plates/plate-jobs';
 import { DoseResponsePlot } from './dose-response-plot';
 
 const STATUS_TEXT: Record<FitView['status'], string> = {
-  fitted: 'Fitted', above_range: 'Above tested range', inactive: 'Inactive', insufficient: 'Too few concentrations', not_converged: 'Did not converge',
+  fitted: 'Fitted',
+  above_range: 'Above tested range',
+  inactive: 'Inactive',
+  insufficient: 'Too few concentrations',
+  not_converged: 'Did not converge',
 };
 
 const num = (v: number | null, digits = 3) => (v === null ? '—' : v.toPrecision(digits));
 
 function ic50Text(fit: FitView): string {
-  if (fit.status === 'fitted') return `${num(fit.ic50_uM)} µM (95 % CI ${num(fit.ic50CiLow_uM)}–${num(fit.ic50CiHigh_uM)})`;
+  if (fit.status === 'fitted')
+    return `${num(fit.ic50_uM)} µM (95 % CI ${num(fit.ic50CiLow_uM)}–${num(fit.ic50CiHigh_uM)})`;
   if (fit.ic50LowerBound_uM !== null) return `> ${num(fit.ic50LowerBound_uM)} µM`;
   return '—';
 }
@@ -26,15 +31,30 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
   const wells = usePlateWells(plateId);
   const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<string | null>(null);
-  if (fits.error || wells.error) return <p role="alert" className="text-signal-fail">The fits could not be loaded: {(fits.error ?? wells.error)?.message}</p>;
-  if (!fits.data || !wells.data) return <p role="status" className="text-sm text-ink-500">Loading fits…</p>;
+  if (fits.error || wells.error)
+    return (
+      <p role="alert" className="text-signal-fail">
+        The fits could not be loaded: {(fits.error ?? wells.error)?.message}
+      </p>
+    );
+  if (!fits.data || !wells.data)
+    return (
+      <p role="status" className="text-sm text-ink-500">
+        Loading fits…
+      </p>
+    );
   const editable = canEdit && ['imported', 'verified', 'rejected'].includes(fits.data.state);
   const allWells = wells.data.wells;
 
   async function switchModel(fit: FitView, model: 'hill2' | 'hill4') {
     setMessage(null);
     try {
-      await postJson(`/api/plates/${plateId}/fit-model`, { compoundId: fit.compoundId, targetId: fit.targetId, model, expectedVersion: fits.data!.version });
+      await postJson(`/api/plates/${plateId}/fit-model`, {
+        compoundId: fit.compoundId,
+        targetId: fit.targetId,
+        model,
+        expectedVersion: fits.data!.version,
+      });
       await Promise.all([mutate(fitsKey(plateId)), mutate(wellsKey(plateId)), mutate(plateJobsKey(plateId))]);
     } catch (e) {
       setMessage(e instanceof Error ? e.message : 'The change failed.');
@@ -42,46 +62,102 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
   }
 
   if (!fits.data.fits.length) {
-    return fits.data.fitsPending
-      ? <p role="status" className="text-sm text-ink-700">The fits of this plate are being computed; they appear here when the job is done.</p>
-      : <p className="text-sm text-ink-700">This plate has no test compounds to fit.</p>;
+    return fits.data.fitsPending ? (
+      <p role="status" className="text-sm text-ink-700">
+        The fits of this plate are being computed; they appear here when the job is done.
+      </p>
+    ) : (
+      <p className="text-sm text-ink-700">This plate has no test compounds to fit.</p>
+    );
   }
   return (
     <div className="space-y-4">
-      <p role="status" aria-live="polite" className="min-h-5 text-sm text-signal-fail">{message}</p>
-      <DataTable caption="Fit results" rows={fits.data.fits} rowKey={(f) => f.id} columns={[
-        { header: 'Compound', cell: (f) => <a href={`#fit-${f.id}`} className="font-mono text-lagoon-700 hover:underline">{f.compound}</a> },
-        { header: 'Target', cell: (f) => f.target },
-        { header: 'Model', cell: (f) => (f.model === 'hill2' ? '2-parameter' : '4-parameter') },
-        { header: 'Status', cell: (f) => STATUS_TEXT[f.status] },
-        { header: 'IC50', cell: (f) => ic50Text(f) },
-        { header: 'Hill slope', cell: (f) => num(f.hill), align: 'right' },
-        { header: 'R²', cell: (f) => num(f.r2), align: 'right' },
-        { header: 'n', cell: (f) => f.n, align: 'right' },
-        { header: 'Message', cell: (f) => <span className="text-xs">{[f.message, ...f.flags.map((x) => x.message)].join(' ')}</span> },
-      ]} />
+      <p role="status" aria-live="polite" className="min-h-5 text-sm text-signal-fail">
+        {message}
+      </p>
+      <DataTable
+        caption="Fit results"
+        rows={fits.data.fits}
+        rowKey={(f) => f.id}
+        columns={[
+          {
+            header: 'Compound',
+            cell: (f) => (
+              <a href={`#fit-${f.id}`} className="font-mono text-lagoon-700 hover:underline">
+                {f.compound}
+              </a>
+            ),
+          },
+          { header: 'Target', cell: (f) => f.target },
+          { header: 'Model', cell: (f) => (f.model === 'hill2' ? '2-parameter' : '4-parameter') },
+          { header: 'Status', cell: (f) => STATUS_TEXT[f.status] },
+          { header: 'IC50', cell: (f) => ic50Text(f) },
+          { header: 'Hill slope', cell: (f) => num(f.hill), align: 'right' },
+          { header: 'R²', cell: (f) => num(f.r2), align: 'right' },
+          { header: 'n', cell: (f) => f.n, align: 'right' },
+          {
+            header: 'Message',
+            cell: (f) => (
+              <span className="text-xs">{[f.message, ...f.flags.map((x) => x.message)].join(' ')}</span>
+            ),
+          },
+        ]}
+      />
       <div className="grid gap-4 lg:grid-cols-2 2xl:grid-cols-3">
         {fits.data.fits.map((fit) => (
           <article key={fit.id} className="gw-card p-4" aria-labelledby={`fit-${fit.id}`}>
             <header className="flex items-baseline justify-between gap-2">
-              <h3 id={`fit-${fit.id}`} className="font-semibold"><span className="font-mono">{fit.compound}</span> · {fit.target}</h3>
-              <span className={`text-xs font-semibold ${fit.status === 'fitted' ? 'text-signal-pass' : fit.status === 'not_converged' ? 'text-signal-fail' : 'text-signal-warn'}`}>{STATUS_TEXT[fit.status]}</span>
+              <h3 id={`fit-${fit.id}`} className="font-semibold">
+                <span className="font-mono">{fit.compound}</span> · {fit.target}
+              </h3>
+              <span
+                className={`text-xs font-semibold ${fit.status === 'fitted' ? 'text-signal-pass' : fit.status === 'not_converged' ? 'text-signal-fail' : 'text-signal-warn'}`}
+              >
+                {STATUS_TEXT[fit.status]}
+              </span>
             </header>
-            <DoseResponsePlot fit={fit} points={allWells.filter((w) => w.compoundId === fit.compoundId && w.targetId === fit.targetId)} />
+            <DoseResponsePlot
+              fit={fit}
+              points={allWells.filter((w) => w.compoundId === fit.compoundId && w.targetId === fit.targetId)}
+            />
             <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
-              <dt className="text-ink-500">IC50</dt><dd className="tabular-nums">{ic50Text(fit)}</dd>
-              <dt className="text-ink-500">Hill slope</dt><dd className="tabular-nums">{num(fit.hill)}</dd>
-              {fit.model === 'hill4' ? <><dt className="text-ink-500">Bottom / top</dt><dd className="tabular-nums">{num(fit.bottom)} / {num(fit.top)}</dd></> : null}
-              <dt className="text-ink-500">R² · residual SD</dt><dd className="tabular-nums">{num(fit.r2)} · {num(fit.residualSd, 2)}</dd>
-              <dt className="text-ink-500">Wells used</dt><dd className="tabular-nums">{fit.n}</dd>
+              <dt className="text-ink-500">IC50</dt>
+              <dd className="tabular-nums">{ic50Text(fit)}</dd>
+              <dt className="text-ink-500">Hill slope</dt>
+              <dd className="tabular-nums">{num(fit.hill)}</dd>
+              {fit.model === 'hill4' ? (
+                <>
+                  <dt className="text-ink-500">Bottom / top</dt>
+                  <dd className="tabular-nums">
+                    {num(fit.bottom)} / {num(fit.top)}
+                  </dd>
+                </>
+              ) : null}
+              <dt className="text-ink-500">R² · residual SD</dt>
+              <dd className="tabular-nums">
+                {num(fit.r2)} · {num(fit.residualSd, 2)}
+              </dd>
+              <dt className="text-ink-500">Wells used</dt>
+              <dd className="tabular-nums">{fit.n}</dd>
             </dl>
             <p className="mt-2 text-xs text-ink-700">{fit.message}</p>
-            {fit.flags.map((f) => <p key={f.code} className="text-xs text-signal-warn">{f.message}</p>)}
+            {fit.flags.map((f) => (
+              <p key={f.code} className="text-xs text-signal-warn">
+                {f.message}
+              </p>
+            ))}
             <fieldset className="mt-3 flex items-center gap-3 text-sm" disabled={!editable}>
-              <legend className="sr-only">Model for {fit.compound} on {fit.target}</legend>
+              <legend className="sr-only">
+                Model for {fit.compound} on {fit.target}
+              </legend>
               {(['hill2', 'hill4'] as const).map((model) => (
                 <label key={model} className="inline-flex items-center gap-1">
-                  <input type="radio" name={`model-${fit.id}`} checked={fit.model === model} onChange={() => switchModel(fit, model)} />
+                  <input
+                    type="radio"
+                    name={`model-${fit.id}`}
+                    checked={fit.model === model}
+                    onChange={() => switchModel(fit, model)}
+                  />
                   {model === 'hill2' ? '2 parameters (bottom 0, top 1)' : '4 parameters'}
                 </label>
               ))}

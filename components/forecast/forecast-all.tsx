@@ -44,8 +44,17 @@ export function ForecastAll({ list, at }: { list: PlateForecastList; at: number 
 
   return (
     <div className="space-y-2 text-sm">
-      <button type="button" className="gw-button w-full" onClick={start} disabled={todo.length === 0 || running || starting}>
-        {running ? 'Forecast run under way' : todo.length ? `Forecast the ${todo.length} not yet computed` : 'Every forecast is stored'}
+      <button
+        type="button"
+        className="gw-button w-full"
+        onClick={start}
+        disabled={todo.length === 0 || running || starting}
+      >
+        {running
+          ? 'Forecast run under way'
+          : todo.length
+            ? `Forecast the ${todo.length} not yet computed`
+            : 'Every forecast is stored'}
       </button>
       <div role="status" aria-live="polite" className="min-h-5 text-xs text-ink-700">
         {error ? (
@@ -53,10 +62,14 @@ export function ForecastAll({ list, at }: { list: PlateForecastList; at: number 
         ) : run && running ? (
           <>
             <progress className="w-full accent-lagoon-700" max={run.total ?? 1} value={run.done} />
-            {run.state === 'queued' ? `Queued: ${run.total ?? '?'} forecast(s) wait for a worker…` : `Forecasting ${Math.min(run.done + 1, run.total ?? run.done + 1)} of ${run.total ?? '?'} on ${run.worker ?? 'a worker'}…`}
+            {run.state === 'queued'
+              ? `Queued: ${run.total ?? '?'} forecast(s) wait for a worker…`
+              : `Forecasting ${Math.min(run.done + 1, run.total ?? run.done + 1)} of ${run.total ?? '?'} on ${run.worker ?? 'a worker'}…`}
           </>
         ) : run?.state === 'failed' ? (
-          <span className="text-signal-fail">The last run stopped after {run.done} of {run.total ?? '?'}: {run.message}</span>
+          <span className="text-signal-fail">
+            The last run stopped after {run.done} of {run.total ?? '?'}: {run.message}
+          </span>
         ) : run?.state === 'done' ? (
           `Last run: ${run.done} of ${run.total ?? run.done} forecasts computed and stored.`
         ) : null}

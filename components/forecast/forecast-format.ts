@@ -1,7 +1,8 @@
 import type { ConditionView } from '@/lib/validation/forecasts';
 
 /** A number to a few significant digits, or a dash. */
-export const sig = (v: number | null, digits = 3) => (v === null ? '—' : Number(v.toPrecision(digits)).toString());
+export const sig = (v: number | null, digits = 3) =>
+  v === null ? '—' : Number(v.toPrecision(digits)).toString();
 
 /** A fraction as a percentage with one decimal. */
 export const percent = (v: number) => `${(v * 100).toFixed(1)} %`;
@@ -34,6 +35,8 @@ export function flagText(flags: string[]): string {
 
 /** Blocked conductances of a condition, e.g. "gNa 69.0 %, gM 1.2 %". */
 export function blockText(c: ConditionView): string {
-  const parts = Object.entries(c.block).filter(([, b]) => b > 0).map(([g, b]) => `${g} ${percent(b)}`);
+  const parts = Object.entries(c.block)
+    .filter(([, b]) => b > 0)
+    .map(([g, b]) => `${g} ${percent(b)}`);
   return parts.length ? parts.join(', ') : 'none';
 }

@@ -6,7 +6,9 @@ export const CONTROL_COLOR = '#12202f';
 /** A colour per exposure, lowest to highest concentration. */
 export function exposureColors(count: number): string[] {
   if (count <= 1) return ['#0f7479'];
-  const scale = scaleLinear<string>().domain([0, count - 1]).range(['#168f94', '#9a5b00']);
+  const scale = scaleLinear<string>()
+    .domain([0, count - 1])
+    .range(['#168f94', '#9a5b00']);
   return Array.from({ length: count }, (_, i) => scale(i));
 }
 

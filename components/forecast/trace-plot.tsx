@@ -15,12 +15,16 @@ type Trace = Traces['control'];
  * exposure (below), on one time axis and one voltage scale.
  */
 export function TracePlot({ traces, compound, color }: { traces: Traces; compound: string; color: string }) {
-  const panels: { name: string; trace: Trace; color: string }[] = [{ name: 'Control', trace: traces.control, color: CONTROL_COLOR }];
+  const panels: { name: string; trace: Trace; color: string }[] = [
+    { name: 'Control', trace: traces.control, color: CONTROL_COLOR },
+  ];
   const at = traces.concentration_uM === null ? '' : ` at ${umText(traces.concentration_uM)}`;
   if (traces.condition) panels.push({ name: `${compound}${at}`, trace: traces.condition, color });
   const all = panels.flatMap((p) => p.trace.v_mV);
   const tEnd = Math.max(...panels.map((p) => p.trace.t_ms.at(-1) ?? 0));
-  const x = scaleLinear().domain([0, tEnd]).range([BOX.left, BOX.width - BOX.right]);
+  const x = scaleLinear()
+    .domain([0, tEnd])
+    .range([BOX.left, BOX.width - BOX.right]);
   const plotHeight = (BOX.height - BOX.top - BOX.bottom - GAP * (panels.length - 1)) / panels.length;
   const drive = Number(traces.drive_uA_cm2.toPrecision(3));
   const label = `Voltage traces at a ${drive} µA/cm² step: ${panels.map((p) => `${p.name}, ${spikes(p.trace)} spikes`).join('; ')}.`;
@@ -29,16 +33,27 @@ export function TracePlot({ traces, compound, color }: { traces: Traces; compoun
       title={`Voltage traces at the reference drive (${drive} µA/cm² step)`}
       label={label}
       box={BOX}
-      legend={panels.map((p) => <LegendItem key={p.name} color={p.color}>{p.name}</LegendItem>)}
+      legend={panels.map((p) => (
+        <LegendItem key={p.name} color={p.color}>
+          {p.name}
+        </LegendItem>
+      ))}
     >
       {panels.map((p, i) => {
         const top = BOX.top + i * (plotHeight + GAP);
-        const y = scaleLinear().domain([Math.min(-90, ...all), Math.max(50, ...all)]).nice().range([top + plotHeight, top]);
-        const path = line<number>().x((_, k) => x(p.trace.t_ms[k]!)).y((v) => y(v));
+        const y = scaleLinear()
+          .domain([Math.min(-90, ...all), Math.max(50, ...all)])
+          .nice()
+          .range([top + plotHeight, top]);
+        const path = line<number>()
+          .x((_, k) => x(p.trace.t_ms[k]!))
+          .y((v) => y(v));
         return (
           <g key={p.name}>
             <AxisLeft box={BOX} scale={y} ticks={y.ticks(3)} label="mV" top={top} bottom={top + plotHeight} />
-            <text x={BOX.left} y={top - 8} fontSize={11} fontWeight={600} fill={p.color}>{p.name}</text>
+            <text x={BOX.left} y={top - 8} fontSize={11} fontWeight={600} fill={p.color}>
+              {p.name}
+            </text>
             <path d={path(p.trace.v_mV) ?? ''} fill="none" stroke={p.color} strokeWidth={1.2} />
           </g>
         );

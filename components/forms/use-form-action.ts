@@ -10,7 +10,10 @@ type Action<State> = (state: Awaited<State>, formData: FormData) => Promise<Stat
  * typed and ticked (a reset would untick controlled checkboxes behind React's back). With
  * `resetOnSuccess` the fields are cleared once the action succeeds.
  */
-export function useFormAction<State extends ActionState>(action: Action<State>, { resetOnSuccess = false } = {}) {
+export function useFormAction<State extends ActionState>(
+  action: Action<State>,
+  { resetOnSuccess = false } = {},
+) {
   const [state, formAction, pending] = useActionState<State, FormData>(action, {} as Awaited<State>);
   const formRef = useRef<HTMLFormElement>(null);
   useEffect(() => {

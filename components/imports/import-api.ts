@@ -10,7 +10,14 @@ export interface Inspection {
   expiresAt: string | null;
   sha256: string;
   duplicateOf: { plateId: string; label: string } | null;
-  sheets: { name: string; rowCount: number; headerRow: number; headers: string[]; sample: Cell[][]; guess: { mapping: ColumnMapping; matched: GuessedColumn[]; missingFields: string[] } }[];
+  sheets: {
+    name: string;
+    rowCount: number;
+    headerRow: number;
+    headers: string[];
+    sample: Cell[][];
+    guess: { mapping: ColumnMapping; matched: GuessedColumn[]; missingFields: string[] };
+  }[];
 }
 
 export interface Preview {
@@ -26,7 +33,10 @@ export interface Preview {
 }
 
 export class ImportRequestError extends Error {
-  constructor(message: string, readonly details: unknown) {
+  constructor(
+    message: string,
+    readonly details: unknown,
+  ) {
     super(message);
   }
 }
@@ -35,12 +45,22 @@ export class ImportRequestError extends Error {
  * Posts one import step and returns its JSON, or throws with the server's message: inspect sends the
  * file; preview and commit send the draft id inspect answered (in `fields`) and never the file again.
  */
-export async function postImportStep<T>(step: 'inspect' | 'preview' | 'commit', fields: Record<string, string>, file?: File): Promise<T> {
+export async function postImportStep<T>(
+  step: 'inspect' | 'preview' | 'commit',
+  fields: Record<string, string>,
+  file?: File,
+): Promise<T> {
   const body = new FormData();
   if (file) body.set('file', file);
   for (const [key, value] of Object.entries(fields)) body.set(key, value);
   const response = await fetch(`/api/imports/${step}`, { method: 'POST', body });
-  const json = (await response.json().catch(() => ({ message: `The server answered ${response.status}.` }))) as T & { message?: string; details?: unknown; fields?: Record<string, string[]> };
+  const json = (await response
+    .json()
+    .catch(() => ({ message: `The server answered ${response.status}.` }))) as T & {
+    message?: string;
+    details?: unknown;
+    fields?: Record<string, string[]>;
+  };
   if (!response.ok) {
     const fieldText = json.fields ? Object.values(json.fields).flat().join(' ') : '';
     throw new ImportRequestError([json.message, fieldText].filter(Boolean).join(' '), json.details);

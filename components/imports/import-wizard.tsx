@@ -8,13 +8,27 @@ import { postImportStep, type Inspection, type Preview } from './import-api';
 import { MappingStep } from './mapping-step';
 import { PreviewStep } from './preview-step';
 
-export interface WizardScreen { id: string; name: string; targets: string[] }
-export interface WizardTemplate { id: string; name: string; mapping: unknown }
+export interface WizardScreen {
+  id: string;
+  name: string;
+  targets: string[];
+}
+export interface WizardTemplate {
+  id: string;
+  name: string;
+  mapping: unknown;
+}
 
 const STEPS = ['Choose the file', 'Map the columns', 'Check and store'] as const;
 
 /** The three import steps: read the file, map its columns, check every row and store the plate. */
-export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; templates: WizardTemplate[] }) {
+export function ImportWizard({
+  screens,
+  templates,
+}: {
+  screens: WizardScreen[];
+  templates: WizardTemplate[];
+}) {
   const router = useRouter();
   const [step, setStep] = useState(0);
   const [screenId, setScreenId] = useState(screens[0]?.id ?? '');
@@ -62,15 +76,29 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
   }
 
   // The file was read once, at inspect; the later steps name the draft the server keeps it in.
-  const fields = () => ({ draftId: inspection?.draftId ?? '', sheet, mapping: JSON.stringify(mapping), format });
+  const fields = () => ({
+    draftId: inspection?.draftId ?? '',
+    sheet,
+    mapping: JSON.stringify(mapping),
+    format,
+  });
 
   async function check() {
     const result = await run(() => postImportStep<Preview>('preview', fields()));
-    if (result) { setPreview(result); setStep(2); }
+    if (result) {
+      setPreview(result);
+      setStep(2);
+    }
   }
 
   async function store() {
-    const result = await run(() => postImportStep<{ href: string; plateId?: string; message?: string }>('commit', { ...fields(), label, templateName }));
+    const result = await run(() =>
+      postImportStep<{ href: string; plateId?: string; message?: string }>('commit', {
+        ...fields(),
+        label,
+        templateName,
+      }),
+    );
     if (!result) return;
     if (result.plateId) router.push(result.href);
     else setStoring(result.message ?? 'A worker is still storing this plate.');
@@ -81,35 +109,77 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
     <div className="space-y-5">
       <ol className="flex flex-wrap gap-2 text-sm" aria-label="Import steps">
         {STEPS.map((name, i) => (
-          <li key={name} aria-current={i === step ? 'step' : undefined}
-            className={`rounded-full px-3 py-1 ${i === step ? 'bg-lagoon-700 text-white' : i < step ? 'bg-lagoon-100 text-lagoon-700' : 'bg-ink-100 text-ink-700'}`}>
+          <li
+            key={name}
+            aria-current={i === step ? 'step' : undefined}
+            className={`rounded-full px-3 py-1 ${i === step ? 'bg-lagoon-700 text-white' : i < step ? 'bg-lagoon-100 text-lagoon-700' : 'bg-ink-100 text-ink-700'}`}
+          >
             {i + 1}. {name}
           </li>
         ))}
       </ol>
-      <p role="alert" aria-live="assertive" className="min-h-5 text-sm font-medium text-signal-fail">{error}</p>
+      <p role="alert" aria-live="assertive" className="min-h-5 text-sm font-medium text-signal-fail">
+        {error}
+      </p>
 
       {step === 0 ? (
         <section className="gw-card grid gap-4 p-5 sm:grid-cols-2">
           <div>
-            <label htmlFor="import-screen" className="gw-label">Screen</label>
-            <select id="import-screen" className="gw-input mt-1" value={screenId} onChange={(e) => { setScreenId(e.target.value); setInspection(null); }}>
-              {screens.map((s) => <option key={s.id} value={s.id}>{s.name} ({s.targets.join(', ') || 'no targets'})</option>)}
+            <label htmlFor="import-screen" className="gw-label">
+              Screen
+            </label>
+            <select
+              id="import-screen"
+              className="gw-input mt-1"
+              value={screenId}
+              onChange={(e) => {
+                setScreenId(e.target.value);
+                setInspection(null);
+              }}
+            >
+              {screens.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name} ({s.targets.join(', ') || 'no targets'})
+                </option>
+              ))}
             </select>
           </div>
           <div>
-            <label htmlFor="import-file" className="gw-label">Instrument export (xlsx, xls or csv, up to 10 MB)</label>
-            <input id="import-file" type="file" accept=".xlsx,.xls,.csv,text/csv" className="gw-input mt-1"
-              onChange={(e) => { setFile(e.target.files?.[0] ?? null); setInspection(null); }} />
+            <label htmlFor="import-file" className="gw-label">
+              Instrument export (xlsx, xls or csv, up to 10 MB)
+            </label>
+            <input
+              id="import-file"
+              type="file"
+              accept=".xlsx,.xls,.csv,text/csv"
+              className="gw-input mt-1"
+              onChange={(e) => {
+                setFile(e.target.files?.[0] ?? null);
+                setInspection(null);
+              }}
+            />
           </div>
           {inspection?.duplicateOf ? (
-            <p role="status" className="rounded-md border border-amber-200 bg-amber-50 p-3 text-sm text-signal-warn sm:col-span-2">
+            <p
+              role="status"
+              className="rounded-md border border-amber-200 bg-amber-50 p-3 text-sm text-signal-warn sm:col-span-2"
+            >
               This exact file was already imported for this screen as plate{' '}
-              <AppLink className="font-semibold underline" href={`/plates/${inspection.duplicateOf.plateId}`}>{inspection.duplicateOf.label}</AppLink>.
+              <AppLink className="font-semibold underline" href={`/plates/${inspection.duplicateOf.plateId}`}>
+                {inspection.duplicateOf.label}
+              </AppLink>
+              .
             </p>
           ) : null}
           <div className="sm:col-span-2">
-            <button type="button" className="gw-button" disabled={busy || !file || !screenId} onClick={inspect}>{busy ? 'Reading…' : 'Read file'}</button>
+            <button
+              type="button"
+              className="gw-button"
+              disabled={busy || !file || !screenId}
+              onClick={inspect}
+            >
+              {busy ? 'Reading…' : 'Read file'}
+            </button>
           </div>
         </section>
       ) : null}
@@ -118,42 +188,98 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
         <section className="gw-card space-y-4 p-5">
           <div className="grid gap-4 sm:grid-cols-4">
             <div>
-              <label htmlFor="import-sheet" className="gw-label">Sheet</label>
-              <select id="import-sheet" className="gw-input mt-1" value={sheet} onChange={(e) => chooseSheet(inspection, e.target.value)}>
-                {inspection.sheets.map((s) => <option key={s.name} value={s.name}>{s.name} ({s.rowCount} rows)</option>)}
+              <label htmlFor="import-sheet" className="gw-label">
+                Sheet
+              </label>
+              <select
+                id="import-sheet"
+                className="gw-input mt-1"
+                value={sheet}
+                onChange={(e) => chooseSheet(inspection, e.target.value)}
+              >
+                {inspection.sheets.map((s) => (
+                  <option key={s.name} value={s.name}>
+                    {s.name} ({s.rowCount} rows)
+                  </option>
+                ))}
               </select>
             </div>
             <div>
-              <label htmlFor="import-template" className="gw-label">Apply a saved template</label>
-              <select id="import-template" className="gw-input mt-1" defaultValue="" onChange={(e) => {
-                const t = templates.find((x) => x.id === e.target.value);
-                if (t) setMapping(columnMappingDraftSchema.parse(t.mapping));
-              }}>
+              <label htmlFor="import-template" className="gw-label">
+                Apply a saved template
+              </label>
+              <select
+                id="import-template"
+                className="gw-input mt-1"
+                defaultValue=""
+                onChange={(e) => {
+                  const t = templates.find((x) => x.id === e.target.value);
+                  if (t) setMapping(columnMappingDraftSchema.parse(t.mapping));
+                }}
+              >
                 <option value="">— guessed from the headers —</option>
-                {templates.map((t) => <option key={t.id} value={t.id}>{t.name}</option>)}
+                {templates.map((t) => (
+                  <option key={t.id} value={t.id}>
+                    {t.name}
+                  </option>
+                ))}
               </select>
             </div>
             <div>
-              <label htmlFor="import-header-row" className="gw-label">Header row</label>
-              <input id="import-header-row" type="number" min={1} className="gw-input mt-1" value={mapping.headerRow}
-                onChange={(e) => setMapping({ ...mapping, headerRow: Math.max(1, Number(e.target.value) || 1) })} />
+              <label htmlFor="import-header-row" className="gw-label">
+                Header row
+              </label>
+              <input
+                id="import-header-row"
+                type="number"
+                min={1}
+                className="gw-input mt-1"
+                value={mapping.headerRow}
+                onChange={(e) =>
+                  setMapping({ ...mapping, headerRow: Math.max(1, Number(e.target.value) || 1) })
+                }
+              />
             </div>
             <div>
-              <label htmlFor="import-format" className="gw-label">Plate format</label>
-              <select id="import-format" className="gw-input mt-1" value={format} onChange={(e) => setFormat(e.target.value)}>
-                <option value="">Infer from the wells</option><option value="96">96 (8 × 12)</option><option value="384">384 (16 × 24)</option><option value="1536">1536 (32 × 48)</option>
+              <label htmlFor="import-format" className="gw-label">
+                Plate format
+              </label>
+              <select
+                id="import-format"
+                className="gw-input mt-1"
+                value={format}
+                onChange={(e) => setFormat(e.target.value)}
+              >
+                <option value="">Infer from the wells</option>
+                <option value="96">96 (8 × 12)</option>
+                <option value="384">384 (16 × 24)</option>
+                <option value="1536">1536 (32 × 48)</option>
               </select>
             </div>
           </div>
           <div>
-            <label htmlFor="import-fixed-target" className="gw-label">One target for every row (when the file has no target column)</label>
-            <input id="import-fixed-target" className="gw-input mt-1 max-w-sm" value={mapping.fixedTarget ?? ''}
-              onChange={(e) => setMapping({ ...mapping, fixedTarget: e.target.value.trim() === '' ? null : e.target.value })} />
+            <label htmlFor="import-fixed-target" className="gw-label">
+              One target for every row (when the file has no target column)
+            </label>
+            <input
+              id="import-fixed-target"
+              className="gw-input mt-1 max-w-sm"
+              value={mapping.fixedTarget ?? ''}
+              onChange={(e) =>
+                setMapping({ ...mapping, fixedTarget: e.target.value.trim() === '' ? null : e.target.value })
+              }
+            />
           </div>
-          <div className="overflow-x-auto"><MappingStep headers={current.headers} mapping={mapping} onChange={setMapping} /></div>
+          <div className="overflow-x-auto">
+            <MappingStep headers={current.headers} mapping={mapping} onChange={setMapping} />
+          </div>
           <div className="flex gap-3">
-            <button type="button" className="gw-button-quiet" onClick={() => setStep(0)}>Back</button>
-            <button type="button" className="gw-button" disabled={busy} onClick={check}>{busy ? 'Checking…' : 'Check every row'}</button>
+            <button type="button" className="gw-button-quiet" onClick={() => setStep(0)}>
+              Back
+            </button>
+            <button type="button" className="gw-button" disabled={busy} onClick={check}>
+              {busy ? 'Checking…' : 'Check every row'}
+            </button>
           </div>
         </section>
       ) : null}
@@ -163,23 +289,54 @@ export function ImportWizard({ screens, templates }: { screens: WizardScreen[]; 
           <PreviewStep preview={preview} />
           <div className="gw-card grid gap-4 p-5 sm:grid-cols-3">
             <div>
-              <label htmlFor="import-label" className="gw-label">Plate label</label>
-              <input id="import-label" className="gw-input mt-1" value={label} onChange={(e) => setLabel(e.target.value)} />
+              <label htmlFor="import-label" className="gw-label">
+                Plate label
+              </label>
+              <input
+                id="import-label"
+                className="gw-input mt-1"
+                value={label}
+                onChange={(e) => setLabel(e.target.value)}
+              />
             </div>
             <div>
-              <label htmlFor="import-template-name" className="gw-label">Save this mapping as a template (optional)</label>
-              <input id="import-template-name" className="gw-input mt-1" value={templateName} onChange={(e) => setTemplateName(e.target.value)} placeholder="e.g. Rig 2 flat sheet" />
+              <label htmlFor="import-template-name" className="gw-label">
+                Save this mapping as a template (optional)
+              </label>
+              <input
+                id="import-template-name"
+                className="gw-input mt-1"
+                value={templateName}
+                onChange={(e) => setTemplateName(e.target.value)}
+                placeholder="e.g. Rig 2 flat sheet"
+              />
             </div>
             <div className="flex items-end gap-3">
-              <button type="button" className="gw-button-quiet" onClick={() => setStep(1)}>Back to mapping</button>
-              <button type="button" className="gw-button" disabled={busy || storing !== null || !preview.ok || !label.trim()} onClick={store}>{busy ? 'Storing…' : 'Store plate'}</button>
+              <button type="button" className="gw-button-quiet" onClick={() => setStep(1)}>
+                Back to mapping
+              </button>
+              <button
+                type="button"
+                className="gw-button"
+                disabled={busy || storing !== null || !preview.ok || !label.trim()}
+                onClick={store}
+              >
+                {busy ? 'Storing…' : 'Store plate'}
+              </button>
             </div>
             {storing ? (
               <p role="status" className="text-sm text-ink-700 sm:col-span-3">
-                {storing} <AppLink href="/plates" className="font-medium text-lagoon-700 underline">Open the plate list</AppLink>
+                {storing}{' '}
+                <AppLink href="/plates" className="font-medium text-lagoon-700 underline">
+                  Open the plate list
+                </AppLink>
               </p>
             ) : null}
-            {!preview.ok ? <p className="text-sm text-signal-fail sm:col-span-3">Fix the errors above in the file or the mapping; nothing is stored while any row has an error.</p> : null}
+            {!preview.ok ? (
+              <p className="text-sm text-signal-fail sm:col-span-3">
+                Fix the errors above in the file or the mapping; nothing is stored while any row has an error.
+              </p>
+            ) : null}
           </div>
         </section>
       ) : null}

@@ -1,26 +1,58 @@
 'use client';
 
-import { FIELD_LABEL, IMPORT_FIELDS, REQUIRED_FIELDS, UNIT_FIELDS, type ImportField, type UnitField } from '@/lib/imports/import-fields';
+import {
+  FIELD_LABEL,
+  IMPORT_FIELDS,
+  REQUIRED_FIELDS,
+  UNIT_FIELDS,
+  type ImportField,
+  type UnitField,
+} from '@/lib/imports/import-fields';
 import type { ColumnMapping } from '@/lib/imports/mapping-schema';
 import { UNIT_LABEL, unitsOf, type QuantityKind } from '@/lib/imports/units';
 
 const UNIT_KIND: Record<UnitField, QuantityKind> = {
-  concentration: 'concentration', controlCurrent: 'current', compoundCurrent: 'current',
-  sealResistance: 'sealResistance', seriesResistance: 'seriesResistance', capacitance: 'capacitance',
+  concentration: 'concentration',
+  controlCurrent: 'current',
+  compoundCurrent: 'current',
+  sealResistance: 'sealResistance',
+  seriesResistance: 'seriesResistance',
+  capacitance: 'capacitance',
 };
 
-const isUnitField = (field: ImportField): field is UnitField => (UNIT_FIELDS as readonly string[]).includes(field);
+const isUnitField = (field: ImportField): field is UnitField =>
+  (UNIT_FIELDS as readonly string[]).includes(field);
 
 /** One row per field: the column that feeds it and, for quantities, the unit when the header does not say. */
-export function MappingStep({ headers, mapping, onChange }: { headers: string[]; mapping: ColumnMapping; onChange: (next: ColumnMapping) => void }) {
+export function MappingStep({
+  headers,
+  mapping,
+  onChange,
+}: {
+  headers: string[];
+  mapping: ColumnMapping;
+  onChange: (next: ColumnMapping) => void;
+}) {
   const named = headers.filter((h) => h.trim() !== '');
-  const setColumn = (field: ImportField, value: string) => onChange({ ...mapping, columns: { ...mapping.columns, [field]: value === '' ? null : value } });
-  const setUnit = (field: UnitField, value: string) => onChange({ ...mapping, units: { ...mapping.units, [field]: value } as ColumnMapping['units'] });
+  const setColumn = (field: ImportField, value: string) =>
+    onChange({ ...mapping, columns: { ...mapping.columns, [field]: value === '' ? null : value } });
+  const setUnit = (field: UnitField, value: string) =>
+    onChange({ ...mapping, units: { ...mapping.units, [field]: value } as ColumnMapping['units'] });
   return (
     <table className="min-w-full text-sm">
       <caption className="sr-only">Column for each field</caption>
       <thead className="text-left text-xs uppercase tracking-wide text-ink-700">
-        <tr><th scope="col" className="py-2 pr-4">Field</th><th scope="col" className="py-2 pr-4">Column in the file</th><th scope="col" className="py-2">Unit if the header gives none</th></tr>
+        <tr>
+          <th scope="col" className="py-2 pr-4">
+            Field
+          </th>
+          <th scope="col" className="py-2 pr-4">
+            Column in the file
+          </th>
+          <th scope="col" className="py-2">
+            Unit if the header gives none
+          </th>
+        </tr>
       </thead>
       <tbody className="divide-y divide-ink-100">
         {IMPORT_FIELDS.map((field) => {
@@ -29,18 +61,42 @@ export function MappingStep({ headers, mapping, onChange }: { headers: string[];
           return (
             <tr key={field}>
               <th scope="row" className="py-1.5 pr-4 text-left font-medium">
-                <label htmlFor={id}>{FIELD_LABEL[field]}</label>{required ? <span className="text-signal-fail" aria-label="required"> *</span> : null}
+                <label htmlFor={id}>{FIELD_LABEL[field]}</label>
+                {required ? (
+                  <span className="text-signal-fail" aria-label="required">
+                    {' '}
+                    *
+                  </span>
+                ) : null}
               </th>
               <td className="py-1.5 pr-4">
-                <select id={id} className="gw-input" value={mapping.columns[field] ?? ''} onChange={(e) => setColumn(field, e.target.value)}>
+                <select
+                  id={id}
+                  className="gw-input"
+                  value={mapping.columns[field] ?? ''}
+                  onChange={(e) => setColumn(field, e.target.value)}
+                >
                   <option value="">— not in this file —</option>
-                  {named.map((header) => <option key={header} value={header}>{header}</option>)}
+                  {named.map((header) => (
+                    <option key={header} value={header}>
+                      {header}
+                    </option>
+                  ))}
                 </select>
               </td>
               <td className="py-1.5">
                 {isUnitField(field) ? (
-                  <select aria-label={`Unit of ${FIELD_LABEL[field]}`} className="gw-input" value={mapping.units[field]} onChange={(e) => setUnit(field, e.target.value)}>
-                    {unitsOf(UNIT_KIND[field]).map((unit) => <option key={unit} value={unit}>{UNIT_LABEL[unit]}</option>)}
+                  <select
+                    aria-label={`Unit of ${FIELD_LABEL[field]}`}
+                    className="gw-input"
+                    value={mapping.units[field]}
+                    onChange={(e) => setUnit(field, e.target.value)}
+                  >
+                    {unitsOf(UNIT_KIND[field]).map((unit) => (
+                      <option key={unit} value={unit}>
+                        {UNIT_LABEL[unit]}
+                      </option>
+                    ))}
                   </select>
                 ) : null}
               </td>

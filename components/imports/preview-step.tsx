@@ -17,18 +17,53 @@ interface PreviewGridRow {
   notes: string;
 }
 
-const num = (digits: number) => (p: { value: unknown }) => (typeof p.value === 'number' ? p.value.toPrecision(digits) : '—');
+const num = (digits: number) => (p: { value: unknown }) =>
+  typeof p.value === 'number' ? p.value.toPrecision(digits) : '—';
 
 const COLUMNS: ColDef<PreviewGridRow>[] = [
   { field: 'row', headerName: 'Row', width: 80, type: 'numericColumn' },
-  { field: 'status', headerName: 'Result', width: 120, cellClass: (p) => (p.value === 'error' ? 'text-signal-fail font-semibold' : p.value === 'QC flag' ? 'text-signal-warn font-semibold' : 'text-signal-pass') },
+  {
+    field: 'status',
+    headerName: 'Result',
+    width: 120,
+    cellClass: (p) =>
+      p.value === 'error'
+        ? 'text-signal-fail font-semibold'
+        : p.value === 'QC flag'
+          ? 'text-signal-warn font-semibold'
+          : 'text-signal-pass',
+  },
   { field: 'well', headerName: 'Well', width: 80 },
   { field: 'compound', headerName: 'Compound', width: 120 },
-  { field: 'concentration_uM', headerName: 'Conc. (µM)', width: 120, type: 'numericColumn', valueFormatter: num(3) },
+  {
+    field: 'concentration_uM',
+    headerName: 'Conc. (µM)',
+    width: 120,
+    type: 'numericColumn',
+    valueFormatter: num(3),
+  },
   { field: 'target', headerName: 'Target', width: 100 },
-  { field: 'controlCurrent_pA', headerName: 'Control (pA)', width: 120, type: 'numericColumn', valueFormatter: num(4) },
-  { field: 'compoundCurrent_pA', headerName: 'Compound (pA)', width: 130, type: 'numericColumn', valueFormatter: num(4) },
-  { field: 'sealResistance_GOhm', headerName: 'Seal (GΩ)', width: 110, type: 'numericColumn', valueFormatter: num(3) },
+  {
+    field: 'controlCurrent_pA',
+    headerName: 'Control (pA)',
+    width: 120,
+    type: 'numericColumn',
+    valueFormatter: num(4),
+  },
+  {
+    field: 'compoundCurrent_pA',
+    headerName: 'Compound (pA)',
+    width: 130,
+    type: 'numericColumn',
+    valueFormatter: num(4),
+  },
+  {
+    field: 'sealResistance_GOhm',
+    headerName: 'Seal (GΩ)',
+    width: 110,
+    type: 'numericColumn',
+    valueFormatter: num(3),
+  },
   { field: 'notes', headerName: 'Messages', flex: 1, minWidth: 320, wrapText: true, autoHeight: true },
 ];
 
@@ -38,9 +73,19 @@ export function PreviewStep({ preview }: { preview: Preview }) {
     const qc = preview.qc[String(r.row)] ?? [];
     const status = r.status === 'error' ? 'error' : qc.length ? 'QC flag' : 'ok';
     return {
-      row: r.row, status, well: r.values.well, compound: r.values.compound, concentration_uM: r.values.concentration_uM, target: r.values.target,
-      controlCurrent_pA: r.values.controlCurrent_pA, compoundCurrent_pA: r.values.compoundCurrent_pA, sealResistance_GOhm: r.values.sealResistance_GOhm,
-      notes: [...r.issues.map((i) => i.message.replace(/^Sheet "[^"]*", row \d+, /, '')), ...qc.map((q) => `QC: ${q}`)].join(' · '),
+      row: r.row,
+      status,
+      well: r.values.well,
+      compound: r.values.compound,
+      concentration_uM: r.values.concentration_uM,
+      target: r.values.target,
+      controlCurrent_pA: r.values.controlCurrent_pA,
+      compoundCurrent_pA: r.values.compoundCurrent_pA,
+      sealResistance_GOhm: r.values.sealResistance_GOhm,
+      notes: [
+        ...r.issues.map((i) => i.message.replace(/^Sheet "[^"]*", row \d+, /, '')),
+        ...qc.map((q) => `QC: ${q}`),
+      ].join(' · '),
     };
   });
   const sheetIssues = preview.issues.filter((i) => i.row === null);
@@ -49,24 +94,48 @@ export function PreviewStep({ preview }: { preview: Preview }) {
     <div className="space-y-4">
       <dl className="grid grid-cols-2 gap-3 sm:grid-cols-5">
         {[
-          ['Rows read', summary.rows], ['Rows ready', summary.okRows], ['Rows with errors', summary.errorRows],
-          ['Plate format', preview.plate ? `${preview.plate.format} (${preview.plate.formatSource})` : '—'], ['Wells', preview.plate?.wells.length ?? 0],
+          ['Rows read', summary.rows],
+          ['Rows ready', summary.okRows],
+          ['Rows with errors', summary.errorRows],
+          ['Plate format', preview.plate ? `${preview.plate.format} (${preview.plate.formatSource})` : '—'],
+          ['Wells', preview.plate?.wells.length ?? 0],
         ].map(([label, value]) => (
-          <div key={String(label)} className="gw-card p-3"><dt className="text-xs text-ink-500">{label}</dt><dd className="text-lg font-semibold tabular-nums">{value}</dd></div>
+          <div key={String(label)} className="gw-card p-3">
+            <dt className="text-xs text-ink-500">{label}</dt>
+            <dd className="text-lg font-semibold tabular-nums">{value}</dd>
+          </div>
         ))}
       </dl>
       {sheetIssues.length ? (
-        <ul role="alert" className="space-y-1 rounded-md border border-red-200 bg-red-50 p-3 text-sm text-signal-fail">
-          {sheetIssues.map((i) => <li key={i.message}>{i.message}</li>)}
+        <ul
+          role="alert"
+          className="space-y-1 rounded-md border border-red-200 bg-red-50 p-3 text-sm text-signal-fail"
+        >
+          {sheetIssues.map((i) => (
+            <li key={i.message}>{i.message}</li>
+          ))}
         </ul>
       ) : null}
       {preview.unknownCompounds.length ? (
         <p className="rounded-md border border-amber-200 bg-amber-50 p-3 text-sm text-signal-warn">
-          Not registered: {preview.unknownCompounds.map((c) => `${c.identifier} (rows ${c.rows.slice(0, 5).join(', ')}${c.rows.length > 5 ? '…' : ''})`).join('; ')}.
-          A chemist registers them on the Compounds page; then check the rows again.
+          Not registered:{' '}
+          {preview.unknownCompounds
+            .map(
+              (c) => `${c.identifier} (rows ${c.rows.slice(0, 5).join(', ')}${c.rows.length > 5 ? '…' : ''})`,
+            )
+            .join('; ')}
+          . A chemist registers them on the Compounds page; then check the rows again.
         </p>
       ) : null}
-      {rows.length ? <DataGrid<PreviewGridRow> label="Preview of every row" rows={rows} columns={COLUMNS} height={460} getRowId={(p) => String(p.data.row)} /> : null}
+      {rows.length ? (
+        <DataGrid<PreviewGridRow>
+          label="Preview of every row"
+          rows={rows}
+          columns={COLUMNS}
+          height={460}
+          getRowId={(p) => String(p.data.row)}
+        />
+      ) : null}
     </div>
   );
 }

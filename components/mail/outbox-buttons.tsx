@@ -4,15 +4,39 @@ import { useActionState } from 'react';
 import type { FormAction } from '@/lib/actions/validated-action';
 
 /** A one-button form for an outbox command, with its answer announced beside it. */
-export function OutboxButton({ action, label, busyLabel, fields = {}, quiet = false }: {
-  action: FormAction; label: string; busyLabel: string; fields?: Record<string, string>; quiet?: boolean;
+export function OutboxButton({
+  action,
+  label,
+  busyLabel,
+  fields = {},
+  quiet = false,
+}: {
+  action: FormAction;
+  label: string;
+  busyLabel: string;
+  fields?: Record<string, string>;
+  quiet?: boolean;
 }) {
   const [state, formAction, pending] = useActionState(action, {});
   return (
     <form action={formAction} className="inline-flex items-center gap-2">
-      {Object.entries(fields).map(([name, value]) => <input key={name} type="hidden" name={name} value={value} />)}
-      <button type="submit" className={quiet ? 'gw-button-quiet px-2.5 py-1 text-xs' : 'gw-button'} disabled={pending}>{pending ? busyLabel : label}</button>
-      <span role="status" aria-live="polite" className={`text-xs ${state.ok ? 'text-signal-pass' : 'text-signal-fail'}`}>{state.message}</span>
+      {Object.entries(fields).map(([name, value]) => (
+        <input key={name} type="hidden" name={name} value={value} />
+      ))}
+      <button
+        type="submit"
+        className={quiet ? 'gw-button-quiet px-2.5 py-1 text-xs' : 'gw-button'}
+        disabled={pending}
+      >
+        {pending ? busyLabel : label}
+      </button>
+      <span
+        role="status"
+        aria-live="polite"
+        className={`text-xs ${state.ok ? 'text-signal-pass' : 'text-signal-fail'}`}
+      >
+        {state.message}
+      </span>
     </form>
   );
 }

@@ -9,7 +9,10 @@ export function schemaFetcher<T>(schema: z.ZodType<T>) {
   return async (url: string): Promise<T> => {
     const response = await fetch(url, { headers: { accept: 'application/json' } });
     const json: unknown = await response.json().catch(() => null);
-    if (!response.ok) throw new Error((json as { message?: string } | null)?.message ?? `The server answered ${response.status}.`);
+    if (!response.ok)
+      throw new Error(
+        (json as { message?: string } | null)?.message ?? `The server answered ${response.status}.`,
+      );
     return schema.parse(json);
   };
 }
@@ -27,8 +30,19 @@ export function usePlateFits(plateId: string) {
 
 /** Posts JSON to one of our API routes and returns its answer, or throws with the server's message. */
 export async function postJson<T>(url: string, body: unknown): Promise<T> {
-  const response = await fetch(url, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-  const json = (await response.json().catch(() => ({}))) as T & { message?: string; fields?: Record<string, string[]> };
-  if (!response.ok) throw new Error([json.message, ...Object.values(json.fields ?? {}).flat()].filter(Boolean).join(' ') || `The server answered ${response.status}.`);
+  const response = await fetch(url, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify(body),
+  });
+  const json = (await response.json().catch(() => ({}))) as T & {
+    message?: string;
+    fields?: Record<string, string[]>;
+  };
+  if (!response.ok)
+    throw new Error(
+      [json.message, ...Object.values(json.fields ?? {}).flat()].filter(Boolean).join(' ') ||
+        `The server answered ${response.status}.`,
+    );
   return json;
 }

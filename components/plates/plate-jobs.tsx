@@ -9,20 +9,24 @@ import { fitsKey, schemaFetcher, wellsKey } from './plate-data';
 export const plateJobsKey = (plateId: string) => `/api/plates/${plateId}/jobs`;
 
 /** A job that waits or runs. */
-export const isOpen = (job: JobViewData | undefined): boolean => job?.state === 'queued' || job?.state === 'running';
+export const isOpen = (job: JobViewData | undefined): boolean =>
+  job?.state === 'queued' || job?.state === 'running';
 
 /** The plate's fit state and jobs; polled every second while a refit or a forecast run is under way. */
 export function usePlateJobs(plateId: string, fitsPendingAtLoad: boolean) {
   return useSWR<PlateJobsData>(plateJobsKey(plateId), schemaFetcher(plateJobsSchema), {
     revalidateOnFocus: false,
-    refreshInterval: (data) => (data ? (data.fitsPending || data.jobs.some(isOpen) ? 1000 : 0) : fitsPendingAtLoad ? 1000 : 0),
+    refreshInterval: (data) =>
+      data ? (data.fitsPending || data.jobs.some(isOpen) ? 1000 : 0) : fitsPendingAtLoad ? 1000 : 0,
   });
 }
 
 function fitJobText(job: JobViewData | undefined): string {
   if (!job) return 'waiting for a worker to take the job';
-  if (job.state === 'running') return `running on worker ${job.worker ?? '—'}${job.attempts > 1 ? `, attempt ${job.attempts}` : ''}`;
-  if (job.state === 'failed') return `the last attempt failed (${job.message ?? 'no reason given'}); a worker retries it within a minute`;
+  if (job.state === 'running')
+    return `running on worker ${job.worker ?? '—'}${job.attempts > 1 ? `, attempt ${job.attempts}` : ''}`;
+  if (job.state === 'failed')
+    return `the last attempt failed (${job.message ?? 'no reason given'}); a worker retries it within a minute`;
   return job.message ? `queued: ${job.message}` : 'queued for the next free worker';
 }
 
@@ -48,11 +52,20 @@ export function PlateFitStatus({ plateId, fitsPending }: { plateId: string; fits
   if (!pending) return null;
   const fitJob = jobs.data?.jobs.find((j) => j.kind === 'plate-fits');
   return (
-    <p role="status" aria-live="polite" data-testid="fit-status" className="mb-4 flex items-center gap-2 rounded-md border border-lagoon-500/30 bg-lagoon-100/60 px-3 py-2 text-sm text-ink-800">
-      <span aria-hidden="true" className="size-3 animate-spin rounded-full border-2 border-lagoon-700 border-t-transparent" />
+    <p
+      role="status"
+      aria-live="polite"
+      data-testid="fit-status"
+      className="mb-4 flex items-center gap-2 rounded-md border border-lagoon-500/30 bg-lagoon-100/60 px-3 py-2 text-sm text-ink-800"
+    >
+      <span
+        aria-hidden="true"
+        className="size-3 animate-spin rounded-full border-2 border-lagoon-700 border-t-transparent"
+      />
       <span>
-        <strong className="font-semibold">Refitting.</strong> The Hill fits are being recomputed after the last change ({fitJobText(fitJob)}). Fits, forecasts and
-        signatures use them once they are current; this page updates by itself.
+        <strong className="font-semibold">Refitting.</strong> The Hill fits are being recomputed after the
+        last change ({fitJobText(fitJob)}). Fits, forecasts and signatures use them once they are current;
+        this page updates by itself.
       </span>
     </p>
   );

@@ -7,10 +7,20 @@ export function PlatePager({ result, pageHref }: { result: PlatePage; pageHref: 
   const last = first + result.plates.length - 1;
   return (
     <div className="mb-2 flex items-center justify-between text-sm text-ink-700">
-      <p aria-live="polite">Plates {first}–{last} of {result.total}, newest first</p>
+      <p aria-live="polite">
+        Plates {first}–{last} of {result.total}, newest first
+      </p>
       <nav aria-label="Pages of plates" className="flex gap-2">
-        {result.page > 1 ? <AppLink href={pageHref(result.page - 1)} className="gw-button-quiet py-1">Newer</AppLink> : null}
-        {last < result.total ? <AppLink href={pageHref(result.page + 1)} className="gw-button-quiet py-1">Older</AppLink> : null}
+        {result.page > 1 ? (
+          <AppLink href={pageHref(result.page - 1)} className="gw-button-quiet py-1">
+            Newer
+          </AppLink>
+        ) : null}
+        {last < result.total ? (
+          <AppLink href={pageHref(result.page + 1)} className="gw-button-quiet py-1">
+            Older
+          </AppLink>
+        ) : null}
       </nav>
     </div>
   );

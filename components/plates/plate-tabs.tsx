@@ -18,8 +18,12 @@ export function PlateTabs({ plateId }: { plateId: string }) {
       {tabs.map((tab) => {
         const active = pathname === tab.href;
         return (
-          <AppLink key={tab.href} href={tab.href} aria-current={active ? 'page' : undefined}
-            className={`-mb-px whitespace-nowrap border-b-2 px-4 py-2 text-sm font-medium ${active ? 'border-lagoon-600 text-lagoon-700' : 'border-transparent text-ink-700 hover:text-ink-950'}`}>
+          <AppLink
+            key={tab.href}
+            href={tab.href}
+            aria-current={active ? 'page' : undefined}
+            className={`-mb-px whitespace-nowrap border-b-2 px-4 py-2 text-sm font-medium ${active ? 'border-lagoon-600 text-lagoon-700' : 'border-transparent text-ink-700 hover:text-ink-950'}`}
+          >
             {tab.label}
           </AppLink>
         );

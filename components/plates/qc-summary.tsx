@@ -5,25 +5,39 @@ export function QcSummary({ header }: { header: PlateHeader }) {
   if (!header.qcSummary.length) return null;
   return (
     <section aria-labelledby="qc-heading" className="space-y-2">
-      <h2 id="qc-heading" className="text-lg font-semibold">Plate QC</h2>
+      <h2 id="qc-heading" className="text-lg font-semibold">
+        Plate QC
+      </h2>
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
         {header.qcSummary.map((t) => {
           const name = header.targets.find((x) => x.id === t.target)?.name ?? t.target;
           const z = t.zPrime;
           return (
-            <div key={t.target} className={`gw-card border-l-4 p-4 ${z.passes ? 'border-l-signal-pass' : 'border-l-signal-fail'}`}>
+            <div
+              key={t.target}
+              className={`gw-card border-l-4 p-4 ${z.passes ? 'border-l-signal-pass' : 'border-l-signal-fail'}`}
+            >
               <p className="text-sm font-medium">{name}</p>
-              <p className="mt-1 text-2xl font-semibold tabular-nums">Z′ {z.zPrime === null ? '—' : z.zPrime.toFixed(2)}</p>
+              <p className="mt-1 text-2xl font-semibold tabular-nums">
+                Z′ {z.zPrime === null ? '—' : z.zPrime.toFixed(2)}
+              </p>
               <p className={`text-sm font-medium ${z.passes ? 'text-signal-pass' : 'text-signal-fail'}`}>
-                {z.passes ? 'Passes' : 'Fails'} the screen limit of {header.zPrimeMin}{z.band ? ` · ${z.band}` : ''}
+                {z.passes ? 'Passes' : 'Fails'} the screen limit of {header.zPrimeMin}
+                {z.band ? ` · ${z.band}` : ''}
               </p>
               {/* With a value, the lines above say what the message says; without one, it says why. */}
               {z.zPrime === null ? <p className="mt-1 text-xs text-ink-700">{z.message}</p> : null}
               <p className="mt-1 text-xs text-ink-500">
-                {t.rundownCorrected ? `Run-down corrected (vehicle ratio ${t.vehicleMeanRatio?.toFixed(3)})` : 'No run-down correction'}
+                {t.rundownCorrected
+                  ? `Run-down corrected (vehicle ratio ${t.vehicleMeanRatio?.toFixed(3)})`
+                  : 'No run-down correction'}
                 {t.normalised ? ' · normalised to vehicle and reference' : ''}
               </p>
-              {t.notes.map((n) => <p key={n.code} className="mt-1 text-xs text-signal-warn">{n.message}</p>)}
+              {t.notes.map((n) => (
+                <p key={n.code} className="mt-1 text-xs text-signal-warn">
+                  {n.message}
+                </p>
+              ))}
             </div>
           );
         })}

@@ -9,25 +9,86 @@ import { plateJobsKey } from './plate-jobs';
 import { fitsKey, postJson, usePlateWells, wellsKey } from './plate-data';
 import { PlateMap, type MapColouring } from './plate-map';
 
-const fmt = (digits: number) => (p: { value: unknown }) => (typeof p.value === 'number' ? p.value.toPrecision(digits) : '—');
+const fmt = (digits: number) => (p: { value: unknown }) =>
+  typeof p.value === 'number' ? p.value.toPrecision(digits) : '—';
 
 const COLUMNS: ColDef<WellRowView>[] = [
   { field: 'position', headerName: 'Well', width: 90 },
   { field: 'role', headerName: 'Role', width: 100 },
   { field: 'compound', headerName: 'Compound', width: 120 },
-  { field: 'concentration_uM', headerName: 'Conc. (µM)', width: 110, type: 'numericColumn', valueFormatter: fmt(3) },
-  { field: 'controlCurrent_pA', headerName: 'Control (pA)', width: 120, type: 'numericColumn', valueFormatter: fmt(4) },
-  { field: 'compoundCurrent_pA', headerName: 'Compound (pA)', width: 130, type: 'numericColumn', valueFormatter: fmt(4) },
-  { field: 'fractionalBlock', headerName: 'Block', width: 95, type: 'numericColumn', valueFormatter: (p) => (typeof p.value === 'number' ? `${(p.value * 100).toFixed(1)} %` : '—') },
-  { field: 'sealResistance_GOhm', headerName: 'Seal (GΩ)', width: 105, type: 'numericColumn', valueFormatter: fmt(3) },
-  { field: 'seriesResistance_MOhm', headerName: 'Series (MΩ)', width: 115, type: 'numericColumn', valueFormatter: fmt(3) },
-  { field: 'capacitance_pF', headerName: 'Cap. (pF)', width: 100, type: 'numericColumn', valueFormatter: fmt(3) },
-  { headerName: 'QC', flex: 1, minWidth: 220, valueGetter: (p) => p.data?.qcReasons.map((q) => q.message).join('; ') || 'passed', cellClass: (p) => (p.data?.qcReasons.length ? 'text-signal-fail' : 'text-signal-pass') },
-  { headerName: 'Excluded', width: 200, valueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : '') },
+  {
+    field: 'concentration_uM',
+    headerName: 'Conc. (µM)',
+    width: 110,
+    type: 'numericColumn',
+    valueFormatter: fmt(3),
+  },
+  {
+    field: 'controlCurrent_pA',
+    headerName: 'Control (pA)',
+    width: 120,
+    type: 'numericColumn',
+    valueFormatter: fmt(4),
+  },
+  {
+    field: 'compoundCurrent_pA',
+    headerName: 'Compound (pA)',
+    width: 130,
+    type: 'numericColumn',
+    valueFormatter: fmt(4),
+  },
+  {
+    field: 'fractionalBlock',
+    headerName: 'Block',
+    width: 95,
+    type: 'numericColumn',
+    valueFormatter: (p) => (typeof p.value === 'number' ? `${(p.value * 100).toFixed(1)} %` : '—'),
+  },
+  {
+    field: 'sealResistance_GOhm',
+    headerName: 'Seal (GΩ)',
+    width: 105,
+    type: 'numericColumn',
+    valueFormatter: fmt(3),
+  },
+  {
+    field: 'seriesResistance_MOhm',
+    headerName: 'Series (MΩ)',
+    width: 115,
+    type: 'numericColumn',
+    valueFormatter: fmt(3),
+  },
+  {
+    field: 'capacitance_pF',
+    headerName: 'Cap. (pF)',
+    width: 100,
+    type: 'numericColumn',
+    valueFormatter: fmt(3),
+  },
+  {
+    headerName: 'QC',
+    flex: 1,
+    minWidth: 220,
+    valueGetter: (p) => p.data?.qcReasons.map((q) => q.message).join('; ') || 'passed',
+    cellClass: (p) => (p.data?.qcReasons.length ? 'text-signal-fail' : 'text-signal-pass'),
+  },
+  {
+    headerName: 'Excluded',
+    width: 200,
+    valueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : ''),
+  },
 ];
 
 /** Plate map and wells grid of one target, with exclusion and re-inclusion of selected wells. */
-export function WellsPanel({ plateId, format, canEdit }: { plateId: string; format: number; canEdit: boolean }) {
+export function WellsPanel({
+  plateId,
+  format,
+  canEdit,
+}: {
+  plateId: string;
+  format: number;
+  canEdit: boolean;
+}) {
   const { data, error, isLoading } = usePlateWells(plateId);
   const { mutate } = useSWRConfig();
   const targets = useMemo(() => [...new Set(data?.wells.map((w) => w.target))], [data]);
@@ -38,20 +99,45 @@ export function WellsPanel({ plateId, format, canEdit }: { plateId: string; form
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [busy, setBusy] = useState(false);
 
-  if (error) return <p role="alert" className="text-signal-fail">The wells could not be loaded: {error.message}</p>;
-  if (isLoading || !data) return <p role="status" className="text-sm text-ink-500">Loading wells…</p>;
+  if (error)
+    return (
+      <p role="alert" className="text-signal-fail">
+        The wells could not be loaded: {error.message}
+      </p>
+    );
+  if (isLoading || !data)
+    return (
+      <p role="status" className="text-sm text-ink-500">
+        Loading wells…
+      </p>
+    );
   const current = target ?? targets[0] ?? '';
   const wells = data.wells.filter((w) => w.target === current);
   const editable = canEdit && ['imported', 'verified', 'rejected'].includes(data.state);
-  const toggle = (id: string) => setSelected((s) => { const next = new Set(s); if (next.has(id)) next.delete(id); else next.add(id); return next; });
+  const toggle = (id: string) =>
+    setSelected((s) => {
+      const next = new Set(s);
+      if (next.has(id)) next.delete(id);
+      else next.add(id);
+      return next;
+    });
 
   async function apply(excluded: boolean) {
-    const parsed = exclusionSchema.safeParse({ wellIds: [...selected], excluded, reason, expectedVersion: data!.version });
-    if (!parsed.success) return setMessage({ ok: false, text: parsed.error.issues.map((i) => i.message).join(' ') });
+    const parsed = exclusionSchema.safeParse({
+      wellIds: [...selected],
+      excluded,
+      reason,
+      expectedVersion: data!.version,
+    });
+    if (!parsed.success)
+      return setMessage({ ok: false, text: parsed.error.issues.map((i) => i.message).join(' ') });
     setBusy(true);
     try {
       const result = await postJson<{ changed: number }>(`/api/plates/${plateId}/exclusions`, parsed.data);
-      setMessage({ ok: true, text: `${result.changed} well(s) ${excluded ? 'excluded' : 're-included'}; QC recomputed${result.changed ? ', fits queued for a refit' : ''}.` });
+      setMessage({
+        ok: true,
+        text: `${result.changed} well(s) ${excluded ? 'excluded' : 're-included'}; QC recomputed${result.changed ? ', fits queued for a refit' : ''}.`,
+      });
       setSelected(new Set());
       setReason('');
       await Promise.all([mutate(wellsKey(plateId)), mutate(fitsKey(plateId)), mutate(plateJobsKey(plateId))]);
@@ -65,34 +151,93 @@ export function WellsPanel({ plateId, format, canEdit }: { plateId: string; form
   return (
     <section className="space-y-4" aria-labelledby="wells-heading">
       <div className="flex flex-wrap items-end gap-4">
-        <h2 id="wells-heading" className="mr-auto text-lg font-semibold">Plate map and wells</h2>
-        <label className="text-sm">Target{' '}
-          <select className="gw-input inline-block w-auto" value={current} onChange={(e) => { setTarget(e.target.value); setSelected(new Set()); }}>
-            {targets.map((t) => <option key={t}>{t}</option>)}
+        <h2 id="wells-heading" className="mr-auto text-lg font-semibold">
+          Plate map and wells
+        </h2>
+        <label className="text-sm">
+          Target{' '}
+          <select
+            className="gw-input inline-block w-auto"
+            value={current}
+            onChange={(e) => {
+              setTarget(e.target.value);
+              setSelected(new Set());
+            }}
+          >
+            {targets.map((t) => (
+              <option key={t}>{t}</option>
+            ))}
           </select>
         </label>
-        <fieldset className="flex gap-3 text-sm"><legend className="sr-only">Colour wells by</legend>
+        <fieldset className="flex gap-3 text-sm">
+          <legend className="sr-only">Colour wells by</legend>
           {(['block', 'qc'] as const).map((mode) => (
             <label key={mode} className="inline-flex items-center gap-1">
-              <input type="radio" name="colouring" checked={colouring === mode} onChange={() => setColouring(mode)} />{mode === 'block' ? 'Fractional block' : 'QC status'}
+              <input
+                type="radio"
+                name="colouring"
+                checked={colouring === mode}
+                onChange={() => setColouring(mode)}
+              />
+              {mode === 'block' ? 'Fractional block' : 'QC status'}
             </label>
           ))}
         </fieldset>
       </div>
-      <PlateMap format={format} wells={wells} colouring={colouring} selected={selected} onToggle={editable ? toggle : undefined} />
+      <PlateMap
+        format={format}
+        wells={wells}
+        colouring={colouring}
+        selected={selected}
+        onToggle={editable ? toggle : undefined}
+      />
       {editable ? (
         <div className="gw-card flex flex-wrap items-end gap-3 p-4">
           <p className="text-sm font-medium">{selected.size} well(s) selected</p>
           <div className="min-w-64 flex-1">
-            <label htmlFor="exclusion-reason" className="gw-label">Reason (required, kept in the audit trail)</label>
-            <input id="exclusion-reason" className="gw-input mt-1" value={reason} onChange={(e) => setReason(e.target.value)} placeholder="e.g. seal lost during compound addition" />
+            <label htmlFor="exclusion-reason" className="gw-label">
+              Reason (required, kept in the audit trail)
+            </label>
+            <input
+              id="exclusion-reason"
+              className="gw-input mt-1"
+              value={reason}
+              onChange={(e) => setReason(e.target.value)}
+              placeholder="e.g. seal lost during compound addition"
+            />
           </div>
-          <button type="button" className="gw-button" disabled={busy || selected.size === 0} onClick={() => apply(true)}>Exclude</button>
-          <button type="button" className="gw-button-quiet" disabled={busy || selected.size === 0} onClick={() => apply(false)}>Re-include</button>
-          <p role="status" aria-live="polite" className={`w-full text-sm ${message?.ok ? 'text-signal-pass' : 'text-signal-fail'}`}>{message?.text}</p>
+          <button
+            type="button"
+            className="gw-button"
+            disabled={busy || selected.size === 0}
+            onClick={() => apply(true)}
+          >
+            Exclude
+          </button>
+          <button
+            type="button"
+            className="gw-button-quiet"
+            disabled={busy || selected.size === 0}
+            onClick={() => apply(false)}
+          >
+            Re-include
+          </button>
+          <p
+            role="status"
+            aria-live="polite"
+            className={`w-full text-sm ${message?.ok ? 'text-signal-pass' : 'text-signal-fail'}`}
+          >
+            {message?.text}
+          </p>
         </div>
       ) : (
-        <p className="text-sm text-ink-700">{data.state === 'approved' ? 'This plate is approved and locked: wells can no longer be excluded.' : canEdit ? 'The plate is awaiting approval; wells change again only if it is returned.' : 'Only a biologist excludes or re-includes wells.'}</p>
+        <p className="text-sm text-ink-700">
+          {data.state === 'approved'
+            ? 'This plate is approved and locked: wells can no longer be excluded.'
+            : canEdit
+              ? 'The plate is awaiting approval; wells change again only if it is returned.'
+              : 'Only a biologist excludes or re-includes wells.'}
+        </p>
       )}
       <DataGrid<WellRowView>
         label={`Wells of ${current}`}
@@ -101,11 +246,22 @@ export function WellsPanel({ plateId, format, canEdit }: { plateId: string; form
         height={480}
         getRowId={(p) => p.data.readoutId}
         // Wells are picked only where they can be excluded: a locked plate's grid has no selection boxes.
-        {...(editable ? {
-          rowSelection: { mode: 'multiRow', checkboxes: true, headerCheckbox: true, enableClickSelection: false } as const,
-          onSelectionChanged: (e: SelectionChangedEvent<WellRowView>) => setSelected(new Set(e.api.getSelectedRows().map((r) => r.id))),
-          onRowDataUpdated: (e: RowDataUpdatedEvent<WellRowView>) => e.api.forEachNode((node) => node.setSelected(Boolean(node.data && selected.has(node.data.id)))),
-        } : {})}
+        {...(editable
+          ? {
+              rowSelection: {
+                mode: 'multiRow',
+                checkboxes: true,
+                headerCheckbox: true,
+                enableClickSelection: false,
+              } as const,
+              onSelectionChanged: (e: SelectionChangedEvent<WellRowView>) =>
+                setSelected(new Set(e.api.getSelectedRows().map((r) => r.id))),
+              onRowDataUpdated: (e: RowDataUpdatedEvent<WellRowView>) =>
+                e.api.forEachNode((node) =>
+                  node.setSelected(Boolean(node.data && selected.has(node.data.id))),
+                ),
+            }
+          : {})}
       />
     </section>
   );

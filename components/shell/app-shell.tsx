@@ -18,7 +18,10 @@ export function AppShell({
 }) {
   return (
     <div className="min-h-screen lg:grid lg:grid-cols-[15rem_1fr]">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2"
+      >
         Skip to content
       </a>
       <header className="bg-ink-950 text-ink-100 lg:sticky lg:top-0 lg:flex lg:h-screen lg:flex-col">
@@ -33,7 +36,10 @@ export function AppShell({
           <p className="font-medium text-white">{actor.name}</p>
           <p className="text-xs text-ink-300">{actor.roles.join(', ') || 'no role'}</p>
           <form action={signOut} className="mt-3">
-            <button type="submit" className="rounded-md border border-ink-700 px-3 py-1.5 text-xs font-medium text-ink-100 hover:bg-ink-800">
+            <button
+              type="submit"
+              className="rounded-md border border-ink-700 px-3 py-1.5 text-xs font-medium text-ink-100 hover:bg-ink-800"
+            >
               Sign out
             </button>
           </form>
@@ -43,10 +49,14 @@ export function AppShell({
         <div className="flex items-center justify-end gap-3 border-b border-ink-100 bg-card px-4 py-2 text-sm lg:hidden">
           <span>{actor.name}</span>
           <form action={signOut}>
-            <button type="submit" className="gw-button-quiet px-3 py-1">Sign out</button>
+            <button type="submit" className="gw-button-quiet px-3 py-1">
+              Sign out
+            </button>
           </form>
         </div>
-        <main id="main" className="mx-auto max-w-7xl px-4 py-6 lg:px-8 lg:py-8">{children}</main>
+        <main id="main" className="mx-auto max-w-7xl px-4 py-6 lg:px-8 lg:py-8">
+          {children}
+        </main>
       </div>
     </div>
   );

@@ -10,7 +10,8 @@ function matches(pathname: string, href: string): boolean {
 
 /** The entry for this page: the longest href that matches, so /plates/import is not also "Plates". */
 function activeHref(pathname: string, items: NavItem[]): string | undefined {
-  return items.filter((item) => matches(pathname, item.href)).sort((a, b) => b.href.length - a.href.length)[0]?.href;
+  return items.filter((item) => matches(pathname, item.href)).sort((a, b) => b.href.length - a.href.length)[0]
+    ?.href;
 }
 
 export function NavLinks({ items }: { items: NavItem[] }) {

@@ -17,8 +17,18 @@ export interface FormChoice {
  * meaning, comment, re-enter the password) and the answer of the last signature, which stays in view
  * after the panel re-renders with the plate's new state.
  */
-export function SignoffForm({ action, plateId, version, choices, notYours }: {
-  action: FormAction; plateId: string; version: number; choices: FormChoice[]; notYours: string | null;
+export function SignoffForm({
+  action,
+  plateId,
+  version,
+  choices,
+  notYours,
+}: {
+  action: FormAction;
+  plateId: string;
+  version: number;
+  choices: FormChoice[];
+  notYours: string | null;
 }) {
   const [state, formAction, pending] = useActionState(action, {});
   const form = useRef<HTMLFormElement>(null);
@@ -47,7 +57,15 @@ export function SignoffForm({ action, plateId, version, choices, notYours }: {
   );
 }
 
-function StepFields({ choices, errors: e, pending }: { choices: FormChoice[]; errors: NonNullable<ActionState['fieldErrors']>; pending: boolean }) {
+function StepFields({
+  choices,
+  errors: e,
+  pending,
+}: {
+  choices: FormChoice[];
+  errors: NonNullable<ActionState['fieldErrors']>;
+  pending: boolean;
+}) {
   const [chosen, setChosen] = useState<SignoffAction>(choices[0]!.action);
   const [comment, setComment] = useState('');
   const choice = choices.find((c) => c.action === chosen) ?? choices[0]!;
@@ -58,8 +76,17 @@ function StepFields({ choices, errors: e, pending }: { choices: FormChoice[]; er
           <legend className="gw-label">Your decision</legend>
           <div className="mt-2 flex flex-wrap gap-3">
             {choices.map((c) => (
-              <label key={c.action} className={`flex cursor-pointer items-center gap-2 rounded-md border px-3 py-2 text-sm ${chosen === c.action ? 'border-lagoon-600 bg-lagoon-100/60' : 'border-ink-300'}`}>
-                <input type="radio" name="action" value={c.action} checked={chosen === c.action} onChange={() => setChosen(c.action)} />
+              <label
+                key={c.action}
+                className={`flex cursor-pointer items-center gap-2 rounded-md border px-3 py-2 text-sm ${chosen === c.action ? 'border-lagoon-600 bg-lagoon-100/60' : 'border-ink-300'}`}
+              >
+                <input
+                  type="radio"
+                  name="action"
+                  value={c.action}
+                  checked={chosen === c.action}
+                  onChange={() => setChosen(c.action)}
+                />
                 {c.label}
               </label>
             ))}
@@ -69,22 +96,50 @@ function StepFields({ choices, errors: e, pending }: { choices: FormChoice[]; er
         <input type="hidden" name="action" value={choice.action} />
       )}
       <div className="rounded-md border border-ink-100 bg-paper p-3 text-sm">
-        <p className="text-xs font-semibold uppercase tracking-wide text-ink-500">Meaning of your signature</p>
+        <p className="text-xs font-semibold uppercase tracking-wide text-ink-500">
+          Meaning of your signature
+        </p>
         <p className="mt-1 text-ink-900">{choice.meaning}</p>
       </div>
       <div>
-        <label htmlFor="signoff-comment" className="gw-label">Comment{choice.commentRequired ? ' (required: say what needs rework)' : ' (optional)'}</label>
-        <textarea id="signoff-comment" name="comment" rows={3} value={comment} onChange={(event) => setComment(event.target.value)}
-          aria-invalid={e.comment?.length ? true : undefined} aria-describedby="signoff-comment-error" className="gw-input mt-1" />
-        <p id="signoff-comment-error" aria-live="polite" className="mt-1 min-h-4 text-xs text-signal-fail">{e.comment?.join(' ')}</p>
+        <label htmlFor="signoff-comment" className="gw-label">
+          Comment{choice.commentRequired ? ' (required: say what needs rework)' : ' (optional)'}
+        </label>
+        <textarea
+          id="signoff-comment"
+          name="comment"
+          rows={3}
+          value={comment}
+          onChange={(event) => setComment(event.target.value)}
+          aria-invalid={e.comment?.length ? true : undefined}
+          aria-describedby="signoff-comment-error"
+          className="gw-input mt-1"
+        />
+        <p id="signoff-comment-error" aria-live="polite" className="mt-1 min-h-4 text-xs text-signal-fail">
+          {e.comment?.join(' ')}
+        </p>
       </div>
       <div>
-        <label htmlFor="signoff-password" className="gw-label">Your password, to sign</label>
-        <input id="signoff-password" name="password" type="password" autoComplete="current-password" required
-          aria-invalid={e.password?.length ? true : undefined} aria-describedby="signoff-password-error" className="gw-input mt-1 max-w-sm" />
-        <p id="signoff-password-error" aria-live="polite" className="mt-1 min-h-4 text-xs text-signal-fail">{e.password?.join(' ')}</p>
+        <label htmlFor="signoff-password" className="gw-label">
+          Your password, to sign
+        </label>
+        <input
+          id="signoff-password"
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          required
+          aria-invalid={e.password?.length ? true : undefined}
+          aria-describedby="signoff-password-error"
+          className="gw-input mt-1 max-w-sm"
+        />
+        <p id="signoff-password-error" aria-live="polite" className="mt-1 min-h-4 text-xs text-signal-fail">
+          {e.password?.join(' ')}
+        </p>
       </div>
-      <button type="submit" className="gw-button" disabled={pending}>{pending ? 'Signing…' : `Sign: ${choice.label}`}</button>
+      <button type="submit" className="gw-button" disabled={pending}>
+        {pending ? 'Signing…' : `Sign: ${choice.label}`}
+      </button>
     </>
   );
 }

@@ -1,6 +1,12 @@
 'use client';
 
-import { AllCommunityModule, ModuleRegistry, themeQuartz, type ColDef, type GridOptions } from 'ag-grid-community';
+import {
+  AllCommunityModule,
+  ModuleRegistry,
+  themeQuartz,
+  type ColDef,
+  type GridOptions,
+} from 'ag-grid-community';
 import { AgGridReact } from 'ag-grid-react';
 import { useStyleNonce } from './csp-context';
 

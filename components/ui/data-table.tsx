@@ -7,7 +7,12 @@ export interface Column<Row> {
 }
 
 /** A plain, accessible table for short server-rendered lists. */
-export function DataTable<Row>({ caption, columns, rows, rowKey }: {
+export function DataTable<Row>({
+  caption,
+  columns,
+  rows,
+  rowKey,
+}: {
   caption: string;
   columns: Column<Row>[];
   rows: Row[];
@@ -20,7 +25,11 @@ export function DataTable<Row>({ caption, columns, rows, rowKey }: {
         <thead className="bg-ink-100/60 text-left text-xs uppercase tracking-wide text-ink-700">
           <tr>
             {columns.map((column) => (
-              <th key={column.header} scope="col" className={`px-4 py-2.5 font-semibold ${column.align === 'right' ? 'text-right' : ''}`}>
+              <th
+                key={column.header}
+                scope="col"
+                className={`px-4 py-2.5 font-semibold ${column.align === 'right' ? 'text-right' : ''}`}
+              >
                 {column.header}
               </th>
             ))}
@@ -30,7 +39,10 @@ export function DataTable<Row>({ caption, columns, rows, rowKey }: {
           {rows.map((row) => (
             <tr key={rowKey(row)} className="hover:bg-paper">
               {columns.map((column) => (
-                <td key={column.header} className={`px-4 py-2.5 ${column.align === 'right' ? 'text-right tabular-nums' : ''}`}>
+                <td
+                  key={column.header}
+                  className={`px-4 py-2.5 ${column.align === 'right' ? 'text-right tabular-nums' : ''}`}
+                >
                   {column.cell(row)}
                 </td>
               ))}

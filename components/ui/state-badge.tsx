@@ -11,7 +11,9 @@ const TONE: Record<PlateState, string> = {
 /** A plate's sign-off state as a labelled badge (text carries the meaning, colour only helps). */
 export function StateBadge({ state }: { state: PlateState }) {
   return (
-    <span className={`inline-flex items-center rounded-full px-2.5 py-0.5 text-xs font-medium ring-1 ring-inset ${TONE[state]}`}>
+    <span
+      className={`inline-flex items-center rounded-full px-2.5 py-0.5 text-xs font-medium ring-1 ring-inset ${TONE[state]}`}
+    >
       {PLATE_STATE_LABEL[state]}
     </span>
   );

@@ -16,7 +16,10 @@ export interface ActionState {
 }
 
 /** A server action as a form calls it: the state it last answered, and the form's data. */
-export type FormAction<State extends ActionState = ActionState> = (state: State, formData: FormData) => Promise<State>;
+export type FormAction<State extends ActionState = ActionState> = (
+  state: State,
+  formData: FormData,
+) => Promise<State>;
 
 /**
  * The one way server actions are written: loads the signed-in actor, refuses anyone who must first
@@ -61,7 +64,10 @@ export function failedActionState(error: unknown): ActionState {
 
 /** A form's parse failure as an action answers it. */
 export function invalidFormState(error: z.ZodError): ActionState {
-  return { message: 'Some fields need attention.', fieldErrors: z.flattenError(error).fieldErrors as ActionState['fieldErrors'] };
+  return {
+    message: 'Some fields need attention.',
+    fieldErrors: z.flattenError(error).fieldErrors as ActionState['fieldErrors'],
+  };
 }
 
 /** The form's fields; a name sent more than once (checkboxes) becomes an array; Next's own fields are left out. */

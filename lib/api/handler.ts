@@ -14,7 +14,11 @@ import { env } from '@/lib/env';
 import { AppError, isAppError } from '@/lib/errors';
 
 type RouteContext<Params> = { params: Promise<Params> };
-type Handler<Params> = (request: NextRequest, actor: Actor, context: RouteContext<Params>) => Promise<Response>;
+type Handler<Params> = (
+  request: NextRequest,
+  actor: Actor,
+  context: RouteContext<Params>,
+) => Promise<Response>;
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
@@ -24,7 +28,10 @@ function checkOrigin(request: NextRequest): void {
   const origin = request.headers.get('origin');
   const allowed = new Set([new URL(env().APP_URL).origin, request.nextUrl.origin]);
   if (!origin || !allowed.has(origin)) {
-    throw new AppError('forbidden', 'This request did not come from a Gatewell page (Origin header missing or foreign).');
+    throw new AppError(
+      'forbidden',
+      'This request did not come from a Gatewell page (Origin header missing or foreign).',
+    );
   }
 }
 
@@ -33,31 +40,48 @@ function checkOrigin(request: NextRequest): void {
  * (API routes do not pass through the proxy). Changing requests leave the cookie alone.
  */
 async function renewSession(request: NextRequest): Promise<void> {
-  const renewed = await renewedSessionCookie(await readSealedSession(request.cookies.get(SESSION_COOKIE)?.value));
+  const renewed = await renewedSessionCookie(
+    await readSealedSession(request.cookies.get(SESSION_COOKIE)?.value),
+  );
   if (renewed) (await cookies()).set(renewed.name, renewed.value, renewed.options);
 }
 
 /** Maps an error to a JSON answer: zod → 422, AppError → its status, a lost database → a logged 503, anything else → a logged 500. */
 export function errorResponse(error: unknown): NextResponse {
   if (error instanceof ZodError) {
-    return NextResponse.json({ error: 'invalid', message: 'The request is not valid.', fields: z.flattenError(error).fieldErrors }, { status: 422 });
+    return NextResponse.json(
+      { error: 'invalid', message: 'The request is not valid.', fields: z.flattenError(error).fieldErrors },
+      { status: 422 },
+    );
   }
   if (isAppError(error)) {
-    return NextResponse.json({ error: error.code, message: error.message, details: error.details ?? undefined }, { status: error.status });
+    return NextResponse.json(
+      { error: error.code, message: error.message, details: error.details ?? undefined },
+      { status: error.status },
+    );
   }
   if (isDatabaseUnavailable(error)) {
     console.error('database unavailable during a route', error);
-    return NextResponse.json({ error: 'unavailable', message: DATABASE_UNAVAILABLE_MESSAGE }, { status: 503 });
+    return NextResponse.json(
+      { error: 'unavailable', message: DATABASE_UNAVAILABLE_MESSAGE },
+      { status: 503 },
+    );
   }
   console.error('unhandled route error', error);
-  return NextResponse.json({ error: 'internal', message: 'Something failed on the server; nothing was changed.' }, { status: 500 });
+  return NextResponse.json(
+    { error: 'internal', message: 'Something failed on the server; nothing was changed.' },
+    { status: 500 },
+  );
 }
 
 /**
  * Wraps a route handler: checks the Origin of changing requests, loads the signed-in actor (401 when
  * there is none), checks roles (403), and maps errors in one place.
  */
-export function withUser<Params = Record<string, never>>(handler: Handler<Params>, options: { roles?: readonly Role[] } = {}) {
+export function withUser<Params = Record<string, never>>(
+  handler: Handler<Params>,
+  options: { roles?: readonly Role[] } = {},
+) {
   return async (request: NextRequest, context: RouteContext<Params>): Promise<Response> => {
     try {
       checkOrigin(request);

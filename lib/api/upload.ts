@@ -12,9 +12,12 @@ export interface UploadedBytes {
 }
 
 /** A posted form (multipart or url-encoded): its text fields and the file under "file", when one was sent. */
-export async function readForm(request: NextRequest): Promise<{ fields: Record<string, string>; file: File | null }> {
+export async function readForm(
+  request: NextRequest,
+): Promise<{ fields: Record<string, string>; file: File | null }> {
   const declared = Number(request.headers.get('content-length') ?? 0);
-  if (declared > MAX_UPLOAD_BYTES + 64 * 1024) throw new AppError('too_large', 'The file is larger than 10 MB; Gatewell reads files up to 10 MB.');
+  if (declared > MAX_UPLOAD_BYTES + 64 * 1024)
+    throw new AppError('too_large', 'The file is larger than 10 MB; Gatewell reads files up to 10 MB.');
   let form: FormData;
   try {
     form = await request.formData();
@@ -22,15 +25,27 @@ export async function readForm(request: NextRequest): Promise<{ fields: Record<s
     throw new AppError('invalid', 'The request could not be read as a form.');
   }
   const file = form.get('file');
-  const fields = Object.fromEntries([...form.entries()].filter((entry): entry is [string, string] => entry[0] !== 'file' && typeof entry[1] === 'string'));
+  const fields = Object.fromEntries(
+    [...form.entries()].filter(
+      (entry): entry is [string, string] => entry[0] !== 'file' && typeof entry[1] === 'string',
+    ),
+  );
   return { fields, file: file instanceof File ? file : null };
 }
 
 /** The sent file, size-checked; refused when missing or empty. */
 export async function uploadedFile(file: File | null): Promise<UploadedBytes> {
-  if (!file || file.size === 0) throw new AppError('invalid', 'Choose a file to upload (xlsx, xls or csv).', { fieldErrors: { file: ['Choose a file.'] } });
-  if (file.size > MAX_UPLOAD_BYTES) throw new AppError('too_large', `${file.name} is larger than 10 MB; Gatewell reads files up to 10 MB.`);
-  return { bytes: new Uint8Array(await file.arrayBuffer()), filename: file.name.slice(0, 255), mediaType: file.type || 'application/octet-stream' };
+  if (!file || file.size === 0)
+    throw new AppError('invalid', 'Choose a file to upload (xlsx, xls or csv).', {
+      fieldErrors: { file: ['Choose a file.'] },
+    });
+  if (file.size > MAX_UPLOAD_BYTES)
+    throw new AppError('too_large', `${file.name} is larger than 10 MB; Gatewell reads files up to 10 MB.`);
+  return {
+    bytes: new Uint8Array(await file.arrayBuffer()),
+    filename: file.name.slice(0, 255),
+    mediaType: file.type || 'application/octet-stream',
+  };
 }
 
 /** Reads a multipart upload: the file under "file" (size-checked) and the other fields through a zod schema. */
@@ -44,8 +59,15 @@ export async function readUpload<Schema extends ZodType>(request: NextRequest, s
  * Reads the fields of a step that names an import draft instead of sending the file: a file sent
  * anyway is refused, as the draft already holds it.
  */
-export async function readDraftFields<Schema extends ZodType>(request: NextRequest, schema: Schema): Promise<z.infer<Schema>> {
+export async function readDraftFields<Schema extends ZodType>(
+  request: NextRequest,
+  schema: Schema,
+): Promise<z.infer<Schema>> {
   const form = await readForm(request);
-  if (form.file) throw new AppError('invalid', 'Send the draftId that inspect answered instead of the file: the file is read once, at inspect.');
+  if (form.file)
+    throw new AppError(
+      'invalid',
+      'Send the draftId that inspect answered instead of the file: the file is read once, at inspect.',
+    );
   return schema.parse(form.fields);
 }

@@ -41,10 +41,13 @@ function filterSql(filter: AuditFilter): { whereSql: string; replacements: Recor
 // SQL for speed: a count over a table that only grows, with the same conditions as the page.
 export async function countAuditEvents(filter: AuditFilter): Promise<number> {
   const { whereSql, replacements } = filterSql(filter);
-  const [counted] = await db().query<{ total: number }>(`select count(*)::int as total from audit_events a ${whereSql}`, {
-    type: QueryTypes.SELECT,
-    replacements,
-  });
+  const [counted] = await db().query<{ total: number }>(
+    `select count(*)::int as total from audit_events a ${whereSql}`,
+    {
+      type: QueryTypes.SELECT,
+      replacements,
+    },
+  );
   return counted?.total ?? 0;
 }
 
@@ -65,10 +68,16 @@ export function selectAuditEvents(filter: AuditFilter, limit: number, offset: nu
 
 // SQL for speed: the distinct record types of the whole trail, read as plain values.
 export async function selectAuditEntityTypes(): Promise<{ entityType: string }[]> {
-  return db().query<{ entityType: string }>('select distinct entity_type as "entityType" from audit_events order by 1', { type: QueryTypes.SELECT });
+  return db().query<{ entityType: string }>(
+    'select distinct entity_type as "entityType" from audit_events order by 1',
+    { type: QueryTypes.SELECT },
+  );
 }
 
 // SQL: each person's label is put together by PostgreSQL, name and address, as plain rows.
 export async function selectPeopleLabels(): Promise<{ id: string; label: string }[]> {
-  return db().query<{ id: string; label: string }>(`select id, name || ' <' || email || '>' as label from users order by name`, { type: QueryTypes.SELECT });
+  return db().query<{ id: string; label: string }>(
+    `select id, name || ' <' || email || '>' as label from users order by name`,
+    { type: QueryTypes.SELECT },
+  );
 }

@@ -3,7 +3,13 @@ import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { AppError } from '@/lib/errors';
 import { AUDIT_PAGE_SIZE, auditFilterSchema, type AuditFilter } from '@/lib/validation/audit';
-import { countAuditEvents, selectAuditEntityTypes, selectAuditEvents, selectPeopleLabels, type AuditRow } from './queries';
+import {
+  countAuditEvents,
+  selectAuditEntityTypes,
+  selectAuditEvents,
+  selectPeopleLabels,
+  type AuditRow,
+} from './queries';
 
 export type { AuditRow } from './queries';
 
@@ -33,18 +39,27 @@ export const AUDIT_EXPORT_LIMIT = 100_000;
  * Every event the filter matches (its page ignored), newest first, for an export: refused with a clear
  * message when more than `limit` match. Admins and approvers only.
  */
-export async function auditEventsForExport(actor: Actor, rawFilter: unknown, limit = AUDIT_EXPORT_LIMIT): Promise<{ filter: AuditFilter; rows: AuditRow[] }> {
+export async function auditEventsForExport(
+  actor: Actor,
+  rawFilter: unknown,
+  limit = AUDIT_EXPORT_LIMIT,
+): Promise<{ filter: AuditFilter; rows: AuditRow[] }> {
   requireCapability(actor, 'readAudit');
   const filter = parseOrRefuse(auditFilterSchema, rawFilter, 'The filter is not valid.');
   const rows = await selectAuditEvents(filter, limit + 1, 0);
   if (rows.length > limit) {
-    throw new AppError('invalid', `More than ${limit.toLocaleString('en-GB')} events match; an export holds at most that many. Narrow the time range or the filter.`);
+    throw new AppError(
+      'invalid',
+      `More than ${limit.toLocaleString('en-GB')} events match; an export holds at most that many. Narrow the time range or the filter.`,
+    );
   }
   return { filter, rows };
 }
 
 /** The choices of the audit filter: record types that occur, and people. Admins and approvers only. */
-export async function auditFilterChoices(actor: Actor): Promise<{ entityTypes: string[]; people: { id: string; label: string }[] }> {
+export async function auditFilterChoices(
+  actor: Actor,
+): Promise<{ entityTypes: string[]; people: { id: string; label: string }[] }> {
   requireCapability(actor, 'readAudit');
   const [types, people] = await Promise.all([selectAuditEntityTypes(), selectPeopleLabels()]);
   return { entityTypes: types.map((row) => row.entityType), people };

@@ -19,7 +19,8 @@ function encode(value: unknown, path: string): string | undefined {
     if (!Number.isFinite(value)) throw new TypeError(`Signed content holds a non-finite number at ${path}.`);
     return JSON.stringify(value);
   }
-  if (typeof value === 'bigint') throw new TypeError(`Signed content holds a bigint at ${path}; convert it to a string.`);
+  if (typeof value === 'bigint')
+    throw new TypeError(`Signed content holds a bigint at ${path}; convert it to a string.`);
   if (typeof value === 'string' || typeof value === 'boolean') return JSON.stringify(value);
   const withJson = value as { toJSON?: () => unknown };
   if (typeof withJson.toJSON === 'function') return encode(withJson.toJSON(), path);

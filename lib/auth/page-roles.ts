@@ -19,6 +19,8 @@ export const PAGE_CAPABILITIES: { prefix: string; capability: Capability }[] = [
 
 /** The roles a page needs (any one of them), or null when every signed-in person may open it. */
 export function rolesForPath(pathname: string): readonly Role[] | null {
-  const rule = PAGE_CAPABILITIES.find(({ prefix }) => pathname === prefix || pathname.startsWith(`${prefix}/`));
+  const rule = PAGE_CAPABILITIES.find(
+    ({ prefix }) => pathname === prefix || pathname.startsWith(`${prefix}/`),
+  );
   return rule ? rolesFor(rule.capability) : null;
 }

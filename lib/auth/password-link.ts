@@ -7,7 +7,11 @@ import { env } from '@/lib/env';
 import { AppError } from '@/lib/errors';
 import { queueMail } from '@/lib/mail/outbox';
 import { parseOrRefuse } from '@/lib/validation/parse';
-import { passwordLinkRequestSchema, setPasswordByLinkSchema, type SetPasswordByLinkInput } from '@/lib/validation/password-link';
+import {
+  passwordLinkRequestSchema,
+  setPasswordByLinkSchema,
+  type SetPasswordByLinkInput,
+} from '@/lib/validation/password-link';
 import { PasswordLink, User } from '@/models';
 import { hashPassword } from './passwords';
 import { countRecentLinkRequests, expireUnusedLinks, insertLinkWithToken } from './queries';
@@ -38,14 +42,26 @@ export type LinkRequestResult = { ok: true } | { ok: false; reason: 'throttled' 
  * addresses get the same answer and no mail, so the answer tells nobody whether an account exists.
  * Every request is kept and audited. Only a client address that asks too often is told so.
  */
-export async function requestPasswordLink(raw: { email: unknown }, address: string): Promise<LinkRequestResult> {
+export async function requestPasswordLink(
+  raw: { email: unknown },
+  address: string,
+): Promise<LinkRequestResult> {
   const { email } = parseOrRefuse(passwordLinkRequestSchema, raw);
   const sequelize = db();
   const since = new Date(Date.now() - LINK_WINDOW_MS);
   const counts = await countRecentLinkRequests(address, email, since);
   if (counts.byAddress >= MAX_REQUESTS_PER_ADDRESS) {
     await sequelize.transaction((transaction) =>
-      recordAudit({ actorId: null, action: 'password_link_throttled', entityType: 'session', after: { email }, address }, transaction),
+      recordAudit(
+        {
+          actorId: null,
+          action: 'password_link_throttled',
+          entityType: 'session',
+          after: { email },
+          address,
+        },
+        transaction,
+      ),
     );
     return { ok: false, reason: 'throttled' };
   }
@@ -53,14 +69,29 @@ export async function requestPasswordLink(raw: { email: unknown }, address: stri
   await sequelize.transaction(async (transaction) => {
     const user = await User.findOne({ where: { email }, transaction, lock: transaction.LOCK.UPDATE });
     const sends = Boolean(user && !user.disabledAt && counts.linksToEmail < MAX_LINKS_PER_EMAIL);
-    const linkId = sends && user
-      ? await issuePasswordLink(user, { purpose: 'lost-password', address }, transaction)
-      : await recordRequestWithoutLink(email, address, transaction);
+    const linkId =
+      sends && user
+        ? await issuePasswordLink(user, { purpose: 'lost-password', address }, transaction)
+        : await recordRequestWithoutLink(email, address, transaction);
     // The record says what happened (an admin reading the trail sees whether a link went out), never the token.
     await recordAudit(
       {
-        actorId: null, action: 'password_link_requested', entityType: 'user', entityId: sends && user ? user.id : null,
-        after: { email, linkId, sent: sends, why: sends ? null : !user ? 'no such account' : user.disabledAt ? 'account disabled' : 'too many links to this address' },
+        actorId: null,
+        action: 'password_link_requested',
+        entityType: 'user',
+        entityId: sends && user ? user.id : null,
+        after: {
+          email,
+          linkId,
+          sent: sends,
+          why: sends
+            ? null
+            : !user
+              ? 'no such account'
+              : user.disabledAt
+                ? 'account disabled'
+                : 'too many links to this address',
+        },
         address,
       },
       transaction,
@@ -69,7 +100,11 @@ export async function requestPasswordLink(raw: { email: unknown }, address: stri
   return { ok: true };
 }
 
-async function recordRequestWithoutLink(email: string, address: string, transaction: Transaction): Promise<string> {
+async function recordRequestWithoutLink(
+  email: string,
+  address: string,
+  transaction: Transaction,
+): Promise<string> {
   const id = randomUUID();
   await PasswordLink.create({ id, email, address }, { transaction });
   return id;
@@ -85,22 +120,43 @@ export type LinkPurpose =
  * earlier unused links stop working. The link is never older than the account's password (a link made
  * with a new account, whose password time the app's clock set, must not look older than it).
  */
-export async function issuePasswordLink(user: User, why: LinkPurpose, transaction: Transaction): Promise<string> {
+export async function issuePasswordLink(
+  user: User,
+  why: LinkPurpose,
+  transaction: Transaction,
+): Promise<string> {
   const token = randomBytes(32).toString('base64url');
   const id = randomUUID();
   const lifetimeMs = why.purpose === 'invitation' ? INVITATION_LIFETIME_MS : LINK_LIFETIME_MS;
   // A newer link replaces the ones before it.
   await expireUnusedLinks(user.id, transaction);
   const { requestedAt } = await insertLinkWithToken(
-    { id, email: user.email, userId: user.id, tokenSha256: sha256(token), lifetimeMs, address: why.address, passwordChangedAt: user.passwordChangedAt ?? new Date(0) },
+    {
+      id,
+      email: user.email,
+      userId: user.id,
+      tokenSha256: sha256(token),
+      lifetimeMs,
+      address: why.address,
+      passwordChangedAt: user.passwordChangedAt ?? new Date(0),
+    },
     transaction,
   );
   await queueLinkMail(user, token, why, requestedAt, lifetimeMs, transaction);
   return id;
 }
 
-function linkMailText(user: User, link: string, why: LinkPurpose, requestedAt: Date, lifetimeMs: number): { subject: string; lines: string[] } {
-  const within = lifetimeMs >= 24 * 60 * 60 * 1000 ? `${lifetimeMs / (24 * 60 * 60 * 1000)} days` : `${lifetimeMs / 60_000} minutes`;
+function linkMailText(
+  user: User,
+  link: string,
+  why: LinkPurpose,
+  requestedAt: Date,
+  lifetimeMs: number,
+): { subject: string; lines: string[] } {
+  const within =
+    lifetimeMs >= 24 * 60 * 60 * 1000
+      ? `${lifetimeMs / (24 * 60 * 60 * 1000)} days`
+      : `${lifetimeMs / 60_000} minutes`;
   if (why.purpose === 'invitation') {
     return {
       subject: 'Gatewell: your account, and a link to choose your password',
@@ -127,17 +183,30 @@ function linkMailText(user: User, link: string, why: LinkPurpose, requestedAt: D
   };
 }
 
-async function queueLinkMail(user: User, token: string, why: LinkPurpose, requestedAt: Date, lifetimeMs: number, transaction: Transaction): Promise<void> {
+async function queueLinkMail(
+  user: User,
+  token: string,
+  why: LinkPurpose,
+  requestedAt: Date,
+  lifetimeMs: number,
+  transaction: Transaction,
+): Promise<void> {
   const link = `${env().APP_URL.replace(/\/$/, '')}${passwordLinkPath(token)}`;
   const { subject, lines } = linkMailText(user, link, why, requestedAt, lifetimeMs);
   await queueMail(
-    [{
-      kind: why.purpose === 'invitation' ? 'account_invitation' : 'password_link', plateId: null, signoffEventId: null,
-      recipientId: user.id, toAddress: user.email, subject,
-      // A lost-password link is worth little after its retries; an invitation keeps the usual attempts.
-      ...(why.purpose === 'lost-password' ? { maxAttempts: LINK_MAIL_ATTEMPTS } : {}),
-      bodyText: [`Hello ${user.name},`, '', ...lines, '', 'Gatewell'].join('\n'),
-    }],
+    [
+      {
+        kind: why.purpose === 'invitation' ? 'account_invitation' : 'password_link',
+        plateId: null,
+        signoffEventId: null,
+        recipientId: user.id,
+        toAddress: user.email,
+        subject,
+        // A lost-password link is worth little after its retries; an invitation keeps the usual attempts.
+        ...(why.purpose === 'lost-password' ? { maxAttempts: LINK_MAIL_ATTEMPTS } : {}),
+        bodyText: [`Hello ${user.name},`, '', ...lines, '', 'Gatewell'].join('\n'),
+      },
+    ],
     transaction,
   );
 }
@@ -153,19 +222,26 @@ interface LinkRow {
 
 export type LinkState = { usable: true; email: string } | { usable: false; why: string };
 
-const UNKNOWN = 'This link is not one Gatewell sent, or it was cut short when it was copied. Ask for a new one.';
+const UNKNOWN =
+  'This link is not one Gatewell sent, or it was cut short when it was copied. Ask for a new one.';
 
 /** Why a link does not work, or null when it does (the account active and its password unchanged since the request). */
 function linkProblem(link: LinkRow | undefined, user: User | null, now: Date): string | null {
   if (!link || !user) return UNKNOWN;
   if (link.usedAt) return 'This link has been used already. Ask for a new one if you need it.';
-  if (link.expiresAt <= now) return 'This link has run out (a link works for a set time, and a newer link replaces older ones). Ask for a new one.';
+  if (link.expiresAt <= now)
+    return 'This link has run out (a link works for a set time, and a newer link replaces older ones). Ask for a new one.';
   if (user.disabledAt) return 'This account is disabled; an administrator can enable it again.';
-  if (user.passwordChangedAt && user.passwordChangedAt > link.requestedAt) return 'The password of this account has changed since this link was sent. Ask for a new one if you need it.';
+  if (user.passwordChangedAt && user.passwordChangedAt > link.requestedAt)
+    return 'The password of this account has changed since this link was sent. Ask for a new one if you need it.';
   return null;
 }
 
-async function findLink(token: string, transaction?: Transaction, lock = false): Promise<LinkRow | undefined> {
+async function findLink(
+  token: string,
+  transaction?: Transaction,
+  lock = false,
+): Promise<LinkRow | undefined> {
   db();
   const row = await PasswordLink.findOne({
     attributes: ['id', 'userId', 'email', 'expiresAt', 'usedAt', 'requestedAt'],
@@ -190,22 +266,43 @@ export async function passwordLinkState(token: string): Promise<LinkState> {
  * not changed since. Every session of the account ends (its session version moves on), the link is spent,
  * and the change is audited; the person then signs in with the new password.
  */
-export async function setPasswordByLink(raw: SetPasswordByLinkInput, address: string): Promise<{ email: string }> {
+export async function setPasswordByLink(
+  raw: SetPasswordByLinkInput,
+  address: string,
+): Promise<{ email: string }> {
   const input = parseOrRefuse(setPasswordByLinkSchema, raw);
   const passwordHash = await hashPassword(input.newPassword);
   return db().transaction(async (transaction) => {
     const link = await findLink(input.token, transaction, true);
-    const user = link ? await User.findByPk(link.userId, { transaction, lock: transaction.LOCK.UPDATE }) : null;
+    const user = link
+      ? await User.findByPk(link.userId, { transaction, lock: transaction.LOCK.UPDATE })
+      : null;
     const now = new Date();
     const problem = linkProblem(link, user, now);
     if (problem || !link || !user) throw new AppError('conflict', problem ?? UNKNOWN);
     await PasswordLink.update({ usedAt: now }, { where: { id: link.id }, transaction });
-    const before = { passwordChangedAt: user.passwordChangedAt?.toISOString() ?? null, sessionVersion: user.sessionVersion };
-    await user.update({ passwordHash, passwordChangedAt: now, passwordChangeRequired: false, sessionVersion: user.sessionVersion + 1 }, { transaction });
+    const before = {
+      passwordChangedAt: user.passwordChangedAt?.toISOString() ?? null,
+      sessionVersion: user.sessionVersion,
+    };
+    await user.update(
+      {
+        passwordHash,
+        passwordChangedAt: now,
+        passwordChangeRequired: false,
+        sessionVersion: user.sessionVersion + 1,
+      },
+      { transaction },
+    );
     await recordAudit(
       {
-        actorId: user.id, action: 'set_password_by_link', entityType: 'user', entityId: user.id,
-        before, after: { passwordChangedAt: now.toISOString(), sessionVersion: user.sessionVersion, linkId: link.id }, address,
+        actorId: user.id,
+        action: 'set_password_by_link',
+        entityType: 'user',
+        entityId: user.id,
+        before,
+        after: { passwordChangedAt: now.toISOString(), sessionVersion: user.sessionVersion, linkId: link.id },
+        address,
       },
       transaction,
     );

@@ -26,7 +26,11 @@ export async function selectEnabledActor(userId: string): Promise<ActorRow | und
 }
 
 // SQL for speed: both throttling counts of a lost-password request in one round trip.
-export async function countRecentLinkRequests(address: string, email: string, since: Date): Promise<{ byAddress: number; linksToEmail: number }> {
+export async function countRecentLinkRequests(
+  address: string,
+  email: string,
+  since: Date,
+): Promise<{ byAddress: number; linksToEmail: number }> {
   const [counts] = await db().query<{ byAddress: number; linksToEmail: number }>(
     `select (select count(*) from password_links where address = :address and requested_at >= :since)::int as "byAddress",
             (select count(*) from password_links where email = :email and token_sha256 is not null and requested_at >= :since)::int as "linksToEmail"`,
@@ -55,7 +59,10 @@ export interface NewLink {
 }
 
 // SQL: the link's time comes from the database's clock, never before the account's password time; the ORM cannot say this insert.
-export async function insertLinkWithToken(link: NewLink, transaction: Transaction): Promise<{ requestedAt: Date }> {
+export async function insertLinkWithToken(
+  link: NewLink,
+  transaction: Transaction,
+): Promise<{ requestedAt: Date }> {
   const [row] = await db().query<{ requestedAt: Date }>(
     `with made as (select greatest(clock_timestamp(), :passwordChangedAt::timestamptz) as at)
      insert into password_links (id, email, user_id, token_sha256, requested_at, expires_at, address)

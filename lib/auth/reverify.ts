@@ -21,10 +21,15 @@ export interface ReverifyContext {
  * password counts as a failed sign-in attempt for throttling and is audited in a transaction of its own,
  * so that the record survives the caller's rollback.
  */
-export async function reverifyPassword(actor: Actor, password: string, context: ReverifyContext): Promise<void> {
+export async function reverifyPassword(
+  actor: Actor,
+  password: string,
+  context: ReverifyContext,
+): Promise<void> {
   const sequelize = db();
   const user = await User.findByPk(actor.id, { attributes: ['id', 'email', 'passwordHash', 'disabledAt'] });
-  if (!user || user.disabledAt) throw new AppError('unauthorized', 'Your account is no longer active. Sign in again.');
+  if (!user || user.disabledAt)
+    throw new AppError('unauthorized', 'Your account is no longer active. Sign in again.');
 
   if (await isThrottled(user.email, actor.address)) {
     const minutes = Math.round(THROTTLE_WINDOW_MS / 60_000);
@@ -34,7 +39,10 @@ export async function reverifyPassword(actor: Actor, password: string, context: 
   if (await verifyPassword(user.passwordHash, password)) return;
 
   await sequelize.transaction(async (transaction) => {
-    await LoginAttempt.create({ email: user.email, address: actor.address, succeeded: false }, { transaction });
+    await LoginAttempt.create(
+      { email: user.email, address: actor.address, succeeded: false },
+      { transaction },
+    );
     await recordAudit(
       {
         actorId: actor.id,

@@ -16,9 +16,19 @@ export interface RenewedCookie {
  * The session cookie with its idle clock moved to now, for a fresh session whose clock was last moved
  * a minute or more ago; null otherwise (nothing to renew, or too soon).
  */
-export async function renewedSessionCookie(session: SessionData, now = Date.now()): Promise<RenewedCookie | null> {
+export async function renewedSessionCookie(
+  session: SessionData,
+  now = Date.now(),
+): Promise<RenewedCookie | null> {
   if (!sessionIsFresh(session, now) || now - (session.lastSeenAt ?? 0) < RENEW_AFTER_MS) return null;
   const options = sessionOptions();
-  const value = await sealData({ ...session, lastSeenAt: now }, { password: options.password, ttl: options.ttl ?? 0 });
-  return { name: options.cookieName, value, options: { ...options.cookieOptions, maxAge: (options.ttl ?? 0) - 60 } };
+  const value = await sealData(
+    { ...session, lastSeenAt: now },
+    { password: options.password, ttl: options.ttl ?? 0 },
+  );
+  return {
+    name: options.cookieName,
+    value,
+    options: { ...options.cookieOptions, maxAge: (options.ttl ?? 0) - 60 },
+  };
 }

@@ -65,5 +65,12 @@ export async function signIn(rawEmail: string, password: string, address: string
     );
   });
 
-  return ok && user ? { ok: true, userId: user.id, sessionVersion: user.sessionVersion, passwordChangeRequired: user.passwordChangeRequired } : { ok: false, reason: 'invalid' };
+  return ok && user
+    ? {
+        ok: true,
+        userId: user.id,
+        sessionVersion: user.sessionVersion,
+        passwordChangeRequired: user.passwordChangeRequired,
+      }
+    : { ok: false, reason: 'invalid' };
 }

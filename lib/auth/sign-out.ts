@@ -11,6 +11,15 @@ import type { Actor } from './roles';
 export async function recordSignOut(actor: Actor): Promise<void> {
   await db().transaction(async (transaction) => {
     await User.increment('sessionVersion', { where: { id: actor.id }, transaction });
-    await recordAudit({ actorId: actor.id, action: 'sign_out', entityType: 'session', entityId: actor.id, address: actor.address }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'sign_out',
+        entityType: 'session',
+        entityId: actor.id,
+        address: actor.address,
+      },
+      transaction,
+    );
   });
 }

@@ -26,7 +26,10 @@ function hashOf(content: unknown): string {
   try {
     return contentSha256(content);
   } catch (error) {
-    throw new AppError('invalid', error instanceof Error ? error.message : 'The signed content is not valid JSON.');
+    throw new AppError(
+      'invalid',
+      error instanceof Error ? error.message : 'The signed content is not valid JSON.',
+    );
   }
 }
 
@@ -36,7 +39,11 @@ function hashOf(content: unknown): string {
  * the signature and its audit event in the caller's transaction. Which roles may sign what is the
  * caller's rule; this primitive only proves who signed which content, meaning what, and when.
  */
-export async function signRecord(actor: Actor, raw: SignatureInput, transaction: Transaction): Promise<SignatureRecord> {
+export async function signRecord(
+  actor: Actor,
+  raw: SignatureInput,
+  transaction: Transaction,
+): Promise<SignatureRecord> {
   db();
   const input = parseOrRefuse(signatureSchema, raw, 'The signature is not complete.');
   const sha256 = hashOf(input.content);
@@ -48,7 +55,14 @@ export async function signRecord(actor: Actor, raw: SignatureInput, transaction:
   });
 
   const signature = await Signature.create(
-    { signerId: actor.id, meaning: input.meaning, comment: input.comment, entityType: input.entityType, entityId: input.entityId, contentSha256: sha256 },
+    {
+      signerId: actor.id,
+      meaning: input.meaning,
+      comment: input.comment,
+      entityType: input.entityType,
+      entityId: input.entityId,
+      contentSha256: sha256,
+    },
     { transaction },
   );
   const record: SignatureRecord = {
@@ -68,7 +82,12 @@ export async function signRecord(actor: Actor, raw: SignatureInput, transaction:
       action: 'sign',
       entityType: input.entityType,
       entityId: input.entityId,
-      after: { signatureId: record.id, meaning: record.meaning, comment: record.comment, contentSha256: record.contentSha256 },
+      after: {
+        signatureId: record.id,
+        meaning: record.meaning,
+        comment: record.comment,
+        contentSha256: record.contentSha256,
+      },
       address: actor.address,
     },
     transaction,

@@ -11,7 +11,14 @@ const HEADERS: Record<keyof BulkCompoundRow, string[]> = {
   molecularWeight: ['molecularweight', 'mw', 'molweight', 'mwgmol'],
   lot: ['lot', 'batch', 'batchlot', 'lotnumber', 'batchid'],
   purity_percent: ['purity', 'puritypercent', 'puritypct'],
-  stockConcentration_mM: ['stock', 'stockmm', 'stockconcentration', 'stockconcentrationmm', 'stockconc', 'stockconcmm'],
+  stockConcentration_mM: [
+    'stock',
+    'stockmm',
+    'stockconcentration',
+    'stockconcentrationmm',
+    'stockconc',
+    'stockconcmm',
+  ],
   solvent: ['solvent'],
 };
 
@@ -29,7 +36,12 @@ export function readRegistrationSheet(sheet: SheetData): { rows: BulkRowResult[]
     Object.entries(HEADERS).map(([field, words]) => [field, headers.findIndex((h) => words.includes(h))]),
   ) as Record<keyof BulkCompoundRow, number>;
   if (columns.identifier < 0) {
-    return { rows: [], problems: [`Sheet "${sheet.name}", row ${headerRow}: no column names the compound identifier (a header such as "Identifier").`] };
+    return {
+      rows: [],
+      problems: [
+        `Sheet "${sheet.name}", row ${headerRow}: no column names the compound identifier (a header such as "Identifier").`,
+      ],
+    };
   }
   const rows: BulkRowResult[] = [];
   const seen = new Map<string, number>();
@@ -37,7 +49,9 @@ export function readRegistrationSheet(sheet: SheetData): { rows: BulkRowResult[]
     const row = headerRow + index + 1;
     if (cells.every((c) => c === null || String(c).trim() === '')) return;
     const raw = Object.fromEntries(
-      Object.entries(columns).filter(([, i]) => i >= 0).map(([field, i]) => [field, cells[i] === null || cells[i] === undefined ? '' : String(cells[i])]),
+      Object.entries(columns)
+        .filter(([, i]) => i >= 0)
+        .map(([field, i]) => [field, cells[i] === null || cells[i] === undefined ? '' : String(cells[i])]),
     );
     const parsed = bulkCompoundRowSchema.safeParse(raw);
     const where = (field: string) => {
@@ -45,17 +59,32 @@ export function readRegistrationSheet(sheet: SheetData): { rows: BulkRowResult[]
       return `Sheet "${sheet.name}", row ${row}${i >= 0 ? `, column ${columnLetter(i)}` : ''}`;
     };
     if (!parsed.success) {
-      rows.push({ row, input: null, errors: parsed.error.issues.map((issue) => `${where(String(issue.path[0]))}: ${issue.message}`) });
+      rows.push({
+        row,
+        input: null,
+        errors: parsed.error.issues.map((issue) => `${where(String(issue.path[0]))}: ${issue.message}`),
+      });
       return;
     }
     const key = parsed.data.identifier.toUpperCase();
     const first = seen.get(key);
     if (first !== undefined) {
-      rows.push({ row, input: null, errors: [`${where('identifier')}: ${parsed.data.identifier} is already on row ${first} of this sheet.`] });
+      rows.push({
+        row,
+        input: null,
+        errors: [
+          `${where('identifier')}: ${parsed.data.identifier} is already on row ${first} of this sheet.`,
+        ],
+      });
       return;
     }
     seen.set(key, row);
     rows.push({ row, input: parsed.data, errors: [] });
   });
-  return { rows, problems: rows.length ? [] : [`Sheet "${sheet.name}" has no compound rows below its header (row ${headerRow}).`] };
+  return {
+    rows,
+    problems: rows.length
+      ? []
+      : [`Sheet "${sheet.name}" has no compound rows below its header (row ${headerRow}).`],
+  };
 }

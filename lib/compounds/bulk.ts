@@ -18,18 +18,30 @@ export interface BulkRegistration {
  * Registers every compound of a spreadsheet (first sheet), each with its first batch when a lot is
  * given. All rows are checked first; with any error nothing is registered (commit false previews only).
  */
-export async function registerCompoundsFromSheet(actor: Actor, file: { bytes: Uint8Array; filename: string }, commit: boolean): Promise<BulkRegistration> {
+export async function registerCompoundsFromSheet(
+  actor: Actor,
+  file: { bytes: Uint8Array; filename: string },
+  commit: boolean,
+): Promise<BulkRegistration> {
   requireCapability(actor, 'registerCompounds');
   const parsed = await parseSpreadsheet(file.bytes, file.filename);
-  if (!parsed.ok) throw new AppError(parsed.error.code === 'too_large' ? 'too_large' : 'invalid', parsed.error.message);
+  if (!parsed.ok)
+    throw new AppError(parsed.error.code === 'too_large' ? 'too_large' : 'invalid', parsed.error.message);
   const sheet = parsed.sheets[0];
   if (!sheet) throw new AppError('invalid', `${file.filename} holds no sheets.`);
   const { rows, problems } = readRegistrationSheet(sheet);
-  const known = await selectRegisteredIdentifiers(rows.filter((r) => r.input).map((r) => r.input!.identifier.toUpperCase()).concat(''));
+  const known = await selectRegisteredIdentifiers(
+    rows
+      .filter((r) => r.input)
+      .map((r) => r.input!.identifier.toUpperCase())
+      .concat(''),
+  );
   const registered = new Set(known.map((k) => k.identifier.toUpperCase()));
   for (const row of rows) {
     if (row.input && registered.has(row.input.identifier.toUpperCase())) {
-      row.errors.push(`Sheet "${sheet.name}", row ${row.row}: ${row.input.identifier} is already registered.`);
+      row.errors.push(
+        `Sheet "${sheet.name}", row ${row.row}: ${row.input.identifier} is already registered.`,
+      );
       row.input = null;
     }
   }
@@ -39,7 +51,13 @@ export async function registerCompoundsFromSheet(actor: Actor, file: { bytes: Ui
     for (const row of rows) {
       const { lot, purity_percent, stockConcentration_mM, solvent, ...compound } = row.input!;
       const created = await insertCompound(actor, compound, transaction);
-      if (lot) await insertBatch(actor, created.id, { lot, purity_percent, stockConcentration_mM, solvent: solvent || 'DMSO' }, transaction);
+      if (lot)
+        await insertBatch(
+          actor,
+          created.id,
+          { lot, purity_percent, stockConcentration_mM, solvent: solvent || 'DMSO' },
+          transaction,
+        );
     }
   });
   return { rows, problems, ok, registered: rows.length };

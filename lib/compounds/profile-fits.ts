@@ -19,7 +19,9 @@ const USABLE: FitStatus[] = ['fitted', 'above_range', 'inactive'];
  */
 export function choosePotencies(fits: ProfileFit[]): Map<string, ProfileFit> {
   const chosen = new Map<string, ProfileFit>();
-  const ordered = [...fits].sort((a, b) => Number(b.approved) - Number(a.approved) || b.importedAt.localeCompare(a.importedAt));
+  const ordered = [...fits].sort(
+    (a, b) => Number(b.approved) - Number(a.approved) || b.importedAt.localeCompare(a.importedAt),
+  );
   for (const fit of ordered) {
     if (!chosen.has(fit.targetId) && USABLE.includes(fit.status)) chosen.set(fit.targetId, fit);
   }

@@ -27,19 +27,31 @@ export interface CompoundProfile {
 /** A compound's results across plates and screens: every fit, the potency per target and selectivity. */
 export async function getCompoundProfile(actor: Actor, compoundId: string): Promise<CompoundProfile> {
   db();
-  const compound: CompoundProfile['compound'] | null = await Compound.findByPk(compoundId, { attributes: ['id', 'identifier', 'name'], raw: true });
+  const compound: CompoundProfile['compound'] | null = await Compound.findByPk(compoundId, {
+    attributes: ['id', 'identifier', 'name'],
+    raw: true,
+  });
   if (!compound) throw new AppError('not_found', 'No such compound.');
   const fits = await listCompoundFits(actor, compoundId);
   const potencies = [...choosePotencies(fits).values()].sort((a, b) => a.target.localeCompare(b.target));
   const screenIds = [...new Set(fits.map((f) => f.screenId))];
   const screens = screenIds.length
-    ? await Screen.findAll({ attributes: ['id', 'name', 'neuronPreset', 'exposures_uM'], where: { id: screenIds }, order: [['name', 'ASC']], raw: true })
+    ? await Screen.findAll({
+        attributes: ['id', 'name', 'neuronPreset', 'exposures_uM'],
+        where: { id: screenIds },
+        order: [['name', 'ASC']],
+        raw: true,
+      })
     : [];
   return {
     compound,
     fits,
     potencies,
     selectivity: selectivityRatios(potencies),
-    screens: screens.map((s) => ({ ...s, exposures_uM: [...s.exposures_uM].sort((a, b) => a - b), hasApproved: fits.some((f) => f.screenId === s.id && f.approved) })),
+    screens: screens.map((s) => ({
+      ...s,
+      exposures_uM: [...s.exposures_uM].sort((a, b) => a - b),
+      hasApproved: fits.some((f) => f.screenId === s.id && f.approved),
+    })),
   };
 }

@@ -69,7 +69,11 @@ export async function selectCompoundSummaries(): Promise<CompoundSummary[]> {
 
 // SQL: compounds matched case-blind on upper(identifier), which the ORM's where cannot say plainly.
 export async function selectRegisteredIdentifiers(upperIds: string[]): Promise<{ identifier: string }[]> {
-  return db().query<{ identifier: string }>('select identifier from compounds where upper(identifier) in (:ids)', {
-    type: QueryTypes.SELECT, replacements: { ids: upperIds },
-  });
+  return db().query<{ identifier: string }>(
+    'select identifier from compounds where upper(identifier) in (:ids)',
+    {
+      type: QueryTypes.SELECT,
+      replacements: { ids: upperIds },
+    },
+  );
 }

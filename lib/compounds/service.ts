@@ -25,24 +25,48 @@ export interface BatchRecord {
 }
 
 const toCompound = (c: Compound): CompoundRecord => ({
-  id: c.id, identifier: c.identifier, name: c.name, smiles: c.smiles, molecularWeight: c.molecularWeight,
+  id: c.id,
+  identifier: c.identifier,
+  name: c.name,
+  smiles: c.smiles,
+  molecularWeight: c.molecularWeight,
 });
 const toBatch = (b: Batch): BatchRecord => ({
-  id: b.id, compoundId: b.compoundId, lot: b.lot, purity_percent: b.purity_percent, stockConcentration_mM: b.stockConcentration_mM, solvent: b.solvent,
+  id: b.id,
+  compoundId: b.compoundId,
+  lot: b.lot,
+  purity_percent: b.purity_percent,
+  stockConcentration_mM: b.stockConcentration_mM,
+  solvent: b.solvent,
 });
 
 function duplicate(error: unknown, message: string, field: string): never {
-  if (error instanceof UniqueConstraintError) throw new AppError('conflict', message, { fieldErrors: { [field]: [message] } });
+  if (error instanceof UniqueConstraintError)
+    throw new AppError('conflict', message, { fieldErrors: { [field]: [message] } });
   throw error;
 }
 
 /** Registers a compound inside the caller's transaction (shared by single and bulk registration). */
-export async function insertCompound(actor: Actor, input: CompoundInput, transaction: Transaction): Promise<CompoundRecord> {
+export async function insertCompound(
+  actor: Actor,
+  input: CompoundInput,
+  transaction: Transaction,
+): Promise<CompoundRecord> {
   const compound = await Compound.create({ ...input, createdBy: actor.id }, { transaction }).catch((error) =>
     duplicate(error, `A compound with identifier ${input.identifier} is already registered.`, 'identifier'),
   );
   const record = toCompound(compound);
-  await recordAudit({ actorId: actor.id, action: 'create', entityType: 'compound', entityId: record.id, after: record, address: actor.address }, transaction);
+  await recordAudit(
+    {
+      actorId: actor.id,
+      action: 'create',
+      entityType: 'compound',
+      entityId: record.id,
+      after: record,
+      address: actor.address,
+    },
+    transaction,
+  );
   return record;
 }
 
@@ -53,28 +77,64 @@ export async function createCompound(actor: Actor, input: CompoundInput): Promis
 }
 
 /** Edits a compound's identity fields; the audit event keeps before and after. */
-export async function updateCompound(actor: Actor, compoundId: string, input: CompoundInput): Promise<CompoundRecord> {
+export async function updateCompound(
+  actor: Actor,
+  compoundId: string,
+  input: CompoundInput,
+): Promise<CompoundRecord> {
   requireCapability(actor, 'registerCompounds');
   return db().transaction(async (transaction) => {
     const compound = await Compound.findByPk(compoundId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!compound) throw new AppError('not_found', 'No such compound.');
     const before = toCompound(compound);
-    await compound.update(input, { transaction }).catch((error) =>
-      duplicate(error, `A compound with identifier ${input.identifier} is already registered.`, 'identifier'),
-    );
+    await compound
+      .update(input, { transaction })
+      .catch((error) =>
+        duplicate(
+          error,
+          `A compound with identifier ${input.identifier} is already registered.`,
+          'identifier',
+        ),
+      );
     const after = toCompound(compound);
-    await recordAudit({ actorId: actor.id, action: 'update', entityType: 'compound', entityId: compoundId, before, after, address: actor.address }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'update',
+        entityType: 'compound',
+        entityId: compoundId,
+        before,
+        after,
+        address: actor.address,
+      },
+      transaction,
+    );
     return after;
   });
 }
 
 /** Adds a batch inside the caller's transaction. */
-export async function insertBatch(actor: Actor, compoundId: string, input: BatchInput, transaction: Transaction): Promise<BatchRecord> {
-  const batch = await Batch.create({ ...input, compoundId, createdBy: actor.id }, { transaction }).catch((error) =>
-    duplicate(error, `Batch ${input.lot} is already registered for this compound.`, 'lot'),
+export async function insertBatch(
+  actor: Actor,
+  compoundId: string,
+  input: BatchInput,
+  transaction: Transaction,
+): Promise<BatchRecord> {
+  const batch = await Batch.create({ ...input, compoundId, createdBy: actor.id }, { transaction }).catch(
+    (error) => duplicate(error, `Batch ${input.lot} is already registered for this compound.`, 'lot'),
   );
   const record = toBatch(batch);
-  await recordAudit({ actorId: actor.id, action: 'create', entityType: 'batch', entityId: record.id, after: record, address: actor.address }, transaction);
+  await recordAudit(
+    {
+      actorId: actor.id,
+      action: 'create',
+      entityType: 'batch',
+      entityId: record.id,
+      after: record,
+      address: actor.address,
+    },
+    transaction,
+  );
   return record;
 }
 
@@ -89,10 +149,16 @@ export async function addBatch(actor: Actor, compoundId: string, input: BatchInp
 }
 
 /** One compound with its batches, or not_found. */
-export async function getCompound(actor: Actor, compoundId: string): Promise<CompoundRecord & { batches: BatchRecord[] }> {
+export async function getCompound(
+  actor: Actor,
+  compoundId: string,
+): Promise<CompoundRecord & { batches: BatchRecord[] }> {
   void actor; // every signed-in role may read the registry
   db();
-  const compound = await Compound.findByPk(compoundId, { include: [{ model: Batch, as: 'batches' }], order: [[{ model: Batch, as: 'batches' }, 'lot', 'ASC']] });
+  const compound = await Compound.findByPk(compoundId, {
+    include: [{ model: Batch, as: 'batches' }],
+    order: [[{ model: Batch, as: 'batches' }, 'lot', 'ASC']],
+  });
   if (!compound) throw new AppError('not_found', 'No such compound.');
   return { ...toCompound(compound), batches: ((compound.get('batches') as Batch[]) ?? []).map(toBatch) };
 }

@@ -98,7 +98,10 @@ export async function runForecast(input: unknown): Promise<ForecastResult> {
     t ? run<VoltageTrace>(t.control) : Promise.resolve(null),
     t?.condition ? run<VoltageTrace>(t.condition) : Promise.resolve(null),
   ]);
-  const traces = t && controlTrace ? { drive_uA_cm2: t.drive_uA_cm2, control: controlTrace, condition: conditionTrace } : null;
+  const traces =
+    t && controlTrace
+      ? { drive_uA_cm2: t.drive_uA_cm2, control: controlTrace, condition: conditionTrace }
+      : null;
   return assembleForecast(plan, control, conditions, traces);
 }
 

@@ -37,11 +37,37 @@ export async function auditExport(actor: Actor, rawFilter: unknown): Promise<Exp
   ];
   return {
     about,
-    tables: [{
-      sheet: 'Audit trail',
-      key: 'events',
-      columns: ['Event', 'Time (UTC)', 'Person', 'E-mail', 'Action', 'Record type', 'Record id', 'Reason', 'Before', 'After', 'Address'],
-      rows: rows.map((r) => [r.id, r.occurredAt, r.actorName, r.actorEmail, r.action, r.entityType, r.entityId, r.reason, json(r.before), json(r.after), r.address]),
-    }],
+    tables: [
+      {
+        sheet: 'Audit trail',
+        key: 'events',
+        columns: [
+          'Event',
+          'Time (UTC)',
+          'Person',
+          'E-mail',
+          'Action',
+          'Record type',
+          'Record id',
+          'Reason',
+          'Before',
+          'After',
+          'Address',
+        ],
+        rows: rows.map((r) => [
+          r.id,
+          r.occurredAt,
+          r.actorName,
+          r.actorEmail,
+          r.action,
+          r.entityType,
+          r.entityId,
+          r.reason,
+          json(r.before),
+          json(r.after),
+          r.address,
+        ]),
+      },
+    ],
   };
 }

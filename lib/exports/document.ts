@@ -28,12 +28,16 @@ export function workbookBytes(doc: ExportDocument): Buffer {
   const book = XLSX.utils.book_new();
   const add = (name: string, rows: Cell[][]) => {
     const sheet = XLSX.utils.aoa_to_sheet(rows);
-    const widths = rows.reduce<number[]>((w, row) => row.map((cell, i) => Math.max(w[i] ?? 8, Math.min(60, String(cell ?? '').length + 2))), []);
+    const widths = rows.reduce<number[]>(
+      (w, row) => row.map((cell, i) => Math.max(w[i] ?? 8, Math.min(60, String(cell ?? '').length + 2))),
+      [],
+    );
     sheet['!cols'] = widths.map((wch) => ({ wch }));
     XLSX.utils.book_append_sheet(book, sheet, name.slice(0, 31));
   };
   add(ABOUT_SHEET, doc.about);
-  for (const table of doc.tables) add(table.sheet, [...(table.note ? [[table.note], []] : []), table.columns, ...table.rows]);
+  for (const table of doc.tables)
+    add(table.sheet, [...(table.note ? [[table.note], []] : []), table.columns, ...table.rows]);
   return XLSX.write(book, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer;
 }
 

@@ -21,8 +21,29 @@ export function signoffLines(signoffs: PlateSignoff[], withPlate: boolean): [str
 /** The sign-off sheet: one row per signature. */
 export function signoffTable(signoffs: PlateSignoff[]): ExportTable {
   return {
-    sheet: 'Sign-off', key: 'signoff',
-    columns: ['Plate', 'From state', 'To state', 'Signed by', 'E-mail', 'Meaning', 'Comment', 'Signed at (UTC)', 'Signed content SHA-256'],
-    rows: signoffs.map((s) => [s.plateLabel, PLATE_STATE_LABEL[s.fromState], PLATE_STATE_LABEL[s.toState], s.signer, s.signerEmail, s.meaning, s.comment, s.signedAt, s.contentSha256]),
+    sheet: 'Sign-off',
+    key: 'signoff',
+    columns: [
+      'Plate',
+      'From state',
+      'To state',
+      'Signed by',
+      'E-mail',
+      'Meaning',
+      'Comment',
+      'Signed at (UTC)',
+      'Signed content SHA-256',
+    ],
+    rows: signoffs.map((s) => [
+      s.plateLabel,
+      PLATE_STATE_LABEL[s.fromState],
+      PLATE_STATE_LABEL[s.toState],
+      s.signer,
+      s.signerEmail,
+      s.meaning,
+      s.comment,
+      s.signedAt,
+      s.contentSha256,
+    ]),
   };
 }

@@ -11,7 +11,11 @@ import { storedOrComputedForecast } from './store';
 import { forecastView } from './view';
 
 const potencyFit = (f: ProfileFit): PotencyFit => ({
-  status: f.status, model: f.model, ic50_uM: f.ic50_uM, hill: f.hill, ic50LowerBound_uM: f.ic50LowerBound_uM,
+  status: f.status,
+  model: f.model,
+  ic50_uM: f.ic50_uM,
+  hill: f.hill,
+  ic50LowerBound_uM: f.ic50LowerBound_uM,
   plate: { id: f.plateId, label: f.plateLabel, state: f.plateState },
 });
 
@@ -20,18 +24,31 @@ const potencyFit = (f: ProfileFit): PotencyFit => ({
  * (approved plates first) on the preset and exposures of one screen (default: the first by name with an
  * approved fit, else the first by name). Stored without a plate and reused like a plate's forecast.
  */
-export async function getCompoundForecast(actor: Actor, compoundId: string, options: { screenId?: string; at?: number } = {}): Promise<CompoundForecast> {
+export async function getCompoundForecast(
+  actor: Actor,
+  compoundId: string,
+  options: { screenId?: string; at?: number } = {},
+): Promise<CompoundForecast> {
   const profile = await getCompoundProfile(actor, compoundId);
   const screen = options.screenId
     ? profile.screens.find((s) => s.id === options.screenId)
     : (profile.screens.find((s) => s.hasApproved) ?? profile.screens[0]);
   if (!screen) {
-    throw new AppError('not_found', options.screenId ? `${profile.compound.identifier} has no fits in that screen.` : `${profile.compound.identifier} has no fits yet, so there is nothing to forecast.`);
+    throw new AppError(
+      'not_found',
+      options.screenId
+        ? `${profile.compound.identifier} has no fits in that screen.`
+        : `${profile.compound.identifier} has no fits yet, so there is nothing to forecast.`,
+    );
   }
   const chosen = new Map(profile.potencies.map((f) => [f.targetId, f]));
   const latest = new Map<string, ProfileFit>();
   for (const f of profile.fits) if (!latest.has(f.targetId)) latest.set(f.targetId, f);
-  const targets = [...latest.values()].map((f) => ({ id: f.targetId, name: f.target, conductance: f.conductance }));
+  const targets = [...latest.values()].map((f) => ({
+    id: f.targetId,
+    name: f.target,
+    conductance: f.conductance,
+  }));
   const fitOf = (targetId: string) => {
     const f = chosen.get(targetId) ?? latest.get(targetId);
     return f ? potencyFit(f) : undefined;
@@ -39,10 +56,19 @@ export async function getCompoundForecast(actor: Actor, compoundId: string, opti
   const potencies = targetPotencies(screen.neuronPreset, targets, fitOf, screen.exposures_uM);
   const plan = planCompoundForecast(screen.neuronPreset, potencies, screen.exposures_uM, options.at);
   const base = {
-    compoundId, compound: profile.compound.identifier, screen: { id: screen.id, name: screen.name }, preset: screen.neuronPreset,
-    exposures_uM: screen.exposures_uM, targets: potencies, caution: FORECAST_CAUTION,
+    compoundId,
+    compound: profile.compound.identifier,
+    screen: { id: screen.id, name: screen.name },
+    preset: screen.neuronPreset,
+    exposures_uM: screen.exposures_uM,
+    targets: potencies,
+    caution: FORECAST_CAUTION,
   };
   if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
-  const stored = await storedOrComputedForecast({ plateId: null, compoundId, screenId: screen.id }, plan.request, { requestedBy: actor.id });
+  const stored = await storedOrComputedForecast(
+    { plateId: null, compoundId, screenId: screen.id },
+    plan.request,
+    { requestedBy: actor.id },
+  );
   return { ...base, reason: null, forecast: forecastView(stored, screen.exposures_uM) };
 }

@@ -30,10 +30,24 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
   const compounds = [...byCompound].map(([compoundId, { compound, fits: own }]) => ({
     compoundId,
     compound,
-    targets: targetPotencies(header.neuronPreset, header.targets, (targetId) => {
-      const f = own.get(targetId);
-      return f ? ({ status: f.status, model: f.model, ic50_uM: f.ic50_uM, hill: f.hill, ic50LowerBound_uM: f.ic50LowerBound_uM, plate } as PotencyFit) : undefined;
-    }, exposures_uM),
+    targets: targetPotencies(
+      header.neuronPreset,
+      header.targets,
+      (targetId) => {
+        const f = own.get(targetId);
+        return f
+          ? ({
+              status: f.status,
+              model: f.model,
+              ic50_uM: f.ic50_uM,
+              hill: f.hill,
+              ic50LowerBound_uM: f.ic50LowerBound_uM,
+              plate,
+            } as PotencyFit)
+          : undefined;
+      },
+      exposures_uM,
+    ),
   }));
   return { header, exposures_uM, compounds };
 }
@@ -42,8 +56,12 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
 export async function listPlateForecasts(actor: Actor, plateId: string): Promise<PlateForecastList> {
   const { header, exposures_uM, compounds } = await plateContext(actor, plateId);
   // A compound counts as stored when its forecast is, with the traces at any of the exposures.
-  const plans = compounds.map((c) => exposures_uM.map((_, at) => planCompoundForecast(header.neuronPreset, c.targets, exposures_uM, at)));
-  const keys = plans.map((variants) => variants.flatMap((p) => ('request' in p ? [forecastInput(p.request).inputSha256] : [])));
+  const plans = compounds.map((c) =>
+    exposures_uM.map((_, at) => planCompoundForecast(header.neuronPreset, c.targets, exposures_uM, at)),
+  );
+  const keys = plans.map((variants) =>
+    variants.flatMap((p) => ('request' in p ? [forecastInput(p.request).inputSha256] : [])),
+  );
   const stored = await storedKeys(header.id, keys.flat());
   return {
     plate: { id: header.id, label: header.label, state: header.state },
@@ -51,7 +69,11 @@ export async function listPlateForecasts(actor: Actor, plateId: string): Promise
     exposures_uM,
     compounds: compounds.map((c, i) => {
       const plan = plans[i]![0] ?? planCompoundForecast(header.neuronPreset, c.targets, exposures_uM);
-      return { ...c, reason: 'reason' in plan ? plan.reason : null, stored: keys[i]!.some((k) => stored.has(k)) };
+      return {
+        ...c,
+        reason: 'reason' in plan ? plan.reason : null,
+        stored: keys[i]!.some((k) => stored.has(k)),
+      };
     }),
     caution: FORECAST_CAUTION,
   };
@@ -62,16 +84,31 @@ export async function listPlateForecasts(actor: Actor, plateId: string): Promise
  * with traces at exposure `at` (default the highest): reused when stored, otherwise computed by a
  * forecast job (or here, with `here: true`, when the caller is a job itself) and stored.
  */
-export async function getPlateForecast(actor: Actor, plateId: string, compoundId: string, at?: number, options: { here?: boolean } = {}): Promise<CompoundForecast> {
+export async function getPlateForecast(
+  actor: Actor,
+  plateId: string,
+  compoundId: string,
+  at?: number,
+  options: { here?: boolean } = {},
+): Promise<CompoundForecast> {
   const { header, exposures_uM, compounds } = await plateContext(actor, plateId);
   const entry = compounds.find((c) => c.compoundId === compoundId);
   if (!entry) throw new AppError('not_found', `No compound with that id is tested on plate ${header.label}.`);
   const plan = planCompoundForecast(header.neuronPreset, entry.targets, exposures_uM, at);
   const base = {
-    compoundId, compound: entry.compound, screen: { id: header.screenId, name: header.screenName }, preset: header.neuronPreset,
-    exposures_uM, targets: entry.targets, caution: FORECAST_CAUTION,
+    compoundId,
+    compound: entry.compound,
+    screen: { id: header.screenId, name: header.screenName },
+    preset: header.neuronPreset,
+    exposures_uM,
+    targets: entry.targets,
+    caution: FORECAST_CAUTION,
   };
   if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
-  const stored = await storedOrComputedForecast({ plateId: header.id, compoundId, screenId: header.screenId }, plan.request, { here: options.here ?? false, requestedBy: actor.id });
+  const stored = await storedOrComputedForecast(
+    { plateId: header.id, compoundId, screenId: header.screenId },
+    plan.request,
+    { here: options.here ?? false, requestedBy: actor.id },
+  );
   return { ...base, reason: null, forecast: forecastView(stored, exposures_uM) };
 }

@@ -30,18 +30,27 @@ function useOf(fit: PotencyFit | undefined): { use: PotencyUse; note: string } {
   switch (fit.status) {
     case 'fitted':
       if (fit.hill === null || !(fit.hill > 0) || fit.hill > MAX_HILL) {
-        return { use: 'slope_out_of_range', note: `Hill slope ${fit.hill === null ? 'missing' : num(fit.hill)} is outside the 0–${MAX_HILL} the model accepts: treated as no block.` };
+        return {
+          use: 'slope_out_of_range',
+          note: `Hill slope ${fit.hill === null ? 'missing' : num(fit.hill)} is outside the 0–${MAX_HILL} the model accepts: treated as no block.`,
+        };
       }
       return {
         use: 'used',
         note: `Fitted IC50 and Hill slope, applied as simple pore block${fit.model === 'hill4' ? ' (from the four-parameter fit, whose bottom and top the model does not use)' : ''}.`,
       };
     case 'above_range':
-      return { use: 'above_range', note: `IC50 above${bound}, the highest concentration tested: treated as no block.` };
+      return {
+        use: 'above_range',
+        note: `IC50 above${bound}, the highest concentration tested: treated as no block.`,
+      };
     case 'inactive':
       return { use: 'inactive', note: `No meaningful block up to${bound}: treated as no block.` };
     case 'insufficient':
-      return { use: 'insufficient', note: 'Too few concentrations for a fit, so no IC50: treated as no block.' };
+      return {
+        use: 'insufficient',
+        note: 'Too few concentrations for a fit, so no IC50: treated as no block.',
+      };
     case 'not_converged':
       return { use: 'not_converged', note: 'The fit did not converge, so no IC50: treated as no block.' };
   }
@@ -52,26 +61,42 @@ function useOf(fit: PotencyFit | undefined): { use: PotencyUse; note: string } {
  * every exposure, or in words why it counts as no block. A conductance takes its potency from the first
  * target (by name) that gives one; later targets on the same conductance are said to be unused.
  */
-export function targetPotencies(presetName: string, targets: PotencyTarget[], fitOf: (targetId: string) => PotencyFit | undefined, exposures_uM: number[]): TargetPotency[] {
+export function targetPotencies(
+  presetName: string,
+  targets: PotencyTarget[],
+  fitOf: (targetId: string) => PotencyFit | undefined,
+  exposures_uM: number[],
+): TargetPotency[] {
   const { blockable } = conductanceNames(getPreset(presetName));
   const taken = new Map<string, string>();
-  return [...targets].sort((a, b) => a.name.localeCompare(b.name)).map((target) => {
-    const fit = fitOf(target.id);
-    let { use, note } = useOf(fit);
-    if (!blockable.includes(target.conductance)) {
-      use = 'not_modelled';
-      note = `${target.name} maps to ${target.conductance}, which preset ${presetName} cannot block: not modelled.`;
-    } else if (use === 'used' && taken.has(target.conductance)) {
-      use = 'not_modelled';
-      note = `${target.conductance} already takes its potency from ${taken.get(target.conductance)}: not used.`;
-    } else if (use === 'used') {
-      taken.set(target.conductance, target.name);
-    }
-    const blockAtExposures = exposures_uM.map((c) => (use === 'used' ? poreBlockFraction(c, fit!.ic50_uM!, fit!.hill!) : 0));
-    return {
-      targetId: target.id, target: target.name, conductance: target.conductance, use,
-      ic50_uM: fit?.ic50_uM ?? null, hill: fit?.hill ?? null, ic50LowerBound_uM: fit?.ic50LowerBound_uM ?? null,
-      note, blockAtExposures, plate: fit?.plate ?? null,
-    };
-  });
+  return [...targets]
+    .sort((a, b) => a.name.localeCompare(b.name))
+    .map((target) => {
+      const fit = fitOf(target.id);
+      let { use, note } = useOf(fit);
+      if (!blockable.includes(target.conductance)) {
+        use = 'not_modelled';
+        note = `${target.name} maps to ${target.conductance}, which preset ${presetName} cannot block: not modelled.`;
+      } else if (use === 'used' && taken.has(target.conductance)) {
+        use = 'not_modelled';
+        note = `${target.conductance} already takes its potency from ${taken.get(target.conductance)}: not used.`;
+      } else if (use === 'used') {
+        taken.set(target.conductance, target.name);
+      }
+      const blockAtExposures = exposures_uM.map((c) =>
+        use === 'used' ? poreBlockFraction(c, fit!.ic50_uM!, fit!.hill!) : 0,
+      );
+      return {
+        targetId: target.id,
+        target: target.name,
+        conductance: target.conductance,
+        use,
+        ic50_uM: fit?.ic50_uM ?? null,
+        hill: fit?.hill ?? null,
+        ic50LowerBound_uM: fit?.ic50LowerBound_uM ?? null,
+        note,
+        blockAtExposures,
+        plate: fit?.plate ?? null,
+      };
+    });
 }

@@ -13,7 +13,11 @@ export async function selectStoredForecast(
     `select result, computed_at as "computedAt" from forecasts
       where compound_id = :compoundId and input_sha256 = :inputSha256 and plate_id is not distinct from :plateId
       order by computed_at limit 1`,
-    { type: QueryTypes.SELECT, replacements: { compoundId: owner.compoundId, plateId: owner.plateId, inputSha256 }, transaction },
+    {
+      type: QueryTypes.SELECT,
+      replacements: { compoundId: owner.compoundId, plateId: owner.plateId, inputSha256 },
+      transaction,
+    },
   );
   return row;
 }
@@ -28,5 +32,8 @@ export async function selectStoredKeys(plateId: string, inputSha256s: string[]):
 
 // SQL for a lock: a transaction-level advisory lock on the input's key, so that two computations store one row.
 export async function lockForecastInput(inputSha256: string, transaction: Transaction): Promise<void> {
-  await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', { replacements: { key: `forecast:${inputSha256}` }, transaction });
+  await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', {
+    replacements: { key: `forecast:${inputSha256}` },
+    transaction,
+  });
 }

@@ -24,14 +24,33 @@ export interface PlannedForecast {
  * exposures (ascending) and the concentration sweep, with traces at exposure `at` (default the highest).
  * Returns the reason instead when there is nothing to forecast.
  */
-export function planCompoundForecast(preset: string, potencies: TargetPotency[], exposures_uM: number[], at?: number): PlannedForecast | { reason: string } {
+export function planCompoundForecast(
+  preset: string,
+  potencies: TargetPotency[],
+  exposures_uM: number[],
+  at?: number,
+): PlannedForecast | { reason: string } {
   if (at !== undefined && at >= exposures_uM.length) {
-    throw new AppError('invalid', `at must be the index of one of the screen’s ${exposures_uM.length} exposures (0–${Math.max(0, exposures_uM.length - 1)}).`);
+    throw new AppError(
+      'invalid',
+      `at must be the index of one of the screen’s ${exposures_uM.length} exposures (0–${Math.max(0, exposures_uM.length - 1)}).`,
+    );
   }
-  if (exposures_uM.length === 0) return { reason: 'The screen has no exposures of interest. An admin adds them on the screen’s page; the forecast runs at those concentrations.' };
+  if (exposures_uM.length === 0)
+    return {
+      reason:
+        'The screen has no exposures of interest. An admin adds them on the screen’s page; the forecast runs at those concentrations.',
+    };
   const used = potencies.filter((p) => p.use === 'used');
-  if (used.length === 0) return { reason: 'No target gives a usable IC50 here, so every exposure would equal control. Nothing to forecast.' };
-  const concentrations_uM = sweepConcentrations(exposures_uM, used.map((p) => p.ic50_uM!));
+  if (used.length === 0)
+    return {
+      reason:
+        'No target gives a usable IC50 here, so every exposure would equal control. Nothing to forecast.',
+    };
+  const concentrations_uM = sweepConcentrations(
+    exposures_uM,
+    used.map((p) => p.ic50_uM!),
+  );
   const traceConcentration_uM = exposures_uM[at ?? exposures_uM.length - 1]!;
   const condition = concentrations_uM.findIndex((c) => isExposure(c, [traceConcentration_uM]));
   return {

@@ -26,8 +26,10 @@ export function forecastView(stored: StoredForecast, exposures_uM: number[]): Fo
     reused: stored.reused,
     preset: r.preset,
     protocol: {
-      rheobaseStep_ms: r.protocol.rheobaseStep_ms, rateStep_ms: r.protocol.rateStep_ms,
-      thresholdSlope_mV_ms: r.protocol.thresholdSlope_mV_ms, referenceDriveFactor: r.protocol.referenceDriveFactor,
+      rheobaseStep_ms: r.protocol.rheobaseStep_ms,
+      rateStep_ms: r.protocol.rateStep_ms,
+      thresholdSlope_mV_ms: r.protocol.thresholdSlope_mV_ms,
+      referenceDriveFactor: r.protocol.referenceDriveFactor,
     },
     referenceDrive_uA_cm2: r.referenceDrive_uA_cm2,
     control: conditionView(r.control, exposures_uM),

@@ -37,11 +37,16 @@ export interface ParsedPlate {
 }
 
 /** Gathers the rows without errors into wells and readouts; cell properties come from a well's first row that has them. */
-export function buildPlate(rows: readonly PreviewRow[], format: PlateFormat, formatSource: 'chosen' | 'inferred'): ParsedPlate {
+export function buildPlate(
+  rows: readonly PreviewRow[],
+  format: PlateFormat,
+  formatSource: 'chosen' | 'inferred',
+): ParsedPlate {
   const wells = new Map<string, ParsedWell>();
   const targets: string[] = [];
   for (const { row, status, values } of rows) {
-    if (status !== 'ok' || values.well === null || values.rowIndex === null || values.columnIndex === null) continue;
+    if (status !== 'ok' || values.well === null || values.rowIndex === null || values.columnIndex === null)
+      continue;
     if (values.role === null || values.target === null) continue;
     let well = wells.get(values.well);
     if (!well) {
@@ -62,7 +67,12 @@ export function buildPlate(rows: readonly PreviewRow[], format: PlateFormat, for
     well.sealResistance_GOhm ??= values.sealResistance_GOhm;
     well.seriesResistance_MOhm ??= values.seriesResistance_MOhm;
     well.capacitance_pF ??= values.capacitance_pF;
-    well.readouts.push({ target: values.target, controlCurrent_pA: values.controlCurrent_pA, compoundCurrent_pA: values.compoundCurrent_pA, row });
+    well.readouts.push({
+      target: values.target,
+      controlCurrent_pA: values.controlCurrent_pA,
+      compoundCurrent_pA: values.compoundCurrent_pA,
+      row,
+    });
     if (!targets.includes(values.target)) targets.push(values.target);
   }
   const sorted = [...wells.values()].sort((a, b) => a.rowIndex - b.rowIndex || a.columnIndex - b.columnIndex);

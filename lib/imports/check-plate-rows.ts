@@ -19,22 +19,52 @@ export interface FormatDecision {
  * module's caller created): wells outside the format, a well + target given twice, and a well whose
  * rows disagree on what it holds (an error) or on its cell properties (a warning; the first is kept).
  */
-export function checkPlateRows(rows: PreviewRow[], sheet: string, columns: ResolvedColumns, chosen?: PlateFormat): FormatDecision {
-  const add = (row: PreviewRow, field: ImportField, code: ImportIssueCode, detail: string, severity: 'error' | 'warning' = 'error') => {
+export function checkPlateRows(
+  rows: PreviewRow[],
+  sheet: string,
+  columns: ResolvedColumns,
+  chosen?: PlateFormat,
+): FormatDecision {
+  const add = (
+    row: PreviewRow,
+    field: ImportField,
+    code: ImportIssueCode,
+    detail: string,
+    severity: 'error' | 'warning' = 'error',
+  ) => {
     const column = columns[field];
-    row.issues.push(makeIssue({ code, sheet, row: row.row, field, detail, severity, column: column ? { letter: column.letter, header: column.header } : null }));
+    row.issues.push(
+      makeIssue({
+        code,
+        sheet,
+        row: row.row,
+        field,
+        detail,
+        severity,
+        column: column ? { letter: column.letter, header: column.header } : null,
+      }),
+    );
   };
   const placed = rows.flatMap((row) => {
     const { well, rowIndex, columnIndex } = row.values;
-    return well !== null && rowIndex !== null && columnIndex !== null ? [{ row, well, position: { rowIndex, columnIndex, label: well } }] : [];
+    return well !== null && rowIndex !== null && columnIndex !== null
+      ? [{ row, well, position: { rowIndex, columnIndex, label: well } }]
+      : [];
   });
   const decision: FormatDecision = chosen
     ? { format: chosen, source: 'chosen' }
-    : { format: inferPlateFormat(placed.map((p) => p.position).filter((position) => fitsFormat(position, 1536))), source: 'inferred' };
+    : {
+        format: inferPlateFormat(
+          placed.map((p) => p.position).filter((position) => fitsFormat(position, 1536)),
+        ),
+        source: 'inferred',
+      };
   const onPlate = placed.filter(({ row, well, position }) => {
     const fits = fitsFormat(position, decision.format ?? 1536);
     if (!fits) {
-      const where = chosen ? `outside ${describeFormat(chosen)}` : `beyond the largest plate, ${describeFormat(1536)}`;
+      const where = chosen
+        ? `outside ${describeFormat(chosen)}`
+        : `beyond the largest plate, ${describeFormat(1536)}`;
       add(row, 'well', 'well_outside_format', `well ${well} is ${where}.`);
     }
     return fits;
@@ -47,25 +77,44 @@ export function checkPlateRows(rows: PreviewRow[], sheet: string, columns: Resol
       const key = `${well}|${normaliseLabel(target)}`;
       const first = readouts.get(key);
       if (first === undefined) readouts.set(key, row.row);
-      else add(row, 'well', 'duplicate_readout', `well ${well} with target ${target} is already given in row ${first}; each well has one row per target.`);
+      else
+        add(
+          row,
+          'well',
+          'duplicate_readout',
+          `well ${well} with target ${target} is already given in row ${first}; each well has one row per target.`,
+        );
     }
     const first = wells.get(well);
     if (!first) wells.set(well, row);
     else compareWellRows(first, row, add);
   }
-  for (const row of rows) row.status = row.issues.some((issue) => issue.severity === 'error') ? 'error' : 'ok';
+  for (const row of rows)
+    row.status = row.issues.some((issue) => issue.severity === 'error') ? 'error' : 'ok';
   return decision;
 }
 
-type Add = (row: PreviewRow, field: ImportField, code: ImportIssueCode, detail: string, severity?: 'error' | 'warning') => void;
+type Add = (
+  row: PreviewRow,
+  field: ImportField,
+  code: ImportIssueCode,
+  detail: string,
+  severity?: 'error' | 'warning',
+) => void;
 
 function compareWellRows(first: PreviewRow, row: PreviewRow, add: Add): void {
   const a = first.values;
   const b = row.values;
   const well = b.well;
   if (a.role !== b.role || a.compound !== b.compound || !sameNumber(a.concentration_uM, b.concentration_uM)) {
-    const holds = (v: RowValues) => `${v.role} ${v.compound ?? '(no compound)'} at ${v.concentration_uM ?? '(no concentration)'} µM`;
-    add(row, 'compound', 'inconsistent_well', `well ${well} holds ${holds(b)} here but ${holds(a)} in row ${first.row}; a well holds one compound at one concentration.`);
+    const holds = (v: RowValues) =>
+      `${v.role} ${v.compound ?? '(no compound)'} at ${v.concentration_uM ?? '(no concentration)'} µM`;
+    add(
+      row,
+      'compound',
+      'inconsistent_well',
+      `well ${well} holds ${holds(b)} here but ${holds(a)} in row ${first.row}; a well holds one compound at one concentration.`,
+    );
   }
   const properties = [
     ['sealResistance', 'sealResistance_GOhm'],
@@ -77,7 +126,13 @@ function compareWellRows(first: PreviewRow, row: PreviewRow, add: Add): void {
     const x = a[key];
     const y = b[key];
     if (x !== null && y !== null && !sameNumber(x, y)) {
-      add(row, field, 'conflicting_value', `well ${well} has ${y} ${unit} here but ${x} ${unit} in row ${first.row}; Gatewell keeps the value of row ${first.row}.`, 'warning');
+      add(
+        row,
+        field,
+        'conflicting_value',
+        `well ${well} has ${y} ${unit} here but ${x} ${unit} in row ${first.row}; Gatewell keeps the value of row ${first.row}.`,
+        'warning',
+      );
     }
   }
 }

@@ -82,7 +82,10 @@ function splitRows(text, delimiter, limits) {
   };
   const pushField = (/** @type {string} */ value) => {
     if (row.length >= limits.maxColumns) {
-      throw new DelimitedTextError('too_many_columns', `row ${rows.length + 1} has more than ${limits.maxColumns} columns`);
+      throw new DelimitedTextError(
+        'too_many_columns',
+        `row ${rows.length + 1} has more than ${limits.maxColumns} columns`,
+      );
     }
     row.push(value === '' ? null : value);
   };
@@ -93,7 +96,11 @@ function splitRows(text, delimiter, limits) {
       i += 1;
       for (;;) {
         const close = text.indexOf('"', i);
-        if (close < 0) throw new DelimitedTextError('unreadable', `a quoted field that starts on row ${startRow} is never closed`);
+        if (close < 0)
+          throw new DelimitedTextError(
+            'unreadable',
+            `a quoted field that starts on row ${startRow} is never closed`,
+          );
         value += text.slice(i, close);
         i = close + 1;
         if (text[i] !== '"') break;

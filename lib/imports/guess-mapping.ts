@@ -1,7 +1,13 @@
 import 'server-only';
 import { HEADER_RULES } from './header-words';
 import { splitHeaderUnit } from './header-unit';
-import { IMPORT_FIELDS, REQUIRED_FIELDS, UNIT_FIELDS, type ImportField, type UnitField } from './import-fields';
+import {
+  IMPORT_FIELDS,
+  REQUIRED_FIELDS,
+  UNIT_FIELDS,
+  type ImportField,
+  type UnitField,
+} from './import-fields';
 import { columnMappingDraftSchema, type ColumnMapping, type ColumnMappingInput } from './mapping-schema';
 import { columnLetter, normaliseLabel } from './normalise-text';
 import { readText } from './read-cell';
@@ -42,7 +48,10 @@ const HEADER_SEARCH_ROWS = 30;
  * Guesses which header row and columns hold which fields, and the units written in the headers.
  * `headerRow` (1-based) skips the search; `base` supplies markers, a fixed target or other settings.
  */
-export function guessMapping(sheet: SheetData, options: { headerRow?: number; base?: ColumnMappingInput } = {}): MappingGuess {
+export function guessMapping(
+  sheet: SheetData,
+  options: { headerRow?: number; base?: ColumnMappingInput } = {},
+): MappingGuess {
   const headerRow = options.headerRow ?? findHeaderRow(sheet.rows);
   const headers = sheet.rows[headerRow - 1] ?? [];
   const matched = matchHeaders(headers);
@@ -50,15 +59,23 @@ export function guessMapping(sheet: SheetData, options: { headerRow?: number; ba
   const units: Partial<Record<UnitField, Unit>> = {};
   for (const column of matched) {
     columns[column.field] = column.header;
-    if (column.unit && (UNIT_FIELDS as readonly string[]).includes(column.field)) units[column.field as UnitField] = column.unit;
+    if (column.unit && (UNIT_FIELDS as readonly string[]).includes(column.field))
+      units[column.field as UnitField] = column.unit;
   }
   const base = options.base ?? {};
-  const mapping = columnMappingDraftSchema.parse({ ...base, headerRow, columns: { ...base.columns, ...columns }, units: { ...base.units, ...units } });
+  const mapping = columnMappingDraftSchema.parse({
+    ...base,
+    headerRow,
+    columns: { ...base.columns, ...columns },
+    units: { ...base.units, ...units },
+  });
   const used = new Set(matched.map((column) => column.letter));
   const unmatchedHeaders = headerCells(headers)
     .filter((cell) => !used.has(cell.letter))
     .map(({ letter, header }) => ({ letter, header }));
-  const missingFields = REQUIRED_FIELDS.filter((field) => mapping.columns[field] === null && !(field === 'target' && mapping.fixedTarget !== null));
+  const missingFields = REQUIRED_FIELDS.filter(
+    (field) => mapping.columns[field] === null && !(field === 'target' && mapping.fixedTarget !== null),
+  );
   return { mapping, matched, unmatchedHeaders, missingFields };
 }
 
@@ -90,7 +107,12 @@ function matchHeaders(row: Cell[]): GuessedColumn[] {
       candidates.push({ field, letter, header, unit, score, index });
     }
   }
-  candidates.sort((a, b) => b.score - a.score || IMPORT_FIELDS.indexOf(a.field) - IMPORT_FIELDS.indexOf(b.field) || a.index - b.index);
+  candidates.sort(
+    (a, b) =>
+      b.score - a.score ||
+      IMPORT_FIELDS.indexOf(a.field) - IMPORT_FIELDS.indexOf(b.field) ||
+      a.index - b.index,
+  );
   const taken = new Set<number>();
   const done = new Set<ImportField>();
   const chosen: (GuessedColumn & { index: number })[] = [];

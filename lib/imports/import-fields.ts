@@ -20,10 +20,24 @@ export const IMPORT_FIELDS = [
 export type ImportField = (typeof IMPORT_FIELDS)[number];
 
 /** Fields that need a column; the target may instead be one name for the whole sheet. */
-export const REQUIRED_FIELDS: readonly ImportField[] = ['well', 'compound', 'concentration', 'target', 'controlCurrent', 'compoundCurrent'];
+export const REQUIRED_FIELDS: readonly ImportField[] = [
+  'well',
+  'compound',
+  'concentration',
+  'target',
+  'controlCurrent',
+  'compoundCurrent',
+];
 
 /** Fields whose unit is part of the mapping, and so may be read from the header ("Conc (nM)"). */
-export const UNIT_FIELDS = ['concentration', 'controlCurrent', 'compoundCurrent', 'sealResistance', 'seriesResistance', 'capacitance'] as const;
+export const UNIT_FIELDS = [
+  'concentration',
+  'controlCurrent',
+  'compoundCurrent',
+  'sealResistance',
+  'seriesResistance',
+  'capacitance',
+] as const;
 
 export type UnitField = (typeof UNIT_FIELDS)[number];
 

@@ -46,7 +46,8 @@ export interface ImportIssue {
 export function describeLocation(sheet: string, row: number | null, column: IssueColumn | null): string {
   const parts = [`Sheet "${sheet}"`];
   if (row !== null) parts.push(`row ${row}`);
-  if (column) parts.push(column.header ? `column ${column.letter} "${column.header}"` : `column ${column.letter}`);
+  if (column)
+    parts.push(column.header ? `column ${column.letter} "${column.header}"` : `column ${column.letter}`);
   return parts.join(', ');
 }
 

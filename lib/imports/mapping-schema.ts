@@ -1,13 +1,25 @@
 import { z } from 'zod';
-import { DEFAULT_MARKERS, FIELD_LABEL, IMPORT_FIELDS, REQUIRED_FIELDS, type ImportField } from './import-fields';
+import {
+  DEFAULT_MARKERS,
+  FIELD_LABEL,
+  IMPORT_FIELDS,
+  REQUIRED_FIELDS,
+  type ImportField,
+} from './import-fields';
 import { normaliseLabel } from './normalise-text';
 import { CAPACITANCE_UNITS, CONCENTRATION_UNITS, CURRENT_UNITS, RESISTANCE_UNITS } from './units';
 
 const header = z.string().trim().min(1).max(200).nullable().default(null);
-const markerList = (defaults: string[]) => z.array(z.string().trim().min(1).max(100)).max(50).default(() => [...defaults]);
+const markerList = (defaults: string[]) =>
+  z
+    .array(z.string().trim().min(1).max(100))
+    .max(50)
+    .default(() => [...defaults]);
 
 /** Which header (as written in the header row) feeds each field; null when no column does. */
-const columnsSchema = z.object(Object.fromEntries(IMPORT_FIELDS.map((field) => [field, header])) as Record<ImportField, typeof header>);
+const columnsSchema = z.object(
+  Object.fromEntries(IMPORT_FIELDS.map((field) => [field, header])) as Record<ImportField, typeof header>,
+);
 
 /** A column mapping that may still be incomplete, as guessed or while it is being edited. */
 export const columnMappingDraftSchema = z.object({
@@ -30,7 +42,11 @@ export const columnMappingDraftSchema = z.object({
   fixedTarget: z.string().trim().min(1).max(100).nullable().default(null),
   /** Words marking vehicle, reference and test wells in the role column; vehicle and reference also as compound identifiers. */
   markers: z
-    .object({ vehicle: markerList(DEFAULT_MARKERS.vehicle), reference: markerList(DEFAULT_MARKERS.reference), test: markerList(DEFAULT_MARKERS.test) })
+    .object({
+      vehicle: markerList(DEFAULT_MARKERS.vehicle),
+      reference: markerList(DEFAULT_MARKERS.reference),
+      test: markerList(DEFAULT_MARKERS.test),
+    })
     .prefault({}),
 });
 
@@ -40,10 +56,18 @@ export const columnMappingSchema = columnMappingDraftSchema.superRefine((mapping
     if (mapping.columns[field] !== null) continue;
     if (field === 'target' && mapping.fixedTarget !== null) continue;
     const extra = field === 'target' ? ', or name one target for the whole sheet' : '';
-    ctx.addIssue({ code: 'custom', path: ['columns', field], message: `Choose the column that holds the ${FIELD_LABEL[field]}${extra}.` });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['columns', field],
+      message: `Choose the column that holds the ${FIELD_LABEL[field]}${extra}.`,
+    });
   }
   if (mapping.columns.target !== null && mapping.fixedTarget !== null) {
-    ctx.addIssue({ code: 'custom', path: ['fixedTarget'], message: 'Choose a target column or one target for the whole sheet, not both.' });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['fixedTarget'],
+      message: 'Choose a target column or one target for the whole sheet, not both.',
+    });
   }
   const seen = new Map<string, ImportField>();
   for (const field of IMPORT_FIELDS) {

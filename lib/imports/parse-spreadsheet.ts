@@ -41,47 +41,81 @@ export function parseWorkerStarts(): number {
 type WorkerReply = { ok: true; sheets: unknown } | { ok: false; code: SpreadsheetErrorCode; detail: string };
 
 /** Reads an uploaded xlsx, xls or csv file into plain sheets, in a fresh worker thread with limits. */
-export async function parseSpreadsheet(bytes: Uint8Array, filename: string, options: ParseSpreadsheetOptions = {}): Promise<ParseSpreadsheetResult> {
+export async function parseSpreadsheet(
+  bytes: Uint8Array,
+  filename: string,
+  options: ParseSpreadsheetOptions = {},
+): Promise<ParseSpreadsheetResult> {
   const limits = checkOptions(options);
-  const fail = (code: SpreadsheetErrorCode, message: string): ParseSpreadsheetResult => ({ ok: false, error: { code, message } });
+  const fail = (code: SpreadsheetErrorCode, message: string): ParseSpreadsheetResult => ({
+    ok: false,
+    error: { code, message },
+  });
   if (bytes.length === 0) return fail('empty_file', `${filename} is empty (0 bytes).`);
   if (bytes.length > limits.maxBytes) {
-    return fail('too_large', `${filename} is ${sizeLabel(bytes.length)}; Gatewell reads files up to ${sizeLabel(limits.maxBytes)}.`);
+    return fail(
+      'too_large',
+      `${filename} is ${sizeLabel(bytes.length)}; Gatewell reads files up to ${sizeLabel(limits.maxBytes)}.`,
+    );
   }
   const sniffed = sniffUpload(bytes, filename);
   if (sniffed.kind === 'refused') return { ok: false, error: sniffed.error };
-  const format: SpreadsheetFormat = sniffed.kind === 'workbook' ? sniffed.format : sniffed.kind === 'markup' ? 'markup' : 'csv';
+  const format: SpreadsheetFormat =
+    sniffed.kind === 'workbook' ? sniffed.format : sniffed.kind === 'markup' ? 'markup' : 'csv';
   const job =
     sniffed.kind === 'workbook'
       ? { kind: 'workbook', format: sniffed.format, bytes }
       : { kind: sniffed.kind, text: sniffed.text, sheetName: sheetNameFor(filename) };
-  const reply = await runWorker({ ...job, maxRows: limits.maxRows, maxColumns: limits.maxColumns, niceness: limits.niceness }, limits);
-  if (!reply.ok && format !== 'csv' && /Unsupported ZIP file|Cannot find file|not a spreadsheet/i.test(reply.detail)) {
-    return fail('not_spreadsheet', describeFailure('not_spreadsheet', reply.detail, filename, format, limits));
+  const reply = await runWorker(
+    { ...job, maxRows: limits.maxRows, maxColumns: limits.maxColumns, niceness: limits.niceness },
+    limits,
+  );
+  if (
+    !reply.ok &&
+    format !== 'csv' &&
+    /Unsupported ZIP file|Cannot find file|not a spreadsheet/i.test(reply.detail)
+  ) {
+    return fail(
+      'not_spreadsheet',
+      describeFailure('not_spreadsheet', reply.detail, filename, format, limits),
+    );
   }
   if (!reply.ok) return fail(reply.code, describeFailure(reply.code, reply.detail, filename, format, limits));
   const sheets = checkPlainSheets(reply.sheets);
-  if (!sheets) return fail('unreadable', `${filename} could not be read: the parser returned something other than plain values.`);
+  if (!sheets)
+    return fail(
+      'unreadable',
+      `${filename} could not be read: the parser returned something other than plain values.`,
+    );
   return { ok: true, format, sheets };
 }
 
 function checkOptions(options: ParseSpreadsheetOptions) {
   const merged = { ...DEFAULTS, ...stripUndefined(options) };
   for (const key of Object.keys(DEFAULTS) as (keyof typeof DEFAULTS)[]) {
-    if (!Number.isInteger(merged[key]) || merged[key] <= 0) throw new RangeError(`parseSpreadsheet: ${key} must be a positive integer`);
+    if (!Number.isInteger(merged[key]) || merged[key] <= 0)
+      throw new RangeError(`parseSpreadsheet: ${key} must be a positive integer`);
   }
   const niceness = options.niceness ?? DEFAULT_NICENESS;
-  if (!Number.isInteger(niceness) || niceness < 0 || niceness > 19) throw new RangeError('parseSpreadsheet: niceness must be a whole number from 0 to 19');
-  return { ...merged, niceness, workerPath: options.workerPath ?? path.join(process.cwd(), 'lib', 'imports', 'parse-worker.mjs') };
+  if (!Number.isInteger(niceness) || niceness < 0 || niceness > 19)
+    throw new RangeError('parseSpreadsheet: niceness must be a whole number from 0 to 19');
+  return {
+    ...merged,
+    niceness,
+    workerPath: options.workerPath ?? path.join(process.cwd(), 'lib', 'imports', 'parse-worker.mjs'),
+  };
 }
 
 function stripUndefined(options: ParseSpreadsheetOptions): Partial<typeof DEFAULTS> {
-  return Object.fromEntries(Object.entries(options).filter(([key, value]) => value !== undefined && key in DEFAULTS));
+  return Object.fromEntries(
+    Object.entries(options).filter(([key, value]) => value !== undefined && key in DEFAULTS),
+  );
 }
 
 /** "812 bytes", "3.4 KB", "10 MB", "10.2 MB". */
 function sizeLabel(bytes: number): string {
-  const [value, unit] = bytes < 1024 ? [bytes, 'bytes'] : bytes < MB ? [bytes / 1024, 'KB'] : [bytes / MB, 'MB'];
+  const [value, unit] =
+    bytes < 1024 ? [bytes, 'bytes'] : bytes < MB ? [bytes / 1024, 'KB'] : [bytes / MB, 'MB'];
   return `${Number.isInteger(value) ? value : value.toFixed(1)} ${unit}`;
 }
 
@@ -98,7 +132,11 @@ function runWorker(workerData: object, limits: ReturnType<typeof checkOptions>):
       workerData,
       env: {},
       execArgv: [],
-      resourceLimits: { maxOldGenerationSizeMb: limits.maxMemoryMb, maxYoungGenerationSizeMb: 32, stackSizeMb: 4 },
+      resourceLimits: {
+        maxOldGenerationSizeMb: limits.maxMemoryMb,
+        maxYoungGenerationSizeMb: 32,
+        stackSizeMb: 4,
+      },
     });
     starts[startsKey] = parseWorkerStarts() + 1;
     const settle = (reply: WorkerReply) => {
@@ -111,13 +149,25 @@ function runWorker(workerData: object, limits: ReturnType<typeof checkOptions>):
     const timer = setTimeout(() => settle({ ok: false, code: 'timed_out', detail: '' }), limits.timeoutMs);
     worker.once('message', (message: WorkerReply) => settle(message));
     worker.once('error', (error: Error & { code?: string }) =>
-      settle({ ok: false, code: error.code === 'ERR_WORKER_OUT_OF_MEMORY' ? 'too_complex' : 'unreadable', detail: error.message }),
+      settle({
+        ok: false,
+        code: error.code === 'ERR_WORKER_OUT_OF_MEMORY' ? 'too_complex' : 'unreadable',
+        detail: error.message,
+      }),
     );
-    worker.once('exit', (exitCode) => settle({ ok: false, code: 'unreadable', detail: `the parser stopped (exit code ${exitCode})` }));
+    worker.once('exit', (exitCode) =>
+      settle({ ok: false, code: 'unreadable', detail: `the parser stopped (exit code ${exitCode})` }),
+    );
   });
 }
 
-function describeFailure(code: SpreadsheetErrorCode, detail: string, filename: string, format: SpreadsheetFormat, limits: ReturnType<typeof checkOptions>): string {
+function describeFailure(
+  code: SpreadsheetErrorCode,
+  detail: string,
+  filename: string,
+  format: SpreadsheetFormat,
+  limits: ReturnType<typeof checkOptions>,
+): string {
   switch (code) {
     case 'timed_out':
       return `${filename} took longer than ${limits.timeoutMs / 1000} s to read and was stopped. Remove extra sheets or rows and upload it again.`;
@@ -129,7 +179,8 @@ function describeFailure(code: SpreadsheetErrorCode, detail: string, filename: s
     case 'not_spreadsheet':
       return `${filename} holds no readable workbook: it is not an xlsx or xls spreadsheet, or it is damaged.`;
     default:
-      if (/password/i.test(detail)) return `${filename} is password-protected. Save it without a password and upload it again.`;
+      if (/password/i.test(detail))
+        return `${filename} is password-protected. Save it without a password and upload it again.`;
       if (format === 'csv') return `${filename} could not be read as CSV: ${detail}.`;
       return `${filename} looks like an ${format === 'markup' ? 'xls (table markup)' : format} file but could not be read; it may be damaged or not a workbook (${detail}).`;
   }

@@ -6,7 +6,16 @@ import { parentPort, workerData } from 'node:worker_threads';
 import { DelimitedTextError, parseDelimited } from './delimited-text.mjs';
 
 /** Cached values of formula errors, by the error number the workbook stores. */
-const ERROR_TEXT = { 0: '#NULL!', 7: '#DIV/0!', 15: '#VALUE!', 23: '#REF!', 29: '#NAME?', 36: '#NUM!', 42: '#N/A', 43: '#GETTING_DATA' };
+const ERROR_TEXT = {
+  0: '#NULL!',
+  7: '#DIV/0!',
+  15: '#VALUE!',
+  23: '#REF!',
+  29: '#NAME?',
+  36: '#NUM!',
+  42: '#N/A',
+  43: '#GETTING_DATA',
+};
 
 const READ_OPTIONS = {
   cellFormula: false,
@@ -35,10 +44,13 @@ class LimitError extends Error {
 function plainValue(cell) {
   if (!cell || typeof cell !== 'object') return null;
   const { t: type, v: value } = /** @type {{ t?: unknown, v?: unknown }} */ (cell);
-  if (type === 'n') return typeof value === 'number' ? (Number.isFinite(value) ? value : String(value)) : null;
-  if (type === 's' || type === 'str') return typeof value === 'string' && value.trim() !== '' ? `${value}` : null;
+  if (type === 'n')
+    return typeof value === 'number' ? (Number.isFinite(value) ? value : String(value)) : null;
+  if (type === 's' || type === 'str')
+    return typeof value === 'string' && value.trim() !== '' ? `${value}` : null;
   if (type === 'b') return value === true;
-  if (type === 'd') return value instanceof Date && !Number.isNaN(value.getTime()) ? value.toISOString() : null;
+  if (type === 'd')
+    return value instanceof Date && !Number.isNaN(value.getTime()) ? value.toISOString() : null;
   if (type === 'e') return typeof value === 'number' ? (ERROR_TEXT[value] ?? '#ERROR') : '#ERROR';
   return null;
 }
@@ -58,13 +70,15 @@ function extractSheet(XLSX, name, sheet, maxRows, maxColumns) {
     const { r, c } = XLSX.utils.decode_cell(key);
     if (!Number.isInteger(r) || !Number.isInteger(c) || r < 0 || c < 0) continue;
     if (r >= maxRows) throw new LimitError('too_many_rows', `sheet "${name}" has more than ${maxRows} rows`);
-    if (c >= maxColumns) throw new LimitError('too_many_columns', `sheet "${name}" has more than ${maxColumns} columns`);
+    if (c >= maxColumns)
+      throw new LimitError('too_many_columns', `sheet "${name}" has more than ${maxColumns} columns`);
     const row = sparse[r] ?? (sparse[r] = []);
     row[c] = value;
     rowCount = Math.max(rowCount, r + 1);
   }
   const full = typeof sheet['!fullref'] === 'string' ? XLSX.utils.decode_range(sheet['!fullref']) : null;
-  if (full && full.e.r >= maxRows) throw new LimitError('too_many_rows', `sheet "${name}" has more than ${maxRows} rows`);
+  if (full && full.e.r >= maxRows)
+    throw new LimitError('too_many_rows', `sheet "${name}" has more than ${maxRows} rows`);
   const rows = Array.from({ length: rowCount }, (_, r) => {
     const row = sparse[r] ?? [];
     return Array.from({ length: row.length }, (_, c) => row[c] ?? null);
@@ -82,8 +96,13 @@ async function run() {
   const XLSX = await import('xlsx/xlsx.mjs');
   if (format === 'xls') XLSX.set_cptable(await import('xlsx/dist/cpexcel.full.mjs'));
   const options = { ...READ_OPTIONS, sheetRows: maxRows + 1 };
-  const book = kind === 'markup' ? XLSX.read(text, { ...options, type: 'string' }) : XLSX.read(bytes, { ...options, type: 'array' });
-  return book.SheetNames.map((name) => extractSheet(XLSX, name, book.Sheets[name] ?? {}, maxRows, maxColumns));
+  const book =
+    kind === 'markup'
+      ? XLSX.read(text, { ...options, type: 'string' })
+      : XLSX.read(bytes, { ...options, type: 'array' });
+  return book.SheetNames.map((name) =>
+    extractSheet(XLSX, name, book.Sheets[name] ?? {}, maxRows, maxColumns),
+  );
 }
 
 // Reading a file is background work beside the people reading pages: on Linux the nice value belongs to

@@ -25,5 +25,10 @@ export function checkPlainSheets(value: unknown): SheetData[] | null {
 }
 
 function isPlainCell(cell: unknown): cell is Cell {
-  return cell === null || typeof cell === 'string' || typeof cell === 'boolean' || (typeof cell === 'number' && Number.isFinite(cell));
+  return (
+    cell === null ||
+    typeof cell === 'string' ||
+    typeof cell === 'boolean' ||
+    (typeof cell === 'number' && Number.isFinite(cell))
+  );
 }

@@ -15,7 +15,10 @@ export function parseWellPosition(text: string): WellPosition | null {
   const letters = (match[1] ?? '').toUpperCase();
   const column = Number(match[2]);
   if (column < 1) return null;
-  const rowIndex = letters.length === 1 ? letters.charCodeAt(0) - 65 : (letters.charCodeAt(0) - 64) * 26 + letters.charCodeAt(1) - 65;
+  const rowIndex =
+    letters.length === 1
+      ? letters.charCodeAt(0) - 65
+      : (letters.charCodeAt(0) - 64) * 26 + letters.charCodeAt(1) - 65;
   return { rowIndex, columnIndex: column - 1, label: wellLabel(rowIndex, column - 1) };
 }
 
@@ -26,7 +29,9 @@ export function wellLabel(rowIndex: number, columnIndex: number): string {
 
 /** Row letters for a 0-based row index: 0 → A, 25 → Z, 26 → AA. */
 export function rowLetters(rowIndex: number): string {
-  return rowIndex < 26 ? String.fromCharCode(65 + rowIndex) : rowLetters(Math.floor(rowIndex / 26) - 1) + String.fromCharCode(65 + (rowIndex % 26));
+  return rowIndex < 26
+    ? String.fromCharCode(65 + rowIndex)
+    : rowLetters(Math.floor(rowIndex / 26) - 1) + String.fromCharCode(65 + (rowIndex % 26));
 }
 
 /** Whether a well lies on a plate of the given format. */
@@ -43,7 +48,11 @@ export function inferPlateFormat(positions: Iterable<WellPosition>): PlateFormat
     rows = Math.max(rows, position.rowIndex + 1);
     columns = Math.max(columns, position.columnIndex + 1);
   }
-  return PLATE_FORMATS.find((format) => PLATE_FORMAT_SIZE[format].rows >= rows && PLATE_FORMAT_SIZE[format].columns >= columns) ?? null;
+  return (
+    PLATE_FORMATS.find(
+      (format) => PLATE_FORMAT_SIZE[format].rows >= rows && PLATE_FORMAT_SIZE[format].columns >= columns,
+    ) ?? null
+  );
 }
 
 /** "a 384-well plate (rows A–P, columns 1–24)". */

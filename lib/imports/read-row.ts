@@ -39,7 +39,16 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
   const issues: ImportIssue[] = [];
   const report = (field: ImportField, code: ImportIssueCode, detail: string) => {
     const column = ctx.columns[field];
-    issues.push(makeIssue({ code, sheet: ctx.sheet, row, field, detail, column: column ? { letter: column.letter, header: column.header } : null }));
+    issues.push(
+      makeIssue({
+        code,
+        sheet: ctx.sheet,
+        row,
+        field,
+        detail,
+        column: column ? { letter: column.letter, header: column.header } : null,
+      }),
+    );
   };
   const cell = (field: ImportField): Cell | undefined => {
     const column = ctx.columns[field];
@@ -49,37 +58,72 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
     const written = cell(field);
     const result = readQuantity(written, UNIT_KIND[field], unit, ctx.decimalComma);
     if (!result.ok) report(field, result.code, `${FIELD_LABEL[field]}: ${result.detail}.`);
-    else if (result.value !== null && result.value < 0 && field !== 'controlCurrent' && field !== 'compoundCurrent') {
-      report(field, 'negative_value', `${FIELD_LABEL[field]} is negative (${shorten(String(written))}); it must be 0 or more.`);
+    else if (
+      result.value !== null &&
+      result.value < 0 &&
+      field !== 'controlCurrent' &&
+      field !== 'compoundCurrent'
+    ) {
+      report(
+        field,
+        'negative_value',
+        `${FIELD_LABEL[field]} is negative (${shorten(String(written))}); it must be 0 or more.`,
+      );
       return null;
     }
     return result.ok ? result.value : null;
   };
-  const rowUnit = (field: 'concentrationUnit' | 'currentUnit', kind: 'concentration' | 'current', fallback: Unit): Unit => {
+  const rowUnit = (
+    field: 'concentrationUnit' | 'currentUnit',
+    kind: 'concentration' | 'current',
+    fallback: Unit,
+  ): Unit => {
     const text = readText(cell(field));
     if (text === null) return fallback;
     const unit = parseUnit(text, kind);
     if (unit) return unit;
-    const accepted = unitsOf(kind).map((u) => UNIT_LABEL[u]).join(', ');
+    const accepted = unitsOf(kind)
+      .map((u) => UNIT_LABEL[u])
+      .join(', ');
     report(field, 'unknown_unit', `"${shorten(text)}" is not a ${kind} unit; use one of ${accepted}.`);
     return fallback;
   };
 
   const { units } = ctx.mapping;
   const position = readWell(readText(cell('well')), (code, detail) => report('well', code, detail));
-  const target = readTarget(ctx.mapping.fixedTarget ?? readText(cell('target')), ctx, (code, detail) => report('target', code, detail));
+  const target = readTarget(ctx.mapping.fixedTarget ?? readText(cell('target')), ctx, (code, detail) =>
+    report('target', code, detail),
+  );
   const compoundText = readText(cell('compound'));
-  const role = readRole(readText(cell('role')), compoundText, ctx, (detail) => report('role', 'unknown_role', detail));
-  const compound = role === 'test' ? checkCompound(compoundText, ctx, (code, detail) => report('compound', code, detail)) : compoundText;
-  const concentration_uM = quantity('concentration', rowUnit('concentrationUnit', 'concentration', units.concentration));
-  if (role === 'test' && concentration_uM === null && !issues.some((issue) => issue.field === 'concentration')) {
+  const role = readRole(readText(cell('role')), compoundText, ctx, (detail) =>
+    report('role', 'unknown_role', detail),
+  );
+  const compound =
+    role === 'test'
+      ? checkCompound(compoundText, ctx, (code, detail) => report('compound', code, detail))
+      : compoundText;
+  const concentration_uM = quantity(
+    'concentration',
+    rowUnit('concentrationUnit', 'concentration', units.concentration),
+  );
+  if (
+    role === 'test' &&
+    concentration_uM === null &&
+    !issues.some((issue) => issue.field === 'concentration')
+  ) {
     report('concentration', 'missing_concentration', 'a test well needs a concentration; the cell is empty.');
   } else if (role === 'test' && concentration_uM === 0) {
     report('concentration', 'missing_concentration', 'a test well needs a concentration above 0.');
   }
-  const currentUnit = (fallback: Unit) => (ctx.columns.currentUnit ? rowUnit('currentUnit', 'current', fallback) : fallback);
+  const currentUnit = (fallback: Unit) =>
+    ctx.columns.currentUnit ? rowUnit('currentUnit', 'current', fallback) : fallback;
   const controlCurrent_pA = quantity('controlCurrent', currentUnit(units.controlCurrent));
-  if (controlCurrent_pA === 0) report('controlCurrent', 'zero_control_current', 'control current is 0; block cannot be computed without a control current.');
+  if (controlCurrent_pA === 0)
+    report(
+      'controlCurrent',
+      'zero_control_current',
+      'control current is 0; block cannot be computed without a control current.',
+    );
   const values: RowValues = {
     well: position?.label ?? null,
     rowIndex: position?.rowIndex ?? null,
@@ -105,7 +149,11 @@ function readWell(text: string | null, report: Report) {
     return null;
   }
   const position = parseWellPosition(text);
-  if (!position) report('invalid_well', `"${shorten(text)}" is not a well position; write it as a row letter and column number, like A1 or A01.`);
+  if (!position)
+    report(
+      'invalid_well',
+      `"${shorten(text)}" is not a well position; write it as a row letter and column number, like A1 or A01.`,
+    );
   return position;
 }
 
@@ -121,12 +169,20 @@ function readTarget(text: string | null, ctx: RowContext, report: Report): strin
   return text;
 }
 
-function readRole(roleText: string | null, compound: string | null, ctx: RowContext, report: (detail: string) => void): WellRole {
-  const marks = (text: string | null, role: WellRole) => text !== null && ctx.markers[role].has(normaliseLabel(text));
+function readRole(
+  roleText: string | null,
+  compound: string | null,
+  ctx: RowContext,
+  report: (detail: string) => void,
+): WellRole {
+  const marks = (text: string | null, role: WellRole) =>
+    text !== null && ctx.markers[role].has(normaliseLabel(text));
   if (roleText !== null) {
     for (const role of ['vehicle', 'reference', 'test'] as const) if (marks(roleText, role)) return role;
     const list = (role: WellRole) => ctx.mapping.markers[role].join(', ');
-    report(`role "${shorten(roleText)}" is not a known word for vehicle (${list('vehicle')}), reference (${list('reference')}) or test (${list('test')}) wells.`);
+    report(
+      `role "${shorten(roleText)}" is not a known word for vehicle (${list('vehicle')}), reference (${list('reference')}) or test (${list('test')}) wells.`,
+    );
   }
   return marks(compound, 'vehicle') ? 'vehicle' : marks(compound, 'reference') ? 'reference' : 'test';
 }
@@ -138,6 +194,9 @@ function checkCompound(text: string | null, ctx: RowContext, report: Report): st
   }
   const registered = ctx.compounds.get(normaliseIdentifier(text));
   if (registered) return registered;
-  report('unknown_compound', `compound "${shorten(text)}" is not registered; register it or correct the identifier.`);
+  report(
+    'unknown_compound',
+    `compound "${shorten(text)}" is not registered; register it or correct the identifier.`,
+  );
   return text;
 }

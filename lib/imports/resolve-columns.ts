@@ -15,7 +15,10 @@ export interface ResolvedColumn {
 export type ResolvedColumns = Partial<Record<ImportField, ResolvedColumn>>;
 
 /** Finds each mapped header in the header row; reports headers that are absent or repeated and required fields left out. */
-export function resolveColumns(sheet: SheetData, mapping: ColumnMapping): { columns: ResolvedColumns; issues: ImportIssue[] } {
+export function resolveColumns(
+  sheet: SheetData,
+  mapping: ColumnMapping,
+): { columns: ResolvedColumns; issues: ImportIssue[] } {
   const row = mapping.headerRow;
   const headerCells = (sheet.rows[row - 1] ?? []).map((cell) => (cell === null ? '' : String(cell).trim()));
   const columns: ResolvedColumns = {};
@@ -23,7 +26,8 @@ export function resolveColumns(sheet: SheetData, mapping: ColumnMapping): { colu
   for (const field of IMPORT_FIELDS) {
     const wanted = mapping.columns[field];
     if (wanted === null) {
-      const optional = !REQUIRED_FIELDS.includes(field) || (field === 'target' && mapping.fixedTarget !== null);
+      const optional =
+        !REQUIRED_FIELDS.includes(field) || (field === 'target' && mapping.fixedTarget !== null);
       if (!optional) {
         const detail = `no column is chosen for the ${FIELD_LABEL[field]}, which every plate needs.`;
         issues.push(makeIssue({ code: 'missing_column', sheet: sheet.name, row, field, detail }));
@@ -31,7 +35,9 @@ export function resolveColumns(sheet: SheetData, mapping: ColumnMapping): { colu
       continue;
     }
     const key = normaliseLabel(wanted);
-    const found = headerCells.flatMap((header, index) => (header !== '' && normaliseLabel(header) === key ? [index] : []));
+    const found = headerCells.flatMap((header, index) =>
+      header !== '' && normaliseLabel(header) === key ? [index] : [],
+    );
     const first = found[0];
     if (first === undefined) {
       const detail = `the header row has no column "${wanted}" (chosen for the ${FIELD_LABEL[field]}); its headers are ${listHeaders(headerCells)}.`;
@@ -52,5 +58,7 @@ export function resolveColumns(sheet: SheetData, mapping: ColumnMapping): { colu
 function listHeaders(headers: string[]): string {
   const named = headers.filter((header) => header !== '').map((header) => `"${header}"`);
   if (named.length === 0) return 'all blank';
-  return named.length > 12 ? `${named.slice(0, 12).join(', ')} and ${named.length - 12} more` : named.join(', ');
+  return named.length > 12
+    ? `${named.slice(0, 12).join(', ')} and ${named.length - 12} more`
+    : named.join(', ');
 }

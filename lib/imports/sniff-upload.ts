@@ -25,16 +25,20 @@ export function sniffUpload(bytes: Uint8Array, filename: string): SniffResult {
   if (startsWith(bytes, ZIP)) return { kind: 'workbook', format: 'xlsx' };
   if (startsWith(bytes, COMPOUND_FILE)) return { kind: 'workbook', format: 'xls' };
   const known = KNOWN_BINARIES.find((entry) => startsWith(bytes, entry.magic));
-  if (known) return refuse(`${filename} is ${known.label}, not a spreadsheet. Upload an xlsx, xls or csv file.`);
+  if (known)
+    return refuse(`${filename} is ${known.label}, not a spreadsheet. Upload an xlsx, xls or csv file.`);
   const extension = extensionOf(filename);
   const head = bytes.subarray(0, 8192);
   const utf16 = (head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff);
   if (!utf16 && head.includes(0)) {
-    return refuse(`${filename} holds binary data that is not a spreadsheet Gatewell can read. Upload an xlsx, xls or csv file.`);
+    return refuse(
+      `${filename} holds binary data that is not a spreadsheet Gatewell can read. Upload an xlsx, xls or csv file.`,
+    );
   }
   const decoded = decodeText(bytes);
   if (!decoded.ok) {
-    if (!TEXT_EXTENSIONS.has(extension)) return refuse(`${filename} is not a spreadsheet: it is neither an xlsx or xls workbook nor text.`);
+    if (!TEXT_EXTENSIONS.has(extension))
+      return refuse(`${filename} is not a spreadsheet: it is neither an xlsx or xls workbook nor text.`);
     const byte = decoded.byte.toString(16).toUpperCase().padStart(2, '0');
     return {
       kind: 'refused',
@@ -47,7 +51,9 @@ export function sniffUpload(bytes: Uint8Array, filename: string): SniffResult {
   const text = decoded.text;
   if (/^\s*</.test(text.slice(0, 1024)) && extension === 'xls') return { kind: 'markup', text };
   if (TEXT_EXTENSIONS.has(extension) || /[,;\t]/.test(firstLine(text))) return { kind: 'delimited', text };
-  return refuse(`${filename} is plain text without columns, not a spreadsheet. Upload an xlsx, xls or csv file.`);
+  return refuse(
+    `${filename} is plain text without columns, not a spreadsheet. Upload an xlsx, xls or csv file.`,
+  );
 }
 
 /** The lower-case extension of a file name, without the dot; empty when there is none. */

@@ -38,5 +38,4 @@ export interface SpreadsheetError {
 
 /** The outcome of reading an upload: its sheets, or why it could not be read. */
 export type ParseSpreadsheetResult =
-  | { ok: true; format: SpreadsheetFormat; sheets: SheetData[] }
-  | { ok: false; error: SpreadsheetError };
+  { ok: true; format: SpreadsheetFormat; sheets: SheetData[] } | { ok: false; error: SpreadsheetError };

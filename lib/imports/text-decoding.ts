@@ -3,8 +3,7 @@ import 'server-only';
 
 /** Decoded text, or where the bytes stop being valid UTF-8 (0-based byte offset, 1-based line). */
 export type DecodeTextResult =
-  | { ok: true; text: string }
-  | { ok: false; offset: number; line: number; byte: number };
+  { ok: true; text: string } | { ok: false; offset: number; line: number; byte: number };
 
 /** Decodes bytes as text, honouring a UTF-8 or UTF-16 byte-order mark; the mark is dropped. */
 export function decodeText(bytes: Uint8Array): DecodeTextResult {
@@ -38,7 +37,14 @@ export function firstInvalidUtf8(bytes: Uint8Array): number {
       i += 1;
       continue;
     }
-    const extra = lead >= 0xc2 && lead <= 0xdf ? 1 : lead >= 0xe0 && lead <= 0xef ? 2 : lead >= 0xf0 && lead <= 0xf4 ? 3 : 0;
+    const extra =
+      lead >= 0xc2 && lead <= 0xdf
+        ? 1
+        : lead >= 0xe0 && lead <= 0xef
+          ? 2
+          : lead >= 0xf0 && lead <= 0xf4
+            ? 3
+            : 0;
     if (extra === 0 || i + extra >= bytes.length) return i;
     const [low, high] = secondByteRange(lead);
     const second = bytes[i + 1] ?? 0;

@@ -12,7 +12,8 @@ export type CapacitanceUnit = (typeof CAPACITANCE_UNITS)[number];
 export type Unit = ConcentrationUnit | CurrentUnit | ResistanceUnit | CapacitanceUnit;
 
 /** What a number measures; seal and series resistance share units but not their canonical unit. */
-export type QuantityKind = 'concentration' | 'current' | 'sealResistance' | 'seriesResistance' | 'capacitance';
+export type QuantityKind =
+  'concentration' | 'current' | 'sealResistance' | 'seriesResistance' | 'capacitance';
 
 /** Canonical unit per quantity: concentration µM, current pA, seal GΩ, series MΩ, capacitance pF. */
 export const CANONICAL_UNIT: Record<QuantityKind, Unit> = {
@@ -24,7 +25,19 @@ export const CANONICAL_UNIT: Record<QuantityKind, Unit> = {
 };
 
 /** Decimal exponent of each unit relative to its SI base unit (mol/L, A, Ω, F). */
-const EXPONENT: Record<Unit, number> = { pM: -12, nM: -9, uM: -6, mM: -3, M: 0, pA: -12, nA: -9, MOhm: 6, GOhm: 9, pF: -12, nF: -9 };
+const EXPONENT: Record<Unit, number> = {
+  pM: -12,
+  nM: -9,
+  uM: -6,
+  mM: -3,
+  M: 0,
+  pA: -12,
+  nA: -9,
+  MOhm: 6,
+  GOhm: 9,
+  pF: -12,
+  nF: -9,
+};
 
 const UNITS_OF: Record<QuantityKind, readonly Unit[]> = {
   concentration: CONCENTRATION_UNITS,
@@ -50,7 +63,19 @@ const SPELLINGS: Record<Unit, string[]> = {
 };
 
 /** Unit names as people read them. */
-export const UNIT_LABEL: Record<Unit, string> = { pM: 'pM', nM: 'nM', uM: 'µM', mM: 'mM', M: 'M', pA: 'pA', nA: 'nA', MOhm: 'MΩ', GOhm: 'GΩ', pF: 'pF', nF: 'nF' };
+export const UNIT_LABEL: Record<Unit, string> = {
+  pM: 'pM',
+  nM: 'nM',
+  uM: 'µM',
+  mM: 'mM',
+  M: 'M',
+  pA: 'pA',
+  nA: 'nA',
+  MOhm: 'MΩ',
+  GOhm: 'GΩ',
+  pF: 'pF',
+  nF: 'nF',
+};
 
 /** The units accepted for a quantity. */
 export function unitsOf(kind: QuantityKind): readonly Unit[] {

@@ -39,17 +39,36 @@ export interface PlatePreview {
 }
 
 /** Checks a sheet against a column mapping and the screen's names, and builds the parsed plate. */
-export function validatePlateSheet(sheet: SheetData, mappingInput: ColumnMappingInput, options: ValidatePlateOptions): PlatePreview {
+export function validatePlateSheet(
+  sheet: SheetData,
+  mappingInput: ColumnMappingInput,
+  options: ValidatePlateOptions,
+): PlatePreview {
   const mapping = columnMappingDraftSchema.parse(mappingInput);
   const headerRow = mapping.headerRow;
-  const finish = (rows: PreviewRow[], sheetIssues: ImportIssue[], columns: PlatePreview['columns'], plate: ParsedPlate | null) =>
-    summarise({ sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate });
+  const finish = (
+    rows: PreviewRow[],
+    sheetIssues: ImportIssue[],
+    columns: PlatePreview['columns'],
+    plate: ParsedPlate | null,
+  ) => summarise({ sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate });
   if (!sheet.rows.some((row) => !isBlank(row))) {
-    return finish([], [makeIssue({ code: 'empty_sheet', sheet: sheet.name, detail: 'the sheet is empty.' })], {}, null);
+    return finish(
+      [],
+      [makeIssue({ code: 'empty_sheet', sheet: sheet.name, detail: 'the sheet is empty.' })],
+      {},
+      null,
+    );
   }
   const { columns, issues } = resolveColumns(sheet, mapping);
   if (issues.length > 0) return finish([], issues, columns, null);
-  const ctx = makeRowContext({ sheet: sheet.name, decimalComma: sheet.decimalComma, columns, mapping, ...options });
+  const ctx = makeRowContext({
+    sheet: sheet.name,
+    decimalComma: sheet.decimalComma,
+    columns,
+    mapping,
+    ...options,
+  });
   const rows: PreviewRow[] = [];
   sheet.rows.forEach((cells, index) => {
     if (index >= headerRow && !isBlank(cells)) rows.push(readRow(cells, index + 1, ctx));
@@ -67,7 +86,9 @@ function isBlank(row: Cell[]): boolean {
   return row.every((cell) => cell === null || (typeof cell === 'string' && cell.trim() === ''));
 }
 
-function summarise(input: Omit<PlatePreview, 'unknownCompounds' | 'unknownTargets' | 'summary' | 'ok'>): PlatePreview {
+function summarise(
+  input: Omit<PlatePreview, 'unknownCompounds' | 'unknownTargets' | 'summary' | 'ok'>,
+): PlatePreview {
   for (const row of input.rows) row.issues.sort((a, b) => columnOrder(a) - columnOrder(b));
   const issues = [...input.issues, ...input.rows.flatMap((row) => row.issues)];
   const errors = issues.filter((issue) => issue.severity === 'error').length;
@@ -77,9 +98,20 @@ function summarise(input: Omit<PlatePreview, 'unknownCompounds' | 'unknownTarget
     ...input,
     plate,
     issues,
-    unknownCompounds: gather(input.rows, 'unknown_compound', (row) => row.values.compound).map(([identifier, rows]) => ({ identifier, rows })),
-    unknownTargets: gather(input.rows, 'unknown_target', (row) => row.values.target).map(([name, rows]) => ({ name, rows })),
-    summary: { rows: input.rows.length, okRows, errorRows: input.rows.length - okRows, errors, warnings: issues.length - errors },
+    unknownCompounds: gather(input.rows, 'unknown_compound', (row) => row.values.compound).map(
+      ([identifier, rows]) => ({ identifier, rows }),
+    ),
+    unknownTargets: gather(input.rows, 'unknown_target', (row) => row.values.target).map(([name, rows]) => ({
+      name,
+      rows,
+    })),
+    summary: {
+      rows: input.rows.length,
+      okRows,
+      errorRows: input.rows.length - okRows,
+      errors,
+      warnings: issues.length - errors,
+    },
     ok: errors === 0 && plate !== null,
   };
 }
@@ -89,7 +121,11 @@ function columnOrder(issue: ImportIssue): number {
   return [...letter].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
 }
 
-function gather(rows: PreviewRow[], code: ImportIssue['code'], name: (row: PreviewRow) => string | null): [string, number[]][] {
+function gather(
+  rows: PreviewRow[],
+  code: ImportIssue['code'],
+  name: (row: PreviewRow) => string | null,
+): [string, number[]][] {
   const found = new Map<string, number[]>();
   for (const row of rows) {
     const value = name(row);

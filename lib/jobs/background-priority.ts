@@ -15,10 +15,19 @@ const store = globalThis as { [PRIORITY_KEY]?: BackgroundPriority };
 
 const execFileAsync = promisify(execFile);
 /** chrt(1) arguments that put a process (every thread with allThreads) in SCHED_IDLE. */
-const idleArguments = (pid: number, allThreads: boolean) => ['--idle', ...(allThreads ? ['--all-tasks'] : []), '--pid', '0', String(pid)];
+const idleArguments = (pid: number, allThreads: boolean) => [
+  '--idle',
+  ...(allThreads ? ['--all-tasks'] : []),
+  '--pid',
+  '0',
+  String(pid),
+];
 
 /** Scheduling policy of a thread as /proc/<pid>/task/<tid>/stat gives it (field 41; sched_setscheduler(2) numbers). */
-export function schedulingPolicy(pid: number, tid: number = pid): 'normal' | 'fifo' | 'round-robin' | 'batch' | 'idle' | 'deadline' {
+export function schedulingPolicy(
+  pid: number,
+  tid: number = pid,
+): 'normal' | 'fifo' | 'round-robin' | 'batch' | 'idle' | 'deadline' {
   const fields = readFileSync(`/proc/${pid}/task/${tid}/stat`, 'utf8').split(') ')[1]!.split(' ');
   const policies = ['normal', 'fifo', 'round-robin', 'batch', null, 'idle', 'deadline'] as const;
   const policy = policies[Number(fields[38])];
@@ -40,8 +49,12 @@ export function schedulingPolicy(pid: number, tid: number = pid): 'normal' | 'fi
  * Returns where the process now is, or null when the system refused the nice value (a process may
  * raise its own nice value, never lower it without privilege).
  */
-export function runInBackground(niceness: number, options: { idle?: boolean } = {}): BackgroundPriority | null {
-  if (!Number.isInteger(niceness) || niceness < 0 || niceness > 19) throw new RangeError('niceness must be a whole number from 0 to 19');
+export function runInBackground(
+  niceness: number,
+  options: { idle?: boolean } = {},
+): BackgroundPriority | null {
+  if (!Number.isInteger(niceness) || niceness < 0 || niceness > 19)
+    throw new RangeError('niceness must be a whole number from 0 to 19');
   try {
     setPriority(niceness);
     let threads: string[] = [];
@@ -84,16 +97,23 @@ interface QueryClient {
  * a refusal (another user's process without privilege) or any other failure leaves the priority as it
  * was. Returns what was set, or null.
  */
-export async function lowerBackendPriority(client: QueryClient, priority: BackgroundPriority): Promise<BackgroundPriority | null> {
+export async function lowerBackendPriority(
+  client: QueryClient,
+  priority: BackgroundPriority,
+): Promise<BackgroundPriority | null> {
   try {
     const { rows } = await client.query('select pg_backend_pid() as pid, host(inet_server_addr()) as host');
     const backend = rows[0];
-    if (!backend || (backend.host !== null && backend.host !== '127.0.0.1' && backend.host !== '::1')) return null;
+    if (!backend || (backend.host !== null && backend.host !== '127.0.0.1' && backend.host !== '::1'))
+      return null;
     if (readFileSync(`/proc/${backend.pid}/comm`, 'utf8').trim() !== 'postgres') return null;
     setPriority(backend.pid, priority.niceness);
     let idle = false;
     if (priority.idle) {
-      idle = await execFileAsync('chrt', idleArguments(backend.pid, false), { timeout: 5_000 }).then(() => true, () => false);
+      idle = await execFileAsync('chrt', idleArguments(backend.pid, false), { timeout: 5_000 }).then(
+        () => true,
+        () => false,
+      );
     }
     return { niceness: priority.niceness, idle };
   } catch {

@@ -35,7 +35,10 @@ export type ForecastPayload = z.output<typeof forecastPayloadSchema>;
 /** A forecast run over a plate: the exposure index for the traces (null: the highest) and who asked. */
 export const plateForecastsPayloadSchema = z.strictObject({
   plateId: id('plateId'),
-  at: z.int({ error: 'at must be a whole number or null' }).min(0, { error: 'at must be 0 or more' }).nullable(),
+  at: z
+    .int({ error: 'at must be a whole number or null' })
+    .min(0, { error: 'at must be 0 or more' })
+    .nullable(),
   requestedBy: id('requestedBy'),
 });
 export type PlateForecastsPayload = z.output<typeof plateForecastsPayloadSchema>;

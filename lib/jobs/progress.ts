@@ -23,8 +23,17 @@ export interface JobView {
 
 export function jobView(job: ComputeJob): JobView {
   return {
-    id: job.id, kind: job.kind, state: job.state, done: job.done, total: job.total, message: job.message, attempts: job.attempts, worker: job.worker,
-    createdAt: job.createdAt.toISOString(), startedAt: job.startedAt?.toISOString() ?? null, finishedAt: job.finishedAt?.toISOString() ?? null,
+    id: job.id,
+    kind: job.kind,
+    state: job.state,
+    done: job.done,
+    total: job.total,
+    message: job.message,
+    attempts: job.attempts,
+    worker: job.worker,
+    createdAt: job.createdAt.toISOString(),
+    startedAt: job.startedAt?.toISOString() ?? null,
+    finishedAt: job.finishedAt?.toISOString() ?? null,
   };
 }
 
@@ -62,6 +71,8 @@ export async function plateJobs(actor: Actor, plateId: string): Promise<PlateJob
   return {
     fitsPending: plate.fitsPending,
     fittedAt: plate.fittedAt?.toISOString() ?? null,
-    jobs: jobs.filter((j) => j.createdAt.getTime() > dayAgo || j.state === 'queued' || j.state === 'running').map(jobView),
+    jobs: jobs
+      .filter((j) => j.createdAt.getTime() > dayAgo || j.state === 'queued' || j.state === 'running')
+      .map(jobView),
   };
 }

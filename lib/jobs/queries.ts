@@ -14,12 +14,22 @@ export const QUEUE_SCHEMA = 'pgboss';
 
 /** Serialises enqueues of one key until the transaction ends. SQL: an advisory lock has no model call. */
 export async function lockJobKey(key: string, transaction: Transaction): Promise<void> {
-  await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', { replacements: { key: `job:${key}` }, transaction });
+  await db().query('select pg_advisory_xact_lock(hashtextextended(:key, 0))', {
+    replacements: { key: `job:${key}` },
+    transaction,
+  });
 }
 
 /** Notifies listeners on the channel when the transaction commits. SQL: NOTIFY has no model call. */
-export async function notifyChannel(channel: string, payload: string, transaction: Transaction): Promise<void> {
-  await db().query('select pg_notify(:channel, :payload)', { replacements: { channel, payload }, transaction });
+export async function notifyChannel(
+  channel: string,
+  payload: string,
+  transaction: Transaction,
+): Promise<void> {
+  await db().query('select pg_notify(:channel, :payload)', {
+    replacements: { channel, payload },
+    transaction,
+  });
 }
 
 /** Starts listening on the channel over the client's own connection. SQL: LISTEN belongs to that raw pg connection, not Sequelize's pool. */

@@ -28,7 +28,10 @@ interface QueueState {
 
 // On globalThis so that Next's separate server bundles and development reloads share one connection.
 const STATE_KEY = Symbol.for('gatewell.jobs.queue');
-const state: QueueState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as QueueState | undefined) ?? { boss: null, workers: new Map() };
+const state: QueueState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as QueueState | undefined) ?? {
+  boss: null,
+  workers: new Map(),
+};
 (globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
 
 /** The process's pg-boss instance, started (schema created or migrated) and with every queue in place. */
@@ -73,7 +76,10 @@ function wakeLocalWorkers(boss: PgBoss, kind: ComputeJobKind): void {
 
 /** Wakes this process's workers of a kind at once (a job was queued by another process: lib/jobs/wake.ts). */
 export function wakeWorkers(kind: ComputeJobKind): void {
-  void state.boss?.then((boss) => wakeLocalWorkers(boss, kind), () => undefined);
+  void state.boss?.then(
+    (boss) => wakeLocalWorkers(boss, kind),
+    () => undefined,
+  );
 }
 
 /** Cancels a job that no worker has taken (its compute_jobs row is the caller's to close). */
@@ -117,11 +123,18 @@ export interface QueuedJob {
  * job then exists only if that transaction commits), otherwise in a transaction of its own. A payload
  * that does not match its kind's schema is refused with a JobPayloadError before anything is written.
  */
-export async function enqueueJob<Kind extends ComputeJobKind>(request: JobRequest<Kind>, transaction?: Transaction): Promise<QueuedJob> {
+export async function enqueueJob<Kind extends ComputeJobKind>(
+  request: JobRequest<Kind>,
+  transaction?: Transaction,
+): Promise<QueuedJob> {
   const data = checkJobPayload(request.kind, request.data);
   const boss = await jobQueue();
   const open = (t: Transaction, states: ComputeJob['state'][]) =>
-    ComputeJob.findOne({ where: { jobKey: request.key, kind: request.kind, state: { [Op.in]: states } }, order: [['createdAt', 'DESC']], transaction: t });
+    ComputeJob.findOne({
+      where: { jobKey: request.key, kind: request.kind, state: { [Op.in]: states } },
+      order: [['createdAt', 'DESC']],
+      transaction: t,
+    });
   const run = async (t: Transaction): Promise<QueuedJob> => {
     // One enqueue per key at a time: a second request sees the first one's job once it is committed.
     await lockJobKey(request.key, t);
@@ -129,10 +142,21 @@ export async function enqueueJob<Kind extends ComputeJobKind>(request: JobReques
       const running = await open(t, ['queued', 'running']);
       if (running) return { id: running.id, created: false };
     }
-    const id = await boss.send(JOB_KINDS[request.kind].queue, data, { singletonKey: request.key, db: throughTransaction(t) });
+    const id = await boss.send(JOB_KINDS[request.kind].queue, data, {
+      singletonKey: request.key,
+      db: throughTransaction(t),
+    });
     if (id) {
       await ComputeJob.create(
-        { id, kind: request.kind, jobKey: request.key, plateId: request.plateId ?? null, compoundId: request.compoundId ?? null, requestedBy: request.requestedBy, total: request.total ?? null },
+        {
+          id,
+          kind: request.kind,
+          jobKey: request.key,
+          plateId: request.plateId ?? null,
+          compoundId: request.compoundId ?? null,
+          requestedBy: request.requestedBy,
+          total: request.total ?? null,
+        },
         { transaction: t },
       );
       await notifyWorkers(request.kind, t); // workers in other processes, on commit
@@ -140,7 +164,8 @@ export async function enqueueJob<Kind extends ComputeJobKind>(request: JobReques
       return { id, created: true };
     }
     const waiting = await open(t, ['queued', 'running']);
-    if (!waiting) throw new Error(`job ${request.key} was refused by the queue and no waiting job has that key`);
+    if (!waiting)
+      throw new Error(`job ${request.key} was refused by the queue and no waiting job has that key`);
     return { id: waiting.id, created: false };
   };
   return transaction ? run(transaction) : db().transaction(run);

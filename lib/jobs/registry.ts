@@ -16,10 +16,16 @@ import { describePayloadIssues, JOB_KINDS } from './kinds';
  * Only lib/jobs/worker.ts imports this module; the modules that queue jobs import lib/jobs/queue.ts.
  */
 export const jobRegistry: Record<ComputeJobKind, RegisteredJobKind> = {
-  'plate-fits': register(JOB_KINDS['plate-fits'], runPlateFitsJob, { concurrency: 2, sweep: requeueLostRefits }),
+  'plate-fits': register(JOB_KINDS['plate-fits'], runPlateFitsJob, {
+    concurrency: 2,
+    sweep: requeueLostRefits,
+  }),
   forecast: register(JOB_KINDS.forecast, runForecastJob, { concurrency: 2 }),
   'plate-forecasts': register(JOB_KINDS['plate-forecasts'], runPlateForecasts, { concurrency: 1 }),
-  'plate-import': register(JOB_KINDS['plate-import'], runQueuedImport, { concurrency: 1, sweep: sweepImports }),
+  'plate-import': register(JOB_KINDS['plate-import'], runQueuedImport, {
+    concurrency: 1,
+    sweep: sweepImports,
+  }),
 };
 
 /**
@@ -38,7 +44,11 @@ function register<Payload extends PayloadSchema>(
     run: async (data, context) => {
       const parsed = definition.payload.safeParse(data);
       if (!parsed.success) {
-        throw new AppError('invalid', `The job's payload is not valid, so it was not run: ${describePayloadIssues(parsed.error)}.`, { issues: parsed.error.issues });
+        throw new AppError(
+          'invalid',
+          `The job's payload is not valid, so it was not run: ${describePayloadIssues(parsed.error)}.`,
+          { issues: parsed.error.issues },
+        );
       }
       return handler(parsed.data, context);
     },

@@ -46,7 +46,10 @@ export function listenForJobs(wake: (kind: ComputeJobKind) => void): Listener {
   };
 
   const connect = async () => {
-    const next = new pg.Client({ connectionString: env().DATABASE_URL, application_name: 'gatewell-job-wake' });
+    const next = new pg.Client({
+      connectionString: env().DATABASE_URL,
+      application_name: 'gatewell-job-wake',
+    });
     client = next;
     const lost = () => {
       if (client !== next) return;

@@ -29,13 +29,17 @@ interface WorkerState {
   wake: { stop(): Promise<void> } | null;
 }
 const STATE_KEY = Symbol.for('gatewell.jobs.worker');
-const state: WorkerState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as WorkerState | undefined) ?? { sweep: null, running: false, wake: null };
+const state: WorkerState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as
+  WorkerState | undefined) ?? { sweep: null, running: false, wake: null };
 (globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
 
 async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<unknown>): Promise<void> {
   db();
   const attempt = job.retryCount + 1;
-  await ComputeJob.update({ state: 'running', startedAt: new Date(), attempts: attempt, worker: workerName, message: null }, { where: { id: job.id } });
+  await ComputeJob.update(
+    { state: 'running', startedAt: new Date(), attempts: attempt, worker: workerName, message: null },
+    { where: { id: job.id } },
+  );
   const context: JobContext = {
     id: job.id,
     progress: async (done, total) => {
@@ -45,14 +49,22 @@ async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<unknown>
   try {
     const message = await jobRegistry[kind].run(job.data, context);
     // An import job records its end inside the plate's own transaction: that row is left as it is.
-    await ComputeJob.update({ state: 'done', finishedAt: new Date(), message }, { where: { id: job.id, state: { [Op.ne]: 'done' } } });
+    await ComputeJob.update(
+      { state: 'done', finishedAt: new Date(), message },
+      { where: { id: job.id, state: { [Op.ne]: 'done' } } },
+    );
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     // A refusal (bad input, a payload that fails its schema) will not change on a retry: the job ends here. Anything else is retried.
     const final = (isAppError(error) && error.code === 'invalid') || job.retryCount >= job.retryLimit;
     await ComputeJob.update(
       final
-        ? { state: 'failed', finishedAt: new Date(), message: reason, outcome: isAppError(error) ? { code: error.code, details: error.details ?? null } : null }
+        ? {
+            state: 'failed',
+            finishedAt: new Date(),
+            message: reason,
+            outcome: isAppError(error) ? { code: error.code, details: error.details ?? null } : null,
+          }
         : { state: 'queued', message: `Attempt ${attempt} failed (${reason}); it will be tried again.` },
       { where: { id: job.id } },
     ).catch(() => undefined);
@@ -80,12 +92,20 @@ export async function sweepJobs(): Promise<{ closed: number; requeued: number }>
  * number of processes on any number of machines may do this against one database: each job goes
  * to exactly one worker.
  */
-export async function startJobWorkers(options: { kinds?: ComputeJobKind[]; concurrency?: Partial<Record<ComputeJobKind, number>>; sweep?: boolean } = {}): Promise<void> {
+export async function startJobWorkers(
+  options: {
+    kinds?: ComputeJobKind[];
+    concurrency?: Partial<Record<ComputeJobKind, number>>;
+    sweep?: boolean;
+  } = {},
+): Promise<void> {
   if (state.running) return;
   state.running = true;
   const boss = await jobQueue();
   const kinds = options.kinds ?? [...COMPUTE_JOB_KINDS];
-  state.wake = listenForJobs((kind) => { if (kinds.includes(kind)) wakeWorkers(kind); });
+  state.wake = listenForJobs((kind) => {
+    if (kinds.includes(kind)) wakeWorkers(kind);
+  });
   for (const kind of kinds) {
     const entry = jobRegistry[kind];
     const count = options.concurrency?.[kind] ?? entry.concurrency;
@@ -93,13 +113,20 @@ export async function startJobWorkers(options: { kinds?: ComputeJobKind[]; concu
       const id = await boss.work<unknown>(
         entry.definition.queue,
         { batchSize: 1, pollingIntervalSeconds: 1, includeMetadata: true },
-        async ([job]) => { if (job) await runJob(kind, job); },
+        async ([job]) => {
+          if (job) await runJob(kind, job);
+        },
       );
       registerLocalWorker(kind, id);
     }
   }
   if (options.sweep !== false) {
-    const sweep = () => sweepJobs().catch((error: unknown) => console.error(`[gatewell jobs] sweep failed: ${error instanceof Error ? error.message : String(error)}`));
+    const sweep = () =>
+      sweepJobs().catch((error: unknown) =>
+        console.error(
+          `[gatewell jobs] sweep failed: ${error instanceof Error ? error.message : String(error)}`,
+        ),
+      );
     await sweep();
     state.sweep = setInterval(sweep, SWEEP_INTERVAL_MS);
     state.sweep.unref();

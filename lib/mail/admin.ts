@@ -33,7 +33,16 @@ export async function hurryWaitingMail(actor: Actor): Promise<number> {
   return db().transaction(async (transaction) => {
     const rows = await bringWaitingMailForward(transaction);
     if (rows.length) {
-      await recordAudit({ actorId: actor.id, action: 'hurry_mail', entityType: 'mail_outbox', after: { messages: rows.map((r) => r.id) }, address: actor.address }, transaction);
+      await recordAudit(
+        {
+          actorId: actor.id,
+          action: 'hurry_mail',
+          entityType: 'mail_outbox',
+          after: { messages: rows.map((r) => r.id) },
+          address: actor.address,
+        },
+        transaction,
+      );
     }
     return rows.length;
   });
@@ -45,11 +54,30 @@ export async function requeueMail(actor: Actor, messageId: string): Promise<void
   await db().transaction(async (transaction) => {
     const message = await MailMessage.findByPk(messageId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!message) throw new AppError('not_found', 'No such message in the outbox.');
-    if (message.state !== 'failed') throw new AppError('conflict', `This message is ${message.state}; only a failed message can be sent again.`);
+    if (message.state !== 'failed')
+      throw new AppError(
+        'conflict',
+        `This message is ${message.state}; only a failed message can be sent again.`,
+      );
     // Its link was cut from the kept copy when it failed (lib/mail/deliver.ts), and would have run out anyway.
-    if (LINK_MAIL_KINDS.includes(message.kind)) throw new AppError('conflict', 'A password link is not sent again; the person asks for a new one on the sign-in page ("Lost your password?").');
+    if (LINK_MAIL_KINDS.includes(message.kind))
+      throw new AppError(
+        'conflict',
+        'A password link is not sent again; the person asks for a new one on the sign-in page ("Lost your password?").',
+      );
     const before = { state: message.state, attempts: message.attempts, lastError: message.lastError };
     await message.update({ state: 'queued', attempts: 0, nextAttemptAt: new Date() }, { transaction });
-    await recordAudit({ actorId: actor.id, action: 'requeue_mail', entityType: 'mail_message', entityId: message.id, before, after: { state: 'queued', toAddress: message.toAddress }, address: actor.address }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'requeue_mail',
+        entityType: 'mail_message',
+        entityId: message.id,
+        before,
+        after: { state: 'queued', toAddress: message.toAddress },
+        address: actor.address,
+      },
+      transaction,
+    );
   });
 }

@@ -40,9 +40,17 @@ async function claimDue(now: Date, limit: number): Promise<ClaimedMail[]> {
 }
 
 /** Records an attempt's outcome; once a message has gone out (or never will), a password link in it is cut from the kept copy. */
-async function settle(id: string, outcome: { sent: true; response: string } | { sent: false; error: string; giveUp: boolean; retryAt: Date }) {
+async function settle(
+  id: string,
+  outcome: { sent: true; response: string } | { sent: false; error: string; giveUp: boolean; retryAt: Date },
+) {
   if (outcome.sent) await markMailSent(id, outcome.response.slice(0, 500));
-  else await markMailAttemptFailed(id, { state: outcome.giveUp ? 'failed' : 'queued', retryAt: outcome.retryAt, error: outcome.error.slice(0, 500) });
+  else
+    await markMailAttemptFailed(id, {
+      state: outcome.giveUp ? 'failed' : 'queued',
+      retryAt: outcome.retryAt,
+      error: outcome.error.slice(0, 500),
+    });
 }
 
 /**
@@ -64,8 +72,12 @@ export async function deliverDueMail(options: DeliveryOptions = {}): Promise<Del
         // Once the server cannot be reached, the rest of this run's messages wait for their retry too.
         if (unreachable) throw new Error(unreachable);
         const info = await transport.sendMail({
-          from: settings.from, to: message.toAddress, subject: message.subject, text: message.bodyText,
-          messageId: `<${message.id}@gatewell>`, headers: { 'X-Gatewell-Outbox-Id': message.id },
+          from: settings.from,
+          to: message.toAddress,
+          subject: message.subject,
+          text: message.bodyText,
+          messageId: `<${message.id}@gatewell>`,
+          headers: { 'X-Gatewell-Outbox-Id': message.id },
         });
         if (info.rejected.length) throw new Error(`recipient refused: ${info.response}`);
         await settle(message.id, { sent: true, response: info.response });
@@ -74,7 +86,12 @@ export async function deliverDueMail(options: DeliveryOptions = {}): Promise<Del
         const giveUp = message.attempts >= message.maxAttempts;
         const text = error instanceof Error ? error.message : String(error);
         if (CONNECTION_CODES.has((error as { code?: string }).code ?? '')) unreachable = text;
-        await settle(message.id, { sent: false, error: text, giveUp, retryAt: new Date(now.getTime() + retryDelayMs(message.attempts)) });
+        await settle(message.id, {
+          sent: false,
+          error: text,
+          giveUp,
+          retryAt: new Date(now.getTime() + retryDelayMs(message.attempts)),
+        });
         if (giveUp) report.failed++;
         else report.retrying++;
       }

@@ -32,17 +32,26 @@ const REDACTED_BODY = `body_text = ${REDACTED_BODY_VALUE}`;
 
 // SQL: the link is cut from the kept body by regexp_replace in the same update, with the database's clock for sent_at.
 export async function markMailSent(id: string, response: string): Promise<void> {
-  await db().query(`update mail_outbox set state = 'sent', sent_at = now(), smtp_response = :response, last_error = null, claimed_until = null, ${REDACTED_BODY} where id = :id`, {
-    replacements: { id, response },
-  });
+  await db().query(
+    `update mail_outbox set state = 'sent', sent_at = now(), smtp_response = :response, last_error = null, claimed_until = null, ${REDACTED_BODY} where id = :id`,
+    {
+      replacements: { id, response },
+    },
+  );
 }
 
 // SQL: on giving up the link is cut from the kept body by regexp_replace in the same update.
-export async function markMailAttemptFailed(id: string, failure: { state: 'failed' | 'queued'; retryAt: Date; error: string }): Promise<void> {
-  await db().query(`update mail_outbox set state = :state, next_attempt_at = :retryAt, last_error = :error, claimed_until = null,
-      body_text = case when :state = 'failed' then ${REDACTED_BODY_VALUE} else body_text end where id = :id`, {
-    replacements: { id, ...failure },
-  });
+export async function markMailAttemptFailed(
+  id: string,
+  failure: { state: 'failed' | 'queued'; retryAt: Date; error: string },
+): Promise<void> {
+  await db().query(
+    `update mail_outbox set state = :state, next_attempt_at = :retryAt, last_error = :error, claimed_until = null,
+      body_text = case when :state = 'failed' then ${REDACTED_BODY_VALUE} else body_text end where id = :id`,
+    {
+      replacements: { id, ...failure },
+    },
+  );
 }
 
 export interface OutboxRow {
@@ -82,7 +91,10 @@ export async function selectOutbox(state: MailState | undefined): Promise<Outbox
 
 // SQL: an aggregate, the number of messages per state, as plain rows.
 export async function countOutboxByState(): Promise<{ state: MailState; n: number }[]> {
-  return db().query<{ state: MailState; n: number }>('select state, count(*)::int as n from mail_outbox group by state', { type: QueryTypes.SELECT });
+  return db().query<{ state: MailState; n: number }>(
+    'select state, count(*)::int as n from mail_outbox group by state',
+    { type: QueryTypes.SELECT },
+  );
 }
 
 // SQL: one update by the database's clock that returns the ids it moved, in the caller's transaction.

@@ -21,7 +21,8 @@ export function sendDueMailNow(): Promise<void> {
   }
   state.running = deliverDueMail()
     .then((report) => {
-      if (report.retrying || report.failed) console.warn('mail outbox: some messages could not be sent', report);
+      if (report.retrying || report.failed)
+        console.warn('mail outbox: some messages could not be sent', report);
     })
     .catch((error: unknown) => console.error('mail outbox: delivery pass failed', error))
     .finally(() => {

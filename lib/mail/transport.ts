@@ -20,7 +20,10 @@ export type SmtpSettings = z.infer<typeof smtpSettingsSchema>;
 export function smtpSettingsFromEnv(): SmtpSettings {
   const e = env();
   return {
-    host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE === 'true', from: e.MAIL_FROM,
+    host: e.SMTP_HOST,
+    port: e.SMTP_PORT,
+    secure: e.SMTP_SECURE === 'true',
+    from: e.MAIL_FROM,
     ...(e.SMTP_USER ? { user: e.SMTP_USER, password: e.SMTP_PASSWORD ?? '' } : {}),
   };
 }

@@ -37,10 +37,22 @@ export interface AnalysisInput {
 export function analysisInput(wells: readonly WellData[], readouts: readonly ReadoutData[]): AnalysisInput {
   return {
     wells: wells.map((w) => ({
-      id: w.id, role: w.role, compoundId: w.compoundId, concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm,
-      seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF, excluded: w.excluded ?? false,
+      id: w.id,
+      role: w.role,
+      compoundId: w.compoundId,
+      concentration_uM: w.concentration_uM,
+      sealResistance_GOhm: w.sealResistance_GOhm,
+      seriesResistance_MOhm: w.seriesResistance_MOhm,
+      capacitance_pF: w.capacitance_pF,
+      excluded: w.excluded ?? false,
     })),
-    readouts: readouts.map((r) => ({ id: r.id, wellId: r.wellId, target: r.targetId, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA })),
+    readouts: readouts.map((r) => ({
+      id: r.id,
+      wellId: r.wellId,
+      target: r.targetId,
+      controlCurrent_pA: r.controlCurrent_pA,
+      compoundCurrent_pA: r.compoundCurrent_pA,
+    })),
   };
 }
 
@@ -51,9 +63,22 @@ export function analysisInput(wells: readonly WellData[], readouts: readonly Rea
 export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
   return analysisInput(
     plate.wells.map((w, i) => ({
-      id: String(i), role: w.role, compoundId: w.compound, concentration_uM: w.concentration_uM,
-      sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
+      id: String(i),
+      role: w.role,
+      compoundId: w.compound,
+      concentration_uM: w.concentration_uM,
+      sealResistance_GOhm: w.sealResistance_GOhm,
+      seriesResistance_MOhm: w.seriesResistance_MOhm,
+      capacitance_pF: w.capacitance_pF,
     })),
-    plate.wells.flatMap((w, i) => w.readouts.map((r) => ({ id: String(r.row), wellId: String(i), targetId: r.target, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA }))),
+    plate.wells.flatMap((w, i) =>
+      w.readouts.map((r) => ({
+        id: String(r.row),
+        wellId: String(i),
+        targetId: r.target,
+        controlCurrent_pA: r.controlCurrent_pA,
+        compoundCurrent_pA: r.compoundCurrent_pA,
+      })),
+    ),
   );
 }

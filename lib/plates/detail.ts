@@ -2,7 +2,14 @@ import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
 import { AppError } from '@/lib/errors';
 import { Target } from '@/models';
-import { selectPlateFits, selectPlateHeader, selectPlateWells, type FitRow, type PlateHeader, type WellRow } from './queries';
+import {
+  selectPlateFits,
+  selectPlateHeader,
+  selectPlateWells,
+  type FitRow,
+  type PlateHeader,
+  type WellRow,
+} from './queries';
 
 export type { FitRow, PlateHeader, WellRow } from './queries';
 
@@ -11,7 +18,12 @@ export async function getPlateHeader(actor: Actor, plateId: string): Promise<Pla
   void actor; // every signed-in role may read plates
   const plate = await selectPlateHeader(plateId);
   if (!plate) throw new AppError('not_found', 'No such plate.');
-  const targets = await Target.findAll({ attributes: ['id', 'name', 'conductance'], where: { screenId: plate.screenId }, order: [['name', 'ASC']], raw: true });
+  const targets = await Target.findAll({
+    attributes: ['id', 'name', 'conductance'],
+    where: { screenId: plate.screenId },
+    order: [['name', 'ASC']],
+    raw: true,
+  });
   return { ...plate, targets };
 }
 

@@ -1,7 +1,10 @@
 import type { FitAnalysis } from '@/lib/science/plate-analysis';
 
 /** The columns of a fits row for one analysed compound × target (ids resolved by the caller). */
-export function fitRow(fit: FitAnalysis, ids: { plateId: string; compoundId: string; targetId: string; computedBy: string | null }) {
+export function fitRow(
+  fit: FitAnalysis,
+  ids: { plateId: string; compoundId: string; targetId: string; computedBy: string | null },
+) {
   const r = fit.result;
   return {
     plateId: ids.plateId,

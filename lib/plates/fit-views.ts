@@ -20,9 +20,19 @@ export async function listFitViews(actor: Actor, plateId: string): Promise<FitVi
   return fits.map((fit: FitRow) => {
     const extra = byId.get(fit.id);
     const estimate = extra?.estimate;
-    const drawable = estimate?.parameters && (fit.status === 'fitted' || fit.status === 'above_range') && extra?.lowest && extra.highest;
+    const drawable =
+      estimate?.parameters &&
+      (fit.status === 'fitted' || fit.status === 'above_range') &&
+      extra?.lowest &&
+      extra.highest;
     const curve: BandPoint[] = drawable
-      ? hillBand(fit.model, estimate.parameters!, estimate.covariance ?? null, estimate.degreesOfFreedom ?? 0, grid(extra.lowest!, extra.highest!))
+      ? hillBand(
+          fit.model,
+          estimate.parameters!,
+          estimate.covariance ?? null,
+          estimate.degreesOfFreedom ?? 0,
+          grid(extra.lowest!, extra.highest!),
+        )
       : [];
     return { ...fit, status: fit.status as FitView['status'], curve };
   });

@@ -41,13 +41,24 @@ export interface DraftFile {
 }
 
 /** Keeps a file read at inspect as its owner's draft; returns its id and when it expires. */
-export async function createDraft(actor: Actor, input: DraftInput, now = new Date()): Promise<{ id: string; expiresAt: Date }> {
+export async function createDraft(
+  actor: Actor,
+  input: DraftInput,
+  now = new Date(),
+): Promise<{ id: string; expiresAt: Date }> {
   db();
   const expiresAt = new Date(now.getTime() + DRAFT_LIFETIME_MS);
   const draft = await ImportDraft.create({
-    ownerId: actor.id, screenId: input.screenId, filename: input.filename, mediaType: input.mediaType, sha256: input.sha256,
-    sizeBytes: input.bytes.byteLength, sheets: input.sheets, bytes: Buffer.from(input.bytes.buffer, input.bytes.byteOffset, input.bytes.byteLength),
-    createdAt: now, expiresAt,
+    ownerId: actor.id,
+    screenId: input.screenId,
+    filename: input.filename,
+    mediaType: input.mediaType,
+    sha256: input.sha256,
+    sizeBytes: input.bytes.byteLength,
+    sheets: input.sheets,
+    bytes: Buffer.from(input.bytes.buffer, input.bytes.byteOffset, input.bytes.byteLength),
+    createdAt: now,
+    expiresAt,
   });
   return { id: draft.id, expiresAt };
 }
@@ -59,7 +70,11 @@ const NOT_FOUND = 'No such import draft: read the file again.';
  * person's, and with a message when it expired or was already stored. With a transaction the row is
  * locked, so that two commits of one draft take turns and the second is refused as used.
  */
-export async function readDraft(actor: Actor, draftId: string, options: { transaction?: Transaction; content?: boolean } = {}): Promise<DraftFile> {
+export async function readDraft(
+  actor: Actor,
+  draftId: string,
+  options: { transaction?: Transaction; content?: boolean } = {},
+): Promise<DraftFile> {
   db();
   const { transaction } = options;
   const row = await ImportDraft.findByPk(draftId, {
@@ -70,20 +85,38 @@ export async function readDraft(actor: Actor, draftId: string, options: { transa
   if (!row || row.ownerId !== actor.id) throw new AppError('not_found', NOT_FOUND);
   const record = draftRecordSchema.parse(row);
   if (record.consumedAt) {
-    throw new AppError('conflict', `This file was already stored as a plate from this draft; read the file again to import it anew.`, { draft: 'used', plateId: record.plateId });
+    throw new AppError(
+      'conflict',
+      `This file was already stored as a plate from this draft; read the file again to import it anew.`,
+      { draft: 'used', plateId: record.plateId },
+    );
   }
   if (record.expiresAt.getTime() <= Date.now()) {
-    throw new AppError('conflict', `This import draft expired at ${record.expiresAt.toISOString()} (drafts are kept ${DRAFT_LIFETIME_MS / 3_600_000} hours); read the file again.`, { draft: 'expired' });
+    throw new AppError(
+      'conflict',
+      `This import draft expired at ${record.expiresAt.toISOString()} (drafts are kept ${DRAFT_LIFETIME_MS / 3_600_000} hours); read the file again.`,
+      { draft: 'expired' },
+    );
   }
   if (options.content === false) return { ...record, bytes: new Uint8Array(), sheets: [] };
   const sheets = draftSheetsSchema.safeParse(row.sheets);
-  if (!sheets.success || !row.bytes) throw new AppError('invalid', 'The stored draft is not readable; read the file again.');
-  return { ...record, bytes: new Uint8Array(row.bytes.buffer, row.bytes.byteOffset, row.bytes.byteLength), sheets: sheets.data };
+  if (!sheets.success || !row.bytes)
+    throw new AppError('invalid', 'The stored draft is not readable; read the file again.');
+  return {
+    ...record,
+    bytes: new Uint8Array(row.bytes.buffer, row.bytes.byteOffset, row.bytes.byteLength),
+    sheets: sheets.data,
+  };
 }
 
 /** Marks the draft used by the plate, dropping its sheets and bytes, in the transaction that stores the plate. */
-export async function consumeDraft(draftId: string, plateId: string, transaction: Transaction): Promise<void> {
-  if (!(await consumeDraftRow(draftId, plateId, transaction))) throw new AppError('conflict', 'This import draft was already used; read the file again.');
+export async function consumeDraft(
+  draftId: string,
+  plateId: string,
+  transaction: Transaction,
+): Promise<void> {
+  if (!(await consumeDraftRow(draftId, plateId, transaction)))
+    throw new AppError('conflict', 'This import draft was already used; read the file again.');
 }
 
 /** The sweep's part for drafts: removes every expired draft, used or not; returns how many. */

@@ -10,7 +10,12 @@ import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
 import type { JobContext } from '@/lib/jobs/job-types';
 import type { PlateImportPayload } from '@/lib/jobs/payloads';
 import { cancelJob, enqueueJob } from '@/lib/jobs/queue';
-import { storedDraftCommitSchema, storedImportRequestSchema, type StoredDraftCommit, type StoredImportRequest } from '@/lib/validation/imports';
+import {
+  storedDraftCommitSchema,
+  storedImportRequestSchema,
+  type StoredDraftCommit,
+  type StoredImportRequest,
+} from '@/lib/validation/imports';
 import { ComputeJob, ImportUpload } from '@/models';
 import { commitImport, type CommitRequest } from './import-service';
 import { readDraft, removeExpiredDrafts } from './import-drafts';
@@ -45,13 +50,31 @@ export async function queueImport(actor: Actor, request: CommitRequest): Promise
   }
   const { bytes, parsed: _parsed, ...fields } = request;
   const stored: StoredImportRequest = fields;
-  return keepAndQueue(actor, { request: { ...stored }, bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), draftId: null });
+  return keepAndQueue(actor, {
+    request: { ...stored },
+    bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+    draftId: null,
+  });
 }
 
-async function keepAndQueue(actor: Actor, commit: { request: Record<string, unknown>; bytes: Buffer | null; draftId: string | null }): Promise<string> {
+async function keepAndQueue(
+  actor: Actor,
+  commit: { request: Record<string, unknown>; bytes: Buffer | null; draftId: string | null },
+): Promise<string> {
   return db().transaction(async (transaction) => {
-    const upload = await ImportUpload.create({ requestedBy: actor.id, address: actor.address, ...commit }, { transaction });
-    const job = await enqueueJob({ kind: 'plate-import', key: importJobKey(upload.id), data: { uploadId: upload.id }, requestedBy: actor.id }, transaction);
+    const upload = await ImportUpload.create(
+      { requestedBy: actor.id, address: actor.address, ...commit },
+      { transaction },
+    );
+    const job = await enqueueJob(
+      {
+        kind: 'plate-import',
+        key: importJobKey(upload.id),
+        data: { uploadId: upload.id },
+        requestedBy: actor.id,
+      },
+      transaction,
+    );
     return job.id;
   });
 }
@@ -61,19 +84,36 @@ async function keepAndQueue(actor: Actor, commit: { request: Record<string, unkn
  * takes the draft's sheets (or reads the sent file once), checks and stores the plate, consumes the draft
  * and removes the upload in one transaction; the plate's id goes on the job.
  */
-export async function runQueuedImport(payload: PlateImportPayload, job: Pick<JobContext, 'id'>): Promise<string> {
+export async function runQueuedImport(
+  payload: PlateImportPayload,
+  job: Pick<JobContext, 'id'>,
+): Promise<string> {
   try {
     return await db().transaction(async (transaction) => {
-      const upload = await ImportUpload.findByPk(payload.uploadId, { transaction, lock: transaction.LOCK.UPDATE });
-      if (!upload) throw new AppError('conflict', 'The import was withdrawn before a worker took it; nothing was stored.');
+      const upload = await ImportUpload.findByPk(payload.uploadId, {
+        transaction,
+        lock: transaction.LOCK.UPDATE,
+      });
+      if (!upload)
+        throw new AppError(
+          'conflict',
+          'The import was withdrawn before a worker took it; nothing was stored.',
+        );
       const request = storedCommit(upload);
       const actor = await loadActor(upload.requestedBy, upload.address ?? '');
-      if (!actor) throw new AppError('forbidden', 'The account that uploaded this file is no longer active; nothing was stored.');
+      if (!actor)
+        throw new AppError(
+          'forbidden',
+          'The account that uploaded this file is no longer active; nothing was stored.',
+        );
       const { plateId } = await commitImport(actor, request, { transaction });
       const message = `Stored as plate ${request.label}.`;
       await removeUpload(payload.uploadId, transaction);
       // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
-      await ComputeJob.update({ state: 'done', plateId, finishedAt: new Date(), message }, { where: { id: job.id }, transaction });
+      await ComputeJob.update(
+        { state: 'done', plateId, finishedAt: new Date(), message },
+        { where: { id: job.id }, transaction },
+      );
       return message;
     });
   } catch (error) {
@@ -85,14 +125,23 @@ export async function runQueuedImport(payload: PlateImportPayload, job: Pick<Job
 /** The queued commit, checked: one that fails ends the job as refused, with nothing stored. */
 function storedCommit(upload: ImportUpload): CommitRequest {
   if (upload.draftId) return { ...checked(storedDraftCommitSchema, upload.request), draftId: upload.draftId };
-  if (!upload.bytes) throw new AppError('invalid', 'The queued import holds neither a file nor a draft; nothing was stored. Upload the file again.');
+  if (!upload.bytes)
+    throw new AppError(
+      'invalid',
+      'The queued import holds neither a file nor a draft; nothing was stored. Upload the file again.',
+    );
   const bytes = new Uint8Array(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
   return { ...checked(storedImportRequestSchema, upload.request), bytes };
 }
 
 function checked<Schema extends z.ZodType>(schema: Schema, request: unknown): z.output<Schema> {
   const parsed = schema.safeParse(request);
-  if (!parsed.success) throw new AppError('invalid', 'The stored import request is not valid; nothing was stored. Upload the file again.', { issues: parsed.error.issues });
+  if (!parsed.success)
+    throw new AppError(
+      'invalid',
+      'The stored import request is not valid; nothing was stored. Upload the file again.',
+      { issues: parsed.error.issues },
+    );
   return parsed.data;
 }
 
@@ -119,7 +168,10 @@ async function withdraw(job: ComputeJob, waitedMs: number): Promise<boolean> {
   const uploadId = job.jobKey.slice(importJobKey('').length);
   if (!(await removeUploadNoWorkerHolds(uploadId))) return false;
   const message = `No worker took the import within ${waitedMs / 1000} s; it was withdrawn and nothing was stored.`;
-  await ComputeJob.update({ state: 'failed', finishedAt: new Date(), message }, { where: { id: job.id, state: ['queued', 'running'] } });
+  await ComputeJob.update(
+    { state: 'failed', finishedAt: new Date(), message },
+    { where: { id: job.id, state: ['queued', 'running'] } },
+  );
   await cancelJob('plate-import', job.id).catch(() => undefined);
   return true;
 }
@@ -143,20 +195,27 @@ async function readJob(jobId: string, deadline: number): Promise<ComputeJob> {
  * when no worker took it in time, a 503 after withdrawing it (nothing stored). An import a worker is
  * still storing when the wait ends is reported as under way ("storing").
  */
-export async function awaitImport(jobId: string, waits: { queuedMs?: number; runningMs?: number } = {}): Promise<ImportResult> {
+export async function awaitImport(
+  jobId: string,
+  waits: { queuedMs?: number; runningMs?: number } = {},
+): Promise<ImportResult> {
   db();
   const queuedMs = waits.queuedMs ?? IMPORT_QUEUE_WAIT_MS;
   const started = Date.now();
   let runningSince: number | null = null;
   for (let delay = 20; ; delay = Math.min(delay * 2, 200)) {
-    const deadline = runningSince === null ? started + queuedMs : runningSince + (waits.runningMs ?? IMPORT_RUN_WAIT_MS);
+    const deadline =
+      runningSince === null ? started + queuedMs : runningSince + (waits.runningMs ?? IMPORT_RUN_WAIT_MS);
     const job = await readJob(jobId, deadline);
     if (job.state === 'done' && job.plateId) return { state: 'stored', plateId: job.plateId };
     if (job.state === 'failed' || job.state === 'done') throw refusal(job);
     if (job.state === 'running') runningSince ??= Date.now();
     if (Date.now() >= deadline) {
       if (runningSince === null && (await withdraw(job, queuedMs))) {
-        throw new AppError('unavailable', `No worker took the import within ${queuedMs / 1000} s, so nothing was changed. Try again in a minute.`);
+        throw new AppError(
+          'unavailable',
+          `No worker took the import within ${queuedMs / 1000} s, so nothing was changed. Try again in a minute.`,
+        );
       }
       if (runningSince !== null) return { state: 'storing', jobId };
       runningSince = Date.now(); // a worker took it at the last moment: wait for it to finish
@@ -168,6 +227,14 @@ export async function awaitImport(jobId: string, waits: { queuedMs?: number; run
 /** The refusal a failed import job left, as the AppError it was (code, message, details). */
 function refusal(job: ComputeJob): AppError {
   const code = job.outcome?.code;
-  if (code && code in ERROR_STATUS) return new AppError(code as ErrorCode, job.message ?? 'The import was refused.', job.outcome?.details ?? undefined);
-  return new AppError('unavailable', 'The import failed on the worker, so nothing was changed. Try again in a minute.');
+  if (code && code in ERROR_STATUS)
+    return new AppError(
+      code as ErrorCode,
+      job.message ?? 'The import was refused.',
+      job.outcome?.details ?? undefined,
+    );
+  return new AppError(
+    'unavailable',
+    'The import failed on the worker, so nothing was changed. Try again in a minute.',
+  );
 }

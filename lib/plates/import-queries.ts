@@ -33,7 +33,11 @@ export async function removeUploadsOfEndedJobs(): Promise<void> {
  * Marks a draft used by the plate and drops its sheets and bytes (the plate's file record keeps the
  * bytes); true when it was still unused. The caller's transaction also stores the plate.
  */
-export async function consumeDraftRow(draftId: string, plateId: string, transaction: Transaction): Promise<boolean> {
+export async function consumeDraftRow(
+  draftId: string,
+  plateId: string,
+  transaction: Transaction,
+): Promise<boolean> {
   const used = await db().query<{ id: string }>(
     `update import_drafts set consumed_at = now(), plate_id = :plateId, sheets = null, bytes = null
       where id = :draftId and consumed_at is null returning id`,
@@ -44,6 +48,9 @@ export async function consumeDraftRow(draftId: string, plateId: string, transact
 
 /** Removes every draft past its expiry, used or not (a queued commit of one goes with it); returns how many. */
 export async function removeExpiredDraftRows(): Promise<number> {
-  const removed = await db().query<{ id: string }>('delete from import_drafts where expires_at <= now() returning id', { type: QueryTypes.SELECT });
+  const removed = await db().query<{ id: string }>(
+    'delete from import_drafts where expires_at <= now() returning id',
+    { type: QueryTypes.SELECT },
+  );
   return removed.length;
 }

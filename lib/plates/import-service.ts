@@ -62,17 +62,27 @@ export async function readOnce<T extends Upload>(upload: T): Promise<T & { parse
   if (upload.parsed) return { ...upload, parsed: upload.parsed };
   const sha256 = sha256Hex(upload.bytes);
   const result = await parseSpreadsheet(upload.bytes, upload.filename);
-  if (!result.ok) throw new AppError(result.error.code === 'too_large' ? 'too_large' : 'invalid', result.error.message, { code: result.error.code });
+  if (!result.ok)
+    throw new AppError(result.error.code === 'too_large' ? 'too_large' : 'invalid', result.error.message, {
+      code: result.error.code,
+    });
   if (result.sheets.length === 0) throw new AppError('invalid', `${upload.filename} holds no sheets.`);
   return { ...upload, parsed: { sha256, sheets: result.sheets } };
 }
 
 async function loadScreen(screenId: string, transaction?: Transaction) {
   db();
-  const screen = await Screen.findByPk(screenId, { include: [{ model: Target, as: 'targets' }], ...(transaction ? { transaction } : {}) });
+  const screen = await Screen.findByPk(screenId, {
+    include: [{ model: Target, as: 'targets' }],
+    ...(transaction ? { transaction } : {}),
+  });
   if (!screen) throw new AppError('not_found', 'No such screen.');
   const targets = (screen.get('targets') as Target[]).map((t) => t.name);
-  if (targets.length === 0) throw new AppError('invalid', `Screen ${screen.name} has no targets yet; an administrator adds them first.`);
+  if (targets.length === 0)
+    throw new AppError(
+      'invalid',
+      `Screen ${screen.name} has no targets yet; an administrator adds them first.`,
+    );
   return { screen, targets };
 }
 
@@ -98,7 +108,14 @@ async function openSource(actor: Actor, source: ImportSource, transaction?: Tran
   }
   const screen = await loadScreen(source.screenId, transaction);
   const { parsed } = await readOnce(source);
-  const file: OpenedFile = { screenId: source.screenId, filename: source.filename, mediaType: source.mediaType, bytes: source.bytes, sheets: parsed.sheets, draftId: null };
+  const file: OpenedFile = {
+    screenId: source.screenId,
+    filename: source.filename,
+    mediaType: source.mediaType,
+    bytes: source.bytes,
+    sheets: parsed.sheets,
+    draftId: null,
+  };
   return { file, ...screen };
 }
 
@@ -124,8 +141,16 @@ export async function inspectUpload(actor: Actor, upload: Upload) {
       guess,
     };
   });
-  const draft = duplicateOf ? null : await createDraft(actor, { ...upload, sha256: parsed.sha256, sheets: parsed.sheets });
-  return { draftId: draft?.id ?? null, expiresAt: draft?.expiresAt.toISOString() ?? null, sha256: parsed.sha256, duplicateOf, sheets: inspected };
+  const draft = duplicateOf
+    ? null
+    : await createDraft(actor, { ...upload, sha256: parsed.sha256, sheets: parsed.sheets });
+  return {
+    draftId: draft?.id ?? null,
+    expiresAt: draft?.expiresAt.toISOString() ?? null,
+    sha256: parsed.sha256,
+    duplicateOf,
+    sheets: inspected,
+  };
 }
 
 /** The sheet, mapping and plate format a preview or commit applies. */
@@ -138,7 +163,10 @@ export interface SheetChoice {
 export type PreviewRequest = ImportSource & SheetChoice;
 
 /** Step 2: every row with its parse result and QC flags, the plate built from good rows. Nothing is written. */
-export async function previewImport(actor: Actor, request: PreviewRequest): Promise<PlatePreview & { qc: Record<number, string[]> }> {
+export async function previewImport(
+  actor: Actor,
+  request: PreviewRequest,
+): Promise<PlatePreview & { qc: Record<number, string[]> }> {
   requireCapability(actor, 'importPlates');
   const { file, screen, targets } = await openSource(actor, request);
   const preview = await checkSheet(file, targets, request);
@@ -146,21 +174,39 @@ export async function previewImport(actor: Actor, request: PreviewRequest): Prom
 }
 
 /** Validates the chosen sheet of the file with the mapping against the registered compounds and the screen's targets. */
-async function checkSheet(file: OpenedFile, targets: string[], choice: SheetChoice, transaction?: Transaction): Promise<PlatePreview> {
+async function checkSheet(
+  file: OpenedFile,
+  targets: string[],
+  choice: SheetChoice,
+  transaction?: Transaction,
+): Promise<PlatePreview> {
   const sheet = file.sheets.find((s) => s.name === choice.sheet);
   if (!sheet) throw new AppError('invalid', `${file.filename} has no sheet named "${choice.sheet}".`);
-  const compounds = await Compound.findAll({ attributes: ['identifier'], raw: true, ...(transaction ? { transaction } : {}) });
+  const compounds = await Compound.findAll({
+    attributes: ['identifier'],
+    raw: true,
+    ...(transaction ? { transaction } : {}),
+  });
   return validatePlateSheet(sheet, choice.mapping, {
-    knownCompounds: compounds.map((c) => c.identifier), knownTargets: targets, ...(choice.format ? { plateFormat: choice.format } : {}),
+    knownCompounds: compounds.map((c) => c.identifier),
+    knownTargets: targets,
+    ...(choice.format ? { plateFormat: choice.format } : {}),
   });
 }
 
 /** QC messages per spreadsheet row, from the same analysis the commit stores. */
-function qcByRow(preview: PlatePreview, settings: ReturnType<typeof analysisSettings>): Record<number, string[]> {
+function qcByRow(
+  preview: PlatePreview,
+  settings: ReturnType<typeof analysisSettings>,
+): Record<number, string[]> {
   // Readouts are named by their spreadsheet row (parsedPlateInput), so the messages map back to rows.
   const { wells, readouts } = parsedPlateInput(preview.plate!);
   const analysis = analysePlate(wells, readouts, settings);
-  return Object.fromEntries(analysis.readouts.filter((r) => r.qcReasons.length).map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]));
+  return Object.fromEntries(
+    analysis.readouts
+      .filter((r) => r.qcReasons.length)
+      .map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]),
+  );
 }
 
 export type CommitRequest = PreviewRequest & {
@@ -175,37 +221,78 @@ export type CommitRequest = PreviewRequest & {
  * removes its upload in it, lib/plates/import-jobs.ts). A draft is read under its row lock in that
  * transaction, so a second commit of it waits and is then refused as used.
  */
-export async function commitImport(actor: Actor, request: CommitRequest, options: { transaction?: Transaction } = {}): Promise<{ plateId: string }> {
+export async function commitImport(
+  actor: Actor,
+  request: CommitRequest,
+  options: { transaction?: Transaction } = {},
+): Promise<{ plateId: string }> {
   requireCapability(actor, 'importPlates');
   // A file sent with the request is read before the transaction opens (the screen checked first).
-  const source: ImportSource = 'draftId' in request ? request : await loadScreen(request.screenId).then(() => readOnce(request));
+  const source: ImportSource =
+    'draftId' in request ? request : await loadScreen(request.screenId).then(() => readOnce(request));
   const store = async (transaction: Transaction) => {
     const { file, targets } = await openSource(actor, source, transaction);
     const preview = await checkSheet(file, targets, request, transaction);
     if (!preview.ok || !preview.plate) {
       const first = preview.issues.find((issue) => issue.severity === 'error');
-      throw new AppError('invalid', first ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}` : 'The sheet holds no wells.', { issues: preview.issues.slice(0, 200) });
+      throw new AppError(
+        'invalid',
+        first
+          ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}`
+          : 'The sheet holds no wells.',
+        { issues: preview.issues.slice(0, 200) },
+      );
     }
     const mapping = columnMappingSchema.parse(request.mapping);
     let importTemplateId: string | null = null;
     if (request.templateName) {
       const [template, created] = await ImportTemplate.findOrCreate({
-        where: { name: request.templateName }, defaults: { name: request.templateName, mapping, createdBy: actor.id }, transaction,
+        where: { name: request.templateName },
+        defaults: { name: request.templateName, mapping, createdBy: actor.id },
+        transaction,
       });
       if (created) {
-        await recordAudit({ actorId: actor.id, action: 'create', entityType: 'import_template', entityId: template.id, after: { name: template.name, mapping }, address: actor.address }, transaction);
+        await recordAudit(
+          {
+            actorId: actor.id,
+            action: 'create',
+            entityType: 'import_template',
+            entityId: template.id,
+            after: { name: template.name, mapping },
+            address: actor.address,
+          },
+          transaction,
+        );
       } else if (JSON.stringify(template.mapping) !== JSON.stringify(mapping)) {
         const before = template.mapping;
         await template.update({ mapping }, { transaction });
-        await recordAudit({ actorId: actor.id, action: 'update', entityType: 'import_template', entityId: template.id, before, after: mapping, address: actor.address }, transaction);
+        await recordAudit(
+          {
+            actorId: actor.id,
+            action: 'update',
+            entityType: 'import_template',
+            entityId: template.id,
+            before,
+            after: mapping,
+            address: actor.address,
+          },
+          transaction,
+        );
       }
       importTemplateId = template.id;
     }
-    const stored = await storePlate(actor, {
-      screenId: file.screenId, label: request.label, plate: preview.plate, importTemplateId,
-      file: { bytes: file.bytes, filename: file.filename, mediaType: file.mediaType },
-      supersedesPlateId: request.supersedesPlateId ?? null,
-    }, transaction);
+    const stored = await storePlate(
+      actor,
+      {
+        screenId: file.screenId,
+        label: request.label,
+        plate: preview.plate,
+        importTemplateId,
+        file: { bytes: file.bytes, filename: file.filename, mediaType: file.mediaType },
+        supersedesPlateId: request.supersedesPlateId ?? null,
+      },
+      transaction,
+    );
     if (file.draftId) await consumeDraft(file.draftId, stored.plateId, transaction);
     await queueImportNotices(actor, stored.plateId, transaction); // chemists hear of the new plate (lib/signoff)
     return stored;

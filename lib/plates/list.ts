@@ -22,9 +22,17 @@ export async function listPlates(actor: Actor, filter: PlateFilter = {}): Promis
 }
 
 /** Page `page` (from 1) of the plates matching the filter, newest first, with the number that match. */
-export async function listPlatePage(actor: Actor, filter: PlateFilter, page: number, pageSize = PLATE_PAGE_SIZE): Promise<PlatePage> {
+export async function listPlatePage(
+  actor: Actor,
+  filter: PlateFilter,
+  page: number,
+  pageSize = PLATE_PAGE_SIZE,
+): Promise<PlatePage> {
   void actor; // every signed-in role may read plates
-  const [plates, total] = await Promise.all([selectPlates(filter, pageSize, (page - 1) * pageSize), countPlates(filter)]);
+  const [plates, total] = await Promise.all([
+    selectPlates(filter, pageSize, (page - 1) * pageSize),
+    countPlates(filter),
+  ]);
   return { plates, total, page, pageSize };
 }
 

@@ -23,7 +23,14 @@ export interface PlateHeader {
   importedAt: string;
   filename: string;
   sha256: string;
-  qcSummary: { target: string; zPrime: { zPrime: number | null; band: string | null; passes: boolean; message: string }; notes: { code: string; message: string }[]; rundownCorrected: boolean; normalised: boolean; vehicleMeanRatio: number | null }[];
+  qcSummary: {
+    target: string;
+    zPrime: { zPrime: number | null; band: string | null; passes: boolean; message: string };
+    notes: { code: string; message: string }[];
+    rundownCorrected: boolean;
+    normalised: boolean;
+    vehicleMeanRatio: number | null;
+  }[];
   targets: { id: string; name: string; conductance: string }[];
 }
 
@@ -190,7 +197,11 @@ function filterSql(filter: PlateFilter): { where: string; replacements: Record<s
  * plate and well, whose plan depends on table statistics that lag behind a stream of imports); a well
  * fails when one of its readouts has QC reasons (found through the partial index readouts_failing_well).
  */
-export async function selectPlates(filter: PlateFilter, limit: number, offset: number): Promise<PlateSummary[]> {
+export async function selectPlates(
+  filter: PlateFilter,
+  limit: number,
+  offset: number,
+): Promise<PlateSummary[]> {
   const sql = filterSql(filter);
   if (!sql) return [];
   return db().query<PlateSummary>(
@@ -225,7 +236,10 @@ export async function selectPlates(filter: PlateFilter, limit: number, offset: n
 export async function countPlates(filter: PlateFilter): Promise<number> {
   const sql = filterSql(filter);
   if (!sql) return 0;
-  const [counted] = await db().query<{ total: number }>(`select count(*)::int as total from plates p ${sql.where}`, { type: QueryTypes.SELECT, replacements: sql.replacements });
+  const [counted] = await db().query<{ total: number }>(
+    `select count(*)::int as total from plates p ${sql.where}`,
+    { type: QueryTypes.SELECT, replacements: sql.replacements },
+  );
   return counted?.total ?? 0;
 }
 
@@ -238,7 +252,11 @@ export async function selectImporters(): Promise<{ id: string; name: string }[]>
 }
 
 // SQL for speed: the duplicate check of every upload, one indexed join with a limit.
-export async function selectDuplicateUpload(screenId: string, sha256: string, transaction?: Transaction): Promise<{ plateId: string; label: string } | undefined> {
+export async function selectDuplicateUpload(
+  screenId: string,
+  sha256: string,
+  transaction?: Transaction,
+): Promise<{ plateId: string; label: string } | undefined> {
   const [row] = await db().query<{ plateId: string; label: string }>(
     `select p.id as "plateId", p.label from uploaded_files f join plates p on p.uploaded_file_id = f.id
       where f.screen_id = :screenId and f.sha256 = :sha256 limit 1`,
@@ -248,23 +266,50 @@ export async function selectDuplicateUpload(screenId: string, sha256: string, tr
 }
 
 // SQL: compounds matched case-blind on upper(identifier), which the ORM's where cannot say plainly.
-export async function selectCompoundsByUpperIdentifier(wanted: string[], transaction: Transaction): Promise<{ id: string; identifier: string }[]> {
-  return db().query<{ id: string; identifier: string }>('select id, identifier from compounds where upper(identifier) in (:wanted)', {
-    type: QueryTypes.SELECT, replacements: { wanted }, transaction,
-  });
+export async function selectCompoundsByUpperIdentifier(
+  wanted: string[],
+  transaction: Transaction,
+): Promise<{ id: string; identifier: string }[]> {
+  return db().query<{ id: string; identifier: string }>(
+    'select id, identifier from compounds where upper(identifier) in (:wanted)',
+    {
+      type: QueryTypes.SELECT,
+      replacements: { wanted },
+      transaction,
+    },
+  );
 }
 
 const WELL_COLUMNS = {
-  id: 'uuid', plate_id: 'uuid', position: 'text', row_index: 'smallint', column_index: 'smallint', role: 'text', compound_id: 'uuid',
-  concentration_um: 'double precision', seal_resistance_gohm: 'double precision', series_resistance_mohm: 'double precision', capacitance_pf: 'double precision',
+  id: 'uuid',
+  plate_id: 'uuid',
+  position: 'text',
+  row_index: 'smallint',
+  column_index: 'smallint',
+  role: 'text',
+  compound_id: 'uuid',
+  concentration_um: 'double precision',
+  seal_resistance_gohm: 'double precision',
+  series_resistance_mohm: 'double precision',
+  capacitance_pf: 'double precision',
 } as const;
 const READOUT_COLUMNS = {
-  id: 'uuid', well_id: 'uuid', target_id: 'uuid', control_current_pa: 'double precision', compound_current_pa: 'double precision',
-  fractional_block: 'double precision', qc_reasons: 'jsonb',
+  id: 'uuid',
+  well_id: 'uuid',
+  target_id: 'uuid',
+  control_current_pa: 'double precision',
+  compound_current_pa: 'double precision',
+  fractional_block: 'double precision',
+  qc_reasons: 'jsonb',
 } as const;
 
 /** Inserts rows (plain objects keyed by column) with one statement and one JSON parameter. */
-async function insertRows(table: string, columns: Record<string, string>, rows: Record<string, unknown>[], transaction: Transaction): Promise<void> {
+async function insertRows(
+  table: string,
+  columns: Record<string, string>,
+  rows: Record<string, unknown>[],
+  transaction: Transaction,
+): Promise<void> {
   if (rows.length === 0) return;
   const names = Object.keys(columns);
   await db().query(
@@ -279,6 +324,9 @@ export async function insertWells(rows: Record<string, unknown>[], transaction: 
 }
 
 // SQL for speed: a plate's readouts in one statement (model instances took most of an import's time).
-export async function insertReadouts(rows: Record<string, unknown>[], transaction: Transaction): Promise<void> {
+export async function insertReadouts(
+  rows: Record<string, unknown>[],
+  transaction: Transaction,
+): Promise<void> {
   await insertRows('readouts', READOUT_COLUMNS, rows, transaction);
 }

@@ -11,7 +11,11 @@ import { fitRow } from './fit-row';
 import { analysisSettings } from './settings';
 
 /** The plate's stored wells and readouts through the science, with each fit's chosen model. */
-async function analyseStored(plate: Plate, transaction: Transaction, fits: boolean): Promise<{ analysis: PlateAnalysis; readouts: Readout[] }> {
+async function analyseStored(
+  plate: Plate,
+  transaction: Transaction,
+  fits: boolean,
+): Promise<{ analysis: PlateAnalysis; readouts: Readout[] }> {
   const screen = await Screen.findByPk(plate.screenId, { transaction, rejectOnEmpty: true });
   const wells = await Well.findAll({ where: { plateId: plate.id }, transaction });
   const readouts = await Readout.findAll({ where: { wellId: wells.map((w) => w.id) }, transaction });
@@ -24,12 +28,29 @@ async function analyseStored(plate: Plate, transaction: Transaction, fits: boole
 }
 
 /** Queues the fit job of a plate whose fits are marked pending (in the caller's transaction when given). */
-export function queueRefit(plateId: string, requestedBy: string | null, transaction?: Transaction): Promise<QueuedJob> {
-  return enqueueJob({ kind: 'plate-fits', key: `plate-fits:${plateId}`, data: { plateId, requestedBy }, plateId, requestedBy }, transaction);
+export function queueRefit(
+  plateId: string,
+  requestedBy: string | null,
+  transaction?: Transaction,
+): Promise<QueuedJob> {
+  return enqueueJob(
+    {
+      kind: 'plate-fits',
+      key: `plate-fits:${plateId}`,
+      data: { plateId, requestedBy },
+      plateId,
+      requestedBy,
+    },
+    transaction,
+  );
 }
 
 /** Marks the plate's fits as waiting for a refit and queues it, in the caller's transaction. */
-export async function requestRefit(plate: Plate, requestedBy: string | null, transaction: Transaction): Promise<QueuedJob> {
+export async function requestRefit(
+  plate: Plate,
+  requestedBy: string | null,
+  transaction: Transaction,
+): Promise<QueuedJob> {
   await plate.update({ fitsPending: true, fitsRequestedAt: new Date() }, { transaction });
   return queueRefit(plate.id, requestedBy, transaction);
 }
@@ -43,7 +64,10 @@ export async function recomputePlate(plate: Plate, actorId: string, transaction:
   const byId = new Map(readouts.map((r) => [r.id, r]));
   for (const result of analysis.readouts) {
     const readout = byId.get(result.id)!;
-    if (readout.fractionalBlock !== result.block || JSON.stringify(readout.qcReasons) !== JSON.stringify(result.qcReasons)) {
+    if (
+      readout.fractionalBlock !== result.block ||
+      JSON.stringify(readout.qcReasons) !== JSON.stringify(result.qcReasons)
+    ) {
       await readout.update({ fractionalBlock: result.block, qcReasons: result.qcReasons }, { transaction });
     }
   }
@@ -58,20 +82,31 @@ export type RefitOutcome = { refitted: true; fits: number } | { refitted: false;
  * as they stand now, keeping each fit's chosen model, and marks the fits current. A plate whose fits
  * are already current (an earlier job saw the same changes) is left as it is.
  */
-export async function refitPlate(plateId: string, computedBy: string | null, transaction: Transaction): Promise<RefitOutcome> {
+export async function refitPlate(
+  plateId: string,
+  computedBy: string | null,
+  transaction: Transaction,
+): Promise<RefitOutcome> {
   const plate = await Plate.findByPk(plateId, { transaction, lock: transaction.LOCK.UPDATE });
   if (!plate) return { refitted: false, reason: 'the plate no longer exists' };
   if (!plate.fitsPending) return { refitted: false, reason: 'its fits were already current' };
   const { analysis } = await analyseStored(plate, transaction, true);
   await Fit.destroy({ where: { plateId: plate.id }, transaction });
-  await Fit.bulkCreate(analysis.fits.map((f) => fitRow(f, { plateId: plate.id, compoundId: f.compoundId, targetId: f.target, computedBy })), { transaction });
+  await Fit.bulkCreate(
+    analysis.fits.map((f) =>
+      fitRow(f, { plateId: plate.id, compoundId: f.compoundId, targetId: f.target, computedBy }),
+    ),
+    { transaction },
+  );
   await plate.update({ fitsPending: false, fittedAt: new Date() }, { transaction });
   return { refitted: true, fits: analysis.fits.length };
 }
 
 /** The plate-fits job's handler (lib/jobs/registry.ts): the refit in a transaction of its own. */
 export async function runPlateFitsJob(payload: PlateFitsPayload): Promise<string> {
-  const outcome = await db().transaction((transaction) => refitPlate(payload.plateId, payload.requestedBy, transaction));
+  const outcome = await db().transaction((transaction) =>
+    refitPlate(payload.plateId, payload.requestedBy, transaction),
+  );
   return outcome.refitted ? `${outcome.fits} fit(s) computed.` : `Nothing to do: ${outcome.reason}.`;
 }
 

@@ -3,7 +3,10 @@ import type { AnalysisSettings } from '@/lib/science/plate-analysis';
 import type { HillModelName } from '@/lib/science/fit/hill-model';
 
 /** The analysis settings of a plate: its screen's QC limits and Z′ limit, and the model chosen per fit. */
-export function analysisSettings(screen: ScreenQcLimits, models: Record<string, HillModelName> = {}): AnalysisSettings {
+export function analysisSettings(
+  screen: ScreenQcLimits,
+  models: Record<string, HillModelName> = {},
+): AnalysisSettings {
   return {
     thresholds: {
       sealResistanceMin_GOhm: screen.sealResistanceMin_GOhm,

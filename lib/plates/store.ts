@@ -8,7 +8,12 @@ import type { ParsedPlate } from '@/lib/imports/build-plate';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { Plate, Screen, Target, UploadedFile } from '@/models';
 import { analysisInput, type ReadoutData } from './analysis-input';
-import { insertReadouts, insertWells, selectCompoundsByUpperIdentifier, selectDuplicateUpload } from './queries';
+import {
+  insertReadouts,
+  insertWells,
+  selectCompoundsByUpperIdentifier,
+  selectDuplicateUpload,
+} from './queries';
 import { queueRefit } from './recompute';
 import { analysisSettings } from './settings';
 
@@ -24,7 +29,11 @@ export interface StorePlateInput {
 export const sha256Hex = (bytes: Uint8Array): string => createHash('sha256').update(bytes).digest('hex');
 
 /** The plate already made from these exact bytes for this screen, if any. */
-export async function findDuplicateUpload(screenId: string, sha256: string, transaction?: Transaction): Promise<{ plateId: string; label: string } | null> {
+export async function findDuplicateUpload(
+  screenId: string,
+  sha256: string,
+  transaction?: Transaction,
+): Promise<{ plateId: string; label: string } | null> {
   const row = await selectDuplicateUpload(screenId, sha256, transaction);
   return row ?? null;
 }
@@ -32,34 +41,64 @@ export async function findDuplicateUpload(screenId: string, sha256: string, tran
 async function idsByName(screenId: string, plate: ParsedPlate, transaction: Transaction) {
   const targets = await Target.findAll({ where: { screenId }, transaction });
   const targetId = new Map(targets.map((t) => [t.name.toLowerCase(), t.id]));
-  const wanted = [...new Set(plate.wells.filter((w) => w.role === 'test').map((w) => w.compound).filter((c): c is string => c !== null))];
+  const wanted = [
+    ...new Set(
+      plate.wells
+        .filter((w) => w.role === 'test')
+        .map((w) => w.compound)
+        .filter((c): c is string => c !== null),
+    ),
+  ];
   const compounds = wanted.length
-    ? await selectCompoundsByUpperIdentifier(wanted.map((c) => c.toUpperCase()), transaction)
+    ? await selectCompoundsByUpperIdentifier(
+        wanted.map((c) => c.toUpperCase()),
+        transaction,
+      )
     : [];
   const compoundId = new Map(compounds.map((c) => [c.identifier.toUpperCase(), c.id]));
   const missingTarget = plate.targets.find((t) => !targetId.has(t.toLowerCase()));
-  if (missingTarget) throw new AppError('invalid', `Target "${missingTarget}" is not a target of this screen.`);
+  if (missingTarget)
+    throw new AppError('invalid', `Target "${missingTarget}" is not a target of this screen.`);
   const missingCompound = wanted.find((c) => !compoundId.has(c.toUpperCase()));
   if (missingCompound) throw new AppError('invalid', `Compound "${missingCompound}" is not registered.`);
-  return { target: (name: string) => targetId.get(name.toLowerCase())!, compound: (id: string | null) => (id === null ? null : compoundId.get(id.toUpperCase())!) };
+  return {
+    target: (name: string) => targetId.get(name.toLowerCase())!,
+    compound: (id: string | null) => (id === null ? null : compoundId.get(id.toUpperCase())!),
+  };
 }
 
 /**
  * Writes an imported plate in the caller's transaction: the raw file with its SHA-256, the plate, its
  * wells and readouts with QC reasons and block, Z′ per target, the queued fit job, and the audit event.
  */
-export async function storePlate(actor: Actor, input: StorePlateInput, transaction: Transaction): Promise<{ plateId: string }> {
+export async function storePlate(
+  actor: Actor,
+  input: StorePlateInput,
+  transaction: Transaction,
+): Promise<{ plateId: string }> {
   const screen = await Screen.findByPk(input.screenId, { transaction });
   if (!screen) throw new AppError('not_found', 'No such screen.');
   const sha256 = sha256Hex(input.file.bytes);
   const duplicate = await findDuplicateUpload(screen.id, sha256, transaction);
   if (duplicate) {
-    throw new AppError('conflict', `This exact file was already imported for this screen as plate ${duplicate.label}.`, { plateId: duplicate.plateId });
+    throw new AppError(
+      'conflict',
+      `This exact file was already imported for this screen as plate ${duplicate.label}.`,
+      { plateId: duplicate.plateId },
+    );
   }
   const ids = await idsByName(screen.id, input.plate, transaction);
 
   const file = await UploadedFile.create(
-    { screenId: screen.id, filename: input.file.filename, mediaType: input.file.mediaType, sizeBytes: input.file.bytes.byteLength, sha256, content: Buffer.from(input.file.bytes), uploadedBy: actor.id },
+    {
+      screenId: screen.id,
+      filename: input.file.filename,
+      mediaType: input.file.mediaType,
+      sizeBytes: input.file.bytes.byteLength,
+      sha256,
+      content: Buffer.from(input.file.bytes),
+      uploadedBy: actor.id,
+    },
     { transaction },
   );
   const plateId = randomUUID();
@@ -68,12 +107,30 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
     const id = randomUUID();
     const compoundId = w.role === 'test' ? ids.compound(w.compound) : null;
     for (const r of w.readouts) {
-      readouts.push({ id: randomUUID(), wellId: id, targetId: ids.target(r.target), controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA });
+      readouts.push({
+        id: randomUUID(),
+        wellId: id,
+        targetId: ids.target(r.target),
+        controlCurrent_pA: r.controlCurrent_pA,
+        compoundCurrent_pA: r.compoundCurrent_pA,
+      });
     }
     return {
-      id, plateId, position: w.position, rowIndex: w.rowIndex, columnIndex: w.columnIndex, role: w.role, compoundId, batchId: null,
-      concentration_uM: w.concentration_uM, sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
-      exclusionReason: null, excludedBy: null, excludedAt: null,
+      id,
+      plateId,
+      position: w.position,
+      rowIndex: w.rowIndex,
+      columnIndex: w.columnIndex,
+      role: w.role,
+      compoundId,
+      batchId: null,
+      concentration_uM: w.concentration_uM,
+      sealResistance_GOhm: w.sealResistance_GOhm,
+      seriesResistance_MOhm: w.seriesResistance_MOhm,
+      capacitance_pF: w.capacitance_pF,
+      exclusionReason: null,
+      excludedBy: null,
+      excludedAt: null,
     };
   });
   // QC, block and Z′ are stored with the plate; the fits come from the job queued below.
@@ -81,24 +138,74 @@ export async function storePlate(actor: Actor, input: StorePlateInput, transacti
   const analysis = analysePlate(science.wells, science.readouts, analysisSettings(screen), { fits: false });
 
   await Plate.create(
-    { id: plateId, screenId: screen.id, uploadedFileId: file.id, importTemplateId: input.importTemplateId ?? null, supersedesPlateId: input.supersedesPlateId ?? null, label: input.label, format: input.plate.format, importedBy: actor.id, verifiedBy: null, submittedBy: null, decidedBy: null, qcSummary: analysis.targets, fitsPending: true, fitsRequestedAt: new Date(), fittedAt: null },
+    {
+      id: plateId,
+      screenId: screen.id,
+      uploadedFileId: file.id,
+      importTemplateId: input.importTemplateId ?? null,
+      supersedesPlateId: input.supersedesPlateId ?? null,
+      label: input.label,
+      format: input.plate.format,
+      importedBy: actor.id,
+      verifiedBy: null,
+      submittedBy: null,
+      decidedBy: null,
+      qcSummary: analysis.targets,
+      fitsPending: true,
+      fitsRequestedAt: new Date(),
+      fittedAt: null,
+    },
     { transaction },
   );
   // Wells and readouts go in as one JSON parameter each: a 384-well plate is hundreds of rows, and
   // building model instances and escaped SQL for each took most of an import's time on the server.
-  await insertWells(wellRows.map((w) => ({
-    id: w.id, plate_id: plateId, position: w.position, row_index: w.rowIndex, column_index: w.columnIndex, role: w.role, compound_id: w.compoundId,
-    concentration_um: w.concentration_uM, seal_resistance_gohm: w.sealResistance_GOhm, series_resistance_mohm: w.seriesResistance_MOhm, capacitance_pf: w.capacitance_pF,
-  })), transaction);
-  await insertReadouts(readouts.map((r, i) => ({
-    id: r.id, well_id: r.wellId, target_id: r.targetId, control_current_pa: r.controlCurrent_pA, compound_current_pa: r.compoundCurrent_pA,
-    fractional_block: analysis.readouts[i]!.block, qc_reasons: analysis.readouts[i]!.qcReasons,
-  })), transaction);
+  await insertWells(
+    wellRows.map((w) => ({
+      id: w.id,
+      plate_id: plateId,
+      position: w.position,
+      row_index: w.rowIndex,
+      column_index: w.columnIndex,
+      role: w.role,
+      compound_id: w.compoundId,
+      concentration_um: w.concentration_uM,
+      seal_resistance_gohm: w.sealResistance_GOhm,
+      series_resistance_mohm: w.seriesResistance_MOhm,
+      capacitance_pf: w.capacitance_pF,
+    })),
+    transaction,
+  );
+  await insertReadouts(
+    readouts.map((r, i) => ({
+      id: r.id,
+      well_id: r.wellId,
+      target_id: r.targetId,
+      control_current_pa: r.controlCurrent_pA,
+      compound_current_pa: r.compoundCurrent_pA,
+      fractional_block: analysis.readouts[i]!.block,
+      qc_reasons: analysis.readouts[i]!.qcReasons,
+    })),
+    transaction,
+  );
   const fitJob = await queueRefit(plateId, actor.id, transaction);
   await recordAudit(
     {
-      actorId: actor.id, action: 'import', entityType: 'plate', entityId: plateId, address: actor.address,
-      after: { label: input.label, screenId: screen.id, format: input.plate.format, filename: input.file.filename, sha256, wells: wellRows.length, readouts: readouts.length, fitJobId: fitJob.id, supersedesPlateId: input.supersedesPlateId ?? null },
+      actorId: actor.id,
+      action: 'import',
+      entityType: 'plate',
+      entityId: plateId,
+      address: actor.address,
+      after: {
+        label: input.label,
+        screenId: screen.id,
+        format: input.plate.format,
+        filename: input.file.filename,
+        sha256,
+        wells: wellRows.length,
+        readouts: readouts.length,
+        fitJobId: fitJob.id,
+        supersedesPlateId: input.supersedesPlateId ?? null,
+      },
     },
     transaction,
   );

@@ -69,7 +69,12 @@ export const fitKey = (compoundId: string, target: string): string => `${compoun
  * Analyses one plate; readouts of unknown wells are a programming error and throw. With
  * `{ fits: false }` it stops after QC, block and Z′ (the fits then come from a job, lib/jobs).
  */
-export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly AnalysisReadout[], settings: AnalysisSettings = {}, options: { fits?: boolean } = {}): PlateAnalysis {
+export function analysePlate(
+  wells: readonly AnalysisWell[],
+  readouts: readonly AnalysisReadout[],
+  settings: AnalysisSettings = {},
+  options: { fits?: boolean } = {},
+): PlateAnalysis {
   const wellById = new Map(wells.map((w) => [w.id, w]));
   const wellOf = (r: AnalysisReadout): AnalysisWell => {
     const well = wellById.get(r.wellId);
@@ -81,8 +86,13 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
     readouts.map((r) => {
       const w = wellOf(r);
       return {
-        wellId: r.id, role: w.role, controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA,
-        sealResistance_GOhm: w.sealResistance_GOhm, seriesResistance_MOhm: w.seriesResistance_MOhm, capacitance_pF: w.capacitance_pF,
+        wellId: r.id,
+        role: w.role,
+        controlCurrent_pA: r.controlCurrent_pA,
+        compoundCurrent_pA: r.compoundCurrent_pA,
+        sealResistance_GOhm: w.sealResistance_GOhm,
+        seriesResistance_MOhm: w.seriesResistance_MOhm,
+        capacitance_pF: w.capacitance_pF,
       };
     }),
     settings.thresholds,
@@ -91,14 +101,21 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
 
   const blocks = computeFractionalBlock(
     readouts.map((r, i) => ({
-      wellId: r.id, target: r.target, role: wellOf(r).role,
-      controlCurrent_pA: r.controlCurrent_pA, compoundCurrent_pA: r.compoundCurrent_pA, excluded: !used[i],
+      wellId: r.id,
+      target: r.target,
+      role: wellOf(r).role,
+      controlCurrent_pA: r.controlCurrent_pA,
+      compoundCurrent_pA: r.compoundCurrent_pA,
+      excluded: !used[i],
     })),
     { normalise: settings.normalise ?? false, zPrimeMin: settings.zPrimeMin ?? 0.5 },
   );
   const blockById = new Map(blocks.flatMap((t) => t.wells.map((w) => [w.wellId, w.block] as const)));
 
-  const groups = new Map<string, { compoundId: string; target: string; c: number[]; b: number[]; x: boolean[] }>();
+  const groups = new Map<
+    string,
+    { compoundId: string; target: string; c: number[]; b: number[]; x: boolean[] }
+  >();
   readouts.forEach((r, i) => {
     const w = wellOf(r);
     if (w.role !== 'test' || !w.compoundId || w.concentration_uM === null) return;
@@ -112,13 +129,31 @@ export function analysePlate(wells: readonly AnalysisWell[], readouts: readonly 
   });
 
   return {
-    readouts: readouts.map((r, i) => ({ id: r.id, qcReasons: qc[i]!.reasons, used: used[i]!, block: blockById.get(r.id) ?? null })),
-    targets: blocks.map((t) => ({
-      target: t.target, zPrime: t.zPrime, rundownCorrected: t.rundownCorrected, normalised: t.normalised, vehicleMeanRatio: t.vehicleMeanRatio, notes: t.notes,
+    readouts: readouts.map((r, i) => ({
+      id: r.id,
+      qcReasons: qc[i]!.reasons,
+      used: used[i]!,
+      block: blockById.get(r.id) ?? null,
     })),
-    fits: options.fits === false ? [] : [...groups.entries()].map(([key, g]) => {
-      const model = settings.models?.[key] ?? 'hill2';
-      return { compoundId: g.compoundId, target: g.target, model, result: fitHill({ concentration_uM: g.c, block: g.b, excluded: g.x }, { model }) };
-    }),
+    targets: blocks.map((t) => ({
+      target: t.target,
+      zPrime: t.zPrime,
+      rundownCorrected: t.rundownCorrected,
+      normalised: t.normalised,
+      vehicleMeanRatio: t.vehicleMeanRatio,
+      notes: t.notes,
+    })),
+    fits:
+      options.fits === false
+        ? []
+        : [...groups.entries()].map(([key, g]) => {
+            const model = settings.models?.[key] ?? 'hill2';
+            return {
+              compoundId: g.compoundId,
+              target: g.target,
+              model,
+              result: fitHill({ concentration_uM: g.c, block: g.b, excluded: g.x }, { model }),
+            };
+          }),
   };
 }

@@ -20,7 +20,10 @@ export async function listScreens(actor: Actor): Promise<ScreenDetail[]> {
   db();
   const screens = await Screen.findAll({
     include: [{ model: Target, as: 'targets' }],
-    order: [['name', 'ASC'], [{ model: Target, as: 'targets' }, 'name', 'ASC']],
+    order: [
+      ['name', 'ASC'],
+      [{ model: Target, as: 'targets' }, 'name', 'ASC'],
+    ],
   });
   return screens.map(toDetail);
 }
@@ -38,20 +41,20 @@ export async function getScreen(actor: Actor, screenId: string): Promise<ScreenD
 }
 
 function toDetail(screen: Screen): ScreenDetail {
-    const plain = screen.get({ plain: true }) as Screen & { targets: Target[] };
-    return {
-      id: plain.id,
-      name: plain.name,
-      description: plain.description,
-      neuronPreset: plain.neuronPreset,
-      zPrimeMin: plain.zPrimeMin,
-      sealResistanceMin_GOhm: plain.sealResistanceMin_GOhm,
-      controlCurrentMin_pA: plain.controlCurrentMin_pA,
-      seriesResistanceMax_MOhm: plain.seriesResistanceMax_MOhm,
-      capacitanceMin_pF: plain.capacitanceMin_pF,
-      capacitanceMax_pF: plain.capacitanceMax_pF,
-      vehicleRundownMax_fraction: plain.vehicleRundownMax_fraction,
-      exposures_uM: plain.exposures_uM,
-      targets: plain.targets.map((t) => ({ id: t.id, name: t.name, conductance: t.conductance })),
-    };
+  const plain = screen.get({ plain: true }) as Screen & { targets: Target[] };
+  return {
+    id: plain.id,
+    name: plain.name,
+    description: plain.description,
+    neuronPreset: plain.neuronPreset,
+    zPrimeMin: plain.zPrimeMin,
+    sealResistanceMin_GOhm: plain.sealResistanceMin_GOhm,
+    controlCurrentMin_pA: plain.controlCurrentMin_pA,
+    seriesResistanceMax_MOhm: plain.seriesResistanceMax_MOhm,
+    capacitanceMin_pF: plain.capacitanceMin_pF,
+    capacitanceMax_pF: plain.capacitanceMax_pF,
+    vehicleRundownMax_fraction: plain.vehicleRundownMax_fraction,
+    exposures_uM: plain.exposures_uM,
+    targets: plain.targets.map((t) => ({ id: t.id, name: t.name, conductance: t.conductance })),
+  };
 }

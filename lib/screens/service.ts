@@ -18,7 +18,8 @@ function plainScreen(screen: Screen) {
 }
 
 function conflict(error: unknown, message: string, field: string): never {
-  if (error instanceof UniqueConstraintError) throw new AppError('conflict', message, { fieldErrors: { [field]: [message] } });
+  if (error instanceof UniqueConstraintError)
+    throw new AppError('conflict', message, { fieldErrors: { [field]: [message] } });
   throw error;
 }
 
@@ -26,10 +27,20 @@ function conflict(error: unknown, message: string, field: string): never {
 export async function createScreen(actor: Actor, input: ScreenInput): Promise<{ id: string }> {
   requireCapability(actor, 'manageScreens');
   return db().transaction(async (transaction) => {
-    const screen = await Screen.create({ ...columns(input), createdBy: actor.id }, { transaction }).catch((e) =>
-      conflict(e, `A screen named ${input.name} already exists.`, 'name'),
+    const screen = await Screen.create({ ...columns(input), createdBy: actor.id }, { transaction }).catch(
+      (e) => conflict(e, `A screen named ${input.name} already exists.`, 'name'),
     );
-    await recordAudit({ actorId: actor.id, action: 'create', entityType: 'screen', entityId: screen.id, after: plainScreen(screen), address: actor.address }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'create',
+        entityType: 'screen',
+        entityId: screen.id,
+        after: plainScreen(screen),
+        address: actor.address,
+      },
+      transaction,
+    );
     return { id: screen.id };
   });
 }
@@ -44,13 +55,32 @@ export async function updateScreen(actor: Actor, screenId: string, input: Screen
     const allowed = blockableConductances(input.neuronPreset);
     const orphan = targets.find((t) => !allowed.includes(t.conductance));
     if (orphan) {
-      throw new AppError('invalid', `Target ${orphan.name} maps to ${orphan.conductance}, which ${input.neuronPreset} does not have.`, {
-        fieldErrors: { neuronPreset: [`${input.neuronPreset} has no ${orphan.conductance} for target ${orphan.name}.`] },
-      });
+      throw new AppError(
+        'invalid',
+        `Target ${orphan.name} maps to ${orphan.conductance}, which ${input.neuronPreset} does not have.`,
+        {
+          fieldErrors: {
+            neuronPreset: [`${input.neuronPreset} has no ${orphan.conductance} for target ${orphan.name}.`],
+          },
+        },
+      );
     }
     const before = plainScreen(screen);
-    await screen.update(columns(input), { transaction }).catch((e) => conflict(e, `A screen named ${input.name} already exists.`, 'name'));
-    await recordAudit({ actorId: actor.id, action: 'update', entityType: 'screen', entityId: screenId, before, after: plainScreen(screen), address: actor.address }, transaction);
+    await screen
+      .update(columns(input), { transaction })
+      .catch((e) => conflict(e, `A screen named ${input.name} already exists.`, 'name'));
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'update',
+        entityType: 'screen',
+        entityId: screenId,
+        before,
+        after: plainScreen(screen),
+        address: actor.address,
+      },
+      transaction,
+    );
   });
 }
 
@@ -68,7 +98,17 @@ export async function addTarget(actor: Actor, screenId: string, input: TargetInp
     const target = await Target.create({ ...input, screenId }, { transaction }).catch((e) =>
       conflict(e, `This screen already has a target named ${input.name}.`, 'name'),
     );
-    await recordAudit({ actorId: actor.id, action: 'create', entityType: 'target', entityId: target.id, after: { screenId, ...input }, address: actor.address }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'create',
+        entityType: 'target',
+        entityId: target.id,
+        after: { screenId, ...input },
+        address: actor.address,
+      },
+      transaction,
+    );
     return { id: target.id };
   });
 }

@@ -6,9 +6,12 @@ import { can, type Actor } from '@/lib/auth/roles';
  * on, less the plates segregation of duties bars them from (the rules of SIGNOFF_STEPS in steps.ts).
  * Returns null when the person signs no step at all.
  */
-export function awaitingCondition(actor: Actor): { sql: string; replacements: Record<string, unknown> } | null {
+export function awaitingCondition(
+  actor: Actor,
+): { sql: string; replacements: Record<string, unknown> } | null {
   const parts: string[] = [];
-  if (can(actor, 'verifyCompoundMap')) parts.push(`(p.state = 'imported' and p.imported_by <> :awaitingActor)`);
+  if (can(actor, 'verifyCompoundMap'))
+    parts.push(`(p.state = 'imported' and p.imported_by <> :awaitingActor)`);
   if (can(actor, 'submitPlates')) parts.push(`p.state in ('verified', 'rejected')`);
   if (can(actor, 'decidePlates')) {
     parts.push(

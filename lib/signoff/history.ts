@@ -22,6 +22,9 @@ export async function plateHistory(actor: Actor, plateId: string): Promise<Histo
   const rows = await selectPlateHistory(plateId);
   return rows.map(({ meaning, comment, contentSha256, signedAt, ...entry }) => ({
     ...entry,
-    signature: meaning !== null && contentSha256 !== null ? { meaning, comment: comment ?? '', contentSha256, signedAt: signedAt ?? entry.occurredAt } : null,
+    signature:
+      meaning !== null && contentSha256 !== null
+        ? { meaning, comment: comment ?? '', contentSha256, signedAt: signedAt ?? entry.occurredAt }
+        : null,
   }));
 }

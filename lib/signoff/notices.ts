@@ -35,33 +35,61 @@ const signersOf = (next: SignoffAction) => rolesFor(PLATE_TRANSITIONS[next].capa
 /** Who hears of each step: the people of the next role, and on a decision the importer and submitter. */
 const AUDIENCE: Record<SignoffAction | 'import', Audience> = {
   import: {
-    kind: 'plate_imported', roles: signersOf('verify'), owners: false, subject: 'imported: compound map to verify', done: 'imported',
+    kind: 'plate_imported',
+    roles: signersOf('verify'),
+    owners: false,
+    subject: 'imported: compound map to verify',
+    done: 'imported',
     next: 'It waits for a chemist to verify its compound map.',
   },
   verify: {
-    kind: 'plate_verified', roles: signersOf('submit'), owners: false, subject: 'compound map verified: ready to review and submit', done: 'verified the compound map of',
+    kind: 'plate_verified',
+    roles: signersOf('submit'),
+    owners: false,
+    subject: 'compound map verified: ready to review and submit',
+    done: 'verified the compound map of',
     next: 'It waits for a biologist to review and submit it for approval.',
   },
   submit: {
-    kind: 'plate_submitted', roles: signersOf('approve'), owners: false, subject: 'submitted for approval', done: 'submitted',
+    kind: 'plate_submitted',
+    roles: signersOf('approve'),
+    owners: false,
+    subject: 'submitted for approval',
+    done: 'submitted',
     next: 'It waits for an approver to approve it or return it for rework.',
   },
   approve: {
-    kind: 'plate_approved', roles: [], owners: true, subject: 'approved and locked', done: 'approved',
+    kind: 'plate_approved',
+    roles: [],
+    owners: true,
+    subject: 'approved and locked',
+    done: 'approved',
     next: 'It is now locked; a correction is a new import that references it.',
   },
   reject: {
-    kind: 'plate_rejected', roles: signersOf('rework'), owners: true, subject: 'returned for rework', done: 'returned',
+    kind: 'plate_rejected',
+    roles: signersOf('rework'),
+    owners: true,
+    subject: 'returned for rework',
+    done: 'returned',
     next: 'It waits for a biologist to reopen it for rework.',
   },
   rework: {
-    kind: 'plate_reopened', roles: signersOf('verify'), owners: false, subject: 'reopened: compound map to verify again', done: 'reopened',
+    kind: 'plate_reopened',
+    roles: signersOf('verify'),
+    owners: false,
+    subject: 'reopened: compound map to verify again',
+    done: 'reopened',
     next: 'It waits for a chemist to verify its compound map again.',
   },
 };
 
 /** Enabled users holding one of the roles, or with one of the ids. */
-async function users(where: 'role' | 'id', values: readonly string[], transaction: Transaction): Promise<RecipientRow[]> {
+async function users(
+  where: 'role' | 'id',
+  values: readonly string[],
+  transaction: Transaction,
+): Promise<RecipientRow[]> {
   if (!values.length) return [];
   return selectRecipients(where, values, transaction);
 }
@@ -72,18 +100,35 @@ async function users(where: 'role' | 'id', values: readonly string[], transactio
  */
 export async function noticesFor(
   step: SignoffAction | 'import',
-  context: { actor: Actor; plate: NoticePlate; comment: string; signoffEventId: string | null; mayAct: (userId: string) => boolean },
+  context: {
+    actor: Actor;
+    plate: NoticePlate;
+    comment: string;
+    signoffEventId: string | null;
+    mayAct: (userId: string) => boolean;
+  },
   transaction: Transaction,
 ): Promise<OutgoingMail[]> {
   const audience = AUDIENCE[step];
   const { actor, plate } = context;
-  const next = (await users('role', audience.roles, transaction)).filter((person) => context.mayAct(person.id));
-  const owners = audience.owners ? await users('id', [plate.importedBy, ...(plate.submittedBy ? [plate.submittedBy] : [])], transaction) : [];
-  const people = [...new Map([...next, ...owners].map((person) => [person.id, person])).values()].filter((person) => person.id !== actor.id);
+  const next = (await users('role', audience.roles, transaction)).filter((person) =>
+    context.mayAct(person.id),
+  );
+  const owners = audience.owners
+    ? await users('id', [plate.importedBy, ...(plate.submittedBy ? [plate.submittedBy] : [])], transaction)
+    : [];
+  const people = [...new Map([...next, ...owners].map((person) => [person.id, person])).values()].filter(
+    (person) => person.id !== actor.id,
+  );
   const link = `${env().APP_URL.replace(/\/$/, '')}${plateSignoffPath(plate.id)}`;
   const subject = `Gatewell: plate ${plate.label} ${audience.subject}`;
   return people.map((person) => ({
-    kind: audience.kind, plateId: plate.id, signoffEventId: context.signoffEventId, recipientId: person.id, toAddress: person.email, subject,
+    kind: audience.kind,
+    plateId: plate.id,
+    signoffEventId: context.signoffEventId,
+    recipientId: person.id,
+    toAddress: person.email,
+    subject,
     bodyText: [
       `Hello ${person.name},`,
       '',

@@ -22,7 +22,12 @@ export interface SignoffPanelData {
   state: PlateState;
   version: number;
   waitingFor: string;
-  signers: { importedBy: string; verifiedBy: string | null; submittedBy: string | null; decidedBy: string | null };
+  signers: {
+    importedBy: string;
+    verifiedBy: string | null;
+    submittedBy: string | null;
+    decidedBy: string | null;
+  };
   /** SHA-256 of the plate's data now, and of the data under the latest signature. */
   currentSha256: string;
   lastSignature: { signerName: string; signedAt: string; meaning: string; contentSha256: string } | null;
@@ -37,17 +42,40 @@ export async function signoffPanel(actor: Actor, plateId: string): Promise<Signo
   const plate = await selectPanelPlate(plateId);
   if (!plate) throw new AppError('not_found', 'No such plate.');
   const last = await selectLastPlateSignature(plateId);
-  const signers = { importedBy: plate.importedById, verifiedBy: plate.verifiedById, submittedBy: plate.submittedById };
+  const signers = {
+    importedBy: plate.importedById,
+    verifiedBy: plate.verifiedById,
+    submittedBy: plate.submittedById,
+  };
   const steps = stepsFrom(plate.state);
   const withRole = steps.filter((step) => can(actor, step.capability));
   const allowed = withRole.filter((step) => step.dutyConflict(signers, actor.id) === null);
-  const notYours = steps.length === 0 || allowed.length ? null : withRole.length ? withRole[0]!.dutyConflict(signers, actor.id) : `This step needs the ${rolesFor(steps[0]!.capability).join(' or ')} role.`;
+  const notYours =
+    steps.length === 0 || allowed.length
+      ? null
+      : withRole.length
+        ? withRole[0]!.dutyConflict(signers, actor.id)
+        : `This step needs the ${rolesFor(steps[0]!.capability).join(' or ')} role.`;
   return {
-    plateId: plate.id, label: plate.label, state: plate.state, version: plate.version, waitingFor: WAITING_FOR[plate.state],
-    signers: { importedBy: plate.importedBy, verifiedBy: plate.verifiedBy, submittedBy: plate.submittedBy, decidedBy: plate.decidedBy },
+    plateId: plate.id,
+    label: plate.label,
+    state: plate.state,
+    version: plate.version,
+    waitingFor: WAITING_FOR[plate.state],
+    signers: {
+      importedBy: plate.importedBy,
+      verifiedBy: plate.verifiedBy,
+      submittedBy: plate.submittedBy,
+      decidedBy: plate.decidedBy,
+    },
     currentSha256: await plateContentSha256(plate.id),
     lastSignature: last ?? null,
-    choices: allowed.map(({ action, label, meaning, commentRequired }) => ({ action, label, meaning, commentRequired })),
+    choices: allowed.map(({ action, label, meaning, commentRequired }) => ({
+      action,
+      label,
+      meaning,
+      commentRequired,
+    })),
     notYours,
   };
 }

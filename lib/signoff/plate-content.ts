@@ -4,7 +4,13 @@ import { contentSha256 } from '@/lib/auth/canonical-json';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { processMap } from '@/lib/process-memory';
-import { selectContentFits, selectContentPlate, selectContentReadouts, selectContentWells, selectRowVersionFingerprint } from './queries';
+import {
+  selectContentFits,
+  selectContentPlate,
+  selectContentReadouts,
+  selectContentWells,
+  selectRowVersionFingerprint,
+} from './queries';
 
 /** Format of the signed plate content; bump it if the fields below ever change. */
 export const PLATE_CONTENT_FORMAT = 'gatewell-plate-content/1';
@@ -15,7 +21,10 @@ export const PLATE_CONTENT_FORMAT = 'gatewell-plate-content/1';
  * signed) are left out: they change with each signature, the data only when someone edits it.
  * Rows are ordered so that the same data always gives the same canonical JSON.
  */
-export async function plateContent(plateId: string, transaction?: Transaction): Promise<Record<string, unknown>> {
+export async function plateContent(
+  plateId: string,
+  transaction?: Transaction,
+): Promise<Record<string, unknown>> {
   const plate = await selectContentPlate(plateId, transaction);
   if (!plate) throw new AppError('not_found', 'No such plate.');
   const wells = await selectContentWells(plateId, transaction);
@@ -32,12 +41,16 @@ export async function plateContentSha256(plateId: string, transaction?: Transact
   if (transaction) return contentSha256(await plateContent(plateId, transaction));
   const fingerprint = await rowVersionFingerprint(plateId);
   const cached = contentHashes().get(plateId);
-  if (cached && cached.fingerprint === fingerprint && Date.now() - cached.at < CONTENT_HASH_MAX_AGE_MS) return cached.sha256;
+  if (cached && cached.fingerprint === fingerprint && Date.now() - cached.at < CONTENT_HASH_MAX_AGE_MS)
+    return cached.sha256;
   // Read the content and the fingerprint in one snapshot, so that the cached hash belongs to that fingerprint.
-  const { sha256, fingerprint: seen } = await db().transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }, async (snapshot) => ({
-    sha256: contentSha256(await plateContent(plateId, snapshot)),
-    fingerprint: await rowVersionFingerprint(plateId, snapshot),
-  }));
+  const { sha256, fingerprint: seen } = await db().transaction(
+    { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true },
+    async (snapshot) => ({
+      sha256: contentSha256(await plateContent(plateId, snapshot)),
+      fingerprint: await rowVersionFingerprint(plateId, snapshot),
+    }),
+  );
   remember(plateId, { fingerprint: seen, sha256, at: Date.now() });
   return sha256;
 }

@@ -3,10 +3,14 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
 import type { PlateState } from '@/lib/domain/plate-states';
 
-const opts = (plateId: string, transaction?: Transaction) => ({ type: QueryTypes.SELECT, replacements: { plateId }, ...(transaction ? { transaction } : {}) }) as const;
+const opts = (plateId: string, transaction?: Transaction) =>
+  ({ type: QueryTypes.SELECT, replacements: { plateId }, ...(transaction ? { transaction } : {}) }) as const;
 
 // SQL: the signed content is exactly these columns, named and ordered here, so that the same data always hashes the same.
-export async function selectContentPlate(plateId: string, transaction?: Transaction): Promise<Record<string, unknown> | undefined> {
+export async function selectContentPlate(
+  plateId: string,
+  transaction?: Transaction,
+): Promise<Record<string, unknown> | undefined> {
   const [plate] = await db().query<Record<string, unknown>>(
     `select p.id, p.label, p.format, p.screen_id as "screenId", p.supersedes_plate_id as "supersedesPlateId", p.imported_by as "importedBy",
             f.filename, f.sha256 as "fileSha256", p.qc_summary as "qcSummary"
@@ -49,7 +53,10 @@ export async function selectContentFits(plateId: string, transaction?: Transacti
 }
 
 // SQL: reads the system columns xmin and ctid and aggregates them in PostgreSQL, which the ORM cannot say.
-export async function selectRowVersionFingerprint(plateId: string, transaction?: Transaction): Promise<string | null> {
+export async function selectRowVersionFingerprint(
+  plateId: string,
+  transaction?: Transaction,
+): Promise<string | null> {
   const [row] = await db().query<{ fingerprint: string | null }>(
     `select md5(string_agg(part, ',')) as fingerprint from (
        select 'p' || p.xmin || p.ctid || f.xmin || f.ctid as part from plates p join uploaded_files f on f.id = p.uploaded_file_id where p.id = :plateId
@@ -142,7 +149,10 @@ export async function selectPlateHistory(plateId: string): Promise<HistoryRow[]>
 }
 
 // SQL for speed: the latest sign-off's signer and time in one query, in the caller's transaction (two joins the models do not declare).
-export async function selectLastSignoff(plateId: string, transaction: Transaction): Promise<{ name: string; signedAt: Date } | undefined> {
+export async function selectLastSignoff(
+  plateId: string,
+  transaction: Transaction,
+): Promise<{ name: string; signedAt: Date } | undefined> {
   const [last] = await db().query<{ name: string; signedAt: Date }>(
     `select u.name, s.signed_at as "signedAt" from signoff_events e join signatures s on s.id = e.signature_id join users u on u.id = s.signer_id
       where e.plate_id = :plateId order by e.occurred_at desc, s.signed_at desc limit 1`,
@@ -158,9 +168,21 @@ export interface RecipientRow {
 }
 
 // SQL for speed: enabled users holding one of the roles, or with one of the ids, in the caller's transaction, as plain rows.
-export async function selectRecipients(where: 'role' | 'id', values: readonly string[], transaction: Transaction): Promise<RecipientRow[]> {
-  const condition = where === 'role' ? 'u.id in (select user_id from user_roles where role in (:values))' : 'u.id in (:values)';
-  return db().query<RecipientRow>(`select u.id, u.email, u.name from users u where u.disabled_at is null and ${condition} order by u.email`, {
-    type: QueryTypes.SELECT, replacements: { values }, transaction,
-  });
+export async function selectRecipients(
+  where: 'role' | 'id',
+  values: readonly string[],
+  transaction: Transaction,
+): Promise<RecipientRow[]> {
+  const condition =
+    where === 'role'
+      ? 'u.id in (select user_id from user_roles where role in (:values))'
+      : 'u.id in (:values)';
+  return db().query<RecipientRow>(
+    `select u.id, u.email, u.name from users u where u.disabled_at is null and ${condition} order by u.email`,
+    {
+      type: QueryTypes.SELECT,
+      replacements: { values },
+      transaction,
+    },
+  );
 }

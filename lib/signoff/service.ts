@@ -28,7 +28,10 @@ export interface SignoffResult {
 }
 
 /** The plate columns a step sets: who verified, submitted or decided; rework clears them for the next round. */
-function signerColumns(action: SignoffAction, actorId: string): Partial<Pick<Plate, 'verifiedBy' | 'submittedBy' | 'decidedBy'>> {
+function signerColumns(
+  action: SignoffAction,
+  actorId: string,
+): Partial<Pick<Plate, 'verifiedBy' | 'submittedBy' | 'decidedBy'>> {
   if (action === 'verify') return { verifiedBy: actorId };
   if (action === 'submit') return { submittedBy: actorId };
   if (action === 'rework') return { verifiedBy: null, submittedBy: null, decidedBy: null };
@@ -43,18 +46,30 @@ function mayActNext(plate: Plate, userId: string): boolean {
 /** States a plate reaches only with current fits (the database checks submitted and approved as well). */
 const SIGNED_OVER_FITS: PlateState[] = ['verified', 'submitted', 'approved'];
 
-async function lockForStep(actor: Actor, plateId: string, step: SignoffStep, expectedVersion: number | undefined, transaction: Transaction): Promise<Plate> {
+async function lockForStep(
+  actor: Actor,
+  plateId: string,
+  step: SignoffStep,
+  expectedVersion: number | undefined,
+  transaction: Transaction,
+): Promise<Plate> {
   const plate = await Plate.findByPk(plateId, { transaction, lock: transaction.LOCK.UPDATE });
   if (!plate) throw new AppError('not_found', 'No such plate.');
   if (plate.state !== step.from) await refuseWrongState(plate, step, transaction);
   if (expectedVersion !== undefined && expectedVersion !== plate.version) {
-    throw new AppError('conflict', `Plate ${plate.label} changed after you opened it; reload the page and check it before you sign. Nothing was signed.`);
+    throw new AppError(
+      'conflict',
+      `Plate ${plate.label} changed after you opened it; reload the page and check it before you sign. Nothing was signed.`,
+    );
   }
   const conflict = step.dutyConflict(plate, actor.id);
   if (conflict) throw new AppError('forbidden', conflict);
   // A signature covers the fits: it waits until the refit queued by the last change has run.
   if (plate.fitsPending && SIGNED_OVER_FITS.includes(step.to)) {
-    throw new AppError('conflict', `The fits of plate ${plate.label} are still being computed after its last change; sign once the plate page shows them current. Nothing was signed.`);
+    throw new AppError(
+      'conflict',
+      `The fits of plate ${plate.label} are still being computed after its last change; sign once the plate page shows them current. Nothing was signed.`,
+    );
   }
   return plate;
 }
@@ -65,7 +80,11 @@ async function lockForStep(actor: Actor, plateId: string, step: SignoffStep, exp
  * appends the audit event and the notifications for whoever acts next. The plate row is locked first,
  * so of two people signing at once exactly one succeeds; the other is told what happened.
  */
-export async function signPlateStep(actor: Actor, plateId: string, raw: SignoffRequest): Promise<SignoffResult> {
+export async function signPlateStep(
+  actor: Actor,
+  plateId: string,
+  raw: SignoffRequest,
+): Promise<SignoffResult> {
   const input = parseOrRefuse(signoffRequestSchema, raw, 'The signature is not complete.');
   const step = SIGNOFF_STEPS[input.action];
   requireCapability(actor, step.capability);
@@ -73,23 +92,81 @@ export async function signPlateStep(actor: Actor, plateId: string, raw: SignoffR
     return await db().transaction(async (transaction) => {
       const plate = await lockForStep(actor, plateId, step, input.expectedVersion, transaction);
       const content = await plateContent(plate.id, transaction);
-      const signature = await signRecord(actor, { password: input.password, meaning: step.meaning, comment: input.comment, entityType: 'plate', entityId: plate.id, content }, transaction);
-      const event = await SignoffEvent.create({ plateId: plate.id, signatureId: signature.id, fromState: step.from, toState: step.to }, { transaction });
-      const before = { state: plate.state, version: plate.version, verifiedBy: plate.verifiedBy, submittedBy: plate.submittedBy, decidedBy: plate.decidedBy };
-      await plate.update({ state: step.to, version: plate.version + 1, ...signerColumns(step.action, actor.id) }, { transaction });
-      await recordAudit({
-        actorId: actor.id, action: step.action, entityType: 'plate', entityId: plate.id, reason: input.comment || null, address: actor.address, before,
-        after: { state: plate.state, version: plate.version, signatureId: signature.id, signoffEventId: event.id, meaning: step.meaning, contentSha256: signature.contentSha256 },
-      }, transaction);
+      const signature = await signRecord(
+        actor,
+        {
+          password: input.password,
+          meaning: step.meaning,
+          comment: input.comment,
+          entityType: 'plate',
+          entityId: plate.id,
+          content,
+        },
+        transaction,
+      );
+      const event = await SignoffEvent.create(
+        { plateId: plate.id, signatureId: signature.id, fromState: step.from, toState: step.to },
+        { transaction },
+      );
+      const before = {
+        state: plate.state,
+        version: plate.version,
+        verifiedBy: plate.verifiedBy,
+        submittedBy: plate.submittedBy,
+        decidedBy: plate.decidedBy,
+      };
+      await plate.update(
+        { state: step.to, version: plate.version + 1, ...signerColumns(step.action, actor.id) },
+        { transaction },
+      );
+      await recordAudit(
+        {
+          actorId: actor.id,
+          action: step.action,
+          entityType: 'plate',
+          entityId: plate.id,
+          reason: input.comment || null,
+          address: actor.address,
+          before,
+          after: {
+            state: plate.state,
+            version: plate.version,
+            signatureId: signature.id,
+            signoffEventId: event.id,
+            meaning: step.meaning,
+            contentSha256: signature.contentSha256,
+          },
+        },
+        transaction,
+      );
       const screen = await Screen.findByPk(plate.screenId, { transaction, rejectOnEmpty: true });
-      const notices = await noticesFor(step.action, {
-        actor, comment: input.comment, signoffEventId: event.id, mayAct: (userId) => mayActNext(plate, userId),
-        plate: { id: plate.id, label: plate.label, screenName: screen.name, importedBy: plate.importedBy, submittedBy: plate.submittedBy },
-      }, transaction);
+      const notices = await noticesFor(
+        step.action,
+        {
+          actor,
+          comment: input.comment,
+          signoffEventId: event.id,
+          mayAct: (userId) => mayActNext(plate, userId),
+          plate: {
+            id: plate.id,
+            label: plate.label,
+            screenName: screen.name,
+            importedBy: plate.importedBy,
+            submittedBy: plate.submittedBy,
+          },
+        },
+        transaction,
+      );
       const notified = await queueMail(notices, transaction);
       return {
-        plateId: plate.id, label: plate.label, state: plate.state, version: plate.version, signatureId: signature.id,
-        signoffEventId: event.id, contentSha256: signature.contentSha256, notified,
+        plateId: plate.id,
+        label: plate.label,
+        state: plate.state,
+        version: plate.version,
+        signatureId: signature.id,
+        signoffEventId: event.id,
+        contentSha256: signature.contentSha256,
+        notified,
       };
     });
   } catch (error) {

@@ -1,5 +1,10 @@
 import 'server-only';
-import { PLATE_TRANSITIONS, type PlateState, type PlateTransition, type SignoffAction } from '@/lib/domain/plate-states';
+import {
+  PLATE_TRANSITIONS,
+  type PlateState,
+  type PlateTransition,
+  type SignoffAction,
+} from '@/lib/domain/plate-states';
 
 /** Who has signed what on the plate so far in this round (the plate row's *_by columns). */
 export interface PlateSigners {
@@ -25,7 +30,8 @@ const none = () => null;
 /** Nobody decides on a plate they imported, verified or submitted (also CHECK constraints on plates). */
 function deciderConflict(plate: PlateSigners, actorId: string): string | null {
   if (actorId === plate.importedBy) return 'You imported this plate, so another approver decides on it.';
-  if (actorId === plate.verifiedBy) return 'You verified this plate’s compound map, so another approver decides on it.';
+  if (actorId === plate.verifiedBy)
+    return 'You verified this plate’s compound map, so another approver decides on it.';
   if (actorId === plate.submittedBy) return 'You submitted this plate, so another approver decides on it.';
   return null;
 }
@@ -33,27 +39,45 @@ function deciderConflict(plate: PlateSigners, actorId: string): string | null {
 /** Gatewell's sign-off steps over the transitions of PLATE_TRANSITIONS. */
 export const SIGNOFF_STEPS: Record<SignoffAction, SignoffStep> = {
   verify: {
-    action: 'verify', ...PLATE_TRANSITIONS.verify, label: 'Verify the compound map', commentRequired: false,
+    action: 'verify',
+    ...PLATE_TRANSITIONS.verify,
+    label: 'Verify the compound map',
+    commentRequired: false,
     meaning: 'Compound map verified: each well holds the compound and concentration the export states.',
-    dutyConflict: (plate, actorId) => (actorId === plate.importedBy ? 'You imported this plate, so another chemist verifies its compound map.' : null),
+    dutyConflict: (plate, actorId) =>
+      actorId === plate.importedBy
+        ? 'You imported this plate, so another chemist verifies its compound map.'
+        : null,
   },
   submit: {
-    action: 'submit', ...PLATE_TRANSITIONS.submit, label: 'Submit for approval', commentRequired: false,
+    action: 'submit',
+    ...PLATE_TRANSITIONS.submit,
+    label: 'Submit for approval',
+    commentRequired: false,
     meaning: 'Reviewed and submitted: the QC, exclusions and fits of this plate are ready for approval.',
     dutyConflict: none,
   },
   approve: {
-    action: 'approve', ...PLATE_TRANSITIONS.approve, label: 'Approve', commentRequired: false,
+    action: 'approve',
+    ...PLATE_TRANSITIONS.approve,
+    label: 'Approve',
+    commentRequired: false,
     meaning: 'Approved: the results of this plate are accepted as they stand, and the plate is locked.',
     dutyConflict: deciderConflict,
   },
   reject: {
-    action: 'reject', ...PLATE_TRANSITIONS.reject, label: 'Return for rework', commentRequired: true,
+    action: 'reject',
+    ...PLATE_TRANSITIONS.reject,
+    label: 'Return for rework',
+    commentRequired: true,
     meaning: 'Returned for rework: the results of this plate are not accepted as they stand.',
     dutyConflict: deciderConflict,
   },
   rework: {
-    action: 'rework', ...PLATE_TRANSITIONS.rework, label: 'Reopen for rework', commentRequired: false,
+    action: 'rework',
+    ...PLATE_TRANSITIONS.rework,
+    label: 'Reopen for rework',
+    commentRequired: false,
     meaning: 'Reopened for rework: the plate goes back to compound-map verification.',
     dutyConflict: none,
   },

@@ -13,7 +13,10 @@ import { lockUser, snapshotOf } from './records';
  * failed attempt). Every other session of theirs ends; the caller re-seals the current session with
  * the session version returned here.
  */
-export async function changeOwnPassword(actor: Actor, raw: ChangePasswordInput): Promise<{ sessionVersion: number }> {
+export async function changeOwnPassword(
+  actor: Actor,
+  raw: ChangePasswordInput,
+): Promise<{ sessionVersion: number }> {
   const input = parseOrRefuse(changePasswordSchema, raw);
   await reverifyPassword(actor, input.currentPassword, {
     failedAction: 'change_password_failed',
@@ -25,9 +28,25 @@ export async function changeOwnPassword(actor: Actor, raw: ChangePasswordInput):
   return db().transaction(async (transaction) => {
     const { user, roles } = await lockUser(actor.id, transaction);
     const before = snapshotOf(user, roles);
-    await user.update({ passwordHash, passwordChangedAt: new Date(), passwordChangeRequired: false, sessionVersion: user.sessionVersion + 1 }, { transaction });
+    await user.update(
+      {
+        passwordHash,
+        passwordChangedAt: new Date(),
+        passwordChangeRequired: false,
+        sessionVersion: user.sessionVersion + 1,
+      },
+      { transaction },
+    );
     await recordAudit(
-      { actorId: actor.id, action: 'change_password', entityType: 'user', entityId: user.id, before, after: snapshotOf(user, roles), address: actor.address },
+      {
+        actorId: actor.id,
+        action: 'change_password',
+        entityType: 'user',
+        entityId: user.id,
+        before,
+        after: snapshotOf(user, roles),
+        address: actor.address,
+      },
       transaction,
     );
     return { sessionVersion: user.sessionVersion };

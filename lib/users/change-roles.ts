@@ -6,7 +6,14 @@ import { AppError } from '@/lib/errors';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { changeRolesSchema, type ChangeRolesInput } from '@/lib/validation/users';
 import { UserRole } from '@/models';
-import { assertAnotherEnabledAdmin, lockAdminSet, lockUser, snapshotOf, summaryOf, type UserSummary } from './records';
+import {
+  assertAnotherEnabledAdmin,
+  lockAdminSet,
+  lockUser,
+  snapshotOf,
+  summaryOf,
+  type UserSummary,
+} from './records';
 
 /**
  * Replaces a user's roles. Refuses to take the admin role from the last enabled admin. Roles are read on
@@ -30,7 +37,11 @@ export async function changeRoles(actor: Actor, raw: ChangeRolesInput): Promise<
       await assertAnotherEnabledAdmin(user.id, 'take away its admin role', transaction);
     }
     if (removed.length) await UserRole.destroy({ where: { userId: user.id, role: removed }, transaction });
-    if (added.length) await UserRole.bulkCreate(added.map((role) => ({ userId: user.id, role })), { transaction });
+    if (added.length)
+      await UserRole.bulkCreate(
+        added.map((role) => ({ userId: user.id, role })),
+        { transaction },
+      );
     await recordAudit(
       {
         actorId: actor.id,

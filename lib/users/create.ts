@@ -40,23 +40,45 @@ export async function createUser(actor: Actor, raw: CreateUserInput): Promise<Cr
     return await db().transaction(async (transaction) => {
       if (await User.findOne({ where: { email: input.email }, transaction })) throw emailTaken();
       const user = await User.create(
-        { email: input.email, name: input.name, passwordHash, passwordChangeRequired: !invited, disabledAt: null, lastSignInAt: null },
+        {
+          email: input.email,
+          name: input.name,
+          passwordHash,
+          passwordChangeRequired: !invited,
+          disabledAt: null,
+          lastSignInAt: null,
+        },
         { transaction },
       );
-      await UserRole.bulkCreate(input.roles.map((role) => ({ userId: user.id, role })), { transaction });
-      if (invited) await issuePasswordLink(user, { purpose: 'invitation', address: actor.address, invitedBy: actor, roles: input.roles }, transaction);
+      await UserRole.bulkCreate(
+        input.roles.map((role) => ({ userId: user.id, role })),
+        { transaction },
+      );
+      if (invited)
+        await issuePasswordLink(
+          user,
+          { purpose: 'invitation', address: actor.address, invitedBy: actor, roles: input.roles },
+          transaction,
+        );
       await recordAudit(
         {
           actorId: actor.id,
           action: 'create',
           entityType: 'user',
           entityId: user.id,
-          after: { ...snapshotOf(user, input.roles), initialPassword: invited ? 'link by e-mail' : input.password ? 'set by admin' : 'generated' },
+          after: {
+            ...snapshotOf(user, input.roles),
+            initialPassword: invited ? 'link by e-mail' : input.password ? 'set by admin' : 'generated',
+          },
           address: actor.address,
         },
         transaction,
       );
-      return { user: summaryOf(user, input.roles), initialPassword: invited || input.password ? null : password, invited };
+      return {
+        user: summaryOf(user, input.roles),
+        initialPassword: invited || input.password ? null : password,
+        invited,
+      };
     });
   } catch (error) {
     if (error instanceof UniqueConstraintError) throw emailTaken();

@@ -25,7 +25,9 @@ export async function listUsers(actor: Actor): Promise<UserSummary[]> {
 export async function getUser(actor: Actor, rawUserId: string): Promise<UserSummary> {
   requireCapability(actor, 'manageUsers');
   db();
-  const user = await User.findByPk(parseId(rawUserId, 'user'), { include: [{ model: UserRole, as: 'roles' }] });
+  const user = await User.findByPk(parseId(rawUserId, 'user'), {
+    include: [{ model: UserRole, as: 'roles' }],
+  });
   if (!user) throw new AppError('not_found', 'No such user.');
   return summaryOf(user, rolesOf(user));
 }

@@ -8,7 +8,10 @@ export async function lockAdminSetKey(transaction: Transaction): Promise<void> {
 }
 
 // SQL: an aggregate over users joined to their roles, in the caller's transaction (after the admin-set lock).
-export async function countOtherEnabledAdmins(userId: string, transaction: Transaction): Promise<number | undefined> {
+export async function countOtherEnabledAdmins(
+  userId: string,
+  transaction: Transaction,
+): Promise<number | undefined> {
   const [row] = await db().query<{ n: number }>(
     `select count(*)::int as n from users u join user_roles r on r.user_id = u.id
       where r.role = 'admin' and u.disabled_at is null and u.id <> :userId`,

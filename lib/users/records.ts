@@ -55,7 +55,10 @@ export function snapshotOf(user: User, roles: Role[]): UserSnapshot {
 }
 
 /** Loads a user and their roles with the user's row locked until the transaction ends. */
-export async function lockUser(userId: string, transaction: Transaction): Promise<{ user: User; roles: Role[] }> {
+export async function lockUser(
+  userId: string,
+  transaction: Transaction,
+): Promise<{ user: User; roles: Role[] }> {
   const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
   if (!user) throw new AppError('not_found', 'This user does not exist.');
   const rows = await UserRole.findAll({ where: { userId }, transaction });
@@ -68,9 +71,16 @@ export async function lockAdminSet(transaction: Transaction): Promise<void> {
 }
 
 /** Refuses a change (removing the admin role, disabling) that would leave no other enabled admin. */
-export async function assertAnotherEnabledAdmin(userId: string, change: string, transaction: Transaction): Promise<void> {
+export async function assertAnotherEnabledAdmin(
+  userId: string,
+  change: string,
+  transaction: Transaction,
+): Promise<void> {
   const others = await countOtherEnabledAdmins(userId, transaction);
   if (!others) {
-    throw new AppError('conflict', `This is the last enabled admin, so Gatewell cannot ${change}. Give another person the admin role first.`);
+    throw new AppError(
+      'conflict',
+      `This is the last enabled admin, so Gatewell cannot ${change}. Give another person the admin role first.`,
+    );
   }
 }

@@ -22,14 +22,25 @@ export async function resetPassword(actor: Actor, raw: ResetPasswordInput): Prom
   requireCapability(actor, 'manageUsers');
   const input = parseOrRefuse(resetPasswordSchema, raw);
   if (input.userId === actor.id) {
-    throw new AppError('conflict', 'Change your own password on the Account page; it asks for your current one.');
+    throw new AppError(
+      'conflict',
+      'Change your own password on the Account page; it asks for your current one.',
+    );
   }
   const password = input.password ?? generatePassword();
   const passwordHash = await hashPassword(password);
   return db().transaction(async (transaction) => {
     const { user, roles } = await lockUser(input.userId, transaction);
     const before = snapshotOf(user, roles);
-    await user.update({ passwordHash, passwordChangedAt: new Date(), passwordChangeRequired: true, sessionVersion: user.sessionVersion + 1 }, { transaction });
+    await user.update(
+      {
+        passwordHash,
+        passwordChangedAt: new Date(),
+        passwordChangeRequired: true,
+        sessionVersion: user.sessionVersion + 1,
+      },
+      { transaction },
+    );
     await recordAudit(
       {
         actorId: actor.id,

@@ -5,7 +5,14 @@ import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { userStatusSchema, type UserStatusInput } from '@/lib/validation/users';
-import { assertAnotherEnabledAdmin, lockAdminSet, lockUser, snapshotOf, summaryOf, type UserSummary } from './records';
+import {
+  assertAnotherEnabledAdmin,
+  lockAdminSet,
+  lockUser,
+  snapshotOf,
+  summaryOf,
+  type UserSummary,
+} from './records';
 
 /**
  * Disables an account: it can no longer sign in, and its open sessions end (session_version moves on,
@@ -21,11 +28,21 @@ export async function disableUser(actor: Actor, raw: UserStatusInput): Promise<U
     await lockAdminSet(transaction);
     const { user, roles } = await lockUser(input.userId, transaction);
     if (user.disabledAt) throw new AppError('conflict', 'This account is disabled already.');
-    if (roles.includes('admin')) await assertAnotherEnabledAdmin(user.id, 'disable this account', transaction);
+    if (roles.includes('admin'))
+      await assertAnotherEnabledAdmin(user.id, 'disable this account', transaction);
     const before = snapshotOf(user, roles);
     await user.update({ disabledAt: new Date(), sessionVersion: user.sessionVersion + 1 }, { transaction });
     await recordAudit(
-      { actorId: actor.id, action: 'disable', entityType: 'user', entityId: user.id, before, after: snapshotOf(user, roles), reason: input.reason, address: actor.address },
+      {
+        actorId: actor.id,
+        action: 'disable',
+        entityType: 'user',
+        entityId: user.id,
+        before,
+        after: snapshotOf(user, roles),
+        reason: input.reason,
+        address: actor.address,
+      },
       transaction,
     );
     return summaryOf(user, roles);
@@ -43,7 +60,16 @@ export async function enableUser(actor: Actor, raw: UserStatusInput): Promise<Us
     const before = snapshotOf(user, roles);
     await user.update({ disabledAt: null }, { transaction });
     await recordAudit(
-      { actorId: actor.id, action: 'enable', entityType: 'user', entityId: user.id, before, after: snapshotOf(user, roles), reason: input.reason, address: actor.address },
+      {
+        actorId: actor.id,
+        action: 'enable',
+        entityType: 'user',
+        entityId: user.id,
+        before,
+        after: snapshotOf(user, roles),
+        reason: input.reason,
+        address: actor.address,
+      },
       transaction,
     );
     return summaryOf(user, roles);

@@ -27,7 +27,8 @@ const blankToUndefined = (value: unknown) => {
   const one = single(value);
   return typeof one === 'string' && one.trim() === '' ? undefined : one;
 };
-const text = (max: number, message: string) => z.preprocess(blankToUndefined, z.string().trim().max(max, message).optional());
+const text = (max: number, message: string) =>
+  z.preprocess(blankToUndefined, z.string().trim().max(max, message).optional());
 const moment = (asEnd: boolean) =>
   z.preprocess(
     blankToUndefined,
@@ -37,7 +38,11 @@ const moment = (asEnd: boolean) =>
       .transform((value, context) => {
         if (value === undefined) return undefined;
         const parsed = parseMoment(value.trim(), asEnd);
-        if (!parsed) context.addIssue({ code: 'custom', message: 'Use a date and time such as 2026-12-01T09:30 (UTC).' });
+        if (!parsed)
+          context.addIssue({
+            code: 'custom',
+            message: 'Use a date and time such as 2026-12-01T09:30 (UTC).',
+          });
         return parsed ?? undefined;
       }),
   );
@@ -50,7 +55,15 @@ export const auditFilterSchema = z
     userId: z.preprocess(blankToUndefined, z.uuid('Choose a person from the list.').optional()),
     from: moment(false),
     to: moment(true),
-    page: z.preprocess(blankToUndefined, z.coerce.number('Pages are numbered from 1.').int('Pages are numbered from 1.').min(1, 'Pages are numbered from 1.').max(1_000_000).default(1)),
+    page: z.preprocess(
+      blankToUndefined,
+      z.coerce
+        .number('Pages are numbered from 1.')
+        .int('Pages are numbered from 1.')
+        .min(1, 'Pages are numbered from 1.')
+        .max(1_000_000)
+        .default(1),
+    ),
   })
   .refine((filter) => !filter.from || !filter.to || filter.from < filter.to, {
     path: ['to'],

@@ -1,7 +1,12 @@
 import { z } from 'zod';
 
 export const signInSchema = z.object({
-  email: z.string().trim().min(1, 'Enter your e-mail address.').max(254).pipe(z.email('Enter a valid e-mail address.')),
+  email: z
+    .string()
+    .trim()
+    .min(1, 'Enter your e-mail address.')
+    .max(254)
+    .pipe(z.email('Enter a valid e-mail address.')),
   password: z.string().min(1, 'Enter your password.').max(1024, 'That password is too long.'),
   next: z.string().optional(),
 });

@@ -11,7 +11,10 @@ function exportQuery<const T extends readonly [string, ...string[]]>(tables: T) 
       format: z.enum(['xlsx', 'csv'], { error: 'format must be xlsx or csv.' }).default('xlsx'),
       table: z.enum(tables, { error: `table must be one of: ${tables.join(', ')}.` }).optional(),
     })
-    .refine((q) => q.format !== 'csv' || q.table !== undefined, { path: ['table'], message: `A csv file holds one table: add table=${tables.join(', ')}.` });
+    .refine((q) => q.format !== 'csv' || q.table !== undefined, {
+      path: ['table'],
+      message: `A csv file holds one table: add table=${tables.join(', ')}.`,
+    });
 }
 
 export const plateExportQuerySchema = exportQuery(PLATE_EXPORT_TABLES);

@@ -1,7 +1,16 @@
 import { z } from 'zod';
 
 /** How a target's fit enters a forecast: its potency is used, or why it is treated as no block. */
-export const POTENCY_USES = ['used', 'above_range', 'inactive', 'insufficient', 'not_converged', 'slope_out_of_range', 'not_tested', 'not_modelled'] as const;
+export const POTENCY_USES = [
+  'used',
+  'above_range',
+  'inactive',
+  'insufficient',
+  'not_converged',
+  'slope_out_of_range',
+  'not_tested',
+  'not_modelled',
+] as const;
 export type PotencyUse = (typeof POTENCY_USES)[number];
 
 /** One target of a compound as a forecast sees it (the note says in words what was done). */
@@ -21,7 +30,12 @@ export const targetPotencySchema = z.object({
 });
 
 const nullableNumber = z.number().nullable();
-const shiftSchema = z.object({ control: nullableNumber, value: nullableNumber, delta: nullableNumber, relative: nullableNumber });
+const shiftSchema = z.object({
+  control: nullableNumber,
+  value: nullableNumber,
+  delta: nullableNumber,
+  relative: nullableNumber,
+});
 
 export const conditionViewSchema = z.object({
   concentration_uM: z.number(),
@@ -36,7 +50,12 @@ export const conditionViewSchema = z.object({
     fI: z.array(z.object({ drive_uA_cm2: z.number(), rate_Hz: z.number() })),
     flags: z.array(z.string()),
   }),
-  shifts: z.object({ rest_mV: shiftSchema, rheobase_uA_cm2: shiftSchema, threshold_mV: shiftSchema, referenceRate_Hz: shiftSchema }),
+  shifts: z.object({
+    rest_mV: shiftSchema,
+    rheobase_uA_cm2: shiftSchema,
+    threshold_mV: shiftSchema,
+    referenceRate_Hz: shiftSchema,
+  }),
 });
 
 const traceSchema = z.object({ t_ms: z.array(z.number()), v_mV: z.array(z.number()) });
@@ -47,11 +66,23 @@ export const forecastViewSchema = z.object({
   computedAt: z.string(),
   reused: z.boolean(),
   preset: z.object({ name: z.string(), title: z.string(), reference: z.string() }),
-  protocol: z.object({ rheobaseStep_ms: z.number(), rateStep_ms: z.number(), thresholdSlope_mV_ms: z.number(), referenceDriveFactor: z.number() }),
+  protocol: z.object({
+    rheobaseStep_ms: z.number(),
+    rateStep_ms: z.number(),
+    thresholdSlope_mV_ms: z.number(),
+    referenceDriveFactor: z.number(),
+  }),
   referenceDrive_uA_cm2: nullableNumber,
   control: conditionViewSchema,
   conditions: z.array(conditionViewSchema),
-  traces: z.object({ drive_uA_cm2: z.number(), concentration_uM: nullableNumber, control: traceSchema, condition: traceSchema.nullable() }).nullable(),
+  traces: z
+    .object({
+      drive_uA_cm2: z.number(),
+      concentration_uM: nullableNumber,
+      control: traceSchema,
+      condition: traceSchema.nullable(),
+    })
+    .nullable(),
   caution: z.string(),
 });
 
@@ -75,7 +106,15 @@ export const plateForecastListSchema = z.object({
   plate: z.object({ id: z.uuid(), label: z.string(), state: z.string() }),
   preset: z.string(),
   exposures_uM: z.array(z.number()),
-  compounds: z.array(z.object({ compoundId: z.uuid(), compound: z.string(), targets: z.array(targetPotencySchema), reason: z.string().nullable(), stored: z.boolean() })),
+  compounds: z.array(
+    z.object({
+      compoundId: z.uuid(),
+      compound: z.string(),
+      targets: z.array(targetPotencySchema),
+      reason: z.string().nullable(),
+      stored: z.boolean(),
+    }),
+  ),
   caution: z.string(),
 });
 
@@ -86,7 +125,11 @@ export const plateForecastQuerySchema = z.object({
   compoundId: z.uuid({ error: 'compoundId must be the id of a compound on this plate.' }).optional(),
   at: z.preprocess(
     (v) => (v === '' ? undefined : v),
-    z.coerce.number({ error: AT_MESSAGE }).int({ error: AT_MESSAGE }).min(0, { error: AT_MESSAGE }).optional(),
+    z.coerce
+      .number({ error: AT_MESSAGE })
+      .int({ error: AT_MESSAGE })
+      .min(0, { error: AT_MESSAGE })
+      .optional(),
   ),
 });
 

@@ -4,14 +4,17 @@ import { columnMappingDraftSchema } from '@/lib/imports/mapping-schema';
 /** Largest upload Gatewell accepts, bytes (10 MB, as the import design says). */
 export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
 
-const mappingJson = z.string().transform((text, ctx) => {
-  try {
-    return JSON.parse(text) as unknown;
-  } catch {
-    ctx.addIssue({ code: 'custom', message: 'The column mapping is not valid JSON.' });
-    return z.NEVER;
-  }
-}).pipe(columnMappingDraftSchema);
+const mappingJson = z
+  .string()
+  .transform((text, ctx) => {
+    try {
+      return JSON.parse(text) as unknown;
+    } catch {
+      ctx.addIssue({ code: 'custom', message: 'The column mapping is not valid JSON.' });
+      return z.NEVER;
+    }
+  })
+  .pipe(columnMappingDraftSchema);
 
 /** Fields of the inspect request besides the file. */
 export const inspectFieldsSchema = z.object({
@@ -25,14 +28,25 @@ const draftIdField = z.uuid('Read the file first: send the draftId that inspect 
 const sheetFields = {
   sheet: z.string().min(1, 'Choose a sheet.').max(200),
   mapping: mappingJson,
-  format: z.enum(['', '96', '384', '1536']).default('').transform((v) => (v === '' ? undefined : (Number(v) as 96 | 384 | 1536))),
+  format: z
+    .enum(['', '96', '384', '1536'])
+    .default('')
+    .transform((v) => (v === '' ? undefined : (Number(v) as 96 | 384 | 1536))),
 };
 
 /** What a commit adds to a preview: the plate's label, a template to save, a plate it supersedes. */
 const commitOnlyFields = {
   label: z.string().trim().min(1, 'Give the plate a label (its barcode or name).').max(120),
-  templateName: z.string().trim().max(100).optional().transform((v) => (v ? v : undefined)),
-  supersedesPlateId: z.union([z.uuid(), z.literal('')]).optional().transform((v) => (v ? v : undefined)),
+  templateName: z
+    .string()
+    .trim()
+    .max(100)
+    .optional()
+    .transform((v) => (v ? v : undefined)),
+  supersedesPlateId: z
+    .union([z.uuid(), z.literal('')])
+    .optional()
+    .transform((v) => (v ? v : undefined)),
 };
 
 /** Fields of the preview request: the draft, sheet, mapping and format (no file). */
@@ -78,18 +92,31 @@ function isPlainRows(rows: unknown): rows is DraftCell[][] {
   for (const row of rows as unknown[]) {
     if (!Array.isArray(row)) return false;
     for (const cell of row as unknown[]) {
-      if (cell !== null && typeof cell !== 'string' && typeof cell !== 'boolean' && !(typeof cell === 'number' && Number.isFinite(cell))) return false;
+      if (
+        cell !== null &&
+        typeof cell !== 'string' &&
+        typeof cell !== 'boolean' &&
+        !(typeof cell === 'number' && Number.isFinite(cell))
+      )
+        return false;
     }
   }
   return true;
 }
 
 /** The parsed sheets a draft keeps (import_drafts.sheets), checked when read back from the database. */
-export const draftSheetsSchema = z.array(z.object({
-  name: z.string(),
-  rows: z.custom<DraftCell[][]>(isPlainRows, 'A sheet row holds something other than text, numbers, booleans or blanks.'),
-  decimalComma: z.boolean(),
-})).min(1);
+export const draftSheetsSchema = z
+  .array(
+    z.object({
+      name: z.string(),
+      rows: z.custom<DraftCell[][]>(
+        isPlainRows,
+        'A sheet row holds something other than text, numbers, booleans or blanks.',
+      ),
+      decimalComma: z.boolean(),
+    }),
+  )
+  .min(1);
 
 /** A draft's row as read back (without its sheets and bytes). */
 export const draftRecordSchema = z.object({

@@ -25,8 +25,15 @@ export const plateJobsSchema = z.object({
 export type PlateJobsData = z.infer<typeof plateJobsSchema>;
 
 /** Starting a forecast run over a plate: optionally the exposure (index) for the traces. */
-export const startForecastRunSchema = z.object({
-  at: z.number({ error: 'at must be the index of one of the screen’s exposures.' }).int().min(0).max(50).optional(),
-}).strict();
+export const startForecastRunSchema = z
+  .object({
+    at: z
+      .number({ error: 'at must be the index of one of the screen’s exposures.' })
+      .int()
+      .min(0)
+      .max(50)
+      .optional(),
+  })
+  .strict();
 
 export const startedJobSchema = z.object({ id: z.uuid(), created: z.boolean(), total: z.number().int() });

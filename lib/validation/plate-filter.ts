@@ -17,12 +17,17 @@ export type PlateFilterParams = z.infer<typeof plateFilterSchema>;
 
 /** The page of the plates list, from 1; anything unreadable is the first page. */
 export const platePageSchema = z
-  .preprocess((value) => (Array.isArray(value) ? value[0] : value), z.coerce.number().int().min(1).max(1_000_000))
+  .preprocess(
+    (value) => (Array.isArray(value) ? value[0] : value),
+    z.coerce.number().int().min(1).max(1_000_000),
+  )
   .catch(1);
 
 /** The address of one page of the plates list, with the same filters (page 1 has no page parameter). */
 export function platePageHref(filter: PlateFilterParams, page: number): string {
-  const params = new URLSearchParams(Object.entries(filter).filter((entry): entry is [string, string] => Boolean(entry[1])));
+  const params = new URLSearchParams(
+    Object.entries(filter).filter((entry): entry is [string, string] => Boolean(entry[1])),
+  );
   if (page > 1) params.set('page', String(page));
   const query = params.toString();
   return query ? `/plates?${query}` : '/plates';

@@ -5,7 +5,11 @@ import { wellRoleSchema } from '@/lib/domain/well-roles';
 export const exclusionSchema = z.object({
   wellIds: z.array(z.uuid()).min(1, 'Choose at least one well.').max(1536),
   excluded: z.boolean(),
-  reason: z.string().trim().min(1, 'Give a reason for the change.').max(500, 'Keep the reason under 500 characters.'),
+  reason: z
+    .string()
+    .trim()
+    .min(1, 'Give a reason for the change.')
+    .max(500, 'Keep the reason under 500 characters.'),
   expectedVersion: z.int().positive().optional(),
 });
 
@@ -44,9 +48,18 @@ export const wellRowSchema = z.object({
   qcReasons: z.array(qcReason),
 });
 
-export const wellsResponseSchema = z.object({ version: z.number().int(), state: z.string(), wells: z.array(wellRowSchema) });
+export const wellsResponseSchema = z.object({
+  version: z.number().int(),
+  state: z.string(),
+  wells: z.array(wellRowSchema),
+});
 
-const bandPoint = z.object({ concentration_uM: z.number(), block: z.number(), low: z.number().nullable(), high: z.number().nullable() });
+const bandPoint = z.object({
+  concentration_uM: z.number(),
+  block: z.number(),
+  low: z.number().nullable(),
+  high: z.number().nullable(),
+});
 
 /** One fit with its curve and band, as the fits view receives it. */
 export const fitViewSchema = z.object({
@@ -74,7 +87,12 @@ export const fitViewSchema = z.object({
   curve: z.array(bandPoint),
 });
 
-export const fitsResponseSchema = z.object({ version: z.number().int(), state: z.string(), fitsPending: z.boolean(), fits: z.array(fitViewSchema) });
+export const fitsResponseSchema = z.object({
+  version: z.number().int(),
+  state: z.string(),
+  fitsPending: z.boolean(),
+  fits: z.array(fitViewSchema),
+});
 
 export type WellRowView = z.infer<typeof wellRowSchema>;
 export type FitView = z.infer<typeof fitViewSchema>;

@@ -5,8 +5,21 @@ const number = (message: string) => z.coerce.number({ error: message }).refine(N
 
 /** Exposures as typed in a form: numbers in µM separated by commas or spaces. */
 const exposures = z.preprocess(
-  (value) => (typeof value === 'string' ? value.split(/[\s,;]+/).filter(Boolean).map(Number) : value),
-  z.array(z.number({ error: 'Exposures must be numbers in µM.' }).positive('Exposures must be above 0 µM.').finite()).max(12, 'At most 12 exposures.'),
+  (value) =>
+    typeof value === 'string'
+      ? value
+          .split(/[\s,;]+/)
+          .filter(Boolean)
+          .map(Number)
+      : value,
+  z
+    .array(
+      z
+        .number({ error: 'Exposures must be numbers in µM.' })
+        .positive('Exposures must be above 0 µM.')
+        .finite(),
+    )
+    .max(12, 'At most 12 exposures.'),
 );
 
 /** A screen with its QC thresholds, as an admin creates or edits it. */
@@ -21,10 +34,15 @@ export const screenSchema = z
     seriesResistanceMax_MOhm: number('Enter a number of MΩ.').pipe(z.number().positive('Must be above 0.')),
     capacitanceMin_pF: number('Enter a number of pF.').pipe(z.number().min(0, 'Must be 0 or more.')),
     capacitanceMax_pF: number('Enter a number of pF.').pipe(z.number().positive('Must be above 0.')),
-    vehicleRundownMax_percent: number('Enter a percentage.').pipe(z.number().min(0, 'Must be 0 or more.').max(100, 'Cannot exceed 100 %.')),
+    vehicleRundownMax_percent: number('Enter a percentage.').pipe(
+      z.number().min(0, 'Must be 0 or more.').max(100, 'Cannot exceed 100 %.'),
+    ),
     exposures_uM: exposures,
   })
-  .refine((s) => s.capacitanceMax_pF > s.capacitanceMin_pF, { path: ['capacitanceMax_pF'], message: 'Must be above the minimum capacitance.' });
+  .refine((s) => s.capacitanceMax_pF > s.capacitanceMin_pF, {
+    path: ['capacitanceMax_pF'],
+    message: 'Must be above the minimum capacitance.',
+  });
 
 export type ScreenInput = z.infer<typeof screenSchema>;
 

@@ -3,7 +3,10 @@ import { MAX_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
 
 /** What a person enters to sign a record electronically, plus what the caller says is being signed. */
 export const signatureSchema = z.object({
-  password: z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(MAX_PASSWORD_LENGTH, 'That password is too long.'),
+  password: z
+    .string('Enter your password to sign.')
+    .min(1, 'Enter your password to sign.')
+    .max(MAX_PASSWORD_LENGTH, 'That password is too long.'),
   meaning: z
     .string('State what your signature means.')
     .trim()

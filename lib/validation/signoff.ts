@@ -6,13 +6,24 @@ import { signoffActionSchema } from '@/lib/domain/plate-states';
 export const signoffRequestSchema = z
   .object({
     action: signoffActionSchema,
-    password: z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(MAX_PASSWORD_LENGTH, 'That password is too long.'),
+    password: z
+      .string('Enter your password to sign.')
+      .min(1, 'Enter your password to sign.')
+      .max(MAX_PASSWORD_LENGTH, 'That password is too long.'),
     comment: z.string().trim().max(2000, 'Keep the comment under 2000 characters.').default(''),
-    expectedVersion: z.coerce.number('The form lost the plate version; reload the page.').int().positive('The form lost the plate version; reload the page.').optional(),
+    expectedVersion: z.coerce
+      .number('The form lost the plate version; reload the page.')
+      .int()
+      .positive('The form lost the plate version; reload the page.')
+      .optional(),
   })
   .superRefine((input, context) => {
     if (input.action === 'reject' && input.comment.length === 0) {
-      context.addIssue({ code: 'custom', path: ['comment'], message: 'Say why the plate is returned; the biologist reworks it from your comment.' });
+      context.addIssue({
+        code: 'custom',
+        path: ['comment'],
+        message: 'Say why the plate is returned; the biologist reworks it from your comment.',
+      });
     }
   });
 

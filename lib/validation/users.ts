@@ -24,9 +24,7 @@ export const emailField = z
 /** Roles from checkboxes: absent means none, one value or several. Duplicates collapse. */
 export const roleList = z.preprocess(
   (value) => (value === undefined || value === '' ? [] : Array.isArray(value) ? value : [value]),
-  z
-    .array(roleSchema)
-    .transform((roles) => [...new Set(roles)].sort()),
+  z.array(roleSchema).transform((roles) => [...new Set(roles)].sort()),
 );
 
 const reasonField = z
@@ -42,10 +40,17 @@ export const ACCOUNT_ACCESS = ['password', 'link'] as const;
 
 export const createUserSchema = z
   .object({
-    name: z.string('Enter the person’s name.').trim().min(1, 'Enter the person’s name.').max(200, 'Names are at most 200 characters.'),
+    name: z
+      .string('Enter the person’s name.')
+      .trim()
+      .min(1, 'Enter the person’s name.')
+      .max(200, 'Names are at most 200 characters.'),
     email: emailField,
     roles: roleList,
-    access: z.preprocess(emptyToUndefined, z.enum(ACCOUNT_ACCESS, 'Choose how the person gets in.').default('password')),
+    access: z.preprocess(
+      emptyToUndefined,
+      z.enum(ACCOUNT_ACCESS, 'Choose how the person gets in.').default('password'),
+    ),
     password: optionalPassword,
   })
   .refine((input) => !(input.access === 'link' && input.password), {
@@ -57,11 +62,18 @@ export const changeRolesSchema = z.object({ userId: userIdField, roles: roleList
 
 export const userStatusSchema = z.object({ userId: userIdField, reason: reasonField });
 
-export const resetPasswordSchema = z.object({ userId: userIdField, password: optionalPassword, reason: reasonField });
+export const resetPasswordSchema = z.object({
+  userId: userIdField,
+  password: optionalPassword,
+  reason: reasonField,
+});
 
 export const changePasswordSchema = z
   .object({
-    currentPassword: z.string('Enter your current password.').min(1, 'Enter your current password.').max(MAX_PASSWORD_LENGTH),
+    currentPassword: z
+      .string('Enter your current password.')
+      .min(1, 'Enter your current password.')
+      .max(MAX_PASSWORD_LENGTH),
     newPassword: newPasswordField,
     confirmPassword: z.string('Repeat the new password.'),
   })

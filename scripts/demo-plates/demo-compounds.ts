@@ -2,8 +2,18 @@
 
 /** Targets of the two demo screens: the sodium pain screen and the potassium counter-screen. */
 export const DEMO_TARGETS = {
-  'Nav1.7': { screen: 'Pain sodium screen', conductance: 'transient sodium', sign: -1, controlMedian_pA: 2500 },
-  'Kv7.2': { screen: 'Potassium counter-screen', conductance: 'M-type potassium', sign: 1, controlMedian_pA: 900 },
+  'Nav1.7': {
+    screen: 'Pain sodium screen',
+    conductance: 'transient sodium',
+    sign: -1,
+    controlMedian_pA: 2500,
+  },
+  'Kv7.2': {
+    screen: 'Potassium counter-screen',
+    conductance: 'M-type potassium',
+    sign: 1,
+    controlMedian_pA: 900,
+  },
 } as const;
 
 export type DemoTarget = keyof typeof DEMO_TARGETS;
@@ -30,7 +40,10 @@ export const demoCompoundId = (n: number) => `GW-${String(n).padStart(4, '0')}`;
 
 /** Demo compound `n`: its molecular weight (g/mol) and its true potency on Nav1.7 and on Kv7.2. */
 const compound = (n: number, molecularWeight: number, nav: TruePotency, kv: TruePotency): DemoCompound => ({
-  identifier: demoCompoundId(n), name: `Demo blocker ${n}`, molecularWeight, truth: { 'Nav1.7': nav, 'Kv7.2': kv },
+  identifier: demoCompoundId(n),
+  name: `Demo blocker ${n}`,
+  molecularWeight,
+  truth: { 'Nav1.7': nav, 'Kv7.2': kv },
 });
 
 /** A dozen invented sodium-channel blockers; some touch the potassium counter-target, some do not. */

@@ -22,7 +22,14 @@ export interface DemoManifest {
   noise: NoiseModel;
   /** Z′ the noise model implies: 1 − 3 (σ_ref + σ_veh) / |μ_ref − μ_veh| on the ratio I_compound / I_control. */
   zPrimeFromNoiseModel: number;
-  truth: { compound: string; target: DemoTarget; ic50_uM: number; hillSlope: number; blockAtHighest: number; ic50WithinTestedRange: boolean }[];
+  truth: {
+    compound: string;
+    target: DemoTarget;
+    ic50_uM: number;
+    hillSlope: number;
+    blockAtHighest: number;
+    ic50WithinTestedRange: boolean;
+  }[];
   failingWells: { well: string; target: DemoTarget; kind: FailureKind; missing: string | null }[];
 }
 
@@ -32,7 +39,8 @@ export function makeManifest(plan: PlatePlan, wells: DemoWell[], exported: DemoE
   const lowest = Math.min(...plan.concentrations_uM);
   const { noise } = plan;
   const sdVehicle = Math.hypot(noise.rundownSd, noise.ratioSd);
-  const zPrime = 1 - (3 * (noise.referenceSd + sdVehicle)) / Math.abs(noise.referenceRatio - noise.rundownMean);
+  const zPrime =
+    1 - (3 * (noise.referenceSd + sdVehicle)) / Math.abs(noise.referenceRatio - noise.rundownMean);
   return {
     file: plan.file,
     generator: 'scripts/make-demo-plates.ts',
@@ -60,6 +68,11 @@ export function makeManifest(plan: PlatePlan, wells: DemoWell[], exported: DemoE
         ic50WithinTestedRange: potency.ic50_uM >= lowest && potency.ic50_uM <= highest,
       };
     }),
-    failingWells: plan.failures.map((f) => ({ well: f.well, target: plan.target, kind: f.kind, missing: f.missing ?? null })),
+    failingWells: plan.failures.map((f) => ({
+      well: f.well,
+      target: plan.target,
+      kind: f.kind,
+      missing: f.missing ?? null,
+    })),
   };
 }

@@ -30,7 +30,11 @@ const nA = (pa: number | null) => (pa === null ? null : fromCanonical(pa, 'nA', 
 const FLAT_SHEET: ColumnSpec[] = [
   { header: 'Well', value: (w) => w.position },
   { header: 'Compound', value: (w) => w.compound },
-  { header: 'Conc (nM)', value: (w) => (w.concentration_uM === null ? null : fromCanonical(w.concentration_uM, 'nM', 'concentration')) },
+  {
+    header: 'Conc (nM)',
+    value: (w) =>
+      w.concentration_uM === null ? null : fromCanonical(w.concentration_uM, 'nM', 'concentration'),
+  },
   { header: 'Target', value: (w) => w.target },
   { header: 'I control [pA]', value: (w) => w.controlCurrent_pA },
   { header: 'I compound [pA]', value: (w) => w.compoundCurrent_pA },
@@ -48,7 +52,11 @@ const RUN_WORKBOOK: ColumnSpec[] = [
   { header: 'Channel', value: (w) => w.target },
   { header: 'Pre current (nA)', value: (w) => nA(w.controlCurrent_pA) },
   { header: 'Post current (nA)', value: (w) => nA(w.compoundCurrent_pA) ?? 'NA' },
-  { header: 'Seal resistance (MOhm)', value: (w) => (w.sealResistance_GOhm === null ? null : fromCanonical(w.sealResistance_GOhm, 'MOhm', 'sealResistance')) },
+  {
+    header: 'Seal resistance (MOhm)',
+    value: (w) =>
+      w.sealResistance_GOhm === null ? null : fromCanonical(w.sealResistance_GOhm, 'MOhm', 'sealResistance'),
+  },
   { header: 'Series resistance (MOhm)', value: (w) => w.seriesResistance_MOhm },
   { header: 'Capacitance (pF)', value: (w) => w.capacitance_pF },
 ];
@@ -66,12 +74,19 @@ const FLAT_TEXT: ColumnSpec[] = [
   { header: 'Cm (pF)', value: (w) => w.capacitance_pF },
 ];
 
-const SPECS: Record<LayoutName, ColumnSpec[]> = { 'flat-sheet': FLAT_SHEET, 'run-workbook': RUN_WORKBOOK, 'flat-text': FLAT_TEXT };
+const SPECS: Record<LayoutName, ColumnSpec[]> = {
+  'flat-sheet': FLAT_SHEET,
+  'run-workbook': RUN_WORKBOOK,
+  'flat-text': FLAT_TEXT,
+};
 
 /** Lays the simulated wells out as the plan's export layout. */
 export function layOutExport(plan: PlatePlan, wells: DemoWell[]): DemoExport {
   const specs = SPECS[plan.layout];
-  const table: Cell[][] = [specs.map((spec) => spec.header), ...wells.map((well) => specs.map((spec) => spec.value(well)))];
+  const table: Cell[][] = [
+    specs.map((spec) => spec.header),
+    ...wells.map((well) => specs.map((spec) => spec.value(well))),
+  ];
   if (plan.layout !== 'run-workbook') {
     const name = plan.layout === 'flat-text' ? plan.file.replace(/\.[^.]+$/, '') : 'Readouts';
     return { sheets: [{ name, rows: table }], dataSheet: name, headerRow: 1 };
@@ -83,6 +98,18 @@ export function layOutExport(plan: PlatePlan, wells: DemoWell[]): DemoExport {
     ['Target', plan.target],
     ['Note', 'Invented demo data made by scripts/make-demo-plates.ts'],
   ];
-  const readouts: Cell[][] = [[`Readouts of plate ${plan.plateName}`], [`${wells.length} wells recorded`], [], ...table];
-  return { sheets: [{ name: 'Run info', rows: runInfo }, { name: 'Readouts', rows: readouts }], dataSheet: 'Readouts', headerRow: 4 };
+  const readouts: Cell[][] = [
+    [`Readouts of plate ${plan.plateName}`],
+    [`${wells.length} wells recorded`],
+    [],
+    ...table,
+  ];
+  return {
+    sheets: [
+      { name: 'Run info', rows: runInfo },
+      { name: 'Readouts', rows: readouts },
+    ],
+    dataSheet: 'Readouts',
+    headerRow: 4,
+  };
 }

@@ -18,5 +18,11 @@ export interface DemoPlate {
 export function makeDemoPlate(plan: PlatePlan): DemoPlate {
   const wells = simulatePlate(plan);
   const exported = layOutExport(plan, wells);
-  return { plan, wells, exported, bytes: writeExport(plan.file, exported), manifest: makeManifest(plan, wells, exported) };
+  return {
+    plan,
+    wells,
+    exported,
+    bytes: writeExport(plan.file, exported),
+    manifest: makeManifest(plan, wells, exported),
+  };
 }

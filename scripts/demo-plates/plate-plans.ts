@@ -50,15 +50,36 @@ export interface PlatePlan {
 
 const HALF_LOG_SERIES_UM = [30, 10, 3, 1, 0.3, 0.1, 0.03, 0.01];
 /** Quiet plates: σ_veh ≈ 0.032, σ_ref = 0.015, so Z′ ≈ 1 − 3 (0.032 + 0.015) / 0.93 ≈ 0.85. */
-const QUIET: NoiseModel = { rundownMean: 0.95, rundownSd: 0.02, ratioSd: 0.025, referenceRatio: 0.02, referenceSd: 0.015, currentNoise_pA: 8 };
+const QUIET: NoiseModel = {
+  rundownMean: 0.95,
+  rundownSd: 0.02,
+  ratioSd: 0.025,
+  referenceRatio: 0.02,
+  referenceSd: 0.015,
+  currentNoise_pA: 8,
+};
 /** Noisy controls: σ_veh = √(0.09² + 0.06²) ≈ 0.11, σ_ref = 0.10, so Z′ ≈ 1 − 3 (0.11 + 0.10) / 0.93 ≈ 0.33, below the default limit 0.5. */
-const NOISY_CONTROLS: NoiseModel = { rundownMean: 0.95, rundownSd: 0.09, ratioSd: 0.06, referenceRatio: 0.02, referenceSd: 0.1, currentNoise_pA: 8 };
+const NOISY_CONTROLS: NoiseModel = {
+  rundownMean: 0.95,
+  rundownSd: 0.09,
+  ratioSd: 0.06,
+  referenceRatio: 0.02,
+  referenceSd: 0.1,
+  currentNoise_pA: 8,
+};
 
 const ids = (...numbers: number[]) => numbers.map(demoCompoundId);
 
 /** The 96-well demo layout: the half-log series in duplicate, vehicle in column 1 and reference in column 12. */
-const PLATE_96: Pick<PlatePlan, 'format' | 'concentrations_uM' | 'replicates' | 'vehicleColumns' | 'referenceColumns'> = {
-  format: 96, concentrations_uM: HALF_LOG_SERIES_UM, replicates: 2, vehicleColumns: [1], referenceColumns: [12],
+const PLATE_96: Pick<
+  PlatePlan,
+  'format' | 'concentrations_uM' | 'replicates' | 'vehicleColumns' | 'referenceColumns'
+> = {
+  format: 96,
+  concentrations_uM: HALF_LOG_SERIES_UM,
+  replicates: 2,
+  vehicleColumns: [1],
+  referenceColumns: [12],
 };
 
 /**

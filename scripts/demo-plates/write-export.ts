@@ -11,8 +11,11 @@ export function writeExport(file: string, exported: DemoExport): Uint8Array {
     return new TextEncoder().encode(`\ufeff${toCsv(sheet.rows)}`);
   }
   const book = XLSX.utils.book_new();
-  for (const sheet of exported.sheets) XLSX.utils.book_append_sheet(book, XLSX.utils.aoa_to_sheet(sheet.rows), sheet.name);
-  return new Uint8Array(XLSX.write(book, { type: 'array', bookType: 'xlsx', compression: true }) as ArrayBuffer);
+  for (const sheet of exported.sheets)
+    XLSX.utils.book_append_sheet(book, XLSX.utils.aoa_to_sheet(sheet.rows), sheet.name);
+  return new Uint8Array(
+    XLSX.write(book, { type: 'array', bookType: 'xlsx', compression: true }) as ArrayBuffer,
+  );
 }
 
 /** Comma-separated text with CRLF line ends; fields holding commas, quotes or line breaks are quoted. */

@@ -37,8 +37,12 @@ function decodeQuotedPrintable(text: string): string {
 
 /** Decodes =?UTF-8?Q?…?= and =?UTF-8?B?…?= words of a header. */
 export function decodeHeader(value: string): string {
-  return value.replace(/=\?[^?]+\?([QqBb])\?([^?]*)\?=(\s+(?==\?))?/g, (_all, encoding: string, data: string) =>
-    encoding.toUpperCase() === 'B' ? Buffer.from(data, 'base64').toString('utf8') : decodeQuotedPrintable(data.replace(/_/g, ' ')),
+  return value.replace(
+    /=\?[^?]+\?([QqBb])\?([^?]*)\?=(\s+(?==\?))?/g,
+    (_all, encoding: string, data: string) =>
+      encoding.toUpperCase() === 'B'
+        ? Buffer.from(data, 'base64').toString('utf8')
+        : decodeQuotedPrintable(data.replace(/_/g, ' ')),
   );
 }
 
@@ -53,7 +57,8 @@ function decodeBody(headers: Record<string, string>, body: string): string {
 function plainText(headers: Record<string, string>, body: string): string {
   const type = headers['content-type'] ?? 'text/plain';
   const boundary = /boundary="?([^";]+)"?/i.exec(type)?.[1];
-  if (!/^multipart\//i.test(type) || !boundary) return /^text\/plain/i.test(type) ? decodeBody(headers, body) : '';
+  if (!/^multipart\//i.test(type) || !boundary)
+    return /^text\/plain/i.test(type) ? decodeBody(headers, body) : '';
   for (const part of body.split(`--${boundary}`).slice(1)) {
     if (part.startsWith('--')) break;
     const { head, body: partBody } = splitHead(part.replace(/^\r?\n/, ''));
@@ -66,5 +71,9 @@ function plainText(headers: Record<string, string>, body: string): string {
 export function parseMessage(raw: string): ParsedMessage {
   const { head, body } = splitHead(raw);
   const headers = parseHeaders(head);
-  return { headers, subject: decodeHeader(headers.subject ?? ''), text: plainText(headers, body).replace(/\r\n/g, '\n') };
+  return {
+    headers,
+    subject: decodeHeader(headers.subject ?? ''),
+    text: plainText(headers, body).replace(/\r\n/g, '\n'),
+  };
 }

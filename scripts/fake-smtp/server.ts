@@ -48,5 +48,8 @@ const server = new SMTPServer({
 });
 
 server.on('error', (error) => console.error('fake SMTP server error:', error.message));
-server.listen(args.port, '127.0.0.1', () => console.log(`fake SMTP server on 127.0.0.1:${args.port}, keeping messages in ${store}`));
-for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => server.close(() => process.exit(0)));
+server.listen(args.port, '127.0.0.1', () =>
+  console.log(`fake SMTP server on 127.0.0.1:${args.port}, keeping messages in ${store}`),
+);
+for (const signal of ['SIGINT', 'SIGTERM'] as const)
+  process.on(signal, () => server.close(() => process.exit(0)));

@@ -11,7 +11,12 @@ declare module 'autocannon' {
       body?: string | Buffer;
       /** Called before each send; returns the request to send (a copy with a new body, say). */
       setupRequest?: (request: Request, context: Record<string, unknown>) => Request;
-      onResponse?: (status: number, body: string, context: Record<string, unknown>, headers: Record<string, string | string[]>) => void;
+      onResponse?: (
+        status: number,
+        body: string,
+        context: Record<string, unknown>,
+        headers: Record<string, string | string[]>,
+      ) => void;
     }
 
     interface Options {
@@ -41,7 +46,10 @@ declare module 'autocannon' {
 
     interface Instance extends EventEmitter, PromiseLike<Result> {
       stop(): void;
-      on(event: 'response', listener: (client: Client, statusCode: number, bytes: number, responseTimeMs: number) => void): this;
+      on(
+        event: 'response',
+        listener: (client: Client, statusCode: number, bytes: number, responseTimeMs: number) => void,
+      ): this;
       on(event: 'reqError', listener: (error: Error) => void): this;
     }
   }

@@ -2,7 +2,14 @@
 // that building files does not slow the load generator; when the supply runs out, more are built on demand.
 import { PLATE_PLANS } from '../demo-plates/plate-plans';
 import { screenIdsByName } from './discover';
-import { encodeCommit, inspectUpload, makeUpload, type CommitTarget, type EncodedForm, type PlateUpload } from './plate-uploads';
+import {
+  encodeCommit,
+  inspectUpload,
+  makeUpload,
+  type CommitTarget,
+  type EncodedForm,
+  type PlateUpload,
+} from './plate-uploads';
 
 export interface CommitSource {
   /** The body of the next commit request (a file no earlier request carried). */
@@ -46,7 +53,8 @@ export async function prepareCommits(options: CommitSourceOptions): Promise<Comm
     queue.push(upload);
     if (targets.has(upload.plan.file)) continue;
     const screenId = screens.get(upload.screen);
-    if (!screenId) throw new Error(`the import page offers no screen named ${upload.screen}: seed the demo data first`);
+    if (!screenId)
+      throw new Error(`the import page offers no screen named ${upload.screen}: seed the demo data first`);
     targets.set(upload.plan.file, await inspectUpload(options.baseUrl, options.cookie, upload, screenId));
   }
   const ready = queue.map(encode);

@@ -11,7 +11,9 @@ async function page(baseUrl: string, path: string, cookie: string): Promise<stri
 /** The ids of the plates on the plate list, in the list's order (newest first). */
 export async function listedPlateIds(baseUrl: string, cookie: string): Promise<string[]> {
   const html = await page(baseUrl, '/plates', cookie);
-  return [...new Set([...html.matchAll(new RegExp(`href="/plates/(${UUID})"`, 'g'))].map((match) => match[1]!))];
+  return [
+    ...new Set([...html.matchAll(new RegExp(`href="/plates/(${UUID})"`, 'g'))].map((match) => match[1]!)),
+  ];
 }
 
 /** Screen ids by name, from the screen menu of the import page (a biologist's cookie). */

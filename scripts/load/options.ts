@@ -18,7 +18,12 @@ const schema = z.object({
   importTimeoutS: z.coerce.number().positive().max(600).default(60),
   grow: count(100_000).default(0),
   prepare: count(100_000).optional(),
-  seed: z.coerce.number().int().min(0).max(2 ** 31).optional(),
+  seed: z.coerce
+    .number()
+    .int()
+    .min(0)
+    .max(2 ** 31)
+    .optional(),
   serverPid: z.coerce.number().int().positive().optional(),
   workerPid: z.coerce.number().int().positive().optional(),
   documents: z.boolean().default(false),
@@ -26,7 +31,18 @@ const schema = z.object({
 });
 
 /** The flag of each option whose name differs from its key. */
-const FLAGS: Record<string, string> = { durationS: 'duration', warmUpS: 'warm-up', readRate: 'read-rate', importRate: 'import-rate', p95LimitMs: 'p95-limit', timeoutS: 'timeout', importTimeoutS: 'import-timeout', reportOnly: 'report-only', serverPid: 'server-pid', workerPid: 'worker-pid' };
+const FLAGS: Record<string, string> = {
+  durationS: 'duration',
+  warmUpS: 'warm-up',
+  readRate: 'read-rate',
+  importRate: 'import-rate',
+  p95LimitMs: 'p95-limit',
+  timeoutS: 'timeout',
+  importTimeoutS: 'import-timeout',
+  reportOnly: 'report-only',
+  serverPid: 'server-pid',
+  workerPid: 'worker-pid',
+};
 
 export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
 
@@ -59,22 +75,45 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --report-only        print the figures and exit 0 even when a target is missed`;
 
 /** About how many imports warm-up and measured load post: at the import rate, or at 2 a second per importer back to back. */
-function expectedImports(options: { importers: number; importRate: number; durationS: number; warmUpS: number }): number {
+function expectedImports(options: {
+  importers: number;
+  importRate: number;
+  durationS: number;
+  warmUpS: number;
+}): number {
   if (options.importers === 0) return 0;
   const perSecond = options.importRate > 0 ? options.importRate : 2 * options.importers;
   return Math.ceil(perSecond * (options.durationS + options.warmUpS));
 }
 
 /** The options of this run, or a message saying what is wrong with the command line. */
-export function parseOptions(argv: string[]): { ok: true; options: LoadOptions } | { ok: false; message: string; exitCode: number } {
+export function parseOptions(
+  argv: string[],
+): { ok: true; options: LoadOptions } | { ok: false; message: string; exitCode: number } {
   let values;
   try {
     ({ values } = parseArgs({
       args: argv,
       options: {
-        url: { type: 'string' }, readers: { type: 'string' }, importers: { type: 'string' }, duration: { type: 'string' }, 'warm-up': { type: 'string' },
-        'read-rate': { type: 'string' }, 'import-rate': { type: 'string' }, plates: { type: 'string' }, 'p95-limit': { type: 'string' }, timeout: { type: 'string' }, 'import-timeout': { type: 'string' },
-        grow: { type: 'string' }, prepare: { type: 'string' }, seed: { type: 'string' }, 'server-pid': { type: 'string' }, 'worker-pid': { type: 'string' }, documents: { type: 'boolean' }, 'report-only': { type: 'boolean' }, help: { type: 'boolean' },
+        url: { type: 'string' },
+        readers: { type: 'string' },
+        importers: { type: 'string' },
+        duration: { type: 'string' },
+        'warm-up': { type: 'string' },
+        'read-rate': { type: 'string' },
+        'import-rate': { type: 'string' },
+        plates: { type: 'string' },
+        'p95-limit': { type: 'string' },
+        timeout: { type: 'string' },
+        'import-timeout': { type: 'string' },
+        grow: { type: 'string' },
+        prepare: { type: 'string' },
+        seed: { type: 'string' },
+        'server-pid': { type: 'string' },
+        'worker-pid': { type: 'string' },
+        documents: { type: 'boolean' },
+        'report-only': { type: 'boolean' },
+        help: { type: 'boolean' },
       },
     }));
   } catch (error) {
@@ -82,19 +121,38 @@ export function parseOptions(argv: string[]): { ok: true; options: LoadOptions }
   }
   if (values.help) return { ok: false, message: USAGE, exitCode: 0 };
   const parsed = schema.safeParse({
-    url: values.url, readers: values.readers, importers: values.importers, durationS: values.duration, warmUpS: values['warm-up'], readRate: values['read-rate'], importRate: values['import-rate'],
-    plates: values.plates, p95LimitMs: values['p95-limit'], timeoutS: values.timeout, importTimeoutS: values['import-timeout'], grow: values.grow, prepare: values.prepare, seed: values.seed,
-    serverPid: values['server-pid'], workerPid: values['worker-pid'], documents: values.documents, reportOnly: values['report-only'],
+    url: values.url,
+    readers: values.readers,
+    importers: values.importers,
+    durationS: values.duration,
+    warmUpS: values['warm-up'],
+    readRate: values['read-rate'],
+    importRate: values['import-rate'],
+    plates: values.plates,
+    p95LimitMs: values['p95-limit'],
+    timeoutS: values.timeout,
+    importTimeoutS: values['import-timeout'],
+    grow: values.grow,
+    prepare: values.prepare,
+    seed: values.seed,
+    serverPid: values['server-pid'],
+    workerPid: values['worker-pid'],
+    documents: values.documents,
+    reportOnly: values['report-only'],
   });
   if (!parsed.success) {
-    const lines = parsed.error.issues.map((issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`);
+    const lines = parsed.error.issues.map(
+      (issue) => `--${FLAGS[String(issue.path[0])] ?? String(issue.path[0])}: ${issue.message}`,
+    );
     return { ok: false, message: `${lines.join('\n')}\n${USAGE}`, exitCode: 2 };
   }
   const options = parsed.data;
   return {
     ok: true,
     options: {
-      ...options, readRate: options.readRate ?? options.readers, prepare: options.prepare ?? 1 + options.grow + expectedImports(options),
+      ...options,
+      readRate: options.readRate ?? options.readers,
+      prepare: options.prepare ?? 1 + options.grow + expectedImports(options),
       seed: options.seed ?? Date.now() % 2 ** 31,
     },
   };

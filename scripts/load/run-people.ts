@@ -52,10 +52,17 @@ function template(baseUrl: string, next: () => ScheduledRequest, tally: Tally): 
       const headers: Record<string, string> = { ...scheduled.headers, cookie: scheduled.cookie };
       if (scheduled.method === 'POST') headers.origin = origin;
       if (scheduled.contentType) headers['content-type'] = scheduled.contentType;
-      return { ...request, method: scheduled.method ?? 'GET', path: scheduled.path, headers, ...(scheduled.body ? { body: scheduled.body } : {}) };
+      return {
+        ...request,
+        method: scheduled.method ?? 'GET',
+        path: scheduled.path,
+        headers,
+        ...(scheduled.body ? { body: scheduled.body } : {}),
+      };
     },
     onResponse: (status, body, context) => {
-      if ((status < 200 || status > 299) && tally.firstRefusals.length < 5) tally.firstRefusals.push(`${String(context.route)} ${status}: ${body.slice(0, 200)}`);
+      if ((status < 200 || status > 299) && tally.firstRefusals.length < 5)
+        tally.firstRefusals.push(`${String(context.route)} ${status}: ${body.slice(0, 200)}`);
     },
   };
 }
@@ -75,7 +82,9 @@ export async function runGroup(next: () => ScheduledRequest, options: GroupOptio
       duration: options.durationS,
       timeout: options.timeoutS,
       // Paced connections: autocannon's own histogram would add made-up answers for late ones; Gatewell keeps its own samples.
-      ...(options.ratePerConnection > 0 ? { connectionRate: options.ratePerConnection, ignoreCoordinatedOmission: true } : {}),
+      ...(options.ratePerConnection > 0
+        ? { connectionRate: options.ratePerConnection, ignoreCoordinatedOmission: true }
+        : {}),
       requests: [template(options.baseUrl, next, tally)],
     });
     instance.on('response', (client, status, _bytes, ms) => {

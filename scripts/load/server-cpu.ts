@@ -86,7 +86,9 @@ function groupName(command: string): string {
   if (command.startsWith('postgres')) return 'PostgreSQL';
   const words = command.split(' ');
   const script = words.find((word) => /\.(m?[jt]s|cjs)$/.test(word) || word.endsWith('/next'));
-  return script ? `${words[0]!.split('/').pop()} ${script.split('/').slice(-2).join('/')}` : words.slice(0, 2).join(' ').slice(0, 60);
+  return script
+    ? `${words[0]!.split('/').pop()} ${script.split('/').slice(-2).join('/')}`
+    : words.slice(0, 2).join(' ').slice(0, 60);
 }
 
 export interface CpuReading {
@@ -107,21 +109,29 @@ export interface CpuUse {
 
 export function cpuNow(pids: { serverPid?: number | undefined; workerPid?: number | undefined }): CpuReading {
   return {
-    server: pids.serverPid ? cpuSeconds(pids.serverPid) : null, worker: pids.workerPid ? cpuSeconds(pids.workerPid) : null,
-    machine: machineTicks(), processes: allProcesses(),
+    server: pids.serverPid ? cpuSeconds(pids.serverPid) : null,
+    worker: pids.workerPid ? cpuSeconds(pids.workerPid) : null,
+    machine: machineTicks(),
+    processes: allProcesses(),
   };
 }
 
 export function cpuSince(before: CpuReading, after: CpuReading): CpuUse {
   const difference = (a: number | null, b: number | null) => (a !== null && b !== null ? b - a : null);
-  const machine = before.machine && after.machine && after.machine.total > before.machine.total
-    ? (after.machine.busy - before.machine.busy) / (after.machine.total - before.machine.total)
-    : null;
+  const machine =
+    before.machine && after.machine && after.machine.total > before.machine.total
+      ? (after.machine.busy - before.machine.busy) / (after.machine.total - before.machine.total)
+      : null;
   const groups = new Map<string, number>();
   for (const [pid, { ticks, name }] of after.processes) {
     const used = ticks - (before.processes.get(pid)?.ticks ?? 0);
     if (used > 0) groups.set(groupName(name), (groups.get(groupName(name)) ?? 0) + used / ticksPerSecond());
   }
   const busiest = [...groups].sort((a, b) => b[1] - a[1]).slice(0, 6);
-  return { server: difference(before.server, after.server), worker: difference(before.worker, after.worker), machine, busiest };
+  return {
+    server: difference(before.server, after.server),
+    worker: difference(before.worker, after.worker),
+    machine,
+    busiest,
+  };
 }

@@ -12,7 +12,14 @@ export const DEMO_ACCOUNTS = [
 
 export type DemoAccount = (typeof DEMO_ACCOUNTS)[number];
 
-const ENTITIES: Record<string, string> = { '&quot;': '"', '&#x27;': "'", '&#39;': "'", '&lt;': '<', '&gt;': '>', '&amp;': '&' };
+const ENTITIES: Record<string, string> = {
+  '&quot;': '"',
+  '&#x27;': "'",
+  '&#39;': "'",
+  '&lt;': '<',
+  '&gt;': '>',
+  '&amp;': '&',
+};
 
 function decodeAttribute(value: string): string {
   return value.replace(/&(quot|#x27|#39|lt|gt|amp);/g, (entity) => ENTITIES[entity] ?? entity);
@@ -36,15 +43,23 @@ export async function signIn(baseUrl: string, account: DemoAccount): Promise<str
   const page = await fetch(new URL('/sign-in', baseUrl));
   if (!page.ok) throw new Error(`GET /sign-in answered ${page.status}`);
   const fields = hiddenFields(await page.text());
-  if (!fields.some(([name]) => name.startsWith('$ACTION'))) throw new Error('the sign-in page holds no server-action form');
+  if (!fields.some(([name]) => name.startsWith('$ACTION')))
+    throw new Error('the sign-in page holds no server-action form');
   const form = new FormData();
   for (const [name, value] of fields) form.append(name, value);
   form.append('email', account.email);
   form.append('password', account.password);
   const answer = await fetch(new URL('/sign-in', baseUrl), {
-    method: 'POST', body: form, redirect: 'manual', headers: { origin: new URL(baseUrl).origin },
+    method: 'POST',
+    body: form,
+    redirect: 'manual',
+    headers: { origin: new URL(baseUrl).origin },
   });
-  const session = answer.headers.getSetCookie().map((cookie) => cookie.split(';')[0]!).find((pair) => pair.startsWith('gatewell_session='));
-  if (answer.status !== 303 || !session) throw new Error(`signing in ${account.email} answered ${answer.status} without a session cookie`);
+  const session = answer.headers
+    .getSetCookie()
+    .map((cookie) => cookie.split(';')[0]!)
+    .find((pair) => pair.startsWith('gatewell_session='));
+  if (answer.status !== 303 || !session)
+    throw new Error(`signing in ${account.email} answered ${answer.status} without a session cookie`);
   return session;
 }

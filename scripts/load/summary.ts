@@ -28,18 +28,29 @@ export interface GroupFigures extends LatencyFigures {
 /** Percentiles of every answer's latency, whatever its status. */
 export function latencyFigures(samples: readonly Sample[]): LatencyFigures {
   const sorted = samples.map((s) => s.ms).sort((a, b) => a - b);
-  return { answers: sorted.length, p50: percentile(sorted, 50), p95: percentile(sorted, 95), p99: percentile(sorted, 99), max: sorted.at(-1) ?? Number.NaN };
+  return {
+    answers: sorted.length,
+    p50: percentile(sorted, 50),
+    p95: percentile(sorted, 95),
+    p99: percentile(sorted, 99),
+    max: sorted.at(-1) ?? Number.NaN,
+  };
 }
 
 /** The figures of one group of people. */
 export function groupFigures(tally: Tally): GroupFigures {
   const statuses: Record<number, number> = {};
-  for (const { status } of tally.samples) if (status < 200 || status > 299) statuses[status] = (statuses[status] ?? 0) + 1;
+  for (const { status } of tally.samples)
+    if (status < 200 || status > 299) statuses[status] = (statuses[status] ?? 0) + 1;
   const non2xx = Object.values(statuses).reduce((sum, count) => sum + count, 0);
   return {
     ...latencyFigures(tally.samples),
     perSecond: tally.seconds > 0 ? tally.samples.length / tally.seconds : 0,
-    non2xx, statuses, socketErrors: tally.socketErrors, timeouts: tally.timeouts, errors: non2xx + tally.socketErrors + tally.timeouts,
+    non2xx,
+    statuses,
+    socketErrors: tally.socketErrors,
+    timeouts: tally.timeouts,
+    errors: non2xx + tally.socketErrors + tally.timeouts,
   };
 }
 
@@ -58,10 +69,14 @@ const ms = (value: number) => (Number.isNaN(value) ? '—' : value.toFixed(1));
 
 /** One report line of a group: answers, rate, percentiles and every kind of error. */
 export function groupLine(name: string, figures: GroupFigures): string {
-  const statuses = Object.entries(figures.statuses).map(([status, count]) => `${status}×${count}`).join(' ');
-  return `${name.padEnd(8)} ${String(figures.answers).padStart(6)} answers  ${figures.perSecond.toFixed(1).padStart(6)} req/s  `
-    + `p50 ${ms(figures.p50).padStart(7)}  p95 ${ms(figures.p95).padStart(7)}  p99 ${ms(figures.p99).padStart(7)}  max ${ms(figures.max).padStart(7)} ms  `
-    + `errors ${figures.errors} (non-2xx ${figures.non2xx}${statuses ? ` [${statuses}]` : ''}, socket ${figures.socketErrors}, timeouts ${figures.timeouts})`;
+  const statuses = Object.entries(figures.statuses)
+    .map(([status, count]) => `${status}×${count}`)
+    .join(' ');
+  return (
+    `${name.padEnd(8)} ${String(figures.answers).padStart(6)} answers  ${figures.perSecond.toFixed(1).padStart(6)} req/s  ` +
+    `p50 ${ms(figures.p50).padStart(7)}  p95 ${ms(figures.p95).padStart(7)}  p99 ${ms(figures.p99).padStart(7)}  max ${ms(figures.max).padStart(7)} ms  ` +
+    `errors ${figures.errors} (non-2xx ${figures.non2xx}${statuses ? ` [${statuses}]` : ''}, socket ${figures.socketErrors}, timeouts ${figures.timeouts})`
+  );
 }
 
 /** One report line of a route. */
@@ -73,10 +88,15 @@ export function routeLine(route: string, figures: LatencyFigures): string {
  * Why the run misses its targets (reads p95 under the limit, no error in either group); empty when it
  * meets them. A group left out of the run is null.
  */
-export function missedTargets(reads: GroupFigures | null, imports: GroupFigures | null, readP95LimitMs: number): string[] {
+export function missedTargets(
+  reads: GroupFigures | null,
+  imports: GroupFigures | null,
+  readP95LimitMs: number,
+): string[] {
   const missed: string[] = [];
   if (reads && reads.answers === 0) missed.push('no read was answered');
-  else if (reads && !(reads.p95 < readP95LimitMs)) missed.push(`reads p95 ${ms(reads.p95)} ms is not under ${readP95LimitMs} ms`);
+  else if (reads && !(reads.p95 < readP95LimitMs))
+    missed.push(`reads p95 ${ms(reads.p95)} ms is not under ${readP95LimitMs} ms`);
   if (reads && reads.errors > 0) missed.push(`${reads.errors} read error(s)`);
   if (imports && imports.errors > 0) missed.push(`${imports.errors} import error(s)`);
   if (imports && imports.answers === 0) missed.push('no import was answered');

@@ -4,10 +4,16 @@ import { screenshot, signedInContext } from './support';
 
 // An admin creates an account and Gatewell e-mails its owner a link (the run's fake SMTP server); the
 // owner chooses a password through it and signs in straight to their work, with nobody else knowing it.
-test('an account by invitation: the owner gets a link by e-mail, chooses a password and signs in', async ({ browser }) => {
+test('an account by invitation: the owner gets a link by e-mail, chooses a password and signs in', async ({
+  browser,
+}) => {
   test.setTimeout(90_000);
   const stamp = Date.now().toString(36);
-  const invitee = { name: `Ines Invited ${stamp}`, email: `ines.${stamp}@gatewell.test`, password: 'my very own phrase' };
+  const invitee = {
+    name: `Ines Invited ${stamp}`,
+    email: `ines.${stamp}@gatewell.test`,
+    password: 'my very own phrase',
+  };
 
   const { context: adminContext, page: admin } = await signedInContext(browser, 'admin');
   await admin.goto('/admin/users/new');
@@ -18,11 +24,19 @@ test('an account by invitation: the owner gets a link by e-mail, chooses a passw
   await expect(admin.getByLabel('Initial password')).toHaveCount(0);
   await screenshot(admin, 'admin-invite-user');
   await admin.getByRole('button', { name: 'Create account' }).click();
-  await expect(admin.getByText(`A link to choose their password is on its way to ${invitee.email}`)).toBeVisible();
+  await expect(
+    admin.getByText(`A link to choose their password is on its way to ${invitee.email}`),
+  ).toBeVisible();
   await expect(admin.getByText('nobody else learns it')).toBeVisible();
   await adminContext.close();
 
-  const [mail] = await waitForMessages((m) => m.envelope.to.includes(invitee.email) && m.subject === 'Gatewell: your account, and a link to choose your password', 1, 40_000);
+  const [mail] = await waitForMessages(
+    (m) =>
+      m.envelope.to.includes(invitee.email) &&
+      m.subject === 'Gatewell: your account, and a link to choose your password',
+    1,
+    40_000,
+  );
   expect(mail!.text).toContain(`made a Gatewell account for you: ${invitee.email}, to read results.`);
   const link = /(https?:\/\/\S+\/password-link\/[A-Za-z0-9_-]{43})/.exec(mail!.text)?.[1];
   expect(link, mail!.text).toBeTruthy();

@@ -13,8 +13,11 @@ async function watchViolations(page: Page): Promise<string[]> {
   await page.exposeFunction('gatewellCspViolation', (text: string) => violations.push(`event: ${text}`));
   await page.addInitScript(() => {
     document.addEventListener('securitypolicyviolation', (event) => {
-      const report = (window as unknown as { gatewellCspViolation: (text: string) => void }).gatewellCspViolation;
-      report(`${event.violatedDirective} blocked ${event.blockedURI || 'inline'} at ${event.sourceFile}:${event.lineNumber}`);
+      const report = (window as unknown as { gatewellCspViolation: (text: string) => void })
+        .gatewellCspViolation;
+      report(
+        `${event.violatedDirective} blocked ${event.blockedURI || 'inline'} at ${event.sourceFile}:${event.lineNumber}`,
+      );
     });
   });
   return violations;
@@ -25,7 +28,15 @@ function policyOf(response: Response | null): string {
   expect(response, 'a document answer').not.toBeNull();
   const policy = response!.headers()['content-security-policy'] ?? '';
   expect(policy).toMatch(/script-src 'self' 'nonce-[A-Za-z0-9+/=]{16,}' 'strict-dynamic'/);
-  for (const directive of ["default-src 'self'", "object-src 'none'", "base-uri 'self'", "form-action 'self'", "frame-ancestors 'none'", "img-src 'self' data: blob:", "font-src 'self'"]) {
+  for (const directive of [
+    "default-src 'self'",
+    "object-src 'none'",
+    "base-uri 'self'",
+    "form-action 'self'",
+    "frame-ancestors 'none'",
+    "img-src 'self' data: blob:",
+    "font-src 'self'",
+  ]) {
     expect(policy).toContain(directive);
   }
   expect(response!.headers()['x-content-type-options']).toBe('nosniff');
@@ -65,7 +76,13 @@ test('the main pages work under the Content-Security-Policy with no violation', 
   await expect(page.getByRole('article').filter({ hasText: 'GW-0001' }).first()).toBeVisible();
 
   policyOf(await page.goto(`/plates/${plate!.id}/forecast`));
-  await expect(page.getByRole('figure').filter({ hasText: 'Voltage traces at the reference drive' }).locator('path').first()).toBeVisible({ timeout: 30_000 });
+  await expect(
+    page
+      .getByRole('figure')
+      .filter({ hasText: 'Voltage traces at the reference drive' })
+      .locator('path')
+      .first(),
+  ).toBeVisible({ timeout: 30_000 });
 
   policyOf(await page.goto('/compounds'));
   await expectStyledGrid(page, 'Registered compounds');
@@ -79,7 +96,9 @@ test('the main pages work under the Content-Security-Policy with no violation', 
 // The browser keeps the policy, and so the nonce, of the answer that loaded the document. Signing in
 // through the form renders the signed-in pages from the server action's answer, with a nonce of its own:
 // grids opened by links from there must still carry the document's nonce.
-test('after signing in through the form, grids opened by links are styled under the document’s nonce', async ({ page }) => {
+test('after signing in through the form, grids opened by links are styled under the document’s nonce', async ({
+  page,
+}) => {
   const violations = await watchViolations(page);
   policyOf(await page.goto('/sign-in'));
   await page.getByLabel('E-mail').fill(DEMO.biologist.email);

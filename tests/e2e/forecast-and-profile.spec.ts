@@ -24,10 +24,14 @@ async function signIn(page: Page) {
   await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
 }
 
-const shot = (page: Page, name: string) => page.screenshot({ path: `test-output/screenshots/${name}.png`, fullPage: true });
-const traces = (page: Page) => page.getByRole('figure').filter({ hasText: 'Voltage traces at the reference drive' });
+const shot = (page: Page, name: string) =>
+  page.screenshot({ path: `test-output/screenshots/${name}.png`, fullPage: true });
+const traces = (page: Page) =>
+  page.getByRole('figure').filter({ hasText: 'Voltage traces at the reference drive' });
 
-test('a plate’s forecast shows the caution, traces, f–I curves and the sweep; one compound or all at once', async ({ page }) => {
+test('a plate’s forecast shows the caution, traces, f–I curves and the sweep; one compound or all at once', async ({
+  page,
+}) => {
   const plateId = await idOf('select id from plates where label = $1', 'NAV-P01');
   await signIn(page);
   await page.goto(`/plates/${plateId}`);
@@ -43,7 +47,9 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
   await expect(excitability.getByRole('rowheader', { name: 'Control' })).toBeVisible();
   // The demo's GW-0001 blocks about 90 % of gNa at 0.3 µM: the model cell fires at the start of the step,
   // then falls silent (rate 0) without losing firing, and the row says so (Gatewell's own model run).
-  await expect(excitability.getByRole('row').filter({ has: page.getByRole('rowheader', { name: '0.3 µM' }) })).toContainText('Firing stops during the step');
+  await expect(
+    excitability.getByRole('row').filter({ has: page.getByRole('rowheader', { name: '0.3 µM' }) }),
+  ).toContainText('Firing stops during the step');
   await shot(page, 'plate-forecast');
 
   // Traces at another exposure, chosen from the keyboard.
@@ -58,41 +64,67 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
 
   await page.getByRole('button', { name: /^Forecast the \d+ not yet computed$/ }).click();
   // The run is one job on the queue; the worker process computes each missing forecast and reports progress.
-  await expect(page.getByText(/^Last run: \d+ of \d+ forecasts computed and stored\.$/)).toBeVisible({ timeout: 60_000 });
-  await expect(page.getByRole('navigation', { name: 'Compounds on this plate' }).getByText('Forecast stored')).toHaveCount(5);
+  await expect(page.getByText(/^Last run: \d+ of \d+ forecasts computed and stored\.$/)).toBeVisible({
+    timeout: 60_000,
+  });
+  await expect(
+    page.getByRole('navigation', { name: 'Compounds on this plate' }).getByText('Forecast stored'),
+  ).toHaveCount(5);
 
   await page.setViewportSize({ width: 820, height: 1180 });
   await shot(page, 'plate-forecast-tablet');
 });
 
-test('forecast and export routes answer bad input with a clear message, and exports carry the caution and state', async ({ page }) => {
+test('forecast and export routes answer bad input with a clear message, and exports carry the caution and state', async ({
+  page,
+}) => {
   const plateId = await idOf('select id from plates where label = $1', 'NAV-P01');
   await signIn(page);
   const bad = await page.request.get(`/api/plates/${plateId}/forecast?compoundId=GW-0001`);
   expect(bad.status()).toBe(422);
-  expect((await bad.json()).fields.compoundId).toEqual(['compoundId must be the id of a compound on this plate.']);
+  expect((await bad.json()).fields.compoundId).toEqual([
+    'compoundId must be the id of a compound on this plate.',
+  ]);
   const compoundId = await idOf('select id from compounds where identifier = $1', 'GW-0001');
   const far = await page.request.get(`/api/plates/${plateId}/forecast?compoundId=${compoundId}&at=7`);
   expect(far.status()).toBe(422);
-  expect((await far.json()).message).toMatch(/^at must be the index of one of the screen’s 4 exposures \(0–3\)\.$/);
+  expect((await far.json()).message).toMatch(
+    /^at must be the index of one of the screen’s 4 exposures \(0–3\)\.$/,
+  );
   const csv = await page.request.get(`/api/plates/${plateId}/export?format=csv`);
   expect(csv.status()).toBe(422);
-  expect((await csv.json()).fields.table).toEqual(['A csv file holds one table: add table=wells, fits, forecast, signoff.']);
+  expect((await csv.json()).fields.table).toEqual([
+    'A csv file holds one table: add table=wells, fits, forecast, signoff.',
+  ]);
 
   const workbook = await page.request.get(`/api/plates/${plateId}/export?format=xlsx`);
   expect(workbook.status()).toBe(200);
-  expect(workbook.headers()['content-disposition']).toBe('attachment; filename="gatewell-plate-NAV-P01.xlsx"');
+  expect(workbook.headers()['content-disposition']).toBe(
+    'attachment; filename="gatewell-plate-NAV-P01.xlsx"',
+  );
   const book = XLSX.read(await workbook.body());
-  const about = Object.fromEntries(XLSX.utils.sheet_to_json<string[]>(book.Sheets['About this export']!, { header: 1 }).map((r) => [r[0], r[1]]));
+  const about = Object.fromEntries(
+    XLSX.utils
+      .sheet_to_json<string[]>(book.Sheets['About this export']!, { header: 1 })
+      .map((r) => [r[0], r[1]]),
+  );
   expect(about.Caution).toMatch(/research decision support/);
   expect(about.State).toMatch(/^(Imported|Map verified|Awaiting approval|Approved|Returned)$/);
-  expect(book.SheetNames).toEqual(['About this export', 'Sign-off', 'Wells', 'Fits', 'Forecast at exposures']);
+  expect(book.SheetNames).toEqual([
+    'About this export',
+    'Sign-off',
+    'Wells',
+    'Fits',
+    'Forecast at exposures',
+  ]);
   const wells = await page.request.get(`/api/plates/${plateId}/export?format=csv&table=wells`);
   expect(wells.headers()['content-type']).toBe('text/csv; charset=utf-8');
   expect(await wells.text()).toContain('Well,Role,Compound,Concentration (µM),Target');
 });
 
-test('a compound profile gathers fits across plates, selectivity and the forecast at exposure, with downloads', async ({ page }) => {
+test('a compound profile gathers fits across plates, selectivity and the forecast at exposure, with downloads', async ({
+  page,
+}) => {
   const compoundId = await idOf('select id from compounds where identifier = $1', 'GW-0001');
   await signIn(page);
   await page.goto(`/compounds/${compoundId}`);

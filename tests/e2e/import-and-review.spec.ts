@@ -4,7 +4,9 @@ import { expectOneReadImport, freshPotassiumExport, watchImportSteps } from './s
 // Demo biologist from seeders/20261201000100-demo-users.js (password for the local demo only).
 const BIOLOGIST = { email: 'biologist@gatewell.test', password: 'demo-biologist-pass' };
 
-test('a biologist imports an export, reviews QC, excludes a well and sees the fit change', async ({ page }) => {
+test('a biologist imports an export, reviews QC, excludes a well and sees the fit change', async ({
+  page,
+}) => {
   await page.goto('/sign-in');
   await page.getByLabel('E-mail').fill(BIOLOGIST.email);
   await page.getByLabel('Password').fill(BIOLOGIST.password);
@@ -15,7 +17,9 @@ test('a biologist imports an export, reviews QC, excludes a well and sees the fi
   const sent = watchImportSteps(page);
   const exported = freshPotassiumExport();
   await page.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-  await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: exported });
+  await page
+    .getByLabel(/Instrument export/)
+    .setInputFiles({ name: 'kv-rerun.csv', mimeType: 'text/csv', buffer: exported });
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByLabel('well position')).not.toHaveValue('');
   await page.screenshot({ path: 'test-output/screenshots/import-mapping.png', fullPage: true });

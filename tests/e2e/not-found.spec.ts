@@ -14,21 +14,37 @@ test('pages for records that do not exist answer 404 with the not-found card', a
   expect(plate && compound).toBeTruthy();
 
   const missing = [
-    `/plates/${NOBODY}`, `/plates/${NOBODY}/fits`, `/plates/${NOBODY}/history`, `/plates/${NOBODY}/forecast`, '/plates/not-a-plate',
-    `/compounds/${NOBODY}`, `/compounds/${NOBODY}/profile`, `/screens/${NOBODY}`, `/admin/users/${NOBODY}`, '/no-such-page',
+    `/plates/${NOBODY}`,
+    `/plates/${NOBODY}/fits`,
+    `/plates/${NOBODY}/history`,
+    `/plates/${NOBODY}/forecast`,
+    '/plates/not-a-plate',
+    `/compounds/${NOBODY}`,
+    `/compounds/${NOBODY}/profile`,
+    `/screens/${NOBODY}`,
+    `/admin/users/${NOBODY}`,
+    '/no-such-page',
   ];
   for (const address of missing) {
     const response = await page.goto(address);
     expect(response?.status(), address).toBe(404);
     await expect(page.getByRole('heading', { name: 'Not found' }), address).toBeVisible();
     // A missing record keeps the signed-in shell around the card; an address no route matches has none.
-    await expect(page.getByRole('navigation', { name: 'Main' }), address).toHaveCount(address === '/no-such-page' ? 0 : 1);
+    await expect(page.getByRole('navigation', { name: 'Main' }), address).toHaveCount(
+      address === '/no-such-page' ? 0 : 1,
+    );
   }
   await page.goto(`/plates/${NOBODY}/fits`);
   await screenshot(page, 'not-found-signed-in');
 
   // The records that do exist still answer 200 at the same addresses, tabs and loading fallbacks included.
-  for (const address of [`/plates/${plate!.id}`, `/plates/${plate!.id}/fits`, `/plates/${plate!.id}/history`, `/compounds/${compound!.id}`, `/compounds/${compound!.id}/profile`]) {
+  for (const address of [
+    `/plates/${plate!.id}`,
+    `/plates/${plate!.id}/fits`,
+    `/plates/${plate!.id}/history`,
+    `/compounds/${compound!.id}`,
+    `/compounds/${compound!.id}/profile`,
+  ]) {
     const response = await page.goto(address);
     expect(response?.status(), address).toBe(200);
     await expect(page.getByRole('heading', { name: 'Not found' })).toHaveCount(0);

@@ -14,7 +14,8 @@ export interface RouteCase {
 }
 
 const ROLES: Role[] = ['chemist', 'biologist', 'approver', 'admin'];
-const each = (pick: (role: Role) => Outcome) => Object.fromEntries(ROLES.map((role) => [role, pick(role)])) as Record<Role, Outcome>;
+const each = (pick: (role: Role) => Outcome) =>
+  Object.fromEntries(ROLES.map((role) => [role, pick(role)])) as Record<Role, Outcome>;
 
 /** A signed-in page; roles outside `only` get 403. */
 const page = (route: string, only?: Role[], allowed: Outcome = 200): RouteCase => ({

@@ -19,7 +19,8 @@ function discoverRoutes(dir = 'app', segments: string[] = []): string[] {
     } else if (entry.name === 'page.tsx') {
       found.push(`PAGE /${segments.join('/')}`);
     } else if (entry.name === 'route.ts') {
-      for (const match of readFileSync(full, 'utf8').matchAll(METHOD_EXPORT)) found.push(`${match[1]} /${segments.join('/')}`);
+      for (const match of readFileSync(full, 'utf8').matchAll(METHOD_EXPORT))
+        found.push(`${match[1]} /${segments.join('/')}`);
     }
   }
   return found.sort();
@@ -27,11 +28,17 @@ function discoverRoutes(dir = 'app', segments: string[] = []): string[] {
 
 async function clientFor(browser: Browser, subject: Subject): Promise<APIRequestContext> {
   const context = await browser.newContext();
-  if (subject !== 'anonymous') await signIn(await context.newPage(), DEMO[subject].email, DEMO[subject].password);
+  if (subject !== 'anonymous')
+    await signIn(await context.newPage(), DEMO[subject].email, DEMO[subject].password);
   return context.request;
 }
 
-async function send(client: APIRequestContext, method: string, url: string, baseURL: string): Promise<APIResponse> {
+async function send(
+  client: APIRequestContext,
+  method: string,
+  url: string,
+  baseURL: string,
+): Promise<APIResponse> {
   if (method === 'GET' || method === 'PAGE') return client.get(url, { maxRedirects: 0 });
   // Changing requests come from our own page (Origin) with an empty body: past the guards, the handler refuses the body.
   return client.fetch(url, { method, maxRedirects: 0, headers: { origin: baseURL }, multipart: {} });
@@ -59,7 +66,10 @@ test('every page and API route has a row in the role matrix', () => {
   expect(ROUTE_CASES.map((c) => c.route).sort()).toEqual(discoverRoutes());
 });
 
-test('role × route matrix: anonymous and each role are let in, sent to sign-in, or refused', async ({ browser, baseURL }) => {
+test('role × route matrix: anonymous and each role are let in, sent to sign-in, or refused', async ({
+  browser,
+  baseURL,
+}) => {
   test.setTimeout(180_000);
   // Real records of the demo data, so that allowed reads answer with content rather than "not found".
   const ids = (await queryOne<Record<string, string>>(
@@ -74,7 +84,9 @@ test('role × route matrix: anonymous and each role are let in, sent to sign-in,
       const [method, pattern] = routeCase.route.split(' ') as [string, string];
       const url = pattern.replace(/\[(\w+)\]/g, (_, name: string) => ids[name] ?? randomUUID());
       const response = await send(client, method, url, baseURL!);
-      seen.push(`${subject.padEnd(9)} ${routeCase.route.padEnd(44)} ${response.status()} ${response.headers()['location'] ?? ''}`);
+      seen.push(
+        `${subject.padEnd(9)} ${routeCase.route.padEnd(44)} ${response.status()} ${response.headers()['location'] ?? ''}`,
+      );
       check(response, routeCase.expect[subject], `${subject} ${method} ${url}`);
     }
   }
@@ -83,11 +95,18 @@ test('role × route matrix: anonymous and each role are let in, sent to sign-in,
   writeFileSync('test-output/route-matrix.txt', `${seen.join('\n')}\n`);
 });
 
-test('a changing API request without our Origin is refused before anything else', async ({ request, baseURL }) => {
+test('a changing API request without our Origin is refused before anything else', async ({
+  request,
+  baseURL,
+}) => {
   const changing = ROUTE_CASES.filter((c) => !c.route.startsWith('GET') && !c.route.startsWith('PAGE'));
   for (const routeCase of changing) {
     const [method, url] = routeCase.route.split(' ') as [string, string];
-    const foreign = await request.fetch(url, { method, headers: { origin: 'https://elsewhere.example' }, multipart: {} });
+    const foreign = await request.fetch(url, {
+      method,
+      headers: { origin: 'https://elsewhere.example' },
+      multipart: {},
+    });
     expect(foreign.status(), `${method} ${url} from a foreign origin`).toBe(403);
     const none = await request.fetch(url, { method, multipart: {} });
     expect(none.status(), `${method} ${url} without Origin`).toBe(403);

@@ -12,15 +12,26 @@ async function cookieValue(context: BrowserContext): Promise<string | undefined>
 }
 
 async function sealedFor(email: string, times: { issuedAt: number; lastSeenAt: number }) {
-  const user = await dbRow<{ id: string; session_version: number }>('select id, session_version from users where email = $1', [email]);
-  return sealData({ userId: user!.id, sessionVersion: user!.session_version, ...times }, { password: process.env.SESSION_SECRET!, ttl: TWELVE_HOURS });
+  const user = await dbRow<{ id: string; session_version: number }>(
+    'select id, session_version from users where email = $1',
+    [email],
+  );
+  return sealData(
+    { userId: user!.id, sessionVersion: user!.session_version, ...times },
+    { password: process.env.SESSION_SECRET!, ttl: TWELVE_HOURS },
+  );
 }
 
 async function plant(context: BrowserContext, value: string) {
-  await context.addCookies([{ name: COOKIE, value, domain: '127.0.0.1', path: '/', httpOnly: true, sameSite: 'Lax' }]);
+  await context.addCookies([
+    { name: COOKIE, value, domain: '127.0.0.1', path: '/', httpOnly: true, sameSite: 'Lax' },
+  ]);
 }
 
-test('signing in replaces whatever session cookie the browser brought, and sign-out retires it (no fixation, no replay)', async ({ page, context }) => {
+test('signing in replaces whatever session cookie the browser brought, and sign-out retires it (no fixation, no replay)', async ({
+  page,
+  context,
+}) => {
   await plant(context, 'a-value-chosen-by-someone-else');
   await page.goto('/sign-in');
   await page.getByLabel('E-mail').fill(PEOPLE.chemist.email);
@@ -51,8 +62,16 @@ test('a genuine cookie works; an idle or too old one sends the visitor to sign-i
   const now = Date.now();
   const cases = [
     { name: 'fresh', times: { issuedAt: now - 60_000, lastSeenAt: now - 60_000 }, signedIn: true },
-    { name: 'idle 31 minutes', times: { issuedAt: now - 40 * 60_000, lastSeenAt: now - 31 * 60_000 }, signedIn: false },
-    { name: 'signed in 12 hours ago', times: { issuedAt: now - (TWELVE_HOURS * 1000 + 60_000), lastSeenAt: now - 60_000 }, signedIn: false },
+    {
+      name: 'idle 31 minutes',
+      times: { issuedAt: now - 40 * 60_000, lastSeenAt: now - 31 * 60_000 },
+      signedIn: false,
+    },
+    {
+      name: 'signed in 12 hours ago',
+      times: { issuedAt: now - (TWELVE_HOURS * 1000 + 60_000), lastSeenAt: now - 60_000 },
+      signedIn: false,
+    },
   ];
   for (const c of cases) {
     const context = await browser.newContext();
@@ -65,18 +84,31 @@ test('a genuine cookie works; an idle or too old one sends the visitor to sign-i
   }
 });
 
-test('a read moves the idle clock at most once a minute, on pages (the proxy) and on the API (withUser) alike; an idle cookie gets 401 from the API', async ({ playwright, baseURL }) => {
+test('a read moves the idle clock at most once a minute, on pages (the proxy) and on the API (withUser) alike; an idle cookie gets 401 from the API', async ({
+  playwright,
+  baseURL,
+}) => {
   const now = Date.now();
   const lastSeen = async (setCookie: string | undefined) => {
     if (!setCookie) return null;
     const value = /gatewell_session=([^;]+)/.exec(setCookie)?.[1];
-    return value ? ((await unsealData<{ lastSeenAt: number }>(value, { password: process.env.SESSION_SECRET!, ttl: TWELVE_HOURS })).lastSeenAt) : null;
+    return value
+      ? (
+          await unsealData<{ lastSeenAt: number }>(value, {
+            password: process.env.SESSION_SECRET!,
+            ttl: TWELVE_HOURS,
+          })
+        ).lastSeenAt
+      : null;
   };
   const plate = await dbRow<{ id: string }>("select id from plates where label = 'NAV-P01'");
   for (const path of ['/plates', `/api/plates/${plate!.id}/jobs`]) {
     const api = await playwright.request.newContext({ baseURL: baseURL! });
     const get = async (times: { issuedAt: number; lastSeenAt: number }) =>
-      api.get(path, { headers: { cookie: `${COOKIE}=${await sealedFor(PEOPLE.biologist.email, times)}` }, maxRedirects: 0 });
+      api.get(path, {
+        headers: { cookie: `${COOKIE}=${await sealedFor(PEOPLE.biologist.email, times)}` },
+        maxRedirects: 0,
+      });
 
     const due = await get({ issuedAt: now - 10 * 60_000, lastSeenAt: now - 5 * 60_000 });
     expect(due.status(), path).toBe(200);

@@ -16,7 +16,9 @@ test('a wrong password gives one message that names neither field', async ({ pag
   await page.getByLabel('E-mail').fill(BIOLOGIST.email);
   await page.getByLabel('Password').fill('not-the-password');
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page.getByRole('main').getByRole('alert')).toHaveText('That e-mail and password do not match an active account.');
+  await expect(page.getByRole('main').getByRole('alert')).toHaveText(
+    'That e-mail and password do not match an active account.',
+  );
 });
 
 test('a biologist signs in, sees the shell, and signs out', async ({ page }) => {

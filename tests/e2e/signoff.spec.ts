@@ -6,13 +6,24 @@ import { dbRow, PEOPLE, shot, signedIn, type Person } from './signoff-support';
 // arriving in this test run's fake SMTP server (scripts/fake-smtp.sh, started by scripts/test.sh).
 const LABEL = 'KV-P01';
 
-test('a plate goes through sign-off as chemist, biologist and two approvers, with e-mail at each step', async ({ browser }) => {
+test('a plate goes through sign-off as chemist, biologist and two approvers, with e-mail at each step', async ({
+  browser,
+}) => {
   test.setTimeout(240_000);
-  const plate = await dbRow<{ id: string; state: string }>('select id, state from plates where label = $1', [LABEL]);
+  const plate = await dbRow<{ id: string; state: string }>('select id, state from plates where label = $1', [
+    LABEL,
+  ]);
   expect(plate?.state).toBe('imported');
   const plateId = plate!.id;
   const mailTo = (who: Person, subject: string, count = 1) =>
-    waitForMessages((m) => m.envelope.to.includes(PEOPLE[who].email) && m.text.includes(`/plates/${plateId}/history`) && m.subject.includes(subject), count, 40_000);
+    waitForMessages(
+      (m) =>
+        m.envelope.to.includes(PEOPLE[who].email) &&
+        m.text.includes(`/plates/${plateId}/history`) &&
+        m.subject.includes(subject),
+      count,
+      40_000,
+    );
   const page: Partial<Record<Person, Page>> = {};
   const as = async (who: Person) => (page[who] ??= await signedIn(browser, who));
   const open = async (who: Person) => {
@@ -26,7 +37,8 @@ test('a plate goes through sign-off as chemist, biologist and two approvers, wit
     await p.getByLabel('Your password, to sign').fill(password ?? '');
     await p.getByRole('button', { name: `Sign: ${button}` }).click();
   };
-  const signed = (p: Page, state: string) => expect(p.getByRole('status').filter({ hasText: `Signed. Plate ${LABEL} is now ${state}` })).toBeVisible();
+  const signed = (p: Page, state: string) =>
+    expect(p.getByRole('status').filter({ hasText: `Signed. Plate ${LABEL} is now ${state}` })).toBeVisible();
 
   // The chemist finds the plate in "My work" and verifies its compound map.
   const chemist = await as('chemist');
@@ -51,10 +63,17 @@ test('a plate goes through sign-off as chemist, biologist and two approvers, wit
   await approver.getByRole('link', { name: LABEL }).click();
   await approver.getByLabel('Return for rework').check();
   await sign(approver, 'Return for rework', '', PEOPLE.approver.password);
-  await expect(approver.getByText('Say why the plate is returned; the biologist reworks it from your comment.')).toBeVisible();
+  await expect(
+    approver.getByText('Say why the plate is returned; the biologist reworks it from your comment.'),
+  ).toBeVisible();
   await shot(approver, 'signoff-2-approver-return-needs-comment');
   await approver.getByLabel('Return for rework').check();
-  await sign(approver, 'Return for rework', 'Vehicle wells in column 1 drift; re-check the exclusions.', PEOPLE.approver.password);
+  await sign(
+    approver,
+    'Return for rework',
+    'Vehicle wells in column 1 drift; re-check the exclusions.',
+    PEOPLE.approver.password,
+  );
   await signed(approver, 'returned for rework');
   const [returned] = await mailTo('biologist', 'returned for rework');
   expect(returned!.text).toContain('Comment: Vehicle wells in column 1 drift; re-check the exclusions.');
@@ -75,24 +94,40 @@ test('a plate goes through sign-off as chemist, biologist and two approvers, wit
   // The other approver approves, after one wrong password.
   const approver2 = await open('approver2');
   await sign(approver2, 'Approve', '', 'not-the-password');
-  await expect(approver2.getByRole('form', { name: 'Sign this step' }).getByText('That password is not right.')).toBeVisible();
+  await expect(
+    approver2.getByRole('form', { name: 'Sign this step' }).getByText('That password is not right.'),
+  ).toBeVisible();
   await sign(approver2, 'Approve', 'Accepted.', PEOPLE.approver2.password);
   await signed(approver2, 'approved');
   await mailTo('biologist', 'approved and locked');
-  await expect(approver2.getByText('Approved and locked: wells, exclusions, readouts and fits can no longer change.')).toBeVisible();
+  await expect(
+    approver2.getByText('Approved and locked: wells, exclusions, readouts and fits can no longer change.'),
+  ).toBeVisible();
   await expect(approver2.getByRole('button', { name: /^Sign:/ })).toHaveCount(0);
   const history = approver2.getByRole('region', { name: 'History' });
-  for (const title of ['Imported', 'Returned for rework', 'Reopened for rework', 'Signature refused', 'Approved']) {
+  for (const title of [
+    'Imported',
+    'Returned for rework',
+    'Reopened for rework',
+    'Signature refused',
+    'Approved',
+  ]) {
     await expect(history.getByText(title, { exact: true }).first()).toBeVisible();
   }
   await shot(approver2, 'signoff-3-approved-history');
-  expect(await dbRow<{ n: number }>('select count(*)::int as n from signoff_events where plate_id = $1', [plateId])).toEqual({ n: 7 });
+  expect(
+    await dbRow<{ n: number }>('select count(*)::int as n from signoff_events where plate_id = $1', [
+      plateId,
+    ]),
+  ).toEqual({ n: 7 });
 
   // The admin sees every notification and its delivery in the outbox.
   const admin = await as('admin');
   await admin.goto('/admin/outbox');
   await expect(admin.getByRole('heading', { name: 'Mail outbox' })).toBeVisible();
-  await expect(admin.getByRole('link', { name: `Gatewell: plate ${LABEL} approved and locked` }).first()).toBeVisible();
+  await expect(
+    admin.getByRole('link', { name: `Gatewell: plate ${LABEL} approved and locked` }).first(),
+  ).toBeVisible();
   await expect(admin.getByText('Sent', { exact: true }).first()).toBeVisible();
   await shot(admin, 'signoff-4-admin-outbox');
 });

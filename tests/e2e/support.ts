@@ -24,7 +24,10 @@ export async function signIn(page: Page, email: string, password: string): Promi
 }
 
 /** A fresh browser context signed in as a demo user. */
-export async function signedInContext(browser: Browser, role: DemoRole): Promise<{ context: BrowserContext; page: Page }> {
+export async function signedInContext(
+  browser: Browser,
+  role: DemoRole,
+): Promise<{ context: BrowserContext; page: Page }> {
   const context = await browser.newContext();
   const page = await context.newPage();
   await signIn(page, DEMO[role].email, DEMO[role].password);
@@ -43,7 +46,8 @@ export async function queryOne<Row>(sql: string, values: unknown[] = []): Promis
   }
 }
 
-export const screenshot = (page: Page, name: string) => page.screenshot({ path: `test-output/screenshots/${name}.png`, fullPage: true });
+export const screenshot = (page: Page, name: string) =>
+  page.screenshot({ path: `test-output/screenshots/${name}.png`, fullPage: true });
 
 /**
  * The demo potassium export made new for one import: 64 trailing blank lines, each ended by LF or CRLF
@@ -52,7 +56,9 @@ export const screenshot = (page: Page, name: string) => page.screenshot({ path: 
  */
 export function freshPotassiumExport(): Buffer {
   const text = readFileSync('seeders/data/demo-plates/kv-96-plate-01.csv', 'utf8').trimEnd();
-  const bits = [...randomBytes(8)].flatMap((byte) => Array.from({ length: 8 }, (_, bit) => (byte >> bit) & 1));
+  const bits = [...randomBytes(8)].flatMap((byte) =>
+    Array.from({ length: 8 }, (_, bit) => (byte >> bit) & 1),
+  );
   return Buffer.from(`${text}\n${bits.map((bit) => (bit ? '\r\n' : '\n')).join('')}`, 'utf8');
 }
 
@@ -77,20 +83,38 @@ export function watchImportSteps(page: Page): ImportStepSent[] {
  * one draft and held no file, and that draft holds the file's SHA-256 and size (inspect sent it: Chromium
  * does not show a file's body to the test) and was used by the plate with the label.
  */
-export async function expectOneReadImport(sent: ImportStepSent[], label: string, file: Buffer): Promise<void> {
+export async function expectOneReadImport(
+  sent: ImportStepSent[],
+  label: string,
+  file: Buffer,
+): Promise<void> {
   expect(sent.map((s) => s.step)).toEqual(['inspect', 'preview', 'commit']);
-  const drafts = await Promise.all(sent.slice(1).map(async ({ request }) => {
-    const body = request.postData() ?? '';
-    expect(body).not.toContain('name="file"');
-    expect((await request.sizes()).requestBodySize).toBeLessThan(file.length);
-    return /name="draftId"\r\n\r\n([0-9a-f-]{36})\r\n/.exec(body)?.[1];
-  }));
+  const drafts = await Promise.all(
+    sent.slice(1).map(async ({ request }) => {
+      const body = request.postData() ?? '';
+      expect(body).not.toContain('name="file"');
+      expect((await request.sizes()).requestBodySize).toBeLessThan(file.length);
+      return /name="draftId"\r\n\r\n([0-9a-f-]{36})\r\n/.exec(body)?.[1];
+    }),
+  );
   expect(drafts[0]).toMatch(/^[0-9a-f-]{36}$/);
   expect(drafts[1]).toBe(drafts[0]);
-  const draft = await queryOne<{ label: string; sha256: string; size: number; used: boolean; sheets: boolean }>(
+  const draft = await queryOne<{
+    label: string;
+    sha256: string;
+    size: number;
+    used: boolean;
+    sheets: boolean;
+  }>(
     `select p.label, d.sha256, d.size_bytes as size, d.consumed_at is not null as used, d.sheets is not null as sheets
        from import_drafts d join plates p on p.id = d.plate_id where d.id = $1`,
     [drafts[0]],
   );
-  expect(draft).toEqual({ label, sha256: createHash('sha256').update(file).digest('hex'), size: file.length, used: true, sheets: false });
+  expect(draft).toEqual({
+    label,
+    sha256: createHash('sha256').update(file).digest('hex'),
+    size: file.length,
+    used: true,
+    sheets: false,
+  });
 }

@@ -7,7 +7,12 @@ import { DEMO, screenshot, signedInContext, signIn } from './support';
 test.describe.configure({ mode: 'serial' });
 
 const stamp = Date.now().toString(36);
-const newcomer = { name: `Nia Newcomer ${stamp}`, email: `nia.${stamp}@gatewell.test`, first: 'first-pass-123', second: 'second-pass-456' };
+const newcomer = {
+  name: `Nia Newcomer ${stamp}`,
+  email: `nia.${stamp}@gatewell.test`,
+  first: 'first-pass-123',
+  second: 'second-pass-456',
+};
 
 async function openAccount(page: Page) {
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Users' }).click();
@@ -19,7 +24,9 @@ test('an admin creates a user with roles and an initial password', async ({ brow
   const { context, page } = await signedInContext(browser, 'admin');
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Users' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'Users' })).toBeVisible();
-  await expect(page.getByRole('region', { name: 'Users' }).getByText(DEMO.biologist.email)).toBeVisible({ timeout: 15_000 });
+  await expect(page.getByRole('region', { name: 'Users' }).getByText(DEMO.biologist.email)).toBeVisible({
+    timeout: 15_000,
+  });
   await screenshot(page, 'admin-users');
 
   await page.getByRole('link', { name: 'Create user' }).click();
@@ -88,7 +95,9 @@ test('the new user changes their password: their other session ends, this one st
   await page.getByLabel('E-mail', { exact: true }).fill(newcomer.email);
   await page.getByLabel('Password').fill(newcomer.first);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page.getByRole('main').getByRole('alert')).toHaveText('That e-mail and password do not match an active account.');
+  await expect(page.getByRole('main').getByRole('alert')).toHaveText(
+    'That e-mail and password do not match an active account.',
+  );
   await signIn(page, newcomer.email, newcomer.second);
   await first.close();
   await other.close();
@@ -102,7 +111,9 @@ test('the admin disables the user: their open session ends and they cannot sign 
   const { context, page } = await signedInContext(browser, 'admin');
   await openAccount(page);
   await page.getByRole('button', { name: 'Disable account' }).click();
-  await expect(page.locator('#status-reason-error')).toHaveText('Say why (at least 3 characters); the audit trail keeps the reason.');
+  await expect(page.locator('#status-reason-error')).toHaveText(
+    'Say why (at least 3 characters); the audit trail keeps the reason.',
+  );
   await page.getByLabel('Reason for disabling').fill('left the screening team');
   await page.getByRole('button', { name: 'Disable account' }).click();
   await expect(page.getByText(`${newcomer.name} is disabled and signed out everywhere.`)).toBeVisible();
@@ -114,7 +125,9 @@ test('the admin disables the user: their open session ends and they cannot sign 
   await userPage.getByLabel('E-mail').fill(newcomer.email);
   await userPage.getByLabel('Password').fill(newcomer.second);
   await userPage.getByRole('button', { name: 'Sign in' }).click();
-  await expect(userPage.getByRole('main').getByRole('alert')).toHaveText('That e-mail and password do not match an active account.');
+  await expect(userPage.getByRole('main').getByRole('alert')).toHaveText(
+    'That e-mail and password do not match an active account.',
+  );
   await context.close();
   await user.close();
 });
@@ -132,11 +145,16 @@ test('an approver follows the account in the audit trail, filtered on the server
   await screenshot(page, 'audit-trail-user');
 
   // The filtered trail downloads whole as csv: the filter in its head, only user events below.
-  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'csv', exact: true }).click()]);
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('link', { name: 'csv', exact: true }).click(),
+  ]);
   expect(download.suggestedFilename()).toMatch(/^gatewell-audit-trail-\d{4}-\d{2}-\d{2}-events\.csv$/);
   const lines = readFileSync((await download.path())!, 'utf8').split('\r\n');
   expect(lines).toContain('Filter,record type user');
-  const header = lines.indexOf('Event,Time (UTC),Person,E-mail,Action,Record type,Record id,Reason,Before,After,Address');
+  const header = lines.indexOf(
+    'Event,Time (UTC),Person,E-mail,Action,Record type,Record id,Reason,Before,After,Address',
+  );
   const events = lines.slice(header + 1).filter(Boolean);
   expect(events.length).toBeGreaterThan(0);
   expect(events.every((line) => line.split(',')[5] === 'user')).toBe(true);

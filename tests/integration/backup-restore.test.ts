@@ -40,9 +40,14 @@ async function withClient<T>(url: string, work: (client: pg.Client) => Promise<T
 /** Row count of every table, and the whole audit trail in order. */
 async function snapshot(url: string) {
   return withClient(url, async (client) => {
-    const tables = (await client.query<{ tablename: string }>(`select tablename from pg_tables where schemaname = 'public' order by tablename`)).rows;
+    const tables = (
+      await client.query<{ tablename: string }>(
+        `select tablename from pg_tables where schemaname = 'public' order by tablename`,
+      )
+    ).rows;
     const counts: Record<string, number> = {};
-    for (const { tablename } of tables) counts[tablename] = Number((await client.query(`select count(*) as n from "${tablename}"`)).rows[0].n);
+    for (const { tablename } of tables)
+      counts[tablename] = Number((await client.query(`select count(*) as n from "${tablename}"`)).rows[0].n);
     const audit = (await client.query('select * from audit_events order by id')).rows;
     return { counts, audit };
   });
@@ -59,7 +64,9 @@ describe('a backup restores into a fresh database with every row and the audit g
     await importDemoPlate(biologist, screens, 'nav-96-plate-01.xlsx');
   });
   afterAll(async () => {
-    await withClient(Object.assign(new URL(ownerUrl()), { pathname: '/postgres' }).href, (client) => client.query(`drop database if exists ${TARGET} with (force)`));
+    await withClient(Object.assign(new URL(ownerUrl()), { pathname: '/postgres' }).href, (client) =>
+      client.query(`drop database if exists ${TARGET} with (force)`),
+    );
     rmSync(folder, { recursive: true, force: true });
     await db().close();
   });
@@ -79,12 +86,20 @@ describe('a backup restores into a fresh database with every row and the audit g
 
     // The restored database keeps both guards: the app's role is not granted changes, and the owner meets the trigger.
     await withClient(targetUrl, async (client) => {
-      await expect(client.query(`update audit_events set reason = 'rewritten'`)).rejects.toThrow('permission denied for table audit_events');
-      await expect(client.query('alter table audit_events disable trigger audit_events_no_update')).rejects.toThrow('must be owner of table audit_events');
+      await expect(client.query(`update audit_events set reason = 'rewritten'`)).rejects.toThrow(
+        'permission denied for table audit_events',
+      );
+      await expect(
+        client.query('alter table audit_events disable trigger audit_events_no_update'),
+      ).rejects.toThrow('must be owner of table audit_events');
     });
     await withClient(targetOwnerUrl, async (client) => {
-      await expect(client.query(`update audit_events set reason = 'rewritten'`)).rejects.toThrow('audit_events is append-only: UPDATE refused');
-      await expect(client.query('delete from audit_events')).rejects.toThrow('audit_events is append-only: DELETE refused');
+      await expect(client.query(`update audit_events set reason = 'rewritten'`)).rejects.toThrow(
+        'audit_events is append-only: UPDATE refused',
+      );
+      await expect(client.query('delete from audit_events')).rejects.toThrow(
+        'audit_events is append-only: DELETE refused',
+      );
     });
   });
 

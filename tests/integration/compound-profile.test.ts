@@ -16,7 +16,12 @@ describe('compound profile', () => {
   let reader: Actor;
   const plates: Record<string, string> = {};
   const idOf = async (identifier: string) =>
-    (await db().query<{ id: string }>('select id from compounds where identifier = :identifier', { type: QueryTypes.SELECT, replacements: { identifier } }))[0]!.id;
+    (
+      await db().query<{ id: string }>('select id from compounds where identifier = :identifier', {
+        type: QueryTypes.SELECT,
+        replacements: { identifier },
+      })
+    )[0]!.id;
 
   beforeAll(async () => {
     await resetDatabase();
@@ -27,7 +32,9 @@ describe('compound profile', () => {
       plates[file] = await importDemoPlate(biologist, screens, file);
     }
     // Approval belongs to the sign-off workflow; here the state is set directly to test what the profile makes of it.
-    await db().query("update plates set state = 'approved' where id = :id", { replacements: { id: plates['kv-96-plate-01.csv'] } });
+    await db().query("update plates set state = 'approved' where id = :id", {
+      replacements: { id: plates['kv-96-plate-01.csv'] },
+    });
   });
   afterAll(async () => {
     await closeForecastPool();
@@ -40,14 +47,22 @@ describe('compound profile', () => {
       ['KV-P01', 'Potassium counter-screen', 'Kv7.2', true, 'above_range'],
       ['NAV-P01', 'Pain sodium screen', 'Nav1.7', false, 'fitted'],
     ]);
-    expect(profile.screens.map((s) => [s.name, s.hasApproved])).toEqual([['Pain sodium screen', false], ['Potassium counter-screen', true]]);
+    expect(profile.screens.map((s) => [s.name, s.hasApproved])).toEqual([
+      ['Pain sodium screen', false],
+      ['Potassium counter-screen', true],
+    ]);
   });
 
   test('selectivity: an IC50 above the tested range gives a bound, not a number', async () => {
     const profile = await getCompoundProfile(reader, await idOf('GW-0001'));
     const nav = profile.potencies.find((p) => p.target === 'Nav1.7')!;
     const [ratio] = profile.selectivity;
-    expect(ratio).toMatchObject({ numerator: 'Kv7.2', denominator: 'Nav1.7', relation: '>', approved: false });
+    expect(ratio).toMatchObject({
+      numerator: 'Kv7.2',
+      denominator: 'Nav1.7',
+      relation: '>',
+      approved: false,
+    });
     expect(ratio!.ratio).toBeCloseTo(30 / nav.ic50_uM!, 9);
     expect(ratio!.text).toBe(`Kv7.2 ÷ Nav1.7 > ${Number((30 / nav.ic50_uM!).toPrecision(3))}`);
     expect(ratio!.meaning).toMatch(/^at least \d+-fold more potent on Nav1\.7$/);
@@ -56,13 +71,28 @@ describe('compound profile', () => {
   test('a compound with both IC50s fitted gets an exact ratio', async () => {
     const profile = await getCompoundProfile(reader, await idOf('GW-0003'));
     const [nav, kv] = ['Nav1.7', 'Kv7.2'].map((t) => profile.potencies.find((p) => p.target === t)!);
-    expect(profile.selectivity).toEqual([expect.objectContaining({ relation: '=', numerator: 'Kv7.2', denominator: 'Nav1.7', ratio: kv!.ic50_uM! / nav!.ic50_uM! })]);
+    expect(profile.selectivity).toEqual([
+      expect.objectContaining({
+        relation: '=',
+        numerator: 'Kv7.2',
+        denominator: 'Nav1.7',
+        ratio: kv!.ic50_uM! / nav!.ic50_uM!,
+      }),
+    ]);
   });
 
   test('a compound never tested has an empty profile and no forecast', async () => {
     const id = await idOf('GW-0011');
-    expect(await getCompoundProfile(reader, id)).toMatchObject({ fits: [], potencies: [], selectivity: [], screens: [] });
-    await expect(getCompoundForecast(reader, id)).rejects.toMatchObject({ code: 'not_found', message: 'GW-0011 has no fits yet, so there is nothing to forecast.' });
+    expect(await getCompoundProfile(reader, id)).toMatchObject({
+      fits: [],
+      potencies: [],
+      selectivity: [],
+      screens: [],
+    });
+    await expect(getCompoundForecast(reader, id)).rejects.toMatchObject({
+      code: 'not_found',
+      message: 'GW-0011 has no fits yet, so there is nothing to forecast.',
+    });
   });
 
   test('the forecast at exposure combines targets of both screens, is stored without a plate and reused', async () => {
@@ -78,13 +108,21 @@ describe('compound profile', () => {
     expect(first.forecast!.conditions.every((c) => c.block.gNa! > 0 && c.block.gM! > 0)).toBe(true);
     const again = await getCompoundForecast(reader, id);
     expect(again.forecast!.reused).toBe(true);
-    const rows = await db().query<{ plateId: string | null }>('select plate_id as "plateId" from forecasts where compound_id = :id', { type: QueryTypes.SELECT, replacements: { id } });
+    const rows = await db().query<{ plateId: string | null }>(
+      'select plate_id as "plateId" from forecasts where compound_id = :id',
+      { type: QueryTypes.SELECT, replacements: { id } },
+    );
     expect(rows).toEqual([{ plateId: null }]);
   });
 
   test('a screen the compound was not tested in is refused', async () => {
     const sodiumOnly = await idOf('GW-0002');
-    const kvScreen = (await getCompoundProfile(reader, await idOf('GW-0001'))).screens.find((s) => s.name === 'Potassium counter-screen')!;
-    await expect(getCompoundForecast(reader, sodiumOnly, { screenId: kvScreen.id })).rejects.toMatchObject({ code: 'not_found', message: 'GW-0002 has no fits in that screen.' });
+    const kvScreen = (await getCompoundProfile(reader, await idOf('GW-0001'))).screens.find(
+      (s) => s.name === 'Potassium counter-screen',
+    )!;
+    await expect(getCompoundForecast(reader, sodiumOnly, { screenId: kvScreen.id })).rejects.toMatchObject({
+      code: 'not_found',
+      message: 'GW-0002 has no fits in that screen.',
+    });
   });
 });

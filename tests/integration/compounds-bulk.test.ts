@@ -20,7 +20,11 @@ describe('bulk compound registration on the real database', () => {
 
   test('a clean sheet previews without writing, then registers every compound and batch in one go', async () => {
     const chemist = await makeActor(['chemist']);
-    const bytes = workbook([HEADER, ['GW-1001', 'First', 'CCO', 46.07, 'L1', 99, 10, 'DMSO'], ['GW-1002', 'Second', '', '', '', '', '', '']]);
+    const bytes = workbook([
+      HEADER,
+      ['GW-1001', 'First', 'CCO', 46.07, 'L1', 99, 10, 'DMSO'],
+      ['GW-1002', 'Second', '', '', '', '', '', ''],
+    ]);
     const preview = await registerCompoundsFromSheet(chemist, { bytes, filename: 'r.xlsx' }, false);
     expect(preview.ok).toBe(true);
     expect(await Compound.count()).toBe(0);
@@ -33,7 +37,12 @@ describe('bulk compound registration on the real database', () => {
 
   test('one bad row stops the whole sheet, with sheet, row and column named', async () => {
     const chemist = await makeActor(['chemist']);
-    const bytes = workbook([HEADER, ['GW-1001', 'ok', '', 300, '', '', '', ''], ['GW 1002', 'bad id', '', -4, '', '', '', ''], ['gw-1001', 'twice', '', '', '', '', '', '']]);
+    const bytes = workbook([
+      HEADER,
+      ['GW-1001', 'ok', '', 300, '', '', '', ''],
+      ['GW 1002', 'bad id', '', -4, '', '', '', ''],
+      ['gw-1001', 'twice', '', '', '', '', '', ''],
+    ]);
     const result = await registerCompoundsFromSheet(chemist, { bytes, filename: 'r.xlsx' }, true);
     expect(result.ok).toBe(false);
     expect(result.rows.flatMap((r) => r.errors)).toEqual([
@@ -46,16 +55,46 @@ describe('bulk compound registration on the real database', () => {
 
   test('identifiers already registered are refused; a biologist may not register', async () => {
     const chemist = await makeActor(['chemist']);
-    await registerCompoundsFromSheet(chemist, { bytes: workbook([HEADER, ['GW-1001', '', '', '', '', '', '', '']]), filename: 'a.xlsx' }, true);
-    const again = await registerCompoundsFromSheet(chemist, { bytes: workbook([HEADER, ['GW-1001', '', '', '', '', '', '', '']]), filename: 'b.xlsx' }, true);
+    await registerCompoundsFromSheet(
+      chemist,
+      { bytes: workbook([HEADER, ['GW-1001', '', '', '', '', '', '', '']]), filename: 'a.xlsx' },
+      true,
+    );
+    const again = await registerCompoundsFromSheet(
+      chemist,
+      { bytes: workbook([HEADER, ['GW-1001', '', '', '', '', '', '', '']]), filename: 'b.xlsx' },
+      true,
+    );
     expect(again.rows[0]!.errors).toEqual(['Sheet "Registry", row 2: GW-1001 is already registered.']);
-    await expect(registerCompoundsFromSheet(await makeActor(['biologist']), { bytes: workbook([HEADER]), filename: 'c.xlsx' }, false)).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(
+      registerCompoundsFromSheet(
+        await makeActor(['biologist']),
+        { bytes: workbook([HEADER]), filename: 'c.xlsx' },
+        false,
+      ),
+    ).rejects.toMatchObject({ code: 'forbidden' });
   });
 
   test('a sheet without an identifier column, and a file that is not a spreadsheet, are refused clearly', async () => {
     const chemist = await makeActor(['chemist']);
-    const noId = await registerCompoundsFromSheet(chemist, { bytes: workbook([['Name', 'MW'], ['x', 1]]), filename: 'n.xlsx' }, false);
+    const noId = await registerCompoundsFromSheet(
+      chemist,
+      {
+        bytes: workbook([
+          ['Name', 'MW'],
+          ['x', 1],
+        ]),
+        filename: 'n.xlsx',
+      },
+      false,
+    );
     expect(noId.problems[0]).toMatch(/^Sheet "Registry", row 1: no column names the compound identifier/);
-    await expect(registerCompoundsFromSheet(chemist, { bytes: new TextEncoder().encode('\u0000\u0001garbage'), filename: 'g.xlsx' }, false)).rejects.toMatchObject({ code: 'invalid' });
+    await expect(
+      registerCompoundsFromSheet(
+        chemist,
+        { bytes: new TextEncoder().encode('\u0000\u0001garbage'), filename: 'g.xlsx' },
+        false,
+      ),
+    ).rejects.toMatchObject({ code: 'invalid' });
   });
 });

@@ -6,7 +6,12 @@ import { AuditEvent, Compound } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 
-const aspirinLike = { identifier: 'GW-0001', name: 'Test compound', smiles: 'CC(=O)Oc1ccccc1C(=O)O', molecularWeight: 180.16 };
+const aspirinLike = {
+  identifier: 'GW-0001',
+  name: 'Test compound',
+  smiles: 'CC(=O)Oc1ccccc1C(=O)O',
+  molecularWeight: 180.16,
+};
 
 describe('compound registry on the real database', () => {
   beforeEach(resetDatabase);
@@ -15,9 +20,16 @@ describe('compound registry on the real database', () => {
   test('a chemist registers a compound and a batch; both are audited', async () => {
     const chemist = await makeActor(['chemist']);
     const compound = await createCompound(chemist, aspirinLike);
-    const batch = await addBatch(chemist, compound.id, { lot: 'L-01', purity_percent: 99.1, stockConcentration_mM: 10, solvent: 'DMSO' });
+    const batch = await addBatch(chemist, compound.id, {
+      lot: 'L-01',
+      purity_percent: 99.1,
+      stockConcentration_mM: 10,
+      solvent: 'DMSO',
+    });
     expect((await getCompound(chemist, compound.id)).batches).toEqual([batch]);
-    expect(await AuditEvent.count({ where: { entityType: 'compound', action: 'create', actorId: chemist.id } })).toBe(1);
+    expect(
+      await AuditEvent.count({ where: { entityType: 'compound', action: 'create', actorId: chemist.id } }),
+    ).toBe(1);
     expect(await AuditEvent.count({ where: { entityType: 'batch', action: 'create' } })).toBe(1);
   });
 
@@ -36,8 +48,12 @@ describe('compound registry on the real database', () => {
     const chemist = await makeActor(['chemist']);
     const biologist = await makeActor(['biologist']);
     const compound = await createCompound(chemist, aspirinLike);
-    await expect(createCompound(biologist, { ...aspirinLike, identifier: 'GW-0002' })).rejects.toMatchObject({ code: 'forbidden' });
-    await expect(updateCompound(biologist, compound.id, { ...aspirinLike, name: 'x' })).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(createCompound(biologist, { ...aspirinLike, identifier: 'GW-0002' })).rejects.toMatchObject({
+      code: 'forbidden',
+    });
+    await expect(updateCompound(biologist, compound.id, { ...aspirinLike, name: 'x' })).rejects.toMatchObject(
+      { code: 'forbidden' },
+    );
     expect((await getCompound(biologist, compound.id)).name).toBe('Test compound');
   });
 
@@ -52,10 +68,18 @@ describe('compound registry on the real database', () => {
 
   test.each([
     [{ identifier: '' }, 'identifier', 'Enter the compound identifier.'],
-    [{ identifier: 'GW 1' }, 'identifier', 'Use letters, digits, dot, dash or underscore, starting with a letter or digit.'],
+    [
+      { identifier: 'GW 1' },
+      'identifier',
+      'Use letters, digits, dot, dash or underscore, starting with a letter or digit.',
+    ],
     [{ identifier: 'GW-1', molecularWeight: '-5' }, 'molecularWeight', 'Molecular weight must be above 0.'],
     [{ identifier: 'GW-1', molecularWeight: 'heavy' }, 'molecularWeight', 'Enter a number.'],
-    [{ identifier: 'GW-1', smiles: '<script>' }, 'smiles', 'SMILES may hold only atom, bond, ring and branch characters.'],
+    [
+      { identifier: 'GW-1', smiles: '<script>' },
+      'smiles',
+      'SMILES may hold only atom, bond, ring and branch characters.',
+    ],
   ])('bad input %j is refused on %s', (input, field, message) => {
     const result = compoundSchema.safeParse(input);
     expect(result.success).toBe(false);

@@ -28,7 +28,20 @@ async function migrate(urls: { app: string; owner?: string }): Promise<void> {
 
 /** One SQL script as the cluster's superuser, over its socket (as scripts/pg-connect.sh does). */
 async function asSuperuser(sql: string): Promise<void> {
-  const psql = ['/usr/lib/postgresql/15/bin/psql', '-h', path.join(process.cwd(), '.pgrun'), '-p', PORT, '-U', 'postgres', '-v', 'ON_ERROR_STOP=1', '-qAt', '-c', sql];
+  const psql = [
+    '/usr/lib/postgresql/15/bin/psql',
+    '-h',
+    path.join(process.cwd(), '.pgrun'),
+    '-p',
+    PORT,
+    '-U',
+    'postgres',
+    '-v',
+    'ON_ERROR_STOP=1',
+    '-qAt',
+    '-c',
+    sql,
+  ];
   const [command, ...args] = process.getuid?.() === 0 ? ['runuser', '-u', 'postgres', '--', ...psql] : psql;
   await run(command!, args, { timeout: 30_000 });
 }
@@ -54,8 +67,16 @@ describe('a database from before the two roles', () => {
     await asSuperuser('drop database if exists gatewell_test with (force)');
     await asSuperuser('create database gatewell_test owner gatewell');
     await migrate({ app: appUrl });
-    await query(appUrl, `insert into audit_events (actor_id, action, entity_type, entity_id, reason) values (null, 'create', 'screen', 's-1', 'before the roles')`);
-    expect(await query(appUrl, `select distinct pg_get_userbyid(relowner) as owner from pg_class where relnamespace = 'public'::regnamespace`)).toEqual([{ owner: 'gatewell' }]);
+    await query(
+      appUrl,
+      `insert into audit_events (actor_id, action, entity_type, entity_id, reason) values (null, 'create', 'screen', 's-1', 'before the roles')`,
+    );
+    expect(
+      await query(
+        appUrl,
+        `select distinct pg_get_userbyid(relowner) as owner from pg_class where relnamespace = 'public'::regnamespace`,
+      ),
+    ).toEqual([{ owner: 'gatewell' }]);
   }, 240_000);
   afterAll(async () => {
     await pgScript('stop').catch(() => undefined);
@@ -66,13 +87,33 @@ describe('a database from before the two roles', () => {
     await pgScript('start');
     await migrate({ app: appUrl, owner: ownerUrl });
 
-    expect(await query(appUrl, `select distinct pg_get_userbyid(relowner) as owner from pg_class where relnamespace = 'public'::regnamespace`)).toEqual([{ owner: 'gatewell_owner' }]);
-    expect(await query(appUrl, `select pg_get_userbyid(datdba) as owner from pg_database where datname = current_database()`)).toEqual([{ owner: 'gatewell_owner' }]);
+    expect(
+      await query(
+        appUrl,
+        `select distinct pg_get_userbyid(relowner) as owner from pg_class where relnamespace = 'public'::regnamespace`,
+      ),
+    ).toEqual([{ owner: 'gatewell_owner' }]);
+    expect(
+      await query(
+        appUrl,
+        `select pg_get_userbyid(datdba) as owner from pg_database where datname = current_database()`,
+      ),
+    ).toEqual([{ owner: 'gatewell_owner' }]);
     expect(await query(appUrl, `select reason from audit_events`)).toEqual([{ reason: 'before the roles' }]);
-    expect(await query(appUrl, `select has_table_privilege('audit_events', 'update') as update, has_table_privilege('audit_events', 'insert') as insert, has_table_privilege('plates', 'update') as plates`))
-      .toEqual([{ update: false, insert: true, plates: true }]);
-    await expect(query(appUrl, `update audit_events set reason = 'rewritten'`)).rejects.toThrow('permission denied for table audit_events');
-    await expect(query(appUrl, 'alter table audit_events disable trigger audit_events_no_update')).rejects.toThrow('must be owner of table audit_events');
-    await expect(query(ownerUrl, `update audit_events set reason = 'rewritten'`)).rejects.toThrow('audit_events is append-only: UPDATE refused');
+    expect(
+      await query(
+        appUrl,
+        `select has_table_privilege('audit_events', 'update') as update, has_table_privilege('audit_events', 'insert') as insert, has_table_privilege('plates', 'update') as plates`,
+      ),
+    ).toEqual([{ update: false, insert: true, plates: true }]);
+    await expect(query(appUrl, `update audit_events set reason = 'rewritten'`)).rejects.toThrow(
+      'permission denied for table audit_events',
+    );
+    await expect(
+      query(appUrl, 'alter table audit_events disable trigger audit_events_no_update'),
+    ).rejects.toThrow('must be owner of table audit_events');
+    await expect(query(ownerUrl, `update audit_events set reason = 'rewritten'`)).rejects.toThrow(
+      'audit_events is append-only: UPDATE refused',
+    );
   }, 240_000);
 });

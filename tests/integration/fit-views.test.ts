@@ -27,7 +27,8 @@ describe('fit views', () => {
     const wells = await listPlateWells(biologist, plateId);
     const tested = new Map<string, number[]>();
     for (const well of wells) {
-      if (well.compoundId && well.concentration_uM && well.concentration_uM > 0) tested.set(well.compoundId, [...(tested.get(well.compoundId) ?? []), well.concentration_uM]);
+      if (well.compoundId && well.concentration_uM && well.concentration_uM > 0)
+        tested.set(well.compoundId, [...(tested.get(well.compoundId) ?? []), well.concentration_uM]);
     }
     const views = await listFitViews(biologist, plateId);
     const drawn = views.filter((v) => v.curve.length > 0);

@@ -19,8 +19,10 @@ import { demoFile, makeDemoScreens } from '../support/demo-scenario';
 import { importRowCounts } from '../support/import-counts';
 
 const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
-const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) => (await db().query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0];
-const count = async (table: 'import_drafts' | 'import_uploads') => (await one<{ n: number }>(`select count(*)::int as n from ${table}`))!.n;
+const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
+  (await db().query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0];
+const count = async (table: 'import_drafts' | 'import_uploads') =>
+  (await one<{ n: number }>(`select count(*)::int as n from ${table}`))!.n;
 
 afterAll(async () => {
   await stopJobWorkers();
@@ -41,11 +43,20 @@ describe('import drafts', () => {
   /** Inspects a demo export as `actor`; returns the upload, the draft id and the data sheet's choice with a label. */
   async function inspectDemo(actor: Actor, name: string, label: string) {
     const { bytes, manifest } = demoFile(name);
-    const upload = { screenId: screens[manifest.target]!, bytes, filename: name, mediaType: name.endsWith('.csv') ? 'text/csv' : XLSX };
+    const upload = {
+      screenId: screens[manifest.target]!,
+      bytes,
+      filename: name,
+      mediaType: name.endsWith('.csv') ? 'text/csv' : XLSX,
+    };
     const inspection = await inspectUpload(actor, upload);
     const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet)!;
     if (!inspection.draftId) throw new Error(`inspect kept no draft of ${name}`);
-    return { upload, draftId: inspection.draftId, choice: { sheet: sheet.name, mapping: sheet.guess.mapping, label } };
+    return {
+      upload,
+      draftId: inspection.draftId,
+      choice: { sheet: sheet.name, mapping: sheet.guess.mapping, label },
+    };
   }
 
   test('inspect → preview → commit through the import job reads and parses the file once, and stores the original bytes', async () => {
@@ -56,12 +67,20 @@ describe('import drafts', () => {
     const draft = await one<Record<string, unknown>>(
       `select owner_id, screen_id, filename, media_type, sha256, size_bytes, jsonb_typeof(sheets) as sheets, octet_length(bytes) as bytes,
               extract(epoch from expires_at - created_at)::int as lifetime_s, consumed_at
-         from import_drafts where id = :draftId`, { draftId },
+         from import_drafts where id = :draftId`,
+      { draftId },
     );
     expect(draft).toEqual({
-      owner_id: biologist.id, screen_id: upload.screenId, filename: 'nav-96-plate-01.xlsx', media_type: XLSX,
-      sha256: createHash('sha256').update(upload.bytes).digest('hex'), size_bytes: upload.bytes.byteLength, sheets: 'array', bytes: upload.bytes.byteLength,
-      lifetime_s: 24 * 3600, consumed_at: null,
+      owner_id: biologist.id,
+      screen_id: upload.screenId,
+      filename: 'nav-96-plate-01.xlsx',
+      media_type: XLSX,
+      sha256: createHash('sha256').update(upload.bytes).digest('hex'),
+      size_bytes: upload.bytes.byteLength,
+      sheets: 'array',
+      bytes: upload.bytes.byteLength,
+      lifetime_s: 24 * 3600,
+      consumed_at: null,
     });
 
     const preview = await previewImport(biologist, { draftId, ...choice });
@@ -73,15 +92,26 @@ describe('import drafts', () => {
     const plate = await Plate.findOne({ where: { label: 'DRAFT-P01' }, rejectOnEmpty: true });
     const file = await UploadedFile.findByPk(plate.uploadedFileId, { rejectOnEmpty: true });
     expect(Buffer.compare(file.content, Buffer.from(upload.bytes))).toBe(0);
-    expect(file).toMatchObject({ filename: 'nav-96-plate-01.xlsx', mediaType: XLSX, sizeBytes: upload.bytes.byteLength });
+    expect(file).toMatchObject({
+      filename: 'nav-96-plate-01.xlsx',
+      mediaType: XLSX,
+      sizeBytes: upload.bytes.byteLength,
+    });
 
     // Consumed by the plate's own transaction (the row's xmin is that of the import's audit event), its sheets and bytes dropped.
     const consumed = await one<Record<string, unknown>>(
       `select d.plate_id, d.sheets is null as no_sheets, d.bytes is null as no_bytes, d.consumed_at is not null as consumed,
               d.xmin::text = (select xmin::text from audit_events where action = 'import' and entity_id = :plateId) as same_transaction
-         from import_drafts d where d.id = :draftId`, { draftId, plateId: plate.id },
+         from import_drafts d where d.id = :draftId`,
+      { draftId, plateId: plate.id },
     );
-    expect(consumed).toEqual({ plate_id: plate.id, no_sheets: true, no_bytes: true, consumed: true, same_transaction: true });
+    expect(consumed).toEqual({
+      plate_id: plate.id,
+      no_sheets: true,
+      no_bytes: true,
+      consumed: true,
+      same_transaction: true,
+    });
     expect(await count('import_uploads')).toBe(0);
   });
 
@@ -101,11 +131,17 @@ describe('import drafts', () => {
     await expect(previewImport(other, { draftId, ...choice })).rejects.toMatchObject(notFound);
     await expect(queueImport(other, { draftId, ...choice })).rejects.toMatchObject(notFound);
     await expect(commitImport(other, { draftId, ...choice })).rejects.toMatchObject(notFound);
-    await expect(previewImport(other, { draftId: '00000000-0000-4000-8000-000000000000', ...choice })).rejects.toMatchObject(notFound);
-    await expect(previewImport(await makeActor(['chemist']), { draftId, ...choice })).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(
+      previewImport(other, { draftId: '00000000-0000-4000-8000-000000000000', ...choice }),
+    ).rejects.toMatchObject(notFound);
+    await expect(previewImport(await makeActor(['chemist']), { draftId, ...choice })).rejects.toMatchObject({
+      code: 'forbidden',
+    });
     expect(await importRowCounts()).toEqual(before);
     expect(await count('import_uploads')).toBe(0);
-    expect(await one('select consumed_at from import_drafts where id = :draftId', { draftId })).toEqual({ consumed_at: null });
+    expect(await one('select consumed_at from import_drafts where id = :draftId', { draftId })).toEqual({
+      consumed_at: null,
+    });
 
     // The owner's commit goes through.
     expect((await commitImport(biologist, { draftId, ...choice })).plateId).toEqual(expect.any(String));
@@ -114,30 +150,55 @@ describe('import drafts', () => {
   test('an expired draft is refused with a clear message, and the sweep removes it while a fresh draft stays', async () => {
     const expired = await inspectDemo(biologist, 'nav-96-plate-01.xlsx', 'EXPIRED-P01');
     const fresh = await inspectDemo(biologist, 'kv-96-plate-01.csv', 'FRESH-P01');
-    await db().query("update import_drafts set created_at = now() - interval '25 hours', expires_at = now() - interval '1 hour' where id = :id", { replacements: { id: expired.draftId } });
+    await db().query(
+      "update import_drafts set created_at = now() - interval '25 hours', expires_at = now() - interval '1 hour' where id = :id",
+      { replacements: { id: expired.draftId } },
+    );
     const before = await importRowCounts();
-    const refusal = { code: 'conflict', message: expect.stringMatching(/^This import draft expired at \S+ \(drafts are kept 24 hours\); read the file again\.$/), details: { draft: 'expired' } };
-    await expect(previewImport(biologist, { draftId: expired.draftId, ...expired.choice })).rejects.toMatchObject(refusal);
-    await expect(queueImport(biologist, { draftId: expired.draftId, ...expired.choice })).rejects.toMatchObject(refusal);
-    await expect(commitImport(biologist, { draftId: expired.draftId, ...expired.choice })).rejects.toMatchObject(refusal);
+    const refusal = {
+      code: 'conflict',
+      message: expect.stringMatching(
+        /^This import draft expired at \S+ \(drafts are kept 24 hours\); read the file again\.$/,
+      ),
+      details: { draft: 'expired' },
+    };
+    await expect(
+      previewImport(biologist, { draftId: expired.draftId, ...expired.choice }),
+    ).rejects.toMatchObject(refusal);
+    await expect(
+      queueImport(biologist, { draftId: expired.draftId, ...expired.choice }),
+    ).rejects.toMatchObject(refusal);
+    await expect(
+      commitImport(biologist, { draftId: expired.draftId, ...expired.choice }),
+    ).rejects.toMatchObject(refusal);
     expect(await importRowCounts()).toEqual(before);
 
     expect(await count('import_drafts')).toBe(2);
     await sweepJobs();
     expect(await count('import_drafts')).toBe(1);
-    await expect(previewImport(biologist, { draftId: expired.draftId, ...expired.choice })).rejects.toMatchObject({ code: 'not_found' });
+    await expect(
+      previewImport(biologist, { draftId: expired.draftId, ...expired.choice }),
+    ).rejects.toMatchObject({ code: 'not_found' });
     expect((await previewImport(biologist, { draftId: fresh.draftId, ...fresh.choice })).ok).toBe(true);
   });
 
   test('a used draft cannot be committed twice: of two racing commits one stores the plate, the other is refused as used', async () => {
     const { draftId, choice } = await inspectDemo(biologist, 'nav-96-plate-01.xlsx', 'RACE-A');
-    const outcomes = await Promise.allSettled([commitImport(biologist, { draftId, ...choice }), commitImport(biologist, { draftId, ...choice, label: 'RACE-B' })]);
+    const outcomes = await Promise.allSettled([
+      commitImport(biologist, { draftId, ...choice }),
+      commitImport(biologist, { draftId, ...choice, label: 'RACE-B' }),
+    ]);
     const stored = outcomes.filter((o) => o.status === 'fulfilled');
     const refused = outcomes.filter((o) => o.status === 'rejected');
     expect(stored).toHaveLength(1);
     expect(refused).toHaveLength(1);
     const plateId = (stored[0] as PromiseFulfilledResult<{ plateId: string }>).value.plateId;
-    const used = { code: 'conflict', message: 'This file was already stored as a plate from this draft; read the file again to import it anew.', details: { draft: 'used', plateId } };
+    const used = {
+      code: 'conflict',
+      message:
+        'This file was already stored as a plate from this draft; read the file again to import it anew.',
+      details: { draft: 'used', plateId },
+    };
     expect((refused[0] as PromiseRejectedResult).reason).toMatchObject(used);
     expect(await Plate.count({ where: { label: ['RACE-A', 'RACE-B'] } })).toBe(1);
 

@@ -21,7 +21,8 @@ import { importRowCounts } from '../support/import-counts';
 import { demoCommitRequest } from '../support/demo-plates';
 import { makeDemoScreens } from '../support/demo-scenario';
 
-const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) => (await db().query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
+const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
+  (await db().query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
 const uploads = async () => (await one<{ n: number }>('select count(*)::int as n from import_uploads')).n;
 
 async function until(check: () => Promise<boolean> | boolean, ms = 10_000): Promise<void> {
@@ -46,7 +47,11 @@ describe('imports as jobs', () => {
   });
   afterAll(() => stopJobWorkers());
 
-  async function request(file: string, label?: string, source: 'draft' | 'file' = 'draft'): Promise<CommitRequest> {
+  async function request(
+    file: string,
+    label?: string,
+    source: 'draft' | 'file' = 'draft',
+  ): Promise<CommitRequest> {
     return demoCommitRequest(biologist, screens, file, { ...(label ? { label } : {}), source });
   }
 
@@ -58,38 +63,68 @@ describe('imports as jobs', () => {
     const plate = await Plate.findOne({ where: { label: 'JOB-P01' }, rejectOnEmpty: true });
     expect(result).toEqual({ state: 'stored', plateId: plate.id });
     const job = await ComputeJob.findByPk(jobId, { rejectOnEmpty: true });
-    expect(job).toMatchObject({ kind: 'plate-import', state: 'done', plateId: plate.id, requestedBy: biologist.id, message: 'Stored as plate JOB-P01.' });
+    expect(job).toMatchObject({
+      kind: 'plate-import',
+      state: 'done',
+      plateId: plate.id,
+      requestedBy: biologist.id,
+      message: 'Stored as plate JOB-P01.',
+    });
     expect(await uploads()).toBe(0);
     // The job's end is written once, by the plate's own transaction: once the queue has closed the job,
     // its compute_jobs row still carries that transaction's id (xmin), as the import's audit row (never
     // updated) does.
-    for (let i = 0; i < 100 && (await one<{ state: string }>(`select state from ${QUEUE_SCHEMA}.job where id = :id`, { id: jobId })).state !== 'completed'; i++) await sleep(50);
+    for (
+      let i = 0;
+      i < 100 &&
+      (await one<{ state: string }>(`select state from ${QUEUE_SCHEMA}.job where id = :id`, { id: jobId }))
+        .state !== 'completed';
+      i++
+    )
+      await sleep(50);
     const writers = await one<{ job: string; audit: string }>(
       "select (select xmin::text from compute_jobs where id = :job) as job, (select xmin::text from audit_events where action = 'import' and entity_id = :plate) as audit",
       { job: jobId, plate: plate.id },
     );
     expect(writers.job).toBe(writers.audit);
     // The audit trail names the person who uploaded, not the worker.
-    const audit = await one<{ actorId: string }>("select actor_id as \"actorId\" from audit_events where action = 'import' and entity_id = :id", { id: plate.id });
+    const audit = await one<{ actorId: string }>(
+      'select actor_id as "actorId" from audit_events where action = \'import\' and entity_id = :id',
+      { id: plate.id },
+    );
     expect(audit.actorId).toBe(biologist.id);
   });
 
   test('a refused import reaches the waiting request as the same refusal, with its reasons, and writes nothing', async () => {
-    const bad = { ...(await request('kv-96-plate-01.csv', undefined, 'file')), bytes: new TextEncoder().encode('Well,Compound,Target,I control (pA),I compound (pA)\nA01,DMSO,Kv7.2,900,880\n') };
+    const bad = {
+      ...(await request('kv-96-plate-01.csv', undefined, 'file')),
+      bytes: new TextEncoder().encode(
+        'Well,Compound,Target,I control (pA),I compound (pA)\nA01,DMSO,Kv7.2,900,880\n',
+      ),
+    };
     const before = await importRowCounts();
     const jobId = await queueImport(biologist, bad);
     const refusal = await awaitImport(jobId).catch((error: unknown) => error);
-    expect(refusal).toMatchObject({ name: 'AppError', code: 'invalid', message: expect.stringMatching(/error/) });
+    expect(refusal).toMatchObject({
+      name: 'AppError',
+      code: 'invalid',
+      message: expect.stringMatching(/error/),
+    });
     expect((refusal as { details: { issues: unknown[] } }).details.issues.length).toBeGreaterThan(0);
     expect(await importRowCounts()).toEqual(before);
     expect(await uploads()).toBe(0);
-    expect(await ComputeJob.findByPk(jobId, { rejectOnEmpty: true })).toMatchObject({ state: 'failed', outcome: { code: 'invalid' } });
+    expect(await ComputeJob.findByPk(jobId, { rejectOnEmpty: true })).toMatchObject({
+      state: 'failed',
+      outcome: { code: 'invalid' },
+    });
   });
 
   test('the same file sent twice: the second import is refused as a duplicate', async () => {
     const file = await request('nav-96-plate-01.xlsx', 'JOB-TWICE', 'file');
     expect((await awaitImport(await queueImport(biologist, file))).state).toBe('stored');
-    await expect(awaitImport(await queueImport(biologist, { ...file, label: 'JOB-TWICE-AGAIN' }))).rejects.toMatchObject({ code: 'conflict' });
+    await expect(
+      awaitImport(await queueImport(biologist, { ...file, label: 'JOB-TWICE-AGAIN' })),
+    ).rejects.toMatchObject({ code: 'conflict' });
     expect(await Plate.count({ where: { label: 'JOB-TWICE-AGAIN' } })).toBe(0);
   });
 
@@ -97,9 +132,15 @@ describe('imports as jobs', () => {
     await stopJobWorkers();
     const before = await importRowCounts();
     const jobId = await queueImport(biologist, await request('nav-96-plate-01.xlsx', 'JOB-WITHDRAWN'));
-    await expect(awaitImport(jobId, { queuedMs: 300 })).rejects.toMatchObject({ code: 'unavailable', message: /No worker took the import within 0.3 s, so nothing was changed/ });
+    await expect(awaitImport(jobId, { queuedMs: 300 })).rejects.toMatchObject({
+      code: 'unavailable',
+      message: /No worker took the import within 0.3 s, so nothing was changed/,
+    });
     expect(await uploads()).toBe(0);
-    expect(await ComputeJob.findByPk(jobId, { rejectOnEmpty: true })).toMatchObject({ state: 'failed', message: 'No worker took the import within 0.3 s; it was withdrawn and nothing was stored.' });
+    expect(await ComputeJob.findByPk(jobId, { rejectOnEmpty: true })).toMatchObject({
+      state: 'failed',
+      message: 'No worker took the import within 0.3 s; it was withdrawn and nothing was stored.',
+    });
     await startJobWorkers({ sweep: false });
     await sleep(1500); // more than a worker's polling interval
     expect(await importRowCounts()).toEqual(before);
@@ -118,20 +159,40 @@ describe('imports as jobs', () => {
 });
 
 describe('queued jobs wake workers in other processes', () => {
-
   test('a notice arrives once the enqueueing transaction commits, and again after the listening connection is cut', async () => {
     await stopJobWorkers();
     await resetDatabase();
     const heard: ComputeJobKind[] = [];
     const listener = listenForJobs((kind) => heard.push(kind));
-    const listening = async () => (await one<{ n: number }>("select count(*)::int as n from pg_stat_activity where application_name = 'gatewell-job-wake' and query ilike 'listen%'")).n === 1;
+    const listening = async () =>
+      (
+        await one<{ n: number }>(
+          "select count(*)::int as n from pg_stat_activity where application_name = 'gatewell-job-wake' and query ilike 'listen%'",
+        )
+      ).n === 1;
     try {
       await until(listening);
-      const queue = (key: string) => enqueueJob({ kind: 'plate-fits', key, data: { plateId: '00000000-0000-4000-8000-000000000000', requestedBy: null }, requestedBy: null });
+      const queue = (key: string) =>
+        enqueueJob({
+          kind: 'plate-fits',
+          key,
+          data: { plateId: '00000000-0000-4000-8000-000000000000', requestedBy: null },
+          requestedBy: null,
+        });
 
       await db().transaction(async (transaction) => {
-        const forecast = { owner: { plateId: null, compoundId: '00000000-0000-4000-8000-000000000001', screenId: '00000000-0000-4000-8000-000000000002' }, request: { preset: 'hh-squid-1952' as const, block: { gNa: 0.3 } } };
-        await enqueueJob({ kind: 'forecast', key: 'wake-test-a', data: forecast, requestedBy: null }, transaction);
+        const forecast = {
+          owner: {
+            plateId: null,
+            compoundId: '00000000-0000-4000-8000-000000000001',
+            screenId: '00000000-0000-4000-8000-000000000002',
+          },
+          request: { preset: 'hh-squid-1952' as const, block: { gNa: 0.3 } },
+        };
+        await enqueueJob(
+          { kind: 'forecast', key: 'wake-test-a', data: forecast, requestedBy: null },
+          transaction,
+        );
         await sleep(200);
         expect(heard).toEqual([]); // not before the commit
       });
@@ -139,7 +200,9 @@ describe('queued jobs wake workers in other processes', () => {
       expect(heard).toEqual(['forecast']);
 
       // The database cuts the listener's connection (as a restart does); it reconnects and hears the next job.
-      await db().query("select pg_terminate_backend(pid) from pg_stat_activity where application_name = 'gatewell-job-wake'");
+      await db().query(
+        "select pg_terminate_backend(pid) from pg_stat_activity where application_name = 'gatewell-job-wake'",
+      );
       await until(async () => !(await listening()));
       await until(listening);
       await queue('wake-test-b');

@@ -26,8 +26,13 @@ import { makeDemoScreens } from '../support/demo-scenario';
 import { fitsCurrent } from '../support/jobs';
 
 const PASSWORD = 'test-password-123';
-const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) => (await db().query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
-const queued = (plateId: string) => one<{ n: number }>(`select count(*)::int as n from pgboss.job where name = 'gatewell-plate-fits' and data->>'plateId' = :plateId and state = 'created'`, { plateId });
+const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
+  (await db().query<T>(sql, { type: QueryTypes.SELECT, replacements }))[0]!;
+const queued = (plateId: string) =>
+  one<{ n: number }>(
+    `select count(*)::int as n from pgboss.job where name = 'gatewell-plate-fits' and data->>'plateId' = :plateId and state = 'created'`,
+    { plateId },
+  );
 
 describe('job queue for fits and forecasts', () => {
   let screens: Record<string, string>;
@@ -35,7 +40,9 @@ describe('job queue for fits and forecasts', () => {
   let chemist: Actor;
 
   async function importPlate(file: string, label?: string): Promise<string> {
-    return (await commitImport(biologist, await demoCommitRequest(biologist, screens, file, label ? { label } : {}))).plateId;
+    return (
+      await commitImport(biologist, await demoCommitRequest(biologist, screens, file, label ? { label } : {}))
+    ).plateId;
   }
 
   beforeAll(async () => {
@@ -60,7 +67,9 @@ describe('job queue for fits and forecasts', () => {
     const plateId = await importPlate('nav-96-plate-01.xlsx');
     expect(await Plate.findByPk(plateId)).toMatchObject({ fitsPending: true, fittedAt: null });
     expect(await Fit.count({ where: { plateId } })).toBe(0);
-    expect(await ComputeJob.findAll({ where: { plateId } })).toMatchObject([{ kind: 'plate-fits', state: 'queued', requestedBy: biologist.id }]);
+    expect(await ComputeJob.findAll({ where: { plateId } })).toMatchObject([
+      { kind: 'plate-fits', state: 'queued', requestedBy: biologist.id },
+    ]);
     expect((await queued(plateId)).n).toBe(1);
 
     const jobsBefore = await one<{ n: number }>('select count(*)::int as n from pgboss.job');
@@ -72,7 +81,12 @@ describe('job queue for fits and forecasts', () => {
     await fitsCurrent(plateId);
     expect(await Fit.count({ where: { plateId } })).toBe(5);
     const [job] = await ComputeJob.findAll({ where: { plateId } });
-    expect(job).toMatchObject({ state: 'done', attempts: 1, message: '5 fit(s) computed.', worker: expect.stringMatching(/:\d+$/) });
+    expect(job).toMatchObject({
+      state: 'done',
+      attempts: 1,
+      message: '5 fit(s) computed.',
+      worker: expect.stringMatching(/:\d+$/),
+    });
     expect((await Plate.findByPk(plateId))!.fittedAt).toBeInstanceOf(Date);
   });
 
@@ -84,17 +98,32 @@ describe('job queue for fits and forecasts', () => {
     await stopJobWorkers();
     await jobQueue();
 
-    const wells = (await listPlateWells(biologist, plateId)).filter((w) => w.compound === 'GW-0001' && w.qcReasons.length === 0);
-    await setWellExclusion(biologist, plateId, { wellIds: [wells[0]!.id], excluded: true, reason: 'first doubt' });
-    await setWellExclusion(biologist, plateId, { wellIds: [wells[1]!.id], excluded: true, reason: 'second doubt' });
+    const wells = (await listPlateWells(biologist, plateId)).filter(
+      (w) => w.compound === 'GW-0001' && w.qcReasons.length === 0,
+    );
+    await setWellExclusion(biologist, plateId, {
+      wellIds: [wells[0]!.id],
+      excluded: true,
+      reason: 'first doubt',
+    });
+    await setWellExclusion(biologist, plateId, {
+      wellIds: [wells[1]!.id],
+      excluded: true,
+      reason: 'second doubt',
+    });
     expect((await queued(plateId)).n).toBe(1);
     expect(await ComputeJob.count({ where: { plateId, state: 'queued' } })).toBe(1);
 
-    await expect(signPlateStep(chemist, plateId, { action: 'verify', password: PASSWORD })).rejects.toMatchObject({
-      code: 'conflict', message: expect.stringMatching(/still being computed/),
+    await expect(
+      signPlateStep(chemist, plateId, { action: 'verify', password: PASSWORD }),
+    ).rejects.toMatchObject({
+      code: 'conflict',
+      message: expect.stringMatching(/still being computed/),
     });
     expect(await Signature.count()).toBe(0);
-    await expect(db().query("update plates set state = 'submitted' where id = :plateId", { replacements: { plateId } })).rejects.toThrow(/plates_fits_current_when_signed/);
+    await expect(
+      db().query("update plates set state = 'submitted' where id = :plateId", { replacements: { plateId } }),
+    ).rejects.toThrow(/plates_fits_current_when_signed/);
 
     await startJobWorkers({ sweep: false });
     await fitsCurrent(plateId);
@@ -109,7 +138,9 @@ describe('job queue for fits and forecasts', () => {
     const [job] = await ComputeJob.findAll({ where: { plateId } });
     // As if the queue had lost the job (a crash between commit and take, or a purge): gone from pg-boss.
     await db().query('delete from pgboss.job where id = :id', { replacements: { id: job!.id } });
-    await db().query("update compute_jobs set created_at = now() - interval '5 minutes' where id = :id", { replacements: { id: job!.id } });
+    await db().query("update compute_jobs set created_at = now() - interval '5 minutes' where id = :id", {
+      replacements: { id: job!.id },
+    });
     expect(await sweepJobs()).toEqual({ closed: 1, requeued: 1 });
     expect((await ComputeJob.findByPk(job!.id))!.state).toBe('failed');
     expect(await ComputeJob.count({ where: { plateId, state: 'queued' } })).toBe(1);
@@ -124,8 +155,13 @@ describe('job queue for fits and forecasts', () => {
     await startJobWorkers({ sweep: false });
     await fitsCurrent(plateId);
     const reader = await makeActor(['approver']);
-    const compound = (await listPlateForecasts(reader, plateId)).compounds.find((c) => c.compound === 'GW-0001')!;
-    const [first, second] = await Promise.all([getPlateForecast(reader, plateId, compound.compoundId), getPlateForecast(reader, plateId, compound.compoundId)]);
+    const compound = (await listPlateForecasts(reader, plateId)).compounds.find(
+      (c) => c.compound === 'GW-0001',
+    )!;
+    const [first, second] = await Promise.all([
+      getPlateForecast(reader, plateId, compound.compoundId),
+      getPlateForecast(reader, plateId, compound.compoundId),
+    ]);
     expect(first.forecast!.inputSha256).toBe(second.forecast!.inputSha256);
     const jobs = await ComputeJob.findAll({ where: { plateId, kind: 'forecast' } });
     expect(jobs).toHaveLength(1); // the second request joined the first one’s job
@@ -139,26 +175,54 @@ describe('job queue for fits and forecasts', () => {
     await startJobWorkers({ sweep: false });
     await fitsCurrent(plateId);
     const reader = await makeActor(['chemist']);
-    const todo = (await listPlateForecasts(reader, plateId)).compounds.filter((c) => c.reason === null && !c.stored);
+    const todo = (await listPlateForecasts(reader, plateId)).compounds.filter(
+      (c) => c.reason === null && !c.stored,
+    );
     expect(todo.length).toBeGreaterThan(1);
     const run = await startPlateForecasts(reader, plateId, null);
     expect(run).toMatchObject({ created: true, total: todo.length });
     const finished = await waitForJob(run.id, 120_000);
-    expect(finished).toMatchObject({ state: 'done', done: todo.length, total: todo.length, kind: 'plate-forecasts' });
-    expect((await listPlateForecasts(reader, plateId)).compounds.filter((c) => c.reason === null && !c.stored)).toHaveLength(0);
+    expect(finished).toMatchObject({
+      state: 'done',
+      done: todo.length,
+      total: todo.length,
+      kind: 'plate-forecasts',
+    });
+    expect(
+      (await listPlateForecasts(reader, plateId)).compounds.filter((c) => c.reason === null && !c.stored),
+    ).toHaveLength(0);
     await expect(startPlateForecasts(reader, plateId, null)).rejects.toMatchObject({ code: 'conflict' });
   });
 
   test('worker processes started from scripts/ share the queue: every plate fitted once', async () => {
-    const plates = [await importPlate('nav-96-plate-01.xlsx'), await importPlate('kv-96-plate-01.csv'), await importPlate('nav-384-plate-02.xlsx'), await importPlate('nav-96-plate-03-noisy.xlsx')];
+    const plates = [
+      await importPlate('nav-96-plate-01.xlsx'),
+      await importPlate('kv-96-plate-01.csv'),
+      await importPlate('nav-384-plate-02.xlsx'),
+      await importPlate('nav-96-plate-03-noisy.xlsx'),
+    ];
     await closeJobQueue();
     const workers: ChildProcess[] = [];
     const output: string[] = [];
     try {
       for (let i = 0; i < 2; i++) {
-        const child = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/worker.ts', '--fits', '1', '--forecasts', '0'], {
-          env: { ...process.env, NODE_ENV: 'production' }, stdio: ['ignore', 'pipe', 'pipe'],
-        });
+        const child = spawn(
+          process.execPath,
+          [
+            '--conditions=react-server',
+            '--import',
+            'tsx',
+            'scripts/worker.ts',
+            '--fits',
+            '1',
+            '--forecasts',
+            '0',
+          ],
+          {
+            env: { ...process.env, NODE_ENV: 'production' },
+            stdio: ['ignore', 'pipe', 'pipe'],
+          },
+        );
         child.stdout!.on('data', (d: Buffer) => output.push(d.toString()));
         child.stderr!.on('data', (d: Buffer) => output.push(d.toString()));
         workers.push(child);
@@ -166,13 +230,21 @@ describe('job queue for fits and forecasts', () => {
       for (const plateId of plates) await fitsCurrent(plateId, 60_000);
     } finally {
       for (const child of workers) child.kill('SIGTERM');
-      await Promise.all(workers.map((child) => new Promise((resolve) => (child.exitCode !== null ? resolve(null) : child.once('exit', resolve)))));
+      await Promise.all(
+        workers.map(
+          (child) =>
+            new Promise((resolve) => (child.exitCode !== null ? resolve(null) : child.once('exit', resolve))),
+        ),
+      );
     }
     const jobs = await ComputeJob.findAll({ where: { kind: 'plate-fits' } });
     expect(jobs).toHaveLength(4);
     expect(jobs.every((j) => j.state === 'done' && j.attempts === 1)).toBe(true);
     const pids = new Set(workers.map((w) => String(w.pid)));
-    expect(jobs.every((j) => pids.has(j.worker!.split(':').pop()!)), output.join('')).toBe(true);
+    expect(
+      jobs.every((j) => pids.has(j.worker!.split(':').pop()!)),
+      output.join(''),
+    ).toBe(true);
     expect(output.join('')).toMatch(/taking jobs/);
     for (const plateId of plates) expect(await Fit.count({ where: { plateId } })).toBeGreaterThan(0);
     await sleep(10);

@@ -26,12 +26,30 @@ describe('the plate data hash the history tab shows', () => {
   });
 
   test.each([
-    ['a readout current', `update readouts set control_current_pa = control_current_pa + 1 where id = (select r.id from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by r.id limit 1)`],
-    ['a well exclusion', `update wells set excluded = true, exclusion_reason = 'edited in SQL' where id = (select id from wells where plate_id = :plateId order by id limit 1)`],
-    ['a fit IC50', `update fits set ic50_um = coalesce(ic50_um, 1) * 2 where id = (select id from fits where plate_id = :plateId order by id limit 1)`],
-    ['a removed fit', `delete from fits where id = (select id from fits where plate_id = :plateId order by id desc limit 1)`],
-    ['a compound identifier', `update compounds set identifier = identifier || '-renamed' where id = (select compound_id from wells where plate_id = :plateId and compound_id is not null limit 1)`],
-    ['the source file name', `update uploaded_files set filename = 'renamed.xlsx' where id = (select uploaded_file_id from plates where id = :plateId)`],
+    [
+      'a readout current',
+      `update readouts set control_current_pa = control_current_pa + 1 where id = (select r.id from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by r.id limit 1)`,
+    ],
+    [
+      'a well exclusion',
+      `update wells set excluded = true, exclusion_reason = 'edited in SQL' where id = (select id from wells where plate_id = :plateId order by id limit 1)`,
+    ],
+    [
+      'a fit IC50',
+      `update fits set ic50_um = coalesce(ic50_um, 1) * 2 where id = (select id from fits where plate_id = :plateId order by id limit 1)`,
+    ],
+    [
+      'a removed fit',
+      `delete from fits where id = (select id from fits where plate_id = :plateId order by id desc limit 1)`,
+    ],
+    [
+      'a compound identifier',
+      `update compounds set identifier = identifier || '-renamed' where id = (select compound_id from wells where plate_id = :plateId and compound_id is not null limit 1)`,
+    ],
+    [
+      'the source file name',
+      `update uploaded_files set filename = 'renamed.xlsx' where id = (select uploaded_file_id from plates where id = :plateId)`,
+    ],
     ['the plate label', `update plates set label = label || '-edited' where id = :plateId`],
   ])('follows %s changed in SQL', async (_what, change) => {
     const before = await plateContentSha256(plateId);
@@ -43,7 +61,9 @@ describe('the plate data hash the history tab shows', () => {
 
   test('stays the same when rows are rewritten with the same values or frozen by VACUUM', async () => {
     const before = await plateContentSha256(plateId);
-    await sql(`update readouts set qc_reasons = qc_reasons where well_id in (select id from wells where plate_id = :plateId)`);
+    await sql(
+      `update readouts set qc_reasons = qc_reasons where well_id in (select id from wells where plate_id = :plateId)`,
+    );
     expect(await plateContentSha256(plateId)).toBe(before);
     await db().query('vacuum (freeze) readouts, wells, fits');
     expect(await plateContentSha256(plateId)).toBe(before);

@@ -22,8 +22,12 @@ describe('plate forecasts', () => {
   let reader: Actor;
   let navPlate: string;
   let kvPlate: string;
-  const count = async () => (await db().query<{ n: number }>('select count(*)::int as n from forecasts', { type: QueryTypes.SELECT }))[0]!.n;
-  const compoundId = async (plateId: string, identifier: string) => (await listPlateForecasts(reader, plateId)).compounds.find((c) => c.compound === identifier)!.compoundId;
+  const count = async () =>
+    (
+      await db().query<{ n: number }>('select count(*)::int as n from forecasts', { type: QueryTypes.SELECT })
+    )[0]!.n;
+  const compoundId = async (plateId: string, identifier: string) =>
+    (await listPlateForecasts(reader, plateId)).compounds.find((c) => c.compound === identifier)!.compoundId;
 
   beforeAll(async () => {
     await resetDatabase();
@@ -42,14 +46,24 @@ describe('plate forecasts', () => {
     const list = await listPlateForecasts(reader, navPlate);
     expect(list.preset).toBe('pospischil-rs-2008');
     expect(list.exposures_uM).toEqual([0.1, 1]);
-    expect(list.compounds.map((c) => c.compound)).toEqual(['GW-0001', 'GW-0002', 'GW-0003', 'GW-0004', 'GW-0005']);
+    expect(list.compounds.map((c) => c.compound)).toEqual([
+      'GW-0001',
+      'GW-0002',
+      'GW-0003',
+      'GW-0004',
+      'GW-0005',
+    ]);
     const [target] = list.compounds[0]!.targets;
     expect(target).toMatchObject({ target: 'Nav1.7', conductance: 'gNa', use: 'used' });
     // Simple pore block of the fitted IC50 and slope (Mirams et al. 2011, tests/fixtures/check-values/
     // pore-block-mirams-2011.json), at 0.1 and 1 µM.
-    expect(target!.blockAtExposures).toEqual([0.1, 1].map((c) => poreBlockFraction(c, target!.ic50_uM!, target!.hill!)));
+    expect(target!.blockAtExposures).toEqual(
+      [0.1, 1].map((c) => poreBlockFraction(c, target!.ic50_uM!, target!.hill!)),
+    );
     expect(list.compounds.every((c) => !c.stored && c.reason === null)).toBe(true);
-    expect(list.caution).toMatch(/research decision support.*not a clinical or regulatory safety determination/);
+    expect(list.caution).toMatch(
+      /research decision support.*not a clinical or regulatory safety determination/,
+    );
   });
 
   test('a forecast is computed once, stored under the SHA-256 of its input, and reused', async () => {
@@ -59,7 +73,8 @@ describe('plate forecasts', () => {
     expect(first.forecast!.reused).toBe(false);
     expect(await count()).toBe(before + 1);
     const [row] = await db().query<{ input: unknown; sha: string; plateId: string }>(
-      'select input, input_sha256 as sha, plate_id as "plateId" from forecasts where input_sha256 = :sha', { type: QueryTypes.SELECT, replacements: { sha: first.forecast!.inputSha256 } },
+      'select input, input_sha256 as sha, plate_id as "plateId" from forecasts where input_sha256 = :sha',
+      { type: QueryTypes.SELECT, replacements: { sha: first.forecast!.inputSha256 } },
     );
     expect(row!.sha).toBe(contentSha256(row!.input));
     expect(row!.plateId).toBe(navPlate);
@@ -67,7 +82,9 @@ describe('plate forecasts', () => {
     expect(again.forecast!.reused).toBe(true);
     expect(await count()).toBe(before + 1);
     expect({ ...again.forecast, reused: false }).toEqual(first.forecast);
-    expect((await listPlateForecasts(reader, navPlate)).compounds.find((c) => c.compoundId === id)!.stored).toBe(true);
+    expect(
+      (await listPlateForecasts(reader, navPlate)).compounds.find((c) => c.compoundId === id)!.stored,
+    ).toBe(true);
   });
 
   test('traces at another exposure are a different input; a bad exposure index is refused and stores nothing', async () => {
@@ -80,10 +97,20 @@ describe('plate forecasts', () => {
     // A forecast stored with the traces at any exposure marks the compound as stored.
     const other = await compoundId(navPlate, 'GW-0005');
     await getPlateForecast(reader, navPlate, other, 0);
-    expect((await listPlateForecasts(reader, navPlate)).compounds.find((c) => c.compoundId === other)!.stored).toBe(true);
+    expect(
+      (await listPlateForecasts(reader, navPlate)).compounds.find((c) => c.compoundId === other)!.stored,
+    ).toBe(true);
     const before = await count();
-    await expect(getPlateForecast(reader, navPlate, id, 2)).rejects.toMatchObject({ code: 'invalid', message: 'at must be the index of one of the screen’s 2 exposures (0–1).' });
-    await expect(getPlateForecast(reader, navPlate, await compoundId(kvPlate, 'GW-0009'))).rejects.toMatchObject({ code: 'not_found', message: 'No compound with that id is tested on plate NAV-P01.' });
+    await expect(getPlateForecast(reader, navPlate, id, 2)).rejects.toMatchObject({
+      code: 'invalid',
+      message: 'at must be the index of one of the screen’s 2 exposures (0–1).',
+    });
+    await expect(
+      getPlateForecast(reader, navPlate, await compoundId(kvPlate, 'GW-0009')),
+    ).rejects.toMatchObject({
+      code: 'not_found',
+      message: 'No compound with that id is tested on plate NAV-P01.',
+    });
     await expect(getPlateForecast(reader, randomUUID(), id)).rejects.toMatchObject({ code: 'not_found' });
     expect(await count()).toBe(before);
   });
@@ -95,8 +122,10 @@ describe('plate forecasts', () => {
     let previous = forecast!.control;
     for (const c of exposures) {
       expect(c.block.gNa).toBeGreaterThan(previous.block.gNa ?? 0);
-      if (c.measures.rheobase_uA_cm2 !== null) expect(c.measures.rheobase_uA_cm2).toBeGreaterThan(previous.measures.rheobase_uA_cm2!);
-      if (c.measures.threshold_mV !== null) expect(c.measures.threshold_mV).toBeGreaterThan(previous.measures.threshold_mV!);
+      if (c.measures.rheobase_uA_cm2 !== null)
+        expect(c.measures.rheobase_uA_cm2).toBeGreaterThan(previous.measures.rheobase_uA_cm2!);
+      if (c.measures.threshold_mV !== null)
+        expect(c.measures.threshold_mV).toBeGreaterThan(previous.measures.threshold_mV!);
       expect(c.shifts.rheobase_uA_cm2.relative ?? Infinity).toBeGreaterThan(0);
       previous = c;
     }
@@ -107,25 +136,38 @@ describe('plate forecasts', () => {
   test('on the counter-screen, an IC50 above the tested range counts as no block, said in words', async () => {
     const none = await getPlateForecast(reader, kvPlate, await compoundId(kvPlate, 'GW-0001'));
     expect(none.targets[0]).toMatchObject({ use: 'above_range', blockAtExposures: [0, 0] });
-    expect(none.targets[0]!.note).toMatch(/^IC50 above 30 µM, the highest concentration tested: treated as no block\.$/);
+    expect(none.targets[0]!.note).toMatch(
+      /^IC50 above 30 µM, the highest concentration tested: treated as no block\.$/,
+    );
     expect(none.forecast).toBeNull();
     expect(none.reason).toMatch(/No target gives a usable IC50/);
     // An M-current blocker lowers rheobase (Pospischil et al. 2008 RS cell; common-practice physiology of Kv7 block).
     const kv = await getPlateForecast(reader, kvPlate, await compoundId(kvPlate, 'GW-0009'));
     expect(kv.targets[0]!.conductance).toBe('gM');
-    expect(kv.forecast!.conditions.find((c) => c.concentration_uM === 1)!.shifts.rheobase_uA_cm2.relative).toBeLessThan(0);
+    expect(
+      kv.forecast!.conditions.find((c) => c.concentration_uM === 1)!.shifts.rheobase_uA_cm2.relative,
+    ).toBeLessThan(0);
   });
 
   test('a changed fit is a new input: excluding a well gives a new forecast beside the old one', async () => {
     const id = await compoundId(navPlate, 'GW-0004');
     const before = await getPlateForecast(reader, navPlate, id);
-    const well = (await listPlateWells(biologist, navPlate)).find((w) => w.compoundId === id && w.qcReasons.length === 0 && w.concentration_uM === 0.03)!;
-    await setWellExclusion(biologist, navPlate, { wellIds: [well.id], excluded: true, reason: 'seal lost during the compound addition' });
+    const well = (await listPlateWells(biologist, navPlate)).find(
+      (w) => w.compoundId === id && w.qcReasons.length === 0 && w.concentration_uM === 0.03,
+    )!;
+    await setWellExclusion(biologist, navPlate, {
+      wellIds: [well.id],
+      excluded: true,
+      reason: 'seal lost during the compound addition',
+    });
     await fitsCurrent(navPlate);
     const after = await getPlateForecast(reader, navPlate, id);
     expect(after.forecast!.reused).toBe(false);
     expect(after.forecast!.inputSha256).not.toBe(before.forecast!.inputSha256);
-    const rows = await db().query('select 1 from forecasts where plate_id = :navPlate and compound_id = :id', { type: QueryTypes.SELECT, replacements: { navPlate, id } });
+    const rows = await db().query(
+      'select 1 from forecasts where plate_id = :navPlate and compound_id = :id',
+      { type: QueryTypes.SELECT, replacements: { navPlate, id } },
+    );
     expect(rows).toHaveLength(2);
   });
 });

@@ -5,7 +5,16 @@ import { AppError } from '@/lib/errors';
 import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
 import { importRowCounts } from '../support/import-counts';
 import { potassiumImportSetup } from '../support/demo-scenario';
-import { bigCsv, csv, garbage, GOOD_ROWS, HEADER, utf16le, workbookWithCells, zipBombXlsx } from '../fixtures/bad-input/build-corpus';
+import {
+  bigCsv,
+  csv,
+  garbage,
+  GOOD_ROWS,
+  HEADER,
+  utf16le,
+  workbookWithCells,
+  zipBombXlsx,
+} from '../fixtures/bad-input/build-corpus';
 
 // The bad-input corpus (tests/fixtures/bad-input/build-corpus.ts) through the real import service: each
 // file gets a clear message, within a bounded time and main-process heap growth, and writes nothing.
@@ -14,7 +23,6 @@ import { bigCsv, csv, garbage, GOOD_ROWS, HEADER, utf16le, workbookWithCells, zi
 /** Generous bounds: the parse worker stops at 10 s and 256 MB of its own heap. */
 const MAX_SECONDS = 15;
 const MAX_HEAP_GROWTH_MB = 96;
-
 
 describe('the bad-input corpus is refused clearly, quickly, in bounded memory, and nothing is written', () => {
   let biologist: Actor;
@@ -25,7 +33,12 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
   });
   afterAll(() => db().close());
 
-  const upload = (bytes: Uint8Array, filename: string) => ({ screenId, bytes, filename, mediaType: 'application/octet-stream' });
+  const upload = (bytes: Uint8Array, filename: string) => ({
+    screenId,
+    bytes,
+    filename,
+    mediaType: 'application/octet-stream',
+  });
 
   /** Times one service call and the main process's heap growth across it. */
   async function bounded<T>(call: () => Promise<T>): Promise<T> {
@@ -43,25 +56,72 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
   async function importAll(bytes: Uint8Array, filename: string) {
     const inspection = await bounded(() => inspectUpload(biologist, upload(bytes, filename)));
     const sheet = inspection.sheets[0]!;
-    return bounded(() => commitImport(biologist, { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping, label: 'BAD-CORPUS', templateName: 'bad corpus' }));
+    return bounded(() =>
+      commitImport(biologist, {
+        draftId: inspection.draftId!,
+        sheet: sheet.name,
+        mapping: sheet.guess.mapping,
+        label: 'BAD-CORPUS',
+        templateName: 'bad corpus',
+      }),
+    );
   }
 
   /** Runs the import and returns its refusal, having checked that nothing was written. */
   async function refusal(bytes: Uint8Array, filename: string): Promise<AppError> {
     const before = await importRowCounts();
-    const error = await importAll(bytes, filename).then(() => null, (e: unknown) => e);
+    const error = await importAll(bytes, filename).then(
+      () => null,
+      (e: unknown) => e,
+    );
     expect(error, `${filename} was accepted`).toBeInstanceOf(AppError);
     expect(await importRowCounts()).toEqual(before);
     return error as AppError;
   }
 
   test.each([
-    ['64 KB of noise named .xlsx', () => garbage(64 * 1024), 'noise.xlsx', 'invalid', /noise\.xlsx (holds binary data|is not a spreadsheet)/],
-    ['half of a real workbook', () => workbookWithCells([HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(','))]).subarray(0, 300), 'torn.xlsx', 'invalid', /^torn\.xlsx (took longer than 10 s to read|holds no readable workbook|looks like an xlsx file but could not be read)/],
-    ['a csv just over 10 MB', () => bigCsv(300_000), 'huge.csv', 'too_large', /huge\.csv is 1\d(\.\d)? MB; Gatewell reads files up to 10 MB/],
-    ['a csv of 100 000 rows under 10 MB', () => bigCsv(100_000), 'rows.csv', 'invalid', /^rows\.csv is too big to import: it has more than 20000 rows\.$/],
-    ['headers that name nothing Gatewell knows', () => csv('Colour,Shape,Size', 'red,round,3', 'blue,square,4'), 'headers.csv', 'invalid', /^The sheet has \d+ error\(s\); first: Sheet "headers", row 1: no column is chosen for the well position, which every plate needs\.$/],
-    ['a header row of formulas', () => csv('=A1,=B1,=C1', 'A01,1,2'), 'formula-headers.csv', 'invalid', /^The sheet has \d+ error\(s\); first: Sheet "formula-headers", row 1: no column is chosen for the well position/],
+    [
+      '64 KB of noise named .xlsx',
+      () => garbage(64 * 1024),
+      'noise.xlsx',
+      'invalid',
+      /noise\.xlsx (holds binary data|is not a spreadsheet)/,
+    ],
+    [
+      'half of a real workbook',
+      () => workbookWithCells([HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(','))]).subarray(0, 300),
+      'torn.xlsx',
+      'invalid',
+      /^torn\.xlsx (took longer than 10 s to read|holds no readable workbook|looks like an xlsx file but could not be read)/,
+    ],
+    [
+      'a csv just over 10 MB',
+      () => bigCsv(300_000),
+      'huge.csv',
+      'too_large',
+      /huge\.csv is 1\d(\.\d)? MB; Gatewell reads files up to 10 MB/,
+    ],
+    [
+      'a csv of 100 000 rows under 10 MB',
+      () => bigCsv(100_000),
+      'rows.csv',
+      'invalid',
+      /^rows\.csv is too big to import: it has more than 20000 rows\.$/,
+    ],
+    [
+      'headers that name nothing Gatewell knows',
+      () => csv('Colour,Shape,Size', 'red,round,3', 'blue,square,4'),
+      'headers.csv',
+      'invalid',
+      /^The sheet has \d+ error\(s\); first: Sheet "headers", row 1: no column is chosen for the well position, which every plate needs\.$/,
+    ],
+    [
+      'a header row of formulas',
+      () => csv('=A1,=B1,=C1', 'A01,1,2'),
+      'formula-headers.csv',
+      'invalid',
+      /^The sheet has \d+ error\(s\); first: Sheet "formula-headers", row 1: no column is chosen for the well position/,
+    ],
   ])('%s', async (_name, build, filename, code, message) => {
     const error = await refusal(build(), filename);
     expect(error.code).toBe(code);
@@ -74,31 +134,54 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     const error = await refusal(bomb, 'bomb.xlsx');
     expect(error.code).toBe('invalid');
     // Stopped by the worker's memory or time limit, or read to its end and refused for the columns it lacks.
-    expect(error.message).toMatch(/^bomb\.xlsx (needs more than 256 MB of memory|took longer than 10 s)|^The sheet has \d+ error\(s\); first: Sheet "Plate", row 1: no column is chosen for the compound identifier/);
+    expect(error.message).toMatch(
+      /^bomb\.xlsx (needs more than 256 MB of memory|took longer than 10 s)|^The sheet has \d+ error\(s\); first: Sheet "Plate", row 1: no column is chosen for the compound identifier/,
+    );
   });
 
   test('formulas are never evaluated: a csv formula is text, and an xlsx formula without a stored value is empty', async () => {
-    const fromCsv = await refusal(csv(HEADER, ...GOOD_ROWS, 'A05,GW-0001,1,Kv7.2,=400+400,700,1.8,4,18'), 'formula.csv');
+    const fromCsv = await refusal(
+      csv(HEADER, ...GOOD_ROWS, 'A05,GW-0001,1,Kv7.2,=400+400,700,1.8,4,18'),
+      'formula.csv',
+    );
     expect(fromCsv.message).toMatch(/row 6, column E "I control \(pA\)"/);
     expect(fromCsv.message).toContain('=400+400');
 
-    const rows: (string | number | { formula: string })[][] = [HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(',').map((v) => (v !== '' && !Number.isNaN(Number(v)) ? Number(v) : v)))];
+    const rows: (string | number | { formula: string })[][] = [
+      HEADER.split(','),
+      ...GOOD_ROWS.map((l) =>
+        l.split(',').map((v) => (v !== '' && !Number.isNaN(Number(v)) ? Number(v) : v)),
+      ),
+    ];
     rows.push(['A05', 'GW-0001', 1, 'Kv7.2', { formula: '400+400' }, 700, 1.8, 4, 18]);
     const workbook = upload(workbookWithCells(rows), 'formula.xlsx');
     const inspected = await inspectUpload(biologist, workbook);
     const sheet = inspected.sheets[0]!;
     expect(sheet.sample[4]).toEqual(['A05', 'GW-0001', 1, 'Kv7.2', null, 700, 1.8, 4, 18]);
-    const preview = await previewImport(biologist, { draftId: inspected.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping });
+    const preview = await previewImport(biologist, {
+      draftId: inspected.draftId!,
+      sheet: sheet.name,
+      mapping: sheet.guess.mapping,
+    });
     expect(preview.rows.find((r) => r.row === 6)!.values.controlCurrent_pA).toBeNull();
   });
 
   test('HTML in cells comes back from the preview as the same plain text, never as markup', async () => {
     const markup = '<img src=x onerror=alert(1)>';
     const script = "<script>alert('gw')</script>";
-    const bytes = csv(HEADER, ...GOOD_ROWS, `A05,"${markup}",1,Kv7.2,800,700,1.8,4,18`, `A06,GW-0001,1,"${script}",800,700,1.8,4,18`);
+    const bytes = csv(
+      HEADER,
+      ...GOOD_ROWS,
+      `A05,"${markup}",1,Kv7.2,800,700,1.8,4,18`,
+      `A06,GW-0001,1,"${script}",800,700,1.8,4,18`,
+    );
     const inspection = await inspectUpload(biologist, upload(bytes, 'markup.csv'));
     const sheet = inspection.sheets[0]!;
-    const preview = await previewImport(biologist, { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping });
+    const preview = await previewImport(biologist, {
+      draftId: inspection.draftId!,
+      sheet: sheet.name,
+      mapping: sheet.guess.mapping,
+    });
     const byRow = new Map(preview.rows.map((r) => [r.row, r]));
     expect(byRow.get(6)!.values.compound).toBe(markup);
     expect(byRow.get(6)!.status).toBe('error');
@@ -116,14 +199,25 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     ['-Infinity', '-Infinity'],
     ['an overflowing number', '1e999'],
   ])('a control current of %s is refused at its cell', async (_name, value) => {
-    const error = await refusal(csv(HEADER, ...GOOD_ROWS, `A05,GW-0001,1,Kv7.2,${value},700,1.8,4,18`), 'number.csv');
+    const error = await refusal(
+      csv(HEADER, ...GOOD_ROWS, `A05,GW-0001,1,Kv7.2,${value},700,1.8,4,18`),
+      'number.csv',
+    );
     expect(error.message).toMatch(/row 6, column E "I control \(pA\)"/);
   });
 
   test.each([
     ['a NaN concentration', 'A05,GW-0001,NaN,Kv7.2,800,700,1.8,4,18', /row 6, column C "Conc \(uM\)"/],
-    ['a zero concentration on a compound well', 'A05,GW-0001,0,Kv7.2,800,700,1.8,4,18', /row 6, column C "Conc \(uM\)"/],
-    ['a negative seal resistance', 'A05,GW-0001,1,Kv7.2,800,700,-1.8,4,18', /row 6, column G "Rseal \(GOhm\)"/],
+    [
+      'a zero concentration on a compound well',
+      'A05,GW-0001,0,Kv7.2,800,700,1.8,4,18',
+      /row 6, column C "Conc \(uM\)"/,
+    ],
+    [
+      'a negative seal resistance',
+      'A05,GW-0001,1,Kv7.2,800,700,-1.8,4,18',
+      /row 6, column G "Rseal \(GOhm\)"/,
+    ],
     ['an infinite capacitance', 'A05,GW-0001,1,Kv7.2,800,700,1.8,4,Infinity', /row 6, column I "Cm \(pF\)"/],
     ['the same well written two ways', 'A4,GW-0001,3,Kv7.2,810,700,1.8,4,18', /row 6/],
     ['a well given twice with different compounds', 'A03,GW-0002,10,Kv7.2,820,600,1.8,4,18', /row 6/],
@@ -135,7 +229,9 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
   test('wrong encodings: Latin-1 and UTF-16 without a mark are refused by name; UTF-16 with a mark reads like UTF-8', async () => {
     const latin1 = Buffer.from([HEADER.replace('(uM)', '(\u00b5M)'), ...GOOD_ROWS].join('\n'), 'latin1');
     const refusedLatin1 = await refusal(latin1, 'latin1.csv');
-    expect(refusedLatin1.message).toMatch(/^latin1\.csv is not valid UTF-8 text: byte 0xB5 at offset \d+ \(line 1\)/);
+    expect(refusedLatin1.message).toMatch(
+      /^latin1\.csv is not valid UTF-8 text: byte 0xB5 at offset \d+ \(line 1\)/,
+    );
 
     const text = `${[HEADER, ...GOOD_ROWS].join('\n')}\n`;
     const refusedUtf16 = await refusal(utf16le(text, false), 'utf16.csv');
@@ -145,7 +241,11 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     const inspection = await inspectUpload(biologist, upload(marked, 'utf16-bom.csv'));
     const sheet = inspection.sheets[0]!;
     expect(sheet.headers).toEqual(HEADER.split(','));
-    const preview = await previewImport(biologist, { draftId: inspection.draftId!, sheet: sheet.name, mapping: sheet.guess.mapping });
+    const preview = await previewImport(biologist, {
+      draftId: inspection.draftId!,
+      sheet: sheet.name,
+      mapping: sheet.guess.mapping,
+    });
     expect(preview.summary.errorRows).toBe(0);
     expect(preview.rows).toHaveLength(GOOD_ROWS.length);
   });

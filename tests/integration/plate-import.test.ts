@@ -11,7 +11,13 @@ import { fitsCurrent } from '../support/jobs';
 const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
 
 async function countRows() {
-  return { plates: await Plate.count(), wells: await Well.count(), readouts: await Readout.count(), fits: await Fit.count(), files: await UploadedFile.count() };
+  return {
+    plates: await Plate.count(),
+    wells: await Well.count(),
+    readouts: await Readout.count(),
+    fits: await Fit.count(),
+    files: await UploadedFile.count(),
+  };
 }
 
 describe('plate import on the real database', () => {
@@ -46,9 +52,17 @@ describe('plate import on the real database', () => {
       expect(await Well.count({ where: { plateId } })).toBe(manifest.wellCount);
       // What is stored, not only what was fitted in memory: test wells hold the generator's concentrations.
       const stored = await Well.findAll({ where: { plateId, role: 'test' } });
-      const concentrations = [...new Set(stored.map((w) => w.concentration_uM!.toPrecision(6)))].map(Number).sort((a, b) => b - a);
+      const concentrations = [...new Set(stored.map((w) => w.concentration_uM!.toPrecision(6)))]
+        .map(Number)
+        .sort((a, b) => b - a);
       expect(concentrations).toEqual([...manifest.concentrations_uM].sort((a, b) => b - a));
-      const fits = await db().query<{ identifier: string; status: string; ic50_ci_low_um: number; ic50_ci_high_um: number; ic50_lower_bound_um: number | null }>(
+      const fits = await db().query<{
+        identifier: string;
+        status: string;
+        ic50_ci_low_um: number;
+        ic50_ci_high_um: number;
+        ic50_lower_bound_um: number | null;
+      }>(
         'select c.identifier, f.status, f.ic50_ci_low_um, f.ic50_ci_high_um, f.ic50_lower_bound_um from fits f join compounds c on c.id = f.compound_id where f.plate_id = :plateId',
         { replacements: { plateId }, type: 'SELECT' as never },
       );
@@ -90,7 +104,9 @@ describe('plate import on the real database', () => {
     expect(inspection.duplicateOf).toEqual({ plateId, label: 'NAV-P01' });
     expect(inspection.draftId).toBeNull(); // a file that cannot be stored again gets no draft
     await expect(commitImport(biologist, { ...request, label: 'again' })).rejects.toMatchObject({
-      code: 'conflict', message: 'This exact file was already imported for this screen as plate NAV-P01.', details: { plateId },
+      code: 'conflict',
+      message: 'This exact file was already imported for this screen as plate NAV-P01.',
+      details: { plateId },
     });
     expect(await countRows()).toEqual(before);
   });
@@ -98,9 +114,15 @@ describe('plate import on the real database', () => {
   test('a chemist cannot import; a preview writes nothing', async () => {
     const { bytes, manifest } = demoFile('nav-96-plate-01.xlsx');
     const upload = { screenId: screens[manifest.target]!, bytes, filename: 'x.xlsx', mediaType: XLSX };
-    await expect(inspectUpload(await makeActor(['chemist']), upload)).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(inspectUpload(await makeActor(['chemist']), upload)).rejects.toMatchObject({
+      code: 'forbidden',
+    });
     const inspection = await inspectUpload(biologist, upload);
-    const preview = await previewImport(biologist, { draftId: inspection.draftId!, sheet: manifest.dataSheet, mapping: inspection.sheets.find((s) => s.name === manifest.dataSheet)!.guess.mapping });
+    const preview = await previewImport(biologist, {
+      draftId: inspection.draftId!,
+      sheet: manifest.dataSheet,
+      mapping: inspection.sheets.find((s) => s.name === manifest.dataSheet)!.guess.mapping,
+    });
     expect(preview.ok).toBe(true);
     expect(Object.keys(preview.qc).length).toBeGreaterThan(0);
     expect(await countRows()).toEqual({ plates: 0, wells: 0, readouts: 0, fits: 0, files: 0 });

@@ -28,6 +28,8 @@ describe('plates list filters on the real database', () => {
   });
 
   test('unreadable filter values are dropped rather than failing the page', () => {
-    expect(plateFilterSchema.parse({ screen: 'not-a-uuid', state: 'lost', from: '1 May', to: '' })).toEqual({});
+    expect(plateFilterSchema.parse({ screen: 'not-a-uuid', state: 'lost', from: '1 May', to: '' })).toEqual(
+      {},
+    );
   });
 });

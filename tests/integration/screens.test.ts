@@ -8,8 +8,17 @@ import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 
 const form = {
-  name: 'Pain series', description: '', neuronPreset: 'pospischil-rs-2008', zPrimeMin: '0.5', sealResistanceMin_GOhm: '0.5', controlCurrentMin_pA: '200',
-  seriesResistanceMax_MOhm: '25', capacitanceMin_pF: '1', capacitanceMax_pF: '100', vehicleRundownMax_percent: '20', exposures_uM: '0.1, 0.3 1',
+  name: 'Pain series',
+  description: '',
+  neuronPreset: 'pospischil-rs-2008',
+  zPrimeMin: '0.5',
+  sealResistanceMin_GOhm: '0.5',
+  controlCurrentMin_pA: '200',
+  seriesResistanceMax_MOhm: '25',
+  capacitanceMin_pF: '1',
+  capacitanceMax_pF: '100',
+  vehicleRundownMax_percent: '20',
+  exposures_uM: '0.1, 0.3 1',
 };
 
 describe('screens and targets on the real database', () => {
@@ -32,10 +41,15 @@ describe('screens and targets on the real database', () => {
   test('a target may not map to the leak or to a conductance the preset lacks', async () => {
     const admin = await makeActor(['admin']);
     const { id } = await createScreen(admin, screenSchema.parse({ ...form, neuronPreset: 'hh-squid-1952' }));
-    await expect(addTarget(admin, id, { name: 'Leak', conductance: 'gL', description: '' })).rejects.toMatchObject({
-      code: 'invalid', message: 'hh-squid-1952 has no blockable conductance gL; choose one of gNa, gK.',
+    await expect(
+      addTarget(admin, id, { name: 'Leak', conductance: 'gL', description: '' }),
+    ).rejects.toMatchObject({
+      code: 'invalid',
+      message: 'hh-squid-1952 has no blockable conductance gL; choose one of gNa, gK.',
     });
-    await expect(addTarget(admin, id, { name: 'M', conductance: 'gM', description: '' })).rejects.toMatchObject({ code: 'invalid' });
+    await expect(
+      addTarget(admin, id, { name: 'M', conductance: 'gM', description: '' }),
+    ).rejects.toMatchObject({ code: 'invalid' });
     expect(await Target.count()).toBe(0);
   });
 
@@ -43,13 +57,17 @@ describe('screens and targets on the real database', () => {
     const admin = await makeActor(['admin']);
     const { id } = await createScreen(admin, screenSchema.parse(form));
     await addTarget(admin, id, { name: 'Kv7', conductance: 'gM', description: '' });
-    await expect(updateScreen(admin, id, screenSchema.parse({ ...form, neuronPreset: 'hh-squid-1952' }))).rejects.toMatchObject({ code: 'invalid' });
+    await expect(
+      updateScreen(admin, id, screenSchema.parse({ ...form, neuronPreset: 'hh-squid-1952' })),
+    ).rejects.toMatchObject({ code: 'invalid' });
     expect((await getScreen(admin, id)).neuronPreset).toBe('pospischil-rs-2008');
   });
 
   test('only an admin manages screens', async () => {
     const biologist = await makeActor(['biologist']);
-    await expect(createScreen(biologist, screenSchema.parse(form))).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(createScreen(biologist, screenSchema.parse(form))).rejects.toMatchObject({
+      code: 'forbidden',
+    });
   });
 
   test.each([

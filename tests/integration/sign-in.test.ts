@@ -6,7 +6,13 @@ import { AuditEvent, LoginAttempt, User, UserRole } from '@/models';
 import { resetDatabase } from '../support/database';
 
 async function makeUser(email: string, password: string) {
-  const user = await User.create({ email, name: 'Test Person', passwordHash: await hashPassword(password), disabledAt: null, lastSignInAt: null });
+  const user = await User.create({
+    email,
+    name: 'Test Person',
+    passwordHash: await hashPassword(password),
+    disabledAt: null,
+    lastSignInAt: null,
+  });
   await UserRole.create({ userId: user.id, role: 'biologist' });
   return user;
 }
@@ -29,10 +35,19 @@ describe('sign-in against the real database', () => {
 
   test('unknown account, wrong password and disabled account give the same answer', async () => {
     const user = await makeUser('bea@example.org', 'correct horse battery');
-    await expect(signIn('nobody@example.org', 'whatever', '10.0.0.1')).resolves.toEqual({ ok: false, reason: 'invalid' });
-    await expect(signIn('bea@example.org', 'wrong', '10.0.0.1')).resolves.toEqual({ ok: false, reason: 'invalid' });
+    await expect(signIn('nobody@example.org', 'whatever', '10.0.0.1')).resolves.toEqual({
+      ok: false,
+      reason: 'invalid',
+    });
+    await expect(signIn('bea@example.org', 'wrong', '10.0.0.1')).resolves.toEqual({
+      ok: false,
+      reason: 'invalid',
+    });
     await user.update({ disabledAt: new Date() });
-    await expect(signIn('bea@example.org', 'correct horse battery', '10.0.0.1')).resolves.toEqual({ ok: false, reason: 'invalid' });
+    await expect(signIn('bea@example.org', 'correct horse battery', '10.0.0.1')).resolves.toEqual({
+      ok: false,
+      reason: 'invalid',
+    });
     expect(await AuditEvent.count({ where: { action: 'sign_in_failed' } })).toBe(3);
   });
 
@@ -41,8 +56,14 @@ describe('sign-in against the real database', () => {
     for (let i = 0; i < MAX_FAILURES_PER_ACCOUNT; i += 1) {
       await signIn('bea@example.org', `wrong-${i}`, `10.0.0.${i}`);
     }
-    await expect(signIn('bea@example.org', 'correct horse battery', '10.0.9.9')).resolves.toEqual({ ok: false, reason: 'throttled' });
+    await expect(signIn('bea@example.org', 'correct horse battery', '10.0.9.9')).resolves.toEqual({
+      ok: false,
+      reason: 'throttled',
+    });
     // Throttling is per account: an unknown account from the same addresses is answered as usual.
-    await expect(signIn('other@example.org', 'x', '10.0.9.9')).resolves.toEqual({ ok: false, reason: 'invalid' });
+    await expect(signIn('other@example.org', 'x', '10.0.9.9')).resolves.toEqual({
+      ok: false,
+      reason: 'invalid',
+    });
   });
 });

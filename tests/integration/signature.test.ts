@@ -13,7 +13,15 @@ const content = { plate: 'GW-0001', state: 'submitted', fits: [{ target: 'NaV', 
 
 async function sign(overrides: Record<string, unknown> = {}, entityId = randomUUID()) {
   const actor = await makeActor(['approver'], `ana-${entityId.slice(0, 8)}@example.org`, PASSWORD);
-  const input = { password: PASSWORD, meaning: 'Approved: results are complete and correct', comment: 'ok', entityType: 'plate', entityId, content, ...overrides };
+  const input = {
+    password: PASSWORD,
+    meaning: 'Approved: results are complete and correct',
+    comment: 'ok',
+    entityType: 'plate',
+    entityId,
+    content,
+    ...overrides,
+  };
   return { actor, input, entityId };
 }
 
@@ -29,16 +37,32 @@ describe('electronic signatures against the real database', () => {
     const { actor, input, entityId } = await sign();
     const signature = await db().transaction((transaction) => signRecord(actor, input, transaction));
     const expectedHash = createHash('sha256').update(canonicalJson(content)).digest('hex');
-    expect(signature).toMatchObject({ signerId: actor.id, signerName: actor.name, meaning: input.meaning, comment: 'ok', entityType: 'plate', entityId, contentSha256: expectedHash });
+    expect(signature).toMatchObject({
+      signerId: actor.id,
+      signerName: actor.name,
+      meaning: input.meaning,
+      comment: 'ok',
+      entityType: 'plate',
+      entityId,
+      contentSha256: expectedHash,
+    });
     expect(Date.now() - Date.parse(signature.signedAt)).toBeLessThan(60_000);
     expect(await Signature.count({ where: { entityId } })).toBe(1);
     const event = await AuditEvent.findOne({ where: { action: 'sign', entityId }, raw: true });
-    expect(event).toMatchObject({ actorId: actor.id, entityType: 'plate', after: { signatureId: signature.id, contentSha256: expectedHash } });
+    expect(event).toMatchObject({
+      actorId: actor.id,
+      entityType: 'plate',
+      after: { signatureId: signature.id, contentSha256: expectedHash },
+    });
   });
 
   test('the same content in another key order gives the same hash; changed content gives another', async () => {
     const { actor, input, entityId } = await sign();
-    const reordered = { fits: [{ hill: 1.1, ic50_uM: 1.25, target: 'NaV' }], state: 'submitted', plate: 'GW-0001' };
+    const reordered = {
+      fits: [{ hill: 1.1, ic50_uM: 1.25, target: 'NaV' }],
+      state: 'submitted',
+      plate: 'GW-0001',
+    };
     const changed = { ...content, fits: [{ target: 'NaV', ic50_uM: 1.3, hill: 1.1 }] };
     const [a, b, c] = await db().transaction(async (transaction) => [
       await signRecord(actor, input, transaction),
@@ -52,7 +76,9 @@ describe('electronic signatures against the real database', () => {
 
   test('a wrong password is refused, signs nothing, and counts as a failed attempt that survives the rollback', async () => {
     const { actor, input, entityId } = await sign({ password: 'not-my-password' });
-    await expect(db().transaction((transaction) => signRecord(actor, input, transaction))).rejects.toMatchObject({
+    await expect(
+      db().transaction((transaction) => signRecord(actor, input, transaction)),
+    ).rejects.toMatchObject({
       code: 'invalid',
       details: { fieldErrors: { password: ['That password is not right.'] } },
     });
@@ -64,9 +90,13 @@ describe('electronic signatures against the real database', () => {
   test(`after ${MAX_FAILURES_PER_ACCOUNT} wrong passwords signing is throttled, even with the right one`, async () => {
     const { actor, input } = await sign();
     for (let i = 0; i < MAX_FAILURES_PER_ACCOUNT; i += 1) {
-      await db().transaction((t) => signRecord(actor, { ...input, password: `wrong-${i}` }, t)).catch(() => undefined);
+      await db()
+        .transaction((t) => signRecord(actor, { ...input, password: `wrong-${i}` }, t))
+        .catch(() => undefined);
     }
-    await expect(db().transaction((t) => signRecord(actor, input, t))).rejects.toMatchObject({ code: 'rate_limited' });
+    await expect(db().transaction((t) => signRecord(actor, input, t))).rejects.toMatchObject({
+      code: 'rate_limited',
+    });
     expect(await Signature.count()).toBe(0);
   });
 
@@ -87,12 +117,15 @@ describe('electronic signatures against the real database', () => {
     [{ password: '' }, 'password', 'Enter your password to sign.'],
     [{ entityId: 'GW-0001' }, 'entityId', 'The signed record must be named by its id.'],
     [{ content: undefined }, 'content', 'There is nothing to sign.'],
-  ])('an incomplete signature is refused before the password is checked (%o)', async (overrides, field, message) => {
-    const { actor, input } = await sign(overrides);
-    await expect(db().transaction((t) => signRecord(actor, input, t))).rejects.toMatchObject({
-      code: 'invalid',
-      details: { fieldErrors: { [field]: [message] } },
-    });
-    expect(await LoginAttempt.count()).toBe(0);
-  });
+  ])(
+    'an incomplete signature is refused before the password is checked (%o)',
+    async (overrides, field, message) => {
+      const { actor, input } = await sign(overrides);
+      await expect(db().transaction((t) => signRecord(actor, input, t))).rejects.toMatchObject({
+        code: 'invalid',
+        details: { fieldErrors: { [field]: [message] } },
+      });
+      expect(await LoginAttempt.count()).toBe(0);
+    },
+  );
 });

@@ -16,17 +16,24 @@ describe('segregation of duties, in the service and in the database', () => {
   });
   afterAll(() => db().close());
 
-  const sign = (actor: Actor, action: 'verify' | 'submit' | 'approve' | 'reject', comment = '') => signPlateStep(actor, cast.plateId, { action, password: PASSWORD, comment });
+  const sign = (actor: Actor, action: 'verify' | 'submit' | 'approve' | 'reject', comment = '') =>
+    signPlateStep(actor, cast.plateId, { action, password: PASSWORD, comment });
   const toSubmitted = async (verifier = cast.chemist, submitter = cast.biologist) => {
     await sign(verifier, 'verify');
     await sign(submitter, 'submit');
   };
-  const setImporter = (userId: string) => db().query('update plates set imported_by = :userId where id = :plateId', { replacements: { userId, plateId: cast.plateId } });
+  const setImporter = (userId: string) =>
+    db().query('update plates set imported_by = :userId where id = :plateId', {
+      replacements: { userId, plateId: cast.plateId },
+    });
 
   test('the importer may not verify the compound map, even holding the chemist role', async () => {
     const both = await makeActor(['chemist', 'biologist']);
     await setImporter(both.id);
-    await expect(sign(both, 'verify')).rejects.toMatchObject({ code: 'forbidden', message: 'You imported this plate, so another chemist verifies its compound map.' });
+    await expect(sign(both, 'verify')).rejects.toMatchObject({
+      code: 'forbidden',
+      message: 'You imported this plate, so another chemist verifies its compound map.',
+    });
     expect((await Plate.findByPk(cast.plateId))!.state).toBe('imported');
   });
 
@@ -39,7 +46,10 @@ describe('segregation of duties, in the service and in the database', () => {
     if (duty === 'imported') await setImporter(who.id);
     await toSubmitted(duty === 'verified' ? who : cast.chemist, duty === 'submitted' ? who : cast.biologist);
     await expect(sign(who, 'approve')).rejects.toMatchObject({ code: 'forbidden', message });
-    await expect(sign(who, 'reject', 'not mine to decide')).rejects.toMatchObject({ code: 'forbidden', message });
+    await expect(sign(who, 'reject', 'not mine to decide')).rejects.toMatchObject({
+      code: 'forbidden',
+      message,
+    });
     expect((await Plate.findByPk(cast.plateId))!.state).toBe('submitted');
   });
 
@@ -50,7 +60,11 @@ describe('segregation of duties, in the service and in the database', () => {
     ['plates_decider_not_submitter', 'decided_by = submitted_by'],
   ])('the database refuses a direct update that breaks %s (%s)', async (constraint, assignment) => {
     await toSubmitted(cast.chemist, await makeActor(['biologist'])); // importer, verifier and submitter: three people
-    await expect(db().query(`update plates set ${assignment} where id = :plateId`, { replacements: { plateId: cast.plateId } })).rejects.toMatchObject({
+    await expect(
+      db().query(`update plates set ${assignment} where id = :plateId`, {
+        replacements: { plateId: cast.plateId },
+      }),
+    ).rejects.toMatchObject({
       parent: { code: '23514', constraint },
     });
     expect((await Plate.findByPk(cast.plateId))!.decidedBy).toBeNull();
@@ -59,11 +73,16 @@ describe('segregation of duties, in the service and in the database', () => {
   test('signatures and sign-off events are append-only in the database', async () => {
     await sign(cast.chemist, 'verify');
     const sql = [
-      "update signatures set meaning = 'changed'", 'delete from signatures', "update signoff_events set to_state = 'submitted'", 'delete from signoff_events',
+      "update signatures set meaning = 'changed'",
+      'delete from signatures',
+      "update signoff_events set to_state = 'submitted'",
+      'delete from signoff_events',
     ];
     for (const statement of sql) {
       // The app's role is granted no change to them; their owner meets the trigger.
-      await expect(db().query(statement)).rejects.toThrow(/permission denied for table (signatures|signoff_events)/);
+      await expect(db().query(statement)).rejects.toThrow(
+        /permission denied for table (signatures|signoff_events)/,
+      );
       await expect(asSchemaOwner((client) => client.query(statement))).rejects.toThrow(/append-only/);
     }
   });

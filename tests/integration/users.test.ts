@@ -25,12 +25,25 @@ describe('user administration against the real database', () => {
 
   test('an admin creates a user with a generated password shown once; the audit keeps no secret', async () => {
     const admin = await makeActor(['admin']);
-    const created = await createUser(admin, { name: 'Nia Newcomer', email: ' Nia@Example.org ', roles: ['chemist', 'approver'] });
-    expect(created.user).toMatchObject({ email: 'nia@example.org', roles: ['approver', 'chemist'], disabledAt: null });
+    const created = await createUser(admin, {
+      name: 'Nia Newcomer',
+      email: ' Nia@Example.org ',
+      roles: ['chemist', 'approver'],
+    });
+    expect(created.user).toMatchObject({
+      email: 'nia@example.org',
+      roles: ['approver', 'chemist'],
+      disabledAt: null,
+    });
     expect(created.initialPassword).toMatch(/^[A-Za-z0-9_-]{16}$/);
-    await expect(signIn('nia@example.org', created.initialPassword!, '10.1.0.1')).resolves.toMatchObject({ ok: true });
+    await expect(signIn('nia@example.org', created.initialPassword!, '10.1.0.1')).resolves.toMatchObject({
+      ok: true,
+    });
 
-    const event = await AuditEvent.findOne({ where: { action: 'create', entityId: created.user.id }, raw: true });
+    const event = await AuditEvent.findOne({
+      where: { action: 'create', entityId: created.user.id },
+      raw: true,
+    });
     expect(event).toMatchObject({ actorId: admin.id, entityType: 'user' });
     const trail = JSON.stringify(event);
     expect(trail).not.toContain(created.initialPassword);
@@ -39,58 +52,94 @@ describe('user administration against the real database', () => {
 
   test('a password set by the admin is not echoed, and a taken e-mail is refused on its field', async () => {
     const admin = await makeActor(['admin']);
-    const created = await createUser(admin, { name: 'Set Pass', email: 'set@example.org', roles: [], password: 'chosen-by-admin' });
+    const created = await createUser(admin, {
+      name: 'Set Pass',
+      email: 'set@example.org',
+      roles: [],
+      password: 'chosen-by-admin',
+    });
     expect(created.initialPassword).toBeNull();
-    await expect(createUser(admin, { name: 'Again', email: 'SET@example.org', roles: [] })).rejects.toMatchObject({
+    await expect(
+      createUser(admin, { name: 'Again', email: 'SET@example.org', roles: [] }),
+    ).rejects.toMatchObject({
       code: 'conflict',
       details: { fieldErrors: { email: ['An account with this e-mail address exists already.'] } },
     });
-    await expect(createUser(admin, { name: 'Short', email: 'short@example.org', roles: [], password: 'short' })).rejects.toMatchObject({
+    await expect(
+      createUser(admin, { name: 'Short', email: 'short@example.org', roles: [], password: 'short' }),
+    ).rejects.toMatchObject({
       code: 'invalid',
       details: { fieldErrors: { password: ['Use at least 10 characters.'] } },
     });
     expect(await User.count({ where: { email: 'short@example.org' } })).toBe(0);
   });
 
-  test.each([['chemist'], ['biologist'], ['approver']] as const)('a %s may not list, create, change or disable users', async (role) => {
-    const someone = await makeActor([role]);
-    const other = await makeActor(['biologist']);
-    await expect(listUsers(someone)).rejects.toMatchObject({ code: 'forbidden' });
-    await expect(getUser(someone, other.id)).rejects.toMatchObject({ code: 'forbidden' });
-    await expect(createUser(someone, { name: 'X', email: 'x@example.org', roles: ['admin'] })).rejects.toMatchObject({ code: 'forbidden' });
-    await expect(changeRoles(someone, { userId: someone.id, roles: ['admin'], reason })).rejects.toMatchObject({ code: 'forbidden' });
-    await expect(disableUser(someone, { userId: other.id, reason })).rejects.toMatchObject({ code: 'forbidden' });
-    expect(await AuditEvent.count()).toBe(0);
-  });
+  test.each([['chemist'], ['biologist'], ['approver']] as const)(
+    'a %s may not list, create, change or disable users',
+    async (role) => {
+      const someone = await makeActor([role]);
+      const other = await makeActor(['biologist']);
+      await expect(listUsers(someone)).rejects.toMatchObject({ code: 'forbidden' });
+      await expect(getUser(someone, other.id)).rejects.toMatchObject({ code: 'forbidden' });
+      await expect(
+        createUser(someone, { name: 'X', email: 'x@example.org', roles: ['admin'] }),
+      ).rejects.toMatchObject({ code: 'forbidden' });
+      await expect(
+        changeRoles(someone, { userId: someone.id, roles: ['admin'], reason }),
+      ).rejects.toMatchObject({ code: 'forbidden' });
+      await expect(disableUser(someone, { userId: other.id, reason })).rejects.toMatchObject({
+        code: 'forbidden',
+      });
+      expect(await AuditEvent.count()).toBe(0);
+    },
+  );
 
   test('a role change is audited with before, after and reason', async () => {
     const admin = await makeActor(['admin']);
     const bea = await makeActor(['biologist']);
-    const changed = await changeRoles(admin, { userId: bea.id, roles: ['biologist', 'approver'], reason: 'covers approvals in March' });
+    const changed = await changeRoles(admin, {
+      userId: bea.id,
+      roles: ['biologist', 'approver'],
+      reason: 'covers approvals in March',
+    });
     expect(changed.roles).toEqual(['approver', 'biologist']);
     expect((await loadActor(bea.id, '10.1.0.1'))?.roles).toEqual(['approver', 'biologist']);
     const event = await AuditEvent.findOne({ where: { action: 'change_roles' }, raw: true });
-    expect(event).toMatchObject({ reason: 'covers approvals in March', before: { roles: ['biologist'] }, after: { roles: ['approver', 'biologist'] } });
-    await expect(changeRoles(admin, { userId: bea.id, roles: ['approver', 'biologist'], reason })).rejects.toMatchObject({ code: 'invalid' });
+    expect(event).toMatchObject({
+      reason: 'covers approvals in March',
+      before: { roles: ['biologist'] },
+      after: { roles: ['approver', 'biologist'] },
+    });
+    await expect(
+      changeRoles(admin, { userId: bea.id, roles: ['approver', 'biologist'], reason }),
+    ).rejects.toMatchObject({ code: 'invalid' });
   });
 
   test('the last enabled admin keeps the admin role and cannot be disabled', async () => {
     const admin = await makeActor(['admin']);
-    await expect(changeRoles(admin, { userId: admin.id, roles: ['approver'], reason })).rejects.toMatchObject({
-      code: 'conflict',
-      message: expect.stringContaining('last enabled admin'),
-    });
+    await expect(changeRoles(admin, { userId: admin.id, roles: ['approver'], reason })).rejects.toMatchObject(
+      {
+        code: 'conflict',
+        message: expect.stringContaining('last enabled admin'),
+      },
+    );
     // A disabled admin does not count as the other admin.
     const second = await makeActor(['admin']);
     await disableUser(admin, { userId: second.id, reason });
-    await expect(changeRoles(admin, { userId: admin.id, roles: [], reason })).rejects.toMatchObject({ code: 'conflict' });
+    await expect(changeRoles(admin, { userId: admin.id, roles: [], reason })).rejects.toMatchObject({
+      code: 'conflict',
+    });
 
     await enableUser(admin, { userId: second.id, reason });
     const withoutAdmin = await changeRoles(admin, { userId: admin.id, roles: ['approver'], reason });
     expect(withoutAdmin.roles).toEqual(['approver']);
     const secondActor = (await loadActor(second.id, '127.0.0.1'))!;
-    await expect(changeRoles(secondActor, { userId: second.id, roles: ['chemist'], reason })).rejects.toMatchObject({ code: 'conflict' });
-    await expect(disableUser(secondActor, { userId: second.id, reason })).rejects.toMatchObject({ code: 'conflict' });
+    await expect(
+      changeRoles(secondActor, { userId: second.id, roles: ['chemist'], reason }),
+    ).rejects.toMatchObject({ code: 'conflict' });
+    await expect(disableUser(secondActor, { userId: second.id, reason })).rejects.toMatchObject({
+      code: 'conflict',
+    });
   });
 
   test('two admins taking the admin role from each other at once leave one admin', async () => {
@@ -101,7 +150,10 @@ describe('user administration against the real database', () => {
       changeRoles(abe, { userId: ada.id, roles: [], reason }),
     ]);
     expect(results.map((r) => r.status).sort()).toEqual(['fulfilled', 'rejected']);
-    const [row] = await db().query(`select count(*)::int as n from user_roles where role = 'admin'`, { plain: false, raw: true });
+    const [row] = await db().query(`select count(*)::int as n from user_roles where role = 'admin'`, {
+      plain: false,
+      raw: true,
+    });
     expect(row).toEqual([{ n: 1 }]);
   });
 
@@ -112,31 +164,52 @@ describe('user administration against the real database', () => {
     const disabled = await disableUser(admin, { userId: bea.id, reason: 'left the team' });
     expect(disabled.disabledAt).not.toBeNull();
     expect(await loadActor(bea.id, '127.0.0.1')).toBeNull();
-    await expect(signIn('bea@example.org', 'bea-password-1', '10.1.0.2')).resolves.toEqual({ ok: false, reason: 'invalid' });
+    await expect(signIn('bea@example.org', 'bea-password-1', '10.1.0.2')).resolves.toEqual({
+      ok: false,
+      reason: 'invalid',
+    });
     await expect(disableUser(admin, { userId: bea.id, reason })).rejects.toMatchObject({ code: 'conflict' });
 
     await enableUser(admin, { userId: bea.id, reason: 'came back' });
     const again = await loadActor(bea.id, '127.0.0.1');
     expect(again?.sessionVersion).toBe(before + 1);
-    const events = await AuditEvent.findAll({ where: { entityId: bea.id }, order: [['id', 'ASC']], raw: true });
-    expect(events.map((e) => [e.action, e.reason])).toEqual([['disable', 'left the team'], ['enable', 'came back']]);
+    const events = await AuditEvent.findAll({
+      where: { entityId: bea.id },
+      order: [['id', 'ASC']],
+      raw: true,
+    });
+    expect(events.map((e) => [e.action, e.reason])).toEqual([
+      ['disable', 'left the team'],
+      ['enable', 'came back'],
+    ]);
     expect(events[0]).toMatchObject({ before: { enabled: true }, after: { enabled: false } });
   });
 
   test('an admin cannot disable themselves', async () => {
     const admin = await makeActor(['admin']);
     await makeActor(['admin']);
-    await expect(disableUser(admin, { userId: admin.id, reason })).rejects.toMatchObject({ code: 'conflict' });
+    await expect(disableUser(admin, { userId: admin.id, reason })).rejects.toMatchObject({
+      code: 'conflict',
+    });
   });
 
   test('a password an admin set must be replaced by its owner before anything else; a reset asks again', async () => {
     const admin = await makeActor(['admin']);
-    const created = await createUser(admin, { name: 'First Time', email: 'first@example.org', roles: ['biologist'], password: 'chosen-by-admin' });
+    const created = await createUser(admin, {
+      name: 'First Time',
+      email: 'first@example.org',
+      roles: ['biologist'],
+      password: 'chosen-by-admin',
+    });
     const fresh = (await loadActor(created.user.id, '127.0.0.1'))!;
     expect(fresh.passwordChangeRequired).toBe(true);
     expect(() => refuseUntilOwnPassword(fresh)).toThrow(/choose your own on the Account page/);
 
-    await changeOwnPassword(fresh, { currentPassword: 'chosen-by-admin', newPassword: 'my-own-password-1', confirmPassword: 'my-own-password-1' });
+    await changeOwnPassword(fresh, {
+      currentPassword: 'chosen-by-admin',
+      newPassword: 'my-own-password-1',
+      confirmPassword: 'my-own-password-1',
+    });
     const own = (await loadActor(created.user.id, '127.0.0.1'))!;
     expect(own.passwordChangeRequired).toBe(false);
     expect(() => refuseUntilOwnPassword(own)).not.toThrow();

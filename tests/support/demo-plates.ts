@@ -9,10 +9,18 @@ import { fitsCurrent } from './jobs';
  * one is given. With `{ source: 'file' }` the request sends the file itself instead, as scripts may.
  */
 export async function demoCommitRequest(
-  biologist: Actor, screens: Record<string, string>, file: string, options: { label?: string; source?: 'draft' | 'file' } = {},
+  biologist: Actor,
+  screens: Record<string, string>,
+  file: string,
+  options: { label?: string; source?: 'draft' | 'file' } = {},
 ): Promise<CommitRequest> {
   const { bytes, manifest } = demoFile(file);
-  const upload = { screenId: screens[manifest.target]!, bytes, filename: file, mediaType: 'application/octet-stream' };
+  const upload = {
+    screenId: screens[manifest.target]!,
+    bytes,
+    filename: file,
+    mediaType: 'application/octet-stream',
+  };
   const inspection = await inspectUpload(biologist, upload);
   const sheet = inspection.sheets.find((s) => s.name === manifest.dataSheet) ?? inspection.sheets[0]!;
   const choice = { sheet: sheet.name, mapping: sheet.guess.mapping, label: options.label ?? manifest.plate };
@@ -22,8 +30,16 @@ export async function demoCommitRequest(
 }
 
 /** Imports one demo plate export through the import service, with the guessed mapping, and waits for its fits; returns the plate id. */
-export async function importDemoPlate(biologist: Actor, screens: Record<string, string>, file: string, options: { label?: string } = {}): Promise<string> {
-  const { plateId } = await commitImport(biologist, await demoCommitRequest(biologist, screens, file, options));
+export async function importDemoPlate(
+  biologist: Actor,
+  screens: Record<string, string>,
+  file: string,
+  options: { label?: string } = {},
+): Promise<string> {
+  const { plateId } = await commitImport(
+    biologist,
+    await demoCommitRequest(biologist, screens, file, options),
+  );
   await fitsCurrent(plateId);
   return plateId;
 }
@@ -31,6 +47,7 @@ export async function importDemoPlate(biologist: Actor, screens: Record<string, 
 /** The plates list's scenario: a fresh database with the demo screens, and three demo plates imported by one biologist. */
 export async function threeDemoPlatesSetup(): Promise<{ biologist: Actor; screens: Record<string, string> }> {
   const setup = await demoScreensSetup();
-  for (const name of ['nav-96-plate-01.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx']) await importDemoPlate(setup.biologist, setup.screens, name);
+  for (const name of ['nav-96-plate-01.xlsx', 'kv-96-plate-01.csv', 'nav-96-plate-03-noisy.xlsx'])
+    await importDemoPlate(setup.biologist, setup.screens, name);
   return setup;
 }

@@ -21,14 +21,28 @@ export function demoFile(name: string): { bytes: Uint8Array; manifest: DemoManif
 /** One screen per demo target (as the demo seeder makes them) and the demo compounds; returns screen ids by target. */
 export async function makeDemoScreens(admin: Actor, chemist: Actor): Promise<Record<string, string>> {
   const base = {
-    description: '', neuronPreset: 'pospischil-rs-2008', zPrimeMin: 0.5, sealResistanceMin_GOhm: 0.5, controlCurrentMin_pA: 200, seriesResistanceMax_MOhm: 25,
-    capacitanceMin_pF: 1, capacitanceMax_pF: 100, vehicleRundownMax_percent: 20, exposures_uM: '0.1, 1',
+    description: '',
+    neuronPreset: 'pospischil-rs-2008',
+    zPrimeMin: 0.5,
+    sealResistanceMin_GOhm: 0.5,
+    controlCurrentMin_pA: 200,
+    seriesResistanceMax_MOhm: 25,
+    capacitanceMin_pF: 1,
+    capacitanceMax_pF: 100,
+    vehicleRundownMax_percent: 20,
+    exposures_uM: '0.1, 1',
   };
   const nav = await createScreen(admin, screenSchema.parse({ ...base, name: 'Pain sodium screen' }));
   await addTarget(admin, nav.id, { name: 'Nav1.7', conductance: 'gNa', description: '' });
   const kv = await createScreen(admin, screenSchema.parse({ ...base, name: 'Potassium counter-screen' }));
   await addTarget(admin, kv.id, { name: 'Kv7.2', conductance: 'gM', description: '' });
-  for (const c of DEMO_COMPOUNDS) await createCompound(chemist, { identifier: c.identifier, name: c.name, smiles: '', molecularWeight: c.molecularWeight });
+  for (const c of DEMO_COMPOUNDS)
+    await createCompound(chemist, {
+      identifier: c.identifier,
+      name: c.name,
+      smiles: '',
+      molecularWeight: c.molecularWeight,
+    });
   return { 'Nav1.7': nav.id, 'Kv7.2': kv.id };
 }
 

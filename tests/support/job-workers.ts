@@ -3,7 +3,8 @@
 // Queue tests that need the queue without workers call stopJobWorkers() themselves.
 import { afterAll, beforeAll, expect } from 'vitest';
 
-const integration = (path: string | undefined) => Boolean(path && /[/\\]tests[/\\]integration[/\\]/.test(path));
+const integration = (path: string | undefined) =>
+  Boolean(path && /[/\\]tests[/\\]integration[/\\]/.test(path));
 let started = false;
 
 beforeAll(async () => {

@@ -9,7 +9,8 @@ export async function fitsCurrent(plateId: string, timeoutMs = 30_000): Promise<
   for (;;) {
     const plate = await Plate.findByPk(plateId, { attributes: ['fitsPending'], rejectOnEmpty: true });
     if (!plate.fitsPending) return;
-    if (Date.now() > deadline) throw new Error(`the fits of plate ${plateId} were still pending after ${timeoutMs} ms`);
+    if (Date.now() > deadline)
+      throw new Error(`the fits of plate ${plateId} were still pending after ${timeoutMs} ms`);
     await sleep(50);
   }
 }

@@ -24,7 +24,9 @@ function checkClusterIsTheTestDatabase(instance: string): void {
     listening = undefined;
   }
   if (!port || listening !== port) {
-    throw new Error(`cluster ${instance} (${pidFile}) listens on ${listening ?? 'nothing'}, DATABASE_URL on ${port || 'no port'}: set GATEWELL_TEST_INSTANCE to the cluster of DATABASE_URL`);
+    throw new Error(
+      `cluster ${instance} (${pidFile}) listens on ${listening ?? 'nothing'}, DATABASE_URL on ${port || 'no port'}: set GATEWELL_TEST_INSTANCE to the cluster of DATABASE_URL`,
+    );
   }
 }
 
@@ -32,7 +34,10 @@ function checkClusterIsTheTestDatabase(instance: string): void {
  * Runs scripts/pg.sh on the test cluster, e.g. restart in immediate mode, and resolves when it has finished.
  * Asynchronous on purpose: the pool sees its connections end while the command runs, as a server would.
  */
-export async function testCluster(command: 'restart' | 'stop' | 'start', mode: 'fast' | 'immediate' = 'fast'): Promise<void> {
+export async function testCluster(
+  command: 'restart' | 'stop' | 'start',
+  mode: 'fast' | 'immediate' = 'fast',
+): Promise<void> {
   const instance = testClusterInstance();
   if (command !== 'start') checkClusterIsTheTestDatabase(instance);
   await promisify(execFile)('bash', ['scripts/pg.sh', command, instance, mode], { timeout: 120_000 });
@@ -50,7 +55,11 @@ export async function outsideClient(as: 'app' | 'owner' = 'app'): Promise<pg.Cli
 }
 
 /** Polls until `probe` yields a value, or throws `message` after `timeoutMs`. */
-export async function pollFor<T>(probe: () => Promise<T | undefined>, message: string, timeoutMs = 30_000): Promise<T> {
+export async function pollFor<T>(
+  probe: () => Promise<T | undefined>,
+  message: string,
+  timeoutMs = 30_000,
+): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const found = await probe();

@@ -26,7 +26,9 @@ describe('the audit filter schema', () => {
   };
 
   test('empty fields, repeated parameters and the page number are read as a browser sends them', () => {
-    expect(auditFilterSchema.parse({ entityType: ['plate', 'user'], entityId: '', userId: '', page: '3' })).toEqual({ entityType: 'plate', page: 3 });
+    expect(
+      auditFilterSchema.parse({ entityType: ['plate', 'user'], entityId: '', userId: '', page: '3' }),
+    ).toEqual({ entityType: 'plate', page: 3 });
     expect(auditFilterSchema.parse({})).toEqual({ page: 1 });
   });
 

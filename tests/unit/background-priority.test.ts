@@ -31,8 +31,14 @@ describe.runIf(linux)('background priority', () => {
       const worker = new Worker('setTimeout(() => {}, 300)', { eval: true });
       worker.on('online', () => { console.log(JSON.stringify({ set, nices: nices() })); worker.terminate(); });
     `;
-    const output = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { cwd: path.resolve(__dirname, '../..'), encoding: 'utf8' });
-    const { set, nices } = JSON.parse(output) as { set: { niceness: number; idle: boolean }; nices: number[] };
+    const output = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], {
+      cwd: path.resolve(__dirname, '../..'),
+      encoding: 'utf8',
+    });
+    const { set, nices } = JSON.parse(output) as {
+      set: { niceness: number; idle: boolean };
+      nices: number[];
+    };
     expect(set).toEqual({ niceness: 7, idle: false });
     expect(nices.length).toBeGreaterThan(2);
     expect(new Set(nices)).toEqual(new Set([7]));
@@ -50,8 +56,15 @@ describe.runIf(linux)('background priority', () => {
       const worker = new Worker('setTimeout(() => {}, 300)', { eval: true });
       worker.on('online', () => { console.log(JSON.stringify({ set, before, after: policies() })); worker.terminate(); });
     `;
-    const output = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { cwd: path.resolve(__dirname, '../..'), encoding: 'utf8' });
-    const { set, before, after } = JSON.parse(output) as { set: { niceness: number; idle: boolean }; before: string[]; after: string[] };
+    const output = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], {
+      cwd: path.resolve(__dirname, '../..'),
+      encoding: 'utf8',
+    });
+    const { set, before, after } = JSON.parse(output) as {
+      set: { niceness: number; idle: boolean };
+      before: string[];
+      after: string[];
+    };
     expect(set).toEqual({ niceness: 19, idle: true });
     expect(new Set(before)).toEqual(new Set(['normal']));
     expect(after.length).toBeGreaterThan(before.length); // the worker thread and its helpers
@@ -59,7 +72,9 @@ describe.runIf(linux)('background priority', () => {
   });
 
   test('a file is read in a thread at nice 10 while the thread that asked stays as it was', async () => {
-    const bytes = readFileSync(path.resolve(__dirname, '../../seeders/data/demo-plates/nav-384-plate-02.xlsx'));
+    const bytes = readFileSync(
+      path.resolve(__dirname, '../../seeders/data/demo-plates/nav-384-plate-02.xlsx'),
+    );
     const seen = new Set<number>();
     const watch = setInterval(() => threadNiceness().forEach((n) => seen.add(n)), 1);
     const result = await parseSpreadsheet(bytes, 'nav-384-plate-02.xlsx');
@@ -70,6 +85,8 @@ describe.runIf(linux)('background priority', () => {
   });
 
   test('an out-of-range nice value for the parse thread is refused', async () => {
-    await expect(parseSpreadsheet(new Uint8Array([1, 2, 3]), 'a.csv', { niceness: 20 })).rejects.toThrow(RangeError);
+    await expect(parseSpreadsheet(new Uint8Array([1, 2, 3]), 'a.csv', { niceness: 20 })).rejects.toThrow(
+      RangeError,
+    );
   });
 });

@@ -17,24 +17,84 @@ async function lintScratch(filePath: string, code: string): Promise<string[]> {
 
 describe('ESLint boundary rules fire on scratch violations', () => {
   test.each([
-    ['science imports app code by alias', 'lib/science/scratch.ts', "import { db } from '@/lib/db';\nexport const x = db;\n", 'import/no-restricted-paths'],
-    ['science imports app code by a relative path', 'lib/science/scratch.ts', "import { db } from '../db';\nexport const x = db;\n", 'import/no-restricted-paths'],
-    ['science imports a Node module', 'lib/science/scratch.ts', "import { cpus } from 'node:os';\nexport const x = cpus;\n", 'no-restricted-imports'],
-    ['science imports an unlisted package', 'lib/science/scratch.ts', "import { Sequelize } from 'sequelize';\nexport const x = Sequelize;\n", 'no-restricted-imports'],
-    ['a component imports a model', 'components/scratch.tsx', "import { Plate } from '@/models';\nexport const x = Plate;\n", 'import/no-restricted-paths'],
-    ['a component imports the database', 'components/scratch.tsx', "import { db } from '@/lib/db';\nexport const x = db;\n", 'import/no-restricted-paths'],
-    ['a component imports app code', 'components/scratch.tsx', "import { signOutAction } from '@/app/(auth)/sign-in/actions';\nexport const x = signOutAction;\n", 'import/no-restricted-paths'],
-    ['app code imports a model', 'app/scratch.ts', "import { Plate } from '@/models';\nexport const x = Plate;\n", 'import/no-restricted-paths'],
-    ['app code imports sequelize', 'app/scratch.ts', "import { QueryTypes } from 'sequelize';\nexport const x = QueryTypes;\n", 'no-restricted-imports'],
-    ['app code imports the database', 'app/scratch.ts', "import { db } from '@/lib/db';\nexport const x = db;\n", 'import/no-restricted-paths'],
+    [
+      'science imports app code by alias',
+      'lib/science/scratch.ts',
+      "import { db } from '@/lib/db';\nexport const x = db;\n",
+      'import/no-restricted-paths',
+    ],
+    [
+      'science imports app code by a relative path',
+      'lib/science/scratch.ts',
+      "import { db } from '../db';\nexport const x = db;\n",
+      'import/no-restricted-paths',
+    ],
+    [
+      'science imports a Node module',
+      'lib/science/scratch.ts',
+      "import { cpus } from 'node:os';\nexport const x = cpus;\n",
+      'no-restricted-imports',
+    ],
+    [
+      'science imports an unlisted package',
+      'lib/science/scratch.ts',
+      "import { Sequelize } from 'sequelize';\nexport const x = Sequelize;\n",
+      'no-restricted-imports',
+    ],
+    [
+      'a component imports a model',
+      'components/scratch.tsx',
+      "import { Plate } from '@/models';\nexport const x = Plate;\n",
+      'import/no-restricted-paths',
+    ],
+    [
+      'a component imports the database',
+      'components/scratch.tsx',
+      "import { db } from '@/lib/db';\nexport const x = db;\n",
+      'import/no-restricted-paths',
+    ],
+    [
+      'a component imports app code',
+      'components/scratch.tsx',
+      "import { signOutAction } from '@/app/(auth)/sign-in/actions';\nexport const x = signOutAction;\n",
+      'import/no-restricted-paths',
+    ],
+    [
+      'app code imports a model',
+      'app/scratch.ts',
+      "import { Plate } from '@/models';\nexport const x = Plate;\n",
+      'import/no-restricted-paths',
+    ],
+    [
+      'app code imports sequelize',
+      'app/scratch.ts',
+      "import { QueryTypes } from 'sequelize';\nexport const x = QueryTypes;\n",
+      'no-restricted-imports',
+    ],
+    [
+      'app code imports the database',
+      'app/scratch.ts',
+      "import { db } from '@/lib/db';\nexport const x = db;\n",
+      'import/no-restricted-paths',
+    ],
   ])('%s', async (_label, filePath, code, rule) => {
     const messages = await lintScratch(filePath, code);
     expect(messages.filter((message) => message.startsWith(`${rule}:`))).toHaveLength(1);
   });
 
   test('the same imports pass where they are allowed', async () => {
-    expect(await lintScratch('lib/plates/scratch.ts', "import 'server-only';\nimport { db } from '@/lib/db';\nexport const x = db;\n")).toEqual([]);
-    expect(await lintScratch('lib/science/scratch.ts', "import { mean } from 'simple-statistics';\nexport const x = mean;\n")).toEqual([]);
+    expect(
+      await lintScratch(
+        'lib/plates/scratch.ts',
+        "import 'server-only';\nimport { db } from '@/lib/db';\nexport const x = db;\n",
+      ),
+    ).toEqual([]);
+    expect(
+      await lintScratch(
+        'lib/science/scratch.ts',
+        "import { mean } from 'simple-statistics';\nexport const x = mean;\n",
+      ),
+    ).toEqual([]);
   });
 });
 
@@ -44,9 +104,18 @@ describe('import graph checks', () => {
 
   test('a scratch cycle through a type import is found', async () => {
     mkdirSync(path.join(scratch, 'lib'), { recursive: true });
-    writeFileSync(path.join(scratch, 'tsconfig.json'), JSON.stringify({ compilerOptions: { paths: { '@/*': ['./*'] } } }));
-    writeFileSync(path.join(scratch, 'lib/worker.ts'), "import { run } from './handler';\nexport type Progress = () => void;\nexport const go = run;\n");
-    writeFileSync(path.join(scratch, 'lib/handler.ts'), "import type { Progress } from '@/lib/worker';\nexport const run = (p: Progress) => p();\n");
+    writeFileSync(
+      path.join(scratch, 'tsconfig.json'),
+      JSON.stringify({ compilerOptions: { paths: { '@/*': ['./*'] } } }),
+    );
+    writeFileSync(
+      path.join(scratch, 'lib/worker.ts'),
+      "import { run } from './handler';\nexport type Progress = () => void;\nexport const go = run;\n",
+    );
+    writeFileSync(
+      path.join(scratch, 'lib/handler.ts'),
+      "import type { Progress } from '@/lib/worker';\nexport const run = (p: Progress) => p();\n",
+    );
     const { tree } = await readImportGraph(scratch, ['lib/**/*.ts']);
     expect(findCycles(tree).map((cycle) => [...cycle].sort())).toEqual([['lib/handler.ts', 'lib/worker.ts']]);
   });
@@ -58,7 +127,12 @@ describe('import graph checks', () => {
       ['lib/marked.ts', ['lib/reader.ts']],
       ['lib/pure.ts', []],
     ]);
-    const sources: Record<string, string> = { 'lib/db.ts': "import 'server-only';", 'lib/reader.ts': 'export {};', 'lib/marked.ts': "import 'server-only';", 'lib/pure.ts': '' };
+    const sources: Record<string, string> = {
+      'lib/db.ts': "import 'server-only';",
+      'lib/reader.ts': 'export {};',
+      'lib/marked.ts': "import 'server-only';",
+      'lib/pure.ts': '',
+    };
     expect(modulesMissingServerOnly(graph, (file: string) => sources[file]!)).toEqual(['lib/reader.ts']);
   });
 

@@ -6,12 +6,22 @@ import { describe, expect, test } from 'vitest';
 
 const root = resolve(__dirname, '../..');
 const folder = join(root, 'tests', 'fixtures', 'check-values');
-const files = readdirSync(folder).filter((name) => name !== 'README.md').sort();
+const files = readdirSync(folder)
+  .filter((name) => name !== 'README.md')
+  .sort();
 
-const STATUSES = ['published', 'certified', 'computed', 'widely reproduced, no single source', 'from memory', 'common practice, no source'];
+const STATUSES = [
+  'published',
+  'certified',
+  'computed',
+  'widely reproduced, no single source',
+  'from memory',
+  'common practice, no source',
+];
 
 async function sourceOf(name: string): Promise<unknown> {
-  if (name.endsWith('.json')) return (JSON.parse(readFileSync(join(folder, name), 'utf8')) as { source?: unknown }).source;
+  if (name.endsWith('.json'))
+    return (JSON.parse(readFileSync(join(folder, name), 'utf8')) as { source?: unknown }).source;
   return ((await import(join(folder, name))) as { source?: unknown }).source;
 }
 

@@ -9,7 +9,11 @@ describe('Gatewell content security policy', () => {
   });
 
   test('scripts and style tags need the nonce; nothing is framed, posted or based elsewhere', () => {
-    const directives = Object.fromEntries(contentSecurityPolicy('abc123==').split('; ').map((d) => [d.split(' ')[0], d.slice(d.indexOf(' ') + 1)]));
+    const directives = Object.fromEntries(
+      contentSecurityPolicy('abc123==')
+        .split('; ')
+        .map((d) => [d.split(' ')[0], d.slice(d.indexOf(' ') + 1)]),
+    );
     expect(directives).toEqual({
       'default-src': "'self'",
       'script-src': "'self' 'nonce-abc123==' 'strict-dynamic'",

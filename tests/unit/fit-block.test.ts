@@ -3,7 +3,14 @@ import { describe, expect, test } from 'vitest';
 import { computeFractionalBlock, type BlockWell } from '@/lib/science/fit/block';
 import type { WellRole } from '@/lib/science/qc/well';
 
-const well = (wellId: string, role: WellRole, control: number | null, compound: number | null, excluded = false, target = 'NaV'): BlockWell => ({
+const well = (
+  wellId: string,
+  role: WellRole,
+  control: number | null,
+  compound: number | null,
+  excluded = false,
+  target = 'NaV',
+): BlockWell => ({
   wellId,
   target,
   role,
@@ -55,7 +62,11 @@ describe('fractional block', () => {
   });
 
   test('excluded wells keep their block but leave the means; targets stay apart', () => {
-    const wells = [...plate, well('A05', 'vehicle', -1000, -300, true), well('C01', 'vehicle', -500, -500, false, 'KV')];
+    const wells = [
+      ...plate,
+      well('A05', 'vehicle', -1000, -300, true),
+      well('C01', 'vehicle', -500, -500, false, 'KV'),
+    ];
     const [nav, kv] = computeFractionalBlock(wells);
     expect(nav!.vehicleMeanRatio).toBeCloseTo(0.85, 12);
     expect(nav!.wells.find((w) => w.wellId === 'A05')!.block).toBeCloseTo(1 - 0.3 / 0.85, 12);
@@ -64,7 +75,11 @@ describe('fractional block', () => {
   });
 
   test('a well without both currents, or with a zero control, has no block', () => {
-    const [target] = computeFractionalBlock([...plate, well('B02', 'test', null, -100), well('B03', 'test', 0, -100)]);
+    const [target] = computeFractionalBlock([
+      ...plate,
+      well('B02', 'test', null, -100),
+      well('B03', 'test', 0, -100),
+    ]);
     expect(target!.wells.slice(-2).map((w) => [w.ratio, w.block])).toEqual([
       [null, null],
       [null, null],

@@ -17,7 +17,18 @@ function run(content: string | null, name = 'input.json') {
   return { code: out.status, stdout: out.stdout, stderr: out.stderr };
 }
 
-const KEYS = ['status', 'ic50_uM', 'ic50_ci95_uM', 'log10_ic50_se', 'hill', 'top', 'bottom', 'r2', 'n', 'message'];
+const KEYS = [
+  'status',
+  'ic50_uM',
+  'ic50_ci95_uM',
+  'log10_ic50_se',
+  'hill',
+  'top',
+  'bottom',
+  'r2',
+  'n',
+  'message',
+];
 
 describe('fit CLI', () => {
   test('fits a curve and prints every field', () => {
@@ -33,7 +44,14 @@ describe('fit CLI', () => {
   });
 
   test('a curve with no fit prints nulls and the reason', () => {
-    const { code, stdout } = run(JSON.stringify({ points: [{ concentration_uM: 1, block: 0.2 }, { concentration_uM: 10, block: 0.7 }] }));
+    const { code, stdout } = run(
+      JSON.stringify({
+        points: [
+          { concentration_uM: 1, block: 0.2 },
+          { concentration_uM: 10, block: 0.7 },
+        ],
+      }),
+    );
     expect(code).toBe(0);
     expect(JSON.parse(stdout)).toEqual({
       status: 'insufficient',
@@ -51,13 +69,33 @@ describe('fit CLI', () => {
 
   test.each([
     ['not JSON', '{"model": "hill2",', 'is not valid JSON'],
-    ['unknown model', '{"model":"hill3","points":[{"concentration_uM":1,"block":0.5}]}', "model: must be 'hill2' or 'hill4'"],
+    [
+      'unknown model',
+      '{"model":"hill3","points":[{"concentration_uM":1,"block":0.5}]}',
+      "model: must be 'hill2' or 'hill4'",
+    ],
     ['points missing', '{"model":"hill2"}', 'points: must be a list of points'],
     ['no points', '{"points":[]}', 'points: must hold at least one point'],
-    ['text concentration', '{"points":[{"concentration_uM":1,"block":0.1},{"concentration_uM":"3","block":0.4}]}', 'points[1].concentration_uM: must be a number (µM)'],
-    ['negative concentration', '{"points":[{"concentration_uM":-1,"block":0.1}]}', 'points[0].concentration_uM: must be ≥ 0 µM'],
-    ['null block', '{"points":[{"concentration_uM":1,"block":0.1},{"concentration_uM":2,"block":0.2},{"concentration_uM":3,"block":null}]}', 'points[2].block: must be a number (fractional block)'],
-    ['extra field', '{"points":[{"concentration_uM":1,"block":0.1,"well":"A1"}]}', 'points[0]: Unrecognized key: "well"'],
+    [
+      'text concentration',
+      '{"points":[{"concentration_uM":1,"block":0.1},{"concentration_uM":"3","block":0.4}]}',
+      'points[1].concentration_uM: must be a number (µM)',
+    ],
+    [
+      'negative concentration',
+      '{"points":[{"concentration_uM":-1,"block":0.1}]}',
+      'points[0].concentration_uM: must be ≥ 0 µM',
+    ],
+    [
+      'null block',
+      '{"points":[{"concentration_uM":1,"block":0.1},{"concentration_uM":2,"block":0.2},{"concentration_uM":3,"block":null}]}',
+      'points[2].block: must be a number (fractional block)',
+    ],
+    [
+      'extra field',
+      '{"points":[{"concentration_uM":1,"block":0.1,"well":"A1"}]}',
+      'points[0]: Unrecognized key: "well"',
+    ],
     ['top level is a list', '[1, 2]', '(top level):'],
   ])('%s: exit 1 and names the fault', (_case, content, message) => {
     const { code, stdout, stderr } = run(content);

@@ -54,12 +54,19 @@ test('hill4 recovers IC50, slope, bottom and top of noise-free data (tolerance 1
 
 test('the fit does not depend on the order of the wells (rotated)', () => {
   fc.assert(
-    fc.property(fc.double({ min: -1.5, max: 1, noNaN: true }), fc.integer({ min: 0, max: 1000 }), (log10Ic50, shift) => {
-      const data = plate(10 ** log10Ic50, 1.1, 2);
-      const order = data.block.map((_, i) => (i + shift) % data.block.length);
-      const shuffled = { concentration_uM: order.map((i) => data.concentration_uM[i]!), block: order.map((i) => data.block[i]!) };
-      expect(Math.log10(fitHill(shuffled).ic50_uM!)).toBeCloseTo(Math.log10(fitHill(data).ic50_uM!), 8);
-    }),
+    fc.property(
+      fc.double({ min: -1.5, max: 1, noNaN: true }),
+      fc.integer({ min: 0, max: 1000 }),
+      (log10Ic50, shift) => {
+        const data = plate(10 ** log10Ic50, 1.1, 2);
+        const order = data.block.map((_, i) => (i + shift) % data.block.length);
+        const shuffled = {
+          concentration_uM: order.map((i) => data.concentration_uM[i]!),
+          block: order.map((i) => data.block[i]!),
+        };
+        expect(Math.log10(fitHill(shuffled).ic50_uM!)).toBeCloseTo(Math.log10(fitHill(data).ic50_uM!), 8);
+      },
+    ),
     { numRuns: 50 },
   );
 });

@@ -65,22 +65,28 @@ describe.each([
   ['Rat42', rat42, RAT42],
   ['Rat43', rat43, RAT43],
 ] as const)('NIST StRD %s', (_name, model, data) => {
-  test.each(data.starts.map((start, i) => [i + 1, start] as const))('from start %i reaches the certified values', (_i, start) => {
-    const fit = fitLeastSquares(model, data.x, data.y, { initial: start });
-    expect(fit.converged).toBe(true);
-    expect(fit.degreesOfFreedom).toBe(data.df);
-    fit.parameters.forEach((b, j) => expect(relative(b, data.b[j]!)).toBeLessThan(1e-6));
-    fit.standardErrors!.forEach((sd, j) => expect(relative(sd, data.sd[j]!)).toBeLessThan(1e-5));
-    expect(relative(fit.rss, data.rss)).toBeLessThan(1e-9);
-    expect(relative(Math.sqrt(fit.rss / fit.degreesOfFreedom), data.residualSd)).toBeLessThan(1e-9);
-  });
+  test.each(data.starts.map((start, i) => [i + 1, start] as const))(
+    'from start %i reaches the certified values',
+    (_i, start) => {
+      const fit = fitLeastSquares(model, data.x, data.y, { initial: start });
+      expect(fit.converged).toBe(true);
+      expect(fit.degreesOfFreedom).toBe(data.df);
+      fit.parameters.forEach((b, j) => expect(relative(b, data.b[j]!)).toBeLessThan(1e-6));
+      fit.standardErrors!.forEach((sd, j) => expect(relative(sd, data.sd[j]!)).toBeLessThan(1e-5));
+      expect(relative(fit.rss, data.rss)).toBeLessThan(1e-9);
+      expect(relative(Math.sqrt(fit.rss / fit.degreesOfFreedom), data.residualSd)).toBeLessThan(1e-9);
+    },
+  );
 });
 
 describe('bounds and inputs', () => {
   test('an upper bound below the optimum holds the parameter on the bound and fits the rest', () => {
     // Certified Rat42 b1 = 72.46; capped at 70 the estimate must sit on 70 and the RSS must exceed the certified 8.0565
     // (nist-strd-rat42.json).
-    const fit = fitLeastSquares(rat42, RAT42.x, RAT42.y, { initial: [60, 1, 0.1], upper: [70, Infinity, Infinity] });
+    const fit = fitLeastSquares(rat42, RAT42.x, RAT42.y, {
+      initial: [60, 1, 0.1],
+      upper: [70, Infinity, Infinity],
+    });
     expect(fit.converged).toBe(true);
     expect(fit.parameters[0]).toBe(70);
     expect(fit.rss).toBeGreaterThan(RAT42.rss);
@@ -104,6 +110,11 @@ describe('bounds and inputs', () => {
 
   test('stops at the iteration cap and says it did not converge', () => {
     const fit = fitLeastSquares(rat43, RAT43.x, RAT43.y, { initial: RAT43.starts[0]!, maxIterations: 3 });
-    expect(fit).toMatchObject({ converged: false, stop: 'max_iterations', covariance: null, standardErrors: null });
+    expect(fit).toMatchObject({
+      converged: false,
+      stop: 'max_iterations',
+      covariance: null,
+      standardErrors: null,
+    });
   });
 });

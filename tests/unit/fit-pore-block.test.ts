@@ -21,7 +21,9 @@ test.each(
   expect(hillBlock(concentration_uM, ic50_uM, h)).toBeCloseTo(expected, 6);
   // The fitting model (on log10 C) gives the same value.
   const model = hillCurveModel('hill2');
-  expect(model.evaluate(Math.log10(concentration_uM), Float64Array.from([Math.log10(ic50_uM), h]))).toBeCloseTo(expected, 6);
+  expect(
+    model.evaluate(Math.log10(concentration_uM), Float64Array.from([Math.log10(ic50_uM), h])),
+  ).toBeCloseTo(expected, 6);
 });
 
 test('analytic gradient of the fitting model matches central differences', () => {

@@ -26,7 +26,10 @@ const DRC = {
 
 describe('ryegrass four-parameter fit (drc estimates)', () => {
   // Root length falls with concentration: a negative Hill slope and wide bounds on bottom and top.
-  const options = resolveHillFitOptions({ model: 'hill4', bounds: { hillSlope: [-20, -0.05], bottom: [-100, 100], top: [-100, 100] } });
+  const options = resolveHillFitOptions({
+    model: 'hill4',
+    bounds: { hillSlope: [-20, -0.05], bottom: [-100, 100], top: [-100, 100] },
+  });
   const fit = fitHillCurve(conc, rootLength, options);
   const within = (actual: number, expected: number, fraction: number) =>
     expect(Math.abs(actual - expected)).toBeLessThanOrEqual(fraction * Math.abs(expected));

@@ -27,7 +27,13 @@ describe('status of a fit', () => {
       'insufficient',
       '2 distinct concentrations in use; a hill2 fit needs at least 3.',
     ],
-    ['hill4 with three concentrations', curve(1, 1, [0.3, 1, 3]), { model: 'hill4' }, 'insufficient', '3 distinct concentrations in use; a hill4 fit needs at least 4.'],
+    [
+      'hill4 with three concentrations',
+      curve(1, 1, [0.3, 1, 3]),
+      { model: 'hill4' },
+      'insufficient',
+      '3 distinct concentrations in use; a hill4 fit needs at least 4.',
+    ],
     [
       'no meaningful block',
       { concentration_uM: SERIES_uM, block: [0.01, -0.02, 0.03, 0.05, 0.08, 0.12] },
@@ -63,7 +69,13 @@ describe('status of a fit', () => {
       'not_converged',
       'The fit ran to the edge of the IC50 search range (0.0316 µM); the data do not place an IC50.',
     ],
-    ['a clean curve', curve(2, 1.3), {}, 'fitted', 'IC50 2 µM (95 % CI 2 µM to 2 µM), Hill slope 1.3, from 6 wells at 6 concentrations.'],
+    [
+      'a clean curve',
+      curve(2, 1.3),
+      {},
+      'fitted',
+      'IC50 2 µM (95 % CI 2 µM to 2 µM), Hill slope 1.3, from 6 wells at 6 concentrations.',
+    ],
   ])('%s → %s', (_case, input, options, status, message) => {
     const result = fitHill(input, options);
     expect(result.status).toBe(status);
@@ -78,9 +90,24 @@ describe('status of a fit', () => {
 
 describe('flags on a fitted curve', () => {
   test.each([
-    ['steep slope', curve(2, 3.5), 'hill_slope_outside_band', 'Hill slope 3.5 is outside the plausible band 0.5–2.'],
-    ['shallow slope', curve(2, 0.35, [0.01, 0.1, 1, 10, 100, 1000]), 'hill_slope_outside_band', 'Hill slope 0.35 is outside the plausible band 0.5–2.'],
-    ['IC50 below the lowest concentration', curve(0.05), 'ic50_below_range', 'IC50 0.05 µM is below the lowest concentration tested (0.1 µM): an extrapolation.'],
+    [
+      'steep slope',
+      curve(2, 3.5),
+      'hill_slope_outside_band',
+      'Hill slope 3.5 is outside the plausible band 0.5–2.',
+    ],
+    [
+      'shallow slope',
+      curve(2, 0.35, [0.01, 0.1, 1, 10, 100, 1000]),
+      'hill_slope_outside_band',
+      'Hill slope 0.35 is outside the plausible band 0.5–2.',
+    ],
+    [
+      'IC50 below the lowest concentration',
+      curve(0.05),
+      'ic50_below_range',
+      'IC50 0.05 µM is below the lowest concentration tested (0.1 µM): an extrapolation.',
+    ],
   ] as const)('%s', (_case, input, code, message) => {
     const result = fitHill(input);
     expect(result.status).toBe('fitted');
@@ -133,9 +160,21 @@ describe('wells', () => {
   });
 
   test.each<[string, HillFitInput, string]>([
-    ['length mismatch', { concentration_uM: [1, 2, 3], block: [0.1, 0.2] }, 'concentration_uM has 3 values but block has 2'],
-    ['negative concentration', { concentration_uM: [1, -2, 3], block: [0.1, 0.2, 0.3] }, 'well 1: concentration_uM must be a finite number ≥ 0, got -2'],
-    ['non-numeric block in a well in use', { concentration_uM: [1, 2, 3], block: [0.1, NaN, 0.3] }, 'well 1: block must be a finite number, got NaN'],
+    [
+      'length mismatch',
+      { concentration_uM: [1, 2, 3], block: [0.1, 0.2] },
+      'concentration_uM has 3 values but block has 2',
+    ],
+    [
+      'negative concentration',
+      { concentration_uM: [1, -2, 3], block: [0.1, 0.2, 0.3] },
+      'well 1: concentration_uM must be a finite number ≥ 0, got -2',
+    ],
+    [
+      'non-numeric block in a well in use',
+      { concentration_uM: [1, 2, 3], block: [0.1, NaN, 0.3] },
+      'well 1: block must be a finite number, got NaN',
+    ],
   ])('rejects %s', (_case, input, message) => {
     expect(() => fitHill(input)).toThrow(message);
   });

@@ -14,16 +14,25 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 function run(content: string | null, args?: string[]) {
   const file = join(dir, 'input.json');
   if (content !== null) writeFileSync(file, content);
-  const out = spawnSync(tsx, [join(root, 'scripts', 'forecast.ts'), ...(args ?? [content === null ? join(dir, 'missing.json') : file])], {
-    encoding: 'utf8',
-    cwd: root,
-  });
+  const out = spawnSync(
+    tsx,
+    [
+      join(root, 'scripts', 'forecast.ts'),
+      ...(args ?? [content === null ? join(dir, 'missing.json') : file]),
+    ],
+    {
+      encoding: 'utf8',
+      cwd: root,
+    },
+  );
   return { code: out.status, stdout: out.stdout, stderr: out.stderr };
 }
 
 describe('forecast CLI', () => {
   test('forecasts the control and prints every field', () => {
-    const { code, stdout } = run(JSON.stringify({ preset: 'hh-squid-1952', block: {}, stepMs: 500, drives_uA_cm2: [10, 20] }));
+    const { code, stdout } = run(
+      JSON.stringify({ preset: 'hh-squid-1952', block: {}, stepMs: 500, drives_uA_cm2: [10, 20] }),
+    );
     expect(code).toBe(0);
     const out = JSON.parse(stdout);
     expect(Object.keys(out)).toEqual(['rest_mV', 'rheobase_uA_cm2', 'threshold_mV', 'rates_Hz', 'flags']);
@@ -40,7 +49,9 @@ describe('forecast CLI', () => {
   });
 
   test('30 % sodium block raises the rheobase', () => {
-    const { code, stdout } = run(JSON.stringify({ preset: 'hh-squid-1952', block: { gNa: 0.3 }, drives_uA_cm2: [20] }));
+    const { code, stdout } = run(
+      JSON.stringify({ preset: 'hh-squid-1952', block: { gNa: 0.3 }, drives_uA_cm2: [20] }),
+    );
     expect(code).toBe(0);
     expect(JSON.parse(stdout).rheobase_uA_cm2).toBeGreaterThan(2.25);
   });
@@ -48,28 +59,46 @@ describe('forecast CLI', () => {
   // Several faults in one file are all reported, one line each.
   test.each([
     ['not JSON', '{"preset": "hh-squid-1952",', ['is not valid JSON']],
-    ['unknown preset', '{"preset":"frog-heart"}', ['preset: preset must be one of: hh-squid-1952, pospischil-rs-2008']],
+    [
+      'unknown preset',
+      '{"preset":"frog-heart"}',
+      ['preset: preset must be one of: hh-squid-1952, pospischil-rs-2008'],
+    ],
     [
       'unknown or unblockable conductance',
       '{"preset":"hh-squid-1952","block":{"gM":0.5,"gL":0.5}}',
-      ['block.gM: unknown conductance "gM" for preset hh-squid-1952 (blockable: gNa, gK)', 'block.gL: conductance "gL" of preset hh-squid-1952 cannot be blocked'],
+      [
+        'block.gM: unknown conductance "gM" for preset hh-squid-1952 (blockable: gNa, gK)',
+        'block.gL: conductance "gL" of preset hh-squid-1952 cannot be blocked',
+      ],
     ],
     [
       'fraction outside 0–1 or not a number',
       '{"preset":"hh-squid-1952","block":{"gNa":1.5,"gK":-0.2}}',
-      ['block.gNa: block fraction must be between 0 and 1', 'block.gK: block fraction must be between 0 and 1'],
+      [
+        'block.gNa: block fraction must be between 0 and 1',
+        'block.gK: block fraction must be between 0 and 1',
+      ],
     ],
     [
       'bad numbers',
       '{"preset":"pospischil-rs-2008","block":{"gM":"half"},"stepMs":"500","drives_uA_cm2":[10,null]}',
-      ['block.gM: block fraction must be a number', 'stepMs: stepMs must be a number (ms)', 'drives_uA_cm2[1]: each drive must be a number (µA/cm²)'],
+      [
+        'block.gM: block fraction must be a number',
+        'stepMs: stepMs must be a number (ms)',
+        'drives_uA_cm2[1]: each drive must be a number (µA/cm²)',
+      ],
     ],
     [
       'numbers out of range',
       '{"preset":"hh-squid-1952","stepMs":-500,"drives_uA_cm2":10}',
       ['stepMs: stepMs must be at least 10 ms', 'drives_uA_cm2: drives_uA_cm2 must be a list of numbers'],
     ],
-    ['extra field', '{"preset":"hh-squid-1952","temperature":37}', ['(top level): Unrecognized key: "temperature"']],
+    [
+      'extra field',
+      '{"preset":"hh-squid-1952","temperature":37}',
+      ['(top level): Unrecognized key: "temperature"'],
+    ],
     ['not an object', '[1, 2]', ['(top level): the input must be a JSON object']],
   ])('%s: exit 1 and the fault named', (_label, content, messages) => {
     const { code, stdout, stderr } = run(content);

@@ -1,7 +1,13 @@
 // The worker-thread pool gives exactly the in-thread forecast, and caches results.
 import { afterAll, beforeEach, expect, test } from 'vitest';
 import { computeForecast } from '@/lib/science/forecast/forecast';
-import { clearForecastCache, closeForecastPool, FORECAST_WORKER_FILE, forecastPoolStats, runForecast } from '@/lib/compute/forecast-pool';
+import {
+  clearForecastCache,
+  closeForecastPool,
+  FORECAST_WORKER_FILE,
+  forecastPoolStats,
+  runForecast,
+} from '@/lib/compute/forecast-pool';
 import { ForecastRequestError } from '@/lib/science/forecast/request-schema';
 
 afterAll(closeForecastPool);
@@ -48,5 +54,7 @@ test('simultaneous identical forecasts share the work', async () => {
 });
 
 test('an invalid request is refused before any work', async () => {
-  await expect(runForecast({ preset: 'hh-squid-1952', block: { gM: 0.2 } })).rejects.toBeInstanceOf(ForecastRequestError);
+  await expect(runForecast({ preset: 'hh-squid-1952', block: { gM: 0.2 } })).rejects.toBeInstanceOf(
+    ForecastRequestError,
+  );
 });

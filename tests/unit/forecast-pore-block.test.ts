@@ -8,7 +8,12 @@ import { parseForecastRequest } from '@/lib/science/forecast/request-schema';
 
 describe('poreBlockFraction', () => {
   // Worked values from pore-block-mirams-2011.json, at this test's own IC50 (and slope, where any slope holds).
-  const ic50ByCase: Record<string, number> = { 'C = IC50': 3, 'h = 1, C = 10·IC50': 1, 'h = 2, C = IC50/3': 1, 'C = 0': 1 };
+  const ic50ByCase: Record<string, number> = {
+    'C = IC50': 3,
+    'h = 1, C = 10·IC50': 1,
+    'h = 2, C = IC50/3': 1,
+    'C = 0': 1,
+  };
   test.each(
     poreBlock.workedValues.map((w) => {
       const ic50 = ic50ByCase[w.case]!;

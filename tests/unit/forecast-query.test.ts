@@ -9,7 +9,10 @@ describe('plate forecast query', () => {
     [{}, {}],
     [{ at: '' }, {}],
     [{ at: '2' }, { at: 2 }],
-    [{ compoundId: '6f1c9a52-8a43-4d5e-9b7e-2f0d7c1e4a10', at: '0' }, { compoundId: '6f1c9a52-8a43-4d5e-9b7e-2f0d7c1e4a10', at: 0 }],
+    [
+      { compoundId: '6f1c9a52-8a43-4d5e-9b7e-2f0d7c1e4a10', at: '0' },
+      { compoundId: '6f1c9a52-8a43-4d5e-9b7e-2f0d7c1e4a10', at: 0 },
+    ],
   ])('accepts %j', (query, parsed) => {
     expect(plateForecastQuerySchema.parse(query)).toEqual(parsed);
   });
@@ -25,5 +28,7 @@ describe('plate forecast query', () => {
 });
 
 test('compound forecast query refuses a screen that is not an id', () => {
-  expect(compoundForecastQuerySchema.safeParse({ screenId: 'Pain' }).error!.issues[0]!.message).toBe('screenId must be the id of a screen the compound was tested in.');
+  expect(compoundForecastQuerySchema.safeParse({ screenId: 'Pain' }).error!.issues[0]!.message).toBe(
+    'screenId must be the id of a screen the compound was tested in.',
+  );
 });

@@ -26,8 +26,10 @@ describe('confidence band of a Hill fit', () => {
     // so Var f = (n·ln10/4)²·Var(log10 IC50). t from jStat; worked by hand (no outside source).
     const [point] = hillBand('hill2', e.parameters, e.covariance, e.degreesOfFreedom, [e.ic50_uM]);
     // t₀.₉₇₅ with 6 degrees of freedom (student-t-quantiles.json; standard t tables: 2.447).
-    const t = tQuantiles.quantiles.find((q) => q.probability === 0.975 && q.degreesOfFreedom === e.degreesOfFreedom)!.t;
-    const expected = t * e.log10Ic50Se! * (e.hillSlope * Math.LN10) / 4;
+    const t = tQuantiles.quantiles.find(
+      (q) => q.probability === 0.975 && q.degreesOfFreedom === e.degreesOfFreedom,
+    )!.t;
+    const expected = (t * e.log10Ic50Se! * (e.hillSlope * Math.LN10)) / 4;
     expect(point!.high! - point!.block).toBeCloseTo(expected, 8);
   });
 

@@ -1,6 +1,11 @@
 import { describe, expect, test } from 'vitest';
 import { z } from 'zod';
-import { commitFieldsSchema, commitFileFieldsSchema, draftSheetsSchema, previewFieldsSchema } from '@/lib/validation/imports';
+import {
+  commitFieldsSchema,
+  commitFileFieldsSchema,
+  draftSheetsSchema,
+  previewFieldsSchema,
+} from '@/lib/validation/imports';
 
 // The fields of the import steps after inspect name a draft, not a file (issue 17); the messages are the
 // ones people and scripts read.
@@ -12,17 +17,26 @@ describe('preview and commit fields', () => {
   test('a preview without a draft id asks for the one inspect answered', () => {
     const parsed = previewFieldsSchema.safeParse({ sheet: 'Plate', mapping });
     expect(parsed.success).toBe(false);
-    expect(fieldErrors(parsed.error!).draftId).toEqual(['Read the file first: send the draftId that inspect answered.']);
+    expect(fieldErrors(parsed.error!).draftId).toEqual([
+      'Read the file first: send the draftId that inspect answered.',
+    ]);
   });
 
   test('a commit of a draft needs no screen; a commit of a file needs the screen and no draft', () => {
-    expect(commitFieldsSchema.parse({ draftId, sheet: 'Plate', mapping, label: ' P-1 ', format: '384' })).toMatchObject({ draftId, label: 'P-1', format: 384 });
-    expect(commitFileFieldsSchema.parse({ screenId: draftId, sheet: 'Plate', mapping, label: 'P-1' })).not.toHaveProperty('draftId');
-    expect(fieldErrors(commitFileFieldsSchema.safeParse({ sheet: 'Plate', mapping, label: 'P-1' }).error!).screenId).toEqual(['Choose a screen.']);
+    expect(
+      commitFieldsSchema.parse({ draftId, sheet: 'Plate', mapping, label: ' P-1 ', format: '384' }),
+    ).toMatchObject({ draftId, label: 'P-1', format: 384 });
+    expect(
+      commitFileFieldsSchema.parse({ screenId: draftId, sheet: 'Plate', mapping, label: 'P-1' }),
+    ).not.toHaveProperty('draftId');
+    expect(
+      fieldErrors(commitFileFieldsSchema.safeParse({ sheet: 'Plate', mapping, label: 'P-1' }).error!)
+        .screenId,
+    ).toEqual(['Choose a screen.']);
   });
 });
 
-describe('a draft\'s sheets read back from the database', () => {
+describe("a draft's sheets read back from the database", () => {
   test.each([
     ['text, numbers, booleans and blanks', [['Well', 1.5, true, null]], true],
     ['an object in a cell', [['Well', { formula: '1+1' }]], false],

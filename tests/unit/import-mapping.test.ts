@@ -2,7 +2,11 @@ import { describe, expect, test } from 'vitest';
 import { findHeaderRow, guessMapping } from '@/lib/imports/guess-mapping';
 import { splitHeaderUnit } from '@/lib/imports/header-unit';
 import type { ImportField } from '@/lib/imports/import-fields';
-import { columnMappingDraftSchema, columnMappingSchema, importTemplateSchema } from '@/lib/imports/mapping-schema';
+import {
+  columnMappingDraftSchema,
+  columnMappingSchema,
+  importTemplateSchema,
+} from '@/lib/imports/mapping-schema';
 import type { SheetData } from '@/lib/imports/spreadsheet-types';
 import type { Unit } from '@/lib/imports/units';
 import { layOutExport } from '@/scripts/demo-plates/export-layouts';
@@ -49,7 +53,12 @@ describe('header guessing', () => {
   });
 
   test('finds the header row below title rows and keeps unmatched headers for the person', () => {
-    const rows = [['Run 7 export'], [], ['Well', 'Compound', 'Conc (nM)', 'Operator notes'], ['A01', 'GW-0001', 10, 'ok']];
+    const rows = [
+      ['Run 7 export'],
+      [],
+      ['Well', 'Compound', 'Conc (nM)', 'Operator notes'],
+      ['A01', 'GW-0001', 10, 'ok'],
+    ];
     expect(findHeaderRow(rows)).toBe(3);
     const guess = guessMapping(sheetOf(rows));
     expect(guess.mapping.headerRow).toBe(3);
@@ -58,55 +67,110 @@ describe('header guessing', () => {
   });
 
   test('a base mapping supplies a fixed target and markers', () => {
-    const guess = guessMapping(sheetOf([['Well', 'Compound', 'Conc', 'I control', 'I compound']]), { base: { fixedTarget: 'Nav1.7', markers: { vehicle: ['BUFFER'] } } });
+    const guess = guessMapping(sheetOf([['Well', 'Compound', 'Conc', 'I control', 'I compound']]), {
+      base: { fixedTarget: 'Nav1.7', markers: { vehicle: ['BUFFER'] } },
+    });
     expect(guess.missingFields).toEqual([]);
     expect(guess.mapping.markers.vehicle).toEqual(['BUFFER']);
     expect(guess.mapping.markers.reference).toContain('REF');
   });
 
   // The generated demo exports are the real test of guessing: three layouts, units in headers or in a column.
-  test.each(PLATE_PLANS.map((plan) => [plan.file, plan] as const))('guesses every field of %s', (_file, plan) => {
-    const exported = layOutExport(plan, simulatePlate(plan));
-    const sheet = exported.sheets.find((s) => s.name === exported.dataSheet)!;
-    const guess = guessMapping({ ...sheet, decimalComma: false });
-    expect(guess.mapping.headerRow).toBe(exported.headerRow);
-    expect(guess.missingFields).toEqual([]);
-    expect(guess.unmatchedHeaders).toEqual([]);
-    expect(columnMappingSchema.safeParse(guess.mapping).success).toBe(true);
-  });
+  test.each(PLATE_PLANS.map((plan) => [plan.file, plan] as const))(
+    'guesses every field of %s',
+    (_file, plan) => {
+      const exported = layOutExport(plan, simulatePlate(plan));
+      const sheet = exported.sheets.find((s) => s.name === exported.dataSheet)!;
+      const guess = guessMapping({ ...sheet, decimalComma: false });
+      expect(guess.mapping.headerRow).toBe(exported.headerRow);
+      expect(guess.missingFields).toEqual([]);
+      expect(guess.unmatchedHeaders).toEqual([]);
+      expect(columnMappingSchema.safeParse(guess.mapping).success).toBe(true);
+    },
+  );
 
   test('units of the demo layouts come from their headers', () => {
     const units = PLATE_PLANS.slice(0, 3).map((plan) => {
       const exported = layOutExport(plan, simulatePlate(plan));
-      return guessMapping({ ...exported.sheets.find((s) => s.name === exported.dataSheet)!, decimalComma: false }).mapping.units;
+      return guessMapping({
+        ...exported.sheets.find((s) => s.name === exported.dataSheet)!,
+        decimalComma: false,
+      }).mapping.units;
     });
-    expect(units[0]).toEqual({ concentration: 'nM', controlCurrent: 'pA', compoundCurrent: 'pA', sealResistance: 'GOhm', seriesResistance: 'MOhm', capacitance: 'pF' });
-    expect(units[1]).toEqual({ concentration: 'uM', controlCurrent: 'nA', compoundCurrent: 'nA', sealResistance: 'MOhm', seriesResistance: 'MOhm', capacitance: 'pF' });
-    expect(units[2]).toEqual({ concentration: 'uM', controlCurrent: 'pA', compoundCurrent: 'pA', sealResistance: 'GOhm', seriesResistance: 'MOhm', capacitance: 'pF' });
+    expect(units[0]).toEqual({
+      concentration: 'nM',
+      controlCurrent: 'pA',
+      compoundCurrent: 'pA',
+      sealResistance: 'GOhm',
+      seriesResistance: 'MOhm',
+      capacitance: 'pF',
+    });
+    expect(units[1]).toEqual({
+      concentration: 'uM',
+      controlCurrent: 'nA',
+      compoundCurrent: 'nA',
+      sealResistance: 'MOhm',
+      seriesResistance: 'MOhm',
+      capacitance: 'pF',
+    });
+    expect(units[2]).toEqual({
+      concentration: 'uM',
+      controlCurrent: 'pA',
+      compoundCurrent: 'pA',
+      sealResistance: 'GOhm',
+      seriesResistance: 'MOhm',
+      capacitance: 'pF',
+    });
   });
 });
 
 describe('mapping schema', () => {
   const complete = {
-    columns: { well: 'Well', compound: 'Compound', concentration: 'Conc (nM)', target: 'Target', controlCurrent: 'I control', compoundCurrent: 'I compound' },
+    columns: {
+      well: 'Well',
+      compound: 'Compound',
+      concentration: 'Conc (nM)',
+      target: 'Target',
+      controlCurrent: 'I control',
+      compoundCurrent: 'I compound',
+    },
     units: { concentration: 'nM' },
   };
 
   test('defaults fill an empty draft and the mapping survives a JSON round trip', () => {
     const mapping = columnMappingDraftSchema.parse(complete);
-    expect(mapping.units).toEqual({ concentration: 'nM', controlCurrent: 'pA', compoundCurrent: 'pA', sealResistance: 'GOhm', seriesResistance: 'MOhm', capacitance: 'pF' });
+    expect(mapping.units).toEqual({
+      concentration: 'nM',
+      controlCurrent: 'pA',
+      compoundCurrent: 'pA',
+      sealResistance: 'GOhm',
+      seriesResistance: 'MOhm',
+      capacitance: 'pF',
+    });
     expect(mapping.markers.vehicle).toEqual(['VEH', 'VEHICLE', 'DMSO', 'NEG', 'NEGATIVE']);
     expect(columnMappingSchema.parse(JSON.parse(JSON.stringify(mapping)))).toEqual(mapping);
   });
 
   test.each<[string, object, Record<string, string[]>]>([
-    ['no well column', { ...complete, columns: { ...complete.columns, well: null } }, { 'columns.well': ['Choose the column that holds the well position.'] }],
+    [
+      'no well column',
+      { ...complete, columns: { ...complete.columns, well: null } },
+      { 'columns.well': ['Choose the column that holds the well position.'] },
+    ],
     [
       'no target at all',
       { ...complete, columns: { ...complete.columns, target: null } },
-      { 'columns.target': ['Choose the column that holds the target, or name one target for the whole sheet.'] },
+      {
+        'columns.target': [
+          'Choose the column that holds the target, or name one target for the whole sheet.',
+        ],
+      },
     ],
-    ['a target column and a fixed target', { ...complete, fixedTarget: 'Nav1.7' }, { fixedTarget: ['Choose a target column or one target for the whole sheet, not both.'] }],
+    [
+      'a target column and a fixed target',
+      { ...complete, fixedTarget: 'Nav1.7' },
+      { fixedTarget: ['Choose a target column or one target for the whole sheet, not both.'] },
+    ],
     [
       'one column for two fields',
       { ...complete, columns: { ...complete.columns, role: 'compound' } },
@@ -125,7 +189,9 @@ describe('mapping schema', () => {
   });
 
   test('a template needs a name and a complete mapping', () => {
-    expect(importTemplateSchema.parse({ name: ' Rig A export ', mapping: complete }).name).toBe('Rig A export');
+    expect(importTemplateSchema.parse({ name: ' Rig A export ', mapping: complete }).name).toBe(
+      'Rig A export',
+    );
     const result = importTemplateSchema.safeParse({ name: '', mapping: complete });
     expect(result.error?.issues.map((issue) => issue.message)).toEqual(['Give the template a name.']);
   });

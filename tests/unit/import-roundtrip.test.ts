@@ -9,7 +9,10 @@ import { makeDemoPlate } from '@/scripts/demo-plates/make-demo-plate';
 import { PLATE_PLANS } from '@/scripts/demo-plates/plate-plans';
 
 const DATA = path.join(process.cwd(), 'seeders', 'data', 'demo-plates');
-const OPTIONS = { knownCompounds: DEMO_COMPOUNDS.map((c) => c.identifier), knownTargets: Object.keys(DEMO_TARGETS) };
+const OPTIONS = {
+  knownCompounds: DEMO_COMPOUNDS.map((c) => c.identifier),
+  knownTargets: Object.keys(DEMO_TARGETS),
+};
 
 // Generate → write → parse in the worker → guess the mapping → validate: every well comes back with the generator's values.
 describe.each(PLATE_PLANS.map((plan) => [plan.file, plan] as const))('demo plate %s', (file, plan) => {
@@ -23,7 +26,11 @@ describe.each(PLATE_PLANS.map((plan) => [plan.file, plan] as const))('demo plate
     const preview = validatePlateSheet(sheet!, guessMapping(sheet!).mapping, OPTIONS);
     expect(preview.issues).toEqual([]);
     expect(preview.ok).toBe(true);
-    expect(preview.plate).toMatchObject({ format: plan.format, formatSource: 'inferred', targets: [plan.target] });
+    expect(preview.plate).toMatchObject({
+      format: plan.format,
+      formatSource: 'inferred',
+      targets: [plan.target],
+    });
     expect(preview.plate?.wells).toEqual(
       demo.wells.map((well) => ({
         position: well.position,
@@ -35,7 +42,14 @@ describe.each(PLATE_PLANS.map((plan) => [plan.file, plan] as const))('demo plate
         sealResistance_GOhm: well.sealResistance_GOhm,
         seriesResistance_MOhm: well.seriesResistance_MOhm,
         capacitance_pF: well.capacitance_pF,
-        readouts: [{ target: well.target, controlCurrent_pA: well.controlCurrent_pA, compoundCurrent_pA: well.compoundCurrent_pA, row: expect.any(Number) }],
+        readouts: [
+          {
+            target: well.target,
+            controlCurrent_pA: well.controlCurrent_pA,
+            compoundCurrent_pA: well.compoundCurrent_pA,
+            row: expect.any(Number),
+          },
+        ],
       })),
     );
   });
@@ -43,12 +57,20 @@ describe.each(PLATE_PLANS.map((plan) => [plan.file, plan] as const))('demo plate
   test('has vehicle, reference and the planned failing wells', () => {
     const roles = new Set(demo.wells.map((well) => well.role));
     expect(roles).toEqual(new Set(['vehicle', 'reference', 'test']));
-    expect(demo.wells.filter((well) => well.failure).map((well) => well.position).sort()).toEqual(plan.failures.map((f) => f.well).sort());
+    expect(
+      demo.wells
+        .filter((well) => well.failure)
+        .map((well) => well.position)
+        .sort(),
+    ).toEqual(plan.failures.map((f) => f.well).sort());
     expect(demo.manifest.truth.map((t) => t.compound)).toEqual(plan.compounds);
   });
 
   test('the committed file and manifest match the generator', () => {
-    expect(Buffer.compare(readFileSync(path.join(DATA, file)), demo.bytes), 'regenerate with npx tsx scripts/make-demo-plates.ts').toBe(0);
+    expect(
+      Buffer.compare(readFileSync(path.join(DATA, file)), demo.bytes),
+      'regenerate with npx tsx scripts/make-demo-plates.ts',
+    ).toBe(0);
     expect(JSON.parse(readFileSync(path.join(DATA, `${file}.manifest.json`), 'utf8'))).toEqual(demo.manifest);
   });
 });

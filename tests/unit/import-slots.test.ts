@@ -46,11 +46,12 @@ describe('import slots', () => {
     const running: number[] = [];
     let now = 0;
     const hold = gate();
-    const work = () => withImportSlot(async () => {
-      running.push(++now);
-      await hold.opened;
-      now -= 1;
-    });
+    const work = () =>
+      withImportSlot(async () => {
+        running.push(++now);
+        await hold.opened;
+        now -= 1;
+      });
     const all = [work(), work(), work()];
     await tick();
     expect(running).toEqual([1, 2]);
@@ -63,7 +64,15 @@ describe('import slots', () => {
     const hold = gate();
     const queued = Array.from({ length: IMPORT_QUEUE_LIMIT + 1 }, () => withImportSlot(() => hold.opened));
     let ran = false;
-    await expect(withImportSlot(async () => { ran = true; })).rejects.toMatchObject({ code: 'unavailable', status: 503, message: expect.stringMatching(/nothing was changed/) });
+    await expect(
+      withImportSlot(async () => {
+        ran = true;
+      }),
+    ).rejects.toMatchObject({
+      code: 'unavailable',
+      status: 503,
+      message: expect.stringMatching(/nothing was changed/),
+    });
     expect(ran).toBe(false);
     hold.open();
     await Promise.all(queued);

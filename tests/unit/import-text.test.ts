@@ -34,7 +34,9 @@ describe('firstInvalidUtf8', () => {
       let i = 0;
       while (i < bytes.length) {
         const at = i;
-        const row = rows.find((r) => r.every(([lo, hi], k) => at + k < bytes.length && bytes[at + k]! >= lo && bytes[at + k]! <= hi));
+        const row = rows.find((r) =>
+          r.every(([lo, hi], k) => at + k < bytes.length && bytes[at + k]! >= lo && bytes[at + k]! <= hi),
+        );
         if (!row) return i;
         i += row.length;
       }
@@ -47,7 +49,12 @@ describe('firstInvalidUtf8', () => {
 describe('decodeText', () => {
   test('drops a UTF-8 byte-order mark and reports where bad bytes are, counting lines', () => {
     expect(decodeText(new Uint8Array([0xef, 0xbb, 0xbf, 0x41]))).toEqual({ ok: true, text: 'A' });
-    expect(decodeText(new Uint8Array([0xef, 0xbb, 0xbf, 0x41, 0x0a, 0x42, 0xff]))).toEqual({ ok: false, offset: 6, line: 2, byte: 0xff });
+    expect(decodeText(new Uint8Array([0xef, 0xbb, 0xbf, 0x41, 0x0a, 0x42, 0xff]))).toEqual({
+      ok: false,
+      offset: 6,
+      line: 2,
+      byte: 0xff,
+    });
   });
 });
 
@@ -55,10 +62,25 @@ describe('sniffUpload', () => {
   const bytes = (...values: number[]) => new Uint8Array(values);
   test.each<[string, Uint8Array, string, string]>([
     ['a ZIP is an xlsx workbook', bytes(0x50, 0x4b, 0x03, 0x04, 0), 'plate.csv', 'workbook'],
-    ['a compound file is an xls workbook', bytes(0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1), 'plate.xlsx', 'workbook'],
+    [
+      'a compound file is an xls workbook',
+      bytes(0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1),
+      'plate.xlsx',
+      'workbook',
+    ],
     ['a PDF is refused', bytes(0x25, 0x50, 0x44, 0x46, 0x2d), 'plate.xlsx', 'refused'],
-    ['text with commas is delimited text, whatever its name', new TextEncoder().encode('Well,Conc\n'), 'plate.xlsx', 'delimited'],
-    ['a table page named .xls is markup', new TextEncoder().encode('<table><tr><td>Well</td></tr></table>'), 'plate.xls', 'markup'],
+    [
+      'text with commas is delimited text, whatever its name',
+      new TextEncoder().encode('Well,Conc\n'),
+      'plate.xlsx',
+      'delimited',
+    ],
+    [
+      'a table page named .xls is markup',
+      new TextEncoder().encode('<table><tr><td>Well</td></tr></table>'),
+      'plate.xls',
+      'markup',
+    ],
   ])('%s', (_name, input, filename, kind) => {
     expect(sniffUpload(input, filename).kind).toBe(kind);
   });

@@ -29,8 +29,26 @@ describe('toCanonical', () => {
 
   test('the expected values above follow from the SI prefixes', () => {
     // Canonical units: µM, pA, GΩ (seal), MΩ (series), pF. Each unit's prefix, and each kind's canonical prefix.
-    const prefix: Record<Unit, keyof typeof si.prefixFactors> = { pM: 'p', nM: 'n', uM: 'µ', mM: 'm', M: '', pA: 'p', nA: 'n', MOhm: 'M', GOhm: 'G', pF: 'p', nF: 'n' };
-    const canonical: Record<QuantityKind, keyof typeof si.prefixFactors> = { concentration: 'µ', current: 'p', sealResistance: 'G', seriesResistance: 'M', capacitance: 'p' };
+    const prefix: Record<Unit, keyof typeof si.prefixFactors> = {
+      pM: 'p',
+      nM: 'n',
+      uM: 'µ',
+      mM: 'm',
+      M: '',
+      pA: 'p',
+      nA: 'n',
+      MOhm: 'M',
+      GOhm: 'G',
+      pF: 'p',
+      nF: 'n',
+    };
+    const canonical: Record<QuantityKind, keyof typeof si.prefixFactors> = {
+      concentration: 'µ',
+      current: 'p',
+      sealResistance: 'G',
+      seriesResistance: 'M',
+      capacitance: 'p',
+    };
     for (const [value, unit, kind, expected] of cases) {
       const fromPrefixes = (value * si.prefixFactors[prefix[unit]]) / si.prefixFactors[canonical[kind]];
       expect(Math.abs(expected - fromPrefixes)).toBeLessThanOrEqual(1e-12 * Math.abs(expected));

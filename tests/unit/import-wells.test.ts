@@ -1,6 +1,12 @@
 import { describe, expect, test } from 'vitest';
 import type { PlateFormat } from '@/lib/domain/plate-formats';
-import { describeFormat, fitsFormat, inferPlateFormat, parseWellPosition, wellLabel } from '@/lib/imports/plate-format';
+import {
+  describeFormat,
+  fitsFormat,
+  inferPlateFormat,
+  parseWellPosition,
+  wellLabel,
+} from '@/lib/imports/plate-format';
 import { columnLetter } from '@/lib/imports/normalise-text';
 
 describe('parseWellPosition', () => {
@@ -18,9 +24,12 @@ describe('parseWellPosition', () => {
     expect(parseWellPosition(text)).toEqual({ rowIndex, columnIndex, label });
   });
 
-  test.each(['', '1', '17', 'A', 'A0', 'A00', '1A', 'ABC1', 'A1B', 'well 3'])('%j is not a well position', (text) => {
-    expect(parseWellPosition(text)).toBeNull();
-  });
+  test.each(['', '1', '17', 'A', 'A0', 'A00', '1A', 'ABC1', 'A1B', 'well 3'])(
+    '%j is not a well position',
+    (text) => {
+      expect(parseWellPosition(text)).toBeNull();
+    },
+  );
 
   test('A1, A01 and a01 are the same well', () => {
     const labels = ['A1', 'A01', 'a01', 'a1'].map((text) => parseWellPosition(text)?.label);

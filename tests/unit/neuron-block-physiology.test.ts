@@ -10,27 +10,38 @@ import { getPreset } from '@/lib/science/neuron/presets';
 import { findRest } from '@/lib/science/neuron/rest';
 
 function measure(preset: string, scale: Record<string, number>, drives: number[] = []): Excitability {
-  return measureExcitability(compileModel(getPreset(preset), scale), { drives_uA_cm2: drives, referenceDriveFactor: 2 });
+  return measureExcitability(compileModel(getPreset(preset), scale), {
+    drives_uA_cm2: drives,
+    referenceDriveFactor: 2,
+  });
 }
 
 /** Width (ms) of the first spike at 0 mV for a step of `drive` from rest. */
 function spikeWidth(preset: string, scale: Record<string, number>, drive: number): number {
   const model = compileModel(getPreset(preset), scale);
   const dt = 0.025;
-  const trace = simulate(model, findRest(model).start, { current_uA_cm2: drive, duration_ms: 200, record: true }, { dt_ms: dt }).trace!;
+  const trace = simulate(
+    model,
+    findRest(model).start,
+    { current_uA_cm2: drive, duration_ms: 200, record: true },
+    { dt_ms: dt },
+  ).trace!;
   const up = trace.findIndex((v) => v >= 0);
   const down = trace.findIndex((v, i) => i > up && v < 0);
   return (down - up) * dt;
 }
 
 describe('sodium block (gNa) makes the cell harder to fire', () => {
-  test.each(['hh-squid-1952', 'pospischil-rs-2008'])('%s: rheobase rises and threshold depolarises with block', (preset) => {
-    const levels = [0, 0.2, 0.5].map((b) => measure(preset, { gNa: 1 - b }));
-    for (let i = 1; i < levels.length; i++) {
-      expect(levels[i]!.rheobase_uA_cm2!).toBeGreaterThan(levels[i - 1]!.rheobase_uA_cm2!);
-      expect(levels[i]!.threshold_mV!).toBeGreaterThan(levels[i - 1]!.threshold_mV!);
-    }
-  });
+  test.each(['hh-squid-1952', 'pospischil-rs-2008'])(
+    '%s: rheobase rises and threshold depolarises with block',
+    (preset) => {
+      const levels = [0, 0.2, 0.5].map((b) => measure(preset, { gNa: 1 - b }));
+      for (let i = 1; i < levels.length; i++) {
+        expect(levels[i]!.rheobase_uA_cm2!).toBeGreaterThan(levels[i - 1]!.rheobase_uA_cm2!);
+        expect(levels[i]!.threshold_mV!).toBeGreaterThan(levels[i - 1]!.threshold_mV!);
+      }
+    },
+  );
 
   test('HH: the rate at a fixed drive falls, and full block abolishes firing at the reference drive', () => {
     const control = measure('hh-squid-1952', {}, [20]);
@@ -48,9 +59,10 @@ describe('sodium block (gNa) makes the cell harder to fire', () => {
   // (Gatewell's own computation, not a source value); 70 % still fires tonically.
   test('RS: 90 % block at the control’s reference drive fires at onset, then stops below threshold', () => {
     const control = measure('pospischil-rs-2008', {});
-    const at = (block: number) => measureExcitability(compileModel(getPreset('pospischil-rs-2008'), { gNa: 1 - block }), {
-      referenceDrive_uA_cm2: control.referenceDrive_uA_cm2!,
-    });
+    const at = (block: number) =>
+      measureExcitability(compileModel(getPreset('pospischil-rs-2008'), { gNa: 1 - block }), {
+        referenceDrive_uA_cm2: control.referenceDrive_uA_cm2!,
+      });
     const phasic = at(0.9);
     expect(phasic.reference!.spikes).toBeGreaterThan(0);
     expect(phasic.reference!.lateSpikes).toBe(0);
@@ -77,7 +89,9 @@ describe('delayed-rectifier block (gK)', () => {
   });
 
   test('RS: spikes broaden (slower repolarisation), and near-complete block ends in depolarisation block', () => {
-    expect(spikeWidth('pospischil-rs-2008', { gK: 0.5 }, 4)).toBeGreaterThan(spikeWidth('pospischil-rs-2008', {}, 4));
+    expect(spikeWidth('pospischil-rs-2008', { gK: 0.5 }, 4)).toBeGreaterThan(
+      spikeWidth('pospischil-rs-2008', {}, 4),
+    );
     const control = measure('pospischil-rs-2008', {});
     const blocked = measureExcitability(compileModel(getPreset('pospischil-rs-2008'), { gK: 0.01 }), {
       referenceDrive_uA_cm2: control.referenceDrive_uA_cm2!,
@@ -98,7 +112,10 @@ describe('M-current block (gM) removes spike-frequency adaptation (Pospischil et
   test('the control adapts (last interval longer than the first); without gM it barely does', () => {
     const adaptation = (scale: Record<string, number>) => {
       const model = compileModel(getPreset('pospischil-rs-2008'), scale);
-      const s = simulate(model, findRest(model).start, { current_uA_cm2: 4, duration_ms: 1000 }).spikeTimes_ms;
+      const s = simulate(model, findRest(model).start, {
+        current_uA_cm2: 4,
+        duration_ms: 1000,
+      }).spikeTimes_ms;
       return (s[s.length - 1]! - s[s.length - 2]!) / (s[1]! - s[0]!);
     };
     expect(adaptation({})).toBeGreaterThan(1.5);
@@ -118,5 +135,7 @@ test('HH at 200 µA/cm² sits in depolarisation block; at the reference drive (2
   expect(reference.reference!.spikes).toBeGreaterThan(0);
   expect(reference.flags).toEqual(['firing-stops']);
   // Above the repetitive-firing onset the same axon fires through the step: no flag.
-  expect(measureExcitability(compileModel(getPreset('hh-squid-1952'), {}), { referenceDrive_uA_cm2: 10 }).flags).toEqual([]);
+  expect(
+    measureExcitability(compileModel(getPreset('hh-squid-1952'), {}), { referenceDrive_uA_cm2: 10 }).flags,
+  ).toEqual([]);
 });

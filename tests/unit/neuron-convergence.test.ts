@@ -42,7 +42,12 @@ test('the scheme is second order: the period error falls fourfold per halving (H
   const start = findRest(model).start;
   const period = (dt: number) => {
     const warm = simulate(model, start, { current_uA_cm2: 8, duration_ms: 300 }, { dt_ms: dt }).end;
-    const s = simulate(model, warm, { current_uA_cm2: 8, duration_ms: 1000 }, { dt_ms: dt }).spikeTimes_ms.filter((t) => t > 200);
+    const s = simulate(
+      model,
+      warm,
+      { current_uA_cm2: 8, duration_ms: 1000 },
+      { dt_ms: dt },
+    ).spikeTimes_ms.filter((t) => t > 200);
     return (s[s.length - 1]! - s[0]!) / (s.length - 1);
   };
   const [p1, p2, p3] = [0.05, 0.025, 0.0125].map(period) as [number, number, number];
@@ -66,18 +71,21 @@ test('tabulated rates agree with rates evaluated at every step', () => {
 });
 
 describe('rheobase search', () => {
-  test.each(['hh-squid-1952', 'pospischil-rs-2008'])('%s: the coarse-then-confirm search brackets the same rheobase as a search at dt alone', (preset) => {
-    const model = compileModel(getPreset(preset));
-    const start = findRest(model).start;
-    const direct = findRheobase(model, start, { coarseDtFactor: 1 });
-    const staged = findRheobase(model, start, { coarseDtFactor: 4 });
-    const [lo1, hi1] = direct.bracket!;
-    const [lo4, hi4] = staged.bracket!;
-    // Both brackets are at dt, within 0.1 %, and hold the rheobase at dt: they must overlap.
-    expect(hi4 - lo4).toBeLessThanOrEqual(1e-3 * hi4);
-    expect(Math.max(lo1, lo4)).toBeLessThan(Math.min(hi1, hi4));
-    expect(staged.steps).toBeLessThanOrEqual(direct.steps + 4);
-  });
+  test.each(['hh-squid-1952', 'pospischil-rs-2008'])(
+    '%s: the coarse-then-confirm search brackets the same rheobase as a search at dt alone',
+    (preset) => {
+      const model = compileModel(getPreset(preset));
+      const start = findRest(model).start;
+      const direct = findRheobase(model, start, { coarseDtFactor: 1 });
+      const staged = findRheobase(model, start, { coarseDtFactor: 4 });
+      const [lo1, hi1] = direct.bracket!;
+      const [lo4, hi4] = staged.bracket!;
+      // Both brackets are at dt, within 0.1 %, and hold the rheobase at dt: they must overlap.
+      expect(hi4 - lo4).toBeLessThanOrEqual(1e-3 * hi4);
+      expect(Math.max(lo1, lo4)).toBeLessThan(Math.min(hi1, hi4));
+      expect(staged.steps).toBeLessThanOrEqual(direct.steps + 4);
+    },
+  );
 
   test('no spike up to the ceiling gives no rheobase', () => {
     const model = compileModel(getPreset('hh-squid-1952'), { gNa: 0 });

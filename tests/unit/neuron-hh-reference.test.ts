@@ -58,10 +58,13 @@ describe('firing from rest (step at t = 0, spike = upward crossing of 0 mV)', ()
   // "About 68.3 Hz at 10 µA/cm² and 86.5 Hz at 20 µA/cm²", widely reproduced numerical values given to
   // 0.1 Hz (hodgkin-huxley-1952-numerical.json). Reproductions differ in window and integrator; we accept
   // ±0.1 Hz (0.15 %) at the default step. Halving dt moves our rates by under 0.05 % (neuron-convergence.test.ts).
-  test.each(numerical.ratesFromRest_Hz.map((r) => [r.drive_uA_cm2, r.rate_Hz] as const))('rate at %s µA/cm² is about %s Hz', (drive, published) => {
-    const r = firingRate(model, rest.start, drive);
-    expect(Math.abs(r.rate_Hz - published)).toBeLessThanOrEqual(0.1);
-  });
+  test.each(numerical.ratesFromRest_Hz.map((r) => [r.drive_uA_cm2, r.rate_Hz] as const))(
+    'rate at %s µA/cm² is about %s Hz',
+    (drive, published) => {
+      const r = firingRate(model, rest.start, drive);
+      expect(Math.abs(r.rate_Hz - published)).toBeLessThanOrEqual(0.1);
+    },
+  );
 
   test(`rheobase for a 500 ms step from rest is about ${numerical.rheobase_uA_cm2} µA/cm² (hodgkin-huxley-1952-numerical.json)`, () => {
     // Published to 2 decimals (±0.005); the bisection stops within 0.1 % (±0.0022).

@@ -12,9 +12,28 @@ function plate() {
   const wells: AnalysisWell[] = [];
   const readouts: AnalysisReadout[] = [];
   const base = { sealResistance_GOhm: 2, seriesResistance_MOhm: 8, capacitance_pF: 20, excluded: false };
-  const add = (id: string, role: AnalysisWell['role'], concentration: number | null, ratio: number, extra: Partial<AnalysisWell> = {}) => {
-    wells.push({ id, role, compoundId: role === 'test' ? 'C1' : null, concentration_uM: concentration, ...base, ...extra });
-    readouts.push({ id: `r-${id}`, wellId: id, target: 'Nav', controlCurrent_pA: -1000, compoundCurrent_pA: -1000 * ratio });
+  const add = (
+    id: string,
+    role: AnalysisWell['role'],
+    concentration: number | null,
+    ratio: number,
+    extra: Partial<AnalysisWell> = {},
+  ) => {
+    wells.push({
+      id,
+      role,
+      compoundId: role === 'test' ? 'C1' : null,
+      concentration_uM: concentration,
+      ...base,
+      ...extra,
+    });
+    readouts.push({
+      id: `r-${id}`,
+      wellId: id,
+      target: 'Nav',
+      controlCurrent_pA: -1000,
+      compoundCurrent_pA: -1000 * ratio,
+    });
   };
   for (let i = 0; i < 4; i += 1) add(`veh${i}`, 'vehicle', 0, 1);
   for (let i = 0; i < 4; i += 1) add(`ref${i}`, 'reference', 1, 0);

@@ -17,13 +17,20 @@ function routeFiles(dir = 'app'): string[] {
 
 describe('route handlers that change data', () => {
   const changing = routeFiles().flatMap((file) =>
-    [...readFileSync(file, 'utf8').matchAll(/export\s+(const|async\s+function|function)\s+(POST|PUT|PATCH|DELETE)\b(.*)/g)].map((match) => ({ file, kind: match[1]!, method: match[2]!, rest: match[3]! })),
+    [
+      ...readFileSync(file, 'utf8').matchAll(
+        /export\s+(const|async\s+function|function)\s+(POST|PUT|PATCH|DELETE)\b(.*)/g,
+      ),
+    ].map((match) => ({ file, kind: match[1]!, method: match[2]!, rest: match[3]! })),
   );
 
-  test.each(changing.map((c) => [`${c.method} ${c.file}`, c]))('%s goes through withUser (Origin check, actor, roles)', (_label, c) => {
-    expect(c.kind).toBe('const');
-    expect(c.rest).toMatch(/^\s*=\s*withUser(<[^(]*>)?\(/);
-  });
+  test.each(changing.map((c) => [`${c.method} ${c.file}`, c]))(
+    '%s goes through withUser (Origin check, actor, roles)',
+    (_label, c) => {
+      expect(c.kind).toBe('const');
+      expect(c.rest).toMatch(/^\s*=\s*withUser(<[^(]*>)?\(/);
+    },
+  );
 
   test.each([
     ['no Origin header', undefined],
@@ -34,7 +41,10 @@ describe('route handlers that change data', () => {
       ran = true;
       return new Response('changed');
     });
-    const request = new NextRequest('http://127.0.0.1:4310/api/anything', { method: 'POST', headers: origin ? { origin } : {} });
+    const request = new NextRequest('http://127.0.0.1:4310/api/anything', {
+      method: 'POST',
+      headers: origin ? { origin } : {},
+    });
     const response = await handler(request, { params: Promise.resolve({}) });
     expect(response.status).toBe(403);
     expect(await response.json()).toMatchObject({ error: 'forbidden' });

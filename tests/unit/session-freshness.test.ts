@@ -17,7 +17,11 @@ describe('session freshness', () => {
     ['just signed in', { issuedAt: now, lastSeenAt: now }, true],
     ['active 29 minutes ago', { issuedAt: now - minutes(60), lastSeenAt: now - minutes(29) }, true],
     ['idle for 30 minutes', { issuedAt: now - minutes(60), lastSeenAt: now - minutes(30) }, false],
-    ['signed in 12 hours ago, active a minute ago', { issuedAt: now - minutes(720), lastSeenAt: now - minutes(1) }, false],
+    [
+      'signed in 12 hours ago, active a minute ago',
+      { issuedAt: now - minutes(720), lastSeenAt: now - minutes(1) },
+      false,
+    ],
     ['no user', { userId: undefined, issuedAt: now, lastSeenAt: now }, false],
   ])('%s → %s', (_name, times, fresh) => {
     expect(sessionIsFresh({ userId: 'u', sessionVersion: 1, ...times }, now)).toBe(fresh);

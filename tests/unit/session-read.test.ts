@@ -5,7 +5,12 @@ import { readSealedSession } from '@/lib/auth/session-read';
 // The proxy and the pages read the session cookie through readSealedSession, which keeps cookies it
 // unsealed for a minute (lib/auth/session-read.ts). Only cookies that unseal with Gatewell's secret count.
 const password = 'gatewell-unit-secret-0123456789-abcdefghij';
-const data = { userId: '00000000-0000-4000-8000-000000000001', sessionVersion: 3, issuedAt: 1, lastSeenAt: 2 };
+const data = {
+  userId: '00000000-0000-4000-8000-000000000001',
+  sessionVersion: 3,
+  issuedAt: 1,
+  lastSeenAt: 2,
+};
 
 describe('reading the sealed session cookie', () => {
   beforeAll(() => {
@@ -25,7 +30,8 @@ describe('reading the sealed session cookie', () => {
     const sealed = await sealData(data, { password, ttl: 3600 });
     const flipped = sealed.slice(0, -3) + (sealed.at(-3) === 'A' ? 'B' : 'A') + sealed.slice(-2);
     const foreign = await sealData(data, { password: 'another-secret-0123456789-abcdefghijkl', ttl: 3600 });
-    for (const cookie of [undefined, '', 'Fe26.2**forged', flipped, foreign]) expect(await readSealedSession(cookie)).toEqual({});
+    for (const cookie of [undefined, '', 'Fe26.2**forged', flipped, foreign])
+      expect(await readSealedSession(cookie)).toEqual({});
   });
 
   test('a remembered cookie is unsealed again after a minute', async () => {

@@ -15,26 +15,41 @@ export default async function AccountPage() {
     <>
       <PageHeader title="Account" intro={`Signed in as ${actor.name} (${actor.email}).`} />
       {actor.passwordChangeRequired ? (
-        <p role="alert" className="mb-4 rounded-md border border-amber-300 bg-amber-50 px-4 py-3 text-sm text-ink-800">
-          <strong className="font-semibold">Choose your own password first.</strong> An administrator set the password you signed in with; it is good for this sign-in only. Enter it as your current password below and choose your own; then the rest of Gatewell opens.
+        <p
+          role="alert"
+          className="mb-4 rounded-md border border-amber-300 bg-amber-50 px-4 py-3 text-sm text-ink-800"
+        >
+          <strong className="font-semibold">Choose your own password first.</strong> An administrator set the
+          password you signed in with; it is good for this sign-in only. Enter it as your current password
+          below and choose your own; then the rest of Gatewell opens.
         </p>
       ) : null}
       <div className="grid gap-4 xl:grid-cols-2">
         <section className="gw-card p-5" aria-labelledby="roles-heading">
-          <h2 id="roles-heading" className="text-lg font-semibold">Your roles</h2>
+          <h2 id="roles-heading" className="text-lg font-semibold">
+            Your roles
+          </h2>
           {roles.length ? (
             <ul className="mt-2 space-y-1 text-sm">
               {roles.map((choice) => (
-                <li key={choice.role}><span className="font-medium">{choice.label}</span> — {choice.duty}</li>
+                <li key={choice.role}>
+                  <span className="font-medium">{choice.label}</span> — {choice.duty}
+                </li>
               ))}
             </ul>
           ) : (
-            <p className="mt-2 text-sm text-ink-700">No role: you can read results. An administrator grants roles.</p>
+            <p className="mt-2 text-sm text-ink-700">
+              No role: you can read results. An administrator grants roles.
+            </p>
           )}
         </section>
         <section className="gw-card p-5" aria-labelledby="password-heading">
-          <h2 id="password-heading" className="text-lg font-semibold">Change password</h2>
-          <p className="mb-3 mt-1 text-sm text-ink-700">Every other session of yours ends; this one stays signed in.</p>
+          <h2 id="password-heading" className="text-lg font-semibold">
+            Change password
+          </h2>
+          <p className="mb-3 mt-1 text-sm text-ink-700">
+            Every other session of yours ends; this one stays signed in.
+          </p>
           <ChangePasswordForm action={changePasswordAction} minPasswordLength={MIN_PASSWORD_LENGTH} />
         </section>
       </div>

@@ -7,15 +7,42 @@ import type { AuditRow } from '@/lib/audit/search';
 import { changeSummary } from './change-summary';
 
 const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium', timeZone: 'UTC' });
-const orDash = (value: unknown) => (value === null || value === undefined || value === '' ? '—' : String(value));
+const orDash = (value: unknown) =>
+  value === null || value === undefined || value === '' ? '—' : String(value);
 
 const columns: ColDef<AuditRow>[] = [
-  { field: 'occurredAt', headerName: 'Time (UTC)', valueFormatter: (p) => when.format(new Date(p.value as string)), width: 150 },
-  { colId: 'actor', headerName: 'Person', valueGetter: (p) => p.data?.actorName ?? 'nobody signed in', tooltipValueGetter: (p) => p.data?.actorEmail ?? null, width: 125 },
+  {
+    field: 'occurredAt',
+    headerName: 'Time (UTC)',
+    valueFormatter: (p) => when.format(new Date(p.value as string)),
+    width: 150,
+  },
+  {
+    colId: 'actor',
+    headerName: 'Person',
+    valueGetter: (p) => p.data?.actorName ?? 'nobody signed in',
+    tooltipValueGetter: (p) => p.data?.actorEmail ?? null,
+    width: 125,
+  },
   { field: 'action', headerName: 'Action', width: 130, cellClass: 'font-mono text-xs' },
   { field: 'entityType', headerName: 'Record', width: 90 },
-  { field: 'entityId', headerName: 'Record id', width: 110, cellClass: 'font-mono text-xs', valueFormatter: (p) => orDash(p.value), tooltipField: 'entityId' },
-  { field: 'reason', headerName: 'Reason', flex: 1, minWidth: 120, wrapText: true, autoHeight: true, valueFormatter: (p) => orDash(p.value) },
+  {
+    field: 'entityId',
+    headerName: 'Record id',
+    width: 110,
+    cellClass: 'font-mono text-xs',
+    valueFormatter: (p) => orDash(p.value),
+    tooltipField: 'entityId',
+  },
+  {
+    field: 'reason',
+    headerName: 'Reason',
+    flex: 1,
+    minWidth: 120,
+    wrapText: true,
+    autoHeight: true,
+    valueFormatter: (p) => orDash(p.value),
+  },
   {
     colId: 'change',
     headerName: 'Before → after',
@@ -32,7 +59,9 @@ function Values({ title, value }: { title: string; value: unknown }) {
   return (
     <div className="min-w-0 flex-1">
       <h3 className="text-sm font-semibold">{title}</h3>
-      <pre className="mt-1 max-h-72 overflow-auto rounded bg-paper p-3 font-mono text-xs">{value === null || value === undefined ? '—' : JSON.stringify(value, null, 2)}</pre>
+      <pre className="mt-1 max-h-72 overflow-auto rounded bg-paper p-3 font-mono text-xs">
+        {value === null || value === undefined ? '—' : JSON.stringify(value, null, 2)}
+      </pre>
     </div>
   );
 }
@@ -59,10 +88,12 @@ export function AuditGrid({ rows }: { rows: AuditRow[] }) {
         {chosen ? (
           <>
             <h2 className="text-base font-semibold">
-              Event {chosen.id}: <span className="font-mono">{chosen.action}</span> on {chosen.entityType} {chosen.entityId ?? ''}
+              Event {chosen.id}: <span className="font-mono">{chosen.action}</span> on {chosen.entityType}{' '}
+              {chosen.entityId ?? ''}
             </h2>
             <p className="mt-1 text-sm text-ink-700">
-              {when.format(new Date(chosen.occurredAt))} UTC by {chosen.actorName ? `${chosen.actorName} <${chosen.actorEmail}>` : 'nobody signed in'}
+              {when.format(new Date(chosen.occurredAt))} UTC by{' '}
+              {chosen.actorName ? `${chosen.actorName} <${chosen.actorEmail}>` : 'nobody signed in'}
               {chosen.address ? ` from ${chosen.address}` : ''}. Reason: {orDash(chosen.reason)}.
             </p>
             <div className="mt-3 flex flex-col gap-4 md:flex-row">
@@ -71,7 +102,9 @@ export function AuditGrid({ rows }: { rows: AuditRow[] }) {
             </div>
           </>
         ) : (
-          <p className="text-sm text-ink-700">Choose an event (click, or Enter on a row) to see its full before and after.</p>
+          <p className="text-sm text-ink-700">
+            Choose an event (click, or Enter on a row) to see its full before and after.
+          </p>
         )}
       </section>
     </div>

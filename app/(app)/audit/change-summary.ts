@@ -18,14 +18,23 @@ export function changeSummary(before: unknown, after: unknown): string {
   if (isRecord(before) && isRecord(after)) {
     const keys = [...new Set([...Object.keys(before), ...Object.keys(after)])].sort();
     const changed = keys.filter((key) => JSON.stringify(before[key]) !== JSON.stringify(after[key]));
-    return changed.length ? changed.map((key) => `${key}: ${show(before[key])} → ${show(after[key])}`).join('; ') : 'no field changed';
+    return changed.length
+      ? changed.map((key) => `${key}: ${show(before[key])} → ${show(after[key])}`).join('; ')
+      : 'no field changed';
   }
   if (isRecord(after) && (before === null || before === undefined)) {
-    return Object.keys(after).sort().map((key) => `${key}: ${show(after[key])}`).join('; ');
+    return Object.keys(after)
+      .sort()
+      .map((key) => `${key}: ${show(after[key])}`)
+      .join('; ');
   }
   if (isRecord(before) && (after === null || after === undefined)) {
-    return `removed: ${Object.keys(before).sort().map((key) => `${key}: ${show(before[key])}`).join('; ')}`;
+    return `removed: ${Object.keys(before)
+      .sort()
+      .map((key) => `${key}: ${show(before[key])}`)
+      .join('; ')}`;
   }
-  if (before === null || before === undefined) return after === null || after === undefined ? '—' : show(after);
+  if (before === null || before === undefined)
+    return after === null || after === undefined ? '—' : show(after);
   return `${show(before)} → ${show(after)}`;
 }

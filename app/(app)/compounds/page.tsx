@@ -21,17 +21,23 @@ export default async function CompoundsPage() {
       {compounds.length ? (
         <CompoundGrid compounds={compounds} />
       ) : (
-        <EmptyState title="No compounds registered">A chemist registers compounds before their plates are imported.</EmptyState>
+        <EmptyState title="No compounds registered">
+          A chemist registers compounds before their plates are imported.
+        </EmptyState>
       )}
       {canRegister ? (
         <section className="gw-card mt-6 p-5" aria-labelledby="register-heading">
-          <h2 id="register-heading" className="mb-3 text-lg font-semibold">Register a compound</h2>
+          <h2 id="register-heading" className="mb-3 text-lg font-semibold">
+            Register a compound
+          </h2>
           <CompoundForm action={createCompoundAction} submitLabel="Register compound" />
         </section>
       ) : null}
       {canRegister ? (
         <section className="gw-card mt-6 p-5" aria-labelledby="bulk-heading">
-          <h2 id="bulk-heading" className="mb-3 text-lg font-semibold">Register many from a spreadsheet</h2>
+          <h2 id="bulk-heading" className="mb-3 text-lg font-semibold">
+            Register many from a spreadsheet
+          </h2>
           <BulkRegister />
         </section>
       ) : null}

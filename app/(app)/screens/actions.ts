@@ -10,24 +10,36 @@ import { parseId } from '@/lib/validation/ids';
 import { screenSchema, targetSchema } from '@/lib/validation/screens';
 
 /** Creates a screen and opens it to add targets. */
-export const createScreenAction = validatedAction(screenSchema, rolesFor('manageScreens'), async (input, actor) => {
-  const { id } = await createScreen(actor, input);
-  revalidatePath('/screens');
-  redirect(`/screens/${id}`);
-});
+export const createScreenAction = validatedAction(
+  screenSchema,
+  rolesFor('manageScreens'),
+  async (input, actor) => {
+    const { id } = await createScreen(actor, input);
+    revalidatePath('/screens');
+    redirect(`/screens/${id}`);
+  },
+);
 
 /** Saves a screen's settings. */
-export const updateScreenAction = validatedAction(screenSchema.and(z.object({ screenId: z.string() })), rolesFor('manageScreens'), async (input, actor) => {
-  const { screenId, ...fields } = input;
-  await updateScreen(actor, parseId(screenId, 'screen'), fields);
-  revalidatePath(`/screens/${screenId}`);
-  return { ok: true, message: 'Saved.' };
-});
+export const updateScreenAction = validatedAction(
+  screenSchema.and(z.object({ screenId: z.string() })),
+  rolesFor('manageScreens'),
+  async (input, actor) => {
+    const { screenId, ...fields } = input;
+    await updateScreen(actor, parseId(screenId, 'screen'), fields);
+    revalidatePath(`/screens/${screenId}`);
+    return { ok: true, message: 'Saved.' };
+  },
+);
 
 /** Adds a target to a screen. */
-export const addTargetAction = validatedAction(targetSchema.extend({ screenId: z.string() }), rolesFor('manageScreens'), async (input, actor) => {
-  const { screenId, ...fields } = input;
-  await addTarget(actor, parseId(screenId, 'screen'), fields);
-  revalidatePath(`/screens/${screenId}`);
-  return { ok: true, message: `Target ${fields.name} added.` };
-});
+export const addTargetAction = validatedAction(
+  targetSchema.extend({ screenId: z.string() }),
+  rolesFor('manageScreens'),
+  async (input, actor) => {
+    const { screenId, ...fields } = input;
+    await addTarget(actor, parseId(screenId, 'screen'), fields);
+    revalidatePath(`/screens/${screenId}`);
+    return { ok: true, message: `Target ${fields.name} added.` };
+  },
+);

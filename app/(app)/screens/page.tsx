@@ -20,23 +20,35 @@ function Threshold({ label, value }: { label: string; value: string }) {
 export default async function ScreensPage() {
   const actor = await requireActor();
   const screens = await listScreens(actor);
-  const actions = can(actor, 'manageScreens') ? <AppLink href="/screens/new" className="gw-button">New screen</AppLink> : undefined;
+  const actions = can(actor, 'manageScreens') ? (
+    <AppLink href="/screens/new" className="gw-button">
+      New screen
+    </AppLink>
+  ) : undefined;
   if (!screens.length) {
     return (
       <>
         <PageHeader title="Screens" actions={actions} />
-        <EmptyState title="No screens yet">An administrator creates a screen with its targets and QC thresholds.</EmptyState>
+        <EmptyState title="No screens yet">
+          An administrator creates a screen with its targets and QC thresholds.
+        </EmptyState>
       </>
     );
   }
   return (
     <>
-      <PageHeader title="Screens" intro="Campaigns, the currents they measure and the model conductance each maps to." actions={actions} />
+      <PageHeader
+        title="Screens"
+        intro="Campaigns, the currents they measure and the model conductance each maps to."
+        actions={actions}
+      />
       <div className="grid gap-4 xl:grid-cols-2">
         {screens.map((screen) => (
           <section key={screen.id} className="gw-card p-5" aria-labelledby={`screen-${screen.id}`}>
             <h2 id={`screen-${screen.id}`} className="text-lg font-semibold">
-              <AppLink href={`/screens/${screen.id}`} className="hover:text-lagoon-700 hover:underline">{screen.name}</AppLink>
+              <AppLink href={`/screens/${screen.id}`} className="hover:text-lagoon-700 hover:underline">
+                {screen.name}
+              </AppLink>
             </h2>
             <p className="mt-1 text-sm text-ink-700">{screen.description}</p>
             <p className="mt-3 text-xs uppercase tracking-wide text-ink-500">Neuron preset</p>
@@ -55,12 +67,19 @@ export default async function ScreensPage() {
               <Threshold label="Seal resistance ≥" value={`${screen.sealResistanceMin_GOhm} GΩ`} />
               <Threshold label="Control current ≥" value={`${screen.controlCurrentMin_pA} pA`} />
               <Threshold label="Series resistance ≤" value={`${screen.seriesResistanceMax_MOhm} MΩ`} />
-              <Threshold label="Capacitance" value={`${screen.capacitanceMin_pF}–${screen.capacitanceMax_pF} pF`} />
-              <Threshold label="Vehicle run-down ≤" value={`${Math.round(screen.vehicleRundownMax_fraction * 100)} %`} />
+              <Threshold
+                label="Capacitance"
+                value={`${screen.capacitanceMin_pF}–${screen.capacitanceMax_pF} pF`}
+              />
+              <Threshold
+                label="Vehicle run-down ≤"
+                value={`${Math.round(screen.vehicleRundownMax_fraction * 100)} %`}
+              />
               <Threshold label="Plate Z′ ≥" value={String(screen.zPrimeMin)} />
             </dl>
             <p className="mt-4 text-xs text-ink-500">
-              Exposures of interest: {screen.exposures_uM.length ? screen.exposures_uM.map((c) => `${c} µM`).join(', ') : 'none set'}
+              Exposures of interest:{' '}
+              {screen.exposures_uM.length ? screen.exposures_uM.map((c) => `${c} µM`).join(', ') : 'none set'}
             </p>
           </section>
         ))}

@@ -1,6 +1,11 @@
 'use server';
 
-import { failedActionState, formFields, invalidFormState, type ActionState } from '@/lib/actions/validated-action';
+import {
+  failedActionState,
+  formFields,
+  invalidFormState,
+  type ActionState,
+} from '@/lib/actions/validated-action';
 import { requestPasswordLink, LINK_LIFETIME_MS, LINK_WINDOW_MS } from '@/lib/auth/password-link';
 import { requestAddress } from '@/lib/auth/request-address';
 import { sendDueMailNow } from '@/lib/mail/sender-loop';
@@ -12,14 +17,21 @@ export type LinkRequestState = ActionState & { email?: string };
  * Asks for a link to choose a new password. The answer is the same whether or not the address belongs
  * to an account; the mail goes out at once where this server sends mail.
  */
-export async function requestPasswordLinkAction(_previous: LinkRequestState, formData: FormData): Promise<LinkRequestState> {
+export async function requestPasswordLinkAction(
+  _previous: LinkRequestState,
+  formData: FormData,
+): Promise<LinkRequestState> {
   const fields = formFields(formData);
   const email = typeof fields.email === 'string' ? fields.email : '';
   const parsed = passwordLinkRequestSchema.safeParse(fields);
   if (!parsed.success) return { ...invalidFormState(parsed.error), email };
   try {
     const result = await requestPasswordLink(parsed.data, await requestAddress());
-    if (!result.ok) return { message: `Too many requests from this network. Wait ${LINK_WINDOW_MS / 60_000} minutes, then try again.`, email };
+    if (!result.ok)
+      return {
+        message: `Too many requests from this network. Wait ${LINK_WINDOW_MS / 60_000} minutes, then try again.`,
+        email,
+      };
   } catch (error) {
     return { ...failedActionState(error), email };
   }

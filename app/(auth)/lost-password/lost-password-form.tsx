@@ -9,7 +9,15 @@ export function LostPasswordForm() {
   const [state, action, pending] = useActionState<LinkRequestState, FormData>(requestPasswordLinkAction, {});
   return (
     <form action={action} className="space-y-2" noValidate>
-      <Field label="E-mail" name="email" type="email" autoComplete="username" required defaultValue={state.email} errors={state.fieldErrors?.email} />
+      <Field
+        label="E-mail"
+        name="email"
+        type="email"
+        autoComplete="username"
+        required
+        defaultValue={state.email}
+        errors={state.fieldErrors?.email}
+      />
       <FormMessage ok={state.ok} message={state.message} />
       <button type="submit" className="gw-button w-full" disabled={pending}>
         {pending ? 'Sending…' : 'Send me a link'}

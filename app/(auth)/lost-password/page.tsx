@@ -14,7 +14,9 @@ export default function LostPasswordPage() {
     >
       <LostPasswordForm />
       <p className="mt-4 text-sm">
-        <AppLink href="/sign-in" className="text-lagoon-700 underline-offset-2 hover:underline">Back to sign-in</AppLink>
+        <AppLink href="/sign-in" className="text-lagoon-700 underline-offset-2 hover:underline">
+          Back to sign-in
+        </AppLink>
       </p>
     </AuthFrame>
   );

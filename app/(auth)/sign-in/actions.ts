@@ -20,7 +20,10 @@ export interface SignInState {
 export async function signInAction(_previous: SignInState, formData: FormData): Promise<SignInState> {
   const parsed = signInSchema.safeParse(Object.fromEntries(formData));
   if (!parsed.success) {
-    return { fieldErrors: z.flattenError(parsed.error).fieldErrors, email: String(formData.get('email') ?? '') };
+    return {
+      fieldErrors: z.flattenError(parsed.error).fieldErrors,
+      email: String(formData.get('email') ?? ''),
+    };
   }
   const { email, password, next } = parsed.data;
   let result: Awaited<ReturnType<typeof signIn>>;
@@ -42,7 +45,12 @@ export async function signInAction(_previous: SignInState, formData: FormData): 
   const session = await getSession();
   session.destroy();
   const now = Date.now();
-  Object.assign(session, { userId: result.userId, sessionVersion: result.sessionVersion, issuedAt: now, lastSeenAt: now });
+  Object.assign(session, {
+    userId: result.userId,
+    sessionVersion: result.sessionVersion,
+    issuedAt: now,
+    lastSeenAt: now,
+  });
   await session.save();
   // With a password an administrator set, the Account page comes first (the signed-in layout insists too).
   redirect(result.passwordChangeRequired ? '/account' : safeNextPath(next));

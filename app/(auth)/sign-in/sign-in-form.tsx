@@ -17,18 +17,39 @@ export function SignInForm({ next }: { next: string }) {
     <form action={action} className="space-y-2" noValidate>
       <input type="hidden" name="next" value={next} />
       <div>
-        <label htmlFor="email" className="gw-label">E-mail</label>
-        <input id="email" name="email" type="email" autoComplete="username" required defaultValue={state.email}
-          aria-describedby="email-error" className="gw-input mt-1" />
+        <label htmlFor="email" className="gw-label">
+          E-mail
+        </label>
+        <input
+          id="email"
+          name="email"
+          type="email"
+          autoComplete="username"
+          required
+          defaultValue={state.email}
+          aria-describedby="email-error"
+          className="gw-input mt-1"
+        />
         <FieldError id="email-error" messages={state.fieldErrors?.email} />
       </div>
       <div>
-        <label htmlFor="password" className="gw-label">Password</label>
-        <input id="password" name="password" type="password" autoComplete="current-password" required
-          aria-describedby="password-error" className="gw-input mt-1" />
+        <label htmlFor="password" className="gw-label">
+          Password
+        </label>
+        <input
+          id="password"
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          required
+          aria-describedby="password-error"
+          className="gw-input mt-1"
+        />
         <FieldError id="password-error" messages={state.fieldErrors?.password} />
       </div>
-      <p role="alert" aria-live="assertive" className="min-h-5 text-sm font-medium text-signal-fail">{state.message}</p>
+      <p role="alert" aria-live="assertive" className="min-h-5 text-sm font-medium text-signal-fail">
+        {state.message}
+      </p>
       <button type="submit" className="gw-button w-full" disabled={pending}>
         {pending ? 'Signing in…' : 'Sign in'}
       </button>

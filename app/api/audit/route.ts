@@ -10,6 +10,7 @@ export const dynamic = 'force-dynamic';
  * from, to, page); a bad filter answers 422 with messages keyed by field. Admins and approvers.
  */
 export const GET = withUser(
-  async (request, actor) => NextResponse.json(await searchAudit(actor, Object.fromEntries(request.nextUrl.searchParams))),
+  async (request, actor) =>
+    NextResponse.json(await searchAudit(actor, Object.fromEntries(request.nextUrl.searchParams))),
   { roles: rolesFor('readAudit') },
 );

@@ -52,28 +52,44 @@ export interface TargetBlock {
 }
 
 /** block = 1 − I_compound/I_control per well, per target in order of first appearance; inputs not mutated. */
-export function computeFractionalBlock(wells: readonly BlockWell[], options: BlockOptions = {}): TargetBlock[] {
+export function computeFractionalBlock(
+  wells: readonly BlockWell[],
+  options: BlockOptions = {},
+): TargetBlock[] {
   const rundownCorrection = options.rundownCorrection ?? true;
   const normalise = options.normalise ?? false;
   const zPrimeMin = options.zPrimeMin ?? 0.5;
-  if (!Number.isFinite(zPrimeMin)) throw new RangeError(`zPrimeMin must be a finite number, got ${zPrimeMin}`);
+  if (!Number.isFinite(zPrimeMin))
+    throw new RangeError(`zPrimeMin must be a finite number, got ${zPrimeMin}`);
   const byTarget = new Map<string, BlockWell[]>();
   for (const well of wells) {
     const group = byTarget.get(well.target);
     if (group) group.push(well);
     else byTarget.set(well.target, [well]);
   }
-  return [...byTarget].map(([target, group]) => targetBlock(target, group, rundownCorrection, normalise, zPrimeMin));
+  return [...byTarget].map(([target, group]) =>
+    targetBlock(target, group, rundownCorrection, normalise, zPrimeMin),
+  );
 }
 
-function targetBlock(target: string, group: readonly BlockWell[], rundownCorrection: boolean, normalise: boolean, zPrimeMin: number): TargetBlock {
+function targetBlock(
+  target: string,
+  group: readonly BlockWell[],
+  rundownCorrection: boolean,
+  normalise: boolean,
+  zPrimeMin: number,
+): TargetBlock {
   const notes: TargetBlock['notes'] = [];
   const ratios = group.map((w) => ratioOf(w));
   const inUse = (role: WellRole, values: readonly (number | null)[]) =>
     values.filter((v, i): v is number => v !== null && group[i]!.role === role && !group[i]!.excluded);
   const vehicleRatios = inUse('vehicle', ratios);
   const vehicleMeanRatio = vehicleRatios.length > 0 ? mean(vehicleRatios) : null;
-  if (vehicleMeanRatio === null) notes.push({ code: 'no_vehicle_wells', message: 'No vehicle wells in use: no run-down correction, and no Z′.' });
+  if (vehicleMeanRatio === null)
+    notes.push({
+      code: 'no_vehicle_wells',
+      message: 'No vehicle wells in use: no run-down correction, and no Z′.',
+    });
   const rundownCorrected = rundownCorrection && vehicleMeanRatio !== null && vehicleMeanRatio > 0;
   let blocks = ratios.map((r) => (r === null ? null : 1 - (rundownCorrected ? r / vehicleMeanRatio! : r)));
 
@@ -81,11 +97,19 @@ function targetBlock(target: string, group: readonly BlockWell[], rundownCorrect
   if (normalise) {
     const vehicleBlocks = inUse('vehicle', blocks);
     const referenceBlocks = inUse('reference', blocks);
-    if (referenceBlocks.length === 0) notes.push({ code: 'no_reference_wells', message: 'No reference-blocker wells in use: block is not normalised.' });
+    if (referenceBlocks.length === 0)
+      notes.push({
+        code: 'no_reference_wells',
+        message: 'No reference-blocker wells in use: block is not normalised.',
+      });
     if (vehicleBlocks.length > 0 && referenceBlocks.length > 0) {
       const low = mean(vehicleBlocks);
       const high = mean(referenceBlocks);
-      if (high === low) notes.push({ code: 'no_assay_window', message: 'Vehicle and reference-blocker means are equal: block is not normalised.' });
+      if (high === low)
+        notes.push({
+          code: 'no_assay_window',
+          message: 'Vehicle and reference-blocker means are equal: block is not normalised.',
+        });
       else {
         blocks = blocks.map((b) => (b === null ? null : (b - low) / (high - low)));
         normalised = true;
@@ -97,7 +121,13 @@ function targetBlock(target: string, group: readonly BlockWell[], rundownCorrect
     rundownCorrected,
     normalised,
     vehicleMeanRatio,
-    wells: group.map((w, i) => ({ wellId: w.wellId, role: w.role, excluded: w.excluded, ratio: ratios[i] ?? null, block: blocks[i] ?? null })),
+    wells: group.map((w, i) => ({
+      wellId: w.wellId,
+      role: w.role,
+      excluded: w.excluded,
+      ratio: ratios[i] ?? null,
+      block: blocks[i] ?? null,
+    })),
     zPrime: plateZPrime(inUse('reference', blocks), inUse('vehicle', blocks), zPrimeMin),
     notes,
   };
@@ -105,6 +135,13 @@ function targetBlock(target: string, group: readonly BlockWell[], rundownCorrect
 
 function ratioOf(well: BlockWell): number | null {
   const { controlCurrent_pA: control, compoundCurrent_pA: compound } = well;
-  if (control === null || compound === null || !Number.isFinite(control) || !Number.isFinite(compound) || control === 0) return null;
+  if (
+    control === null ||
+    compound === null ||
+    !Number.isFinite(control) ||
+    !Number.isFinite(compound) ||
+    control === 0
+  )
+    return null;
   return compound / control;
 }

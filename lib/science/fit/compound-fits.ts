@@ -20,7 +20,10 @@ export interface CompoundTargetFit {
 }
 
 /** Groups compound-well points by compound × target and fits each group with the same options. */
-export function fitCompoundCurves(points: readonly CurvePoint[], options?: HillFitOptions): CompoundTargetFit[] {
+export function fitCompoundCurves(
+  points: readonly CurvePoint[],
+  options?: HillFitOptions,
+): CompoundTargetFit[] {
   const groups = new Map<string, { compoundId: string; target: string; members: CurvePoint[] }>();
   for (const point of points) {
     const key = JSON.stringify([point.compoundId, point.target]);

@@ -31,7 +31,8 @@ export function hillBand(
     const block = curve.evaluate(Math.log10(c), theta, gradient);
     if (!covariance || !Number.isFinite(t)) return { concentration_uM: c, block, low: null, high: null };
     let variance = 0;
-    for (let i = 0; i < p; i += 1) for (let j = 0; j < p; j += 1) variance += gradient[i]! * covariance[i]![j]! * gradient[j]!;
+    for (let i = 0; i < p; i += 1)
+      for (let j = 0; j < p; j += 1) variance += gradient[i]! * covariance[i]![j]! * gradient[j]!;
     const half = t * Math.sqrt(Math.max(variance, 0));
     return { concentration_uM: c, block, low: block - half, high: block + half };
   });

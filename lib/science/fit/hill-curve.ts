@@ -75,7 +75,8 @@ export function fitHillCurve(
   const nu = fit.degreesOfFreedom;
   const t = nu > 0 ? jStat.studentt.inv(0.975, nu) : NaN;
   const tss = sumNthPowerDeviations(Array.from(block), 2);
-  const edge = (j: number) => nearBound(fit.parameters[j]!, box.lower[j]!) || nearBound(fit.parameters[j]!, box.upper[j]!);
+  const edge = (j: number) =>
+    nearBound(fit.parameters[j]!, box.lower[j]!) || nearBound(fit.parameters[j]!, box.upper[j]!);
   return {
     converged: fit.converged,
     stop: fit.stop,

@@ -54,29 +54,63 @@ export function fitHill(input: HillFitInput, options?: HillFitOptions): HillFitR
   const { concentration_uM, block } = usedPoints(input);
   const levels = concentrationLevels(concentration_uM, block);
   const base = { model: o.model, n: block.length, concentrations: levels.length };
-  const none = (status: HillFitStatus, message: string, extra: Partial<HillFitResult> = {}): HillFitResult => ({
-    ...base, status, message, ic50_uM: null, ic50Ci95_uM: null, log10Ic50Se: null, ic50LowerBound_uM: null,
-    hillSlope: null, bottom: null, top: null, r2: null, residualSd: null, flags: [], estimate: null, ...extra,
+  const none = (
+    status: HillFitStatus,
+    message: string,
+    extra: Partial<HillFitResult> = {},
+  ): HillFitResult => ({
+    ...base,
+    status,
+    message,
+    ic50_uM: null,
+    ic50Ci95_uM: null,
+    log10Ic50Se: null,
+    ic50LowerBound_uM: null,
+    hillSlope: null,
+    bottom: null,
+    top: null,
+    r2: null,
+    residualSd: null,
+    flags: [],
+    estimate: null,
+    ...extra,
   });
   if (levels.length < o.minConcentrations) {
-    return none('insufficient', `${levels.length} distinct concentration${levels.length === 1 ? '' : 's'} in use; a ${o.model} fit needs at least ${o.minConcentrations}.`);
+    return none(
+      'insufficient',
+      `${levels.length} distinct concentration${levels.length === 1 ? '' : 's'} in use; a ${o.model} fit needs at least ${o.minConcentrations}.`,
+    );
   }
   const highest = levels[levels.length - 1]!;
   const strongest = levels.reduce((a, b) => (b.meanBlock > a.meanBlock ? b : a));
   if (strongest.meanBlock < o.inactiveBlock) {
-    return none('inactive', `No meaningful block: at most ${percent(strongest.meanBlock)} (at ${uM(strongest.concentration_uM)}), below the ${percent(o.inactiveBlock)} threshold.`, { ic50LowerBound_uM: highest.concentration_uM });
+    return none(
+      'inactive',
+      `No meaningful block: at most ${percent(strongest.meanBlock)} (at ${uM(strongest.concentration_uM)}), below the ${percent(o.inactiveBlock)} threshold.`,
+      { ic50LowerBound_uM: highest.concentration_uM },
+    );
   }
   const aboveRange = (why: string, estimate: HillCurveEstimate | null) =>
-    none('above_range', `IC50 above the highest concentration tested (> ${uM(highest.concentration_uM)}): ${why}.`, { ic50LowerBound_uM: highest.concentration_uM, estimate });
+    none(
+      'above_range',
+      `IC50 above the highest concentration tested (> ${uM(highest.concentration_uM)}): ${why}.`,
+      { ic50LowerBound_uM: highest.concentration_uM, estimate },
+    );
   if (highest.meanBlock < o.aboveRangeBlock) {
     return aboveRange(`block at ${uM(highest.concentration_uM)} is ${percent(highest.meanBlock)}`, null);
   }
   const fit = fitHillCurve(concentration_uM, block, o);
   if (!fit.converged) {
-    return none('not_converged', `The fit did not converge (${STOP_WORDS[fit.stop] ?? fit.stop} after ${fit.iterations} iteration${fit.iterations === 1 ? '' : 's'}); no IC50 is reported.`);
+    return none(
+      'not_converged',
+      `The fit did not converge (${STOP_WORDS[fit.stop] ?? fit.stop} after ${fit.iterations} iteration${fit.iterations === 1 ? '' : 's'}); no IC50 is reported.`,
+    );
   }
   if (fit.ic50AtSearchEdge) {
-    return none('not_converged', `The fit ran to the edge of the IC50 search range (${uM(fit.ic50_uM)}); the data do not place an IC50.`);
+    return none(
+      'not_converged',
+      `The fit ran to the edge of the IC50 search range (${uM(fit.ic50_uM)}); the data do not place an IC50.`,
+    );
   }
   if (fit.ic50_uM > highest.concentration_uM) return aboveRange(`the fitted IC50 is ${uM(fit.ic50_uM)}`, fit);
   const flags = fitFlags(fit, levels[0]!.concentration_uM, o.hillSlopeBand);
@@ -101,13 +135,23 @@ export function fitHill(input: HillFitInput, options?: HillFitOptions): HillFitR
 function fitFlags(fit: HillCurveEstimate, lowest_uM: number, band: readonly [number, number]): HillFitFlag[] {
   const flags: HillFitFlag[] = [];
   if (fit.hillSlope < band[0] || fit.hillSlope > band[1]) {
-    flags.push({ code: 'hill_slope_outside_band', message: `Hill slope ${round(fit.hillSlope)} is outside the plausible band ${band[0]}–${band[1]}${fit.hillSlopeAtBound ? ' (at the limit of its search range)' : ''}.` });
+    flags.push({
+      code: 'hill_slope_outside_band',
+      message: `Hill slope ${round(fit.hillSlope)} is outside the plausible band ${band[0]}–${band[1]}${fit.hillSlopeAtBound ? ' (at the limit of its search range)' : ''}.`,
+    });
   }
   if (fit.ic50_uM < lowest_uM) {
-    flags.push({ code: 'ic50_below_range', message: `IC50 ${uM(fit.ic50_uM)} is below the lowest concentration tested (${uM(lowest_uM)}): an extrapolation.` });
+    flags.push({
+      code: 'ic50_below_range',
+      message: `IC50 ${uM(fit.ic50_uM)} is below the lowest concentration tested (${uM(lowest_uM)}): an extrapolation.`,
+    });
   }
   if (fit.ic50Ci95_uM === null) {
-    flags.push({ code: 'no_confidence_interval', message: 'No confidence interval on IC50: too few wells for the free parameters, or the data do not determine them separately.' });
+    flags.push({
+      code: 'no_confidence_interval',
+      message:
+        'No confidence interval on IC50: too few wells for the free parameters, or the data do not determine them separately.',
+    });
   }
   return flags;
 }
@@ -115,16 +159,22 @@ function fitFlags(fit: HillCurveEstimate, lowest_uM: number, band: readonly [num
 /** The wells not excluded, checked: concentration finite and ≥ 0, block finite; throws RangeError naming the well index. */
 function usedPoints(input: HillFitInput): { concentration_uM: Float64Array; block: Float64Array } {
   const { concentration_uM: c, block: b, excluded } = input;
-  if (c.length !== b.length) throw new RangeError(`concentration_uM has ${c.length} values but block has ${b.length}`);
-  if (excluded && excluded.length !== c.length) throw new RangeError(`excluded has ${excluded.length} values but there are ${c.length} wells`);
+  if (c.length !== b.length)
+    throw new RangeError(`concentration_uM has ${c.length} values but block has ${b.length}`);
+  if (excluded && excluded.length !== c.length)
+    throw new RangeError(`excluded has ${excluded.length} values but there are ${c.length} wells`);
   const keep: number[] = [];
   for (let i = 0; i < c.length; i++) {
     if (excluded?.[i]) continue;
-    if (!Number.isFinite(c[i]) || c[i]! < 0) throw new RangeError(`well ${i}: concentration_uM must be a finite number ≥ 0, got ${c[i]}`);
+    if (!Number.isFinite(c[i]) || c[i]! < 0)
+      throw new RangeError(`well ${i}: concentration_uM must be a finite number ≥ 0, got ${c[i]}`);
     if (!Number.isFinite(b[i])) throw new RangeError(`well ${i}: block must be a finite number, got ${b[i]}`);
     keep.push(i);
   }
-  return { concentration_uM: Float64Array.from(keep, (i) => c[i]!), block: Float64Array.from(keep, (i) => b[i]!) };
+  return {
+    concentration_uM: Float64Array.from(keep, (i) => c[i]!),
+    block: Float64Array.from(keep, (i) => b[i]!),
+  };
 }
 
 const STOP_WORDS: Partial<Record<HillCurveEstimate['stop'], string>> = {

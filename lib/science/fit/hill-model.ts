@@ -17,7 +17,13 @@ export const HILL_PARAMETER_COUNT: Readonly<Record<HillModelName, number>> = { h
  * @param bottom block as C → 0 (fraction). @default 0
  * @param top block as C → ∞ (fraction). @default 1
  */
-export function hillBlock(concentration_uM: number, ic50_uM: number, hillSlope: number, bottom = 0, top = 1): number {
+export function hillBlock(
+  concentration_uM: number,
+  ic50_uM: number,
+  hillSlope: number,
+  bottom = 0,
+  top = 1,
+): number {
   if (concentration_uM === 0) return hillSlope > 0 ? bottom : hillSlope < 0 ? top : (bottom + top) / 2;
   const exponent = hillSlope * (Math.log10(ic50_uM) - Math.log10(concentration_uM)) * Math.LN10;
   const s = exponent > 0 ? Math.exp(-exponent) / (1 + Math.exp(-exponent)) : 1 / (1 + Math.exp(exponent));

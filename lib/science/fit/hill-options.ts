@@ -55,7 +55,8 @@ export interface ResolvedHillFitOptions {
 /** Fills defaults and checks every option; throws RangeError naming the option at fault. */
 export function resolveHillFitOptions(options: HillFitOptions = {}): ResolvedHillFitOptions {
   const model = options.model ?? 'hill2';
-  if (model !== 'hill2' && model !== 'hill4') throw new RangeError(`model must be 'hill2' or 'hill4', got ${String(model)}`);
+  if (model !== 'hill2' && model !== 'hill4')
+    throw new RangeError(`model must be 'hill2' or 'hill4', got ${String(model)}`);
   const minConcentrations = options.minConcentrations ?? (model === 'hill4' ? 4 : 3);
   if (!Number.isInteger(minConcentrations) || minConcentrations < 3) {
     throw new RangeError(`minConcentrations must be an integer ≥ 3, got ${minConcentrations}`);
@@ -80,7 +81,10 @@ export function resolveHillFitOptions(options: HillFitOptions = {}): ResolvedHil
 
 function finite(name: string, value: number | undefined, fallback: number, exclusiveMin = -Infinity): number {
   if (value === undefined) return fallback;
-  if (!Number.isFinite(value) || !(value > exclusiveMin)) throw new RangeError(`${name} must be a finite number${exclusiveMin > -Infinity ? ` > ${exclusiveMin}` : ''}, got ${value}`);
+  if (!Number.isFinite(value) || !(value > exclusiveMin))
+    throw new RangeError(
+      `${name} must be a finite number${exclusiveMin > -Infinity ? ` > ${exclusiveMin}` : ''}, got ${value}`,
+    );
   return value;
 }
 

@@ -9,7 +9,10 @@ export interface ConcentrationLevel {
 }
 
 /** Groups replicate wells by concentration (exact equality), concentration 0 left out; plain means. */
-export function concentrationLevels(concentration_uM: ArrayLike<number>, block: ArrayLike<number>): ConcentrationLevel[] {
+export function concentrationLevels(
+  concentration_uM: ArrayLike<number>,
+  block: ArrayLike<number>,
+): ConcentrationLevel[] {
   const sums = new Map<number, { total: number; wells: number }>();
   for (let i = 0; i < concentration_uM.length; i++) {
     const c = concentration_uM[i]!;
@@ -25,7 +28,10 @@ export function concentrationLevels(concentration_uM: ArrayLike<number>, block: 
 }
 
 /** Search box of the free parameters, [log10 IC50, slope, bottom, top] (hill2: the first two). */
-export function hillSearchBox(levels: readonly ConcentrationLevel[], o: ResolvedHillFitOptions): { lower: Float64Array; upper: Float64Array } {
+export function hillSearchBox(
+  levels: readonly ConcentrationLevel[],
+  o: ResolvedHillFitOptions,
+): { lower: Float64Array; upper: Float64Array } {
   const lowest = Math.log10(levels[0]!.concentration_uM);
   const highest = Math.log10(levels[levels.length - 1]!.concentration_uM);
   const boxes: Interval[] = [[lowest - o.searchDecades, highest + o.searchDecades], o.hillSlopeBounds];
@@ -47,8 +53,12 @@ export function hillStartValues(
   const bottom = o.model === 'hill4' ? Math.min(...means) : 0;
   const top = o.model === 'hill4' ? Math.max(...means) : 1;
   const [slopeLow, slopeHigh] = o.hillSlopeBounds;
-  const slope = slopeLow <= 1 && 1 <= slopeHigh ? 1 : slopeLow <= -1 && -1 <= slopeHigh ? -1 : (slopeLow + slopeHigh) / 2;
-  const start = o.model === 'hill4' ? [halfwayLog10(levels, (bottom + top) / 2), slope, bottom, top] : [halfwayLog10(levels, 0.5), slope];
+  const slope =
+    slopeLow <= 1 && 1 <= slopeHigh ? 1 : slopeLow <= -1 && -1 <= slopeHigh ? -1 : (slopeLow + slopeHigh) / 2;
+  const start =
+    o.model === 'hill4'
+      ? [halfwayLog10(levels, (bottom + top) / 2), slope, bottom, top]
+      : [halfwayLog10(levels, 0.5), slope];
   return Float64Array.from(start, (value, j) => Math.min(box.upper[j]!, Math.max(box.lower[j]!, value)));
 }
 
@@ -58,10 +68,13 @@ function halfwayLog10(levels: readonly ConcentrationLevel[], half: number): numb
     const b = levels[i]!;
     if ((a.meanBlock - half) * (b.meanBlock - half) <= 0 && a.meanBlock !== b.meanBlock) {
       const t = (half - a.meanBlock) / (b.meanBlock - a.meanBlock);
-      return Math.log10(a.concentration_uM) + t * (Math.log10(b.concentration_uM) - Math.log10(a.concentration_uM));
+      return (
+        Math.log10(a.concentration_uM) + t * (Math.log10(b.concentration_uM) - Math.log10(a.concentration_uM))
+      );
     }
   }
   let nearest = levels[0]!;
-  for (const level of levels) if (Math.abs(level.meanBlock - half) < Math.abs(nearest.meanBlock - half)) nearest = level;
+  for (const level of levels)
+    if (Math.abs(level.meanBlock - half) < Math.abs(nearest.meanBlock - half)) nearest = level;
   return Math.log10(nearest.concentration_uM);
 }

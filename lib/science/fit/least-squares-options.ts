@@ -39,11 +39,13 @@ export function resolveLeastSquaresOptions(
   options: LeastSquaresOptions,
 ): ResolvedLeastSquaresOptions {
   const p = model.parameterCount;
-  if (!Number.isInteger(p) || p < 1) throw new RangeError(`model.parameterCount must be a positive integer, got ${p}`);
+  if (!Number.isInteger(p) || p < 1)
+    throw new RangeError(`model.parameterCount must be a positive integer, got ${p}`);
   if (x.length !== y.length) throw new RangeError(`x has ${x.length} values but y has ${y.length}`);
   if (x.length < 1) throw new RangeError('no data points');
   for (let i = 0; i < x.length; i++) {
-    if (Number.isNaN(x[i]) || !Number.isFinite(y[i])) throw new RangeError(`point ${i}: x and y must be numbers (y finite)`);
+    if (Number.isNaN(x[i]) || !Number.isFinite(y[i]))
+      throw new RangeError(`point ${i}: x and y must be numbers (y finite)`);
   }
   const initial = vector('initial', options.initial, p, NaN);
   const lower = vector('lower', options.lower, p, -Infinity);

@@ -64,7 +64,8 @@ export function fitLeastSquares(
 
   for (let iteration = 1; iteration <= o.maxIterations; iteration++) {
     markFree(free, params, gradient, o.lower, o.upper);
-    if (gradientConverged(gradient, normal, free, rss, o.gradientTolerance)) return finish('gradient', iteration - 1);
+    if (gradientConverged(gradient, normal, free, rss, o.gradientTolerance))
+      return finish('gradient', iteration - 1);
     for (let i = 0; i < p; i++) {
       for (let j = 0; j < p; j++) {
         system[i * p + j] = free[i] && free[j] ? normal[i * p + j]! : i === j ? 1 : 0;
@@ -86,7 +87,8 @@ export function fitLeastSquares(
       stepNorm += step[j]! ** 2;
       paramNorm += params[j]! ** 2;
     }
-    if (Math.sqrt(stepNorm) <= o.stepTolerance * (Math.sqrt(paramNorm) + o.stepTolerance)) return finish('step', iteration);
+    if (Math.sqrt(stepNorm) <= o.stepTolerance * (Math.sqrt(paramNorm) + o.stepTolerance))
+      return finish('step', iteration);
     const trialRss = evaluateResiduals(model, xs, ys, trial, trialResiduals);
     const predicted = predictedReduction(step, gradient, normal, p);
     const actual = 0.5 * (rss - trialRss);
@@ -139,7 +141,13 @@ function updateScale(scale: Float64Array, normal: Float64Array, p: number): void
 }
 
 /** A parameter is frozen when it sits on a bound and the descent direction −g points out of the box. */
-function markFree(free: Uint8Array, params: Float64Array, gradient: Float64Array, lower: Float64Array, upper: Float64Array): void {
+function markFree(
+  free: Uint8Array,
+  params: Float64Array,
+  gradient: Float64Array,
+  lower: Float64Array,
+  upper: Float64Array,
+): void {
   for (let j = 0; j < free.length; j++) {
     const atLower = params[j]! <= lower[j]! && gradient[j]! > 0;
     const atUpper = params[j]! >= upper[j]! && gradient[j]! < 0;
@@ -148,19 +156,31 @@ function markFree(free: Uint8Array, params: Float64Array, gradient: Float64Array
 }
 
 /** Scale-free test: the cosine between the residual vector and every free Jacobian column (as in MINPACK's gtol). */
-function gradientConverged(gradient: Float64Array, normal: Float64Array, free: Uint8Array, rss: number, tolerance: number): boolean {
+function gradientConverged(
+  gradient: Float64Array,
+  normal: Float64Array,
+  free: Uint8Array,
+  rss: number,
+  tolerance: number,
+): boolean {
   if (rss === 0) return true;
   const p = gradient.length;
   const residualNorm = Math.sqrt(rss);
   for (let j = 0; j < p; j++) {
     const columnNorm = Math.sqrt(normal[j * p + j]!);
-    if (free[j] && columnNorm > 0 && Math.abs(gradient[j]!) / (columnNorm * residualNorm) > tolerance) return false;
+    if (free[j] && columnNorm > 0 && Math.abs(gradient[j]!) / (columnNorm * residualNorm) > tolerance)
+      return false;
   }
   return true;
 }
 
 /** Reduction of ½‖r‖² predicted by the linear model for `step`: −stepᵀg − ½ stepᵀ(JᵀJ)step. */
-function predictedReduction(step: Float64Array, gradient: Float64Array, normal: Float64Array, p: number): number {
+function predictedReduction(
+  step: Float64Array,
+  gradient: Float64Array,
+  normal: Float64Array,
+  p: number,
+): number {
   let linear = 0;
   let quadratic = 0;
   for (let i = 0; i < p; i++) {

@@ -39,7 +39,12 @@ export interface ForecastResult {
   referenceDrive_uA_cm2: number | null;
   control: ConditionForecast;
   conditions: ConditionForecast[];
-  traces: { drive_uA_cm2: number; control: VoltageTrace; condition: VoltageTrace | null; conditionIndex: number | null } | null;
+  traces: {
+    drive_uA_cm2: number;
+    control: VoltageTrace;
+    condition: VoltageTrace | null;
+    conditionIndex: number | null;
+  } | null;
   caution: string;
 }
 
@@ -73,8 +78,15 @@ export function assembleForecast(
   traces: { drive_uA_cm2: number; control: VoltageTrace; condition: VoltageTrace | null } | null,
 ): ForecastResult {
   const ctrl = measuresOf(control);
-  const conductances = (scale: Record<string, number>) => Object.fromEntries(plan.preset.conductances.map((c) => [c.name, c.g_mS_cm2 * (scale[c.name] ?? 1)]));
-  const forecastOf = (label: string, concentration: number | null, block: Record<string, number>, scale: Record<string, number>, e: Excitability): ConditionForecast => {
+  const conductances = (scale: Record<string, number>) =>
+    Object.fromEntries(plan.preset.conductances.map((c) => [c.name, c.g_mS_cm2 * (scale[c.name] ?? 1)]));
+  const forecastOf = (
+    label: string,
+    concentration: number | null,
+    block: Record<string, number>,
+    scale: Record<string, number>,
+    e: Excitability,
+  ): ConditionForecast => {
     const m = measuresOf(e);
     return {
       label,
@@ -91,15 +103,21 @@ export function assembleForecast(
       detail: e,
     };
   };
-  const zero = Object.fromEntries(plan.preset.conductances.filter((c) => c.blockable).map((c) => [c.name, 0]));
+  const zero = Object.fromEntries(
+    plan.preset.conductances.filter((c) => c.blockable).map((c) => [c.name, 0]),
+  );
   return {
     preset: { name: plan.preset.name, title: plan.preset.title, reference: plan.preset.reference },
     protocol: plan.protocol,
     concentrationUnit: plan.concentrationUnit,
     referenceDrive_uA_cm2: control.referenceDrive_uA_cm2,
     control: forecastOf('control', 0, zero, {}, control),
-    conditions: plan.conditions.map((c, i) => forecastOf(c.label, c.concentration, c.block, c.scale, conditions[i]!)),
-    traces: traces ? { ...traces, conditionIndex: traces.condition ? (plan.trace?.condition ?? null) : null } : null,
+    conditions: plan.conditions.map((c, i) =>
+      forecastOf(c.label, c.concentration, c.block, c.scale, conditions[i]!),
+    ),
+    traces: traces
+      ? { ...traces, conditionIndex: traces.condition ? (plan.trace?.condition ?? null) : null }
+      : null,
     caution: FORECAST_CAUTION,
   };
 }

@@ -13,6 +13,12 @@ export function computeForecast(input: unknown): ForecastResult {
   const control = runMeasureTask(controlTask(plan));
   const conditions = conditionTasks(plan, control).map(runMeasureTask);
   const t = traceTasks(plan, control);
-  const traces = t ? { drive_uA_cm2: t.drive_uA_cm2, control: runTraceTask(t.control), condition: t.condition ? runTraceTask(t.condition) : null } : null;
+  const traces = t
+    ? {
+        drive_uA_cm2: t.drive_uA_cm2,
+        control: runTraceTask(t.control),
+        condition: t.condition ? runTraceTask(t.condition) : null,
+      }
+    : null;
   return assembleForecast(plan, control, conditions, traces);
 }

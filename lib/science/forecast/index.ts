@@ -9,7 +9,19 @@ export {
   type ForecastRequest,
   type ParsedForecastRequest,
 } from './request-schema';
-export { DEFAULT_FORECAST_PROTOCOL, planForecast, type ForecastPlan, type ForecastProtocol, type PlannedCondition } from './plan';
-export { FORECAST_CAUTION, type ConditionForecast, type ConditionMeasures, type ForecastResult, type Shift } from './assemble';
+export {
+  DEFAULT_FORECAST_PROTOCOL,
+  planForecast,
+  type ForecastPlan,
+  type ForecastProtocol,
+  type PlannedCondition,
+} from './plan';
+export {
+  FORECAST_CAUTION,
+  type ConditionForecast,
+  type ConditionMeasures,
+  type ForecastResult,
+  type Shift,
+} from './assemble';
 export { computeForecast } from './forecast';
 export { runForecastTask, type ForecastTask, type MeasureTask, type TraceTask } from './tasks';

@@ -1,4 +1,10 @@
-import { DEFAULT_EXCITABILITY_PROTOCOL, fiCurveDrives, type Excitability, type ExcitabilityProtocol, type FiCurve } from '../neuron/excitability';
+import {
+  DEFAULT_EXCITABILITY_PROTOCOL,
+  fiCurveDrives,
+  type Excitability,
+  type ExcitabilityProtocol,
+  type FiCurve,
+} from '../neuron/excitability';
 import { getPreset } from '../neuron/presets';
 import type { NeuronPreset } from '../neuron/types';
 import { poreBlockFraction } from './pore-block';
@@ -15,7 +21,12 @@ export interface ForecastProtocol extends ExcitabilityProtocol {
   fiCurve: FiCurve | null;
 }
 
-export const DEFAULT_FORECAST_PROTOCOL: ForecastProtocol = { ...DEFAULT_EXCITABILITY_PROTOCOL, referenceDriveFactor: 2, drives_uA_cm2: [], fiCurve: null };
+export const DEFAULT_FORECAST_PROTOCOL: ForecastProtocol = {
+  ...DEFAULT_EXCITABILITY_PROTOCOL,
+  referenceDriveFactor: 2,
+  drives_uA_cm2: [],
+  fiCurve: null,
+};
 
 export interface PlannedCondition {
   label: string;
@@ -52,7 +63,11 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
     drives_uA_cm2: p.drives_uA_cm2 ?? [],
     fiCurve: p.fiCurve ?? null,
   };
-  const condition = (label: string, concentration: number | null, fractions: Record<string, number>): PlannedCondition => {
+  const condition = (
+    label: string,
+    concentration: number | null,
+    fractions: Record<string, number>,
+  ): PlannedCondition => {
     const block = Object.fromEntries(blockable.map((name) => [name, fractions[name] ?? 0]));
     const scale = Object.fromEntries(blockable.map((name) => [name, 1 - (block[name] ?? 0)]));
     return { label, concentration, block, scale };
@@ -66,7 +81,9 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
       condition(
         `${c}${unit ? ` ${unit}` : ''}`,
         c,
-        Object.fromEntries(Object.entries(potencies).map(([name, pot]) => [name, poreBlockFraction(c, pot.ic50, pot.hill)])),
+        Object.fromEntries(
+          Object.entries(potencies).map(([name, pot]) => [name, poreBlockFraction(c, pot.ic50, pot.hill)]),
+        ),
       ),
     );
   }
@@ -74,13 +91,36 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
   const trace =
     t === false
       ? null
-      : { condition: t?.condition ?? Math.max(0, conditions.length - 1), drive_uA_cm2: t?.drive_uA_cm2 ?? null, duration_ms: t?.duration_ms ?? protocol.rateStep_ms, points: t?.points ?? 2000 };
+      : {
+          condition: t?.condition ?? Math.max(0, conditions.length - 1),
+          drive_uA_cm2: t?.drive_uA_cm2 ?? null,
+          duration_ms: t?.duration_ms ?? protocol.rateStep_ms,
+          points: t?.points ?? 2000,
+        };
   return { preset, protocol, concentrationUnit: unit, conditions, trace };
 }
 
 function excitabilityProtocol(p: ForecastProtocol): ExcitabilityProtocol {
-  const { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms, thresholdStepFactor } = p;
-  return { dt_ms, rates, rheobaseStep_ms, rheobaseRelTolerance, rheobaseCeiling_uA_cm2, rateStep_ms, thresholdSlope_mV_ms, thresholdStepFactor };
+  const {
+    dt_ms,
+    rates,
+    rheobaseStep_ms,
+    rheobaseRelTolerance,
+    rheobaseCeiling_uA_cm2,
+    rateStep_ms,
+    thresholdSlope_mV_ms,
+    thresholdStepFactor,
+  } = p;
+  return {
+    dt_ms,
+    rates,
+    rheobaseStep_ms,
+    rheobaseRelTolerance,
+    rheobaseCeiling_uA_cm2,
+    rateStep_ms,
+    thresholdSlope_mV_ms,
+    thresholdStepFactor,
+  };
 }
 
 /** The control's measurement (its own rheobase sets the reference drive). */
@@ -100,7 +140,10 @@ export function controlTask(plan: ForecastPlan): MeasureTask {
 
 /** One measurement per blocked condition, at the control's drives and starting from its rheobase. */
 export function conditionTasks(plan: ForecastPlan, control: Excitability): MeasureTask[] {
-  const curve = plan.protocol.fiCurve && control.rheobase_uA_cm2 !== null ? fiCurveDrives(plan.protocol.fiCurve, control.rheobase_uA_cm2) : [];
+  const curve =
+    plan.protocol.fiCurve && control.rheobase_uA_cm2 !== null
+      ? fiCurveDrives(plan.protocol.fiCurve, control.rheobase_uA_cm2)
+      : [];
   return plan.conditions.map((c) => ({
     kind: 'measure',
     preset: plan.preset,
@@ -115,11 +158,20 @@ export function conditionTasks(plan: ForecastPlan, control: Excitability): Measu
 }
 
 /** Traces for control and the chosen condition, or none (no drive to show them at). */
-export function traceTasks(plan: ForecastPlan, control: Excitability): { drive_uA_cm2: number; control: TraceTask; condition: TraceTask | null } | null {
+export function traceTasks(
+  plan: ForecastPlan,
+  control: Excitability,
+): { drive_uA_cm2: number; control: TraceTask; condition: TraceTask | null } | null {
   if (!plan.trace) return null;
   const drive = plan.trace.drive_uA_cm2 ?? control.referenceDrive_uA_cm2 ?? plan.protocol.drives_uA_cm2[0];
   if (drive === undefined) return null;
-  const request = { drive_uA_cm2: drive, duration_ms: plan.trace.duration_ms, points: plan.trace.points, dt_ms: plan.protocol.dt_ms, rates: plan.protocol.rates };
+  const request = {
+    drive_uA_cm2: drive,
+    duration_ms: plan.trace.duration_ms,
+    points: plan.trace.points,
+    dt_ms: plan.protocol.dt_ms,
+    rates: plan.protocol.rates,
+  };
   const chosen = plan.conditions[plan.trace.condition];
   return {
     drive_uA_cm2: drive,

@@ -3,31 +3,81 @@ import { PRESET_NAMES, conductanceNames, getPreset, isPresetName } from '../neur
 
 /** Optional protocol settings of a forecast; defaults in DEFAULT_FORECAST_PROTOCOL. */
 export const forecastProtocolSchema = z.strictObject({
-  stepMs: z.number({ error: 'stepMs must be a number (ms)' }).min(10, { error: 'stepMs must be at least 10 ms' }).max(10_000, { error: 'stepMs must be at most 10000 ms' }).optional(),
-  rateStepMs: z.number({ error: 'rateStepMs must be a number (ms)' }).min(100, { error: 'rateStepMs must be at least 100 ms' }).max(20_000, { error: 'rateStepMs must be at most 20000 ms' }).optional(),
-  dt_ms: z.number({ error: 'dt_ms must be a number (ms)' }).min(0.001, { error: 'dt_ms must be at least 0.001 ms' }).max(0.1, { error: 'dt_ms must be at most 0.1 ms' }).optional(),
-  thresholdSlope_mV_ms: z.number({ error: 'thresholdSlope_mV_ms must be a number' }).positive({ error: 'thresholdSlope_mV_ms must be positive' }).max(1000).optional(),
-  thresholdStepFactor: z.number({ error: 'thresholdStepFactor must be a number' }).min(1, { error: 'thresholdStepFactor must be at least 1' }).max(10).optional(),
-  rheobaseRelTolerance: z.number({ error: 'rheobaseRelTolerance must be a number' }).min(1e-6).max(0.1).optional(),
-  rheobaseCeiling_uA_cm2: z.number({ error: 'rheobaseCeiling_uA_cm2 must be a number' }).positive().max(10_000).optional(),
-  referenceDriveFactor: z.number({ error: 'referenceDriveFactor must be a number' }).positive({ error: 'referenceDriveFactor must be positive' }).max(100).optional(),
+  stepMs: z
+    .number({ error: 'stepMs must be a number (ms)' })
+    .min(10, { error: 'stepMs must be at least 10 ms' })
+    .max(10_000, { error: 'stepMs must be at most 10000 ms' })
+    .optional(),
+  rateStepMs: z
+    .number({ error: 'rateStepMs must be a number (ms)' })
+    .min(100, { error: 'rateStepMs must be at least 100 ms' })
+    .max(20_000, { error: 'rateStepMs must be at most 20000 ms' })
+    .optional(),
+  dt_ms: z
+    .number({ error: 'dt_ms must be a number (ms)' })
+    .min(0.001, { error: 'dt_ms must be at least 0.001 ms' })
+    .max(0.1, { error: 'dt_ms must be at most 0.1 ms' })
+    .optional(),
+  thresholdSlope_mV_ms: z
+    .number({ error: 'thresholdSlope_mV_ms must be a number' })
+    .positive({ error: 'thresholdSlope_mV_ms must be positive' })
+    .max(1000)
+    .optional(),
+  thresholdStepFactor: z
+    .number({ error: 'thresholdStepFactor must be a number' })
+    .min(1, { error: 'thresholdStepFactor must be at least 1' })
+    .max(10)
+    .optional(),
+  rheobaseRelTolerance: z
+    .number({ error: 'rheobaseRelTolerance must be a number' })
+    .min(1e-6)
+    .max(0.1)
+    .optional(),
+  rheobaseCeiling_uA_cm2: z
+    .number({ error: 'rheobaseCeiling_uA_cm2 must be a number' })
+    .positive()
+    .max(10_000)
+    .optional(),
+  referenceDriveFactor: z
+    .number({ error: 'referenceDriveFactor must be a number' })
+    .positive({ error: 'referenceDriveFactor must be positive' })
+    .max(100)
+    .optional(),
   drives_uA_cm2: z
-    .array(z.number({ error: 'each drive must be a number (µA/cm²)' }).min(-1000, { error: 'drives must be within ±1000 µA/cm²' }).max(1000, { error: 'drives must be within ±1000 µA/cm²' }), { error: 'drives_uA_cm2 must be a list of numbers' })
+    .array(
+      z
+        .number({ error: 'each drive must be a number (µA/cm²)' })
+        .min(-1000, { error: 'drives must be within ±1000 µA/cm²' })
+        .max(1000, { error: 'drives must be within ±1000 µA/cm²' }),
+      { error: 'drives_uA_cm2 must be a list of numbers' },
+    )
     .max(100, { error: 'at most 100 drives' })
     .optional(),
   fiCurve: z
     .strictObject({
-      points: z.int({ error: 'fiCurve.points must be a whole number' }).min(1, { error: 'fiCurve.points must be 1–50' }).max(50, { error: 'fiCurve.points must be 1–50' }),
-      upToFactor: z.number({ error: 'fiCurve.upToFactor must be a number' }).positive({ error: 'fiCurve.upToFactor must be positive' }).max(100),
+      points: z
+        .int({ error: 'fiCurve.points must be a whole number' })
+        .min(1, { error: 'fiCurve.points must be 1–50' })
+        .max(50, { error: 'fiCurve.points must be 1–50' }),
+      upToFactor: z
+        .number({ error: 'fiCurve.upToFactor must be a number' })
+        .positive({ error: 'fiCurve.upToFactor must be positive' })
+        .max(100),
     })
     .optional(),
 });
 
-const fraction = z.number({ error: 'block fraction must be a number' }).min(0, { error: 'block fraction must be between 0 and 1' }).max(1, { error: 'block fraction must be between 0 and 1' });
+const fraction = z
+  .number({ error: 'block fraction must be a number' })
+  .min(0, { error: 'block fraction must be between 0 and 1' })
+  .max(1, { error: 'block fraction must be between 0 and 1' });
 
 const potencySchema = z.strictObject({
   ic50: z.number({ error: 'ic50 must be a number' }).positive({ error: 'ic50 must be positive' }),
-  hill: z.number({ error: 'hill must be a number' }).positive({ error: 'Hill slope must be positive' }).max(10, { error: 'Hill slope must be at most 10' }),
+  hill: z
+    .number({ error: 'hill must be a number' })
+    .positive({ error: 'Hill slope must be positive' })
+    .max(10, { error: 'Hill slope must be at most 10' }),
 });
 
 const traceSchema = z.union([
@@ -47,9 +97,17 @@ function checkConductanceKeys(preset: string, keys: string[], field: string, ctx
   const { all, blockable } = conductanceNames(getPreset(preset));
   for (const key of keys) {
     if (!all.includes(key)) {
-      ctx.addIssue({ code: 'custom', path: [field, key], message: `unknown conductance "${key}" for preset ${preset} (blockable: ${blockable.join(', ')})` });
+      ctx.addIssue({
+        code: 'custom',
+        path: [field, key],
+        message: `unknown conductance "${key}" for preset ${preset} (blockable: ${blockable.join(', ')})`,
+      });
     } else if (!blockable.includes(key)) {
-      ctx.addIssue({ code: 'custom', path: [field, key], message: `conductance "${key}" of preset ${preset} cannot be blocked (blockable: ${blockable.join(', ')})` });
+      ctx.addIssue({
+        code: 'custom',
+        path: [field, key],
+        message: `conductance "${key}" of preset ${preset} cannot be blocked (blockable: ${blockable.join(', ')})`,
+      });
     }
   }
 }
@@ -61,32 +119,67 @@ function checkConductanceKeys(preset: string, keys: string[], field: string, ctx
 export const forecastRequestSchema = z
   .strictObject(
     {
-    preset: z.enum(PRESET_NAMES, { error: `preset must be one of: ${PRESET_NAMES.join(', ')}` }),
-    block: z.record(z.string(), fraction, { error: 'block must be an object of conductance → fraction' }).optional(),
-    potencies: z.record(z.string(), potencySchema, { error: 'potencies must be an object of conductance → {ic50, hill}' }).optional(),
-    concentrations: z
-      .array(z.number({ error: 'each concentration must be a number' }).min(0, { error: 'concentrations must be ≥ 0' }), { error: 'concentrations must be a list of numbers' })
-      .min(1, { error: 'give at least one concentration' })
-      .max(50, { error: 'at most 50 concentrations' })
-      .optional(),
-    concentrationUnit: z.string().max(20).optional(),
-    protocol: forecastProtocolSchema.optional(),
-    trace: traceSchema.optional(),
+      preset: z.enum(PRESET_NAMES, { error: `preset must be one of: ${PRESET_NAMES.join(', ')}` }),
+      block: z
+        .record(z.string(), fraction, { error: 'block must be an object of conductance → fraction' })
+        .optional(),
+      potencies: z
+        .record(z.string(), potencySchema, {
+          error: 'potencies must be an object of conductance → {ic50, hill}',
+        })
+        .optional(),
+      concentrations: z
+        .array(
+          z
+            .number({ error: 'each concentration must be a number' })
+            .min(0, { error: 'concentrations must be ≥ 0' }),
+          { error: 'concentrations must be a list of numbers' },
+        )
+        .min(1, { error: 'give at least one concentration' })
+        .max(50, { error: 'at most 50 concentrations' })
+        .optional(),
+      concentrationUnit: z.string().max(20).optional(),
+      protocol: forecastProtocolSchema.optional(),
+      trace: traceSchema.optional(),
     },
-    { error: (issue) => (issue.code === 'invalid_type' ? 'the forecast request must be an object' : undefined) },
+    {
+      error: (issue) =>
+        issue.code === 'invalid_type' ? 'the forecast request must be an object' : undefined,
+    },
   )
   .superRefine(
     (r, ctx) => {
-    if (!isPresetName(r.preset)) return;
-    if (isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
-    if (isObject(r.potencies)) checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
-    if (r.block && r.potencies) ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'give either block or potencies, not both' });
-    if (r.potencies && !r.concentrations) ctx.addIssue({ code: 'custom', path: ['concentrations'], message: 'potencies need a list of concentrations' });
-    if (r.concentrations && !r.potencies) ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'concentrations need potencies' });
-    const count = r.potencies ? (Array.isArray(r.concentrations) ? r.concentrations.length : 0) : r.block ? 1 : 0;
-    if (r.trace && typeof r.trace.condition === 'number' && r.trace.condition >= count) {
-      ctx.addIssue({ code: 'custom', path: ['trace', 'condition'], message: `trace.condition must be below the number of blocked conditions (${count})` });
-    }
+      if (!isPresetName(r.preset)) return;
+      if (isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
+      if (isObject(r.potencies)) checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
+      if (r.block && r.potencies)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['potencies'],
+          message: 'give either block or potencies, not both',
+        });
+      if (r.potencies && !r.concentrations)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['concentrations'],
+          message: 'potencies need a list of concentrations',
+        });
+      if (r.concentrations && !r.potencies)
+        ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'concentrations need potencies' });
+      const count = r.potencies
+        ? Array.isArray(r.concentrations)
+          ? r.concentrations.length
+          : 0
+        : r.block
+          ? 1
+          : 0;
+      if (r.trace && typeof r.trace.condition === 'number' && r.trace.condition >= count) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['trace', 'condition'],
+          message: `trace.condition must be below the number of blocked conditions (${count})`,
+        });
+      }
     },
     // Run even when other fields failed, so that every fault is reported at once.
     { when: (payload) => isObject(payload.value) },
@@ -103,15 +196,21 @@ export type ForecastRequest = z.input<typeof forecastRequestSchema>;
  * {"preset":"hh-squid-1952","block":{"gNa":0.3},"stepMs":500,"drives_uA_cm2":[10,20]}.
  */
 export const forecastInputFileSchema = z
-  .strictObject({
-    preset: z.enum(PRESET_NAMES, { error: `preset must be one of: ${PRESET_NAMES.join(', ')}` }),
-    block: z.record(z.string(), fraction, { error: 'block must be an object of conductance → fraction' }).optional(),
-    stepMs: forecastProtocolSchema.shape.stepMs,
-    drives_uA_cm2: forecastProtocolSchema.shape.drives_uA_cm2,
-  }, { error: (issue) => (issue.code === 'invalid_type' ? 'the input must be a JSON object' : undefined) })
+  .strictObject(
+    {
+      preset: z.enum(PRESET_NAMES, { error: `preset must be one of: ${PRESET_NAMES.join(', ')}` }),
+      block: z
+        .record(z.string(), fraction, { error: 'block must be an object of conductance → fraction' })
+        .optional(),
+      stepMs: forecastProtocolSchema.shape.stepMs,
+      drives_uA_cm2: forecastProtocolSchema.shape.drives_uA_cm2,
+    },
+    { error: (issue) => (issue.code === 'invalid_type' ? 'the input must be a JSON object' : undefined) },
+  )
   .superRefine(
     (r, ctx) => {
-      if (isPresetName(r.preset) && isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
+      if (isPresetName(r.preset) && isObject(r.block))
+        checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
     },
     { when: (payload) => isObject(payload.value) },
   );
@@ -121,7 +220,9 @@ export type ParsedForecastRequest = z.output<typeof forecastRequestSchema>;
 
 /** "path: message" lines, one per problem. */
 export function describeIssues(error: z.ZodError): string {
-  return error.issues.map((i) => `${i.path.length > 0 ? i.path.join('.') : '(input)'}: ${i.message}`).join('\n');
+  return error.issues
+    .map((i) => `${i.path.length > 0 ? i.path.join('.') : '(input)'}: ${i.message}`)
+    .join('\n');
 }
 
 /** Validate a forecast request; throws an Error whose message lists every problem. */

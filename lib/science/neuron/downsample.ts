@@ -8,7 +8,12 @@ export interface VoltageTrace {
  * Reduce samples taken every dt from t0 to at most `points` points: the first and last sample, and
  * each bucket's minimum and maximum in time order, so that spike peaks and troughs survive.
  */
-export function downsampleMinMax(samples: ArrayLike<number>, t0_ms: number, dt_ms: number, points: number): VoltageTrace {
+export function downsampleMinMax(
+  samples: ArrayLike<number>,
+  t0_ms: number,
+  dt_ms: number,
+  points: number,
+): VoltageTrace {
   const n = samples.length;
   const t_ms: number[] = [];
   const v_mV: number[] = [];

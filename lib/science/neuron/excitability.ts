@@ -16,7 +16,8 @@ import { findRheobase } from './rheobase';
  *   below that level (no spike in the last half, where the rate is taken): its rate there is 0 although
  *   it still fires, the tonic-to-phasic change of a cell losing its sodium current.
  */
-export type ExcitabilityFlag = 'spontaneous-firing' | 'no-stable-rest' | 'loss-of-firing' | 'depolarisation-block' | 'firing-stops';
+export type ExcitabilityFlag =
+  'spontaneous-firing' | 'no-stable-rest' | 'loss-of-firing' | 'depolarisation-block' | 'firing-stops';
 
 export interface ExcitabilityProtocol {
   /** @default DEFAULT_DT_MS (0.025 ms) */
@@ -80,7 +81,10 @@ export interface FiCurve {
 
 /** Drives of an f–I curve relative to a rheobase (µA/cm²). */
 export function fiCurveDrives(curve: FiCurve, rheobase_uA_cm2: number): number[] {
-  return Array.from({ length: curve.points }, (_, i) => ((i + 1) / curve.points) * curve.upToFactor * rheobase_uA_cm2);
+  return Array.from(
+    { length: curve.points },
+    (_, i) => ((i + 1) / curve.points) * curve.upToFactor * rheobase_uA_cm2,
+  );
 }
 
 export interface Excitability {
@@ -99,11 +103,21 @@ export interface Excitability {
 }
 
 /** Threshold (mV) of the first spike of a step from rest, or null. */
-function thresholdAt(model: CompiledModel, rest: MembraneState, current: number, p: ExcitabilityProtocol): number | null {
+function thresholdAt(
+  model: CompiledModel,
+  rest: MembraneState,
+  current: number,
+  p: ExcitabilityProtocol,
+): number | null {
   const run = simulate(
     model,
     rest,
-    { current_uA_cm2: current, duration_ms: p.rheobaseStep_ms, stopAtFirstSpike: true, thresholdSlope_mV_ms: p.thresholdSlope_mV_ms },
+    {
+      current_uA_cm2: current,
+      duration_ms: p.rheobaseStep_ms,
+      stopAtFirstSpike: true,
+      thresholdSlope_mV_ms: p.thresholdSlope_mV_ms,
+    },
     { dt_ms: p.dt_ms, rates: p.rates },
   );
   return run.firstSpikeThreshold_mV;
@@ -129,13 +143,22 @@ export function measureExcitability(model: CompiledModel, request: ExcitabilityR
           thresholdSlope_mV_ms: p.thresholdSlope_mV_ms,
         });
   if (rheo && rheo.rheobase_uA_cm2 === null) flags.add('loss-of-firing');
-  const threshold = rheo?.rheobase_uA_cm2 != null ? thresholdAt(model, rest.start, rheo.rheobase_uA_cm2 * p.thresholdStepFactor, p) : null;
+  const threshold =
+    rheo?.rheobase_uA_cm2 != null
+      ? thresholdAt(model, rest.start, rheo.rheobase_uA_cm2 * p.thresholdStepFactor, p)
+      : null;
   const referenceDrive =
     request.referenceDrive_uA_cm2 ??
-    (request.referenceDriveFactor !== undefined && rheo?.rheobase_uA_cm2 != null ? request.referenceDriveFactor * rheo.rheobase_uA_cm2 : null);
-  const rateAt = (drive: number) => firingRate(model, rest.start, drive, { ...integrator, step_ms: p.rateStep_ms });
+    (request.referenceDriveFactor !== undefined && rheo?.rheobase_uA_cm2 != null
+      ? request.referenceDriveFactor * rheo.rheobase_uA_cm2
+      : null);
+  const rateAt = (drive: number) =>
+    firingRate(model, rest.start, drive, { ...integrator, step_ms: p.rateStep_ms });
   const reference = referenceDrive === null ? null : rateAt(referenceDrive);
-  const curve = request.fiCurve && rheo?.rheobase_uA_cm2 != null ? fiCurveDrives(request.fiCurve, rheo.rheobase_uA_cm2) : [];
+  const curve =
+    request.fiCurve && rheo?.rheobase_uA_cm2 != null
+      ? fiCurveDrives(request.fiCurve, rheo.rheobase_uA_cm2)
+      : [];
   const drives = [...new Set([...(request.drives_uA_cm2 ?? []), ...curve])].sort((a, b) => a - b);
   const fI = drives.map((d) => (reference && d === referenceDrive ? reference : rateAt(d)));
   if (reference && reference.spikes === 0 && !rest.spontaneousFiring) flags.add('loss-of-firing');
@@ -143,7 +166,8 @@ export function measureExcitability(model: CompiledModel, request: ExcitabilityR
   for (const r of reference ? [reference, ...fI] : fI) {
     if (r.spikes > 0 && r.lateSpikes < 3 && r.lateMeanV_mV > blockLevel) flags.add('depolarisation-block');
   }
-  if (reference && reference.spikes > 0 && reference.lateSpikes === 0 && reference.lateMeanV_mV <= blockLevel) flags.add('firing-stops');
+  if (reference && reference.spikes > 0 && reference.lateSpikes === 0 && reference.lateMeanV_mV <= blockLevel)
+    flags.add('firing-stops');
   return {
     rest_mV: rest.rest_mV,
     rheobase_uA_cm2: rheo?.rheobase_uA_cm2 ?? null,

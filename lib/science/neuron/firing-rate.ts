@@ -19,14 +19,38 @@ export interface FiringRate {
 }
 
 /** Steady firing rate for a step of `drive` from `start`. */
-export function firingRate(model: CompiledModel, start: MembraneState, drive_uA_cm2: number, options: FiringRateOptions = {}): FiringRate {
+export function firingRate(
+  model: CompiledModel,
+  start: MembraneState,
+  drive_uA_cm2: number,
+  options: FiringRateOptions = {},
+): FiringRate {
   const stepMs = options.step_ms ?? 1000;
   const half = stepMs / 2;
-  const run = simulate(model, start, { current_uA_cm2: drive_uA_cm2, duration_ms: stepMs, meanFrom_ms: half, spikeLevel_mV: options.spikeLevel_mV }, options);
+  const run = simulate(
+    model,
+    start,
+    {
+      current_uA_cm2: drive_uA_cm2,
+      duration_ms: stepMs,
+      meanFrom_ms: half,
+      spikeLevel_mV: options.spikeLevel_mV,
+    },
+    options,
+  );
   const late = run.spikeTimes_ms.filter((t) => t >= half);
   const first = late[0];
   const last = late[late.length - 1];
   // Mean of consecutive intervals telescopes to (last − first)/(count − 1).
-  const rate = late.length >= 3 && first !== undefined && last !== undefined ? (1000 * (late.length - 1)) / (last - first) : 0;
-  return { drive_uA_cm2, rate_Hz: rate, spikes: run.spikeTimes_ms.length, lateSpikes: late.length, lateMeanV_mV: run.meanV_mV ?? run.end.v_mV };
+  const rate =
+    late.length >= 3 && first !== undefined && last !== undefined
+      ? (1000 * (late.length - 1)) / (last - first)
+      : 0;
+  return {
+    drive_uA_cm2,
+    rate_Hz: rate,
+    spikes: run.spikeTimes_ms.length,
+    lateSpikes: late.length,
+    lateMeanV_mV: run.meanV_mV ?? run.end.v_mV,
+  };
 }

@@ -4,7 +4,13 @@ export type { NeuronPreset, ConductanceSpec, GateSpec, GateKinetics, MembraneSta
 export type { RateForm, TauForm } from './rate-forms';
 export { evaluateRate, evaluateTau, expLinear } from './rate-forms';
 export { compileModel, steadyStateAt, type CompiledModel } from './model';
-export { simulate, DEFAULT_DT_MS, type RunProtocol, type RunResult, type IntegratorOptions } from './integrate';
+export {
+  simulate,
+  DEFAULT_DT_MS,
+  type RunProtocol,
+  type RunResult,
+  type IntegratorOptions,
+} from './integrate';
 export { steadyStateCurrent, fixedPoints, isStable, type FixedPoint } from './steady-state';
 export { findRest, type RestResult } from './rest';
 export { findRheobase, type RheobaseOptions, type RheobaseResult } from './rheobase';

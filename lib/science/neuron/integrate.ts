@@ -66,9 +66,15 @@ export interface IntegratorOptions {
  * from t to t+dt exactly for the gates at t+dt/2 held. Both half-steps are midpoint rules, so the
  * scheme is second order, and unconditionally stable for the linear parts. `start` is not mutated.
  */
-export function simulate(model: CompiledModel, start: MembraneState, protocol: RunProtocol, options: IntegratorOptions = {}): RunResult {
+export function simulate(
+  model: CompiledModel,
+  start: MembraneState,
+  protocol: RunProtocol,
+  options: IntegratorOptions = {},
+): RunResult {
   const dt = options.dt_ms ?? DEFAULT_DT_MS;
-  if (!(dt > 0) || !(protocol.duration_ms >= 0)) throw new Error('simulate: dt and duration must be positive');
+  if (!(dt > 0) || !(protocol.duration_ms >= 0))
+    throw new Error('simulate: dt and duration must be positive');
   const step = stepFor(model, dt, options.rates ?? 'table');
   const x = Float64Array.from(start.gates);
   const current = protocol.current_uA_cm2;
@@ -97,7 +103,8 @@ export function simulate(model: CompiledModel, start: MembraneState, protocol: R
     if (spikes.length === 0) {
       const s = (vNew - v) / dt;
       const vMid = 0.5 * (v + vNew);
-      if (slopePrev < slope && s >= slope) threshold = vMidPrev + ((vMid - vMidPrev) * (slope - slopePrev)) / (s - slopePrev);
+      if (slopePrev < slope && s >= slope)
+        threshold = vMidPrev + ((vMid - vMidPrev) * (slope - slopePrev)) / (s - slopePrev);
       slopePrev = s;
       vMidPrev = vMid;
     }
@@ -108,7 +115,8 @@ export function simulate(model: CompiledModel, start: MembraneState, protocol: R
       sum += v;
       summed++;
     }
-    if (!(v > -1e4 && v < 1e4)) throw new Error(`simulate: V left the physical range (${v} mV) at t = ${(n + 1) * dt} ms`);
+    if (!(v > -1e4 && v < 1e4))
+      throw new Error(`simulate: V left the physical range (${v} mV) at t = ${(n + 1) * dt} ms`);
     if (stopAtSpike && spikes.length > 0) {
       n++;
       break;

@@ -39,7 +39,9 @@ function stepFactory(model: CompiledModel): StepFactory {
   lines.push(`    const i = u | 0; const f = u - i; const b = i * ${stride};`);
   for (let j = 0; j < nGates; j++) {
     const a = 2 * j;
-    lines.push(`    { const p = b + ${a}; x[${j}] = (coef[p] + f * (coef[p + ${stride}] - coef[p])) * x[${j}] + coef[p + 1] + f * (coef[p + ${stride + 1}] - coef[p + 1]); }`);
+    lines.push(
+      `    { const p = b + ${a}; x[${j}] = (coef[p] + f * (coef[p + ${stride}] - coef[p])) * x[${j}] + coef[p + 1] + f * (coef[p + ${stride + 1}] - coef[p + 1]); }`,
+    );
   }
   lines.push('  } else exactGates(x, v);');
   for (let j = 0; j < nGates; j++) lines.push(`  const x${j} = x[${j}];`);
@@ -58,13 +60,27 @@ function stepFactory(model: CompiledModel): StepFactory {
   lines.push('  const vInf = (I + gE) / g;');
   lines.push('  return vInf + (v - vInf) * Math.exp(-dtOverC * g);');
   lines.push('};');
-  const factory = new Function('coef', 'vMin', 'inv', 'intervals', 'gMax', 'erev', 'dtOverC', 'exactGates', lines.join('\n')) as StepFactory;
+  const factory = new Function(
+    'coef',
+    'vMin',
+    'inv',
+    'intervals',
+    'gMax',
+    'erev',
+    'dtOverC',
+    'exactGates',
+    lines.join('\n'),
+  ) as StepFactory;
   factories.set(layout, factory);
   return factory;
 }
 
 /** The step function of a model for time step dt, with tabulated or exact rates. */
-export function membraneStep(model: CompiledModel, dt_ms: number, rates: 'table' | 'exact' = 'table'): MembraneStep {
+export function membraneStep(
+  model: CompiledModel,
+  dt_ms: number,
+  rates: 'table' | 'exact' = 'table',
+): MembraneStep {
   const table = rates === 'table' ? gateTable(model, dt_ms) : null;
   const infTau = new Float64Array(2);
   const exactGates = (x: Float64Array, v: number) => {

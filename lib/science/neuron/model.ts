@@ -23,11 +23,15 @@ export interface CompiledModel {
  * Flatten a preset, with each conductance multiplied by `scale[name]` (default 1), e.g.
  * { gNa: 0.7 } for 30 % block. Throws on a name the preset does not have.
  */
-export function compileModel(preset: NeuronPreset, scale: Readonly<Record<string, number>> = {}): CompiledModel {
+export function compileModel(
+  preset: NeuronPreset,
+  scale: Readonly<Record<string, number>> = {},
+): CompiledModel {
   const names = preset.conductances.map((c) => c.name);
   if (names.length === 0) throw new Error(`preset ${preset.name} has no conductances`);
   for (const key of Object.keys(scale)) {
-    if (!names.includes(key)) throw new Error(`preset ${preset.name} has no conductance "${key}" (has ${names.join(', ')})`);
+    if (!names.includes(key))
+      throw new Error(`preset ${preset.name} has no conductance "${key}" (has ${names.join(', ')})`);
   }
   const gates: CompiledModel['gates'] = [];
   const termStart = new Int32Array(names.length + 1);
@@ -38,7 +42,8 @@ export function compileModel(preset: NeuronPreset, scale: Readonly<Record<string
     const q10 = c.q10 ?? 1;
     const phi = q10 ** ((preset.temperature_C - (c.referenceTemperature_C ?? preset.temperature_C)) / 10);
     for (const gate of c.gates) {
-      if (!Number.isInteger(gate.power) || gate.power < 1) throw new Error(`gate ${c.name}.${gate.name}: power must be a positive integer`);
+      if (!Number.isInteger(gate.power) || gate.power < 1)
+        throw new Error(`gate ${c.name}.${gate.name}: power must be a positive integer`);
       termGate.push(gates.length);
       termPower.push(gate.power);
       gates.push({ label: `${c.name}.${gate.name}`, kinetics: gate.kinetics, phi });

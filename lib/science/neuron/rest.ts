@@ -22,13 +22,27 @@ export const FREE_RUN_MS = 1000;
  * linear stability) rather than by running the model until it settles, so it costs microseconds and
  * does not depend on the time step.
  */
-export function findRest(model: CompiledModel, options: IntegratorOptions & { spikeLevel_mV?: number } = {}): RestResult {
+export function findRest(
+  model: CompiledModel,
+  options: IntegratorOptions & { spikeLevel_mV?: number } = {},
+): RestResult {
   const points = fixedPoints(model, 0);
   const stable = points.find((p) => p.stable);
-  if (stable) return { rest_mV: stable.v_mV, start: steadyStateAt(model, stable.v_mV), spontaneousFiring: false, noStableRest: false };
+  if (stable)
+    return {
+      rest_mV: stable.v_mV,
+      start: steadyStateAt(model, stable.v_mV),
+      spontaneousFiring: false,
+      noStableRest: false,
+    };
   // No stable rest: start just above the lowest fixed point and let the membrane run free.
   const from = steadyStateAt(model, (points[0]?.v_mV ?? -65) + 1);
-  const run = simulate(model, from, { current_uA_cm2: 0, duration_ms: FREE_RUN_MS, spikeLevel_mV: options.spikeLevel_mV }, options);
+  const run = simulate(
+    model,
+    from,
+    { current_uA_cm2: 0, duration_ms: FREE_RUN_MS, spikeLevel_mV: options.spikeLevel_mV },
+    options,
+  );
   const fired = run.spikeTimes_ms.some((t) => t >= FREE_RUN_MS / 2);
   return { rest_mV: null, start: run.end, spontaneousFiring: fired, noStableRest: !fired };
 }

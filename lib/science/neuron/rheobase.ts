@@ -93,7 +93,11 @@ function search(fire: Fire, guess: number, first: number, relTol: number, absTol
  * tolerance's width, which costs two runs when the coarse answer is already right. Assumes that
  * firing within the step is monotone in the current (true of both built-in presets).
  */
-export function findRheobase(model: CompiledModel, rest: MembraneState, options: RheobaseOptions = {}): RheobaseResult {
+export function findRheobase(
+  model: CompiledModel,
+  rest: MembraneState,
+  options: RheobaseOptions = {},
+): RheobaseResult {
   const stepMs = options.step_ms ?? 500;
   const relTol = options.relTolerance ?? 1e-3;
   const absTol = options.absTolerance_uA_cm2 ?? 1e-4;
@@ -132,5 +136,11 @@ export function findRheobase(model: CompiledModel, rest: MembraneState, options:
     found = search(fireAt(dt), guess, 0.25, relTol, absTol, ceiling);
   }
   if (!found) return { rheobase_uA_cm2: null, bracket: null, threshold_mV: null, latency_ms: null, steps };
-  return { rheobase_uA_cm2: found.hi, bracket: [found.lo, found.hi], threshold_mV: found.atHi?.threshold_mV ?? null, latency_ms: found.atHi?.latency_ms ?? null, steps };
+  return {
+    rheobase_uA_cm2: found.hi,
+    bracket: [found.lo, found.hi],
+    threshold_mV: found.atHi?.threshold_mV ?? null,
+    latency_ms: found.atHi?.latency_ms ?? null,
+    steps,
+  };
 }

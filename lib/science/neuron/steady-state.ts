@@ -133,7 +133,11 @@ export function routhHurwitzStable(ascending: number[]): boolean {
  * The first fixed point at or above `from_mV` − 5 mV under current I (scan of 0.25 mV steps up to
  * +40 mV above `from_mV`), if it is stable; otherwise null. Cheap enough to call per step current.
  */
-export function stableFixedPointAbove(model: CompiledModel, current_uA_cm2: number, from_mV: number): FixedPoint | null {
+export function stableFixedPointAbove(
+  model: CompiledModel,
+  current_uA_cm2: number,
+  from_mV: number,
+): FixedPoint | null {
   const f = (v: number) => steadyStateCurrent(model, v) - current_uA_cm2;
   let vPrev = from_mV - 5;
   let fPrev = f(vPrev);

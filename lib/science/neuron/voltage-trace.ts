@@ -19,8 +19,18 @@ export function voltageTrace(model: CompiledModel, request: TraceRequest): Volta
   const options = { dt_ms: dt, rates: request.rates };
   const margin = request.margin_ms ?? 20;
   const rest = findRest(model, options);
-  const before = simulate(model, rest.start, { current_uA_cm2: 0, duration_ms: margin, record: true }, options);
-  const step = simulate(model, before.end, { current_uA_cm2: request.drive_uA_cm2, duration_ms: request.duration_ms ?? 1000, record: true }, options);
+  const before = simulate(
+    model,
+    rest.start,
+    { current_uA_cm2: 0, duration_ms: margin, record: true },
+    options,
+  );
+  const step = simulate(
+    model,
+    before.end,
+    { current_uA_cm2: request.drive_uA_cm2, duration_ms: request.duration_ms ?? 1000, record: true },
+    options,
+  );
   const after = simulate(model, step.end, { current_uA_cm2: 0, duration_ms: margin, record: true }, options);
   const a = before.trace!;
   const b = step.trace!;

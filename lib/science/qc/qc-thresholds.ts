@@ -52,7 +52,8 @@ export function resolveQcThresholds(overrides: Partial<QcThresholds> = {}): QcTh
   for (const [min, max] of pairs) {
     const low = t[min];
     const high = t[max];
-    if (low !== null && high !== null && low > high) throw new RangeError(`QC threshold ${min} (${low}) is above ${max} (${high})`);
+    if (low !== null && high !== null && low > high)
+      throw new RangeError(`QC threshold ${min} (${low}) is above ${max} (${high})`);
   }
   return t;
 }

@@ -41,36 +41,78 @@ export function checkWells(wells: readonly QcWell[], thresholds?: Partial<QcThre
 
 function checkWell(well: QcWell, t: QcThresholds): QcResult {
   const reasons: QcReason[] = [];
-  const read = (field: QcField, needed: boolean): number | null => (needed ? numeric(well, field, reasons) : null);
+  const read = (field: QcField, needed: boolean): number | null =>
+    needed ? numeric(well, field, reasons) : null;
   const control = read('controlCurrent_pA', true);
   const compound = read('compoundCurrent_pA', true);
-  const seal = read('sealResistance_GOhm', t.sealResistanceMin_GOhm !== null || t.sealResistanceMax_GOhm !== null);
-  const series = read('seriesResistance_MOhm', t.seriesResistanceMin_MOhm !== null || t.seriesResistanceMax_MOhm !== null);
+  const seal = read(
+    'sealResistance_GOhm',
+    t.sealResistanceMin_GOhm !== null || t.sealResistanceMax_GOhm !== null,
+  );
+  const series = read(
+    'seriesResistance_MOhm',
+    t.seriesResistanceMin_MOhm !== null || t.seriesResistanceMax_MOhm !== null,
+  );
   const capacitance = read('capacitance_pF', t.capacitanceMin_pF !== null || t.capacitanceMax_pF !== null);
-  const say = (code: QcReasonCode, field: QcField | null, message: string) => reasons.push({ code, field, message });
+  const say = (code: QcReasonCode, field: QcField | null, message: string) =>
+    reasons.push({ code, field, message });
 
   if (seal !== null && t.sealResistanceMin_GOhm !== null && seal < t.sealResistanceMin_GOhm) {
-    say('seal_resistance_low', 'sealResistance_GOhm', `Seal resistance ${seal} GΩ is below the minimum of ${t.sealResistanceMin_GOhm} GΩ.`);
+    say(
+      'seal_resistance_low',
+      'sealResistance_GOhm',
+      `Seal resistance ${seal} GΩ is below the minimum of ${t.sealResistanceMin_GOhm} GΩ.`,
+    );
   }
   if (seal !== null && t.sealResistanceMax_GOhm !== null && seal > t.sealResistanceMax_GOhm) {
-    say('seal_resistance_high', 'sealResistance_GOhm', `Seal resistance ${seal} GΩ is above the plausible maximum of ${t.sealResistanceMax_GOhm} GΩ.`);
+    say(
+      'seal_resistance_high',
+      'sealResistance_GOhm',
+      `Seal resistance ${seal} GΩ is above the plausible maximum of ${t.sealResistanceMax_GOhm} GΩ.`,
+    );
   }
   if (control !== null && t.controlCurrentMin_pA !== null && Math.abs(control) < t.controlCurrentMin_pA) {
-    say('control_current_small', 'controlCurrent_pA', `Control current ${control} pA is smaller than the minimum amplitude of ${t.controlCurrentMin_pA} pA.`);
+    say(
+      'control_current_small',
+      'controlCurrent_pA',
+      `Control current ${control} pA is smaller than the minimum amplitude of ${t.controlCurrentMin_pA} pA.`,
+    );
   }
   if (series !== null && t.seriesResistanceMin_MOhm !== null && series < t.seriesResistanceMin_MOhm) {
-    say('series_resistance_low', 'seriesResistance_MOhm', `Series resistance ${series} MΩ is below the plausible minimum of ${t.seriesResistanceMin_MOhm} MΩ.`);
+    say(
+      'series_resistance_low',
+      'seriesResistance_MOhm',
+      `Series resistance ${series} MΩ is below the plausible minimum of ${t.seriesResistanceMin_MOhm} MΩ.`,
+    );
   }
   if (series !== null && t.seriesResistanceMax_MOhm !== null && series > t.seriesResistanceMax_MOhm) {
-    say('series_resistance_high', 'seriesResistance_MOhm', `Series resistance ${series} MΩ is above the maximum of ${t.seriesResistanceMax_MOhm} MΩ.`);
+    say(
+      'series_resistance_high',
+      'seriesResistance_MOhm',
+      `Series resistance ${series} MΩ is above the maximum of ${t.seriesResistanceMax_MOhm} MΩ.`,
+    );
   }
   if (capacitance !== null && outside(capacitance, t.capacitanceMin_pF, t.capacitanceMax_pF)) {
-    say('capacitance_out_of_range', 'capacitance_pF', `Capacitance ${capacitance} pF is outside the range ${t.capacitanceMin_pF ?? '–'} to ${t.capacitanceMax_pF ?? '–'} pF.`);
+    say(
+      'capacitance_out_of_range',
+      'capacitance_pF',
+      `Capacitance ${capacitance} pF is outside the range ${t.capacitanceMin_pF ?? '–'} to ${t.capacitanceMax_pF ?? '–'} pF.`,
+    );
   }
-  if (well.role === 'vehicle' && control !== null && compound !== null && control !== 0 && t.vehicleRundownMax_fraction !== null) {
+  if (
+    well.role === 'vehicle' &&
+    control !== null &&
+    compound !== null &&
+    control !== 0 &&
+    t.vehicleRundownMax_fraction !== null
+  ) {
     const rundown = 1 - compound / control;
     if (rundown > t.vehicleRundownMax_fraction) {
-      say('vehicle_rundown', null, `Vehicle well ran down by ${Math.round(rundown * 100)} %, more than the limit of ${Math.round(t.vehicleRundownMax_fraction * 100)} %.`);
+      say(
+        'vehicle_rundown',
+        null,
+        `Vehicle well ran down by ${Math.round(rundown * 100)} %, more than the limit of ${Math.round(t.vehicleRundownMax_fraction * 100)} %.`,
+      );
     }
   }
   return { wellId: well.wellId, passed: reasons.length === 0, reasons };
@@ -85,7 +127,11 @@ function numeric(well: QcWell, field: QcField, reasons: QcReason[]): number | nu
     return null;
   }
   if (typeof value !== 'number' || !Number.isFinite(value)) {
-    reasons.push({ code: 'non_numeric_value', field, message: `The ${label} (${JSON.stringify(String(value))}) is not a number in ${unit}.` });
+    reasons.push({
+      code: 'non_numeric_value',
+      field,
+      message: `The ${label} (${JSON.stringify(String(value))}) is not a number in ${unit}.`,
+    });
     return null;
   }
   return value;

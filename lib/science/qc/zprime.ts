@@ -25,7 +25,10 @@ export interface ZPrimeResult {
 }
 
 /** Z′ = 1 − 3(σp + σn)/|μp − μn| from control means and standard deviations (Zhang et al. 1999). */
-export function zPrimeFromStatistics(positive: { mean: number; sd: number }, negative: { mean: number; sd: number }): number {
+export function zPrimeFromStatistics(
+  positive: { mean: number; sd: number },
+  negative: { mean: number; sd: number },
+): number {
   return 1 - (3 * (positive.sd + negative.sd)) / Math.abs(positive.mean - negative.mean);
 }
 
@@ -38,22 +41,46 @@ export function zPrimeBand(zPrime: number): ZPrimeBand {
  * Z′ of one plate and target from its reference-blocker (positive) and vehicle (negative) wells.
  * @param limit the screen's lowest acceptable Z′. @default 0.5 (Gatewell design; Zhang et al. 1999 "excellent" bound)
  */
-export function plateZPrime(reference: ArrayLike<number>, vehicle: ArrayLike<number>, limit = 0.5): ZPrimeResult {
+export function plateZPrime(
+  reference: ArrayLike<number>,
+  vehicle: ArrayLike<number>,
+  limit = 0.5,
+): ZPrimeResult {
   if (!Number.isFinite(limit)) throw new RangeError(`Z′ limit must be a finite number, got ${limit}`);
   const ref = describe(reference, 'reference');
   const veh = describe(vehicle, 'vehicle');
   const base = { limit, reference: ref, vehicle: veh };
   if (ref.sd === null || veh.sd === null) {
-    return { ...base, zPrime: null, band: null, passes: false, message: `Z′ needs at least 2 reference and 2 vehicle wells; ${ref.n} and ${veh.n} in use.` };
+    return {
+      ...base,
+      zPrime: null,
+      band: null,
+      passes: false,
+      message: `Z′ needs at least 2 reference and 2 vehicle wells; ${ref.n} and ${veh.n} in use.`,
+    };
   }
   if (ref.mean === veh.mean) {
-    return { ...base, zPrime: null, band: 'unusable', passes: false, message: 'Reference and vehicle wells have the same mean: no assay window.' };
+    return {
+      ...base,
+      zPrime: null,
+      band: 'unusable',
+      passes: false,
+      message: 'Reference and vehicle wells have the same mean: no assay window.',
+    };
   }
   const zPrime = zPrimeFromStatistics({ mean: ref.mean!, sd: ref.sd }, { mean: veh.mean!, sd: veh.sd });
   const band = zPrimeBand(zPrime);
   const passes = zPrime >= limit;
   const shown = zPrime.toFixed(2);
-  return { ...base, zPrime, band, passes, message: passes ? `Z′ ${shown} (${band}).` : `Z′ ${shown} (${band}) is below the screen's limit of ${limit}.` };
+  return {
+    ...base,
+    zPrime,
+    band,
+    passes,
+    message: passes
+      ? `Z′ ${shown} (${band}).`
+      : `Z′ ${shown} (${band}) is below the screen's limit of ${limit}.`,
+  };
 }
 
 function describe(values: ArrayLike<number>, name: string): ControlStatistics {

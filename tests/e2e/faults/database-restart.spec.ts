@@ -6,9 +6,13 @@ import { database, importThroughApi, potassiumScreenId, waitForHealthy } from '.
 // The database goes away under the running production server and comes back; the server is never
 // restarted. Meanwhile every answer says plainly that nothing was changed; afterwards the same server
 // signs people in, lists plates and takes an import through the API.
-const UNAVAILABLE = 'Gatewell cannot reach its database just now, so nothing was changed. Try again in a minute.';
+const UNAVAILABLE =
+  'Gatewell cannot reach its database just now, so nothing was changed. Try again in a minute.';
 
-test('with the database stopped the server answers clearly, and once it is back the server serves again without a restart', async ({ browser, baseURL }) => {
+test('with the database stopped the server answers clearly, and once it is back the server serves again without a restart', async ({
+  browser,
+  baseURL,
+}) => {
   test.setTimeout(240_000);
   const screenId = await potassiumScreenId();
   const { page } = await signedInContext(browser, 'biologist');
@@ -19,7 +23,10 @@ test('with the database stopped the server answers clearly, and once it is back 
   try {
     const health = await page.request.get('/api/health');
     expect(health.status()).toBe(503);
-    expect(await health.json()).toMatchObject({ status: 'database_unreachable', database: { connected: false } });
+    expect(await health.json()).toMatchObject({
+      status: 'database_unreachable',
+      database: { connected: false },
+    });
 
     // A signed-in page: Gatewell's own error card, not a bare server error.
     await page.goto('/plates');
@@ -56,7 +63,10 @@ test('with the database stopped the server answers clearly, and once it is back 
   await expect(fresh.getByRole('link', { name: 'KV-AFTER-OUTAGE' })).toBeVisible();
 });
 
-test('right after an immediate restart (a crash and recovery) the first requests are served from a renewed pool', async ({ browser, baseURL }) => {
+test('right after an immediate restart (a crash and recovery) the first requests are served from a renewed pool', async ({
+  browser,
+  baseURL,
+}) => {
   test.setTimeout(180_000);
   const screenId = await potassiumScreenId();
   const { page } = await signedInContext(browser, 'biologist');
@@ -74,5 +84,9 @@ test('right after an immediate restart (a crash and recovery) the first requests
   expect(imported.status, JSON.stringify(imported.body)).toBe(201);
   expect((await (await page.request.get('/api/health')).json()).status).toBe('ok');
   // The server's background mail sender (a pass every 15 s) came through the restart too: the chemists' notice goes out.
-  await waitForMessages((m) => m.subject === 'Gatewell: plate KV-AFTER-RESTART imported: compound map to verify', 1, 90_000);
+  await waitForMessages(
+    (m) => m.subject === 'Gatewell: plate KV-AFTER-RESTART imported: compound map to verify',
+    1,
+    90_000,
+  );
 });

@@ -6,7 +6,9 @@ import { freshPotassiumExport, queryOne, screenshot, signedInContext } from '../
 // plates, so the worker's insert waits) answers the person after a minute with "still storing" (202)
 // instead of leaving the page waiting; the plate arrives once the worker gets through. The minute is
 // the server's own wait for a running import (lib/plates/import-jobs.ts).
-test('an import still being stored after a minute says so in the wizard, and the plate arrives later', async ({ browser }) => {
+test('an import still being stored after a minute says so in the wizard, and the plate arrives later', async ({
+  browser,
+}) => {
   test.setTimeout(180_000);
   const label = `KV-SLOW-${Date.now() % 100_000}`;
   const { context, page } = await signedInContext(browser, 'biologist');
@@ -15,7 +17,9 @@ test('an import still being stored after a minute says so in the wizard, and the
   try {
     await page.goto('/plates/import');
     await page.getByLabel('Screen').selectOption({ label: 'Potassium counter-screen (Kv7.2)' });
-    await page.getByLabel(/Instrument export/).setInputFiles({ name: 'kv-slow.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
+    await page
+      .getByLabel(/Instrument export/)
+      .setInputFiles({ name: 'kv-slow.csv', mimeType: 'text/csv', buffer: freshPotassiumExport() });
     await page.getByRole('button', { name: 'Read file' }).click();
     await expect(page.getByLabel('well position')).not.toHaveValue('');
     await page.getByRole('button', { name: 'Check every row' }).click();
@@ -27,15 +31,25 @@ test('an import still being stored after a minute says so in the wizard, and the
     await page.getByRole('button', { name: 'Store plate' }).click();
     const notice = page.getByRole('status').filter({ hasText: 'still storing' });
     await expect(notice).toBeVisible({ timeout: 90_000 });
-    await expect(notice.getByRole('link', { name: 'Open the plate list' })).toHaveAttribute('href', '/plates');
+    await expect(notice.getByRole('link', { name: 'Open the plate list' })).toHaveAttribute(
+      'href',
+      '/plates',
+    );
     await expect(page.getByRole('button', { name: 'Store plate' })).toBeDisabled();
     await screenshot(page, 'import-still-storing');
-    const job = await queryOne<{ state: string }>("select state from compute_jobs where kind = 'plate-import' order by created_at desc limit 1");
+    const job = await queryOne<{ state: string }>(
+      "select state from compute_jobs where kind = 'plate-import' order by created_at desc limit 1",
+    );
     expect(job?.state).toBe('running');
-    expect(await queryOne("select id from plates where label = $1", [label])).toBeUndefined();
+    expect(await queryOne('select id from plates where label = $1', [label])).toBeUndefined();
 
     await blocker.query('rollback');
-    await expect.poll(async () => (await queryOne<{ id: string }>('select id from plates where label = $1', [label]))?.id, { timeout: 30_000 }).toBeTruthy();
+    await expect
+      .poll(
+        async () => (await queryOne<{ id: string }>('select id from plates where label = $1', [label]))?.id,
+        { timeout: 30_000 },
+      )
+      .toBeTruthy();
     await notice.getByRole('link', { name: 'Open the plate list' }).click();
     await expect(page.getByRole('link', { name: label })).toBeVisible();
   } finally {

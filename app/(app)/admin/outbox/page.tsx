@@ -13,7 +13,10 @@ import { requeueMailAction, sendWaitingMailAction } from './actions';
 export const metadata: Metadata = { title: 'Mail outbox' };
 
 const FILTERS: { state: MailState | undefined; label: string }[] = [
-  { state: undefined, label: 'All' }, { state: 'queued', label: 'Waiting' }, { state: 'sent', label: 'Sent' }, { state: 'failed', label: 'Gave up' },
+  { state: undefined, label: 'All' },
+  { state: 'queued', label: 'Waiting' },
+  { state: 'sent', label: 'Sent' },
+  { state: 'failed', label: 'Gave up' },
 ];
 
 export default async function OutboxPage({ searchParams }: { searchParams: Promise<{ state?: string }> }) {
@@ -26,17 +29,27 @@ export default async function OutboxPage({ searchParams }: { searchParams: Promi
       <PageHeader
         title="Mail outbox"
         intro={`Notifications queued with each sign-off step and sent over SMTP, retried with growing waits. ${counts.queued} waiting, ${counts.sent} sent, ${counts.failed} gave up.`}
-        actions={<OutboxButton action={sendWaitingMailAction} label="Send waiting mail now" busyLabel="Sending…" />}
+        actions={
+          <OutboxButton action={sendWaitingMailAction} label="Send waiting mail now" busyLabel="Sending…" />
+        }
       />
       <nav aria-label="Filter by delivery" className="mb-4 flex gap-2 text-sm">
         {FILTERS.map((f) => (
-          <AppLink key={f.label} href={f.state ? `/admin/outbox?state=${f.state}` : '/admin/outbox'} aria-current={f.state === state ? 'page' : undefined}
-            className={`rounded-full border px-3 py-1 ${f.state === state ? 'border-lagoon-600 bg-lagoon-100 text-lagoon-700' : 'border-ink-300 text-ink-700 hover:bg-ink-100'}`}>
+          <AppLink
+            key={f.label}
+            href={f.state ? `/admin/outbox?state=${f.state}` : '/admin/outbox'}
+            aria-current={f.state === state ? 'page' : undefined}
+            className={`rounded-full border px-3 py-1 ${f.state === state ? 'border-lagoon-600 bg-lagoon-100 text-lagoon-700' : 'border-ink-300 text-ink-700 hover:bg-ink-100'}`}
+          >
             {f.label}
           </AppLink>
         ))}
       </nav>
-      {rows.length ? <OutboxTable rows={rows} requeue={requeueMailAction} /> : <EmptyState title="No messages">Nothing matches this filter.</EmptyState>}
+      {rows.length ? (
+        <OutboxTable rows={rows} requeue={requeueMailAction} />
+      ) : (
+        <EmptyState title="No messages">Nothing matches this filter.</EmptyState>
+      )}
     </>
   );
 }

@@ -10,7 +10,12 @@ import { changeRoles } from '@/lib/users/change-roles';
 import { createUser } from '@/lib/users/create';
 import { resetPassword } from '@/lib/users/reset-password';
 import { disableUser, enableUser } from '@/lib/users/status';
-import { changeRolesSchema, createUserSchema, resetPasswordSchema, userStatusSchema } from '@/lib/validation/users';
+import {
+  changeRolesSchema,
+  createUserSchema,
+  resetPasswordSchema,
+  userStatusSchema,
+} from '@/lib/validation/users';
 
 function refresh(userId?: string) {
   revalidatePath('/admin/users');
@@ -21,22 +26,30 @@ function refresh(userId?: string) {
  * Creates an account; with a link, the person is e-mailed one at once; else a generated initial password
  * comes back once, for the admin to hand over.
  */
-export const createUserAction = validatedAction(createUserSchema, rolesFor('manageUsers'), async (input, actor) => {
-  const { user, initialPassword, invited } = await createUser(actor, input);
-  refresh();
-  if (invited && process.env.GATEWELL_MAIL_SENDER !== 'off') void sendDueMailNow();
-  const message = invited
-    ? `Account created for ${user.name}. A link to choose their password is on its way to ${user.email}; it works once, within ${INVITATION_LIFETIME_MS / 86_400_000} days.`
-    : `Account created for ${user.name}.`;
-  return { ok: true, message, userId: user.id, userName: user.name, initialPassword, invited };
-});
+export const createUserAction = validatedAction(
+  createUserSchema,
+  rolesFor('manageUsers'),
+  async (input, actor) => {
+    const { user, initialPassword, invited } = await createUser(actor, input);
+    refresh();
+    if (invited && process.env.GATEWELL_MAIL_SENDER !== 'off') void sendDueMailNow();
+    const message = invited
+      ? `Account created for ${user.name}. A link to choose their password is on its way to ${user.email}; it works once, within ${INVITATION_LIFETIME_MS / 86_400_000} days.`
+      : `Account created for ${user.name}.`;
+    return { ok: true, message, userId: user.id, userName: user.name, initialPassword, invited };
+  },
+);
 
 /** Replaces a user's roles, with the reason kept in the audit trail. */
-export const changeRolesAction = validatedAction(changeRolesSchema, rolesFor('manageUsers'), async (input, actor) => {
-  const user = await changeRoles(actor, input);
-  refresh(user.id);
-  return { ok: true, message: `Roles saved: ${user.roles.join(', ') || 'none (read only)'}.` };
-});
+export const changeRolesAction = validatedAction(
+  changeRolesSchema,
+  rolesFor('manageUsers'),
+  async (input, actor) => {
+    const user = await changeRoles(actor, input);
+    refresh(user.id);
+    return { ok: true, message: `Roles saved: ${user.roles.join(', ') || 'none (read only)'}.` };
+  },
+);
 
 /** Disables an account (ending its sessions) or enables it again, with the reason kept in the audit trail. */
 export const setUserStatusAction = validatedAction(
@@ -47,14 +60,25 @@ export const setUserStatusAction = validatedAction(
     refresh(user.id);
     return {
       ok: true,
-      message: status === 'disabled' ? `${user.name} is disabled and signed out everywhere.` : `${user.name} can sign in again.`,
+      message:
+        status === 'disabled'
+          ? `${user.name} is disabled and signed out everywhere.`
+          : `${user.name} can sign in again.`,
     };
   },
 );
 
 /** Sets a new password for someone and ends their sessions; a generated one comes back once. */
-export const resetPasswordAction = validatedAction(resetPasswordSchema, rolesFor('manageUsers'), async (input, actor) => {
-  const { user, temporaryPassword } = await resetPassword(actor, input);
-  refresh(user.id);
-  return { ok: true, message: `New password set for ${user.name}; their sessions have ended.`, temporaryPassword };
-});
+export const resetPasswordAction = validatedAction(
+  resetPasswordSchema,
+  rolesFor('manageUsers'),
+  async (input, actor) => {
+    const { user, temporaryPassword } = await resetPassword(actor, input);
+    refresh(user.id);
+    return {
+      ok: true,
+      message: `New password set for ${user.name}; their sessions have ended.`,
+      temporaryPassword,
+    };
+  },
+);

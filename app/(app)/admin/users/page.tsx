@@ -17,7 +17,11 @@ export default async function UsersPage() {
       <PageHeader
         title="Users"
         intro={`${enabled} enabled and ${users.length - enabled} disabled accounts. Open an account to change its roles, disable it or set a new password.`}
-        actions={<AppLink href="/admin/users/new" className="gw-button">Create user</AppLink>}
+        actions={
+          <AppLink href="/admin/users/new" className="gw-button">
+            Create user
+          </AppLink>
+        }
       />
       <UsersGrid users={users} />
     </>

@@ -12,14 +12,21 @@ export const metadata: Metadata = { title: 'Import a plate' };
 export default async function ImportPage() {
   const actor = await requirePageRole(...rolesFor('importPlates'));
   const [screens, templates] = await Promise.all([listScreens(actor), listTemplates(actor)]);
-  const usable = screens.filter((s) => s.targets.length > 0).map((s) => ({ id: s.id, name: s.name, targets: s.targets.map((t) => t.name) }));
+  const usable = screens
+    .filter((s) => s.targets.length > 0)
+    .map((s) => ({ id: s.id, name: s.name, targets: s.targets.map((t) => t.name) }));
   return (
     <>
-      <PageHeader title="Import a plate" intro="Read the instrument's export, map its columns once per layout, check every row, then store the plate with its QC and fits." />
+      <PageHeader
+        title="Import a plate"
+        intro="Read the instrument's export, map its columns once per layout, check every row, then store the plate with its QC and fits."
+      />
       {usable.length ? (
         <ImportWizard screens={usable} templates={templates} />
       ) : (
-        <EmptyState title="No screen is ready for import">An administrator creates a screen and names its targets first.</EmptyState>
+        <EmptyState title="No screen is ready for import">
+          An administrator creates a screen and names its targets first.
+        </EmptyState>
       )}
     </>
   );

@@ -26,25 +26,48 @@ export default async function ScreenPage({ params }: { params: Promise<{ screenI
     <>
       <PageHeader title={screen.name} intro={screen.description || undefined} />
       <section className="space-y-3" aria-labelledby="targets-heading">
-        <h2 id="targets-heading" className="text-lg font-semibold">Targets</h2>
+        <h2 id="targets-heading" className="text-lg font-semibold">
+          Targets
+        </h2>
         {screen.targets.length ? (
-          <DataTable caption="Targets" rows={screen.targets} rowKey={(t) => t.id} columns={[
-            { header: 'Target', cell: (t) => t.name },
-            { header: 'Model conductance', cell: (t) => <span className="font-mono">{t.conductance}</span> },
-          ]} />
+          <DataTable
+            caption="Targets"
+            rows={screen.targets}
+            rowKey={(t) => t.id}
+            columns={[
+              { header: 'Target', cell: (t) => t.name },
+              {
+                header: 'Model conductance',
+                cell: (t) => <span className="font-mono">{t.conductance}</span>,
+              },
+            ]}
+          />
         ) : (
-          <p className="text-sm text-ink-700">No targets yet: plates of this screen cannot be imported until it names the currents it measures.</p>
+          <p className="text-sm text-ink-700">
+            No targets yet: plates of this screen cannot be imported until it names the currents it measures.
+          </p>
         )}
         {isAdmin ? (
           <div className="gw-card p-5">
-            <TargetForm action={addTargetAction} screenId={screen.id} conductances={blockableConductances(screen.neuronPreset)} />
+            <TargetForm
+              action={addTargetAction}
+              screenId={screen.id}
+              conductances={blockableConductances(screen.neuronPreset)}
+            />
           </div>
         ) : null}
       </section>
       {isAdmin ? (
         <section className="gw-card mt-6 p-5" aria-labelledby="settings-heading">
-          <h2 id="settings-heading" className="mb-3 text-lg font-semibold">Settings and QC limits</h2>
-          <ScreenForm action={updateScreenAction} screen={screen} presets={PRESET_OPTIONS} submitLabel="Save settings" />
+          <h2 id="settings-heading" className="mb-3 text-lg font-semibold">
+            Settings and QC limits
+          </h2>
+          <ScreenForm
+            action={updateScreenAction}
+            screen={screen}
+            presets={PRESET_OPTIONS}
+            submitLabel="Save settings"
+          />
         </section>
       ) : null}
     </>

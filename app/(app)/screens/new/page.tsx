@@ -14,7 +14,10 @@ export default async function NewScreenPage() {
   if (!can(actor, 'manageScreens')) notFound();
   return (
     <>
-      <PageHeader title="New screen" intro="A campaign: the neuron preset its forecasts use, QC limits and exposures. Targets are added next." />
+      <PageHeader
+        title="New screen"
+        intro="A campaign: the neuron preset its forecasts use, QC limits and exposures. Targets are added next."
+      />
       <section className="gw-card p-5">
         <ScreenForm action={createScreenAction} presets={PRESET_OPTIONS} submitLabel="Create screen" />
       </section>

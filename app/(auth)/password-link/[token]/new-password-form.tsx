@@ -6,7 +6,15 @@ import type { ActionState } from '@/lib/actions/validated-action';
 import { setPasswordByLinkAction } from './actions';
 
 /** The new password twice; the link's token rides along. Password fields are never filled back in. */
-export function NewPasswordForm({ token, email, minPasswordLength }: { token: string; email: string; minPasswordLength: number }) {
+export function NewPasswordForm({
+  token,
+  email,
+  minPasswordLength,
+}: {
+  token: string;
+  email: string;
+  minPasswordLength: number;
+}) {
   const [state, action, pending] = useActionState<ActionState, FormData>(setPasswordByLinkAction, {});
   const errors = state.fieldErrors ?? {};
   return (
@@ -14,11 +22,27 @@ export function NewPasswordForm({ token, email, minPasswordLength }: { token: st
       <input type="hidden" name="token" value={token} />
       {/* For password managers: the account the new password belongs to. */}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-      <Field label="New password" name="newPassword" type="password" autoComplete="new-password" required errors={errors.newPassword}
-        hint={`At least ${minPasswordLength} characters. A phrase of several words is easier to remember.`} />
-      <Field label="New password again" name="confirmPassword" type="password" autoComplete="new-password" required errors={errors.confirmPassword} />
+      <Field
+        label="New password"
+        name="newPassword"
+        type="password"
+        autoComplete="new-password"
+        required
+        errors={errors.newPassword}
+        hint={`At least ${minPasswordLength} characters. A phrase of several words is easier to remember.`}
+      />
+      <Field
+        label="New password again"
+        name="confirmPassword"
+        type="password"
+        autoComplete="new-password"
+        required
+        errors={errors.confirmPassword}
+      />
       <FormMessage ok={state.ok} message={state.message} />
-      <button type="submit" className="gw-button w-full" disabled={pending}>{pending ? 'Setting…' : 'Set new password'}</button>
+      <button type="submit" className="gw-button w-full" disabled={pending}>
+        {pending ? 'Setting…' : 'Set new password'}
+      </button>
     </form>
   );
 }

@@ -16,16 +16,30 @@ export default async function PasswordLinkPage({ params }: { params: Promise<{ t
   if (!state.usable) {
     return (
       <AuthFrame title="This link does not work" intro="Nothing was changed.">
-        <p role="alert" className="text-sm text-ink-800">{state.why}</p>
+        <p role="alert" className="text-sm text-ink-800">
+          {state.why}
+        </p>
         <p className="mt-6 flex gap-4 text-sm">
-          <AppLink href="/lost-password" className={linkClass}>Ask for a new link</AppLink>
-          <AppLink href="/sign-in" className={linkClass}>Sign in</AppLink>
+          <AppLink href="/lost-password" className={linkClass}>
+            Ask for a new link
+          </AppLink>
+          <AppLink href="/sign-in" className={linkClass}>
+            Sign in
+          </AppLink>
         </p>
       </AuthFrame>
     );
   }
   return (
-    <AuthFrame title="Choose a new password" intro={<>For <span className="font-medium text-ink-800">{state.email}</span>. Every session of this account ends when you set it.</>}>
+    <AuthFrame
+      title="Choose a new password"
+      intro={
+        <>
+          For <span className="font-medium text-ink-800">{state.email}</span>. Every session of this account
+          ends when you set it.
+        </>
+      }
+    >
       <NewPasswordForm token={token} email={state.email} minPasswordLength={MIN_PASSWORD_LENGTH} />
     </AuthFrame>
   );

@@ -13,24 +13,32 @@ import { commitFieldsSchema, commitFileFieldsSchema } from '@/lib/validation/imp
  * with the plate id, the import's refusal with its reasons, or 202 when a worker is still storing it
  * when the wait ends (lib/plates/import-jobs.ts).
  */
-export const POST = withUser(async (request, actor) => {
-  const form = await readForm(request);
-  let commit: CommitRequest;
-  if (form.file) {
-    if (form.fields.draftId) throw new AppError('invalid', 'Send either the draftId that inspect answered or the file, not both.');
-    const { format, ...rest } = commitFileFieldsSchema.parse(form.fields);
-    commit = { ...rest, ...(await uploadedFile(form.file)), ...(format ? { format } : {}) };
-  } else {
-    const { format, ...rest } = commitFieldsSchema.parse(form.fields);
-    commit = { ...rest, ...(format ? { format } : {}) };
-  }
-  const jobId = await queueImport(actor, commit);
-  const result = await awaitImport(jobId);
-  if (result.state === 'storing') {
-    return NextResponse.json(
-      { jobId, href: '/plates', message: 'A worker is still storing this plate; it appears in the plate list when it is done.' },
-      { status: 202 },
-    );
-  }
-  return NextResponse.json({ plateId: result.plateId, href: `/plates/${result.plateId}` }, { status: 201 });
-}, { roles: rolesFor('importPlates') });
+export const POST = withUser(
+  async (request, actor) => {
+    const form = await readForm(request);
+    let commit: CommitRequest;
+    if (form.file) {
+      if (form.fields.draftId)
+        throw new AppError('invalid', 'Send either the draftId that inspect answered or the file, not both.');
+      const { format, ...rest } = commitFileFieldsSchema.parse(form.fields);
+      commit = { ...rest, ...(await uploadedFile(form.file)), ...(format ? { format } : {}) };
+    } else {
+      const { format, ...rest } = commitFieldsSchema.parse(form.fields);
+      commit = { ...rest, ...(format ? { format } : {}) };
+    }
+    const jobId = await queueImport(actor, commit);
+    const result = await awaitImport(jobId);
+    if (result.state === 'storing') {
+      return NextResponse.json(
+        {
+          jobId,
+          href: '/plates',
+          message: 'A worker is still storing this plate; it appears in the plate list when it is done.',
+        },
+        { status: 202 },
+      );
+    }
+    return NextResponse.json({ plateId: result.plateId, href: `/plates/${result.plateId}` }, { status: 201 });
+  },
+  { roles: rolesFor('importPlates') },
+);

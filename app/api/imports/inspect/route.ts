@@ -7,7 +7,12 @@ import { inspectUpload } from '@/lib/plates/import-service';
 import { inspectFieldsSchema } from '@/lib/validation/imports';
 
 /** Reads an uploaded export once, keeps it as the person's import draft and proposes a column mapping per sheet. */
-export const POST = withUser(async (request, actor) => {
-  const { fields, ...file } = await readUpload(request, inspectFieldsSchema);
-  return NextResponse.json(await withImportSlot(() => inspectUpload(actor, { screenId: fields.screenId, ...file })));
-}, { roles: rolesFor('importPlates') });
+export const POST = withUser(
+  async (request, actor) => {
+    const { fields, ...file } = await readUpload(request, inspectFieldsSchema);
+    return NextResponse.json(
+      await withImportSlot(() => inspectUpload(actor, { screenId: fields.screenId, ...file })),
+    );
+  },
+  { roles: rolesFor('importPlates') },
+);

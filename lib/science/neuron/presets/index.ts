@@ -17,7 +17,8 @@ export function isPresetName(name: string): name is PresetName {
 
 /** The built-in preset of that name; throws on an unknown name. */
 export function getPreset(name: string): NeuronPreset {
-  if (!isPresetName(name)) throw new Error(`unknown neuron preset "${name}" (known: ${PRESET_NAMES.join(', ')})`);
+  if (!isPresetName(name))
+    throw new Error(`unknown neuron preset "${name}" (known: ${PRESET_NAMES.join(', ')})`);
   return PRESETS[name];
 }
 

@@ -93,7 +93,15 @@ export const pospischilRs2008: NeuronPreset = {
             // p∞ = 1/(1 + e^(−(V + 35)/10))   (IM_cortex.mod)
             inf: { form: 'sigmoid', rate_per_ms: 1, mid_mV: -35, scale_mV: 10 },
             // τp = τmax/(3.3 e^((V + 35)/20) + e^(−(V + 35)/20)), τmax = 1000 ms (sPY_template: taumax_im)
-            tau: { form: 'bell', scale_ms: 1000, mid_mV: -35, rise: 3.3, riseScale_mV: 20, fall: 1, fallScale_mV: 20 },
+            tau: {
+              form: 'bell',
+              scale_ms: 1000,
+              mid_mV: -35,
+              rise: 3.3,
+              riseScale_mV: 20,
+              fall: 1,
+              fallScale_mV: 20,
+            },
           },
         },
       ],

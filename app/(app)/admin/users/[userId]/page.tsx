@@ -21,7 +21,9 @@ const formatTime = (value: string | null) => (value ? `${when.format(new Date(va
 function Panel({ id, title, children }: { id: string; title: string; children: ReactNode }) {
   return (
     <section className="gw-card p-5" aria-labelledby={id}>
-      <h2 id={id} className="mb-3 text-lg font-semibold">{title}</h2>
+      <h2 id={id} className="mb-3 text-lg font-semibold">
+        {title}
+      </h2>
       {children}
     </section>
   );
@@ -41,8 +43,12 @@ export default async function UserPage({ params }: { params: Promise<{ userId: s
         intro={`${user.email} · ${user.disabledAt ? `disabled ${formatTime(user.disabledAt)}` : 'enabled'} · last sign-in ${formatTime(user.lastSignInAt)} · password changed ${formatTime(user.passwordChangedAt)}`}
         actions={
           <>
-            <AppLink href={`/audit?entityType=user&entityId=${user.id}`} className="gw-button-quiet">Audit trail of this account</AppLink>
-            <AppLink href="/admin/users" className="gw-button-quiet">Back to users</AppLink>
+            <AppLink href={`/audit?entityType=user&entityId=${user.id}`} className="gw-button-quiet">
+              Audit trail of this account
+            </AppLink>
+            <AppLink href="/admin/users" className="gw-button-quiet">
+              Back to users
+            </AppLink>
           </>
         }
       />
@@ -61,10 +67,19 @@ export default async function UserPage({ params }: { params: Promise<{ userId: s
           <Panel id="password-heading" title="Password">
             {self ? (
               <p className="text-sm text-ink-700">
-                Change your own password on your <AppLink href="/account" className="text-lagoon-700 underline">Account</AppLink> page; it asks for the current one.
+                Change your own password on your{' '}
+                <AppLink href="/account" className="text-lagoon-700 underline">
+                  Account
+                </AppLink>{' '}
+                page; it asks for the current one.
               </p>
             ) : (
-              <ResetPasswordForm action={resetPasswordAction} userId={user.id} userName={user.name} minPasswordLength={MIN_PASSWORD_LENGTH} />
+              <ResetPasswordForm
+                action={resetPasswordAction}
+                userId={user.id}
+                userName={user.name}
+                minPasswordLength={MIN_PASSWORD_LENGTH}
+              />
             )}
           </Panel>
         </div>

@@ -8,7 +8,12 @@ import type { ActionState, FormAction } from '@/lib/actions/validated-action';
 type ResetState = ActionState & { temporaryPassword?: string | null };
 
 /** Sets a new password for someone who lost theirs; generated unless the admin types one. */
-export function ResetPasswordForm({ action, userId, userName, minPasswordLength }: {
+export function ResetPasswordForm({
+  action,
+  userId,
+  userName,
+  minPasswordLength,
+}: {
   action: FormAction<ResetState>;
   userId: string;
   userName: string;
@@ -19,11 +24,26 @@ export function ResetPasswordForm({ action, userId, userName, minPasswordLength 
   return (
     <form ref={formRef} onSubmit={onSubmit} className="space-y-2" noValidate>
       <input type="hidden" name="userId" value={userId} />
-      <Field label="New password" name="password" id="reset-password" type="password" autoComplete="new-password" errors={errors.password}
-        hint={`Leave empty to generate one. If you type one: at least ${minPasswordLength} characters.`} />
+      <Field
+        label="New password"
+        name="password"
+        id="reset-password"
+        type="password"
+        autoComplete="new-password"
+        errors={errors.password}
+        hint={`Leave empty to generate one. If you type one: at least ${minPasswordLength} characters.`}
+      />
       <Field label="Reason for the new password" name="reason" id="reset-reason" errors={errors.reason} />
-      <SubmitRow label="Set new password" pendingLabel="Setting…" pending={pending} state={state} className="flex flex-wrap items-center gap-3" />
-      {state.ok && state.temporaryPassword ? <OneTimePassword password={state.temporaryPassword} who={userName} /> : null}
+      <SubmitRow
+        label="Set new password"
+        pendingLabel="Setting…"
+        pending={pending}
+        state={state}
+        className="flex flex-wrap items-center gap-3"
+      />
+      {state.ok && state.temporaryPassword ? (
+        <OneTimePassword password={state.temporaryPassword} who={userName} />
+      ) : null}
     </form>
   );
 }

@@ -20,9 +20,22 @@ export function RolesForm({ action, userId, roles }: { action: FormAction; userI
     <form ref={formRef} onSubmit={onSubmit} className="space-y-2" noValidate>
       <input type="hidden" name="userId" value={userId} />
       <RoleCheckboxes selected={selected} onChange={setSelected} errors={errors.roles} idPrefix="roles" />
-      <Field label="Reason for the change" name="reason" id="roles-reason" value={reason} onChange={(e) => setReason(e.target.value)}
-        errors={errors.reason} hint="Kept in the audit trail." />
-      <SubmitRow label="Save roles" pendingLabel="Saving…" pending={pending} state={state} className="flex flex-wrap items-center gap-3" />
+      <Field
+        label="Reason for the change"
+        name="reason"
+        id="roles-reason"
+        value={reason}
+        onChange={(e) => setReason(e.target.value)}
+        errors={errors.reason}
+        hint="Kept in the audit trail."
+      />
+      <SubmitRow
+        label="Save roles"
+        pendingLabel="Saving…"
+        pending={pending}
+        state={state}
+        className="flex flex-wrap items-center gap-3"
+      />
     </form>
   );
 }

@@ -5,7 +5,15 @@ import { useFormAction } from '@/components/forms/use-form-action';
 import type { FormAction } from '@/lib/actions/validated-action';
 
 /** Disables an enabled account (its sessions end at once) or enables a disabled one. */
-export function StatusForm({ action, userId, enabled }: { action: FormAction; userId: string; enabled: boolean }) {
+export function StatusForm({
+  action,
+  userId,
+  enabled,
+}: {
+  action: FormAction;
+  userId: string;
+  enabled: boolean;
+}) {
   const { state, pending, formRef, onSubmit } = useFormAction(action, { resetOnSuccess: true });
   const errors = state.fieldErrors ?? {};
   return (
@@ -17,10 +25,18 @@ export function StatusForm({ action, userId, enabled }: { action: FormAction; us
           ? 'A disabled account cannot sign in, and every open session of it ends at once. Its records and audit trail stay.'
           : 'This account is disabled. Enabling it lets the person sign in again; old sessions stay ended.'}
       </p>
-      <Field label={enabled ? 'Reason for disabling' : 'Reason for enabling'} name="reason" id="status-reason" errors={errors.reason} />
+      <Field
+        label={enabled ? 'Reason for disabling' : 'Reason for enabling'}
+        name="reason"
+        id="status-reason"
+        errors={errors.reason}
+      />
       <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" disabled={pending}
-          className={enabled ? 'gw-button bg-signal-fail hover:bg-red-800' : 'gw-button'}>
+        <button
+          type="submit"
+          disabled={pending}
+          className={enabled ? 'gw-button bg-signal-fail hover:bg-red-800' : 'gw-button'}
+        >
           {pending ? 'Saving…' : enabled ? 'Disable account' : 'Enable account'}
         </button>
         <FormMessage ok={state.ok} message={state.message} />

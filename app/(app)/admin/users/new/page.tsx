@@ -17,10 +17,18 @@ export default async function CreateUserPage() {
       <PageHeader
         title="Create user"
         intro="The new person signs in with their e-mail address: with the password they choose through an e-mailed link, or with an initial password you hand over, which they change at their first sign-in."
-        actions={<AppLink href="/admin/users" className="gw-button-quiet">Back to users</AppLink>}
+        actions={
+          <AppLink href="/admin/users" className="gw-button-quiet">
+            Back to users
+          </AppLink>
+        }
       />
       <section className="gw-card p-6">
-        <CreateUserForm action={createUserAction} minPasswordLength={MIN_PASSWORD_LENGTH} invitationDays={INVITATION_LIFETIME_MS / 86_400_000} />
+        <CreateUserForm
+          action={createUserAction}
+          minPasswordLength={MIN_PASSWORD_LENGTH}
+          invitationDays={INVITATION_LIFETIME_MS / 86_400_000}
+        />
       </section>
     </>
   );

@@ -2,6 +2,9 @@
 
 import { RouteError } from '@/components/ui/route-error';
 
-export default function CompoundProfileError(props: { error: Error & { digest?: string }; retry: () => void }) {
+export default function CompoundProfileError(props: {
+  error: Error & { digest?: string };
+  retry: () => void;
+}) {
   return <RouteError what="The compound profile" {...props} />;
 }

@@ -7,7 +7,13 @@ import { parseId } from '@/lib/validation/ids';
 
 // Outside the profile's loading boundary: a compound that does not exist answers 404 before the
 // fallback streams (once streaming has begun, the status is already 200).
-export default async function CompoundProfileLayout({ children, params }: { children: ReactNode; params: Promise<{ compoundId: string }> }) {
+export default async function CompoundProfileLayout({
+  children,
+  params,
+}: {
+  children: ReactNode;
+  params: Promise<{ compoundId: string }>;
+}) {
   try {
     await getCompound(await requireActor(), parseId((await params).compoundId, 'compound'));
   } catch (error) {

@@ -32,36 +32,61 @@ export default async function CompoundProfilePage({ params }: { params: Promise<
   const approved = fits.filter((f) => f.approved).length;
   const actions = (
     <>
-      <AppLink className="gw-button-quiet" href={`/compounds/${compound.id}`}>Registry record</AppLink>
+      <AppLink className="gw-button-quiet" href={`/compounds/${compound.id}`}>
+        Registry record
+      </AppLink>
       {fits.length ? <DownloadMenu kind="compound" id={compound.id} /> : null}
     </>
   );
   return (
     <>
-      <PageHeader title={`${compound.identifier} profile`} intro={`${compound.name || 'No name recorded'}: potency on every target across plates and screens, selectivity, and the forecast at exposure.`} actions={actions} />
+      <PageHeader
+        title={`${compound.identifier} profile`}
+        intro={`${compound.name || 'No name recorded'}: potency on every target across plates and screens, selectivity, and the forecast at exposure.`}
+        actions={actions}
+      />
       {!fits.length ? (
         <EmptyState title="No fits yet">
-          {compound.identifier} has not been on an imported plate. Its fits appear here once a plate that holds it is imported
-          {can(actor, 'importPlates') ? <>: <AppLink className="underline" href="/plates/import">import a plate</AppLink>.</> : ' by a biologist.'}
+          {compound.identifier} has not been on an imported plate. Its fits appear here once a plate that
+          holds it is imported
+          {can(actor, 'importPlates') ? (
+            <>
+              :{' '}
+              <AppLink className="underline" href="/plates/import">
+                import a plate
+              </AppLink>
+              .
+            </>
+          ) : (
+            ' by a biologist.'
+          )}
         </EmptyState>
       ) : (
         <div className="space-y-8">
           <section aria-labelledby="potency-heading" className="space-y-3">
-            <h2 id="potency-heading" className="text-lg font-semibold">Potency across plates</h2>
+            <h2 id="potency-heading" className="text-lg font-semibold">
+              Potency across plates
+            </h2>
             <p className="max-w-3xl text-sm text-ink-700">
-              {approved} of {fits.length} fits are on approved plates. Results come from approved plates; fits on plates not yet approved are shown and
-              marked so, and stand for a target only when it has no approved fit.
+              {approved} of {fits.length} fits are on approved plates. Results come from approved plates; fits
+              on plates not yet approved are shown and marked so, and stand for a target only when it has no
+              approved fit.
             </p>
             <ProfileFitsTable fits={fits} standing={new Set(potencies.map((p) => p.fitId))} />
           </section>
           <section aria-labelledby="selectivity-heading" className="space-y-3">
-            <h2 id="selectivity-heading" className="text-lg font-semibold">Selectivity between targets</h2>
+            <h2 id="selectivity-heading" className="text-lg font-semibold">
+              Selectivity between targets
+            </h2>
             <SelectivityList ratios={profile.selectivity} targetCount={potencies.length} />
           </section>
           <section aria-labelledby="profile-forecast-heading" className="space-y-3">
-            <h2 id="profile-forecast-heading" className="text-lg font-semibold">Forecast at exposure</h2>
+            <h2 id="profile-forecast-heading" className="text-lg font-semibold">
+              Forecast at exposure
+            </h2>
             <p className="max-w-3xl text-sm text-ink-700">
-              The block of every target at once, each from the fit that stands for it above, in a model neuron at a screen’s exposures of interest.
+              The block of every target at once, each from the fit that stands for it above, in a model neuron
+              at a screen’s exposures of interest.
             </p>
             <ForecastCaution />
             <CompoundForecastPanel compoundId={compound.id} screens={profile.screens} />

@@ -10,7 +10,10 @@ export const metadata: Metadata = { title: 'Sign-off and history' };
 
 export default async function PlateSignoffPage({ params }: { params: Promise<{ plateId: string }> }) {
   const { actor, header } = await loadPlate((await params).plateId);
-  const [panel, history] = await Promise.all([signoffPanel(actor, header.id), plateHistory(actor, header.id)]);
+  const [panel, history] = await Promise.all([
+    signoffPanel(actor, header.id),
+    plateHistory(actor, header.id),
+  ]);
   return (
     <div className="grid items-start gap-8 lg:grid-cols-[minmax(0,1.1fr)_minmax(0,1fr)]">
       <SignoffPanel data={panel} action={signPlateStepAction} />

@@ -9,5 +9,8 @@ export const GET = withUser<{ compoundId: string }>(async (request, actor, { par
   const compoundId = parseId((await params).compoundId, 'compound');
   const query = compoundExportQuerySchema.parse(Object.fromEntries(request.nextUrl.searchParams));
   const { identifier, document } = await compoundExport(actor, compoundId);
-  return auditedExportResponse(actor, document, query, `gatewell-compound-${identifier}`, { entityType: 'compound', entityId: compoundId });
+  return auditedExportResponse(actor, document, query, `gatewell-compound-${identifier}`, {
+    entityType: 'compound',
+    entityId: compoundId,
+  });
 });

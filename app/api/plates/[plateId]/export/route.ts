@@ -9,5 +9,8 @@ export const GET = withUser<{ plateId: string }>(async (request, actor, { params
   const plateId = parseId((await params).plateId, 'plate');
   const query = plateExportQuerySchema.parse(Object.fromEntries(request.nextUrl.searchParams));
   const { label, document } = await plateExport(actor, plateId);
-  return auditedExportResponse(actor, document, query, `gatewell-plate-${label}`, { entityType: 'plate', entityId: plateId });
+  return auditedExportResponse(actor, document, query, `gatewell-plate-${label}`, {
+    entityType: 'plate',
+    entityId: plateId,
+  });
 });

@@ -7,5 +7,9 @@ import { parseId } from '@/lib/validation/ids';
 export const GET = withUser<{ plateId: string }>(async (_request, actor, { params }) => {
   const plateId = parseId((await params).plateId, 'plate');
   const header = await getPlateHeader(actor, plateId);
-  return NextResponse.json({ version: header.version, state: header.state, wells: await listPlateWells(actor, plateId) });
+  return NextResponse.json({
+    version: header.version,
+    state: header.state,
+    wells: await listPlateWells(actor, plateId),
+  });
 });
