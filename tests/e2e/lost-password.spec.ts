@@ -23,11 +23,9 @@ test('a lost password: the link comes by e-mail, sets a new password once, and t
   await page.getByLabel('E-mail').fill(email);
   await page.getByRole('button', { name: 'Send me a link' }).click();
   await expect(
-    page
-      .getByRole('status')
-      .filter({
-        hasText: `If ${email} belongs to an active Gatewell account, a link to choose a new password is on its way there.`,
-      }),
+    page.getByRole('status').filter({
+      hasText: `If ${email} belongs to an active Gatewell account, a link to choose a new password is on its way there.`,
+    }),
   ).toBeVisible();
   await screenshot(page, 'lost-password-sent');
 
