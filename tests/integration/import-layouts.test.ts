@@ -1,0 +1,234 @@
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import type { Actor } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import type { ColumnMappingInput } from '@/lib/imports/mapping-schema';
+import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
+import { addTarget, createScreen } from '@/lib/screens/service';
+import { screenSchema } from '@/lib/validation/screens';
+import { Plate, Well } from '@/models';
+import { layout, type FileFacts } from '../fixtures/export-layouts';
+import type { TableReadBack } from '../fixtures/export-layouts/layout-kit';
+import type { Target } from '../fixtures/export-layouts/truth';
+import { makeActor } from '../support/actors';
+import { demoScreensSetup } from '../support/demo-scenario';
+import { fitsCurrent } from '../support/jobs';
+
+/**
+ * The invented export layouts (tests/fixtures/export-layouts) that Gatewell's import service reads today,
+ * each with a mapping this test writes from the file's facts: its header row, the columns of its table,
+ * its units, its words for the roles, and, where the file names its one target in words of its own, that
+ * target for the whole sheet. The layouts it cannot read yet are listed in the fixture's README.
+ */
+
+interface Importable {
+  name: string;
+  /** Header of each field's column in the file. */
+  columns: ColumnMappingInput['columns'];
+  /** Whether the file's target words are the screen's (up to case and punctuation), or one target is named. */
+  targets: 'column' | 'fixed';
+}
+
+const IMPORTABLE: Importable[] = [
+  {
+    name: 'long-comma-csv',
+    targets: 'column',
+    columns: {
+      well: 'Well ID',
+      role: 'Type',
+      compound: 'Item',
+      concentration: 'Dose (nM)',
+      target: 'Channel',
+      controlCurrent: 'Peak pre (pA)',
+      compoundCurrent: 'Peak post (pA)',
+    },
+  },
+  {
+    name: 'semicolon-decimal-comma',
+    targets: 'fixed',
+    columns: {
+      well: 'Pos',
+      role: 'Sample type',
+      compound: 'Substance',
+      concentration: 'Conc [uM]',
+      controlCurrent: 'I before [nA]',
+      compoundCurrent: 'I after [nA]',
+    },
+  },
+  {
+    name: 'tab-text-titled',
+    targets: 'fixed',
+    columns: {
+      well: 'Well',
+      role: 'Content',
+      compound: 'Compound',
+      concentration: 'Conc (mM)',
+      controlCurrent: 'I baseline (pA)',
+      compoundCurrent: 'I drug (pA)',
+    },
+  },
+  {
+    name: 'xls-workbook',
+    targets: 'fixed',
+    columns: {
+      well: 'Well',
+      role: 'Content',
+      compound: 'Compound ID',
+      concentration: 'Concentration (µM)',
+      controlCurrent: 'Ipre (pA)',
+      compoundCurrent: 'Ipost (pA)',
+    },
+  },
+  {
+    name: 'ods-workbook',
+    targets: 'column',
+    columns: {
+      well: 'Well position',
+      role: 'Well role',
+      compound: 'Cmpd',
+      concentration: 'Final conc (µM)',
+      target: 'Ion channel',
+      controlCurrent: 'Control current (nA)',
+      compoundCurrent: 'Compound current (nA)',
+    },
+  },
+  {
+    name: 'xlsx-run-1536',
+    targets: 'column',
+    columns: {
+      well: 'Well',
+      role: 'Sample kind',
+      compound: 'Sample ID',
+      concentration: 'Conc nM',
+      target: 'Target',
+      controlCurrent: 'Current before / pA',
+      compoundCurrent: 'Current after / pA',
+    },
+  },
+];
+
+/** The mapping of a layout: the test's columns, the QC columns and units from the file's facts. */
+function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInput {
+  const readBack = facts.readBack as TableReadBack;
+  const targets = Object.keys(facts.targetWords) as Target[];
+  const { units } = facts;
+  return {
+    headerRow: readBack.headerRow,
+    columns: {
+      ...importable.columns,
+      sealResistance: readBack.sealResistance,
+      seriesResistance: readBack.seriesResistance,
+      capacitance: readBack.capacitance,
+    },
+    units: {
+      concentration: units.concentration,
+      controlCurrent: units.current,
+      compoundCurrent: units.current,
+      sealResistance: units.sealResistance,
+      seriesResistance: units.seriesResistance,
+      capacitance: units.capacitance,
+    },
+    fixedTarget: importable.targets === 'fixed' ? targets[0]! : null,
+    markers: {
+      vehicle: [facts.roleWords.vehicle],
+      reference: [facts.roleWords.reference],
+      test: [facts.roleWords.test],
+    },
+  };
+}
+
+describe('invented export layouts through the import service', () => {
+  let biologist: Actor;
+  /** Screen ids by the targets a file records: one target, or both. */
+  let screens: Record<string, string>;
+
+  beforeAll(async () => {
+    const setup = await demoScreensSetup();
+    biologist = setup.biologist;
+    const admin = await makeActor(['admin']);
+    const both = await createScreen(
+      admin,
+      screenSchema.parse({
+        name: 'Sodium and potassium screen',
+        description: '',
+        neuronPreset: 'pospischil-rs-2008',
+        zPrimeMin: 0.5,
+        sealResistanceMin_GOhm: 0.5,
+        controlCurrentMin_pA: 200,
+        seriesResistanceMax_MOhm: 25,
+        capacitanceMin_pF: 1,
+        capacitanceMax_pF: 100,
+        vehicleRundownMax_percent: 20,
+        exposures_uM: '0.1, 1',
+      }),
+    );
+    await addTarget(admin, both.id, { name: 'Nav1.7', conductance: 'gNa', description: '' });
+    await addTarget(admin, both.id, { name: 'Kv7.2', conductance: 'gM', description: '' });
+    screens = { ...setup.screens, 'Nav1.7+Kv7.2': both.id };
+  });
+  afterAll(() => db().close());
+
+  test.each(IMPORTABLE)(
+    '$name imports with no edit: QC flags exactly the bad wells and every measurable IC50 is recovered',
+    async (importable) => {
+      const file = layout(importable.name).write();
+      const { facts } = file;
+      const [plate] = facts.plates;
+      const targets = Object.keys(facts.targetWords) as Target[];
+      const screenId = screens[targets.join('+')]!;
+      const mapping = mappingFor(importable, facts);
+      const upload = { screenId, bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
+
+      const inspection = await inspectUpload(biologist, upload);
+      expect(inspection.sheets.map((s) => s.name)).toContain(plate!.sheet);
+      const draftId = inspection.draftId!;
+      const preview = await previewImport(biologist, { draftId, sheet: plate!.sheet, mapping });
+      expect(preview.issues.filter((i) => i.severity === 'error').map((i) => i.message)).toEqual([]);
+      expect(preview.plate?.targets.sort()).toEqual([...targets].sort());
+
+      const { plateId } = await commitImport(biologist, {
+        draftId,
+        sheet: plate!.sheet,
+        mapping,
+        label: plate!.label,
+      });
+      await fitsCurrent(plateId);
+
+      const stored = await Plate.findByPk(plateId, { rejectOnEmpty: true });
+      expect(stored.format).toBe(plate!.format);
+      expect(stored.label).toBe(plate!.label);
+      expect(await Well.count({ where: { plateId } })).toBe(plate!.wellCount);
+
+      const flagged = await db().query<{ position: string }>(
+        `select distinct w.position from readouts r join wells w on w.id = r.well_id
+         where w.plate_id = :plateId and jsonb_array_length(r.qc_reasons) > 0 order by w.position`,
+        { replacements: { plateId }, type: 'SELECT' as never },
+      );
+      expect(flagged.map((f) => f.position)).toEqual(plate!.badWells.map((b) => b.well).sort());
+
+      const fits = await db().query<{
+        identifier: string;
+        target: string;
+        status: string;
+        ic50: number;
+        low: number;
+        high: number;
+      }>(
+        `select c.identifier, t.name as target, f.status, f.ic50_um as ic50, f.ic50_ci_low_um as low,
+                f.ic50_ci_high_um as high
+         from fits f join compounds c on c.id = f.compound_id join targets t on t.id = f.target_id
+         where f.plate_id = :plateId`,
+        { replacements: { plateId }, type: 'SELECT' as never },
+      );
+      expect(facts.expectedIc50.length).toBeGreaterThan(0);
+      for (const truth of facts.expectedIc50) {
+        const label = `${truth.compound} on ${truth.target}`;
+        const fit = fits.find((f) => f.identifier === truth.compound && f.target === truth.target);
+        expect(fit?.status, label).toBe('fitted');
+        expect(fit!.ic50 / truth.ic50_uM, label).toBeGreaterThanOrEqual(0.85);
+        expect(fit!.ic50 / truth.ic50_uM, label).toBeLessThanOrEqual(1.15);
+        expect(fit!.low, label).toBeLessThanOrEqual(truth.ic50_uM);
+        expect(fit!.high, label).toBeGreaterThanOrEqual(truth.ic50_uM);
+      }
+    },
+  );
+});
