@@ -29,6 +29,12 @@ export class ImportDraft extends Model<InferAttributes<ImportDraft>, InferCreati
   declare expiresAt: Date;
   declare consumedAt: Date | null;
   declare plateId: string | null;
+  /** Set while the draft waits for compounds to be registered (lib/compounds/waiting-imports.ts). */
+  declare waitingSince: CreationOptional<Date | null>;
+  /** The file's identifiers the registry lacked when it began to wait. */
+  declare waitingFor: CreationOptional<string[] | null>;
+  /** The sheet, mapping, format and label its owner chose, to resume with. */
+  declare waitingChoice: CreationOptional<object | null>;
 
   static initModel(sequelize: Sequelize): void {
     ImportDraft.init(
@@ -46,6 +52,9 @@ export class ImportDraft extends Model<InferAttributes<ImportDraft>, InferCreati
         expiresAt: { type: DataTypes.DATE, allowNull: false },
         consumedAt: { type: DataTypes.DATE, allowNull: true },
         plateId: { type: DataTypes.UUID, allowNull: true },
+        waitingSince: { type: DataTypes.DATE, allowNull: true },
+        waitingFor: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: true },
+        waitingChoice: { type: DataTypes.JSONB, allowNull: true },
       },
       { sequelize, tableName: 'import_drafts', underscored: true, timestamps: false },
     );

@@ -3,6 +3,7 @@ import type { Sequelize } from 'sequelize';
 import { AuditEvent } from './audit-event';
 import { Batch } from './batch';
 import { Compound } from './compound';
+import { CompoundAlias } from './compound-alias';
 import { ComputeJob } from './compute-job';
 import { Fit } from './fit';
 import { Forecast } from './forecast';
@@ -27,6 +28,7 @@ export {
   AuditEvent,
   Batch,
   Compound,
+  CompoundAlias,
   ComputeJob,
   Fit,
   Forecast,
@@ -52,6 +54,7 @@ const models = [
   AuditEvent,
   Batch,
   Compound,
+  CompoundAlias,
   ComputeJob,
   Fit,
   Forecast,
@@ -83,6 +86,7 @@ export function initModels(sequelize: Sequelize): void {
   Target.belongsTo(Screen, { foreignKey: 'screenId', as: 'screen' });
   Compound.hasMany(Batch, { foreignKey: 'compoundId', as: 'batches' });
   Batch.belongsTo(Compound, { foreignKey: 'compoundId', as: 'compound' });
+  CompoundAlias.belongsTo(Compound, { foreignKey: 'compoundId', as: 'compound' });
   Plate.belongsTo(Screen, { foreignKey: 'screenId', as: 'screen' });
   Plate.belongsTo(UploadedFile, { foreignKey: 'uploadedFileId', as: 'file' });
   Plate.belongsTo(User, { foreignKey: 'importedBy', as: 'importer' });

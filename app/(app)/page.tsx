@@ -1,10 +1,13 @@
 import type { Metadata } from 'next';
+import { WaitingImports } from '@/components/imports/waiting-imports';
 import { PlatePager } from '@/components/plates/plate-pager';
 import { PlateTable } from '@/components/plates/plate-table';
 import { AppLink } from '@/components/ui/app-link';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
+import { can } from '@/lib/auth/roles';
+import { listWaitingImports } from '@/lib/compounds/waiting-imports';
 import { listPlatePage } from '@/lib/plates/list';
 import { plateSignoffPath } from '@/lib/signoff/notices';
 import { myWorkPageHref, platePageSchema } from '@/lib/validation/plate-filter';
@@ -30,6 +33,8 @@ export default async function MyWorkPage({
     { waitingFor: actor },
     platePageSchema.parse((await searchParams).page),
   );
+  // Imports waiting for compounds: the person's own, and every one for those who may register compounds.
+  const waiting = await listWaitingImports(actor);
   const duties = actor.roles
     .map((role) => WHAT_YOU_DO[role])
     .filter(Boolean)
@@ -40,6 +45,14 @@ export default async function MyWorkPage({
         title="My work"
         intro={`Signed in as ${actor.name}. You ${duties || 'can read results'}.`}
       />
+      {waiting.length ? (
+        <section className="gw-card mb-6 p-5" aria-labelledby="waiting-imports-heading">
+          <h2 id="waiting-imports-heading" className="mb-3 text-lg font-semibold">
+            Imports waiting for compounds
+          </h2>
+          <WaitingImports items={waiting} canRegister={can(actor, 'registerCompounds')} />
+        </section>
+      ) : null}
       {result.plates.length ? (
         <>
           <PlatePager result={result} pageHref={myWorkPageHref} />

@@ -7,6 +7,7 @@ import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapp
 import { postImportStep, type Inspection, type Preview } from './import-api';
 import { MappingStep } from './mapping-step';
 import { PreviewStep } from './preview-step';
+import { UnknownCompoundsPanel } from './unknown-compounds';
 
 export interface WizardScreen {
   id: string;
@@ -21,24 +22,43 @@ export interface WizardTemplate {
 
 const STEPS = ['Choose the file', 'Map the columns', 'Check and store'] as const;
 
+/** An import that waited for compounds, resumed by its owner: its draft's sheets and the choices kept. */
+export interface ResumedImport {
+  draftId: string;
+  screenId: string;
+  filename: string;
+  sheets: Inspection['sheets'];
+  choice: { sheet: string; mapping: ColumnMapping; format?: number | undefined; label: string };
+}
+
 /** The three import steps: read the file, map its columns, check every row and store the plate. */
 export function ImportWizard({
   screens,
   templates,
+  canRegisterCompounds = false,
+  resume,
 }: {
   screens: WizardScreen[];
   templates: WizardTemplate[];
+  /** Whether the person may register compounds from the check step (capability registerCompounds). */
+  canRegisterCompounds?: boolean;
+  /** A waiting import to resume at the mapping step, with its sheet, mapping and label. */
+  resume?: ResumedImport;
 }) {
   const router = useRouter();
-  const [step, setStep] = useState(0);
-  const [screenId, setScreenId] = useState(screens[0]?.id ?? '');
+  const [step, setStep] = useState(resume ? 1 : 0);
+  const [screenId, setScreenId] = useState(resume?.screenId ?? screens[0]?.id ?? '');
   const [file, setFile] = useState<File | null>(null);
-  const [inspection, setInspection] = useState<Inspection | null>(null);
-  const [sheet, setSheet] = useState('');
-  const [mapping, setMapping] = useState<ColumnMapping | null>(null);
-  const [format, setFormat] = useState('');
+  const [inspection, setInspection] = useState<Inspection | null>(
+    resume
+      ? { draftId: resume.draftId, expiresAt: null, sha256: '', duplicateOf: null, sheets: resume.sheets }
+      : null,
+  );
+  const [sheet, setSheet] = useState(resume?.choice.sheet ?? '');
+  const [mapping, setMapping] = useState<ColumnMapping | null>(resume?.choice.mapping ?? null);
+  const [format, setFormat] = useState(resume?.choice.format ? String(resume.choice.format) : '');
   const [preview, setPreview] = useState<Preview | null>(null);
-  const [label, setLabel] = useState('');
+  const [label, setLabel] = useState(resume?.choice.label ?? '');
   const [templateName, setTemplateName] = useState('');
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
@@ -286,7 +306,17 @@ export function ImportWizard({
 
       {step === 2 && preview ? (
         <section className="space-y-4">
-          <PreviewStep preview={preview} />
+          <PreviewStep
+            preview={preview}
+            unknownCompoundsPanel={
+              <UnknownCompoundsPanel
+                unknown={preview.unknownCompounds}
+                canRegister={canRegisterCompounds}
+                waitFields={() => ({ ...fields(), label })}
+                onRegistered={check}
+              />
+            }
+          />
           <div className="gw-card grid gap-4 p-5 sm:grid-cols-3">
             <div>
               <label htmlFor="import-label" className="gw-label">

@@ -1,6 +1,7 @@
 'use client';
 
 import type { ColDef } from 'ag-grid-community';
+import type { ReactNode } from 'react';
 import { DataGrid } from '@/components/ui/data-grid';
 import type { Preview } from './import-api';
 
@@ -68,7 +69,14 @@ const COLUMNS: ColDef<PreviewGridRow>[] = [
 ];
 
 /** The preview: counts, the first errors, and every row with its parse result and QC flags. */
-export function PreviewStep({ preview }: { preview: Preview }) {
+export function PreviewStep({
+  preview,
+  unknownCompoundsPanel,
+}: {
+  preview: Preview;
+  /** Shown instead of the plain list of unregistered compounds (unknown-compounds.tsx). */
+  unknownCompoundsPanel?: ReactNode;
+}) {
   const rows: PreviewGridRow[] = preview.rows.map((r) => {
     const qc = preview.qc[String(r.row)] ?? [];
     const status = r.status === 'error' ? 'error' : qc.length ? 'QC flag' : 'ok';
@@ -116,7 +124,8 @@ export function PreviewStep({ preview }: { preview: Preview }) {
           ))}
         </ul>
       ) : null}
-      {preview.unknownCompounds.length ? (
+      {preview.unknownCompounds.length && unknownCompoundsPanel ? unknownCompoundsPanel : null}
+      {preview.unknownCompounds.length && !unknownCompoundsPanel ? (
         <p className="rounded-md border border-amber-200 bg-amber-50 p-3 text-sm text-signal-warn">
           Not registered:{' '}
           {preview.unknownCompounds

@@ -1,5 +1,5 @@
 import 'server-only';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
 import type { FitModel, FitStatus } from '@/lib/domain/fits';
 import type { PlateState } from '@/lib/domain/plate-states';
@@ -76,4 +76,43 @@ export async function selectRegisteredIdentifiers(upperIds: string[]): Promise<{
       replacements: { ids: upperIds },
     },
   );
+}
+
+/** A registered compound found by identifier or alias, with the name the file used (upper-cased). */
+export interface NamedCompound {
+  name: string;
+  id: string;
+  identifier: string;
+}
+
+// SQL: identifiers and aliases matched case-blind in one query (a union the ORM cannot say); identifiers win.
+export async function selectCompoundsByUpperName(
+  upperNames: string[],
+  transaction?: Transaction,
+): Promise<NamedCompound[]> {
+  if (!upperNames.length) return [];
+  return db().query<NamedCompound>(
+    `select distinct on (name) name, id, identifier from (
+        select upper(c.identifier) as name, c.id, c.identifier, 0 as rank from compounds c where upper(c.identifier) in (:names)
+        union all
+        select upper(a.alias), c.id, c.identifier, 1 from compound_aliases a join compounds c on c.id = a.compound_id
+         where upper(a.alias) in (:names)
+      ) found order by name, rank`,
+    { type: QueryTypes.SELECT, replacements: { names: upperNames }, ...(transaction ? { transaction } : {}) },
+  );
+}
+
+// SQL: every name an import may use for a compound, identifiers and aliases, in one read.
+export async function selectAllCompoundNames(transaction?: Transaction): Promise<string[]> {
+  const rows = await db().query<{ name: string }>(
+    'select identifier as name from compounds union all select alias from compound_aliases',
+    { type: QueryTypes.SELECT, ...(transaction ? { transaction } : {}) },
+  );
+  return rows.map((r) => r.name);
+}
+
+// SQL: a transaction-scoped advisory lock, so that identifiers and aliases are added one writer at a time
+// (their uniqueness spans two tables, which no index can keep).
+export async function lockCompoundNames(transaction: Transaction): Promise<void> {
+  await db().query("select pg_advisory_xact_lock(hashtext('gatewell.compound-names'))", { transaction });
 }

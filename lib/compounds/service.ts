@@ -6,6 +6,8 @@ import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import type { BatchInput, CompoundInput } from '@/lib/validation/compounds';
 import { Batch, Compound } from '@/models';
+import { resolveCompoundNames } from './aliases';
+import { lockCompoundNames } from './queries';
 
 export interface CompoundRecord {
   id: string;
@@ -40,6 +42,16 @@ const toBatch = (b: Batch): BatchRecord => ({
   solvent: b.solvent,
 });
 
+/** Refuses an identifier that is already another compound's alias (under lockCompoundNames). */
+async function refuseAliasClash(identifier: string, transaction: Transaction): Promise<void> {
+  await lockCompoundNames(transaction);
+  const found = (await resolveCompoundNames([identifier], transaction)).get(identifier.toUpperCase());
+  if (found && found.identifier.toUpperCase() !== identifier.toUpperCase()) {
+    const message = `${identifier} is already an alias of ${found.identifier}.`;
+    throw new AppError('conflict', message, { fieldErrors: { identifier: [message] } });
+  }
+}
+
 function duplicate(error: unknown, message: string, field: string): never {
   if (error instanceof UniqueConstraintError)
     throw new AppError('conflict', message, { fieldErrors: { [field]: [message] } });
@@ -52,6 +64,7 @@ export async function insertCompound(
   input: CompoundInput,
   transaction: Transaction,
 ): Promise<CompoundRecord> {
+  await refuseAliasClash(input.identifier, transaction);
   const compound = await Compound.create({ ...input, createdBy: actor.id }, { transaction }).catch((error) =>
     duplicate(error, `A compound with identifier ${input.identifier} is already registered.`, 'identifier'),
   );
@@ -87,6 +100,7 @@ export async function updateCompound(
     const compound = await Compound.findByPk(compoundId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!compound) throw new AppError('not_found', 'No such compound.');
     const before = toCompound(compound);
+    await refuseAliasClash(input.identifier, transaction);
     await compound
       .update(input, { transaction })
       .catch((error) =>

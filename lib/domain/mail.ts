@@ -9,6 +9,10 @@ export const MAIL_KINDS = [
   'plate_reopened',
   'password_link',
   'account_invitation',
+  /** An import waits for compounds the registry lacks: to everyone who may register them. */
+  'import_waiting_for_compounds',
+  /** Every compound a waiting import lacked is now registered: to the import's owner. */
+  'import_compounds_ready',
 ] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 /** Kinds whose message carries a password link: cut from the outbox's copy once sent, never sent again. */

@@ -1,5 +1,5 @@
 import 'server-only';
-import type { Transaction } from 'sequelize';
+import { Op, type Transaction } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
@@ -13,6 +13,8 @@ import { consumeDraftRow, removeExpiredDraftRows } from './import-queries';
  * values and its bytes, for its owner only, until it expires. Preview and commit (and the import job)
  * take the sheets from the draft and never parse again; the commit consumes it in the transaction that
  * stores the plate. The job sweep removes expired drafts (removeExpiredDrafts).
+ * A draft may wait for compounds the registry lacks (markDraftWaiting, lib/compounds/waiting-imports.ts):
+ * while it waits it does not expire, and it stays until it is stored or its owner discards it.
  */
 
 /** How long a draft is kept after inspect, ms: 24 h (a common lifetime for pending uploads; no source). */
@@ -38,6 +40,8 @@ export interface DraftFile {
   bytes: Uint8Array;
   sheets: SheetData[];
   expiresAt: Date;
+  /** When the draft began to wait for compounds; null when it does not wait. */
+  waitingSince: Date | null;
 }
 
 /** Keeps a file read at inspect as its owner's draft; returns its id and when it expires. */
@@ -91,19 +95,21 @@ export async function readDraft(
       { draft: 'used', plateId: record.plateId },
     );
   }
-  if (record.expiresAt.getTime() <= Date.now()) {
+  const waitingSince = row.waitingSince ?? null;
+  if (!waitingSince && record.expiresAt.getTime() <= Date.now()) {
     throw new AppError(
       'conflict',
       `This import draft expired at ${record.expiresAt.toISOString()} (drafts are kept ${DRAFT_LIFETIME_MS / 3_600_000} hours); read the file again.`,
       { draft: 'expired' },
     );
   }
-  if (options.content === false) return { ...record, bytes: new Uint8Array(), sheets: [] };
+  if (options.content === false) return { ...record, waitingSince, bytes: new Uint8Array(), sheets: [] };
   const sheets = draftSheetsSchema.safeParse(row.sheets);
   if (!sheets.success || !row.bytes)
     throw new AppError('invalid', 'The stored draft is not readable; read the file again.');
   return {
     ...record,
+    waitingSince,
     bytes: new Uint8Array(row.bytes.buffer, row.bytes.byteOffset, row.bytes.byteLength),
     sheets: sheets.data,
   };
@@ -122,4 +128,66 @@ export async function consumeDraft(
 /** The sweep's part for drafts: removes every expired draft, used or not; returns how many. */
 export async function removeExpiredDrafts(): Promise<number> {
   return removeExpiredDraftRows();
+}
+
+/** What a waiting draft waits for, and the choices its owner made, to resume with. */
+export interface DraftWaiting {
+  waitingFor: string[];
+  choice: object;
+}
+
+/** A draft waiting for compounds, without its sheets and bytes. */
+export interface WaitingDraft extends DraftWaiting {
+  id: string;
+  ownerId: string;
+  screenId: string;
+  filename: string;
+  waitingSince: Date;
+}
+
+/** Marks the draft (read under its lock in this transaction) as waiting for these compounds. */
+export async function markDraftWaiting(
+  draftId: string,
+  waiting: DraftWaiting,
+  transaction: Transaction,
+  now = new Date(),
+): Promise<void> {
+  await ImportDraft.update(
+    { waitingSince: now, waitingFor: waiting.waitingFor, waitingChoice: waiting.choice },
+    { where: { id: draftId }, transaction },
+  );
+}
+
+/** Every draft still waiting for compounds (not stored yet), oldest first; only the owner's when given. */
+export async function listWaitingDrafts(
+  filter: { ownerId?: string; ids?: string[] } = {},
+  transaction?: Transaction,
+): Promise<WaitingDraft[]> {
+  db();
+  const rows = await ImportDraft.findAll({
+    attributes: ['id', 'ownerId', 'screenId', 'filename', 'waitingSince', 'waitingFor', 'waitingChoice'],
+    where: {
+      waitingSince: { [Op.ne]: null },
+      consumedAt: null,
+      ...(filter.ownerId ? { ownerId: filter.ownerId } : {}),
+      ...(filter.ids ? { id: filter.ids } : {}),
+    },
+    order: [['waitingSince', 'ASC']],
+    raw: true,
+    ...(transaction ? { transaction } : {}),
+  });
+  return rows.map((r) => ({
+    id: r.id,
+    ownerId: r.ownerId,
+    screenId: r.screenId,
+    filename: r.filename,
+    waitingSince: r.waitingSince!,
+    waitingFor: r.waitingFor ?? [],
+    choice: r.waitingChoice ?? {},
+  }));
+}
+
+/** Removes a draft its owner gives up (read under its lock in this transaction). */
+export async function removeDraft(draftId: string, transaction: Transaction): Promise<void> {
+  await ImportDraft.destroy({ where: { id: draftId }, transaction });
 }

@@ -46,10 +46,13 @@ export async function consumeDraftRow(
   return used.length > 0;
 }
 
-/** Removes every draft past its expiry, used or not (a queued commit of one goes with it); returns how many. */
+/**
+ * Removes every draft past its expiry, used or not (a queued commit of one goes with it), except those
+ * still waiting for compounds; returns how many.
+ */
 export async function removeExpiredDraftRows(): Promise<number> {
   const removed = await db().query<{ id: string }>(
-    'delete from import_drafts where expires_at <= now() returning id',
+    'delete from import_drafts where expires_at <= now() and (waiting_since is null or consumed_at is not null) returning id',
     { type: QueryTypes.SELECT },
   );
   return removed.length;

@@ -2,6 +2,7 @@ import 'server-only';
 import type { Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import { requireCapability, type Actor } from '@/lib/auth/roles';
+import { knownCompoundNames } from '@/lib/compounds/aliases';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
@@ -12,7 +13,7 @@ import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { queueImportNotices } from '@/lib/signoff/import-notice';
-import { Compound, ImportTemplate, Screen, Target } from '@/models';
+import { ImportTemplate, Screen, Target } from '@/models';
 import { parsedPlateInput } from './analysis-input';
 import { consumeDraft, createDraft, readDraft } from './import-drafts';
 import { analysisSettings } from './settings';
@@ -129,18 +130,7 @@ export async function inspectUpload(actor: Actor, upload: Upload) {
   await loadScreen(upload.screenId);
   const { parsed } = await readOnce(upload);
   const duplicateOf = await findDuplicateUpload(upload.screenId, parsed.sha256);
-  const inspected: SheetInspection[] = parsed.sheets.map((sheet) => {
-    const guess = guessMapping(sheet);
-    const headerRow = guess.mapping.headerRow;
-    return {
-      name: sheet.name,
-      rowCount: sheet.rows.length,
-      headerRow,
-      headers: (sheet.rows[headerRow - 1] ?? []).map((cell) => (cell === null ? '' : String(cell))),
-      sample: sheet.rows.slice(headerRow, headerRow + 5),
-      guess,
-    };
-  });
+  const inspected = inspectSheets(parsed.sheets);
   const draft = duplicateOf
     ? null
     : await createDraft(actor, { ...upload, sha256: parsed.sha256, sheets: parsed.sheets });
@@ -182,13 +172,8 @@ async function checkSheet(
 ): Promise<PlatePreview> {
   const sheet = file.sheets.find((s) => s.name === choice.sheet);
   if (!sheet) throw new AppError('invalid', `${file.filename} has no sheet named "${choice.sheet}".`);
-  const compounds = await Compound.findAll({
-    attributes: ['identifier'],
-    raw: true,
-    ...(transaction ? { transaction } : {}),
-  });
   return validatePlateSheet(sheet, choice.mapping, {
-    knownCompounds: compounds.map((c) => c.identifier),
+    knownCompounds: await knownCompoundNames(transaction), // identifiers and aliases (lib/compounds/aliases.ts)
     knownTargets: targets,
     ...(choice.format ? { plateFormat: choice.format } : {}),
   });
@@ -298,4 +283,20 @@ export async function commitImport(
     return stored;
   };
   return options.transaction ? store(options.transaction) : db().transaction(store);
+}
+
+/** Each sheet's headers, first rows and guessed mapping, as inspect answers them (and a resumed draft). */
+export function inspectSheets(sheets: SheetData[]): SheetInspection[] {
+  return sheets.map((sheet) => {
+    const guess = guessMapping(sheet);
+    const headerRow = guess.mapping.headerRow;
+    return {
+      name: sheet.name,
+      rowCount: sheet.rows.length,
+      headerRow,
+      headers: (sheet.rows[headerRow - 1] ?? []).map((cell) => (cell === null ? '' : String(cell))),
+      sample: sheet.rows.slice(headerRow, headerRow + 5),
+      guess,
+    };
+  });
 }

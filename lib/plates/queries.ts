@@ -265,21 +265,6 @@ export async function selectDuplicateUpload(
   return row;
 }
 
-// SQL: compounds matched case-blind on upper(identifier), which the ORM's where cannot say plainly.
-export async function selectCompoundsByUpperIdentifier(
-  wanted: string[],
-  transaction: Transaction,
-): Promise<{ id: string; identifier: string }[]> {
-  return db().query<{ id: string; identifier: string }>(
-    'select id, identifier from compounds where upper(identifier) in (:wanted)',
-    {
-      type: QueryTypes.SELECT,
-      replacements: { wanted },
-      transaction,
-    },
-  );
-}
-
 const WELL_COLUMNS = {
   id: 'uuid',
   plate_id: 'uuid',

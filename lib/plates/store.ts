@@ -3,17 +3,13 @@ import { createHash, randomUUID } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { recordAudit } from '@/lib/audit/record';
 import type { Actor } from '@/lib/auth/roles';
+import { resolveCompoundNames } from '@/lib/compounds/aliases';
 import { AppError } from '@/lib/errors';
 import type { ParsedPlate } from '@/lib/imports/build-plate';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { Plate, Screen, Target, UploadedFile } from '@/models';
 import { analysisInput, type ReadoutData } from './analysis-input';
-import {
-  insertReadouts,
-  insertWells,
-  selectCompoundsByUpperIdentifier,
-  selectDuplicateUpload,
-} from './queries';
+import { insertReadouts, insertWells, selectDuplicateUpload } from './queries';
 import { queueRefit } from './recompute';
 import { analysisSettings } from './settings';
 
@@ -49,13 +45,9 @@ async function idsByName(screenId: string, plate: ParsedPlate, transaction: Tran
         .filter((c): c is string => c !== null),
     ),
   ];
-  const compounds = wanted.length
-    ? await selectCompoundsByUpperIdentifier(
-        wanted.map((c) => c.toUpperCase()),
-        transaction,
-      )
-    : [];
-  const compoundId = new Map(compounds.map((c) => [c.identifier.toUpperCase(), c.id]));
+  // Identifiers and aliases alike (lib/compounds/aliases.ts), keyed by the file's name upper-cased.
+  const compounds = await resolveCompoundNames(wanted, transaction);
+  const compoundId = new Map([...compounds].map(([name, c]) => [name, c.id]));
   const missingTarget = plate.targets.find((t) => !targetId.has(t.toLowerCase()));
   if (missingTarget)
     throw new AppError('invalid', `Target "${missingTarget}" is not a target of this screen.`);
