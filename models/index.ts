@@ -18,6 +18,7 @@ import { Screen } from './screen';
 import { Signature } from './signature';
 import { SignoffEvent } from './signoff-event';
 import { Target } from './target';
+import { TargetAlias } from './target-alias';
 import { UploadedFile } from './uploaded-file';
 import { User } from './user';
 import { UserRole } from './user-role';
@@ -42,6 +43,7 @@ export {
   Signature,
   SignoffEvent,
   Target,
+  TargetAlias,
   UploadedFile,
   User,
   UserRole,
@@ -67,6 +69,7 @@ const models = [
   Signature,
   SignoffEvent,
   Target,
+  TargetAlias,
   UploadedFile,
   User,
   UserRole,

@@ -68,6 +68,8 @@ export const ROUTE_CASES: RouteCase[] = [
   api('POST /api/imports/inspect', ['biologist'], 'passes'),
   api('POST /api/imports/preview', ['biologist'], 'passes'),
   api('POST /api/imports/commit', ['biologist'], 'passes'),
+  api('POST /api/import-templates', ['biologist'], 'passes'),
+  api('DELETE /api/import-templates/[templateId]', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/exclusions', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/fit-model', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/jobs', undefined, 'passes'),
