@@ -16,6 +16,8 @@ export class ImportTemplate extends Model<
   declare id: CreationOptional<string>;
   declare name: string;
   declare mapping: Record<string, unknown>;
+  /** Normalised header texts of the layout's well sheet (lib/imports/fingerprint.ts); null for older templates. */
+  declare fingerprint: CreationOptional<string | null>;
   declare createdBy: string;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -26,6 +28,7 @@ export class ImportTemplate extends Model<
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         name: { type: DataTypes.TEXT, allowNull: false },
         mapping: { type: DataTypes.JSONB, allowNull: false },
+        fingerprint: { type: DataTypes.TEXT, allowNull: true },
         createdBy: { type: DataTypes.UUID, allowNull: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -19,6 +19,7 @@ import { Screen } from './screen';
 import { Signature } from './signature';
 import { SignoffEvent } from './signoff-event';
 import { Target } from './target';
+import { TargetAlias } from './target-alias';
 import { UploadedFile } from './uploaded-file';
 import { User } from './user';
 import { UserRole } from './user-role';
@@ -44,6 +45,7 @@ export {
   Signature,
   SignoffEvent,
   Target,
+  TargetAlias,
   UploadedFile,
   User,
   UserRole,
@@ -70,6 +72,7 @@ const models = [
   Signature,
   SignoffEvent,
   Target,
+  TargetAlias,
   UploadedFile,
   User,
   UserRole,

@@ -23,6 +23,8 @@ export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes
   declare version: CreationOptional<number>;
   /** Per target: Z′ with its band and pass/fail, run-down and normalisation notes (from lib/science/plate-analysis). */
   declare qcSummary: CreationOptional<unknown[]>;
+  /** Facts the file gives outside its table: barcode, run date, cell line, temperature, operator (lib/imports/plate-facts.ts). */
+  declare facts: CreationOptional<Record<string, string>>;
   /** True from an import or a change to wells or models until a job has refitted the plate (lib/jobs). */
   declare fitsPending: CreationOptional<boolean>;
   declare fitsRequestedAt: CreationOptional<Date | null>;
@@ -47,6 +49,7 @@ export class Plate extends Model<InferAttributes<Plate>, InferCreationAttributes
         state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'imported' },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
         qcSummary: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        facts: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         fitsPending: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         fitsRequestedAt: { type: DataTypes.DATE, allowNull: true },
         fittedAt: { type: DataTypes.DATE, allowNull: true },

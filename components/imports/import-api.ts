@@ -3,6 +3,10 @@ import type { ImportIssue } from '@/lib/imports/import-issue';
 import type { PreviewRow } from '@/lib/imports/read-row';
 import type { Cell } from '@/lib/imports/spreadsheet-types';
 import type { GuessedColumn } from '@/lib/imports/guess-mapping';
+import type { PlateFact } from '@/lib/imports/import-fields';
+
+/** Plate facts read from outside the file's table, by name. */
+export type FoundFacts = Partial<Record<PlateFact, string>>;
 
 export interface Inspection {
   /** The import draft the server keeps the parsed file in; null for a file already stored for the screen. */
@@ -17,7 +21,21 @@ export interface Inspection {
     headers: string[];
     sample: Cell[][];
     guess: { mapping: ColumnMapping; matched: GuessedColumn[]; missingFields: string[] };
+    /** Distinct text values of each column below the header row, by 0-based column index. */
+    values: Record<string, string[]>;
+    /** Plate facts found where the guess locates them. */
+    facts: FoundFacts;
   }[];
+  /** A saved template whose header fingerprint matches one of the file's sheets, applied by the wizard. */
+  recognised: {
+    templateId: string;
+    name: string;
+    sheet: string;
+    mapping: ColumnMapping;
+    facts: FoundFacts;
+  } | null;
+  /** The screen's remembered target aliases: alias as written → target name. */
+  targetAliases: Record<string, string>;
 }
 
 export interface Preview {
@@ -30,6 +48,10 @@ export interface Preview {
   summary: { rows: number; okRows: number; errorRows: number; errors: number; warnings: number };
   ok: boolean;
   qc: Record<string, string[]>;
+  /** Rows the role value map marks empty: skipped and counted. */
+  emptyWells: number;
+  facts: FoundFacts;
+  factWarnings: string[];
 }
 
 export class ImportRequestError extends Error {

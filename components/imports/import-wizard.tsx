@@ -3,11 +3,14 @@
 import { AppLink } from '@/components/ui/app-link';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
+import { PLATE_FACT_LABEL, type PlateFact } from '@/lib/imports/import-fields';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
 import { postImportStep, type Inspection, type Preview } from './import-api';
 import { MappingStep } from './mapping-step';
+import { PlateFactsForm } from './plate-facts-form';
 import { PreviewStep } from './preview-step';
 import { UnknownCompoundsPanel } from './unknown-compounds';
+import { ValueMaps } from './value-maps';
 
 export interface WizardScreen {
   id: string;
@@ -29,12 +32,13 @@ export interface ResumedImport {
   filename: string;
   sheets: Inspection['sheets'];
   choice: { sheet: string; mapping: ColumnMapping; format?: number | undefined; label: string };
+  targetAliases: Inspection['targetAliases'];
 }
 
 /** The three import steps: read the file, map its columns, check every row and store the plate. */
 export function ImportWizard({
   screens,
-  templates,
+  templates: initialTemplates,
   canRegisterCompounds = false,
   resume,
 }: {
@@ -51,7 +55,15 @@ export function ImportWizard({
   const [file, setFile] = useState<File | null>(null);
   const [inspection, setInspection] = useState<Inspection | null>(
     resume
-      ? { draftId: resume.draftId, expiresAt: null, sha256: '', duplicateOf: null, sheets: resume.sheets }
+      ? {
+          draftId: resume.draftId,
+          expiresAt: null,
+          sha256: '',
+          duplicateOf: null,
+          sheets: resume.sheets,
+          recognised: null,
+          targetAliases: resume.targetAliases,
+        }
       : null,
   );
   const [sheet, setSheet] = useState(resume?.choice.sheet ?? '');
@@ -64,6 +76,11 @@ export function ImportWizard({
   const [error, setError] = useState<string | null>(null);
   /** Set when the server answered that a worker is still storing the plate (202). */
   const [storing, setStoring] = useState<string | null>(null);
+  // Value maps, plate facts and recognised layouts (issue 18).
+  const [templates, setTemplates] = useState(initialTemplates);
+  const [templateId, setTemplateId] = useState('');
+  const [recognised, setRecognised] = useState<string | null>(null);
+  const [labelTouched, setLabelTouched] = useState(false);
 
   async function run<T>(work: () => Promise<T>): Promise<T | null> {
     setBusy(true);
@@ -82,16 +99,57 @@ export function ImportWizard({
     const found = result.sheets.find((s) => s.name === name) ?? result.sheets[0]!;
     setSheet(found.name);
     setMapping(found.guess.mapping);
+    return found;
   };
+
+  const applyTemplate = (id: string) => {
+    setTemplateId(id);
+    const t = templates.find((x) => x.id === id);
+    if (!t) return;
+    const next = columnMappingDraftSchema.parse(t.mapping);
+    const named = inspection?.sheets.find((s) => s.name === next.wellSheet);
+    if (named) setSheet(named.name);
+    setMapping(next);
+    setTemplateName(t.name);
+  };
+
+  async function deleteTemplate() {
+    const t = templates.find((x) => x.id === templateId);
+    if (!t || !window.confirm(`Delete the template “${t.name}”? Plates imported with it keep their data.`))
+      return;
+    const ok = await run(async () => {
+      const response = await fetch(`/api/import-templates/${t.id}`, { method: 'DELETE' });
+      if (!response.ok) throw new Error(`The template could not be deleted (${response.status}).`);
+      return true;
+    });
+    if (!ok) return;
+    setTemplates(templates.filter((x) => x.id !== t.id));
+    setTemplateId('');
+    if (templateName === t.name) setTemplateName('');
+  }
 
   async function inspect() {
     if (!file) return setError('Choose a file first.');
     const result = await run(() => postImportStep<Inspection>('inspect', { screenId }, file));
     if (!result) return;
     setInspection(result);
-    const best = [...result.sheets].sort((a, b) => b.guess.matched.length - a.guess.matched.length)[0]!;
-    chooseSheet(result, best.name);
-    setLabel(file.name.replace(/\.(xlsx|xls|csv)$/i, ''));
+    setLabelTouched(false);
+    const fileLabel = file.name.replace(/\.(xlsx|xls|csv)$/i, '');
+    if (result.recognised) {
+      // A layout mapped before: its template is applied with no click (matched by the header fingerprint).
+      setSheet(result.recognised.sheet);
+      setMapping(result.recognised.mapping);
+      setTemplateId(result.recognised.templateId);
+      setTemplateName(result.recognised.name);
+      setRecognised(result.recognised.name);
+      setLabel(result.recognised.facts.barcode ?? fileLabel);
+    } else {
+      const best = [...result.sheets].sort((a, b) => b.guess.matched.length - a.guess.matched.length)[0]!;
+      const chosen = chooseSheet(result, best.name);
+      setTemplateId('');
+      setRecognised(null);
+      setLabel(chosen.facts.barcode ?? fileLabel);
+    }
     if (result.draftId) setStep(1);
   }
 
@@ -107,6 +165,7 @@ export function ImportWizard({
     const result = await run(() => postImportStep<Preview>('preview', fields()));
     if (result) {
       setPreview(result);
+      if (result.facts.barcode && !labelTouched) setLabel(result.facts.barcode);
       setStep(2);
     }
   }
@@ -215,7 +274,10 @@ export function ImportWizard({
                 id="import-sheet"
                 className="gw-input mt-1"
                 value={sheet}
-                onChange={(e) => chooseSheet(inspection, e.target.value)}
+                onChange={(e) => {
+                  chooseSheet(inspection, e.target.value);
+                  setRecognised(null);
+                }}
               >
                 {inspection.sheets.map((s) => (
                   <option key={s.name} value={s.name}>
@@ -231,11 +293,8 @@ export function ImportWizard({
               <select
                 id="import-template"
                 className="gw-input mt-1"
-                defaultValue=""
-                onChange={(e) => {
-                  const t = templates.find((x) => x.id === e.target.value);
-                  if (t) setMapping(columnMappingDraftSchema.parse(t.mapping));
-                }}
+                value={templateId}
+                onChange={(e) => applyTemplate(e.target.value)}
               >
                 <option value="">— guessed from the headers —</option>
                 {templates.map((t) => (
@@ -244,6 +303,11 @@ export function ImportWizard({
                   </option>
                 ))}
               </select>
+              {templateId ? (
+                <button type="button" className="gw-button-quiet mt-1 text-xs" onClick={deleteTemplate}>
+                  Delete this template
+                </button>
+              ) : null}
             </div>
             <div>
               <label htmlFor="import-header-row" className="gw-label">
@@ -290,9 +354,35 @@ export function ImportWizard({
               }
             />
           </div>
+          {recognised ? (
+            <p
+              role="status"
+              className="rounded-md border border-lagoon-500 bg-lagoon-100 p-3 text-sm text-lagoon-700"
+            >
+              This file’s headers match the template “{recognised}”: its mapping, value maps and plate facts
+              are applied.
+            </p>
+          ) : null}
           <div className="overflow-x-auto">
             <MappingStep headers={current.headers} mapping={mapping} onChange={setMapping} />
           </div>
+          <ValueMaps
+            headers={current.headers}
+            values={current.values}
+            mapping={mapping}
+            onChange={setMapping}
+            targets={screens.find((s) => s.id === screenId)?.targets ?? []}
+            targetAliases={inspection.targetAliases}
+          />
+          <PlateFactsForm
+            sheets={inspection.sheets.map((s) => s.name)}
+            mapping={mapping}
+            guessed={
+              (recognised ? inspection.recognised?.mapping : current.guess.mapping)?.facts ?? mapping.facts
+            }
+            found={(recognised ? inspection.recognised?.facts : current.facts) ?? {}}
+            onChange={setMapping}
+          />
           <div className="flex gap-3">
             <button type="button" className="gw-button-quiet" onClick={() => setStep(0)}>
               Back
@@ -317,6 +407,29 @@ export function ImportWizard({
               />
             }
           />
+          {Object.keys(preview.facts).length > 0 ||
+          preview.factWarnings.length > 0 ||
+          preview.emptyWells > 0 ? (
+            <div className="gw-card space-y-1 p-4 text-sm" aria-label="Plate facts and skipped wells">
+              {Object.entries(preview.facts).map(([fact, value]) => (
+                <p key={fact}>
+                  <span className="text-ink-500">{PLATE_FACT_LABEL[fact as PlateFact]}:</span>{' '}
+                  <span className="font-mono">{value}</span>
+                </p>
+              ))}
+              {preview.factWarnings.map((warning) => (
+                <p key={warning} className="text-signal-warn">
+                  {warning}
+                </p>
+              ))}
+              {preview.emptyWells > 0 ? (
+                <p>
+                  {preview.emptyWells} {preview.emptyWells === 1 ? 'row is' : 'rows are'} marked empty and
+                  skipped.
+                </p>
+              ) : null}
+            </div>
+          ) : null}
           <div className="gw-card grid gap-4 p-5 sm:grid-cols-3">
             <div>
               <label htmlFor="import-label" className="gw-label">
@@ -326,7 +439,10 @@ export function ImportWizard({
                 id="import-label"
                 className="gw-input mt-1"
                 value={label}
-                onChange={(e) => setLabel(e.target.value)}
+                onChange={(e) => {
+                  setLabel(e.target.value);
+                  setLabelTouched(true);
+                }}
               />
             </div>
             <div>

@@ -13,6 +13,7 @@ import {
   type WaitingDraft,
 } from '@/lib/plates/import-drafts';
 import { inspectSheets, previewImport, type SheetInspection } from '@/lib/plates/import-service';
+import { screenTargetAliases } from '@/lib/plates/templates';
 import { waitingChoiceSchema, type WaitingChoice } from '@/lib/validation/import-compounds';
 import { Screen, User } from '@/models';
 import { aliasText, resolveCompoundNames } from './aliases';
@@ -116,6 +117,8 @@ export interface ResumedImport {
   filename: string;
   sheets: SheetInspection[];
   choice: WaitingChoice;
+  /** The screen's remembered target words (file word → target), as inspect gives them. */
+  targetAliases: Record<string, string>;
 }
 
 /** The actor's own waiting draft, to resume (reads only: the draft waits until it is stored or discarded). */
@@ -131,6 +134,7 @@ export async function resumeWaitingImport(actor: Actor, draftId: string): Promis
     filename: draft.filename,
     sheets: inspectSheets(draft.sheets),
     choice: waitingChoiceSchema.parse(waiting.choice),
+    targetAliases: await screenTargetAliases(draft.screenId),
   };
 }
 

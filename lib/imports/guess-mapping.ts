@@ -131,3 +131,32 @@ function headerCells(row: Cell[]): { index: number; letter: string; header: stri
     return header ? [{ index, letter: columnLetter(index), header }] : [];
   });
 }
+
+const DISTINCT_LIMIT = 200;
+
+/**
+ * The distinct text values of each column below the header row, by 0-based column index, in the order
+ * first written (for the value maps of the role, target and compound columns). A column with more than
+ * 200 distinct values is left out.
+ */
+export function distinctColumnValues(sheet: SheetData, headerRow: number): Record<number, string[]> {
+  const seen = new Map<number, { values: Map<string, string>; over: boolean }>();
+  for (const cells of sheet.rows.slice(headerRow)) {
+    cells.forEach((cell, index) => {
+      const text = typeof cell === 'string' ? cell.trim() : cell === null ? '' : String(cell);
+      if (text === '') return;
+      const column = seen.get(index) ?? { values: new Map<string, string>(), over: false };
+      seen.set(index, column);
+      if (column.over) return;
+      const key = text.toLowerCase().replace(/\s+/g, '');
+      if (!column.values.has(key)) column.values.set(key, text);
+      if (column.values.size > DISTINCT_LIMIT) column.over = true;
+    });
+  }
+  const result: Record<number, string[]> = {};
+  for (const [index, column] of seen) {
+    if (column.over) continue;
+    result[index] = [...column.values.values()];
+  }
+  return result;
+}

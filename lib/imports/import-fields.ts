@@ -1,5 +1,4 @@
 // The fields a plate export's columns can be mapped to.
-import type { WellRole } from '@/lib/domain/well-roles';
 
 /** Every field a column may be mapped to, in the order the mapping form shows them. */
 export const IMPORT_FIELDS = [
@@ -57,9 +56,16 @@ export const FIELD_LABEL: Record<ImportField, string> = {
   role: 'well role',
 };
 
-/** Default words that mark each well role (lib/domain/well-roles.ts), in a role column or as the compound identifier. */
-export const DEFAULT_MARKERS: Record<WellRole, string[]> = {
-  vehicle: ['VEH', 'VEHICLE', 'DMSO', 'NEG', 'NEGATIVE'],
-  reference: ['REF', 'REFERENCE', 'POS', 'POSITIVE'],
-  test: ['TEST', 'SAMPLE', 'CMPD', 'COMPOUND'],
+/** Facts about the plate that a file may give outside its table (lib/imports/plate-facts.ts). */
+export const PLATE_FACTS = ['barcode', 'runDate', 'cellLine', 'temperature', 'operator'] as const;
+
+export type PlateFact = (typeof PLATE_FACTS)[number];
+
+/** Names of plate facts as people read them. */
+export const PLATE_FACT_LABEL: Record<PlateFact, string> = {
+  barcode: 'plate barcode',
+  runDate: 'run date',
+  cellLine: 'cell line',
+  temperature: 'temperature',
+  operator: 'operator',
 };

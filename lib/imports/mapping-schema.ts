@@ -1,29 +1,59 @@
 import { z } from 'zod';
 import {
-  DEFAULT_MARKERS,
   FIELD_LABEL,
   IMPORT_FIELDS,
+  PLATE_FACTS,
   REQUIRED_FIELDS,
   type ImportField,
+  type PlateFact,
 } from './import-fields';
 import { normaliseLabel } from './normalise-text';
+import { guessRoleValue, ROLE_CHOICES, type RoleChoice } from './role-words';
 import { CAPACITANCE_UNITS, CONCENTRATION_UNITS, CURRENT_UNITS, RESISTANCE_UNITS } from './units';
 
 const header = z.string().trim().min(1).max(200).nullable().default(null);
-const markerList = (defaults: string[]) =>
-  z
-    .array(z.string().trim().min(1).max(100))
-    .max(50)
-    .default(() => [...defaults]);
+const valueText = z.string().trim().min(1).max(100);
+const sheetName = z.string().trim().min(1).max(200);
+
+/** Where a plate fact is written outside the table: one cell, or the value beside a key ("Barcode | XYZ123"). */
+export const factLocatorSchema = z.discriminatedUnion('kind', [
+  z.object({
+    kind: z.literal('cell'),
+    sheet: sheetName,
+    address: z
+      .string()
+      .trim()
+      .toUpperCase()
+      .regex(
+        /^\$?[A-Z]{1,3}\$?[1-9][0-9]{0,6}$/,
+        'Write the cell as a column letter and row number, like B2.',
+      ),
+  }),
+  z.object({
+    kind: z.literal('key'),
+    /** The sheet to look in; null looks in every sheet. */
+    sheet: sheetName.nullable().default(null),
+    key: valueText,
+  }),
+]);
+
+const factsSchema = z.object(
+  Object.fromEntries(PLATE_FACTS.map((fact) => [fact, factLocatorSchema.nullable().default(null)])) as Record<
+    PlateFact,
+    z.ZodDefault<z.ZodNullable<typeof factLocatorSchema>>
+  >,
+);
 
 /** Which header (as written in the header row) feeds each field; null when no column does. */
 const columnsSchema = z.object(
   Object.fromEntries(IMPORT_FIELDS.map((field) => [field, header])) as Record<ImportField, typeof header>,
 );
 
-/** A column mapping that may still be incomplete, as guessed or while it is being edited. */
-export const columnMappingDraftSchema = z.object({
-  version: z.literal(1).default(1),
+/** A column mapping as it is stored (version 2), before defaults. */
+const mappingObjectSchema = z.object({
+  version: z.literal(2).default(2),
+  /** The sheet that holds the wells, when the layout names one (a template keeps it); null: the chosen sheet. */
+  wellSheet: sheetName.nullable().default(null),
   /** 1-based row number of the header row, as the spreadsheet shows it. */
   headerRow: z.int().min(1).max(1000).default(1),
   columns: columnsSchema.prefault({}),
@@ -40,15 +70,65 @@ export const columnMappingDraftSchema = z.object({
     .prefault({}),
   /** The target of every row, for exports of one target that have no target column. */
   fixedTarget: z.string().trim().min(1).max(100).nullable().default(null),
-  /** Words marking vehicle, reference and test wells in the role column; vehicle and reference also as compound identifiers. */
-  markers: z
+  /**
+   * The value map of the role column: each value as the file writes it → negative control (vehicle),
+   * positive control (reference), test, or empty (the row is skipped). Values not in it are guessed
+   * from common words (lib/imports/role-words.ts); a value neither mapped nor guessed stops the import.
+   */
+  roleValues: z
+    .record(valueText, z.enum(ROLE_CHOICES))
+    .refine((map) => Object.keys(map).length <= 500, 'Map at most 500 role values.')
+    .default({}),
+  /** Wells whose compound identifier names a control, for files whose rows say nothing of the role. */
+  controls: z
     .object({
-      vehicle: markerList(DEFAULT_MARKERS.vehicle),
-      reference: markerList(DEFAULT_MARKERS.reference),
-      test: markerList(DEFAULT_MARKERS.test),
+      negative: z.array(valueText).max(200).default([]),
+      positive: z.array(valueText).max(200).default([]),
+      /** A well at concentration 0 (or none written) is a negative control. */
+      zeroConcentration: z.boolean().default(false),
     })
     .prefault({}),
+  /** The file's target values → the screen's target names (also remembered per screen on import). */
+  targetValues: z
+    .record(valueText, z.string().trim().min(1).max(100))
+    .refine((map) => Object.keys(map).length <= 200, 'Map at most 200 target values.')
+    .default({}),
+  /** Where the plate barcode and the other plate facts are written outside the table. */
+  facts: factsSchema.prefault({}),
 });
+
+/**
+ * Upgrades a mapping of version 1: its `markers` (words per role, in the role column or as the compound
+ * identifier) become entries of the value map and control compounds, except words Gatewell guesses the
+ * same way anyway.
+ */
+function upgrade(input: unknown): unknown {
+  if (typeof input !== 'object' || input === null || Array.isArray(input)) return input;
+  const { markers, version, ...rest } = input as Record<string, unknown>;
+  if (version !== 1 && markers === undefined) return input;
+  const roleValues: Record<string, RoleChoice> = {};
+  const controls = { negative: [] as string[], positive: [] as string[] };
+  if (typeof markers === 'object' && markers !== null) {
+    for (const role of ['vehicle', 'reference', 'test'] as const) {
+      const words = (markers as Record<string, unknown>)[role];
+      if (!Array.isArray(words)) continue;
+      for (const word of words) {
+        if (typeof word !== 'string' || word.trim() === '' || guessRoleValue(word) === role) continue;
+        roleValues[word.trim()] ??= role;
+        if (role === 'vehicle') controls.negative.push(word.trim());
+        if (role === 'reference') controls.positive.push(word.trim());
+      }
+    }
+  }
+  const upgraded: Record<string, unknown> = { ...rest, version: 2 };
+  if (Object.keys(roleValues).length > 0)
+    upgraded.roleValues = { ...roleValues, ...(rest.roleValues as object) };
+  if (controls.negative.length + controls.positive.length > 0) upgraded.controls = controls;
+  return upgraded;
+}
+
+/** A column mapping that may still be incomplete, as guessed or while it is being edited (version 1 is upgraded). */
+export const columnMappingDraftSchema = z.preprocess(upgrade, mappingObjectSchema);
 
 /** A complete column mapping: every required field has a column and no column feeds two fields. */
 export const columnMappingSchema = columnMappingDraftSchema.superRefine((mapping, ctx) => {
@@ -87,6 +167,8 @@ export const importTemplateSchema = z.object({
   mapping: columnMappingSchema,
 });
 
-export type ColumnMapping = z.output<typeof columnMappingDraftSchema>;
-export type ColumnMappingInput = z.input<typeof columnMappingDraftSchema>;
+export type ColumnMapping = z.output<typeof mappingObjectSchema>;
+/** A mapping as sent or stored: version 2 with defaults left out (a version 1 mapping parses too). */
+export type ColumnMappingInput = z.input<typeof mappingObjectSchema>;
+export type FactLocator = z.output<typeof factLocatorSchema>;
 export type ImportTemplate = z.output<typeof importTemplateSchema>;

@@ -8,6 +8,7 @@ import { parseWellPosition } from './plate-format';
 import { readQuantity, readText, shorten } from './read-cell';
 import type { RowContext } from './row-context';
 import type { Cell } from './spreadsheet-types';
+import { wellRoleForRow } from './value-map';
 import { parseUnit, UNIT_LABEL, unitsOf, type Unit } from './units';
 
 /** One row's values in canonical units (µM, pA, GΩ, MΩ, pF); null where missing or unreadable. */
@@ -95,17 +96,15 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
     report('target', code, detail),
   );
   const compoundText = readText(cell('compound'));
-  const role = readRole(readText(cell('role')), compoundText, ctx, (detail) =>
-    report('role', 'unknown_role', detail),
-  );
-  const compound =
-    role === 'test'
-      ? checkCompound(compoundText, ctx, (code, detail) => report('compound', code, detail))
-      : compoundText;
   const concentration_uM = quantity(
     'concentration',
     rowUnit('concentrationUnit', 'concentration', units.concentration),
   );
+  const role = wellRoleForRow(cells, ctx, concentration_uM);
+  const compound =
+    role === 'test'
+      ? checkCompound(compoundText, ctx, (code, detail) => report('compound', code, detail))
+      : compoundText;
   if (
     role === 'test' &&
     concentration_uM === null &&
@@ -162,29 +161,11 @@ function readTarget(text: string | null, ctx: RowContext, report: Report): strin
     report('missing_value', 'the target is empty.');
     return null;
   }
-  const known = ctx.targets.get(normaliseLabel(text));
+  const known = ctx.targets.get(normaliseLabel(text)) ?? ctx.targetAliases.get(normaliseLabel(text));
   if (known) return known;
   const names = [...ctx.targets.values()].join(', ') || 'none yet';
   report('unknown_target', `target "${shorten(text)}" is not one of this screen's targets (${names}).`);
   return text;
-}
-
-function readRole(
-  roleText: string | null,
-  compound: string | null,
-  ctx: RowContext,
-  report: (detail: string) => void,
-): WellRole {
-  const marks = (text: string | null, role: WellRole) =>
-    text !== null && ctx.markers[role].has(normaliseLabel(text));
-  if (roleText !== null) {
-    for (const role of ['vehicle', 'reference', 'test'] as const) if (marks(roleText, role)) return role;
-    const list = (role: WellRole) => ctx.mapping.markers[role].join(', ');
-    report(
-      `role "${shorten(roleText)}" is not a known word for vehicle (${list('vehicle')}), reference (${list('reference')}) or test (${list('test')}) wells.`,
-    );
-  }
-  return marks(compound, 'vehicle') ? 'vehicle' : marks(compound, 'reference') ? 'reference' : 'test';
 }
 
 function checkCompound(text: string | null, ctx: RowContext, report: Report): string | null {

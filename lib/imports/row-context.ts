@@ -1,8 +1,8 @@
 import 'server-only';
-import type { WellRole } from '@/lib/domain/well-roles';
 import type { ColumnMapping } from './mapping-schema';
 import { normaliseIdentifier, normaliseLabel } from './normalise-text';
 import type { ResolvedColumns } from './resolve-columns';
+import { valueKey, type RoleChoice } from './role-words';
 
 /** What reading one row needs: the sheet, its columns, the mapping and the screen's names, prepared once. */
 export interface RowContext {
@@ -14,8 +14,13 @@ export interface RowContext {
   compounds: Map<string, string>;
   /** The screen's target names by normalised label. */
   targets: Map<string, string>;
-  /** Role markers by normalised label. */
-  markers: Record<WellRole, Set<string>>;
+  /** Other names of the screen's targets (the mapping's target values first, then the screen's aliases) by normalised label. */
+  targetAliases: Map<string, string>;
+  /** The role column's value map by valueKey. */
+  roleValues: Map<string, RoleChoice>;
+  /** Compound identifiers (normalised) that mark negative and positive control wells. */
+  negativeCompounds: Set<string>;
+  positiveCompounds: Set<string>;
 }
 
 /** Prepares the look-ups for reading rows. */
@@ -26,19 +31,32 @@ export function makeRowContext(input: {
   mapping: ColumnMapping;
   knownCompounds: readonly string[];
   knownTargets: readonly string[];
+  /** The screen's remembered target aliases: alias as written → target name. */
+  targetAliases?: Readonly<Record<string, string>> | undefined;
 }): RowContext {
   const { mapping } = input;
+  const targets = new Map(input.knownTargets.map((name) => [normaliseLabel(name), name.trim()]));
+  const targetAliases = new Map<string, string>();
+  for (const [alias, name] of [
+    ...Object.entries(mapping.targetValues),
+    ...Object.entries(input.targetAliases ?? {}),
+  ]) {
+    const known = targets.get(normaliseLabel(name));
+    const key = normaliseLabel(alias);
+    if (known && key !== '' && !targetAliases.has(key)) targetAliases.set(key, known);
+  }
   return {
     sheet: input.sheet,
     decimalComma: input.decimalComma,
     columns: input.columns,
     mapping,
     compounds: new Map(input.knownCompounds.map((id) => [normaliseIdentifier(id), id.trim()])),
-    targets: new Map(input.knownTargets.map((name) => [normaliseLabel(name), name.trim()])),
-    markers: {
-      vehicle: new Set(mapping.markers.vehicle.map(normaliseLabel)),
-      reference: new Set(mapping.markers.reference.map(normaliseLabel)),
-      test: new Set(mapping.markers.test.map(normaliseLabel)),
-    },
+    targets,
+    targetAliases,
+    roleValues: new Map(
+      Object.entries(mapping.roleValues).map(([value, choice]) => [valueKey(value), choice] as const),
+    ),
+    negativeCompounds: new Set(mapping.controls.negative.map(normaliseIdentifier)),
+    positiveCompounds: new Set(mapping.controls.positive.map(normaliseIdentifier)),
   };
 }

@@ -8,6 +8,8 @@ import type { PlateFormat } from '@/lib/domain/plate-formats';
 import { readRow, type PreviewRow } from './read-row';
 import { resolveColumns, type ResolvedColumn } from './resolve-columns';
 import { makeRowContext } from './row-context';
+import { shorten } from './read-cell';
+import { roleChoiceForRow, unknownRoleValues } from './value-map';
 import type { Cell, SheetData } from './spreadsheet-types';
 
 /** The screen's names a sheet is checked against, and an optional plate format. */
@@ -18,6 +20,8 @@ export interface ValidatePlateOptions {
   knownTargets: readonly string[];
   /** The plate format; inferred from the highest well position when absent. */
   plateFormat?: PlateFormat;
+  /** The screen's remembered target aliases (alias as written → target name). */
+  targetAliases?: Readonly<Record<string, string>>;
 }
 
 /** Everything the import preview shows: each row with its values or issues, and the plate built from good rows. */
@@ -34,6 +38,8 @@ export interface PlatePreview {
   unknownCompounds: { identifier: string; rows: number[] }[];
   unknownTargets: { name: string; rows: number[] }[];
   summary: { rows: number; okRows: number; errorRows: number; errors: number; warnings: number };
+  /** Rows the role column's value map marks empty: skipped, not read into wells. */
+  emptyWells: number;
   /** True when there is not a single error and the plate has wells. */
   ok: boolean;
 }
@@ -51,7 +57,8 @@ export function validatePlateSheet(
     sheetIssues: ImportIssue[],
     columns: PlatePreview['columns'],
     plate: ParsedPlate | null,
-  ) => summarise({ sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate });
+  ) => summarise({ sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells });
+  let emptyWells = 0;
   if (!sheet.rows.some((row) => !isBlank(row))) {
     return finish(
       [],
@@ -69,9 +76,27 @@ export function validatePlateSheet(
     mapping,
     ...options,
   });
+  // Value map (issue 18): role words neither mapped nor guessed stop the file; rows mapped to empty are skipped.
+  const dataRows = sheet.rows.slice(headerRow).filter((cells) => !isBlank(cells));
+  const unknownRoles = unknownRoleValues(dataRows, ctx);
+  if (unknownRoles.length > 0) {
+    const column = columns.role ? { letter: columns.role.letter, header: columns.role.header } : null;
+    const detail = `the well-role column holds ${unknownRoles.length === 1 ? 'a word' : 'words'} Gatewell cannot place: ${unknownRoles.map((word) => `"${shorten(word)}"`).join(', ')}; on the mapping step assign each to negative control, positive control, test or empty.`;
+    const issue = makeIssue({
+      code: 'unknown_role',
+      sheet: sheet.name,
+      row: headerRow,
+      field: 'role',
+      column,
+      detail,
+    });
+    return finish([], [issue], columns, null);
+  }
   const rows: PreviewRow[] = [];
   sheet.rows.forEach((cells, index) => {
-    if (index >= headerRow && !isBlank(cells)) rows.push(readRow(cells, index + 1, ctx));
+    if (index < headerRow || isBlank(cells)) return;
+    if (roleChoiceForRow(cells, ctx) === 'empty') emptyWells += 1;
+    else rows.push(readRow(cells, index + 1, ctx));
   });
   if (rows.length === 0) {
     const detail = `the sheet has a header row (row ${headerRow}) but no data rows below it.`;

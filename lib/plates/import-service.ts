@@ -1,23 +1,29 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
-import { recordAudit } from '@/lib/audit/record';
 import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { knownCompoundNames } from '@/lib/compounds/aliases';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
-import { columnMappingSchema, type ColumnMappingInput } from '@/lib/imports/mapping-schema';
+import { distinctColumnValues, guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
+import {
+  columnMappingDraftSchema,
+  columnMappingSchema,
+  type ColumnMapping,
+  type ColumnMappingInput,
+} from '@/lib/imports/mapping-schema';
+import { guessFactLocators, readPlateFacts, type PlateFacts } from '@/lib/imports/plate-facts';
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
 import type { PlateFormat } from '@/lib/domain/plate-formats';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { queueImportNotices } from '@/lib/signoff/import-notice';
-import { ImportTemplate, Screen, Target } from '@/models';
+import { Screen, Target } from '@/models';
 import { parsedPlateInput } from './analysis-input';
 import { consumeDraft, createDraft, readDraft } from './import-drafts';
 import { analysisSettings } from './settings';
 import { findDuplicateUpload, sha256Hex, storePlate } from './store';
+import { recogniseTemplate, rememberTargetAliases, saveTemplate, screenTargetAliases } from './templates';
 
 /**
  * Import in three requests, inspect → preview → commit. Inspect reads and parses the file once (`readOnce`,
@@ -56,6 +62,10 @@ export interface SheetInspection {
   headers: string[];
   sample: Cell[][];
   guess: MappingGuess;
+  /** Distinct text values of each column below the guessed header row, by 0-based column index (for value maps). */
+  values: Record<number, string[]>;
+  /** The plate facts found where the guess locates them. */
+  facts: PlateFacts;
 }
 
 /** The upload read and parsed, once per request: the parse worker's result, or the one it was given before. */
@@ -131,6 +141,9 @@ export async function inspectUpload(actor: Actor, upload: Upload) {
   const { parsed } = await readOnce(upload);
   const duplicateOf = await findDuplicateUpload(upload.screenId, parsed.sha256);
   const inspected = inspectSheets(parsed.sheets);
+  // A layout mapped before is recognised by its header fingerprint and its template applied (issue 18).
+  const recognised = await recogniseTemplate(parsed.sheets);
+  const targetAliases = await screenTargetAliases(upload.screenId);
   const draft = duplicateOf
     ? null
     : await createDraft(actor, { ...upload, sha256: parsed.sha256, sheets: parsed.sheets });
@@ -140,6 +153,16 @@ export async function inspectUpload(actor: Actor, upload: Upload) {
     sha256: parsed.sha256,
     duplicateOf,
     sheets: inspected,
+    recognised: recognised
+      ? {
+          templateId: recognised.template.id,
+          name: recognised.template.name,
+          sheet: recognised.sheet,
+          mapping: recognised.template.mapping,
+          facts: readPlateFacts(parsed.sheets, recognised.template.mapping).facts,
+        }
+      : null,
+    targetAliases,
   };
 }
 
@@ -156,11 +179,17 @@ export type PreviewRequest = ImportSource & SheetChoice;
 export async function previewImport(
   actor: Actor,
   request: PreviewRequest,
-): Promise<PlatePreview & { qc: Record<number, string[]> }> {
+): Promise<PlatePreview & SheetFacts & { qc: Record<number, string[]> }> {
   requireCapability(actor, 'importPlates');
   const { file, screen, targets } = await openSource(actor, request);
   const preview = await checkSheet(file, targets, request);
   return { ...preview, qc: preview.plate ? qcByRow(preview, analysisSettings(screen)) : {} };
+}
+
+/** The plate facts read from outside the table, and a warning for each located fact not found. */
+interface SheetFacts {
+  facts: PlateFacts;
+  factWarnings: string[];
 }
 
 /** Validates the chosen sheet of the file with the mapping against the registered compounds and the screen's targets. */
@@ -169,14 +198,17 @@ async function checkSheet(
   targets: string[],
   choice: SheetChoice,
   transaction?: Transaction,
-): Promise<PlatePreview> {
+): Promise<PlatePreview & SheetFacts> {
   const sheet = file.sheets.find((s) => s.name === choice.sheet);
   if (!sheet) throw new AppError('invalid', `${file.filename} has no sheet named "${choice.sheet}".`);
-  return validatePlateSheet(sheet, choice.mapping, {
+  const preview = validatePlateSheet(sheet, choice.mapping, {
     knownCompounds: await knownCompoundNames(transaction), // identifiers and aliases (lib/compounds/aliases.ts)
     knownTargets: targets,
+    targetAliases: await screenTargetAliases(file.screenId, transaction),
     ...(choice.format ? { plateFormat: choice.format } : {}),
   });
+  const { facts, warnings } = readPlateFacts(file.sheets, columnMappingDraftSchema.parse(choice.mapping));
+  return { ...preview, facts, factWarnings: warnings };
 }
 
 /** QC messages per spreadsheet row, from the same analysis the commit stores. */
@@ -228,49 +260,28 @@ export async function commitImport(
         { issues: preview.issues.slice(0, 200) },
       );
     }
-    const mapping = columnMappingSchema.parse(request.mapping);
+    const mapping: ColumnMapping = {
+      ...columnMappingSchema.parse(request.mapping),
+      wellSheet: request.sheet,
+    };
     let importTemplateId: string | null = null;
     if (request.templateName) {
-      const [template, created] = await ImportTemplate.findOrCreate({
-        where: { name: request.templateName },
-        defaults: { name: request.templateName, mapping, createdBy: actor.id },
+      const headerCells = file.sheets.find((s) => s.name === request.sheet)?.rows[mapping.headerRow - 1];
+      const template = await saveTemplate(
+        actor,
+        { name: request.templateName, mapping, headerCells: headerCells ?? null },
         transaction,
-      });
-      if (created) {
-        await recordAudit(
-          {
-            actorId: actor.id,
-            action: 'create',
-            entityType: 'import_template',
-            entityId: template.id,
-            after: { name: template.name, mapping },
-            address: actor.address,
-          },
-          transaction,
-        );
-      } else if (JSON.stringify(template.mapping) !== JSON.stringify(mapping)) {
-        const before = template.mapping;
-        await template.update({ mapping }, { transaction });
-        await recordAudit(
-          {
-            actorId: actor.id,
-            action: 'update',
-            entityType: 'import_template',
-            entityId: template.id,
-            before,
-            after: mapping,
-            address: actor.address,
-          },
-          transaction,
-        );
-      }
+      );
       importTemplateId = template.id;
     }
+    // The file's target values are remembered as the screen's aliases, so the next file needs no clicks.
+    await rememberTargetAliases(actor, file.screenId, mapping.targetValues, transaction);
     const stored = await storePlate(
       actor,
       {
         screenId: file.screenId,
         label: request.label,
+        facts: preview.facts,
         plate: preview.plate,
         importTemplateId,
         file: { bytes: file.bytes, filename: file.filename, mediaType: file.mediaType },
@@ -290,6 +301,9 @@ export function inspectSheets(sheets: SheetData[]): SheetInspection[] {
   return sheets.map((sheet) => {
     const guess = guessMapping(sheet);
     const headerRow = guess.mapping.headerRow;
+    // Plate facts outside the table (issue 18): barcode-like keys on other sheets or above the header.
+    const located = guessFactLocators(sheets, sheet.name, headerRow);
+    guess.mapping = { ...guess.mapping, facts: located.facts };
     return {
       name: sheet.name,
       rowCount: sheet.rows.length,
@@ -297,6 +311,8 @@ export function inspectSheets(sheets: SheetData[]): SheetInspection[] {
       headers: (sheet.rows[headerRow - 1] ?? []).map((cell) => (cell === null ? '' : String(cell))),
       sample: sheet.rows.slice(headerRow, headerRow + 5),
       guess,
+      values: distinctColumnValues(sheet, headerRow),
+      facts: located.found,
     };
   });
 }

@@ -23,6 +23,8 @@ export interface PlateHeader {
   importedAt: string;
   filename: string;
   sha256: string;
+  /** Plate facts the file gave outside its table (lib/imports/plate-facts.ts): barcode, runDate, cellLine, temperature, operator. */
+  facts: Record<string, string>;
   qcSummary: {
     target: string;
     zPrime: { zPrime: number | null; band: string | null; passes: boolean; message: string };
@@ -86,7 +88,8 @@ export async function selectPlateHeader(plateId: string): Promise<Omit<PlateHead
   const [plate] = await db().query<Omit<PlateHeader, 'targets'>>(
     `select p.id, p.label, p.format, p.state, p.version, p.fits_pending as "fitsPending", p.screen_id as "screenId", s.name as "screenName", s.neuron_preset as "neuronPreset",
             s.z_prime_min as "zPrimeMin", s.exposures_um as "exposures_uM", p.imported_by as "importedBy", u.name as "importedByName",
-            to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt", f.filename, f.sha256, p.qc_summary as "qcSummary"
+            to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt", f.filename, f.sha256, p.qc_summary as "qcSummary",
+            p.facts
        from plates p join screens s on s.id = p.screen_id join users u on u.id = p.imported_by join uploaded_files f on f.id = p.uploaded_file_id
       where p.id = :plateId`,
     { type: QueryTypes.SELECT, replacements: { plateId } },

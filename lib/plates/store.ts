@@ -20,6 +20,8 @@ export interface StorePlateInput {
   plate: ParsedPlate;
   importTemplateId?: string | null;
   supersedesPlateId?: string | null;
+  /** Plate facts read from outside the file's table (barcode, run date, cell line, temperature, operator). */
+  facts?: Record<string, string>;
 }
 
 export const sha256Hex = (bytes: Uint8Array): string => createHash('sha256').update(bytes).digest('hex');
@@ -137,6 +139,7 @@ export async function storePlate(
       importTemplateId: input.importTemplateId ?? null,
       supersedesPlateId: input.supersedesPlateId ?? null,
       label: input.label,
+      facts: input.facts ?? {},
       format: input.plate.format,
       importedBy: actor.id,
       verifiedBy: null,

@@ -71,6 +71,8 @@ export const ROUTE_CASES: RouteCase[] = [
   api('POST /api/imports/wait', ['biologist'], 'passes'),
   api('POST /api/imports/discard', ['biologist'], 'passes'),
   api('POST /api/imports/unknown-compounds', ['chemist', 'admin'], 'passes'),
+  api('POST /api/import-templates', ['biologist'], 'passes'),
+  api('DELETE /api/import-templates/[templateId]', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/exclusions', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/fit-model', ['biologist'], 'passes'),
   api('POST /api/plates/[plateId]/jobs', undefined, 'passes'),

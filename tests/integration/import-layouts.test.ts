@@ -128,10 +128,16 @@ function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInpu
       capacitance: units.capacitance,
     },
     fixedTarget: importable.targets === 'fixed' ? targets[0]! : null,
-    markers: {
-      vehicle: [facts.roleWords.vehicle],
-      reference: [facts.roleWords.reference],
-      test: [facts.roleWords.test],
+    // The file's own words for the roles, in the role column or as the compound identifier.
+    roleValues: {
+      [facts.roleWords.vehicle]: 'vehicle',
+      [facts.roleWords.reference]: 'reference',
+      [facts.roleWords.test]: 'test',
+    },
+    controls: {
+      negative: [facts.roleWords.vehicle],
+      positive: [facts.roleWords.reference],
+      zeroConcentration: false,
     },
   };
 }

@@ -66,13 +66,13 @@ describe('header guessing', () => {
     expect(guess.missingFields).toEqual(['target', 'controlCurrent', 'compoundCurrent']);
   });
 
-  test('a base mapping supplies a fixed target and markers', () => {
+  test('a base mapping supplies a fixed target and value maps', () => {
     const guess = guessMapping(sheetOf([['Well', 'Compound', 'Conc', 'I control', 'I compound']]), {
-      base: { fixedTarget: 'Nav1.7', markers: { vehicle: ['BUFFER'] } },
+      base: { fixedTarget: 'Nav1.7', roleValues: { BUFFER: 'vehicle' }, controls: { positive: ['TTX'] } },
     });
     expect(guess.missingFields).toEqual([]);
-    expect(guess.mapping.markers.vehicle).toEqual(['BUFFER']);
-    expect(guess.mapping.markers.reference).toContain('REF');
+    expect(guess.mapping.roleValues).toEqual({ BUFFER: 'vehicle' });
+    expect(guess.mapping.controls).toEqual({ negative: [], positive: ['TTX'], zeroConcentration: false });
   });
 
   // The generated demo exports are the real test of guessing: three layouts, units in headers or in a column.
@@ -147,7 +147,16 @@ describe('mapping schema', () => {
       seriesResistance: 'MOhm',
       capacitance: 'pF',
     });
-    expect(mapping.markers.vehicle).toEqual(['VEH', 'VEHICLE', 'DMSO', 'NEG', 'NEGATIVE']);
+    expect(mapping.version).toBe(2);
+    expect(mapping.roleValues).toEqual({});
+    expect(mapping.targetValues).toEqual({});
+    expect(mapping.facts).toEqual({
+      barcode: null,
+      runDate: null,
+      cellLine: null,
+      temperature: null,
+      operator: null,
+    });
     expect(columnMappingSchema.parse(JSON.parse(JSON.stringify(mapping)))).toEqual(mapping);
   });
 

@@ -139,12 +139,6 @@ describe('row errors name sheet, row and column', () => {
       'Sheet "Readouts", row 3, column A "Well": well A49 is beyond the largest plate, a 1536-well plate (rows A–AF, columns 1–48).',
     ],
     [
-      'unknown role word',
-      { Role: 'blank' },
-      'unknown_role',
-      'Sheet "Readouts", row 3, column J "Role": role "blank" is not a known word for vehicle (VEH, VEHICLE, DMSO, NEG, NEGATIVE), reference (REF, REFERENCE, POS, POSITIVE) or test (TEST, SAMPLE, CMPD, COMPOUND) wells.',
-    ],
-    [
       'unit in the cell that does not fit',
       { 'Conc (nM)': '3 pA' },
       'unknown_unit',

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { DownloadMenu } from '@/components/exports/download-menu';
+import { PlateFactsLine } from '@/components/plates/plate-facts-line';
 import { PlateFitStatus } from '@/components/plates/plate-jobs';
 import { PlateTabs } from '@/components/plates/plate-tabs';
 import { StateBadge } from '@/components/ui/state-badge';
@@ -31,6 +32,7 @@ export default async function PlateLayout({
               ({header.sha256.slice(0, 12)}…)
             </span>
           </p>
+          <PlateFactsLine facts={header.facts} />
         </div>
         <DownloadMenu kind="plate" id={header.id} />
       </div>
