@@ -4,6 +4,7 @@ import { AppLink } from '@/components/ui/app-link';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
+import { emptyFileMessage } from '@/lib/imports/upload-messages';
 import { postImportStep, type Inspection, type Preview } from './import-api';
 import { MappingStep } from './mapping-step';
 import { PreviewStep } from './preview-step';
@@ -66,6 +67,7 @@ export function ImportWizard({
 
   async function inspect() {
     if (!file) return setError('Choose a file first.');
+    if (file.size === 0) return setError(emptyFileMessage(file.name));
     const result = await run(() => postImportStep<Inspection>('inspect', { screenId }, file));
     if (!result) return;
     setInspection(result);
@@ -154,8 +156,11 @@ export function ImportWizard({
               accept=".xlsx,.xls,.csv,text/csv"
               className="gw-input mt-1"
               onChange={(e) => {
-                setFile(e.target.files?.[0] ?? null);
+                const chosen = e.target.files?.[0] ?? null;
+                setFile(chosen);
                 setInspection(null);
+                // A chosen file of 0 bytes is a file, and empty: say so now rather than after the upload.
+                setError(chosen && chosen.size === 0 ? emptyFileMessage(chosen.name) : null);
               }}
             />
           </div>
