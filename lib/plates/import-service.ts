@@ -244,16 +244,15 @@ export async function commitImport(
     const { file, targets } = await openSource(actor, source, transaction);
     const preview = await checkSheet(file, targets, request, transaction);
     if (!preview.ok || !preview.plate) {
-      // A whole-file problem comes first and with what to do; otherwise the first row error.
+      // A whole-file problem comes first, with what to do; otherwise the first row error.
       const problem = preview.fileProblems[0];
       const first = preview.issues.find((issue) => issue.severity === 'error');
+      const firstText = problem ? `${problem.message} ${problem.whatToDo}` : first?.message;
       throw new AppError(
         'invalid',
-        problem
-          ? `${problem.message} ${problem.whatToDo}`
-          : first
-            ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}`
-            : 'The sheet holds no wells.',
+        firstText
+          ? `The sheet has ${preview.summary.errors} error(s); first: ${firstText}`
+          : 'The sheet holds no wells.',
         { fileProblems: preview.fileProblems, issues: preview.issues.slice(0, 200) },
       );
     }
