@@ -52,6 +52,10 @@ export interface Preview {
   emptyWells: number;
   facts: FoundFacts;
   factWarnings: string[];
+  /** Whole-file problems (lib/imports/validate-plate-sheet.ts), each with what to do. */
+  fileProblems: { code: string; message: string; whatToDo: string }[];
+  /** QC rules whose readout is in no well of the file (lib/science/qc/qc-rules.ts). */
+  qcRulesNotApplied: { rule: string; label: string; message: string }[];
 }
 
 export class ImportRequestError extends Error {

@@ -5,6 +5,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { PLATE_FACT_LABEL, type PlateFact } from '@/lib/imports/import-fields';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
+import { emptyFileMessage } from '@/lib/imports/upload-messages';
 import { postImportStep, type Inspection, type Preview } from './import-api';
 import { MappingStep } from './mapping-step';
 import { PlateFactsForm } from './plate-facts-form';
@@ -130,6 +131,7 @@ export function ImportWizard({
 
   async function inspect() {
     if (!file) return setError('Choose a file first.');
+    if (file.size === 0) return setError(emptyFileMessage(file.name));
     const result = await run(() => postImportStep<Inspection>('inspect', { screenId }, file));
     if (!result) return;
     setInspection(result);
@@ -233,8 +235,11 @@ export function ImportWizard({
               accept=".xlsx,.xls,.csv,text/csv"
               className="gw-input mt-1"
               onChange={(e) => {
-                setFile(e.target.files?.[0] ?? null);
+                const chosen = e.target.files?.[0] ?? null;
+                setFile(chosen);
                 setInspection(null);
+                // A chosen file of 0 bytes is a file, and empty: say so now rather than after the upload.
+                setError(chosen && chosen.size === 0 ? emptyFileMessage(chosen.name) : null);
               }}
             />
           </div>

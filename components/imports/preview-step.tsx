@@ -68,7 +68,10 @@ const COLUMNS: ColDef<PreviewGridRow>[] = [
   { field: 'notes', headerName: 'Messages', flex: 1, minWidth: 320, wrapText: true, autoHeight: true },
 ];
 
-/** The preview: counts, the first errors, and every row with its parse result and QC flags. */
+/**
+ * The preview: counts, whole-file problems with what to do, the QC rules not applied, and every row
+ * with its parse result and QC flags.
+ */
 export function PreviewStep({
   preview,
   unknownCompoundsPanel,
@@ -96,7 +99,6 @@ export function PreviewStep({
       ].join(' · '),
     };
   });
-  const sheetIssues = preview.issues.filter((i) => i.row === null);
   const { summary } = preview;
   return (
     <div className="space-y-4">
@@ -114,15 +116,41 @@ export function PreviewStep({
           </div>
         ))}
       </dl>
-      {sheetIssues.length ? (
-        <ul
+      {preview.fileProblems.length ? (
+        <section
           role="alert"
-          className="space-y-1 rounded-md border border-red-200 bg-red-50 p-3 text-sm text-signal-fail"
+          aria-labelledby="file-problems-heading"
+          className="space-y-2 rounded-md border border-red-200 bg-red-50 p-4 text-sm"
         >
-          {sheetIssues.map((i) => (
-            <li key={i.message}>{i.message}</li>
-          ))}
-        </ul>
+          <h3 id="file-problems-heading" className="font-semibold text-signal-fail">
+            This file cannot be stored yet
+          </h3>
+          <ul className="space-y-2">
+            {preview.fileProblems.map((p) => (
+              <li key={p.message}>
+                <p className="text-signal-fail">{p.message}</p>
+                <p className="text-ink-700">
+                  <span className="font-medium">What to do:</span> {p.whatToDo}
+                </p>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+      {preview.qcRulesNotApplied.length ? (
+        <section
+          aria-labelledby="rules-not-applied-heading"
+          className="space-y-1 rounded-md border border-amber-200 bg-amber-50 p-3 text-sm"
+        >
+          <h3 id="rules-not-applied-heading" className="font-semibold text-signal-warn">
+            QC rules not applied
+          </h3>
+          <ul className="space-y-1 text-ink-700">
+            {preview.qcRulesNotApplied.map((r) => (
+              <li key={r.rule}>{r.message}</li>
+            ))}
+          </ul>
+        </section>
       ) : null}
       {preview.unknownCompounds.length && unknownCompoundsPanel ? unknownCompoundsPanel : null}
       {preview.unknownCompounds.length && !unknownCompoundsPanel ? (

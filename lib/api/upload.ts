@@ -2,6 +2,7 @@ import 'server-only';
 import type { NextRequest } from 'next/server';
 import type { ZodType, z } from 'zod';
 import { AppError } from '@/lib/errors';
+import { emptyFileMessage } from '@/lib/imports/upload-messages';
 import { MAX_UPLOAD_BYTES } from '@/lib/validation/imports';
 
 /** A file as uploaded: its bytes, name and media type. */
@@ -33,12 +34,19 @@ export async function readForm(
   return { fields, file: file instanceof File ? file : null };
 }
 
-/** The sent file, size-checked; refused when missing or empty. */
+/**
+ * The sent file, size-checked; refused when missing or empty. A form with no file chosen sends a nameless
+ * part of 0 bytes; a chosen file of 0 bytes has its name and is told it is empty.
+ */
 export async function uploadedFile(file: File | null): Promise<UploadedBytes> {
-  if (!file || file.size === 0)
+  if (!file || (file.size === 0 && file.name === ''))
     throw new AppError('invalid', 'Choose a file to upload (xlsx, xls or csv).', {
       fieldErrors: { file: ['Choose a file.'] },
     });
+  if (file.size === 0) {
+    const message = emptyFileMessage(file.name.slice(0, 255));
+    throw new AppError('invalid', message, { code: 'empty_file', fieldErrors: { file: [message] } });
+  }
   if (file.size > MAX_UPLOAD_BYTES)
     throw new AppError('too_large', `${file.name} is larger than 10 MB; Gatewell reads files up to 10 MB.`);
   return {

@@ -3,6 +3,7 @@ import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { checkPlainSheets } from './plain-sheets';
 import { extensionOf, sniffUpload } from './sniff-upload';
+import { emptyFileMessage } from './upload-messages';
 import type { ParseSpreadsheetResult, SpreadsheetErrorCode, SpreadsheetFormat } from './spreadsheet-types';
 
 /** Limits for one upload; every field is optional. */
@@ -51,7 +52,7 @@ export async function parseSpreadsheet(
     ok: false,
     error: { code, message },
   });
-  if (bytes.length === 0) return fail('empty_file', `${filename} is empty (0 bytes).`);
+  if (bytes.length === 0) return fail('empty_file', emptyFileMessage(filename));
   if (bytes.length > limits.maxBytes) {
     return fail(
       'too_large',

@@ -49,11 +49,61 @@ export function sniffUpload(bytes: Uint8Array, filename: string): SniffResult {
     };
   }
   const text = decoded.text;
-  if (/^\s*</.test(text.slice(0, 1024)) && extension === 'xls') return { kind: 'markup', text };
-  if (TEXT_EXTENSIONS.has(extension) || /[,;\t]/.test(firstLine(text))) return { kind: 'delimited', text };
+  const markup = /^\s*</.test(text.slice(0, 1024));
+  if (markup && (extension === 'xls' || /<table[\s>]/i.test(text.slice(0, 65_536))))
+    return { kind: 'markup', text };
+  // A file named as text is taken at its word; any other name (a text file saved or renamed as .xlsx)
+  // must show columns: a CSV named .xlsx is read as the CSV it is, prose is refused by name.
+  if (TEXT_EXTENSIONS.has(extension) || looksLikeTable(text)) return { kind: 'delimited', text };
   return refuse(
-    `${filename} is plain text without columns, not a spreadsheet. Upload an xlsx, xls or csv file.`,
+    `${filename} is text, not a spreadsheet: its lines are not split into columns by commas, semicolons or tabs. Upload the export the instrument wrote (xlsx, xls or csv).`,
   );
+}
+
+/** How many of the first lines are looked at to judge whether text is a table. */
+const LINES_LOOKED_AT = 50;
+/** A cell of this many words or more reads as a sentence, not a header or a value. */
+const SENTENCE_WORDS = 6;
+/**
+ * Cells a line of a table has at least: prose lines of one comma each ("Regards, Ann") split into two,
+ * while every plate export has more columns than that (well, compound, concentration, currents…).
+ */
+const TABLE_CELLS = 3;
+
+/**
+ * True when text is laid out in columns: for one separator (tab, semicolon or comma), two neighbouring
+ * lines split into the same number (3 or more) of cells, most of which read as values, not sentences;
+ * or, for text of one line, that line splits into 2 or more. Title rows above and summary rows below a table do not matter.
+ */
+export function looksLikeTable(text: string): boolean {
+  const lines = text
+    .slice(0, 65_536)
+    .split(/\r\n|\n|\r/)
+    .filter((line) => line.trim() !== '')
+    .slice(0, LINES_LOOKED_AT);
+  if (/^sep=.$/i.test(lines[0] ?? '')) lines.shift();
+  return ['\t', ';', ','].some((separator) => {
+    const counts = lines.map((line) => tableCells(line, separator));
+    if (counts.length === 1) return counts[0]! >= 2;
+    return counts.some((count, i) => count >= TABLE_CELLS && count === counts[i + 1]);
+  });
+}
+
+/** The number of cells a line splits into (quotes respected), or 0 when half of them read as sentences. */
+function tableCells(line: string, separator: string): number {
+  const cells: string[] = [];
+  let cell = '';
+  let quoted = false;
+  for (const ch of line) {
+    if (ch === '"') quoted = !quoted;
+    else if (ch === separator && !quoted) {
+      cells.push(cell);
+      cell = '';
+    } else cell += ch;
+  }
+  cells.push(cell);
+  const sentences = cells.filter((c) => c.trim().split(/\s+/).length >= SENTENCE_WORDS).length;
+  return sentences * 2 >= cells.length ? 0 : cells.length;
 }
 
 /** The lower-case extension of a file name, without the dot; empty when there is none. */
@@ -64,12 +114,6 @@ export function extensionOf(filename: string): string {
 
 function startsWith(bytes: Uint8Array, magic: number[]): boolean {
   return bytes.length >= magic.length && magic.every((value, i) => bytes[i] === value);
-}
-
-function firstLine(text: string): string {
-  const trimmed = text.slice(0, 8192).replace(/^[\r\n]+/, '');
-  const end = trimmed.search(/[\r\n]/);
-  return end < 0 ? trimmed : trimmed.slice(0, end);
 }
 
 function refuse(message: string): SniffResult {

@@ -1,9 +1,9 @@
 import 'server-only';
 import { buildPlate, type ParsedPlate } from './build-plate';
 import { checkPlateRows } from './check-plate-rows';
-import type { ImportField } from './import-fields';
-import { makeIssue, type ImportIssue } from './import-issue';
-import { columnMappingDraftSchema, type ColumnMappingInput } from './mapping-schema';
+import { FIELD_LABEL, REQUIRED_FIELDS, type ImportField } from './import-fields';
+import { describeLocation, makeIssue, type ImportIssue, type ImportIssueCode } from './import-issue';
+import { columnMappingDraftSchema, type ColumnMapping, type ColumnMappingInput } from './mapping-schema';
 import type { PlateFormat } from '@/lib/domain/plate-formats';
 import { readRow, type PreviewRow } from './read-row';
 import { resolveColumns, type ResolvedColumn } from './resolve-columns';
@@ -24,6 +24,19 @@ export interface ValidatePlateOptions {
   targetAliases?: Readonly<Record<string, string>>;
 }
 
+/**
+ * A problem of the whole sheet, not of one row, that keeps the plate from being built: the check step
+ * shows these first, each with what to do. `no_header_row` stands for the missing columns it sums up,
+ * `no_wells` for rows that all have errors.
+ */
+export interface FileProblem {
+  code: ImportIssueCode | 'no_header_row' | 'no_wells';
+  /** Where and what, as one sentence: `Sheet "Readouts", row 1: …`. */
+  message: string;
+  /** What the person can do about it, as one or two sentences. */
+  whatToDo: string;
+}
+
 /** Everything the import preview shows: each row with its values or issues, and the plate built from good rows. */
 export interface PlatePreview {
   sheet: string;
@@ -34,6 +47,8 @@ export interface PlatePreview {
   issues: ImportIssue[];
   /** Null when the sheet cannot be read as a plate at all (empty, required columns missing, no well placed). */
   plate: ParsedPlate | null;
+  /** Whole-sheet problems with what to do about each; empty when the sheet can be read as a plate. */
+  fileProblems: FileProblem[];
   /** Identifiers of test wells that are not registered, with their rows, so a chemist can register them. */
   unknownCompounds: { identifier: string; rows: number[] }[];
   unknownTargets: { name: string; rows: number[] }[];
@@ -57,7 +72,10 @@ export function validatePlateSheet(
     sheetIssues: ImportIssue[],
     columns: PlatePreview['columns'],
     plate: ParsedPlate | null,
-  ) => summarise({ sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells });
+  ) =>
+    summarise({ sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells }, (preview) =>
+      fileProblemsOf(preview, mapping),
+    );
   let emptyWells = 0;
   if (!sheet.rows.some((row) => !isBlank(row))) {
     return finish(
@@ -112,14 +130,15 @@ function isBlank(row: Cell[]): boolean {
 }
 
 function summarise(
-  input: Omit<PlatePreview, 'unknownCompounds' | 'unknownTargets' | 'summary' | 'ok'>,
+  input: Omit<PlatePreview, 'unknownCompounds' | 'unknownTargets' | 'summary' | 'ok' | 'fileProblems'>,
+  problems: (preview: Omit<PlatePreview, 'fileProblems'>) => FileProblem[],
 ): PlatePreview {
   for (const row of input.rows) row.issues.sort((a, b) => columnOrder(a) - columnOrder(b));
   const issues = [...input.issues, ...input.rows.flatMap((row) => row.issues)];
   const errors = issues.filter((issue) => issue.severity === 'error').length;
   const okRows = input.rows.filter((row) => row.status === 'ok').length;
   const plate = input.plate && input.plate.wells.length > 0 ? input.plate : null;
-  return {
+  const preview = {
     ...input,
     plate,
     issues,
@@ -139,6 +158,78 @@ function summarise(
     },
     ok: errors === 0 && plate !== null,
   };
+  return { ...preview, fileProblems: problems(preview) };
+}
+
+/**
+ * The whole-sheet problems of a preview, each with what to do: a sheet without cells or without rows
+ * below its header, a header row holding none of the mapped columns, each column missing or repeated,
+ * and rows that all have errors (so no well is left).
+ */
+function fileProblemsOf(preview: Omit<PlatePreview, 'fileProblems'>, mapping: ColumnMapping): FileProblem[] {
+  const { sheet, headerRow } = preview;
+  const sheetIssues = preview.issues.filter((issue) => SHEET_CODES.has(issue.code));
+  const columnIssues = sheetIssues.filter(
+    (i) => i.code === 'missing_column' || i.code === 'duplicate_header',
+  );
+  if (columnIssues.length > 0 && Object.keys(preview.columns).length === 0) {
+    const missing = new Set(columnIssues.map((i) => i.field));
+    const needed = REQUIRED_FIELDS.filter((field) => missing.has(field)).map((field) => FIELD_LABEL[field]);
+    return [
+      {
+        code: 'no_header_row',
+        message: `${describeLocation(sheet, headerRow, null)}: no header row found: this row names none of the columns a plate needs (${needed.join(', ')}).`,
+        whatToDo:
+          'On the mapping step, set the header row to the row that holds the column names and choose the column for each field; if the wells are on another sheet, choose that sheet.',
+      },
+    ];
+  }
+  const problems: FileProblem[] = sheetIssues.map((issue) => ({
+    code: issue.code,
+    message: issue.message,
+    whatToDo: whatToDo(issue, mapping, headerRow),
+  }));
+  if (problems.length === 0 && preview.rows.length > 0 && preview.plate === null) {
+    const first = preview.issues.find((issue) => issue.severity === 'error');
+    const why = first
+      ? `no row can be stored as a well. The first error: ${first.message}`
+      : 'no row can be placed on a plate.';
+    problems.push({
+      code: 'no_wells',
+      message: `${describeLocation(sheet, null, null)}: no well is left for the plate: ${why}`,
+      whatToDo:
+        'The same error in every row usually means a column is mapped to the wrong field or read in the wrong unit: check the mapping step, then the first rows below.',
+    });
+  }
+  return problems;
+}
+
+/** The issues that concern the whole sheet, never one row. */
+const SHEET_CODES = new Set<ImportIssueCode>([
+  'empty_sheet',
+  'no_data_rows',
+  'missing_column',
+  'duplicate_header',
+]);
+
+function whatToDo(issue: ImportIssue, mapping: ColumnMapping, headerRow: number): string {
+  const field = issue.field ? FIELD_LABEL[issue.field] : 'field';
+  switch (issue.code) {
+    case 'empty_sheet':
+      return 'Choose the sheet that holds the wells on the mapping step, or export the plate from the instrument again.';
+    case 'no_data_rows':
+      return `Check the header row on the mapping step (now row ${headerRow}): the wells are read from the rows below it. If the sheet really holds no wells, export the plate again.`;
+    case 'duplicate_header':
+      return `On the mapping step, choose another column for the ${field} if one of the two holds something else; if both hold it, rename one of them in the file, as Gatewell cannot tell which to read.`;
+    case 'missing_column':
+      if (issue.field && mapping.columns[issue.field] === null) {
+        const orTarget = issue.field === 'target' ? ', or name one target for the whole sheet' : '';
+        return `On the mapping step, choose the column that holds the ${field}${orTarget}. If the export has no such column, set the instrument to write it: Gatewell cannot store a plate without the ${field}.`;
+      }
+      return `On the mapping step, choose the column of this sheet that holds the ${field}, or check the header row (now row ${headerRow}).`;
+    default:
+      return 'Correct this on the mapping step, or in the export if the mapping cannot.';
+  }
 }
 
 function columnOrder(issue: ImportIssue): number {

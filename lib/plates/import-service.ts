@@ -17,6 +17,7 @@ import type { PlateFormat } from '@/lib/domain/plate-formats';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import { analysePlate } from '@/lib/science/plate-analysis';
+import type { QcRuleNotApplied } from '@/lib/science/qc/qc-rules';
 import { queueImportNotices } from '@/lib/signoff/import-notice';
 import { Screen, Target } from '@/models';
 import { parsedPlateInput } from './analysis-input';
@@ -175,15 +176,24 @@ export interface SheetChoice {
 
 export type PreviewRequest = ImportSource & SheetChoice;
 
-/** Step 2: every row with its parse result and QC flags, the plate built from good rows. Nothing is written. */
-export async function previewImport(
-  actor: Actor,
-  request: PreviewRequest,
-): Promise<PlatePreview & SheetFacts & { qc: Record<number, string[]> }> {
+/** What the check step shows: the sheet's preview, QC messages per row, and the QC rules not applied. */
+export type ImportPreview = PlatePreview &
+  SheetFacts & {
+  qc: Record<number, string[]>;
+  /** Rules whose readout the file does not carry (in no well): not applied, the others still run. */
+  qcRulesNotApplied: QcRuleNotApplied[];
+};
+
+/**
+ * Step 2: every row with its parse result and QC flags, the plate built from good rows, whole-file
+ * problems with what to do, and the QC rules the file's readouts leave unapplied. Nothing is written.
+ */
+export async function previewImport(actor: Actor, request: PreviewRequest): Promise<ImportPreview> {
   requireCapability(actor, 'importPlates');
   const { file, screen, targets } = await openSource(actor, request);
   const preview = await checkSheet(file, targets, request);
-  return { ...preview, qc: preview.plate ? qcByRow(preview, analysisSettings(screen)) : {} };
+  if (!preview.plate) return { ...preview, qc: {}, qcRulesNotApplied: [] };
+  return { ...preview, ...previewQc(preview, analysisSettings(screen)) };
 }
 
 /** The plate facts read from outside the table, and a warning for each located fact not found. */
@@ -211,19 +221,20 @@ async function checkSheet(
   return { ...preview, facts, factWarnings: warnings };
 }
 
-/** QC messages per spreadsheet row, from the same analysis the commit stores. */
-function qcByRow(
+/** QC messages per spreadsheet row and the rules not applied, from the same analysis the commit stores. */
+function previewQc(
   preview: PlatePreview,
   settings: ReturnType<typeof analysisSettings>,
-): Record<number, string[]> {
+): Pick<ImportPreview, 'qc' | 'qcRulesNotApplied'> {
   // Readouts are named by their spreadsheet row (parsedPlateInput), so the messages map back to rows.
   const { wells, readouts } = parsedPlateInput(preview.plate!);
   const analysis = analysePlate(wells, readouts, settings);
-  return Object.fromEntries(
+  const qc = Object.fromEntries(
     analysis.readouts
       .filter((r) => r.qcReasons.length)
       .map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]),
   );
+  return { qc, qcRulesNotApplied: analysis.qcRulesNotApplied };
 }
 
 export type CommitRequest = PreviewRequest & {
@@ -251,13 +262,16 @@ export async function commitImport(
     const { file, targets } = await openSource(actor, source, transaction);
     const preview = await checkSheet(file, targets, request, transaction);
     if (!preview.ok || !preview.plate) {
+      // A whole-file problem comes first, with what to do; otherwise the first row error.
+      const problem = preview.fileProblems[0];
       const first = preview.issues.find((issue) => issue.severity === 'error');
+      const firstText = problem ? `${problem.message} ${problem.whatToDo}` : first?.message;
       throw new AppError(
         'invalid',
-        first
-          ? `The sheet has ${preview.summary.errors} error(s); first: ${first.message}`
+        firstText
+          ? `The sheet has ${preview.summary.errors} error(s); first: ${firstText}`
           : 'The sheet holds no wells.',
-        { issues: preview.issues.slice(0, 200) },
+        { fileProblems: preview.fileProblems, issues: preview.issues.slice(0, 200) },
       );
     }
     const mapping: ColumnMapping = {

@@ -32,6 +32,8 @@ export interface PlateHeader {
     rundownCorrected: boolean;
     normalised: boolean;
     vehicleMeanRatio: number | null;
+    /** Present only when a QC rule was not applied (lib/science/qc/qc-rules.ts). */
+    qcRulesNotApplied?: { rule: string; label: string; message: string }[];
   }[];
   targets: { id: string; name: string; conductance: string }[];
 }

@@ -5,7 +5,8 @@ import { computeFractionalBlock, type BlockNoteCode } from './fit/block';
 import { fitHill, type HillFitResult } from './fit/hill-fit';
 import type { HillModelName } from './fit/hill-model';
 import { checkWells, type QcReason } from './qc/qc';
-import type { QcThresholds } from './qc/qc-thresholds';
+import { qcRulesNotApplied, readoutsAbsentFromEveryWell, type QcRuleNotApplied } from './qc/qc-rules';
+import { resolveQcThresholds, type QcThresholds } from './qc/qc-thresholds';
 import type { WellRole } from './qc/well';
 import type { ZPrimeResult } from './qc/zprime';
 
@@ -48,6 +49,8 @@ export interface TargetAnalysis {
   normalised: boolean;
   vehicleMeanRatio: number | null;
   notes: { code: BlockNoteCode; message: string }[];
+  /** The plate's QC rules not applied (as PlateAnalysis); absent when every rule was applied. */
+  qcRulesNotApplied?: QcRuleNotApplied[];
 }
 
 export interface FitAnalysis {
@@ -58,6 +61,8 @@ export interface FitAnalysis {
 }
 
 export interface PlateAnalysis {
+  /** Rules whose readout no well of the plate carries: not applied to any well (empty when all apply). */
+  qcRulesNotApplied: QcRuleNotApplied[];
   readouts: ReadoutAnalysis[];
   targets: TargetAnalysis[];
   fits: FitAnalysis[];
@@ -82,6 +87,11 @@ export function analysePlate(
     return well;
   };
 
+  // A recording property that no well of the whole plate carries was not in the file: its rule is not
+  // applied (and said so) rather than failing every well. Judged from the wells, so the stored plate gives
+  // the same answer at every recompute as the file gave at import.
+  const absentReadouts = readoutsAbsentFromEveryWell(wells);
+  const notApplied = qcRulesNotApplied(absentReadouts, resolveQcThresholds(settings.thresholds));
   const qc = checkWells(
     readouts.map((r) => {
       const w = wellOf(r);
@@ -96,6 +106,7 @@ export function analysePlate(
       };
     }),
     settings.thresholds,
+    { absentReadouts },
   );
   const used = readouts.map((r, i) => qc[i]!.passed && !wellOf(r).excluded);
 
@@ -129,6 +140,7 @@ export function analysePlate(
   });
 
   return {
+    qcRulesNotApplied: notApplied,
     readouts: readouts.map((r, i) => ({
       id: r.id,
       qcReasons: qc[i]!.reasons,
@@ -142,6 +154,9 @@ export function analysePlate(
       normalised: t.normalised,
       vehicleMeanRatio: t.vehicleMeanRatio,
       notes: t.notes,
+      // Kept with each target's QC summary only when a rule was not applied, so a plate whose file
+      // carries every readout stores the same summary as before.
+      ...(notApplied.length > 0 ? { qcRulesNotApplied: notApplied } : {}),
     })),
     fits:
       options.fits === false

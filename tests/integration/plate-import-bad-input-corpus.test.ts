@@ -8,9 +8,11 @@ import { potassiumImportSetup } from '../support/demo-scenario';
 import {
   bigCsv,
   csv,
+  csvWithout,
   garbage,
   GOOD_ROWS,
   HEADER,
+  RUN_NOTES,
   utf16le,
   workbookWithCells,
   zipBombXlsx,
@@ -113,19 +115,74 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
       () => csv('Colour,Shape,Size', 'red,round,3', 'blue,square,4'),
       'headers.csv',
       'invalid',
-      /^The sheet has \d+ error\(s\); first: Sheet "headers", row 1: no column is chosen for the well position, which every plate needs\.$/,
+      /^The sheet has 6 error\(s\); first: Sheet "headers", row 1: no header row found: this row names none of the columns a plate needs \(well position, compound identifier, concentration, target, control current, compound current\)\. On the mapping step, set the header row/,
     ],
     [
       'a header row of formulas',
       () => csv('=A1,=B1,=C1', 'A01,1,2'),
       'formula-headers.csv',
       'invalid',
-      /^The sheet has \d+ error\(s\); first: Sheet "formula-headers", row 1: no column is chosen for the well position/,
+      /^The sheet has \d+ error\(s\); first: Sheet "formula-headers", row 1: no header row found/,
     ],
   ])('%s', async (_name, build, filename, code, message) => {
     const error = await refusal(build(), filename);
     expect(error.code).toBe(code);
     expect(error.message).toMatch(message);
+  });
+
+  // Whole-file errors: the exact message people read, what to do included.
+  test.each([
+    [
+      'a text file renamed to .xlsx',
+      () => new TextEncoder().encode(RUN_NOTES),
+      'run-notes.xlsx',
+      'run-notes.xlsx is text, not a spreadsheet: its lines are not split into columns by commas, semicolons or tabs. Upload the export the instrument wrote (xlsx, xls or csv).',
+    ],
+    [
+      'a file of 0 bytes',
+      () => new Uint8Array(0),
+      'plate-07.xlsx',
+      'plate-07.xlsx is empty (0 bytes): the file holds nothing to import. Export the plate from the instrument again and upload that file.',
+    ],
+    [
+      'a missing required column',
+      () => csvWithout('Conc (uM)'),
+      'no-conc.csv',
+      'The sheet has 1 error(s); first: Sheet "no-conc", row 1: no column is chosen for the concentration, which every plate needs. On the mapping step, choose the column that holds the concentration. If the export has no such column, set the instrument to write it: Gatewell cannot store a plate without the concentration.',
+    ],
+    [
+      'a header row and nothing under it',
+      () => csv(HEADER),
+      'header-only.csv',
+      'The sheet has 1 error(s); first: Sheet "header-only": the sheet has a header row (row 1) but no data rows below it. Check the header row on the mapping step (now row 1): the wells are read from the rows below it. If the sheet really holds no wells, export the plate again.',
+    ],
+  ])('%s is refused with its whole-file message', async (_name, build, filename, message) => {
+    const error = await refusal(build(), filename);
+    expect(error.code).toBe('invalid');
+    expect(error.message).toBe(message);
+  });
+
+  test('missing optional QC columns: the check step names the rules not applied and nothing is written', async () => {
+    const before = await importRowCounts();
+    const inspection = await inspectUpload(
+      biologist,
+      upload(csvWithout('Rs (MOhm)', 'Cm (pF)'), 'no-rs.csv'),
+    );
+    const sheet = inspection.sheets[0]!;
+    const preview = await previewImport(biologist, {
+      draftId: inspection.draftId!,
+      sheet: sheet.name,
+      mapping: sheet.guess.mapping,
+    });
+    expect(preview.ok).toBe(true);
+    expect(preview.fileProblems).toEqual([]);
+    expect(preview.qcRulesNotApplied.map((r) => r.message)).toEqual([
+      'The series resistance rule (1 to 25 MΩ) was not applied: no well has a series resistance. The other QC rules, Z′ and the fits still run.',
+      'The capacitance rule (1 to 100 pF) was not applied: no well has a capacitance. The other QC rules, Z′ and the fits still run.',
+    ]);
+    // The corpus's good rows pass every rule that applies.
+    expect(preview.qc).toEqual({});
+    expect(await importRowCounts()).toEqual(before);
   });
 
   test('a zip bomb (an xlsx of about 200 KB that inflates to 200 MB) is refused within the worker limits', async () => {

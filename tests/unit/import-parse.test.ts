@@ -117,6 +117,24 @@ describe('parseSpreadsheet reads delimited text', () => {
     });
   });
 
+  test('a CSV saved under an .xlsx name is read as the CSV it is', async () => {
+    const result = await parseSpreadsheet(
+      text('Run 7\nWell,Conc,Target\nA01,3,Kv7.2\nA02,1,Kv7.2\n'),
+      'kv-plate.xlsx',
+    );
+    expect(result).toEqual({
+      ok: true,
+      format: 'csv',
+      sheets: [
+        {
+          name: 'kv-plate',
+          rows: [['Run 7'], ['Well', 'Conc', 'Target'], ['A01', '3', 'Kv7.2'], ['A02', '1', 'Kv7.2']],
+          decimalComma: false,
+        },
+      ],
+    });
+  });
+
   test('UTF-16 text with a byte-order mark', async () => {
     const bytes = new Uint8Array(Buffer.from('\ufeffWell\tRseal (GΩ)\nA01\t1.2\n', 'utf16le'));
     const result = await parseSpreadsheet(bytes, 'export.txt');
@@ -145,7 +163,14 @@ describe('parseSpreadsheet refuses what it cannot read, and says why', () => {
   const latin1 = new Uint8Array([...text('Well,Conc (\n'), 0xb5, ...text('M)\n')]);
 
   test.each<[string, Uint8Array, string, ParseSpreadsheetOptions, SpreadsheetErrorCode, string | RegExp]>([
-    ['an empty file', new Uint8Array(0), 'plate.xlsx', {}, 'empty_file', 'plate.xlsx is empty (0 bytes).'],
+    [
+      'an empty file',
+      new Uint8Array(0),
+      'plate.xlsx',
+      {},
+      'empty_file',
+      'plate.xlsx is empty (0 bytes): the file holds nothing to import. Export the plate from the instrument again and upload that file.',
+    ],
     [
       'random bytes named .xlsx',
       garbage,
@@ -168,7 +193,17 @@ describe('parseSpreadsheet refuses what it cannot read, and says why', () => {
       'plate.xlsx',
       {},
       'not_spreadsheet',
-      'plate.xlsx is plain text without columns, not a spreadsheet. Upload an xlsx, xls or csv file.',
+      'plate.xlsx is text, not a spreadsheet: its lines are not split into columns by commas, semicolons or tabs. Upload the export the instrument wrote (xlsx, xls or csv).',
+    ],
+    [
+      'prose with commas named .xlsx',
+      text(
+        'Run notes, rig 2\nThe seal was lost on row B after the second addition, so those wells are suspect.\nAll other wells looked fine to me.\n',
+      ),
+      'plate.xlsx',
+      {},
+      'not_spreadsheet',
+      'plate.xlsx is text, not a spreadsheet: its lines are not split into columns by commas, semicolons or tabs. Upload the export the instrument wrote (xlsx, xls or csv).',
     ],
     [
       'a csv that is not UTF-8',

@@ -76,6 +76,53 @@ describe('sniffUpload', () => {
       'delimited',
     ],
     [
+      'a CSV with a title row named .xlsx is delimited text',
+      new TextEncoder().encode('Instrument run 12\n\nWell,Compound,Conc\nA01,DMSO,\nA02,GW-1,3\n'),
+      'plate.xlsx',
+      'delimited',
+    ],
+    [
+      'tab-separated text named .ods is delimited text',
+      new TextEncoder().encode('Well\tConc\tTarget\nA01\t3\tKv7.2\n'),
+      'plate.ods',
+      'delimited',
+    ],
+    [
+      'semicolons after a sep= hint, named without an extension',
+      new TextEncoder().encode('sep=;\nWell;Conc;Target\nA01;3,5;Kv7.2\n'),
+      'plate',
+      'delimited',
+    ],
+    [
+      'a free-text comment column does not hide the table',
+      new TextEncoder().encode(
+        'Well,Conc,Comment\nA01,3,seal was lost after the second addition of compound\nA02,1,fine\n',
+      ),
+      'plate.xlsx',
+      'delimited',
+    ],
+    [
+      'prose whose lines hold commas is refused, whatever its name',
+      new TextEncoder().encode(
+        'Dear team, the run on rig 2 failed this morning.\nThe seal was poor, and we stopped.\nRegards, Ann\n',
+      ),
+      'plate.xlsx',
+      'refused',
+    ],
+    ['one line of words is refused', new TextEncoder().encode('hello there\n'), 'plate.xls', 'refused'],
+    [
+      'a table page named .xlsx is markup',
+      new TextEncoder().encode('<html><body><table><tr><td>Well</td></tr></table></body></html>'),
+      'plate.xlsx',
+      'markup',
+    ],
+    [
+      'prose named .csv is taken at its name (the check step then finds no header row)',
+      new TextEncoder().encode('hello there\n'),
+      'plate.csv',
+      'delimited',
+    ],
+    [
       'a table page named .xls is markup',
       new TextEncoder().encode('<table><tr><td>Well</td></tr></table>'),
       'plate.xls',

@@ -266,6 +266,93 @@ describe('sheet errors', () => {
   });
 });
 
+describe('whole-file problems come with what to do', () => {
+  const problems = (result: ReturnType<typeof preview>) =>
+    result.fileProblems.map((p) => [p.code, p.message, p.whatToDo]);
+
+  test('a good sheet has none', () => {
+    expect(preview([HEADERS, GOOD]).fileProblems).toEqual([]);
+  });
+
+  test('an empty sheet', () => {
+    expect(problems(preview([[], [null, '  ']]))).toEqual([
+      [
+        'empty_sheet',
+        'Sheet "Readouts": the sheet is empty.',
+        'Choose the sheet that holds the wells on the mapping step, or export the plate from the instrument again.',
+      ],
+    ]);
+  });
+
+  test('a header without data rows', () => {
+    expect(problems(preview([HEADERS, []]))).toEqual([
+      [
+        'no_data_rows',
+        'Sheet "Readouts": the sheet has a header row (row 1) but no data rows below it.',
+        'Check the header row on the mapping step (now row 1): the wells are read from the rows below it. If the sheet really holds no wells, export the plate again.',
+      ],
+    ]);
+  });
+
+  test('a required column that the sheet lacks', () => {
+    const without = HEADERS.filter((header) => header !== 'I control [pA]');
+    const result = preview([without, GOOD.filter((_, i) => i !== COLUMN['I control [pA]'])]);
+    expect(problems(result)).toEqual([
+      [
+        'missing_column',
+        'Sheet "Readouts", row 1: no column is chosen for the control current, which every plate needs.',
+        'On the mapping step, choose the column that holds the control current. If the export has no such column, set the instrument to write it: Gatewell cannot store a plate without the control current.',
+      ],
+    ]);
+    expect(result.ok).toBe(false);
+  });
+
+  test('a saved template whose header is not in this file', () => {
+    const mapping = guessMapping(sheetOf([HEADERS, GOOD])).mapping;
+    const renamed = sheetOf([HEADERS.map((h) => (h === 'Conc (nM)' ? 'Conc (uM)' : h)), GOOD]);
+    expect(validatePlateSheet(renamed, mapping, OPTIONS).fileProblems.map((p) => p.whatToDo)).toEqual([
+      'On the mapping step, choose the column of this sheet that holds the concentration, or check the header row (now row 1).',
+    ]);
+  });
+
+  test('a header row naming nothing Gatewell knows: one problem, no header row found', () => {
+    expect(
+      problems(
+        preview([
+          ['Colour', 'Shape', 'Size'],
+          ['red', 'round', 3],
+        ]),
+      ),
+    ).toEqual([
+      [
+        'no_header_row',
+        'Sheet "Readouts", row 1: no header row found: this row names none of the columns a plate needs (well position, compound identifier, concentration, target, control current, compound current).',
+        'On the mapping step, set the header row to the row that holds the column names and choose the column for each field; if the wells are on another sheet, choose that sheet.',
+      ],
+    ]);
+  });
+
+  test('rows that all have errors leave no well: said once, with the first error', () => {
+    const result = preview([HEADERS, rowWith({ Well: 'Z-top' }), rowWith({ Well: 'nowhere' })]);
+    expect(result.plate).toBeNull();
+    expect(problems(result)).toEqual([
+      [
+        'no_wells',
+        'Sheet "Readouts": no well is left for the plate: no row can be stored as a well. The first error: Sheet "Readouts", row 2, column A "Well": "Z-top" is not a well position; write it as a row letter and column number, like A1 or A01.',
+        'The same error in every row usually means a column is mapped to the wrong field or read in the wrong unit: check the mapping step, then the first rows below.',
+      ],
+    ]);
+  });
+
+  test('optional columns left out are no whole-file problem', () => {
+    const keep = ['Well', 'Compound', 'Conc (nM)', 'Target', 'I control [pA]', 'I compound [pA]'];
+    const index = keep.map((h) => COLUMN[h]!);
+    const result = preview([keep, index.map((i) => GOOD[i]!)]);
+    expect(result.fileProblems).toEqual([]);
+    expect(result.ok).toBe(true);
+  });
+});
+
 describe('values and the plate', () => {
   test('missing cell properties and currents stay null without an error; QC judges them later', () => {
     const result = preview([

@@ -33,16 +33,29 @@ export interface QcResult {
   reasons: QcReason[];
 }
 
-/** Checks every well against the screen's thresholds (defaults where not given); one result per well, in order. */
-export function checkWells(wells: readonly QcWell[], thresholds?: Partial<QcThresholds>): QcResult[] {
-  const t = resolveQcThresholds(thresholds);
-  return wells.map((well) => checkWell(well, t));
+export interface CheckWellsOptions {
+  /**
+   * Readouts the caller knows the plate does not carry at all (qc-rules.ts, readoutsAbsentFromEveryWell):
+   * the rules reading them are not applied, so a well is not failed for lacking them. @default []
+   */
+  absentReadouts?: readonly QcField[];
 }
 
-function checkWell(well: QcWell, t: QcThresholds): QcResult {
+/** Checks every well against the screen's thresholds (defaults where not given); one result per well, in order. */
+export function checkWells(
+  wells: readonly QcWell[],
+  thresholds?: Partial<QcThresholds>,
+  options: CheckWellsOptions = {},
+): QcResult[] {
+  const t = resolveQcThresholds(thresholds);
+  const absent = new Set(options.absentReadouts ?? []);
+  return wells.map((well) => checkWell(well, t, absent));
+}
+
+function checkWell(well: QcWell, t: QcThresholds, absent: ReadonlySet<QcField>): QcResult {
   const reasons: QcReason[] = [];
   const read = (field: QcField, needed: boolean): number | null =>
-    needed ? numeric(well, field, reasons) : null;
+    needed && !absent.has(field) ? numeric(well, field, reasons) : null;
   const control = read('controlCurrent_pA', true);
   const compound = read('compoundCurrent_pA', true);
   const seal = read(
