@@ -73,8 +73,9 @@ export function validatePlateSheet(
     columns: PlatePreview['columns'],
     plate: ParsedPlate | null,
   ) =>
-    summarise({ sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells }, (preview) =>
-      fileProblemsOf(preview, mapping),
+    summarise(
+      { sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells },
+      (preview) => fileProblemsOf(preview, mapping),
     );
   let emptyWells = 0;
   if (!sheet.rows.some((row) => !isBlank(row))) {

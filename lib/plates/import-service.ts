@@ -179,10 +179,10 @@ export type PreviewRequest = ImportSource & SheetChoice;
 /** What the check step shows: the sheet's preview, QC messages per row, and the QC rules not applied. */
 export type ImportPreview = PlatePreview &
   SheetFacts & {
-  qc: Record<number, string[]>;
-  /** Rules whose readout the file does not carry (in no well): not applied, the others still run. */
-  qcRulesNotApplied: QcRuleNotApplied[];
-};
+    qc: Record<number, string[]>;
+    /** Rules whose readout the file does not carry (in no well): not applied, the others still run. */
+    qcRulesNotApplied: QcRuleNotApplied[];
+  };
 
 /**
  * Step 2: every row with its parse result and QC flags, the plate built from good rows, whole-file
