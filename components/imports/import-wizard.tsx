@@ -227,12 +227,12 @@ export function ImportWizard({
           </div>
           <div>
             <label htmlFor="import-file" className="gw-label">
-              Instrument export (xlsx, xls or csv, up to 10 MB)
+              Instrument export (xlsx, xls, ods, csv or tab-separated text, up to 10 MB)
             </label>
             <input
               id="import-file"
               type="file"
-              accept=".xlsx,.xls,.csv,text/csv"
+              accept=".xlsx,.xls,.ods,.csv,.tsv,.txt,text/csv,text/tab-separated-values"
               className="gw-input mt-1"
               onChange={(e) => {
                 const chosen = e.target.files?.[0] ?? null;
