@@ -214,7 +214,8 @@ function report(args: Args, filename: string, outcome: Outcome): number {
     return problems ? 1 : 0;
   }
   const lines: string[] = [];
-  if (facts) {
+  // A file that could not be checked at all is told by its refusal alone.
+  if (facts && outcome.facts) {
     const r = facts.roleCounts;
     lines.push(
       `${facts.file}, sheet "${facts.sheet}"${facts.template ? `, template ${facts.template}` : ', guessed mapping'}`,
@@ -228,7 +229,7 @@ function report(args: Args, filename: string, outcome: Outcome): number {
     for (const warning of facts.warnings) lines.push(`warning: ${warning}`);
     for (const error of facts.errors) lines.push(`error: ${error}`);
   }
-  if (refused && !facts?.errors.includes(refused)) lines.push(`refused: ${refused}`);
+  if (refused && !outcome.facts?.errors.includes(refused)) lines.push(`refused: ${refused}`);
   if (plateId) lines.push(`stored as plate ${facts?.plateLabel ?? ''} (${plateId})`);
   else if (!problems) lines.push(args.dryRun ? 'checked clean; nothing stored (dry run)' : 'checked clean');
   process.stdout.write(`${lines.join('\n')}\n`);
@@ -249,7 +250,10 @@ async function main(argv: readonly string[]): Promise<number> {
   try {
     return report(args, filename, await checkOnline(args, bytes, filename));
   } finally {
+    // The commit queued the plate's fit job through the job queue: close it and the database so the process ends.
+    const { closeJobQueue } = await import('../lib/jobs/queue');
     const { db } = await import('../lib/db');
+    await closeJobQueue();
     await db().close();
   }
 }

@@ -159,7 +159,7 @@ export async function importOnce(
     throw new AppError(
       'conflict',
       `This exact file was already imported for this screen as plate ${duplicate.label}.`,
-      { plateId: duplicate.plateId },
+      { plateId: duplicate.plateId, facts: checked.facts },
     );
   if (options.via === 'here') {
     const { plateId } = await commitImport(actor, { ...upload, ...choice });
