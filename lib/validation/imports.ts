@@ -131,3 +131,20 @@ export const draftRecordSchema = z.object({
   consumedAt: z.date().nullable(),
   plateId: z.uuid().nullable(),
 });
+
+/** Fields of the one-request import (`POST /api/imports/plate`) besides the file. */
+export const importOnceFieldsSchema = z.object({
+  screen: z.string().trim().min(1, 'Name the screen (its name or id).').max(200),
+  template: z
+    .string()
+    .trim()
+    .max(200)
+    .optional()
+    .transform((v) => (v ? v : undefined)),
+  label: z
+    .string()
+    .trim()
+    .max(120)
+    .optional()
+    .transform((v) => (v ? v : undefined)),
+});

@@ -68,6 +68,7 @@ export const ROUTE_CASES: RouteCase[] = [
   api('POST /api/imports/inspect', ['biologist'], 'passes'),
   api('POST /api/imports/preview', ['biologist'], 'passes'),
   api('POST /api/imports/commit', ['biologist'], 'passes'),
+  api('POST /api/imports/plate', ['biologist'], 'passes'),
   api('POST /api/imports/wait', ['biologist'], 'passes'),
   api('POST /api/imports/discard', ['biologist'], 'passes'),
   api('POST /api/imports/unknown-compounds', ['chemist', 'admin'], 'passes'),

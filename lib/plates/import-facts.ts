@@ -1,0 +1,161 @@
+import 'server-only';
+import { guessMapping } from '@/lib/imports/guess-mapping';
+import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
+import { guessFactLocators, type PlateFacts } from '@/lib/imports/plate-facts';
+import type { SheetData } from '@/lib/imports/spreadsheet-types';
+import { distinctColumnValues } from '@/lib/imports/guess-mapping';
+import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
+import type { QcRuleNotApplied } from '@/lib/science/qc/qc-rules';
+import { qcRulesNotApplied, readoutsAbsentFromEveryWell } from '@/lib/science/qc/qc-rules';
+import { DEFAULT_QC_THRESHOLDS } from '@/lib/science/qc/qc-thresholds';
+import { parsedPlateInput } from './analysis-input';
+
+/**
+ * The facts of an import in one go, with no database (lib/plates/import-once.ts adds the database's
+ * part): which sheet and mapping a file is read with when nobody chose them, and what a check of it found,
+ * as `scripts/import-plate.ts --dry-run --json` prints it and `POST /api/imports/plate` answers it.
+ */
+
+/** What an import of one file found, in plain values. */
+export interface ImportFacts {
+  file: string;
+  sheet: string;
+  /** The template applied (by name), or null when the mapping was guessed. */
+  template: string | null;
+  plateLabel: string;
+  /** Where the label came from: given, the plate barcode in the file, or the file name. */
+  labelSource: 'given' | 'barcode' | 'file';
+  plateFormat: number | null;
+  wellCount: number;
+  roleCounts: { negativeControl: number; positiveControl: number; test: number; empty: number };
+  /** The concentration unit as the file gives it (the header's, else the mapping's). */
+  concentrationUnit: string;
+  /** The file's target values as it writes them (or the one target named for the whole sheet). */
+  targets: string[];
+  /** Codes of the QC rules whose readout no well carries (not applied; the others still run). */
+  qcRulesNotApplied: string[];
+  /** Test compounds not in the registry; null when no registry was asked (offline). */
+  unregisteredCompounds: string[] | null;
+  errors: string[];
+  warnings: string[];
+}
+
+/** At most this many row errors are listed; the rest are counted in one more line. */
+const ERROR_LIMIT = 100;
+
+/** A sheet and its guessed mapping (with the plate facts located), for a file nobody mapped. */
+export interface GuessedSheet {
+  sheet: SheetData;
+  mapping: ColumnMapping;
+}
+
+/**
+ * The sheet most likely to hold the wells and its guessed mapping: the sheet whose guess misses the
+ * fewest required fields (the first of equals), with its barcode and other facts located as inspect does.
+ */
+export function guessSheet(sheets: readonly SheetData[]): GuessedSheet {
+  const guesses = sheets.map((sheet) => ({ sheet, guess: guessMapping(sheet) }));
+  const best = guesses.reduce((a, b) =>
+    b.guess.missingFields.length < a.guess.missingFields.length ? b : a,
+  );
+  const located = guessFactLocators(sheets, best.sheet.name, best.guess.mapping.headerRow);
+  const mapping = columnMappingDraftSchema.parse({
+    ...best.guess.mapping,
+    wellSheet: best.sheet.name,
+    facts: located.facts,
+  });
+  return { sheet: best.sheet, mapping };
+}
+
+/** The plate's label: the one given, else the barcode found in the file, else the file's name without its extension. */
+export function plateLabel(
+  given: string | undefined,
+  facts: PlateFacts,
+  filename: string,
+): Pick<ImportFacts, 'plateLabel' | 'labelSource'> {
+  if (given?.trim()) return { plateLabel: given.trim(), labelSource: 'given' };
+  const barcode = facts.barcode?.trim();
+  if (barcode) return { plateLabel: barcode.slice(0, 120), labelSource: 'barcode' };
+  const stem = filename.replace(/\.[^.]+$/, '').trim() || filename;
+  return { plateLabel: stem.slice(0, 120), labelSource: 'file' };
+}
+
+/**
+ * Validates the sheet with no registry: every compound identifier and target value of the file is taken
+ * as known (a first pass finds them), so that only the file's own faults remain.
+ */
+export function validateOffline(sheet: SheetData, mapping: ColumnMapping): PlatePreview {
+  const first = validatePlateSheet(sheet, mapping, { knownCompounds: [], knownTargets: [] });
+  if (first.unknownCompounds.length === 0 && first.unknownTargets.length === 0) return first;
+  return validatePlateSheet(sheet, mapping, {
+    knownCompounds: first.unknownCompounds.map((c) => c.identifier),
+    knownTargets: first.unknownTargets.map((t) => t.name),
+  });
+}
+
+/** The QC rules (at Gatewell's default limits) that the plate's readouts leave unapplied. */
+export function defaultRulesNotApplied(preview: PlatePreview): QcRuleNotApplied[] {
+  if (!preview.plate) return [];
+  return qcRulesNotApplied(
+    readoutsAbsentFromEveryWell(parsedPlateInput(preview.plate).wells),
+    DEFAULT_QC_THRESHOLDS,
+  );
+}
+
+/** The distinct values of a mapped column as the file writes them, in the order first written. */
+function columnValues(sheet: SheetData, preview: PlatePreview, field: 'target' | 'concentrationUnit') {
+  const column = preview.columns[field];
+  if (!column) return [];
+  return distinctColumnValues(sheet, preview.headerRow)[column.index] ?? [];
+}
+
+/** What a check of the file found, in plain values (`unregisteredCompounds` null when offline). */
+export function importFacts(input: {
+  filename: string;
+  sheet: SheetData;
+  mapping: ColumnMapping;
+  template: string | null;
+  label: Pick<ImportFacts, 'plateLabel' | 'labelSource'>;
+  preview: PlatePreview;
+  factWarnings: readonly string[];
+  rulesNotApplied: readonly QcRuleNotApplied[];
+  offline: boolean;
+}): ImportFacts {
+  const { preview, mapping } = input;
+  const wells = preview.plate?.wells ?? [];
+  const count = (role: string) => wells.filter((w) => w.role === role).length;
+  const rowErrors = preview.issues.filter((i) => i.severity === 'error').map((i) => i.message);
+  const errors = [
+    ...preview.fileProblems.map((p) => `${p.message} ${p.whatToDo}`),
+    ...(preview.fileProblems.length ? [] : rowErrors.slice(0, ERROR_LIMIT)),
+  ];
+  if (!preview.fileProblems.length && rowErrors.length > ERROR_LIMIT)
+    errors.push(`… and ${rowErrors.length - ERROR_LIMIT} more row errors.`);
+  if (preview.fileProblems.length === 0 && !preview.plate) errors.push('The sheet holds no wells.');
+  const unitValues = columnValues(input.sheet, preview, 'concentrationUnit');
+  const targets = mapping.fixedTarget ? [mapping.fixedTarget] : columnValues(input.sheet, preview, 'target');
+  return {
+    file: input.filename,
+    sheet: input.sheet.name,
+    template: input.template,
+    ...input.label,
+    plateFormat: preview.plate?.format ?? null,
+    wellCount: wells.length,
+    roleCounts: {
+      negativeControl: count('vehicle'),
+      positiveControl: count('reference'),
+      test: count('test'),
+      empty: preview.emptyWells,
+    },
+    concentrationUnit: unitValues.length === 1 ? unitValues[0]! : mapping.units.concentration,
+    targets,
+    qcRulesNotApplied: input.rulesNotApplied.map((r) => r.rule),
+    unregisteredCompounds: input.offline ? null : preview.unknownCompounds.map((c) => c.identifier),
+    errors,
+    warnings: [
+      ...preview.issues.filter((i) => i.severity === 'warning').map((i) => i.message),
+      ...input.factWarnings,
+      ...input.rulesNotApplied.map((r) => r.message),
+    ],
+  };
+}

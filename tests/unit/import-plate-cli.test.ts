@@ -1,0 +1,193 @@
+// scripts/import-plate.ts --offline --dry-run --json as a child process, with no database settings at all:
+// the facts it prints for files of the invented export layouts (tests/fixtures/export-layouts) and for a
+// demo export (seeders/data/demo-plates) against what the generators recorded, a file lacking a readout,
+// a file with role words no guess places, and bad arguments.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import XLSX from 'xlsx';
+import { afterAll, describe, expect, test } from 'vitest';
+import { layout, type LayoutFile } from '../fixtures/export-layouts';
+import { PLATES, plate, type PlateName } from '../fixtures/export-layouts/truth';
+
+const root = resolve(__dirname, '../..');
+const dir = mkdtempSync(join(tmpdir(), 'gatewell-import-cli-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+/** Runs the script with no database settings in its environment. */
+function run(args: string[]) {
+  const env = { ...process.env };
+  delete env.DATABASE_URL;
+  delete env.DATABASE_OWNER_URL;
+  const out = spawnSync(
+    process.execPath,
+    ['--conditions=react-server', '--import', 'tsx', join(root, 'scripts', 'import-plate.ts'), ...args],
+    { encoding: 'utf8', cwd: root, env, timeout: 60_000 },
+  );
+  return { code: out.status, stdout: out.stdout, stderr: out.stderr };
+}
+
+function write(name: string, bytes: Uint8Array): string {
+  const file = join(dir, name);
+  writeFileSync(file, bytes);
+  return file;
+}
+
+function dryRun(file: string) {
+  const out = run([file, '--offline', '--dry-run', '--json']);
+  return { code: out.code, facts: JSON.parse(out.stdout) as Record<string, unknown>, stderr: out.stderr };
+}
+
+/** The truth's role counts of the plate a layout file records (by its barcode). */
+function truthRoles(written: LayoutFile) {
+  const label = written.facts.plates[0]!.label;
+  const name = (Object.keys(PLATES) as PlateName[]).find((n) => PLATES[n].barcode === label)!;
+  const wells = plate(name).wells;
+  const count = (role: string) => wells.filter((w) => w.role === role).length;
+  return {
+    negativeControl: count('vehicle'),
+    positiveControl: count('reference'),
+    test: count('test'),
+    empty: 0,
+  };
+}
+
+describe('import-plate --offline --dry-run --json on the invented layouts', () => {
+  test.each(['xls-workbook', 'xlsx-run-1536'])(
+    '%s: label from the barcode, wells, roles, unit and targets as the generator recorded them',
+    (name) => {
+      const written = layout(name).write();
+      const { code, facts } = dryRun(write(written.filename, written.bytes));
+      const truth = written.facts;
+      expect(code).toBe(0);
+      expect(facts).toMatchObject({
+        plateLabel: truth.plates[0]!.label,
+        labelSource: 'barcode',
+        sheet: truth.plates[0]!.sheet,
+        plateFormat: truth.plates[0]!.format,
+        wellCount: truth.plates[0]!.wellCount,
+        roleCounts: truthRoles(written),
+        concentrationUnit: truth.units.concentration,
+        qcRulesNotApplied: [],
+        unregisteredCompounds: null,
+        errors: [],
+        warnings: [],
+      });
+      expect([...(facts.targets as string[])].sort()).toEqual(Object.values(truth.targetWords).sort());
+    },
+  );
+
+  test('a file lacking the series resistance: that rule is reported not applied, nothing else changes', () => {
+    const written = layout('xlsx-run-1536').write();
+    const book = XLSX.read(written.bytes, { type: 'array' });
+    const sheetName = written.facts.plates[0]!.sheet;
+    const rows = XLSX.utils.sheet_to_json<unknown[]>(book.Sheets[sheetName]!, { header: 1, defval: null });
+    const header = rows[3] as unknown[]; // the header is row 4 (three title rows above it)
+    const drop = header.indexOf('Series R / MOhm');
+    expect(drop).toBeGreaterThan(0);
+    book.Sheets[sheetName] = XLSX.utils.aoa_to_sheet(rows.map((r) => r.filter((_, i) => i !== drop)));
+    const bytes = XLSX.write(book, { type: 'array', bookType: 'xlsx' }) as ArrayBuffer;
+    const { code, facts } = dryRun(write('no-series-resistance.xlsx', new Uint8Array(bytes)));
+    expect(code).toBe(0);
+    expect(facts).toMatchObject({
+      plateLabel: 'GWX-1536-0051',
+      wellCount: 512,
+      roleCounts: truthRoles(written),
+      qcRulesNotApplied: ['series_resistance'],
+      errors: [],
+      warnings: [
+        'The series resistance rule (1 to 25 MΩ) was not applied: no well has a series resistance. The other QC rules, Z′ and the fits still run.',
+      ],
+    });
+  });
+
+  test('role words no guess places: exit 1, the error names them, no wells', () => {
+    const written = layout('semicolon-decimal-comma').write();
+    const { code, facts } = dryRun(write(written.filename, written.bytes));
+    expect(code).toBe(1);
+    expect(facts).toMatchObject({
+      plateLabel: 'GWX-096-0417',
+      labelSource: 'file',
+      wellCount: 0,
+      concentrationUnit: 'uM',
+      targets: ['hNav1.7'],
+      unregisteredCompounds: null,
+    });
+    expect(facts.errors).toEqual([
+      'Sheet "GWX-096-0417", row 1, column E "Sample type": the well-role column holds words Gatewell cannot place: "solvent", "library", "blocker"; on the mapping step assign each to negative control, positive control, test or empty.',
+      'The sheet holds no wells.',
+    ]);
+  });
+});
+
+describe('import-plate --offline on a demo export', () => {
+  test('kv-96-plate-01.csv: wells and roles as the file lists them, label from the file name', () => {
+    const file = join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv');
+    const manifest = JSON.parse(readFileSync(`${file}.manifest.json`, 'utf8')) as {
+      wellCount: number;
+      target: string;
+      format: number;
+    };
+    // The roles as the file writes them, read here line by line (column 2, "Well type").
+    const types = readFileSync(file, 'utf8')
+      .trim()
+      .split('\n')
+      .slice(1)
+      .map((line) => line.split(',')[1]);
+    const count = (word: string) => types.filter((t) => t === word).length;
+    const { code, facts } = dryRun(file);
+    expect(code).toBe(0);
+    expect(facts).toEqual({
+      file: 'kv-96-plate-01.csv',
+      sheet: 'kv-96-plate-01',
+      template: null,
+      plateLabel: 'kv-96-plate-01',
+      labelSource: 'file',
+      plateFormat: manifest.format,
+      wellCount: manifest.wellCount,
+      roleCounts: {
+        negativeControl: count('VEH'),
+        positiveControl: count('REF'),
+        test: count('TEST'),
+        empty: 0,
+      },
+      concentrationUnit: 'uM',
+      targets: [manifest.target],
+      qcRulesNotApplied: [],
+      unregisteredCompounds: null,
+      errors: [],
+      warnings: [],
+    });
+  });
+
+  test('--label wins over the file name', () => {
+    const file = join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv');
+    const out = run([file, '--offline', '--json', '--label', 'KV-P01']);
+    expect(out.code).toBe(0);
+    expect(JSON.parse(out.stdout)).toMatchObject({ plateLabel: 'KV-P01', labelSource: 'given' });
+  });
+});
+
+describe('import-plate arguments', () => {
+  test('no --screen or --as without --offline: exit 2, naming both', () => {
+    const out = run([join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv'), '--dry-run']);
+    expect(out.code).toBe(2);
+    expect(out.stdout).toBe('');
+    expect(out.stderr).toBe(
+      'import-plate: bad arguments:\n  --screen: is required (or --offline)\n  --as: is required (or --offline)\n',
+    );
+  });
+
+  test('--template with --offline, and a file that is not there: exit 2', () => {
+    const demo = join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv');
+    const withTemplate = run([demo, '--offline', '--template', 'Rig A']);
+    expect(withTemplate.code).toBe(2);
+    expect(withTemplate.stderr).toBe(
+      'import-plate: bad arguments:\n  --template: templates are kept in the database: not with --offline\n',
+    );
+    const missing = run([join(dir, 'absent.csv'), '--offline']);
+    expect(missing.code).toBe(2);
+    expect(missing.stderr).toBe(`import-plate: cannot read ${join(dir, 'absent.csv')}: ENOENT\n`);
+  });
+});
