@@ -11,6 +11,7 @@ import {
 import { columnMappingDraftSchema, type ColumnMapping, type ColumnMappingInput } from './mapping-schema';
 import { columnLetter, normaliseLabel } from './normalise-text';
 import { readText } from './read-cell';
+import { isUnitsRow } from './skip-rows';
 import type { Cell, SheetData } from './spreadsheet-types';
 import { parseUnit, type QuantityKind, type Unit } from './units';
 
@@ -57,10 +58,18 @@ export function guessMapping(
   const matched = matchHeaders(headers);
   const columns: Partial<Record<ImportField, string>> = {};
   const units: Partial<Record<UnitField, Unit>> = {};
+  // A row of units right under the header gives the unit of a column whose header names none.
+  const unitsRow = sheet.rows[headerRow];
+  const rowUnits = unitsRow && isUnitsRow(unitsRow) ? unitsRow : null;
   for (const column of matched) {
     columns[column.field] = column.header;
-    if (column.unit && (UNIT_FIELDS as readonly string[]).includes(column.field))
-      units[column.field as UnitField] = column.unit;
+    if (!(UNIT_FIELDS as readonly string[]).includes(column.field)) continue;
+    const field = column.field as UnitField;
+    // Not readText: "nA" is a unit here, not the missing marker "NA".
+    const cell = rowUnits?.[columnIndex(column.letter)];
+    const below = typeof cell === 'string' ? cell : null;
+    const unit = column.unit ?? (below ? parseUnit(below, UNIT_KIND[field]) : null);
+    if (unit) units[field] = unit;
   }
   const base = options.base ?? {};
   const mapping = columnMappingDraftSchema.parse({
@@ -159,4 +168,9 @@ export function distinctColumnValues(sheet: SheetData, headerRow: number): Recor
     result[index] = [...column.values.values()];
   }
   return result;
+}
+
+/** The 0-based index of a column letter: A → 0, AA → 26. */
+function columnIndex(letter: string): number {
+  return [...letter].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0) - 1;
 }

@@ -95,6 +95,20 @@ const mappingObjectSchema = z.object({
     .default({}),
   /** Where the plate barcode and the other plate facts are written outside the table. */
   facts: factsSchema.prefault({}),
+  /** Rows of the table that are not wells (lib/imports/skip-rows.ts). */
+  rows: z
+    .object({
+      /**
+       * A row of units right under the header: `guess` skips it when every filled cell is a unit
+       * ("mM", "[nA]", "MΩ", "%"); `yes` always skips that row; `no` reads it as a well.
+       */
+      unitsRow: z.enum(['guess', 'yes', 'no']).default('guess'),
+      /** Skip rows that name no well and open with a summary word (mean, count, SD …). */
+      skipSummaryRows: z.boolean().default(true),
+      /** More words that open a summary row in this layout, besides Gatewell's own. */
+      summaryWords: z.array(valueText).max(50).default([]),
+    })
+    .prefault({}),
 });
 
 /**

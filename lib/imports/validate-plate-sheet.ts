@@ -9,6 +9,7 @@ import { readRow, type PreviewRow } from './read-row';
 import { resolveColumns, type ResolvedColumn } from './resolve-columns';
 import { makeRowContext } from './row-context';
 import { shorten } from './read-cell';
+import { isSummaryRow, isUnitsRow } from './skip-rows';
 import { roleChoiceForRow, unknownRoleValues } from './value-map';
 import type { Cell, SheetData } from './spreadsheet-types';
 
@@ -37,6 +38,12 @@ export interface FileProblem {
   whatToDo: string;
 }
 
+/** A row below the header skipped as not a well (1-based row number as the spreadsheet shows it). */
+export interface SkippedRow {
+  row: number;
+  reason: 'units' | 'summary';
+}
+
 /** Everything the import preview shows: each row with its values or issues, and the plate built from good rows. */
 export interface PlatePreview {
   sheet: string;
@@ -55,6 +62,8 @@ export interface PlatePreview {
   summary: { rows: number; okRows: number; errorRows: number; errors: number; warnings: number };
   /** Rows the role column's value map marks empty: skipped, not read into wells. */
   emptyWells: number;
+  /** Rows below the header that are not wells and were skipped: a row of units, summary rows. */
+  skippedRows: SkippedRow[];
   /** True when there is not a single error and the plate has wells. */
   ok: boolean;
 }
@@ -74,10 +83,11 @@ export function validatePlateSheet(
     plate: ParsedPlate | null,
   ) =>
     summarise(
-      { sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells },
+      { sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells, skippedRows },
       (preview) => fileProblemsOf(preview, mapping),
     );
   let emptyWells = 0;
+  const skippedRows: SkippedRow[] = [];
   if (!sheet.rows.some((row) => !isBlank(row))) {
     return finish(
       [],
@@ -95,8 +105,21 @@ export function validatePlateSheet(
     mapping,
     ...options,
   });
+  // Rows that are not wells (issue 18): a row of units under the header, summary rows.
+  const unitsRow = sheet.rows[headerRow];
+  if (unitsRow && mapping.rows.unitsRow !== 'no' && (mapping.rows.unitsRow === 'yes' || isUnitsRow(unitsRow)))
+    skippedRows.push({ row: headerRow + 1, reason: 'units' });
+  const wellIndex = columns.well?.index ?? null;
+  sheet.rows.forEach((cells, index) => {
+    if (index <= headerRow || !mapping.rows.skipSummaryRows || isBlank(cells)) return;
+    if (isSummaryRow(cells, wellIndex, mapping.rows.summaryWords))
+      skippedRows.push({ row: index + 1, reason: 'summary' });
+  });
+  const skipped = new Set(skippedRows.map((s) => s.row - 1));
   // Value map (issue 18): role words neither mapped nor guessed stop the file; rows mapped to empty are skipped.
-  const dataRows = sheet.rows.slice(headerRow).filter((cells) => !isBlank(cells));
+  const dataRows = sheet.rows
+    .slice(headerRow)
+    .filter((cells, i) => !isBlank(cells) && !skipped.has(headerRow + i));
   const unknownRoles = unknownRoleValues(dataRows, ctx);
   if (unknownRoles.length > 0) {
     const column = columns.role ? { letter: columns.role.letter, header: columns.role.header } : null;
@@ -113,7 +136,7 @@ export function validatePlateSheet(
   }
   const rows: PreviewRow[] = [];
   sheet.rows.forEach((cells, index) => {
-    if (index < headerRow || isBlank(cells)) return;
+    if (index < headerRow || isBlank(cells) || skipped.has(index)) return;
     if (roleChoiceForRow(cells, ctx) === 'empty') emptyWells += 1;
     else rows.push(readRow(cells, index + 1, ctx));
   });

@@ -104,6 +104,19 @@ const IMPORTABLE: Importable[] = [
       compoundCurrent: 'Current after / pA',
     },
   },
+  {
+    // Units in a second header row and mean/count rows below: both skipped as rows that are not wells.
+    name: 'units-row-summary',
+    targets: 'fixed',
+    columns: {
+      well: 'Well',
+      role: 'Group',
+      compound: 'Compound',
+      concentration: 'Concentration',
+      controlCurrent: 'Current before',
+      compoundCurrent: 'Current after',
+    },
+  },
 ];
 
 /** The mapping of a layout: the test's columns, the QC columns and units from the file's facts. */
