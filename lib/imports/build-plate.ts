@@ -8,6 +8,8 @@ export interface ParsedReadout {
   target: string;
   controlCurrent_pA: number | null;
   compoundCurrent_pA: number | null;
+  /** The fractional block as the file gives it directly (null when missing); absent when computed from currents. */
+  givenBlock?: number | null;
   /** The spreadsheet row it came from. */
   row: number;
 }
@@ -71,6 +73,7 @@ export function buildPlate(
       target: values.target,
       controlCurrent_pA: values.controlCurrent_pA,
       compoundCurrent_pA: values.compoundCurrent_pA,
+      ...(values.givenBlock !== undefined ? { givenBlock: values.givenBlock } : {}),
       row,
     });
     if (!targets.includes(values.target)) targets.push(values.target);

@@ -2,6 +2,7 @@ import 'server-only';
 import { HEADER_RULES } from './header-words';
 import { splitHeaderUnit } from './header-unit';
 import {
+  fieldNeeded,
   IMPORT_FIELDS,
   REQUIRED_FIELDS,
   UNIT_FIELDS,
@@ -10,6 +11,7 @@ import {
 } from './import-fields';
 import { columnMappingDraftSchema, type ColumnMapping, type ColumnMappingInput } from './mapping-schema';
 import { columnLetter, normaliseLabel } from './normalise-text';
+import { blockScaleOfHeader } from './block-scale';
 import { readText } from './read-cell';
 import { isUnitsRow } from './skip-rows';
 import type { Cell, SheetData } from './spreadsheet-types';
@@ -71,19 +73,21 @@ export function guessMapping(
     const unit = column.unit ?? (below ? parseUnit(below, UNIT_KIND[field]) : null);
     if (unit) units[field] = unit;
   }
+  const blockHeader = matched.find((column) => column.field === 'block')?.header;
+  const blockScale = blockHeader === undefined ? null : blockScaleOfHeader(blockHeader);
   const base = options.base ?? {};
   const mapping = columnMappingDraftSchema.parse({
     ...base,
     headerRow,
     columns: { ...base.columns, ...columns },
-    units: { ...base.units, ...units },
+    units: { ...base.units, ...units, ...(blockScale ? { block: blockScale } : {}) },
   });
   const used = new Set(matched.map((column) => column.letter));
   const unmatchedHeaders = headerCells(headers)
     .filter((cell) => !used.has(cell.letter))
     .map(({ letter, header }) => ({ letter, header }));
   const missingFields = REQUIRED_FIELDS.filter(
-    (field) => mapping.columns[field] === null && !(field === 'target' && mapping.fixedTarget !== null),
+    (field) => mapping.columns[field] === null && fieldNeeded(field, mapping),
   );
   return { mapping, matched, unmatchedHeaders, missingFields };
 }

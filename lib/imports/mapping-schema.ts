@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import {
+  BLOCK_SCALES,
   FIELD_LABEL,
+  fieldNeeded,
   IMPORT_FIELDS,
   PLATE_FACTS,
   REQUIRED_FIELDS,
@@ -54,6 +56,11 @@ const mappingObjectSchema = z.object({
   version: z.literal(2).default(2),
   /** The sheet that holds the wells, when the layout names one (a template keeps it); null: the chosen sheet. */
   wellSheet: sheetName.nullable().default(null),
+  /**
+   * How the well column names wells: `label` (A1, A01), `index` (a running number along the rows, A1 = 1)
+   * or `guess` (a whole number is a running index, anything else a label).
+   */
+  wellNames: z.enum(['guess', 'label', 'index']).default('guess'),
   /** 1-based row number of the header row, as the spreadsheet shows it. */
   headerRow: z.int().min(1).max(1000).default(1),
   columns: columnsSchema.prefault({}),
@@ -66,6 +73,11 @@ const mappingObjectSchema = z.object({
       sealResistance: z.enum(RESISTANCE_UNITS).default('GOhm'),
       seriesResistance: z.enum(RESISTANCE_UNITS).default('MOhm'),
       capacitance: z.enum(CAPACITANCE_UNITS).default('pF'),
+      /**
+       * The block given directly: a fraction (0.5) or percent inhibition (50); `guess` reads "%" or
+       * "percent" in its header, else percent when any value lies beyond ±2 (no fraction does).
+       */
+      block: z.enum(['guess', ...BLOCK_SCALES]).default('guess'),
     })
     .prefault({}),
   /** The target of every row, for exports of one target that have no target column. */
@@ -147,8 +159,7 @@ export const columnMappingDraftSchema = z.preprocess(upgrade, mappingObjectSchem
 /** A complete column mapping: every required field has a column and no column feeds two fields. */
 export const columnMappingSchema = columnMappingDraftSchema.superRefine((mapping, ctx) => {
   for (const field of REQUIRED_FIELDS) {
-    if (mapping.columns[field] !== null) continue;
-    if (field === 'target' && mapping.fixedTarget !== null) continue;
+    if (mapping.columns[field] !== null || !fieldNeeded(field, mapping)) continue;
     const extra = field === 'target' ? ', or name one target for the whole sheet' : '';
     ctx.addIssue({
       code: 'custom',

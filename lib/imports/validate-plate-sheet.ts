@@ -8,7 +8,9 @@ import type { PlateFormat } from '@/lib/domain/plate-formats';
 import { readRow, type PreviewRow } from './read-row';
 import { resolveColumns, type ResolvedColumn } from './resolve-columns';
 import { makeRowContext } from './row-context';
-import { shorten } from './read-cell';
+import { readText, shorten } from './read-cell';
+import { decideBlockScale } from './block-scale';
+import { formatForWellCount } from './plate-format';
 import { isSummaryRow, isUnitsRow } from './skip-rows';
 import { roleChoiceForRow, unknownRoleValues } from './value-map';
 import type { Cell, SheetData } from './spreadsheet-types';
@@ -98,13 +100,6 @@ export function validatePlateSheet(
   }
   const { columns, issues } = resolveColumns(sheet, mapping);
   if (issues.length > 0) return finish([], issues, columns, null);
-  const ctx = makeRowContext({
-    sheet: sheet.name,
-    decimalComma: sheet.decimalComma,
-    columns,
-    mapping,
-    ...options,
-  });
   // Rows that are not wells (issue 18): a row of units under the header, summary rows.
   const unitsRow = sheet.rows[headerRow];
   if (unitsRow && mapping.rows.unitsRow !== 'no' && (mapping.rows.unitsRow === 'yes' || isUnitsRow(unitsRow)))
@@ -120,6 +115,23 @@ export function validatePlateSheet(
   const dataRows = sheet.rows
     .slice(headerRow)
     .filter((cells, i) => !isBlank(cells) && !skipped.has(headerRow + i));
+  const blockColumn = columns.block;
+  const ctx = makeRowContext({
+    sheet: sheet.name,
+    decimalComma: sheet.decimalComma,
+    columns,
+    mapping,
+    ...options,
+    blockScale: blockColumn
+      ? decideBlockScale(
+          mapping.units.block,
+          blockColumn.header,
+          dataRows.map((cells) => cells[blockColumn.index]),
+          sheet.decimalComma,
+        )
+      : 'fraction',
+    wellIndexFormat: wellIndexFormat(dataRows, columns.well?.index, mapping, options.plateFormat),
+  });
   const unknownRoles = unknownRoleValues(dataRows, ctx);
   if (unknownRoles.length > 0) {
     const column = columns.role ? { letter: columns.role.letter, header: columns.role.header } : null;
@@ -147,6 +159,26 @@ export function validatePlateSheet(
   const decision = checkPlateRows(rows, sheet.name, columns, options.plateFormat);
   const plate = decision.format === null ? null : buildPlate(rows, decision.format, decision.source);
   return finish(rows, [], columns, plate);
+}
+
+/**
+ * The plate format running well numbers count along: the chosen format, else the smallest holding the
+ * highest number; null when the well column holds no running number (or names wells as labels only).
+ */
+function wellIndexFormat(
+  rows: readonly Cell[][],
+  wellIndex: number | undefined,
+  mapping: ColumnMapping,
+  chosen: PlateFormat | undefined,
+): PlateFormat | null {
+  if (wellIndex === undefined || mapping.wellNames === 'label') return null;
+  let highest = 0;
+  for (const cells of rows) {
+    const text = readText(cells[wellIndex]);
+    if (text !== null && /^\d{1,6}$/.test(text)) highest = Math.max(highest, Number(text));
+  }
+  if (highest === 0) return null;
+  return chosen ?? formatForWellCount(highest);
 }
 
 function isBlank(row: Cell[]): boolean {

@@ -23,6 +23,11 @@ export interface AnalysisReadout extends CurrentReadouts {
   wellId: string;
   /** Target identity (id or name), the same for every readout of one target. */
   target: string;
+  /**
+   * The fractional block as the file gives it directly (null when missing), instead of the current after
+   * compound; absent for readouts whose block is computed from the currents.
+   */
+  givenBlock?: number | null;
 }
 
 export interface AnalysisSettings {
@@ -90,7 +95,15 @@ export function analysePlate(
   // A recording property that no well of the whole plate carries was not in the file: its rule is not
   // applied (and said so) rather than failing every well. Judged from the wells, so the stored plate gives
   // the same answer at every recompute as the file gave at import.
-  const absentReadouts = readoutsAbsentFromEveryWell(wells);
+  // A plate whose file gives the block directly may carry no control current at all: the control-current
+  // rule is then not applied either.
+  const absentReadouts = [
+    ...readoutsAbsentFromEveryWell(wells),
+    ...(readouts.length > 0 &&
+    readouts.every((r) => r.givenBlock !== undefined && r.controlCurrent_pA === null)
+      ? (['controlCurrent_pA'] as const)
+      : []),
+  ];
   const notApplied = qcRulesNotApplied(absentReadouts, resolveQcThresholds(settings.thresholds));
   const qc = checkWells(
     readouts.map((r) => {
@@ -100,6 +113,7 @@ export function analysePlate(
         role: w.role,
         controlCurrent_pA: r.controlCurrent_pA,
         compoundCurrent_pA: r.compoundCurrent_pA,
+        ...(r.givenBlock !== undefined ? { givenBlock: r.givenBlock } : {}),
         sealResistance_GOhm: w.sealResistance_GOhm,
         seriesResistance_MOhm: w.seriesResistance_MOhm,
         capacitance_pF: w.capacitance_pF,
@@ -117,6 +131,7 @@ export function analysePlate(
       role: wellOf(r).role,
       controlCurrent_pA: r.controlCurrent_pA,
       compoundCurrent_pA: r.compoundCurrent_pA,
+      ...(r.givenBlock !== undefined ? { givenBlock: r.givenBlock } : {}),
       excluded: !used[i],
     })),
     { normalise: settings.normalise ?? false, zPrimeMin: settings.zPrimeMin ?? 0.5 },

@@ -117,6 +117,19 @@ const IMPORTABLE: Importable[] = [
       compoundCurrent: 'Current after',
     },
   },
+  {
+    // The block as percent inhibition instead of the current after compound, wells as a running index.
+    name: 'percent-inhibition-index',
+    targets: 'fixed',
+    columns: {
+      well: 'Well #',
+      role: 'Control',
+      compound: 'Compound',
+      concentration: 'Conc. (nM)',
+      controlCurrent: 'Baseline peak (nA)',
+      block: '% Inhibition',
+    },
+  },
 ];
 
 /** The mapping of a layout: the test's columns, the QC columns and units from the file's facts. */
@@ -139,6 +152,7 @@ function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInpu
       sealResistance: units.sealResistance,
       seriesResistance: units.seriesResistance,
       capacitance: units.capacitance,
+      ...(units.block ? { block: units.block } : {}),
     },
     fixedTarget: importable.targets === 'fixed' ? targets[0]! : null,
     // The file's own words for the roles, in the role column or as the compound identifier.
