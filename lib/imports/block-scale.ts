@@ -46,8 +46,15 @@ const NUMBER = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(%)?$/;
  * A block cell as a fraction: a number in the column's scale ("50" in percent is 0.5), "50 %" as percent
  * whatever the scale; null for a blank cell or a missing marker (NA, NaN, n/a …).
  */
-export function readBlock(cell: Cell | undefined, scale: BlockScale, decimalComma: boolean): BlockResult {
+export function readBlock(
+  cell: Cell | undefined,
+  scale: BlockScale,
+  decimalComma: boolean,
+  /** More written forms (lower case) that mean "no value" in this file, such as "nan". */
+  missing: ReadonlySet<string> = new Set(),
+): BlockResult {
   if (cell === null || cell === undefined) return { ok: true, value: null };
+  if (typeof cell === 'number' && Number.isNaN(cell) && missing.has('nan')) return { ok: true, value: null };
   if (typeof cell === 'boolean')
     return { ok: false, code: 'not_numeric', detail: `${cell ? 'TRUE' : 'FALSE'} is not a number` };
   if (typeof cell === 'number')
@@ -55,7 +62,8 @@ export function readBlock(cell: Cell | undefined, scale: BlockScale, decimalComm
       ? { ok: true, value: scaled(cell, scale) }
       : { ok: false, code: 'not_finite', detail: `"${String(cell)}" is not a finite number` };
   const text = cell.trim();
-  if (MISSING_MARKERS.includes(text.toLowerCase())) return { ok: true, value: null };
+  if (MISSING_MARKERS.includes(text.toLowerCase()) || missing.has(text.toLowerCase()))
+    return { ok: true, value: null };
   const written =
     decimalComma && /^[+-]?\d+,\d+/.test(text) && !text.includes('.') ? text.replace(',', '.') : text;
   const match = written.length <= 64 ? NUMBER.exec(written) : null;

@@ -46,6 +46,8 @@ export const UNIT_KIND: Record<UnitField, QuantityKind> = {
 };
 
 const HEADER_SEARCH_ROWS = 30;
+/** Rows holding NaN from which the guess reads NaN as the file's missing marker. */
+const NAN_ROWS = 3;
 
 /**
  * Guesses which header row and columns hold which fields, and the units written in the headers.
@@ -76,11 +78,17 @@ export function guessMapping(
   const blockHeader = matched.find((column) => column.field === 'block')?.header;
   const blockScale = blockHeader === undefined ? null : blockScaleOfHeader(blockHeader);
   const base = options.base ?? {};
+  // NaN in cells of several rows is the file's way of writing a missing value, not a one-off fault.
+  const nanRows = sheet.rows
+    .slice(headerRow)
+    .filter((cells) => cells.some((cell) => typeof cell === 'string' && cell.trim().toLowerCase() === 'nan'));
+  const missing = nanRows.length >= NAN_ROWS ? { ...base.missing, notANumber: true } : base.missing;
   const mapping = columnMappingDraftSchema.parse({
     ...base,
     headerRow,
     columns: { ...base.columns, ...columns },
     units: { ...base.units, ...units, ...(blockScale ? { block: blockScale } : {}) },
+    ...(missing ? { missing } : {}),
   });
   const used = new Set(matched.map((column) => column.letter));
   const unmatchedHeaders = headerCells(headers)

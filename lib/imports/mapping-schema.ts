@@ -61,6 +61,22 @@ const mappingObjectSchema = z.object({
    * or `guess` (a whole number is a running index, anything else a label).
    */
   wellNames: z.enum(['guess', 'label', 'index']).default('guess'),
+  /**
+   * How compound reaches a cell: `single` (one concentration per well; a well's second row of a target is
+   * an error), `cumulative` (several concentrations in turn, a row each) or `guess` (rows of one well and
+   * target that differ only in concentration are cumulative applications).
+   */
+  application: z.enum(['guess', 'single', 'cumulative']).default('guess'),
+  /**
+   * Missing values: `NaN` read as missing (by default an error; the guess sets it where NaN fills cells of
+   * several rows), and more words meaning "no value" in this layout besides Gatewell's own (NA, n/a, -, …).
+   */
+  missing: z
+    .object({
+      notANumber: z.boolean().default(false),
+      words: z.array(valueText).max(20).default([]),
+    })
+    .prefault({}),
   /** 1-based row number of the header row, as the spreadsheet shows it. */
   headerRow: z.int().min(1).max(1000).default(1),
   columns: columnsSchema.prefault({}),

@@ -60,7 +60,7 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
   };
   const quantity = (field: UnitField, unit: Unit): number | null => {
     const written = cell(field);
-    const result = readQuantity(written, UNIT_KIND[field], unit, ctx.decimalComma);
+    const result = readQuantity(written, UNIT_KIND[field], unit, ctx.decimalComma, ctx.missing);
     if (!result.ok) report(field, result.code, `${FIELD_LABEL[field]}: ${result.detail}.`);
     else if (
       result.value !== null &&
@@ -123,7 +123,7 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
   const blockGiven = ctx.columns.block !== undefined;
   let givenBlock: number | null = null;
   if (blockGiven) {
-    const read = readBlock(cell('block'), ctx.blockScale, ctx.decimalComma);
+    const read = readBlock(cell('block'), ctx.blockScale, ctx.decimalComma, ctx.missing);
     if (read.ok) givenBlock = read.value;
     else report('block', read.code, `${FIELD_LABEL.block}: ${read.detail}.`);
   }

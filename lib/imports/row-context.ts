@@ -23,6 +23,8 @@ export interface RowContext {
   /** Compound identifiers (normalised) that mark negative and positive control wells. */
   negativeCompounds: Set<string>;
   positiveCompounds: Set<string>;
+  /** Written forms (lower case) that mean "no value" besides Gatewell's own: "nan", the mapping's words. */
+  missing: ReadonlySet<string>;
   /** How the block column's values are written (decided for the whole sheet). */
   blockScale: BlockScale;
   /** The plate format whose rows running well numbers count along; null when the sheet has none. */
@@ -68,6 +70,10 @@ export function makeRowContext(input: {
     ),
     negativeCompounds: new Set(mapping.controls.negative.map(normaliseIdentifier)),
     positiveCompounds: new Set(mapping.controls.positive.map(normaliseIdentifier)),
+    missing: new Set([
+      ...(mapping.missing.notANumber ? ['nan'] : []),
+      ...mapping.missing.words.map((word) => word.trim().toLowerCase()),
+    ]),
     blockScale: input.blockScale ?? 'fraction',
     wellIndexFormat: input.wellIndexFormat ?? null,
   };

@@ -156,7 +156,7 @@ export function validatePlateSheet(
     const detail = `the sheet has a header row (row ${headerRow}) but no data rows below it.`;
     return finish([], [makeIssue({ code: 'no_data_rows', sheet: sheet.name, detail })], columns, null);
   }
-  const decision = checkPlateRows(rows, sheet.name, columns, options.plateFormat);
+  const decision = checkPlateRows(rows, sheet.name, columns, options.plateFormat, mapping.application);
   const plate = decision.format === null ? null : buildPlate(rows, decision.format, decision.source);
   return finish(rows, [], columns, plate);
 }

@@ -58,6 +58,9 @@ export function analysisInput(wells: readonly WellData[], readouts: readonly Rea
       controlCurrent_pA: r.controlCurrent_pA,
       compoundCurrent_pA: r.compoundCurrent_pA,
       ...(r.blockGiven ? { givenBlock: r.givenBlock ?? null } : {}),
+      ...(r.concentration_uM !== null && r.concentration_uM !== undefined
+        ? { concentration_uM: r.concentration_uM }
+        : {}),
     })),
   };
 }
@@ -85,6 +88,7 @@ export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
         controlCurrent_pA: r.controlCurrent_pA,
         compoundCurrent_pA: r.compoundCurrent_pA,
         ...(r.givenBlock !== undefined ? { blockGiven: true, givenBlock: r.givenBlock } : {}),
+        ...(r.concentration_uM !== undefined ? { concentration_uM: r.concentration_uM } : {}),
       })),
     ),
   );

@@ -108,6 +108,7 @@ export async function storePlate(
         controlCurrent_pA: r.controlCurrent_pA,
         compoundCurrent_pA: r.compoundCurrent_pA,
         ...(r.givenBlock !== undefined ? { blockGiven: true, givenBlock: r.givenBlock } : {}),
+        ...(r.concentration_uM !== undefined ? { concentration_uM: r.concentration_uM } : {}),
       });
     }
     return {

@@ -28,6 +28,8 @@ export interface AnalysisReadout extends CurrentReadouts {
    * compound; absent for readouts whose block is computed from the currents.
    */
   givenBlock?: number | null;
+  /** The concentration of this application when the cell received several in turn; absent: the well's. */
+  concentration_uM?: number | null;
 }
 
 export interface AnalysisSettings {
@@ -144,11 +146,12 @@ export function analysePlate(
   >();
   readouts.forEach((r, i) => {
     const w = wellOf(r);
-    if (w.role !== 'test' || !w.compoundId || w.concentration_uM === null) return;
+    const concentration_uM = r.concentration_uM ?? w.concentration_uM;
+    if (w.role !== 'test' || !w.compoundId || concentration_uM === null) return;
     const key = fitKey(w.compoundId, r.target);
     const group = groups.get(key) ?? { compoundId: w.compoundId, target: r.target, c: [], b: [], x: [] };
     const block = blockById.get(r.id) ?? null;
-    group.c.push(w.concentration_uM);
+    group.c.push(concentration_uM);
     group.b.push(block ?? Number.NaN);
     group.x.push(!used[i] || block === null);
     groups.set(key, group);
