@@ -21,6 +21,12 @@ export class Readout extends Model<InferAttributes<Readout>, InferCreationAttrib
   declare targetId: string;
   declare controlCurrent_pA: number | null;
   declare compoundCurrent_pA: number | null;
+  /** Whether the file gave the block directly instead of the current after compound. */
+  declare blockGiven: CreationOptional<boolean>;
+  /** The block as the file gave it (a fraction; null when missing or not given). */
+  declare givenBlock: CreationOptional<number | null>;
+  /** The concentration of this application, for cumulative application; null: the well's. */
+  declare concentration_uM: CreationOptional<number | null>;
   declare fractionalBlock: number | null;
   declare qcReasons: CreationOptional<QcReason[]>;
 
@@ -32,6 +38,9 @@ export class Readout extends Model<InferAttributes<Readout>, InferCreationAttrib
         targetId: { type: DataTypes.UUID, allowNull: false },
         controlCurrent_pA: { type: DataTypes.DOUBLE, allowNull: true, field: 'control_current_pa' },
         compoundCurrent_pA: { type: DataTypes.DOUBLE, allowNull: true, field: 'compound_current_pa' },
+        blockGiven: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        givenBlock: { type: DataTypes.DOUBLE, allowNull: true },
+        concentration_uM: { type: DataTypes.DOUBLE, allowNull: true, field: 'concentration_um' },
         fractionalBlock: { type: DataTypes.DOUBLE, allowNull: true },
         qcReasons: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
       },

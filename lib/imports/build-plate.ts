@@ -8,6 +8,10 @@ export interface ParsedReadout {
   target: string;
   controlCurrent_pA: number | null;
   compoundCurrent_pA: number | null;
+  /** The fractional block as the file gives it directly (null when missing); absent when computed from currents. */
+  givenBlock?: number | null;
+  /** The concentration of this application when the cell received several in turn (cumulative); else absent. */
+  concentration_uM?: number;
   /** The spreadsheet row it came from. */
   row: number;
 }
@@ -44,6 +48,7 @@ export function buildPlate(
 ): ParsedPlate {
   const wells = new Map<string, ParsedWell>();
   const targets: string[] = [];
+  const concentrationOfRow = new Map(rows.map((r) => [r.row, r.values.concentration_uM]));
   for (const { row, status, values } of rows) {
     if (status !== 'ok' || values.well === null || values.rowIndex === null || values.columnIndex === null)
       continue;
@@ -71,9 +76,25 @@ export function buildPlate(
       target: values.target,
       controlCurrent_pA: values.controlCurrent_pA,
       compoundCurrent_pA: values.compoundCurrent_pA,
+      ...(values.givenBlock !== undefined ? { givenBlock: values.givenBlock } : {}),
       row,
     });
     if (!targets.includes(values.target)) targets.push(values.target);
+  }
+  // A well with several rows of one target received several concentrations in turn (cumulative
+  // application): each readout keeps its own, and the well shows the last, highest one.
+  for (const well of wells.values()) {
+    const perTarget = new Map<string, number>();
+    for (const r of well.readouts) perTarget.set(r.target, (perTarget.get(r.target) ?? 0) + 1);
+    if (![...perTarget.values()].some((n) => n > 1)) continue;
+    for (const r of well.readouts) {
+      const c = concentrationOfRow.get(r.row);
+      if (c !== null && c !== undefined) r.concentration_uM = c;
+    }
+    const applied = well.readouts.flatMap((r) =>
+      r.concentration_uM === undefined ? [] : [r.concentration_uM],
+    );
+    if (applied.length > 0) well.concentration_uM = Math.max(...applied);
   }
   const sorted = [...wells.values()].sort((a, b) => a.rowIndex - b.rowIndex || a.columnIndex - b.columnIndex);
   return { format, formatSource, ...PLATE_FORMAT_SIZE[format], targets, wells: sorted };

@@ -24,6 +24,11 @@ export function checkPlateRows(
   sheet: string,
   columns: ResolvedColumns,
   chosen?: PlateFormat,
+  /**
+   * Rows of one well and target at different concentrations are cumulative applications, not errors:
+   * `guess` allows them, `cumulative` also says so in the message of a repeated concentration.
+   */
+  application: 'single' | 'guess' | 'cumulative' = 'single',
 ): FormatDecision {
   const add = (
     row: PreviewRow,
@@ -74,9 +79,18 @@ export function checkPlateRows(
   for (const { row, well } of onPlate) {
     const { target } = row.values;
     if (target !== null) {
-      const key = `${well}|${normaliseLabel(target)}`;
+      const cumulative = application !== 'single';
+      const step = cumulative ? `|${row.values.concentration_uM ?? ''}` : '';
+      const key = `${well}|${normaliseLabel(target)}${step}`;
       const first = readouts.get(key);
       if (first === undefined) readouts.set(key, row.row);
+      else if (application === 'cumulative')
+        add(
+          row,
+          'well',
+          'duplicate_readout',
+          `well ${well} with target ${target} at ${row.values.concentration_uM ?? '(no concentration)'} µM is already given in row ${first}; each application of a cell has one row per target.`,
+        );
       else
         add(
           row,
@@ -87,7 +101,7 @@ export function checkPlateRows(
     }
     const first = wells.get(well);
     if (!first) wells.set(well, row);
-    else compareWellRows(first, row, add);
+    else compareWellRows(first, row, add, application !== 'single');
   }
   for (const row of rows)
     row.status = row.issues.some((issue) => issue.severity === 'error') ? 'error' : 'ok';
@@ -102,11 +116,14 @@ type Add = (
   severity?: 'error' | 'warning',
 ) => void;
 
-function compareWellRows(first: PreviewRow, row: PreviewRow, add: Add): void {
+function compareWellRows(first: PreviewRow, row: PreviewRow, add: Add, cumulative: boolean): void {
   const a = first.values;
   const b = row.values;
   const well = b.well;
-  if (a.role !== b.role || a.compound !== b.compound || !sameNumber(a.concentration_uM, b.concentration_uM)) {
+  const sameConcentration = cumulative
+    ? a.role !== 'test' || (a.concentration_uM !== null && b.concentration_uM !== null)
+    : sameNumber(a.concentration_uM, b.concentration_uM);
+  if (a.role !== b.role || a.compound !== b.compound || !sameConcentration) {
     const holds = (v: RowValues) =>
       `${v.role} ${v.compound ?? '(no compound)'} at ${v.concentration_uM ?? '(no concentration)'} µM`;
     add(

@@ -2,6 +2,7 @@ import 'server-only';
 import { HEADER_RULES } from './header-words';
 import { splitHeaderUnit } from './header-unit';
 import {
+  fieldNeeded,
   IMPORT_FIELDS,
   REQUIRED_FIELDS,
   UNIT_FIELDS,
@@ -10,7 +11,9 @@ import {
 } from './import-fields';
 import { columnMappingDraftSchema, type ColumnMapping, type ColumnMappingInput } from './mapping-schema';
 import { columnLetter, normaliseLabel } from './normalise-text';
+import { blockScaleOfHeader } from './block-scale';
 import { readText } from './read-cell';
+import { isUnitsRow } from './skip-rows';
 import type { Cell, SheetData } from './spreadsheet-types';
 import { parseUnit, type QuantityKind, type Unit } from './units';
 
@@ -43,6 +46,8 @@ export const UNIT_KIND: Record<UnitField, QuantityKind> = {
 };
 
 const HEADER_SEARCH_ROWS = 30;
+/** Rows holding NaN from which the guess reads NaN as the file's missing marker. */
+const NAN_ROWS = 3;
 
 /**
  * Guesses which header row and columns hold which fields, and the units written in the headers.
@@ -57,24 +62,40 @@ export function guessMapping(
   const matched = matchHeaders(headers);
   const columns: Partial<Record<ImportField, string>> = {};
   const units: Partial<Record<UnitField, Unit>> = {};
+  // A row of units right under the header gives the unit of a column whose header names none.
+  const unitsRow = sheet.rows[headerRow];
+  const rowUnits = unitsRow && isUnitsRow(unitsRow) ? unitsRow : null;
   for (const column of matched) {
     columns[column.field] = column.header;
-    if (column.unit && (UNIT_FIELDS as readonly string[]).includes(column.field))
-      units[column.field as UnitField] = column.unit;
+    if (!(UNIT_FIELDS as readonly string[]).includes(column.field)) continue;
+    const field = column.field as UnitField;
+    // Not readText: "nA" is a unit here, not the missing marker "NA".
+    const cell = rowUnits?.[columnIndex(column.letter)];
+    const below = typeof cell === 'string' ? cell : null;
+    const unit = column.unit ?? (below ? parseUnit(below, UNIT_KIND[field]) : null);
+    if (unit) units[field] = unit;
   }
+  const blockHeader = matched.find((column) => column.field === 'block')?.header;
+  const blockScale = blockHeader === undefined ? null : blockScaleOfHeader(blockHeader);
   const base = options.base ?? {};
+  // NaN in cells of several rows is the file's way of writing a missing value, not a one-off fault.
+  const nanRows = sheet.rows
+    .slice(headerRow)
+    .filter((cells) => cells.some((cell) => typeof cell === 'string' && cell.trim().toLowerCase() === 'nan'));
+  const missing = nanRows.length >= NAN_ROWS ? { ...base.missing, notANumber: true } : base.missing;
   const mapping = columnMappingDraftSchema.parse({
     ...base,
     headerRow,
     columns: { ...base.columns, ...columns },
-    units: { ...base.units, ...units },
+    units: { ...base.units, ...units, ...(blockScale ? { block: blockScale } : {}) },
+    ...(missing ? { missing } : {}),
   });
   const used = new Set(matched.map((column) => column.letter));
   const unmatchedHeaders = headerCells(headers)
     .filter((cell) => !used.has(cell.letter))
     .map(({ letter, header }) => ({ letter, header }));
   const missingFields = REQUIRED_FIELDS.filter(
-    (field) => mapping.columns[field] === null && !(field === 'target' && mapping.fixedTarget !== null),
+    (field) => mapping.columns[field] === null && fieldNeeded(field, mapping),
   );
   return { mapping, matched, unmatchedHeaders, missingFields };
 }
@@ -159,4 +180,9 @@ export function distinctColumnValues(sheet: SheetData, headerRow: number): Recor
     result[index] = [...column.values.values()];
   }
   return result;
+}
+
+/** The 0-based index of a column letter: A → 0, AA → 26. */
+function columnIndex(letter: string): number {
+  return [...letter].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0) - 1;
 }

@@ -9,6 +9,7 @@ export const IMPORT_FIELDS = [
   'target',
   'controlCurrent',
   'compoundCurrent',
+  'block',
   'currentUnit',
   'sealResistance',
   'seriesResistance',
@@ -18,7 +19,10 @@ export const IMPORT_FIELDS = [
 
 export type ImportField = (typeof IMPORT_FIELDS)[number];
 
-/** Fields that need a column; the target may instead be one name for the whole sheet. */
+/**
+ * Fields that need a column; the target may instead be one name for the whole sheet, and the block
+ * given directly stands in for the currents (see `fieldNeeded`).
+ */
 export const REQUIRED_FIELDS: readonly ImportField[] = [
   'well',
   'compound',
@@ -49,12 +53,35 @@ export const FIELD_LABEL: Record<ImportField, string> = {
   target: 'target',
   controlCurrent: 'control current',
   compoundCurrent: 'compound current',
+  block: 'block',
   currentUnit: 'current unit',
   sealResistance: 'seal resistance',
   seriesResistance: 'series resistance',
   capacitance: 'capacitance',
   role: 'well role',
 };
+
+/** What decides whether a required field may go without a column. */
+interface MappingChoices {
+  columns: Readonly<Partial<Record<ImportField, string | null>>>;
+  fixedTarget: string | null;
+}
+
+/**
+ * Whether a field needs a column under a mapping: the required fields, except the target when one target
+ * is named for the whole sheet, and the currents when the block is given directly (the control current
+ * is then read where mapped, for QC).
+ */
+export function fieldNeeded(field: ImportField, mapping: MappingChoices): boolean {
+  if (!REQUIRED_FIELDS.includes(field)) return false;
+  if (field === 'target') return mapping.fixedTarget === null;
+  if (field === 'controlCurrent' || field === 'compoundCurrent') return !mapping.columns.block;
+  return true;
+}
+
+/** How the block is written when a file gives it directly: a fraction (0.5) or percent inhibition (50). */
+export const BLOCK_SCALES = ['fraction', 'percent'] as const;
+export type BlockScale = (typeof BLOCK_SCALES)[number];
 
 /** Facts about the plate that a file may give outside its table (lib/imports/plate-facts.ts). */
 export const PLATE_FACTS = ['barcode', 'runDate', 'cellLine', 'temperature', 'operator'] as const;

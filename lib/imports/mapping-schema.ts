@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import {
+  BLOCK_SCALES,
   FIELD_LABEL,
+  fieldNeeded,
   IMPORT_FIELDS,
   PLATE_FACTS,
   REQUIRED_FIELDS,
@@ -54,6 +56,27 @@ const mappingObjectSchema = z.object({
   version: z.literal(2).default(2),
   /** The sheet that holds the wells, when the layout names one (a template keeps it); null: the chosen sheet. */
   wellSheet: sheetName.nullable().default(null),
+  /**
+   * How the well column names wells: `label` (A1, A01), `index` (a running number along the rows, A1 = 1)
+   * or `guess` (a whole number is a running index, anything else a label).
+   */
+  wellNames: z.enum(['guess', 'label', 'index']).default('guess'),
+  /**
+   * How compound reaches a cell: `single` (one concentration per well; a well's second row of a target is
+   * an error), `cumulative` (several concentrations in turn, a row each) or `guess` (rows of one well and
+   * target that differ only in concentration are cumulative applications).
+   */
+  application: z.enum(['guess', 'single', 'cumulative']).default('guess'),
+  /**
+   * Missing values: `NaN` read as missing (by default an error; the guess sets it where NaN fills cells of
+   * several rows), and more words meaning "no value" in this layout besides Gatewell's own (NA, n/a, -, …).
+   */
+  missing: z
+    .object({
+      notANumber: z.boolean().default(false),
+      words: z.array(valueText).max(20).default([]),
+    })
+    .prefault({}),
   /** 1-based row number of the header row, as the spreadsheet shows it. */
   headerRow: z.int().min(1).max(1000).default(1),
   columns: columnsSchema.prefault({}),
@@ -66,6 +89,11 @@ const mappingObjectSchema = z.object({
       sealResistance: z.enum(RESISTANCE_UNITS).default('GOhm'),
       seriesResistance: z.enum(RESISTANCE_UNITS).default('MOhm'),
       capacitance: z.enum(CAPACITANCE_UNITS).default('pF'),
+      /**
+       * The block given directly: a fraction (0.5) or percent inhibition (50); `guess` reads "%" or
+       * "percent" in its header, else percent when any value lies beyond ±2 (no fraction does).
+       */
+      block: z.enum(['guess', ...BLOCK_SCALES]).default('guess'),
     })
     .prefault({}),
   /** The target of every row, for exports of one target that have no target column. */
@@ -95,6 +123,20 @@ const mappingObjectSchema = z.object({
     .default({}),
   /** Where the plate barcode and the other plate facts are written outside the table. */
   facts: factsSchema.prefault({}),
+  /** Rows of the table that are not wells (lib/imports/skip-rows.ts). */
+  rows: z
+    .object({
+      /**
+       * A row of units right under the header: `guess` skips it when every filled cell is a unit
+       * ("mM", "[nA]", "MΩ", "%"); `yes` always skips that row; `no` reads it as a well.
+       */
+      unitsRow: z.enum(['guess', 'yes', 'no']).default('guess'),
+      /** Skip rows that name no well and open with a summary word (mean, count, SD …). */
+      skipSummaryRows: z.boolean().default(true),
+      /** More words that open a summary row in this layout, besides Gatewell's own. */
+      summaryWords: z.array(valueText).max(50).default([]),
+    })
+    .prefault({}),
 });
 
 /**
@@ -133,8 +175,7 @@ export const columnMappingDraftSchema = z.preprocess(upgrade, mappingObjectSchem
 /** A complete column mapping: every required field has a column and no column feeds two fields. */
 export const columnMappingSchema = columnMappingDraftSchema.superRefine((mapping, ctx) => {
   for (const field of REQUIRED_FIELDS) {
-    if (mapping.columns[field] !== null) continue;
-    if (field === 'target' && mapping.fixedTarget !== null) continue;
+    if (mapping.columns[field] !== null || !fieldNeeded(field, mapping)) continue;
     const extra = field === 'target' ? ', or name one target for the whole sheet' : '';
     ctx.addIssue({
       code: 'custom',

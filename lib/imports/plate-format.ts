@@ -60,3 +60,17 @@ export function describeFormat(format: PlateFormat): string {
   const size = PLATE_FORMAT_SIZE[format];
   return `a ${format}-well plate (rows A–${rowLetters(size.rows - 1)}, columns 1–${size.columns})`;
 }
+
+/** The well of a running number along the rows (A1 = 1, A2 = 2 …, B1 = columns + 1); null beyond the plate. */
+export function wellFromIndex(index: number, format: PlateFormat): WellPosition | null {
+  const { rows, columns } = PLATE_FORMAT_SIZE[format];
+  if (!Number.isInteger(index) || index < 1 || index > rows * columns) return null;
+  const rowIndex = Math.floor((index - 1) / columns);
+  const columnIndex = (index - 1) % columns;
+  return { rowIndex, columnIndex, label: wellLabel(rowIndex, columnIndex) };
+}
+
+/** The smallest format with at least `count` wells, or null beyond 1536. */
+export function formatForWellCount(count: number): PlateFormat | null {
+  return PLATE_FORMATS.find((f) => PLATE_FORMAT_SIZE[f].rows * PLATE_FORMAT_SIZE[f].columns >= count) ?? null;
+}

@@ -17,6 +17,7 @@ const NOT_FINITE = new Set([
   '+∞',
   '-∞',
 ]);
+const NO_WORDS: ReadonlySet<string> = new Set();
 const NUMBER_WITH_UNIT = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(\S.*)?$/;
 
 /** A quantity read from a cell: canonical value (null when missing), or why it cannot be read. */
@@ -40,16 +41,21 @@ export function readQuantity(
   kind: QuantityKind,
   unit: Unit,
   decimalComma = false,
+  /** More written forms (lower case) that mean "no value" in this file, such as "nan". */
+  missing: ReadonlySet<string> = NO_WORDS,
 ): QuantityResult {
   if (cell === null || cell === undefined) return { ok: true, value: null };
   if (typeof cell === 'number')
     return Number.isFinite(cell)
       ? { ok: true, value: toCanonical(cell, unit, kind) }
-      : notFinite(String(cell));
+      : Number.isNaN(cell) && missing.has('nan')
+        ? { ok: true, value: null }
+        : notFinite(String(cell));
   if (typeof cell === 'boolean')
     return { ok: false, code: 'not_numeric', detail: `${cell ? 'TRUE' : 'FALSE'} is not a number` };
   const text = cell.trim();
-  if (MISSING_MARKERS.includes(text.toLowerCase())) return { ok: true, value: null };
+  if (MISSING_MARKERS.includes(text.toLowerCase()) || missing.has(text.toLowerCase()))
+    return { ok: true, value: null };
   if (NOT_FINITE.has(text.toLowerCase())) return notFinite(text);
   const written =
     decimalComma && /^[+-]?\d+,\d+/.test(text) && !text.includes('.') ? text.replace(',', '.') : text;

@@ -4,7 +4,8 @@ import { FIELD_LABEL, type ImportField, type UnitField } from './import-fields';
 import { makeIssue, type ImportIssue, type ImportIssueCode } from './import-issue';
 import { UNIT_KIND } from './guess-mapping';
 import { normaliseIdentifier, normaliseLabel } from './normalise-text';
-import { parseWellPosition } from './plate-format';
+import { readBlock } from './block-scale';
+import { describeFormat, parseWellPosition, wellFromIndex } from './plate-format';
 import { readQuantity, readText, shorten } from './read-cell';
 import type { RowContext } from './row-context';
 import type { Cell } from './spreadsheet-types';
@@ -22,6 +23,8 @@ export interface RowValues {
   target: string | null;
   controlCurrent_pA: number | null;
   compoundCurrent_pA: number | null;
+  /** The fractional block as the file gives it (percent read as a fraction); absent when no column gives it. */
+  givenBlock?: number | null;
   sealResistance_GOhm: number | null;
   seriesResistance_MOhm: number | null;
   capacitance_pF: number | null;
@@ -57,7 +60,7 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
   };
   const quantity = (field: UnitField, unit: Unit): number | null => {
     const written = cell(field);
-    const result = readQuantity(written, UNIT_KIND[field], unit, ctx.decimalComma);
+    const result = readQuantity(written, UNIT_KIND[field], unit, ctx.decimalComma, ctx.missing);
     if (!result.ok) report(field, result.code, `${FIELD_LABEL[field]}: ${result.detail}.`);
     else if (
       result.value !== null &&
@@ -91,7 +94,7 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
   };
 
   const { units } = ctx.mapping;
-  const position = readWell(readText(cell('well')), (code, detail) => report('well', code, detail));
+  const position = readWell(readText(cell('well')), ctx, (code, detail) => report('well', code, detail));
   const target = readTarget(ctx.mapping.fixedTarget ?? readText(cell('target')), ctx, (code, detail) =>
     report('target', code, detail),
   );
@@ -117,7 +120,14 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
   const currentUnit = (fallback: Unit) =>
     ctx.columns.currentUnit ? rowUnit('currentUnit', 'current', fallback) : fallback;
   const controlCurrent_pA = quantity('controlCurrent', currentUnit(units.controlCurrent));
-  if (controlCurrent_pA === 0)
+  const blockGiven = ctx.columns.block !== undefined;
+  let givenBlock: number | null = null;
+  if (blockGiven) {
+    const read = readBlock(cell('block'), ctx.blockScale, ctx.decimalComma, ctx.missing);
+    if (read.ok) givenBlock = read.value;
+    else report('block', read.code, `${FIELD_LABEL.block}: ${read.detail}.`);
+  }
+  if (controlCurrent_pA === 0 && !blockGiven)
     report(
       'controlCurrent',
       'zero_control_current',
@@ -133,6 +143,7 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
     target,
     controlCurrent_pA,
     compoundCurrent_pA: quantity('compoundCurrent', currentUnit(units.compoundCurrent)),
+    ...(blockGiven ? { givenBlock } : {}),
     sealResistance_GOhm: quantity('sealResistance', units.sealResistance),
     seriesResistance_MOhm: quantity('seriesResistance', units.seriesResistance),
     capacitance_pF: quantity('capacitance', units.capacitance),
@@ -142,9 +153,18 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
 
 type Report = (code: ImportIssueCode, detail: string) => void;
 
-function readWell(text: string | null, report: Report) {
+function readWell(text: string | null, ctx: RowContext, report: Report) {
   if (text === null) {
     report('missing_value', 'the well position is empty.');
+    return null;
+  }
+  const names = ctx.mapping.wellNames;
+  if (names !== 'label' && RUNNING_NUMBER.test(text)) return readWellNumber(Number(text), ctx, report);
+  if (names === 'index') {
+    report(
+      'invalid_well',
+      `"${shorten(text)}" is not a running well number; number the wells 1, 2, 3 … along the rows (A1 = 1), or choose well names like A1 on the mapping step.`,
+    );
     return null;
   }
   const position = parseWellPosition(text);
@@ -152,6 +172,24 @@ function readWell(text: string | null, report: Report) {
     report(
       'invalid_well',
       `"${shorten(text)}" is not a well position; write it as a row letter and column number, like A1 or A01.`,
+    );
+  return position;
+}
+
+const RUNNING_NUMBER = /^\d{1,6}$/;
+
+/** A running well number (A1 = 1, along the rows) on the sheet's plate format. */
+function readWellNumber(index: number, ctx: RowContext, report: Report) {
+  if (index < 1) {
+    report('invalid_well', `well number ${index} names no well; running well numbers start at 1 (well A1).`);
+    return null;
+  }
+  const format = ctx.wellIndexFormat;
+  const position = format === null ? null : wellFromIndex(index, format);
+  if (!position)
+    report(
+      'well_outside_format',
+      `well number ${index} is beyond ${describeFormat(format ?? 1536)}, which has ${format ?? 1536} wells.`,
     );
   return position;
 }

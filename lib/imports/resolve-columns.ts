@@ -1,5 +1,5 @@
 import 'server-only';
-import { FIELD_LABEL, IMPORT_FIELDS, REQUIRED_FIELDS, type ImportField } from './import-fields';
+import { FIELD_LABEL, fieldNeeded, IMPORT_FIELDS, type ImportField } from './import-fields';
 import { makeIssue, type ImportIssue } from './import-issue';
 import type { ColumnMapping } from './mapping-schema';
 import { columnLetter, normaliseLabel } from './normalise-text';
@@ -26,9 +26,7 @@ export function resolveColumns(
   for (const field of IMPORT_FIELDS) {
     const wanted = mapping.columns[field];
     if (wanted === null) {
-      const optional =
-        !REQUIRED_FIELDS.includes(field) || (field === 'target' && mapping.fixedTarget !== null);
-      if (!optional) {
+      if (fieldNeeded(field, mapping)) {
         const detail = `no column is chosen for the ${FIELD_LABEL[field]}, which every plate needs.`;
         issues.push(makeIssue({ code: 'missing_column', sheet: sheet.name, row, field, detail }));
       }

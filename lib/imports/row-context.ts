@@ -1,4 +1,6 @@
 import 'server-only';
+import type { PlateFormat } from '@/lib/domain/plate-formats';
+import type { BlockScale } from './import-fields';
 import type { ColumnMapping } from './mapping-schema';
 import { normaliseIdentifier, normaliseLabel } from './normalise-text';
 import type { ResolvedColumns } from './resolve-columns';
@@ -21,6 +23,12 @@ export interface RowContext {
   /** Compound identifiers (normalised) that mark negative and positive control wells. */
   negativeCompounds: Set<string>;
   positiveCompounds: Set<string>;
+  /** Written forms (lower case) that mean "no value" besides Gatewell's own: "nan", the mapping's words. */
+  missing: ReadonlySet<string>;
+  /** How the block column's values are written (decided for the whole sheet). */
+  blockScale: BlockScale;
+  /** The plate format whose rows running well numbers count along; null when the sheet has none. */
+  wellIndexFormat: PlateFormat | null;
 }
 
 /** Prepares the look-ups for reading rows. */
@@ -33,6 +41,10 @@ export function makeRowContext(input: {
   knownTargets: readonly string[];
   /** The screen's remembered target aliases: alias as written → target name. */
   targetAliases?: Readonly<Record<string, string>> | undefined;
+  /** @default 'fraction' */
+  blockScale?: BlockScale;
+  /** @default null */
+  wellIndexFormat?: PlateFormat | null;
 }): RowContext {
   const { mapping } = input;
   const targets = new Map(input.knownTargets.map((name) => [normaliseLabel(name), name.trim()]));
@@ -58,5 +70,11 @@ export function makeRowContext(input: {
     ),
     negativeCompounds: new Set(mapping.controls.negative.map(normaliseIdentifier)),
     positiveCompounds: new Set(mapping.controls.positive.map(normaliseIdentifier)),
+    missing: new Set([
+      ...(mapping.missing.notANumber ? ['nan'] : []),
+      ...mapping.missing.words.map((word) => word.trim().toLowerCase()),
+    ]),
+    blockScale: input.blockScale ?? 'fraction',
+    wellIndexFormat: input.wellIndexFormat ?? null,
   };
 }

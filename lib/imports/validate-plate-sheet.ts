@@ -8,7 +8,10 @@ import type { PlateFormat } from '@/lib/domain/plate-formats';
 import { readRow, type PreviewRow } from './read-row';
 import { resolveColumns, type ResolvedColumn } from './resolve-columns';
 import { makeRowContext } from './row-context';
-import { shorten } from './read-cell';
+import { readText, shorten } from './read-cell';
+import { decideBlockScale } from './block-scale';
+import { formatForWellCount } from './plate-format';
+import { isSummaryRow, isUnitsRow } from './skip-rows';
 import { roleChoiceForRow, unknownRoleValues } from './value-map';
 import type { Cell, SheetData } from './spreadsheet-types';
 
@@ -37,6 +40,12 @@ export interface FileProblem {
   whatToDo: string;
 }
 
+/** A row below the header skipped as not a well (1-based row number as the spreadsheet shows it). */
+export interface SkippedRow {
+  row: number;
+  reason: 'units' | 'summary';
+}
+
 /** Everything the import preview shows: each row with its values or issues, and the plate built from good rows. */
 export interface PlatePreview {
   sheet: string;
@@ -55,6 +64,8 @@ export interface PlatePreview {
   summary: { rows: number; okRows: number; errorRows: number; errors: number; warnings: number };
   /** Rows the role column's value map marks empty: skipped, not read into wells. */
   emptyWells: number;
+  /** Rows below the header that are not wells and were skipped: a row of units, summary rows. */
+  skippedRows: SkippedRow[];
   /** True when there is not a single error and the plate has wells. */
   ok: boolean;
 }
@@ -74,10 +85,11 @@ export function validatePlateSheet(
     plate: ParsedPlate | null,
   ) =>
     summarise(
-      { sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells },
+      { sheet: sheet.name, headerRow, columns, rows, issues: sheetIssues, plate, emptyWells, skippedRows },
       (preview) => fileProblemsOf(preview, mapping),
     );
   let emptyWells = 0;
+  const skippedRows: SkippedRow[] = [];
   if (!sheet.rows.some((row) => !isBlank(row))) {
     return finish(
       [],
@@ -88,15 +100,38 @@ export function validatePlateSheet(
   }
   const { columns, issues } = resolveColumns(sheet, mapping);
   if (issues.length > 0) return finish([], issues, columns, null);
+  // Rows that are not wells (issue 18): a row of units under the header, summary rows.
+  const unitsRow = sheet.rows[headerRow];
+  if (unitsRow && mapping.rows.unitsRow !== 'no' && (mapping.rows.unitsRow === 'yes' || isUnitsRow(unitsRow)))
+    skippedRows.push({ row: headerRow + 1, reason: 'units' });
+  const wellIndex = columns.well?.index ?? null;
+  sheet.rows.forEach((cells, index) => {
+    if (index <= headerRow || !mapping.rows.skipSummaryRows || isBlank(cells)) return;
+    if (isSummaryRow(cells, wellIndex, mapping.rows.summaryWords))
+      skippedRows.push({ row: index + 1, reason: 'summary' });
+  });
+  const skipped = new Set(skippedRows.map((s) => s.row - 1));
+  // Value map (issue 18): role words neither mapped nor guessed stop the file; rows mapped to empty are skipped.
+  const dataRows = sheet.rows
+    .slice(headerRow)
+    .filter((cells, i) => !isBlank(cells) && !skipped.has(headerRow + i));
+  const blockColumn = columns.block;
   const ctx = makeRowContext({
     sheet: sheet.name,
     decimalComma: sheet.decimalComma,
     columns,
     mapping,
     ...options,
+    blockScale: blockColumn
+      ? decideBlockScale(
+          mapping.units.block,
+          blockColumn.header,
+          dataRows.map((cells) => cells[blockColumn.index]),
+          sheet.decimalComma,
+        )
+      : 'fraction',
+    wellIndexFormat: wellIndexFormat(dataRows, columns.well?.index, mapping, options.plateFormat),
   });
-  // Value map (issue 18): role words neither mapped nor guessed stop the file; rows mapped to empty are skipped.
-  const dataRows = sheet.rows.slice(headerRow).filter((cells) => !isBlank(cells));
   const unknownRoles = unknownRoleValues(dataRows, ctx);
   if (unknownRoles.length > 0) {
     const column = columns.role ? { letter: columns.role.letter, header: columns.role.header } : null;
@@ -113,7 +148,7 @@ export function validatePlateSheet(
   }
   const rows: PreviewRow[] = [];
   sheet.rows.forEach((cells, index) => {
-    if (index < headerRow || isBlank(cells)) return;
+    if (index < headerRow || isBlank(cells) || skipped.has(index)) return;
     if (roleChoiceForRow(cells, ctx) === 'empty') emptyWells += 1;
     else rows.push(readRow(cells, index + 1, ctx));
   });
@@ -121,9 +156,29 @@ export function validatePlateSheet(
     const detail = `the sheet has a header row (row ${headerRow}) but no data rows below it.`;
     return finish([], [makeIssue({ code: 'no_data_rows', sheet: sheet.name, detail })], columns, null);
   }
-  const decision = checkPlateRows(rows, sheet.name, columns, options.plateFormat);
+  const decision = checkPlateRows(rows, sheet.name, columns, options.plateFormat, mapping.application);
   const plate = decision.format === null ? null : buildPlate(rows, decision.format, decision.source);
   return finish(rows, [], columns, plate);
+}
+
+/**
+ * The plate format running well numbers count along: the chosen format, else the smallest holding the
+ * highest number; null when the well column holds no running number (or names wells as labels only).
+ */
+function wellIndexFormat(
+  rows: readonly Cell[][],
+  wellIndex: number | undefined,
+  mapping: ColumnMapping,
+  chosen: PlateFormat | undefined,
+): PlateFormat | null {
+  if (wellIndex === undefined || mapping.wellNames === 'label') return null;
+  let highest = 0;
+  for (const cells of rows) {
+    const text = readText(cells[wellIndex]);
+    if (text !== null && /^\d{1,6}$/.test(text)) highest = Math.max(highest, Number(text));
+  }
+  if (highest === 0) return null;
+  return chosen ?? formatForWellCount(highest);
 }
 
 function isBlank(row: Cell[]): boolean {

@@ -22,6 +22,11 @@ export interface ReadoutData {
   targetId: string;
   controlCurrent_pA: number | null;
   compoundCurrent_pA: number | null;
+  /** Whether the file gave the block directly (then `givenBlock` holds it); @default false */
+  blockGiven?: boolean;
+  givenBlock?: number | null;
+  /** The concentration of this application (cumulative application); null or absent: the well's. */
+  concentration_uM?: number | null;
 }
 
 /** The wells and readouts `analysePlate` takes (lib/science/plate-analysis.ts). */
@@ -52,6 +57,10 @@ export function analysisInput(wells: readonly WellData[], readouts: readonly Rea
       target: r.targetId,
       controlCurrent_pA: r.controlCurrent_pA,
       compoundCurrent_pA: r.compoundCurrent_pA,
+      ...(r.blockGiven ? { givenBlock: r.givenBlock ?? null } : {}),
+      ...(r.concentration_uM !== null && r.concentration_uM !== undefined
+        ? { concentration_uM: r.concentration_uM }
+        : {}),
     })),
   };
 }
@@ -78,6 +87,8 @@ export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
         targetId: r.target,
         controlCurrent_pA: r.controlCurrent_pA,
         compoundCurrent_pA: r.compoundCurrent_pA,
+        ...(r.givenBlock !== undefined ? { blockGiven: true, givenBlock: r.givenBlock } : {}),
+        ...(r.concentration_uM !== undefined ? { concentration_uM: r.concentration_uM } : {}),
       })),
     ),
   );

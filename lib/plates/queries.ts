@@ -289,6 +289,9 @@ const READOUT_COLUMNS = {
   target_id: 'uuid',
   control_current_pa: 'double precision',
   compound_current_pa: 'double precision',
+  block_given: 'boolean',
+  given_block: 'double precision',
+  concentration_um: 'double precision',
   fractional_block: 'double precision',
   qc_reasons: 'jsonb',
 } as const;

@@ -107,6 +107,8 @@ export async function storePlate(
         targetId: ids.target(r.target),
         controlCurrent_pA: r.controlCurrent_pA,
         compoundCurrent_pA: r.compoundCurrent_pA,
+        ...(r.givenBlock !== undefined ? { blockGiven: true, givenBlock: r.givenBlock } : {}),
+        ...(r.concentration_uM !== undefined ? { concentration_uM: r.concentration_uM } : {}),
       });
     }
     return {
@@ -177,6 +179,9 @@ export async function storePlate(
       target_id: r.targetId,
       control_current_pa: r.controlCurrent_pA,
       compound_current_pa: r.compoundCurrent_pA,
+      block_given: r.blockGiven ?? false,
+      given_block: r.givenBlock ?? null,
+      concentration_um: r.concentration_uM ?? null,
       fractional_block: analysis.readouts[i]!.block,
       qc_reasons: analysis.readouts[i]!.qcReasons,
     })),

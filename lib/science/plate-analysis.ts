@@ -23,6 +23,13 @@ export interface AnalysisReadout extends CurrentReadouts {
   wellId: string;
   /** Target identity (id or name), the same for every readout of one target. */
   target: string;
+  /**
+   * The fractional block as the file gives it directly (null when missing), instead of the current after
+   * compound; absent for readouts whose block is computed from the currents.
+   */
+  givenBlock?: number | null;
+  /** The concentration of this application when the cell received several in turn; absent: the well's. */
+  concentration_uM?: number | null;
 }
 
 export interface AnalysisSettings {
@@ -90,7 +97,15 @@ export function analysePlate(
   // A recording property that no well of the whole plate carries was not in the file: its rule is not
   // applied (and said so) rather than failing every well. Judged from the wells, so the stored plate gives
   // the same answer at every recompute as the file gave at import.
-  const absentReadouts = readoutsAbsentFromEveryWell(wells);
+  // A plate whose file gives the block directly may carry no control current at all: the control-current
+  // rule is then not applied either.
+  const absentReadouts = [
+    ...readoutsAbsentFromEveryWell(wells),
+    ...(readouts.length > 0 &&
+    readouts.every((r) => r.givenBlock !== undefined && r.controlCurrent_pA === null)
+      ? (['controlCurrent_pA'] as const)
+      : []),
+  ];
   const notApplied = qcRulesNotApplied(absentReadouts, resolveQcThresholds(settings.thresholds));
   const qc = checkWells(
     readouts.map((r) => {
@@ -100,6 +115,7 @@ export function analysePlate(
         role: w.role,
         controlCurrent_pA: r.controlCurrent_pA,
         compoundCurrent_pA: r.compoundCurrent_pA,
+        ...(r.givenBlock !== undefined ? { givenBlock: r.givenBlock } : {}),
         sealResistance_GOhm: w.sealResistance_GOhm,
         seriesResistance_MOhm: w.seriesResistance_MOhm,
         capacitance_pF: w.capacitance_pF,
@@ -117,6 +133,7 @@ export function analysePlate(
       role: wellOf(r).role,
       controlCurrent_pA: r.controlCurrent_pA,
       compoundCurrent_pA: r.compoundCurrent_pA,
+      ...(r.givenBlock !== undefined ? { givenBlock: r.givenBlock } : {}),
       excluded: !used[i],
     })),
     { normalise: settings.normalise ?? false, zPrimeMin: settings.zPrimeMin ?? 0.5 },
@@ -129,11 +146,12 @@ export function analysePlate(
   >();
   readouts.forEach((r, i) => {
     const w = wellOf(r);
-    if (w.role !== 'test' || !w.compoundId || w.concentration_uM === null) return;
+    const concentration_uM = r.concentration_uM ?? w.concentration_uM;
+    if (w.role !== 'test' || !w.compoundId || concentration_uM === null) return;
     const key = fitKey(w.compoundId, r.target);
     const group = groups.get(key) ?? { compoundId: w.compoundId, target: r.target, c: [], b: [], x: [] };
     const block = blockById.get(r.id) ?? null;
-    group.c.push(w.concentration_uM);
+    group.c.push(concentration_uM);
     group.b.push(block ?? Number.NaN);
     group.x.push(!used[i] || block === null);
     groups.set(key, group);

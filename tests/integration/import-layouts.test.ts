@@ -104,7 +104,52 @@ const IMPORTABLE: Importable[] = [
       compoundCurrent: 'Current after / pA',
     },
   },
+  {
+    // Units in a second header row and mean/count rows below: both skipped as rows that are not wells.
+    name: 'units-row-summary',
+    targets: 'fixed',
+    columns: {
+      well: 'Well',
+      role: 'Group',
+      compound: 'Compound',
+      concentration: 'Concentration',
+      controlCurrent: 'Current before',
+      compoundCurrent: 'Current after',
+    },
+  },
+  {
+    // The block as percent inhibition instead of the current after compound, wells as a running index.
+    name: 'percent-inhibition-index',
+    targets: 'fixed',
+    columns: {
+      well: 'Well #',
+      role: 'Control',
+      compound: 'Compound',
+      concentration: 'Conc. (nM)',
+      controlCurrent: 'Baseline peak (nA)',
+      block: '% Inhibition',
+    },
+  },
 ];
+
+/**
+ * Cumulative application: QC and the IC50s are checked as for the others, but not yet that each CI holds
+ * the truth (see the test at the end).
+ */
+// Eight concentrations as rows of one cell; missing values written "NaN".
+const CUMULATIVE: Importable = {
+  name: 'cumulative-rows',
+  targets: 'column',
+  columns: {
+    well: 'Cell',
+    role: 'Role',
+    compound: 'Compound',
+    concentration: 'Conc (µM)',
+    target: 'Target',
+    controlCurrent: 'I control (pA)',
+    compoundCurrent: 'I compound (pA)',
+  },
+};
 
 /** The mapping of a layout: the test's columns, the QC columns and units from the file's facts. */
 function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInput {
@@ -126,8 +171,11 @@ function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInpu
       sealResistance: units.sealResistance,
       seriesResistance: units.seriesResistance,
       capacitance: units.capacitance,
+      ...(units.block ? { block: units.block } : {}),
     },
     fixedTarget: importable.targets === 'fixed' ? targets[0]! : null,
+    // The file's way of writing a missing value, where Gatewell does not read it so by default.
+    missing: { notANumber: facts.missingMarker === 'NaN' },
     // The file's own words for the roles, in the role column or as the compound identifier.
     roleValues: {
       [facts.roleWords.vehicle]: 'vehicle',
@@ -173,68 +221,84 @@ describe('invented export layouts through the import service', () => {
   });
   afterAll(() => db().close());
 
-  test.each(IMPORTABLE)(
-    '$name imports with no edit: QC flags exactly the bad wells and every measurable IC50 is recovered',
-    async (importable) => {
-      const file = layout(importable.name).write();
-      const { facts } = file;
-      const [plate] = facts.plates;
-      const targets = Object.keys(facts.targetWords) as Target[];
-      const screenId = screens[targets.join('+')]!;
-      const mapping = mappingFor(importable, facts);
-      const upload = { screenId, bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
+  /** Imports a layout's file and checks QC, every IC50 within ±15 % and (with `ci`) its CI holding the truth. */
+  async function importAndCheck(importable: Importable, checks: { ci: boolean }) {
+    const file = layout(importable.name).write();
+    const { facts } = file;
+    const [plate] = facts.plates;
+    const targets = Object.keys(facts.targetWords) as Target[];
+    const screenId = screens[targets.join('+')]!;
+    const mapping = mappingFor(importable, facts);
+    const upload = { screenId, bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
 
-      const inspection = await inspectUpload(biologist, upload);
-      expect(inspection.sheets.map((s) => s.name)).toContain(plate!.sheet);
-      const draftId = inspection.draftId!;
-      const preview = await previewImport(biologist, { draftId, sheet: plate!.sheet, mapping });
-      expect(preview.issues.filter((i) => i.severity === 'error').map((i) => i.message)).toEqual([]);
-      expect(preview.plate?.targets.sort()).toEqual([...targets].sort());
+    const inspection = await inspectUpload(biologist, upload);
+    expect(inspection.sheets.map((s) => s.name)).toContain(plate!.sheet);
+    const draftId = inspection.draftId!;
+    const preview = await previewImport(biologist, { draftId, sheet: plate!.sheet, mapping });
+    expect(preview.issues.filter((i) => i.severity === 'error').map((i) => i.message)).toEqual([]);
+    expect(preview.plate?.targets.sort()).toEqual([...targets].sort());
 
-      const { plateId } = await commitImport(biologist, {
-        draftId,
-        sheet: plate!.sheet,
-        mapping,
-        label: plate!.label,
-      });
-      await fitsCurrent(plateId);
+    const { plateId } = await commitImport(biologist, {
+      draftId,
+      sheet: plate!.sheet,
+      mapping,
+      label: plate!.label,
+    });
+    await fitsCurrent(plateId);
 
-      const stored = await Plate.findByPk(plateId, { rejectOnEmpty: true });
-      expect(stored.format).toBe(plate!.format);
-      expect(stored.label).toBe(plate!.label);
-      expect(await Well.count({ where: { plateId } })).toBe(plate!.wellCount);
+    const stored = await Plate.findByPk(plateId, { rejectOnEmpty: true });
+    expect(stored.format).toBe(plate!.format);
+    expect(stored.label).toBe(plate!.label);
+    expect(await Well.count({ where: { plateId } })).toBe(plate!.wellCount);
 
-      const flagged = await db().query<{ position: string }>(
-        `select distinct w.position from readouts r join wells w on w.id = r.well_id
+    const flagged = await db().query<{ position: string }>(
+      `select distinct w.position from readouts r join wells w on w.id = r.well_id
          where w.plate_id = :plateId and jsonb_array_length(r.qc_reasons) > 0 order by w.position`,
-        { replacements: { plateId }, type: 'SELECT' as never },
-      );
-      expect(flagged.map((f) => f.position)).toEqual(plate!.badWells.map((b) => b.well).sort());
+      { replacements: { plateId }, type: 'SELECT' as never },
+    );
+    expect(flagged.map((f) => f.position)).toEqual(plate!.badWells.map((b) => b.well).sort());
 
-      const fits = await db().query<{
-        identifier: string;
-        target: string;
-        status: string;
-        ic50: number;
-        low: number;
-        high: number;
-      }>(
-        `select c.identifier, t.name as target, f.status, f.ic50_um as ic50, f.ic50_ci_low_um as low,
+    const fits = await db().query<{
+      identifier: string;
+      target: string;
+      status: string;
+      ic50: number;
+      low: number;
+      high: number;
+    }>(
+      `select c.identifier, t.name as target, f.status, f.ic50_um as ic50, f.ic50_ci_low_um as low,
                 f.ic50_ci_high_um as high
          from fits f join compounds c on c.id = f.compound_id join targets t on t.id = f.target_id
          where f.plate_id = :plateId`,
-        { replacements: { plateId }, type: 'SELECT' as never },
-      );
-      expect(facts.expectedIc50.length).toBeGreaterThan(0);
-      for (const truth of facts.expectedIc50) {
-        const label = `${truth.compound} on ${truth.target}`;
-        const fit = fits.find((f) => f.identifier === truth.compound && f.target === truth.target);
-        expect(fit?.status, label).toBe('fitted');
-        expect(fit!.ic50 / truth.ic50_uM, label).toBeGreaterThanOrEqual(0.85);
-        expect(fit!.ic50 / truth.ic50_uM, label).toBeLessThanOrEqual(1.15);
+      { replacements: { plateId }, type: 'SELECT' as never },
+    );
+    expect(facts.expectedIc50.length).toBeGreaterThan(0);
+    for (const truth of facts.expectedIc50) {
+      const label = `${truth.compound} on ${truth.target}`;
+      const fit = fits.find((f) => f.identifier === truth.compound && f.target === truth.target);
+      expect(fit?.status, label).toBe('fitted');
+      expect(fit!.ic50 / truth.ic50_uM, label).toBeGreaterThanOrEqual(0.85);
+      expect(fit!.ic50 / truth.ic50_uM, label).toBeLessThanOrEqual(1.15);
+      if (checks.ci) {
         expect(fit!.low, label).toBeLessThanOrEqual(truth.ic50_uM);
         expect(fit!.high, label).toBeGreaterThanOrEqual(truth.ic50_uM);
       }
-    },
+    }
+  }
+
+  test.each(IMPORTABLE)(
+    '$name imports with no edit: QC flags exactly the bad wells and every measurable IC50 is recovered',
+    (importable) => importAndCheck(importable, { ci: true }),
+  );
+
+  test('cumulative-rows imports with no edit: QC flags exactly the bad wells, every IC50 within ±15 %', () =>
+    importAndCheck(CUMULATIVE, { ci: false }));
+
+  // Known gap: the applications of one cell share its run-down, so their points are not independent and
+  // the pooled fit's 95 % CI is too narrow (GW-0003 and GW-0006 of this file fall outside theirs). This
+  // test passes while that is so; it fails, and should then become a plain test, once the fit treats the
+  // cell as the unit.
+  test.fails('cumulative-rows: every CI holds the truth (not yet: applications of a cell are pooled)', () =>
+    importAndCheck(CUMULATIVE, { ci: true }),
   );
 });

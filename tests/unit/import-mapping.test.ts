@@ -104,6 +104,7 @@ describe('header guessing', () => {
       sealResistance: 'GOhm',
       seriesResistance: 'MOhm',
       capacitance: 'pF',
+      block: 'guess',
     });
     expect(units[1]).toEqual({
       concentration: 'uM',
@@ -112,6 +113,7 @@ describe('header guessing', () => {
       sealResistance: 'MOhm',
       seriesResistance: 'MOhm',
       capacitance: 'pF',
+      block: 'guess',
     });
     expect(units[2]).toEqual({
       concentration: 'uM',
@@ -120,6 +122,7 @@ describe('header guessing', () => {
       sealResistance: 'GOhm',
       seriesResistance: 'MOhm',
       capacitance: 'pF',
+      block: 'guess',
     });
   });
 });
@@ -146,6 +149,7 @@ describe('mapping schema', () => {
       sealResistance: 'GOhm',
       seriesResistance: 'MOhm',
       capacitance: 'pF',
+      block: 'guess',
     });
     expect(mapping.version).toBe(2);
     expect(mapping.roleValues).toEqual({});

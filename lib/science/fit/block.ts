@@ -12,6 +12,11 @@ export interface BlockWell {
   controlCurrent_pA: number | null;
   /** Current after compound or vehicle (pA). */
   compoundCurrent_pA: number | null;
+  /**
+   * The fractional block as the file gives it, instead of the currents (null when missing): its ratio is
+   * 1 − block, and run-down correction and normalisation apply to it as to a ratio of currents.
+   */
+  givenBlock?: number | null;
   /** Left out of the control means and fits (QC flag or exclusion); its block is still computed for display. */
   excluded: boolean;
 }
@@ -134,6 +139,8 @@ function targetBlock(
 }
 
 function ratioOf(well: BlockWell): number | null {
+  if (well.givenBlock !== undefined)
+    return well.givenBlock === null || !Number.isFinite(well.givenBlock) ? null : 1 - well.givenBlock;
   const { controlCurrent_pA: control, compoundCurrent_pA: compound } = well;
   if (
     control === null ||

@@ -3,8 +3,11 @@ import { READOUT_LABEL, type QcField } from './quantities';
 import type { QcThresholds } from './qc-thresholds';
 import type { RawValue } from './well';
 
-/** The QC rules that each read one recording property of the cell (seal, series resistance, capacitance). */
-export type QcRuleCode = 'seal_resistance' | 'series_resistance' | 'capacitance';
+/**
+ * The QC rules that each read one recording property of the cell (seal, series resistance, capacitance),
+ * and the control-current rule, which a plate whose file gives the block directly may have no current for.
+ */
+export type QcRuleCode = 'seal_resistance' | 'series_resistance' | 'capacitance' | 'control_current';
 
 /** A readout the recording-property rules read, and the thresholds of its rule. */
 export const RECORDING_RULES: readonly {
@@ -27,6 +30,14 @@ export const RECORDING_RULES: readonly {
   },
   { rule: 'capacitance', field: 'capacitance_pF', min: 'capacitanceMin_pF', max: 'capacitanceMax_pF' },
 ];
+
+/** The control-current rule: the smallest amplitude of the current before compound. */
+const CONTROL_CURRENT_RULE = {
+  rule: 'control_current',
+  field: 'controlCurrent_pA',
+  min: 'controlCurrentMin_pA',
+  max: null,
+} as const;
 
 /** A rule that was switched on but not applied, because no well carries the readout it reads. */
 export interface QcRuleNotApplied {
@@ -52,23 +63,25 @@ export function readoutsAbsentFromEveryWell(wells: readonly Partial<Record<QcFie
 
 /** The rules switched on by the thresholds whose readout is among `absent`, each with its message. */
 export function qcRulesNotApplied(absent: readonly QcField[], thresholds: QcThresholds): QcRuleNotApplied[] {
-  return RECORDING_RULES.filter(
-    (r) => absent.includes(r.field) && (thresholds[r.min] !== null || thresholds[r.max] !== null),
-  ).map((r) => {
-    const { label, unit } = READOUT_LABEL[r.field];
-    const min = thresholds[r.min];
-    const max = thresholds[r.max];
-    const limits =
-      min === null
-        ? `at most ${max} ${unit}`
-        : max === null
-          ? `at least ${min} ${unit}`
-          : `${min} to ${max} ${unit}`;
-    return {
-      rule: r.rule,
-      field: r.field,
-      label,
-      message: `The ${label} rule (${limits}) was not applied: no well has a ${label}. The other QC rules, Z′ and the fits still run.`,
-    };
-  });
+  const rules = [...RECORDING_RULES, CONTROL_CURRENT_RULE];
+  const limit = (key: keyof QcThresholds | null) => (key === null ? null : thresholds[key]);
+  return rules
+    .filter((r) => absent.includes(r.field) && (limit(r.min) !== null || limit(r.max) !== null))
+    .map((r) => {
+      const { label, unit } = READOUT_LABEL[r.field];
+      const min = limit(r.min);
+      const max = limit(r.max);
+      const limits =
+        min === null
+          ? `at most ${max} ${unit}`
+          : max === null
+            ? `at least ${min} ${unit}`
+            : `${min} to ${max} ${unit}`;
+      return {
+        rule: r.rule,
+        field: r.field,
+        label,
+        message: `The ${label} rule (${limits}) was not applied: no well has a ${label}. The other QC rules, Z′ and the fits still run.`,
+      };
+    });
 }

@@ -7,6 +7,12 @@ import type { RawValue, WellRole } from './well';
 export interface QcWell extends Record<QcField, RawValue> {
   wellId: string;
   role: WellRole;
+  /**
+   * The fractional block as the file gives it directly, instead of the current after compound: present
+   * (a number, or null when missing) only for such readouts. The compound current is then not read, a
+   * missing block fails the well, and a vehicle well's run-down is its block.
+   */
+  givenBlock?: RawValue;
 }
 
 export type QcReasonCode =
@@ -56,8 +62,10 @@ function checkWell(well: QcWell, t: QcThresholds, absent: ReadonlySet<QcField>):
   const reasons: QcReason[] = [];
   const read = (field: QcField, needed: boolean): number | null =>
     needed && !absent.has(field) ? numeric(well, field, reasons) : null;
+  const blockGiven = well.givenBlock !== undefined;
   const control = read('controlCurrent_pA', true);
-  const compound = read('compoundCurrent_pA', true);
+  const compound = blockGiven ? null : read('compoundCurrent_pA', true);
+  const givenBlock = blockGiven ? numericBlock(well.givenBlock, reasons) : null;
   const seal = read(
     'sealResistance_GOhm',
     t.sealResistanceMin_GOhm !== null || t.sealResistanceMax_GOhm !== null,
@@ -112,14 +120,13 @@ function checkWell(well: QcWell, t: QcThresholds, absent: ReadonlySet<QcField>):
       `Capacitance ${capacitance} pF is outside the range ${t.capacitanceMin_pF ?? '–'} to ${t.capacitanceMax_pF ?? '–'} pF.`,
     );
   }
-  if (
-    well.role === 'vehicle' &&
-    control !== null &&
-    compound !== null &&
-    control !== 0 &&
-    t.vehicleRundownMax_fraction !== null
-  ) {
-    const rundown = 1 - compound / control;
+  const rundown =
+    givenBlock !== null
+      ? givenBlock
+      : control !== null && compound !== null && control !== 0
+        ? 1 - compound / control
+        : null;
+  if (well.role === 'vehicle' && rundown !== null && t.vehicleRundownMax_fraction !== null) {
     if (rundown > t.vehicleRundownMax_fraction) {
       say(
         'vehicle_rundown',
@@ -144,6 +151,23 @@ function numeric(well: QcWell, field: QcField, reasons: QcReason[]): number | nu
       code: 'non_numeric_value',
       field,
       message: `The ${label} (${JSON.stringify(String(value))}) is not a number in ${unit}.`,
+    });
+    return null;
+  }
+  return value;
+}
+
+/** A block given directly as a finite number, or null after recording why it is missing or not a number. */
+function numericBlock(value: RawValue, reasons: QcReason[]): number | null {
+  if (value === null || value === undefined || (typeof value === 'string' && value.trim() === '')) {
+    reasons.push({ code: 'missing_value', field: null, message: 'The block is missing.' });
+    return null;
+  }
+  if (typeof value !== 'number' || !Number.isFinite(value)) {
+    reasons.push({
+      code: 'non_numeric_value',
+      field: null,
+      message: `The block (${JSON.stringify(String(value))}) is not a number.`,
     });
     return null;
   }
