@@ -9,7 +9,14 @@ import {
   type ImportField,
   type UnitField,
 } from './import-fields';
-import { columnMappingDraftSchema, type ColumnMapping, type ColumnMappingInput } from './mapping-schema';
+import {
+  columnMappingDraftSchema,
+  type ColumnMapping,
+  type ColumnMappingInput,
+  type SheetLayout,
+} from './mapping-schema';
+import { keyValuePairs } from './plate-facts';
+import { findGridBlocks, findWideTargets, reshapeSheet } from './reshape-table';
 import { columnLetter, normaliseLabel } from './normalise-text';
 import { blockScaleOfHeader } from './block-scale';
 import { readText } from './read-cell';
@@ -55,9 +62,69 @@ const NAN_ROWS = 3;
  */
 export function guessMapping(
   sheet: SheetData,
-  options: { headerRow?: number; base?: ColumnMappingInput } = {},
+  options: { headerRow?: number; base?: ColumnMappingInput; layout?: SheetLayout['kind'] } = {},
 ): MappingGuess {
-  const headerRow = options.headerRow ?? findHeaderRow(sheet.rows);
+  const given = options.base?.layout ? columnMappingDraftSchema.parse(options.base) : null;
+  const layout = given
+    ? { layout: given.layout, headerRow: options.headerRow ?? given.headerRow }
+    : guessLayout(sheet, options.headerRow, options.layout);
+  if (layout.layout.kind === 'long') return guessTable(sheet, options.headerRow ?? layout.headerRow, options);
+  // A wide or grid sheet: the columns are guessed on the long table read from it (reshape-table.ts).
+  const headerRow = options.headerRow ?? layout.headerRow;
+  const reshaped = reshapeSheet(sheet, {
+    layout: layout.layout,
+    headerRow,
+    rows: columnMappingDraftSchema.parse(options.base ?? {}).rows,
+  });
+  if (!reshaped?.ok) return guessTable(sheet, headerRow, options);
+  const guess = guessTable(reshaped.table.sheet, 1, options);
+  guess.mapping = { ...guess.mapping, headerRow, layout: layout.layout };
+  return guess;
+}
+
+/** The layouts a sheet can be read in, the one guessed first: grids, else wide target blocks, else long. */
+export function guessLayouts(sheet: SheetData): { layout: SheetLayout; headerRow: number }[] {
+  const found: { layout: SheetLayout; headerRow: number }[] = [];
+  const { blocks } = findGridBlocks(sheet);
+  if (blocks.length >= 2) {
+    const headerRow = blocks[0]!.titleRow + 1;
+    // Key/value lines above the grids whose key names a field ("Target") become columns of every well.
+    const constants = keyValuePairs(sheet, headerRow - 1)
+      .filter((pair) => matchHeaders([pair.key]).length > 0)
+      .map((pair) => pair.key);
+    found.push({ layout: { kind: 'grid', constants }, headerRow });
+  }
+  const headerRow = findHeaderRow(sheet.rows);
+  // A target prefix names no field itself ("Compound current" is not the block of a target "Compound").
+  const targets = findWideTargets(
+    sheet.rows[headerRow - 1] ?? [],
+    (rest) => matchHeaders([rest]).some((c) => (PER_TARGET_FIELDS as readonly string[]).includes(c.field)),
+    (prefix) => matchHeaders([prefix]).length === 0,
+  );
+  if (targets.length > 0) found.push({ layout: { kind: 'wide', targets }, headerRow });
+  found.push({ layout: { kind: 'long' }, headerRow });
+  return found;
+}
+
+/** The fields a wide sheet's column block gives once per target. */
+const PER_TARGET_FIELDS = ['controlCurrent', 'compoundCurrent', 'block'] as const;
+
+function guessLayout(
+  sheet: SheetData,
+  headerRow: number | undefined,
+  kind: SheetLayout['kind'] | undefined,
+): { layout: SheetLayout; headerRow: number } {
+  if (headerRow !== undefined && kind === undefined) return { layout: { kind: 'long' }, headerRow };
+  const layouts = guessLayouts(sheet);
+  return layouts.find((l) => kind === undefined || l.layout.kind === kind) ?? layouts.at(-1)!;
+}
+
+/** Guesses the columns of a long table whose header is row `headerRow`. */
+function guessTable(
+  sheet: SheetData,
+  headerRow: number,
+  options: { base?: ColumnMappingInput },
+): MappingGuess {
   const headers = sheet.rows[headerRow - 1] ?? [];
   const matched = matchHeaders(headers);
   const columns: Partial<Record<ImportField, string>> = {};

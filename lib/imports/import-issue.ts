@@ -21,7 +21,8 @@ export type ImportIssueCode =
   | 'missing_concentration'
   | 'duplicate_readout'
   | 'inconsistent_well'
-  | 'conflicting_value';
+  | 'conflicting_value'
+  | 'unreadable_layout';
 
 /** A column as people find it: its letter and its header text (null when the header cell is blank). */
 export interface IssueColumn {

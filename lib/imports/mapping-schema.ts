@@ -51,6 +51,22 @@ const columnsSchema = z.object(
   Object.fromEntries(IMPORT_FIELDS.map((field) => [field, header])) as Record<ImportField, typeof header>,
 );
 
+/**
+ * How the sheet lays out its wells (lib/imports/reshape-table.ts). `long`: one row per well and target.
+ * `wide`: one row per well with a block of columns per target, the block's headers opening with the
+ * target as the file writes it ("SCN9A I0 (pA)", "SCN9A block"). `grid`: plate-shaped blocks, one per
+ * readout, each under a title with column numbers above and row letters beside it, starting at the
+ * header row; `constants` are keys of the key/value lines above the grids ("Target | Nav 1.7") read as
+ * a column holding that value in every well.
+ */
+export const layoutSchema = z
+  .discriminatedUnion('kind', [
+    z.object({ kind: z.literal('long') }),
+    z.object({ kind: z.literal('wide'), targets: z.array(valueText).min(1).max(50) }),
+    z.object({ kind: z.literal('grid'), constants: z.array(valueText).max(20).default([]) }),
+  ])
+  .default({ kind: 'long' });
+
 /** A column mapping as it is stored (version 2), before defaults. */
 const mappingObjectSchema = z.object({
   version: z.literal(2).default(2),
@@ -77,7 +93,12 @@ const mappingObjectSchema = z.object({
       words: z.array(valueText).max(20).default([]),
     })
     .prefault({}),
-  /** 1-based row number of the header row, as the spreadsheet shows it. */
+  /** How the sheet lays out its wells; older mappings are long. */
+  layout: layoutSchema,
+  /**
+   * 1-based row number of the header row, as the spreadsheet shows it; for grids, the row of the first
+   * grid's title (key/value lines above it, the grids from there down).
+   */
   headerRow: z.int().min(1).max(1000).default(1),
   columns: columnsSchema.prefault({}),
   /** Units of each quantity when the header or a unit column does not say otherwise. */
@@ -212,4 +233,5 @@ export type ColumnMapping = z.output<typeof mappingObjectSchema>;
 /** A mapping as sent or stored: version 2 with defaults left out (a version 1 mapping parses too). */
 export type ColumnMappingInput = z.input<typeof mappingObjectSchema>;
 export type FactLocator = z.output<typeof factLocatorSchema>;
+export type SheetLayout = z.output<typeof layoutSchema>;
 export type ImportTemplate = z.output<typeof importTemplateSchema>;

@@ -13,6 +13,7 @@ import { decideBlockScale } from './block-scale';
 import { formatForWellCount } from './plate-format';
 import { isSummaryRow, isUnitsRow } from './skip-rows';
 import { roleChoiceForRow, unknownRoleValues } from './value-map';
+import { fileRowOf, placeIssue, reshapeSheet } from './reshape-table';
 import type { Cell, SheetData } from './spreadsheet-types';
 
 /** The screen's names a sheet is checked against, and an optional plate format. */
@@ -77,6 +78,8 @@ export function validatePlateSheet(
   options: ValidatePlateOptions,
 ): PlatePreview {
   const mapping = columnMappingDraftSchema.parse(mappingInput);
+  // A wide or grid sheet is read as a long table first (reshape-table.ts), its issues placed on the file.
+  if (mapping.layout.kind !== 'long') return validateReshaped(sheet, mapping, options);
   const headerRow = mapping.headerRow;
   const finish = (
     rows: PreviewRow[],
@@ -159,6 +162,57 @@ export function validatePlateSheet(
   const decision = checkPlateRows(rows, sheet.name, columns, options.plateFormat, mapping.application);
   const plate = decision.format === null ? null : buildPlate(rows, decision.format, decision.source);
   return finish(rows, [], columns, plate);
+}
+
+/**
+ * Validates the long table read from a wide or grid sheet, then moves every issue, row list and
+ * whole-file problem to the file's own rows and cells. Preview rows keep the table's row numbers (a row
+ * per well and target), which name the readouts; their issues name the file's cells.
+ */
+function validateReshaped(
+  sheet: SheetData,
+  mapping: ColumnMapping,
+  options: ValidatePlateOptions,
+): PlatePreview {
+  const reshaped = reshapeSheet(sheet, mapping)!;
+  const noRows = { emptyWells: 0, skippedRows: [] };
+  if (!reshaped.ok) {
+    const base = { sheet: sheet.name, headerRow: mapping.headerRow, columns: {}, rows: [], plate: null };
+    return summarise({ ...base, ...noRows, issues: reshaped.issues }, (p) => fileProblemsOf(p, mapping));
+  }
+  const { table } = reshaped;
+  const inner = validatePlateSheet(
+    table.sheet,
+    {
+      ...mapping,
+      layout: { kind: 'long' },
+      headerRow: 1,
+      rows: { ...mapping.rows, unitsRow: table.kind === 'wide' ? mapping.rows.unitsRow : 'no' },
+    },
+    options,
+  );
+  const place = (issue: ImportIssue) => placeIssue(issue, table);
+  const fileRows = (rows: number[]) => [...new Set(rows.map((r) => fileRowOf(r, table)))];
+  const rows = inner.rows.map((row) => ({ ...row, issues: row.issues.map(place) }));
+  const sheetIssues = inner.issues.slice(0, inner.issues.length - inner.rows.flatMap((r) => r.issues).length);
+  const placed = summarise(
+    {
+      sheet: sheet.name,
+      headerRow: mapping.headerRow,
+      columns: inner.columns,
+      rows,
+      issues: sheetIssues.map(place),
+      plate: inner.plate,
+      emptyWells: inner.emptyWells,
+      skippedRows: inner.skippedRows.map((s) => ({ ...s, row: fileRowOf(s.row, table) })),
+    },
+    (p) => fileProblemsOf(p, mapping),
+  );
+  return {
+    ...placed,
+    unknownCompounds: placed.unknownCompounds.map((c) => ({ ...c, rows: fileRows(c.rows) })),
+    unknownTargets: placed.unknownTargets.map((t) => ({ ...t, rows: fileRows(t.rows) })),
+  };
 }
 
 /**
@@ -266,6 +320,7 @@ const SHEET_CODES = new Set<ImportIssueCode>([
   'no_data_rows',
   'missing_column',
   'duplicate_header',
+  'unreadable_layout',
 ]);
 
 function whatToDo(issue: ImportIssue, mapping: ColumnMapping, headerRow: number): string {
@@ -283,6 +338,10 @@ function whatToDo(issue: ImportIssue, mapping: ColumnMapping, headerRow: number)
         return `On the mapping step, choose the column that holds the ${field}${orTarget}. If the export has no such column, set the instrument to write it: Gatewell cannot store a plate without the ${field}.`;
       }
       return `On the mapping step, choose the column of this sheet that holds the ${field}, or check the header row (now row ${headerRow}).`;
+    case 'unreadable_layout':
+      return mapping.layout.kind === 'grid'
+        ? 'Each plate grid needs a title above its column numbers and rows lettered from A, all grids of one size; correct the export, or choose how the sheet is laid out on the mapping step.'
+        : 'Every target needs its block of columns, each header opening with the target as the file writes it; correct the export, or choose how the sheet is laid out on the mapping step.';
     default:
       return 'Correct this on the mapping step, or in the export if the mapping cannot.';
   }
