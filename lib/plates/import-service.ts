@@ -16,6 +16,7 @@ import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
 import type { PlateFormat } from '@/lib/domain/plate-formats';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
+import { layoutHeaderCells } from '@/lib/imports/reshape-table';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import type { QcRuleNotApplied } from '@/lib/science/qc/qc-rules';
 import { queueImportNotices } from '@/lib/signoff/import-notice';
@@ -280,7 +281,8 @@ export async function commitImport(
     };
     let importTemplateId: string | null = null;
     if (request.templateName) {
-      const headerCells = file.sheets.find((s) => s.name === request.sheet)?.rows[mapping.headerRow - 1];
+      const chosen = file.sheets.find((s) => s.name === request.sheet);
+      const headerCells = chosen && layoutHeaderCells(chosen, mapping.layout, mapping.headerRow);
       const template = await saveTemplate(
         actor,
         { name: request.templateName, mapping, headerCells: headerCells ?? null },

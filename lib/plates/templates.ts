@@ -5,6 +5,7 @@ import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { headerFingerprint } from '@/lib/imports/fingerprint';
+import { layoutHeaderCells } from '@/lib/imports/reshape-table';
 import {
   columnMappingDraftSchema,
   importTemplateSchema,
@@ -161,7 +162,8 @@ export function matchTemplate(
     const named = template.mapping.wellSheet;
     const ordered = [...sheets].sort((a, b) => Number(b.name === named) - Number(a.name === named));
     for (const sheet of ordered) {
-      if (headerFingerprint(sheet.rows[template.mapping.headerRow - 1]) === template.fingerprint)
+      const { layout, headerRow } = template.mapping;
+      if (headerFingerprint(layoutHeaderCells(sheet, layout, headerRow)) === template.fingerprint)
         return { template, sheet: sheet.name };
     }
   }

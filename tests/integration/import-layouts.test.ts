@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import * as XLSX from 'xlsx';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import type { ColumnMappingInput } from '@/lib/imports/mapping-schema';
@@ -24,8 +25,14 @@ interface Importable {
   name: string;
   /** Header of each field's column in the file. */
   columns: ColumnMappingInput['columns'];
-  /** Whether the file's target words are the screen's (up to case and punctuation), or one target is named. */
-  targets: 'column' | 'fixed';
+  /**
+   * Whether the file's target words are the screen's (up to case and punctuation), or one target is named,
+   * or the target column holds the file's own words, mapped to the screen's targets.
+   */
+  targets: 'column' | 'fixed' | 'mapped';
+  /** How a wide or grid sheet is laid out, and its header row (a grid's: the first grid's title). */
+  layout?: ColumnMappingInput['layout'];
+  headerRow?: number;
 }
 
 const IMPORTABLE: Importable[] = [
@@ -133,6 +140,83 @@ const IMPORTABLE: Importable[] = [
 ];
 
 /**
+ * Layouts read through the reshape step (lib/imports/reshape-table.ts): a column block per target, and
+ * plate-shaped grids whose "Target" line above the grids is read as a column of every well. The grids'
+ * QC columns are their blocks' titles; the first grid's title is in row 4, under "Plate", "Target" and
+ * a blank line.
+ */
+const RESHAPED: Importable[] = [
+  {
+    name: 'wide-fraction-block',
+    targets: 'mapped',
+    layout: { kind: 'wide', targets: ['SCN9A', 'KCNQ2'] },
+    columns: {
+      well: 'Well',
+      role: 'Treatment',
+      compound: 'Compound',
+      concentration: 'Conc (µM)',
+      target: 'Target',
+      controlCurrent: 'I0 (pA)',
+      block: 'block',
+    },
+  },
+  {
+    name: 'grid-96-tsv',
+    targets: 'mapped',
+    layout: { kind: 'grid', constants: ['Target'] },
+    headerRow: 4,
+    columns: {
+      well: 'Well',
+      role: 'Layout',
+      compound: 'Compound',
+      concentration: 'Concentration (µM)',
+      target: 'Target',
+      controlCurrent: 'Peak current before (pA)',
+      compoundCurrent: 'Peak current after (pA)',
+      sealResistance: 'Seal (GΩ)',
+      seriesResistance: 'Series resistance (MΩ)',
+      capacitance: 'Capacitance (pF)',
+    },
+  },
+  {
+    name: 'grid-384-xlsx',
+    targets: 'mapped',
+    layout: { kind: 'grid', constants: ['Target'] },
+    headerRow: 4,
+    columns: {
+      well: 'Well',
+      role: 'Well content',
+      compound: 'Substance',
+      concentration: 'Dose (nM)',
+      target: 'Target',
+      controlCurrent: 'I pre (nA)',
+      compoundCurrent: 'I post (nA)',
+      sealResistance: 'R seal (MΩ)',
+      seriesResistance: 'R series (MΩ)',
+      capacitance: 'C slow (pF)',
+    },
+  },
+  {
+    name: 'grid-1536-csv',
+    targets: 'mapped',
+    layout: { kind: 'grid', constants: ['Target'] },
+    headerRow: 4,
+    columns: {
+      well: 'Well',
+      role: 'Role map',
+      compound: 'Compound map',
+      concentration: 'Concentration map (mM)',
+      target: 'Target',
+      controlCurrent: 'Control peak (pA)',
+      compoundCurrent: 'Treated peak (pA)',
+      sealResistance: 'Seal resistance (GΩ)',
+      seriesResistance: 'Access resistance (MΩ)',
+      capacitance: 'Membrane capacitance (pF)',
+    },
+  },
+];
+
+/**
  * Cumulative application: QC and the IC50s are checked as for the others, but not yet that each CI holds
  * the truth (see the test at the end).
  */
@@ -153,16 +237,22 @@ const CUMULATIVE: Importable = {
 
 /** The mapping of a layout: the test's columns, the QC columns and units from the file's facts. */
 function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInput {
-  const readBack = facts.readBack as TableReadBack;
   const targets = Object.keys(facts.targetWords) as Target[];
   const { units } = facts;
+  // A table's QC columns come from the file's facts; a grid's are the test's own (its blocks' titles).
+  const table = facts.readBack.shape === 'table' ? (facts.readBack as TableReadBack) : null;
   return {
-    headerRow: readBack.headerRow,
+    ...(importable.layout ? { layout: importable.layout } : {}),
+    headerRow: importable.headerRow ?? table!.headerRow,
     columns: {
+      ...(table
+        ? {
+            sealResistance: table.sealResistance,
+            seriesResistance: table.seriesResistance,
+            capacitance: table.capacitance,
+          }
+        : {}),
       ...importable.columns,
-      sealResistance: readBack.sealResistance,
-      seriesResistance: readBack.seriesResistance,
-      capacitance: readBack.capacitance,
     },
     units: {
       concentration: units.concentration,
@@ -174,6 +264,11 @@ function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInpu
       ...(units.block ? { block: units.block } : {}),
     },
     fixedTarget: importable.targets === 'fixed' ? targets[0]! : null,
+    // The file's own target words, mapped to the screen's targets.
+    targetValues:
+      importable.targets === 'mapped'
+        ? Object.fromEntries(targets.map((target) => [facts.targetWords[target]!, target]))
+        : {},
     // The file's way of writing a missing value, where Gatewell does not read it so by default.
     missing: { notANumber: facts.missingMarker === 'NaN' },
     // The file's own words for the roles, in the role column or as the compound identifier.
@@ -188,6 +283,35 @@ function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInpu
       zeroConcentration: false,
     },
   };
+}
+
+/**
+ * Another file of the same layout: one decimal value of the data written one
+ * more, under the same name, so that its bytes, not its layout, differ from the file imported before.
+ */
+function secondFile(file: ReturnType<ReturnType<typeof layout>['write']>) {
+  const bump = (value: string) => String(Number(value) + 1);
+  let bytes: Uint8Array;
+  if (file.facts.kind === 'xlsx') {
+    const book = XLSX.read(file.bytes, { type: 'array' });
+    const sheet = book.Sheets[file.facts.plates[0]!.sheet]!;
+    const address = Object.keys(sheet).find((key) => {
+      const cell = sheet[key] as XLSX.CellObject | undefined;
+      return !key.startsWith('!') && cell?.t === 'n' && !Number.isInteger(cell.v);
+    })!;
+    const cell = sheet[address] as XLSX.CellObject;
+    sheet[address] = { t: 'n', v: Number(bump(String(cell.v))) };
+    bytes = new Uint8Array(XLSX.write(book, { type: 'array', bookType: 'xlsx' }) as ArrayBuffer);
+  } else {
+    const text = new TextDecoder().decode(file.bytes);
+    const changed = text.replace(
+      /([\t,])(\d+\.\d+)(?=[\t,\r\n])/,
+      (_all, sep: string, n: string) => sep + bump(n),
+    );
+    expect(changed).not.toBe(text);
+    bytes = new TextEncoder().encode(changed);
+  }
+  return { bytes, filename: file.filename, mediaType: file.mediaType, facts: file.facts };
 }
 
 describe('invented export layouts through the import service', () => {
@@ -222,7 +346,7 @@ describe('invented export layouts through the import service', () => {
   afterAll(() => db().close());
 
   /** Imports a layout's file and checks QC, every IC50 within ±15 % and (with `ci`) its CI holding the truth. */
-  async function importAndCheck(importable: Importable) {
+  async function importAndCheck(importable: Importable, templateName?: string) {
     const file = layout(importable.name).write();
     const { facts } = file;
     const [plate] = facts.plates;
@@ -243,6 +367,7 @@ describe('invented export layouts through the import service', () => {
       sheet: plate!.sheet,
       mapping,
       label: plate!.label,
+      templateName,
     });
     await fitsCurrent(plateId);
 
@@ -280,7 +405,7 @@ describe('invented export layouts through the import service', () => {
       expect(fit!.ic50 / truth.ic50_uM, label).toBeGreaterThanOrEqual(0.85);
       expect(fit!.ic50 / truth.ic50_uM, label).toBeLessThanOrEqual(1.15);
     }
-    return { fits, facts };
+    return { fits, facts, mapping };
   }
 
   /** Each truth's IC50 lies inside its fit's 95 % CI. */
@@ -296,6 +421,35 @@ describe('invented export layouts through the import service', () => {
   test.each(IMPORTABLE)(
     '$name imports with no edit: QC flags exactly the bad wells and every measurable IC50 is recovered',
     async (importable) => expectCisHoldTruth(await importAndCheck(importable)),
+  );
+
+  test.each(RESHAPED)(
+    '$name imports through the reshape step (QC, IC50s and CIs), and its template reads a second file',
+    async (importable) => {
+      const name = `${importable.name} layout`;
+      const imported = await importAndCheck(importable, name);
+      expectCisHoldTruth(imported);
+      const { mapping } = imported;
+      const second = secondFile(layout(importable.name).write());
+      const [plate] = second.facts.plates;
+      const targets = Object.keys(second.facts.targetWords) as Target[];
+      const screenId = screens[targets.join('+')]!;
+      const { bytes, filename, mediaType } = second;
+      const inspection = await inspectUpload(biologist, { screenId, bytes, filename, mediaType });
+      expect(inspection.duplicateOf).toBeNull();
+      expect(inspection.recognised?.name).toBe(name);
+      expect(inspection.recognised?.sheet).toBe(plate!.sheet);
+      expect(inspection.recognised?.mapping.layout).toEqual(mapping.layout);
+      const preview = await previewImport(biologist, {
+        draftId: inspection.draftId!,
+        sheet: inspection.recognised!.sheet,
+        mapping: inspection.recognised!.mapping,
+      });
+      expect(preview.fileProblems).toEqual([]);
+      expect(preview.issues.filter((i) => i.severity === 'error').map((i) => i.message)).toEqual([]);
+      expect(preview.plate?.wells.length).toBe(plate!.wellCount);
+      expect(preview.plate?.targets.sort()).toEqual([...targets].sort());
+    },
   );
 
   // The CIs of this layout are not checked: the applications of one cell share its run-down, so their
