@@ -25,6 +25,8 @@ export interface Inspection {
     values: Record<string, string[]>;
     /** Plate facts found where the guess locates them. */
     facts: FoundFacts;
+    /** The layouts the sheet can be read in, the guessed first: each one's mapping and its table's headers. */
+    layouts?: { mapping: ColumnMapping; headers: string[]; values: Record<string, string[]> }[];
   }[];
   /** A saved template whose header fingerprint matches one of the file's sheets, applied by the wizard. */
   recognised: {

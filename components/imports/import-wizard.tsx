@@ -7,6 +7,7 @@ import { PLATE_FACT_LABEL, type PlateFact } from '@/lib/imports/import-fields';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
 import { emptyFileMessage } from '@/lib/imports/upload-messages';
 import { postImportStep, type Inspection, type Preview } from './import-api';
+import { LayoutChoice, tableOf } from './layout-choice';
 import { MappingStep } from './mapping-step';
 import { PlateFactsForm } from './plate-facts-form';
 import { PreviewStep } from './preview-step';
@@ -368,12 +369,17 @@ export function ImportWizard({
               are applied.
             </p>
           ) : null}
+          <LayoutChoice sheet={current} mapping={mapping} onChange={setMapping} />
           <div className="overflow-x-auto">
-            <MappingStep headers={current.headers} mapping={mapping} onChange={setMapping} />
+            <MappingStep
+              headers={tableOf(current, mapping).headers}
+              mapping={mapping}
+              onChange={setMapping}
+            />
           </div>
           <ValueMaps
-            headers={current.headers}
-            values={current.values}
+            headers={tableOf(current, mapping).headers}
+            values={tableOf(current, mapping).values}
             mapping={mapping}
             onChange={setMapping}
             targets={screens.find((s) => s.id === screenId)?.targets ?? []}

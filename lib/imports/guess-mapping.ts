@@ -253,3 +253,41 @@ export function distinctColumnValues(sheet: SheetData, headerRow: number): Recor
 function columnIndex(letter: string): number {
   return [...letter].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0) - 1;
 }
+
+/** The table the mapping step maps: its headers, first rows and each column's distinct values. */
+export interface TableView {
+  headers: string[];
+  sample: Cell[][];
+  values: Record<number, string[]>;
+}
+
+/** A way to read a sheet (long, wide or grid), with its guessed mapping and the table it gives. */
+export interface LayoutView extends TableView {
+  mapping: ColumnMapping;
+}
+
+/**
+ * The table a mapping reads from a sheet: the sheet itself below its header row, or the long table read
+ * from a wide or grid sheet (reshape-table.ts), whose headers the mapping step offers.
+ */
+export function tableView(
+  sheet: SheetData,
+  mapping: Pick<ColumnMapping, 'layout' | 'headerRow' | 'rows'>,
+): TableView {
+  const reshaped = reshapeSheet(sheet, mapping);
+  const table = reshaped?.ok ? reshaped.table.sheet : sheet;
+  const headerRow = reshaped?.ok ? 1 : mapping.headerRow;
+  return {
+    headers: (table.rows[headerRow - 1] ?? []).map((cell) => (cell === null ? '' : String(cell))),
+    sample: table.rows.slice(headerRow, headerRow + 5),
+    values: distinctColumnValues(table, headerRow),
+  };
+}
+
+/** Every layout the sheet can be read in, the guessed one first, each with its mapping and table. */
+export function layoutViews(sheet: SheetData): LayoutView[] {
+  return guessLayouts(sheet).map(({ layout }) => {
+    const { mapping } = guessMapping(sheet, { layout: layout.kind });
+    return { mapping, ...tableView(sheet, mapping) };
+  });
+}

@@ -12,7 +12,16 @@ export type PlateFacts = Partial<Record<PlateFact, string>>;
 
 /** Keys (normalised) that name each fact; the first that a file uses is guessed. */
 export const FACT_KEYS: Record<PlateFact, readonly string[]> = {
-  barcode: ['barcode', 'platebarcode', 'plateid', 'platename', 'platelabel', 'barcodeid', 'platecode'],
+  barcode: [
+    'barcode',
+    'platebarcode',
+    'plateid',
+    'platename',
+    'platelabel',
+    'barcodeid',
+    'platecode',
+    'plate',
+  ],
   runDate: ['rundate', 'date', 'experimentdate', 'recordingdate', 'acquisitiondate', 'runstart', 'started'],
   cellLine: ['cellline', 'cells', 'celltype', 'line'],
   temperature: ['temperature', 'temp', 'recordingtemperature', 'bathtemperature'],

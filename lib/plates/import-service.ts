@@ -4,7 +4,13 @@ import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { knownCompoundNames } from '@/lib/compounds/aliases';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { distinctColumnValues, guessMapping, type MappingGuess } from '@/lib/imports/guess-mapping';
+import {
+  guessMapping,
+  layoutViews,
+  tableView,
+  type LayoutView,
+  type MappingGuess,
+} from '@/lib/imports/guess-mapping';
 import {
   columnMappingDraftSchema,
   columnMappingSchema,
@@ -68,6 +74,8 @@ export interface SheetInspection {
   values: Record<number, string[]>;
   /** The plate facts found where the guess locates them. */
   facts: PlateFacts;
+  /** The layouts the sheet can be read in (long, wide, grid), the guessed one first, for the mapping step. */
+  layouts: LayoutView[];
 }
 
 /** The upload read and parsed, once per request: the parse worker's result, or the one it was given before. */
@@ -320,15 +328,18 @@ export function inspectSheets(sheets: SheetData[]): SheetInspection[] {
     // Plate facts outside the table (issue 18): barcode-like keys on other sheets or above the header.
     const located = guessFactLocators(sheets, sheet.name, headerRow);
     guess.mapping = { ...guess.mapping, facts: located.facts };
+    // A wide or grid sheet is mapped as the long table read from it (lib/imports/reshape-table.ts).
+    const { headers, sample, values } = tableView(sheet, guess.mapping);
     return {
       name: sheet.name,
       rowCount: sheet.rows.length,
       headerRow,
-      headers: (sheet.rows[headerRow - 1] ?? []).map((cell) => (cell === null ? '' : String(cell))),
-      sample: sheet.rows.slice(headerRow, headerRow + 5),
+      headers,
+      sample,
       guess,
-      values: distinctColumnValues(sheet, headerRow),
+      values,
       facts: located.found,
+      layouts: layoutViews(sheet),
     };
   });
 }
