@@ -3,7 +3,7 @@ import { guessMapping } from '@/lib/imports/guess-mapping';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
 import { guessFactLocators, type PlateFacts } from '@/lib/imports/plate-facts';
 import type { SheetData } from '@/lib/imports/spreadsheet-types';
-import { distinctColumnValues } from '@/lib/imports/guess-mapping';
+import { tableView } from '@/lib/imports/guess-mapping';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import type { QcRuleNotApplied } from '@/lib/science/qc/qc-rules';
 import { qcRulesNotApplied, readoutsAbsentFromEveryWell } from '@/lib/science/qc/qc-rules';
@@ -102,11 +102,19 @@ export function defaultRulesNotApplied(preview: PlatePreview): QcRuleNotApplied[
   );
 }
 
-/** The distinct values of a mapped column as the file writes them, in the order first written. */
-function columnValues(sheet: SheetData, preview: PlatePreview, field: 'target' | 'concentrationUnit') {
+/**
+ * The distinct values of a mapped column as the file writes them, in the order first written (of the
+ * table the mapping reads: a wide or grid sheet's long table, lib/imports/reshape-table.ts).
+ */
+function columnValues(
+  sheet: SheetData,
+  preview: PlatePreview,
+  field: 'target' | 'concentrationUnit',
+  mapping: ColumnMapping,
+) {
   const column = preview.columns[field];
   if (!column) return [];
-  return distinctColumnValues(sheet, preview.headerRow)[column.index] ?? [];
+  return tableView(sheet, mapping).values[column.index] ?? [];
 }
 
 /** What a check of the file found, in plain values (`unregisteredCompounds` null when offline). */
@@ -132,8 +140,10 @@ export function importFacts(input: {
   if (!preview.fileProblems.length && rowErrors.length > ERROR_LIMIT)
     errors.push(`… and ${rowErrors.length - ERROR_LIMIT} more row errors.`);
   if (preview.fileProblems.length === 0 && !preview.plate) errors.push('The sheet holds no wells.');
-  const unitValues = columnValues(input.sheet, preview, 'concentrationUnit');
-  const targets = mapping.fixedTarget ? [mapping.fixedTarget] : columnValues(input.sheet, preview, 'target');
+  const unitValues = columnValues(input.sheet, preview, 'concentrationUnit', mapping);
+  const targets = mapping.fixedTarget
+    ? [mapping.fixedTarget]
+    : columnValues(input.sheet, preview, 'target', mapping);
   return {
     file: input.filename,
     sheet: input.sheet.name,
