@@ -369,7 +369,16 @@ export function ImportWizard({
             </p>
           ) : null}
           <div className="overflow-x-auto">
-            <MappingStep headers={current.headers} mapping={mapping} onChange={setMapping} />
+            <MappingStep
+              headers={current.headers}
+              mapping={mapping}
+              onChange={setMapping}
+              sample={{
+                rows: current.sample,
+                headerRow: current.headerRow,
+                guessed: current.guess.mapping,
+              }}
+            />
           </div>
           <ValueMaps
             headers={current.headers}
