@@ -21,24 +21,24 @@ type Reading = Pick<ColumnMapping, 'rows' | 'wellNames' | 'application' | 'missi
 };
 
 const UNITS_ROW_CHOICES: { value: ColumnMapping['rows']['unitsRow']; label: string }[] = [
-  { value: 'guess', label: 'Guess: skip it when every filled cell is a unit' },
-  { value: 'yes', label: 'Skip it: it holds units, not a well' },
-  { value: 'no', label: 'Read it: it is a well' },
+  { value: 'guess', label: 'Guess: skip it if it holds only units' },
+  { value: 'yes', label: 'Skip it: it holds units' },
+  { value: 'no', label: 'Read it as a well' },
 ];
 const WELL_NAME_CHOICES: { value: ColumnMapping['wellNames']; label: string }[] = [
-  { value: 'guess', label: 'Guess: a whole number is a running number, else a position' },
+  { value: 'guess', label: 'Guess from the values' },
   { value: 'label', label: 'By position, like A1 or B03' },
-  { value: 'index', label: 'By a running number along the rows (A1 = 1, A2 = 2 …)' },
+  { value: 'index', label: 'By running number (A1 = 1, A2 = 2 …)' },
 ];
 const APPLICATION_CHOICES: { value: ColumnMapping['application']; label: string }[] = [
   { value: 'guess', label: 'Guess from the rows' },
   { value: 'single', label: 'One concentration per well' },
-  { value: 'cumulative', label: 'Several concentrations in turn on one cell, a row each' },
+  { value: 'cumulative', label: 'Several in turn on one cell' },
 ];
 const BLOCK_CHOICES: { value: ColumnMapping['units']['block']; label: string }[] = [
-  { value: 'guess', label: 'Guess from the header and the values' },
-  { value: 'fraction', label: 'A fraction (0.5 is half blocked)' },
-  { value: 'percent', label: 'Percent inhibition (50 is half blocked)' },
+  { value: 'guess', label: 'Guess from header and values' },
+  { value: 'fraction', label: 'A fraction (0.5 = half blocked)' },
+  { value: 'percent', label: 'Percent inhibition (50 = half)' },
 ];
 
 const UNIT_KINDS: QuantityKind[] = ['concentration', 'current', 'sealResistance', 'capacitance'];
@@ -260,6 +260,9 @@ export function ReadingSettings({
             ))}
           </select>
           {guessedNote(seen.wellNames)}
+          <p className="mt-1 text-xs text-ink-500">
+            The guess reads a whole number as a running number along the rows, anything else as a position.
+          </p>
         </div>
         <div>
           <label htmlFor="reading-application" className="gw-label">
@@ -279,7 +282,7 @@ export function ReadingSettings({
           </select>
           <p className="mt-1 text-xs text-ink-500">
             The guess reads rows of one well and target that differ only in concentration as one cell given
-            several concentrations.
+            several concentrations in turn, a row each.
           </p>
         </div>
         <div className="space-y-2">

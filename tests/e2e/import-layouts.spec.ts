@@ -156,12 +156,22 @@ async function expectTruth(page: Page, plateId: string, file: LayoutFile) {
 
 /** Stores the checked plate and returns its id from the plate page it opens. */
 async function storePlate(page: Page): Promise<string> {
-  const answer = page.waitForResponse((r) => new URL(r.url()).pathname === '/api/imports/commit');
+  // The commit's answer tells the import job's stages line by line, then the plain answer; it is read on
+  // its way to the page, whose navigation to the plate would otherwise take its body away.
+  const commit = '**/api/imports/commit';
+  let answer: { contentType: string; body: string } | null = null;
+  await page.route(commit, async (route) => {
+    const response = await route.fetch();
+    const body = await response.text();
+    answer = { contentType: response.headers()['content-type'] ?? '', body };
+    await route.fulfill({ response, body });
+  });
   await page.getByRole('button', { name: 'Store plate' }).click();
-  // The commit's answer tells the import job's stages line by line, then the plain answer.
-  const response = await answer;
-  expect(response.headers()['content-type']).toContain('application/x-ndjson');
-  const lines = (await response.text())
+  await page.waitForURL(/\/plates\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+  await page.unroute(commit);
+  const { contentType, body } = answer!;
+  expect(contentType).toContain('application/x-ndjson');
+  const lines = body
     .split('\n')
     .filter((l) => l.trim() !== '')
     .map((l) => JSON.parse(l) as { stage?: string; status?: number; body?: { plateId?: string } });
@@ -171,7 +181,7 @@ async function storePlate(page: Page): Promise<string> {
   expect(stages).toEqual([...stages].sort());
   const last = lines.at(-1)!;
   expect(last.status).toBe(201);
-  await page.waitForURL(`**/plates/${last.body!.plateId}`);
+  expect(page.url()).toMatch(new RegExp(`/plates/${last.body!.plateId}$`));
   return last.body!.plateId!;
 }
 
