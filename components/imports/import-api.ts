@@ -95,3 +95,116 @@ export async function postImportStep<T>(
   }
   return json;
 }
+
+/** Where a piece of import work stands, as the wizard shows it (import-progress.tsx). */
+export type WorkStage = 'uploading' | 'reading' | 'checking' | 'queued' | 'taking' | 'storing' | 'fitting';
+export interface WorkProgress {
+  /** The work under way: reading the file (inspect), checking every row (preview) or storing the plate. */
+  work: 'inspect' | 'preview' | 'commit';
+  stage: WorkStage;
+  /** Percent of the file sent, while uploading (the browser counts the bytes). */
+  percent?: number;
+}
+
+/** The error of an answer that is not 2xx, with the server's message and the fields it named. */
+function answerError(status: number, json: { message?: string; details?: unknown; fields?: unknown }) {
+  const fields = json.fields as Record<string, string[]> | undefined;
+  const fieldText = fields ? Object.values(fields).flat().join(' ') : '';
+  const message = [json.message ?? `The server answered ${status}.`, fieldText].filter(Boolean).join(' ');
+  return new ImportRequestError(message, json.details);
+}
+
+/**
+ * Sends the file to inspect with the upload's progress: `onProgress` hears the percent sent (the browser
+ * counts the bytes), then that the server is reading the file once every byte is sent.
+ */
+export function inspectWithProgress<T>(
+  fields: Record<string, string>,
+  file: File,
+  onProgress: (progress: WorkProgress) => void,
+): Promise<T> {
+  const body = new FormData();
+  body.set('file', file);
+  for (const [key, value] of Object.entries(fields)) body.set(key, value);
+  return new Promise<T>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', '/api/imports/inspect');
+    xhr.responseType = 'text';
+    onProgress({ work: 'inspect', stage: 'uploading', percent: 0 });
+    xhr.upload.onprogress = (event) => {
+      if (event.lengthComputable && event.total > 0)
+        onProgress({
+          work: 'inspect',
+          stage: 'uploading',
+          percent: Math.min(100, Math.floor((event.loaded / event.total) * 100)),
+        });
+    };
+    xhr.upload.onload = () => onProgress({ work: 'inspect', stage: 'reading' });
+    xhr.onerror = () => reject(new Error('The upload failed: the server could not be reached.'));
+    xhr.onabort = () => reject(new Error('The upload was stopped.'));
+    xhr.onload = () => {
+      let json: T & { message?: string; details?: unknown; fields?: unknown };
+      try {
+        json = JSON.parse(xhr.responseText) as typeof json;
+      } catch {
+        return reject(new Error(`The server answered ${xhr.status}.`));
+      }
+      if (xhr.status < 200 || xhr.status >= 300) reject(answerError(xhr.status, json));
+      else resolve(json);
+    };
+    xhr.send(body);
+  });
+}
+
+/**
+ * Posts the commit and follows the import job's stages as the server tells them (one JSON line each:
+ * queued for a worker, reading the kept file, checking every row, storing the plate), then returns the
+ * answer's JSON or throws its refusal, as postImportStep does.
+ */
+export async function commitWithProgress<T>(
+  fields: Record<string, string>,
+  onProgress: (progress: WorkProgress) => void,
+): Promise<T> {
+  const body = new FormData();
+  for (const [key, value] of Object.entries(fields)) body.set(key, value);
+  onProgress({ work: 'commit', stage: 'queued' });
+  const response = await fetch('/api/imports/commit', {
+    method: 'POST',
+    body,
+    headers: { accept: 'application/x-ndjson, application/json' },
+  });
+  const streamed = response.headers.get('content-type')?.includes('application/x-ndjson');
+  if (!streamed || !response.body) {
+    const json = (await response.json().catch(() => ({}))) as T & { message?: string; details?: unknown };
+    if (!response.ok) throw answerError(response.status, json);
+    return json;
+  }
+  const STAGE: Record<string, WorkStage> = {
+    queued: 'queued',
+    reading: 'taking',
+    checking: 'checking',
+    storing: 'storing',
+  };
+  const reader = response.body.pipeThrough(new TextDecoderStream()).getReader();
+  let buffered = '';
+  type Answer = { status: number; body: T & { message?: string; details?: unknown } };
+  let answer: Answer | null = null;
+  for (;;) {
+    const { value, done } = await reader.read();
+    if (value) buffered += value;
+    const lines = buffered.split('\n');
+    buffered = done ? '' : lines.pop()!;
+    for (const line of lines.filter((l) => l.trim() !== '')) {
+      const message = JSON.parse(line) as { stage?: string; status?: number; body?: unknown };
+      if (message.stage && STAGE[message.stage]) onProgress({ work: 'commit', stage: STAGE[message.stage]! });
+      if (typeof message.status === 'number') answer = message as Answer;
+    }
+    if (done) break;
+  }
+  if (!answer)
+    throw new Error(
+      'The connection ended before the server answered; open the plate list to see whether the plate was stored.',
+    );
+  if (answer.status < 200 || answer.status >= 300) throw answerError(answer.status, answer.body);
+  return answer.body;
+}

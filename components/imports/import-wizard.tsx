@@ -6,7 +6,15 @@ import { useState } from 'react';
 import { PLATE_FACT_LABEL, type PlateFact } from '@/lib/imports/import-fields';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
 import { emptyFileMessage } from '@/lib/imports/upload-messages';
-import { postImportStep, type Inspection, type Preview } from './import-api';
+import {
+  commitWithProgress,
+  inspectWithProgress,
+  postImportStep,
+  type Inspection,
+  type Preview,
+  type WorkProgress,
+} from './import-api';
+import { ImportProgress } from './import-progress';
 import { LayoutChoice, tableOf } from './layout-choice';
 import { MappingStep } from './mapping-step';
 import { PlateFactsForm } from './plate-facts-form';
@@ -75,6 +83,10 @@ export function ImportWizard({
   const [label, setLabel] = useState(resume?.choice.label ?? '');
   const [templateName, setTemplateName] = useState('');
   const [busy, setBusy] = useState(false);
+  /** The stage of the work under way (upload, reading, checking, the import job's stages). */
+  const [progress, setProgress] = useState<WorkProgress | null>(null);
+  /** Set once the plate is stored and its page is opening: nothing more to start here. */
+  const [leaving, setLeaving] = useState(false);
   const [error, setError] = useState<string | null>(null);
   /** Set when the server answered that a worker is still storing the plate (202). */
   const [storing, setStoring] = useState<string | null>(null);
@@ -94,6 +106,7 @@ export function ImportWizard({
       return null;
     } finally {
       setBusy(false);
+      setProgress(null);
     }
   }
 
@@ -133,7 +146,7 @@ export function ImportWizard({
   async function inspect() {
     if (!file) return setError('Choose a file first.');
     if (file.size === 0) return setError(emptyFileMessage(file.name));
-    const result = await run(() => postImportStep<Inspection>('inspect', { screenId }, file));
+    const result = await run(() => inspectWithProgress<Inspection>({ screenId }, file, setProgress));
     if (!result) return;
     setInspection(result);
     setLabelTouched(false);
@@ -165,7 +178,10 @@ export function ImportWizard({
   });
 
   async function check() {
-    const result = await run(() => postImportStep<Preview>('preview', fields()));
+    const result = await run(() => {
+      setProgress({ work: 'preview', stage: 'checking' });
+      return postImportStep<Preview>('preview', fields());
+    });
     if (result) {
       setPreview(result);
       if (result.facts.barcode && !labelTouched) setLabel(result.facts.barcode);
@@ -175,15 +191,18 @@ export function ImportWizard({
 
   async function store() {
     const result = await run(() =>
-      postImportStep<{ href: string; plateId?: string; message?: string }>('commit', {
-        ...fields(),
-        label,
-        templateName,
-      }),
+      commitWithProgress<{ href: string; plateId?: string; message?: string }>(
+        { ...fields(), label, templateName },
+        setProgress,
+      ),
     );
     if (!result) return;
-    if (result.plateId) router.push(result.href);
-    else setStoring(result.message ?? 'A worker is still storing this plate.');
+    if (result.plateId) {
+      // Stored: the fits run on a worker now, and the plate's page follows them.
+      setLeaving(true);
+      setProgress({ work: 'commit', stage: 'fitting' });
+      router.push(result.href);
+    } else setStoring(result.message ?? 'A worker is still storing this plate.');
   }
 
   const current = inspection?.sheets.find((s) => s.name === sheet);
@@ -213,6 +232,7 @@ export function ImportWizard({
             <select
               id="import-screen"
               className="gw-input mt-1"
+              disabled={busy}
               value={screenId}
               onChange={(e) => {
                 setScreenId(e.target.value);
@@ -235,6 +255,7 @@ export function ImportWizard({
               type="file"
               accept=".xlsx,.xls,.ods,.csv,.tsv,.txt,text/csv,text/tab-separated-values"
               className="gw-input mt-1"
+              disabled={busy}
               onChange={(e) => {
                 const chosen = e.target.files?.[0] ?? null;
                 setFile(chosen);
@@ -265,6 +286,7 @@ export function ImportWizard({
             >
               {busy ? 'Reading…' : 'Read file'}
             </button>
+            <ImportProgress progress={progress} />
           </div>
         </section>
       ) : null}
@@ -375,6 +397,11 @@ export function ImportWizard({
               headers={tableOf(current, mapping).headers}
               mapping={mapping}
               onChange={setMapping}
+              sample={{
+                rows: current.sample,
+                headerRow: current.headerRow,
+                guessed: current.guess.mapping,
+              }}
             />
           </div>
           <ValueMaps
@@ -395,13 +422,14 @@ export function ImportWizard({
             onChange={setMapping}
           />
           <div className="flex gap-3">
-            <button type="button" className="gw-button-quiet" onClick={() => setStep(0)}>
+            <button type="button" className="gw-button-quiet" disabled={busy} onClick={() => setStep(0)}>
               Back
             </button>
             <button type="button" className="gw-button" disabled={busy} onClick={check}>
               {busy ? 'Checking…' : 'Check every row'}
             </button>
           </div>
+          <ImportProgress progress={progress} />
         </section>
       ) : null}
 
@@ -469,18 +497,28 @@ export function ImportWizard({
               />
             </div>
             <div className="flex items-end gap-3">
-              <button type="button" className="gw-button-quiet" onClick={() => setStep(1)}>
+              <button
+                type="button"
+                className="gw-button-quiet"
+                disabled={busy || leaving}
+                onClick={() => setStep(1)}
+              >
                 Back to mapping
               </button>
               <button
                 type="button"
                 className="gw-button"
-                disabled={busy || storing !== null || !preview.ok || !label.trim()}
+                disabled={busy || leaving || storing !== null || !preview.ok || !label.trim()}
                 onClick={store}
               >
-                {busy ? 'Storing…' : 'Store plate'}
+                {busy || leaving ? 'Storing…' : 'Store plate'}
               </button>
             </div>
+            {progress?.work === 'commit' ? (
+              <div className="sm:col-span-3">
+                <ImportProgress progress={progress} />
+              </div>
+            ) : null}
             {storing ? (
               <p role="status" className="text-sm text-ink-700 sm:col-span-3">
                 {storing}{' '}

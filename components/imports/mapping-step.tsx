@@ -10,6 +10,7 @@ import {
 } from '@/lib/imports/import-fields';
 import type { ColumnMapping } from '@/lib/imports/mapping-schema';
 import { UNIT_LABEL, unitsOf, type QuantityKind } from '@/lib/imports/units';
+import { ReadingSettings, type ReadingSample } from './reading-settings';
 
 const UNIT_KIND: Record<UnitField, QuantityKind> = {
   concentration: 'concentration',
@@ -28,10 +29,13 @@ export function MappingStep({
   headers,
   mapping,
   onChange,
+  sample,
 }: {
   headers: string[];
   mapping: ColumnMapping;
   onChange: (next: ColumnMapping) => void;
+  /** Rows under the header and the guess, for the reading section's hints. */
+  sample?: ReadingSample;
 }) {
   const named = headers.filter((h) => h.trim() !== '');
   const setColumn = (field: ImportField, value: string) =>
@@ -104,6 +108,13 @@ export function MappingStep({
           );
         })}
       </tbody>
+      <tfoot>
+        <tr>
+          <td colSpan={3} className="pt-3">
+            <ReadingSettings headers={headers} mapping={mapping} sample={sample} onChange={onChange} />
+          </td>
+        </tr>
+      </tfoot>
     </table>
   );
 }

@@ -31,6 +31,14 @@ import { importJobKey, removeUploadNoWorkerHolds, removeUploadsOfEndedJobs } fro
  * or the refusal with its reasons.
  */
 
+/**
+ * The stages of an import a worker has taken, in order; the job's progress counts them (done = the stage's
+ * number, total = 3), so that the request waiting for it can say which one it is in.
+ */
+export const IMPORT_STAGES = ['reading', 'checking', 'storing'] as const;
+/** Where an import stands while a request waits for it: queued for a worker, or one of IMPORT_STAGES. */
+export type ImportStage = 'queued' | (typeof IMPORT_STAGES)[number];
+
 /** How long a request waits for a worker to take its import before withdrawing it. */
 export const IMPORT_QUEUE_WAIT_MS = 60_000;
 /** How long it then waits for an import a worker is storing (the job's own limit is 120 s). */
@@ -86,8 +94,12 @@ async function keepAndQueue(
  */
 export async function runQueuedImport(
   payload: PlateImportPayload,
-  job: Pick<JobContext, 'id'>,
+  job: Pick<JobContext, 'id'> & Partial<Pick<JobContext, 'progress'>>,
 ): Promise<string> {
+  // Written beside the transaction (the job's row is not locked until the end): a lost report loses nothing.
+  const stage = (name: (typeof IMPORT_STAGES)[number]) =>
+    job.progress?.(IMPORT_STAGES.indexOf(name) + 1, IMPORT_STAGES.length).catch(() => undefined);
+  await stage('reading');
   try {
     return await db().transaction(async (transaction) => {
       const upload = await ImportUpload.findByPk(payload.uploadId, {
@@ -106,7 +118,10 @@ export async function runQueuedImport(
           'forbidden',
           'The account that uploaded this file is no longer active; nothing was stored.',
         );
-      const { plateId } = await commitImport(actor, request, { transaction });
+      const { plateId } = await commitImport(actor, request, {
+        transaction,
+        onStage: async (name) => void (await stage(name)),
+      });
       const message = `Stored as plate ${request.label}.`;
       await removeUpload(payload.uploadId, transaction);
       // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
@@ -198,8 +213,19 @@ async function readJob(jobId: string, deadline: number): Promise<ComputeJob> {
 export async function awaitImport(
   jobId: string,
   waits: { queuedMs?: number; runningMs?: number } = {},
+  onStage?: (stage: ImportStage) => void,
 ): Promise<ImportResult> {
   db();
+  let told: ImportStage | null = null;
+  const tell = (job: ComputeJob) => {
+    const stage: ImportStage | null =
+      job.state === 'queued'
+        ? 'queued'
+        : job.state === 'running'
+          ? (IMPORT_STAGES[Math.max(0, Math.min(job.done, IMPORT_STAGES.length) - 1)] ?? 'reading')
+          : null;
+    if (stage !== null && stage !== told && onStage) onStage((told = stage));
+  };
   const queuedMs = waits.queuedMs ?? IMPORT_QUEUE_WAIT_MS;
   const started = Date.now();
   let runningSince: number | null = null;
@@ -207,6 +233,7 @@ export async function awaitImport(
     const deadline =
       runningSince === null ? started + queuedMs : runningSince + (waits.runningMs ?? IMPORT_RUN_WAIT_MS);
     const job = await readJob(jobId, deadline);
+    tell(job);
     if (job.state === 'done' && job.plateId) return { state: 'stored', plateId: job.plateId };
     if (job.state === 'failed' || job.state === 'done') throw refusal(job);
     if (job.state === 'running') runningSince ??= Date.now();

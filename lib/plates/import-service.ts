@@ -261,7 +261,11 @@ export type CommitRequest = PreviewRequest & {
 export async function commitImport(
   actor: Actor,
   request: CommitRequest,
-  options: { transaction?: Transaction } = {},
+  options: {
+    transaction?: Transaction;
+    /** Told when the import moves on to checking the rows and to storing the plate (the job's progress). */
+    onStage?: (stage: 'checking' | 'storing') => Promise<void>;
+  } = {},
 ): Promise<{ plateId: string }> {
   requireCapability(actor, 'importPlates');
   // A file sent with the request is read before the transaction opens (the screen checked first).
@@ -269,6 +273,7 @@ export async function commitImport(
     'draftId' in request ? request : await loadScreen(request.screenId).then(() => readOnce(request));
   const store = async (transaction: Transaction) => {
     const { file, targets } = await openSource(actor, source, transaction);
+    await options.onStage?.('checking');
     const preview = await checkSheet(file, targets, request, transaction);
     if (!preview.ok || !preview.plate) {
       // A whole-file problem comes first, with what to do; otherwise the first row error.
@@ -283,6 +288,7 @@ export async function commitImport(
         { fileProblems: preview.fileProblems, issues: preview.issues.slice(0, 200) },
       );
     }
+    await options.onStage?.('storing');
     const mapping: ColumnMapping = {
       ...columnMappingSchema.parse(request.mapping),
       wellSheet: request.sheet,

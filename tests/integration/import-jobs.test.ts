@@ -55,6 +55,26 @@ describe('imports as jobs', () => {
     return demoCommitRequest(biologist, screens, file, { ...(label ? { label } : {}), source });
   }
 
+  test('the waiting request is told the stages the worker reaches, in order', async () => {
+    await stopJobWorkers(); // no worker yet: the import waits in the queue first
+    const jobId = await queueImport(biologist, await request('nav-96-plate-01.xlsx', 'JOB-STAGES'));
+    const told: string[] = [];
+    const waiting = awaitImport(jobId, {}, (stage) => told.push(stage));
+    await until(() => told.length > 0);
+    expect(told).toEqual(['queued']);
+    await startJobWorkers({ sweep: false });
+    expect((await waiting).state).toBe('stored');
+    // Polling may pass over a short stage, but never goes back or repeats one.
+    const order = ['queued', 'reading', 'checking', 'storing'];
+    expect(told.map((stage) => order.indexOf(stage))).toEqual(
+      [...new Set(told.map((stage) => order.indexOf(stage)))].sort(),
+    );
+    expect(told.every((stage) => order.includes(stage))).toBe(true);
+    // The worker reported all three of its stages on the job (done counts them).
+    const job = await ComputeJob.findByPk(jobId, { rejectOnEmpty: true });
+    expect({ done: job.done, total: job.total }).toEqual({ done: 3, total: 3 });
+  });
+
   test('a queued import is stored by a worker, which removes the upload and puts the plate on the job', async () => {
     const jobId = await queueImport(biologist, await request('nav-96-plate-01.xlsx', 'JOB-P01'));
     expect(await uploads()).toBe(1);

@@ -186,6 +186,44 @@ function strings(file: LayoutFile): string[] {
   );
 }
 
+/** Reads a written file back and checks its wells, bad wells, barcode and words against its facts. */
+function expectFactsHold(file: LayoutFile): void {
+  const { facts } = file;
+  const wells = wellsOf(file);
+  const cells = strings(file);
+  for (const plateFacts of facts.plates) {
+    const found = wells.get(plateFacts.label)!;
+    expect(found.size, plateFacts.label).toBe(plateFacts.wellCount);
+    expect(plateFacts.wellCount).toBe(
+      recordPlate(Object.values(PLATES).find((p) => p.barcode === plateFacts.label)!).wells.length,
+    );
+    const failures = [...found].flatMap(([well, values]) => {
+      const failure = failureIn(values, facts);
+      return failure === null ? [] : [{ well, failure }];
+    });
+    expect(failures.sort((a, b) => a.well.localeCompare(b.well))).toEqual(
+      plateFacts.badWells
+        .map((b) => ({ well: b.well, failure: b.kind }))
+        .sort((a, b) => a.well.localeCompare(b.well)),
+    );
+    // The plate's barcode is in the file: in a cell, a sheet name or the file name.
+    expect(
+      cells.some((c) => c.includes(plateFacts.label)) ||
+        plateFacts.sheet === plateFacts.label ||
+        file.filename.startsWith(plateFacts.label),
+      plateFacts.label,
+    ).toBe(true);
+  }
+  for (const word of Object.values(facts.roleWords)) expect(cells, word).toContain(word);
+  for (const word of Object.values(facts.targetWords))
+    expect(
+      cells.some((c) => c.includes(word!)),
+      word,
+    ).toBe(true);
+  // Three different words for the three roles.
+  expect(new Set(Object.values(facts.roleWords)).size).toBe(3);
+}
+
 describe('export layouts written from the one truth', () => {
   test('there are at least eight layouts, each with its own name, file and one-line description', () => {
     expect(LAYOUTS.length).toBeGreaterThanOrEqual(8);
@@ -211,44 +249,46 @@ describe('export layouts written from the one truth', () => {
 
   test.each(LAYOUTS.map((l) => [l.name]))(
     '%s: read back by the workbook library, its wells, bad wells and words are what its facts say',
-    (name) => {
-      const file = layout(name).write();
-      const { facts } = file;
-      const wells = wellsOf(file);
-      const cells = strings(file);
-      for (const plateFacts of facts.plates) {
-        const found = wells.get(plateFacts.label)!;
-        expect(found.size, plateFacts.label).toBe(plateFacts.wellCount);
-        expect(plateFacts.wellCount).toBe(
-          recordPlate(Object.values(PLATES).find((p) => p.barcode === plateFacts.label)!).wells.length,
-        );
-        const failures = [...found].flatMap(([well, values]) => {
-          const failure = failureIn(values, facts);
-          return failure === null ? [] : [{ well, failure }];
-        });
-        expect(failures.sort((a, b) => a.well.localeCompare(b.well))).toEqual(
-          plateFacts.badWells
-            .map((b) => ({ well: b.well, failure: b.kind }))
-            .sort((a, b) => a.well.localeCompare(b.well)),
-        );
-        // The plate's barcode is in the file: in a cell, a sheet name or the file name.
-        expect(
-          cells.some((c) => c.includes(plateFacts.label)) ||
-            plateFacts.sheet === plateFacts.label ||
-            file.filename.startsWith(plateFacts.label),
-          plateFacts.label,
-        ).toBe(true);
-      }
-      for (const word of Object.values(facts.roleWords)) expect(cells, word).toContain(word);
-      for (const word of Object.values(facts.targetWords))
-        expect(
-          cells.some((c) => c.includes(word!)),
-          word,
-        ).toBe(true);
-      // Three different words for the three roles.
-      expect(new Set(Object.values(facts.roleWords)).size).toBe(3);
-    },
+    (name) => expectFactsHold(layout(name).write()),
   );
+
+  test.each(
+    (
+      [
+        ['semicolon-decimal-comma', 'p96b'],
+        ['tab-text-titled', 'p96a'],
+        ['xls-workbook', 'p96a'],
+        ['units-row-summary', 'p96b'],
+        ['percent-inhibition-index', 'p96b'],
+        ['long-comma-csv', 'p1536'],
+        ['ods-workbook', 'p384'],
+        ['xlsx-run-1536', 'p96a'],
+        ['wide-fraction-block', 'p96b'],
+      ] as const
+    ).map(([name, other]) => [name, other]),
+  )("%s written for plate %s: the same header, that plate's wells, bad wells and name", (name, other) => {
+    const own = layout(name).write();
+    const file = layout(name).write({ plate: other });
+    expectFactsHold(file);
+    const [plateFacts] = file.facts.plates;
+    expect(plateFacts!.label).toBe(PLATES[other].barcode);
+    expect(plateFacts!.format).toBe(PLATES[other].format);
+    expect(file.filename).not.toBe(own.filename);
+    expect(file.filename).toContain(PLATES[other].barcode.slice(-4));
+    // The header row, what a template recognises a layout by, is the layout's own.
+    const headerOf = (f: LayoutFile) => {
+      const { headerRow } = f.facts.readBack as TableReadBack;
+      return readBack(f)[f.facts.plates[0]!.sheet]![headerRow - 1];
+    };
+    expect(headerOf(file)).toEqual(headerOf(own));
+    // Asked for its own plate, a layout writes its own file, byte for byte.
+    const ownPlate = Object.entries(PLATES).find(([, p]) => p.barcode === own.facts.plates[0]!.label)![0];
+    expect(Buffer.compare(layout(name).write({ plate: ownPlate as never }).bytes, own.bytes)).toBe(0);
+  });
+
+  test('a layout of one concentration per well refuses a plate of cumulative application', () => {
+    expect(() => layout('semicolon-decimal-comma').write({ plate: 'cumulative96' })).toThrow(RangeError);
+  });
 
   test('cumulative application writes the whole series, ascending, as rows of one well', () => {
     const file = layout('cumulative-rows').write();
