@@ -11,8 +11,12 @@
 // numbers (seeded, so every run reads the same file).
 // Peak memory is the process's peak resident set size (getrusage maxrss): the main thread, the parse
 // worker thread and the fit, which here runs in this process (in the app a job worker process runs it; its
-// share is in the fit stage's figure). PostgreSQL's own processes are not counted.
+// share is in the fit stage's figure). PostgreSQL's own processes are not counted in it. Beside the wall
+// times it prints the CPU each stage took in this process and in the PostgreSQL backend serving it (read
+// from /proc when the server runs on this machine): on a shared machine the wall times also wait for a core.
+import { readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
+import { QueryTypes } from 'sequelize';
 import { loadActor } from '@/lib/auth/load-actor';
 import { db } from '@/lib/db';
 import { guessMapping } from '@/lib/imports/guess-mapping';
@@ -134,13 +138,31 @@ const peakRssMb = () => process.resourceUsage().maxRSS / 1024;
 
 /** CPU of this process (every thread) spent in each stage, ms; kept beside the wall times. */
 const cpuMs: Record<string, number[]> = {};
+/** CPU of the PostgreSQL backend serving the bench's transaction in each stage, ms (when it runs here). */
+const backendMs: Record<string, number[]> = {};
+let backendPid: number | null = null;
+
+/** user + system CPU of a process of this machine, ms (/proc/PID/stat, clock ticks of 10 ms); null if unreadable. */
+function processCpuMs(pid: number | null): number | null {
+  if (pid === null) return null;
+  try {
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+    // utime and stime are fields 14 and 15 of stat(5), here 12 and 13 after the command name.
+    return (Number(fields[11]) + Number(fields[12])) * 10;
+  } catch {
+    return null;
+  }
+}
 
 async function timed<T>(stage: Stage, work: () => Promise<T> | T): Promise<[T, number]> {
   const cpu = process.cpuUsage();
+  const backend = processCpuMs(backendPid);
   const start = performance.now();
   const result = await work();
   const used = process.cpuUsage(cpu);
   (cpuMs[stage] ??= []).push((used.user + used.system) / 1000);
+  const backendAfter = processCpuMs(backendPid);
+  if (backend !== null && backendAfter !== null) (backendMs[stage] ??= []).push(backendAfter - backend);
   return [result, performance.now() - start];
 }
 
@@ -169,6 +191,12 @@ async function once(file: BenchExport): Promise<Run> {
 
   await db()
     .transaction(async (transaction) => {
+      // The backend's process id, to read its CPU (a system function: no model says it).
+      const [backend] = await db().query<{ pid: number }>('select pg_backend_pid() as pid', {
+        transaction,
+        type: QueryTypes.SELECT,
+      });
+      backendPid = backend?.pid ?? null;
       // The bench's own screen with four targets, made here and rolled back with the rest.
       const screen = await Screen.create(
         {
@@ -276,18 +304,20 @@ async function main(): Promise<number> {
       `${first.fits} fits (${first.fitted} fitted); ${args.repeats} run${args.repeats === 1 ? '' : 's'}, writes rolled back`,
   );
   const cpuTotals = runs.map((_, i) => STAGES.reduce((sum, s) => sum + cpuMs[s]![i]!, 0));
-  const cell = (ms: number, width: number) => ms.toFixed(0).padStart(width);
+  const backendTotals = runs.map((_, i) => STAGES.reduce((sum, s) => sum + (backendMs[s]?.[i] ?? NaN), 0));
+  const cell = (ms: number, width: number) => (Number.isFinite(ms) ? ms.toFixed(0) : '–').padStart(width);
   console.log(
-    '  stage   wall ms: first run  median   CPU ms of this process: median   peak RSS after it, MB',
+    '  stage   wall ms: first run  median   CPU ms, median: this process  its PostgreSQL backend   peak RSS after it, MB',
   );
   for (const stage of STAGES)
     console.log(
       `  ${stage.padEnd(6)}  ${cell(first.ms[stage], 18)}  ${cell(median(runs.map((r) => r.ms[stage])), 6)}` +
-        `  ${cell(median(cpuMs[stage]!), 30)}  ${cell(first.peakMb[stage], 23)}`,
+        `  ${cell(median(cpuMs[stage]!), 29)}  ${cell(backendMs[stage] ? median(backendMs[stage]) : NaN, 23)}` +
+        `  ${cell(first.peakMb[stage], 23)}`,
     );
   console.log(
-    `  total   ${cell(totals[0]!, 18)}  ${cell(median(totals), 6)}  ${cell(median(cpuTotals), 30)}` +
-      '   (target < 5000 ms wall)',
+    `  total   ${cell(totals[0]!, 18)}  ${cell(median(totals), 6)}  ${cell(median(cpuTotals), 29)}` +
+      `  ${cell(median(backendTotals), 23)}   (target < 5000 ms wall)`,
   );
   // On a shared machine the wall times wait for CPU: the load average says how much (cores: os.availableParallelism()).
   console.log(
