@@ -214,7 +214,8 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
-  });
+    // The script is a fresh Node process: several seconds on a busy machine.
+  }, 120_000);
 
   test('missing optional QC columns: the check step names the rules not applied and nothing is written', async () => {
     const before = await importRowCounts();
