@@ -142,18 +142,28 @@ export function analysePlate(
 
   const groups = new Map<
     string,
-    { compoundId: string; target: string; c: number[]; b: number[]; x: boolean[] }
+    { compoundId: string; target: string; c: number[]; b: number[]; x: boolean[]; cell: string[] }
   >();
   readouts.forEach((r, i) => {
     const w = wellOf(r);
     const concentration_uM = r.concentration_uM ?? w.concentration_uM;
     if (w.role !== 'test' || !w.compoundId || concentration_uM === null) return;
     const key = fitKey(w.compoundId, r.target);
-    const group = groups.get(key) ?? { compoundId: w.compoundId, target: r.target, c: [], b: [], x: [] };
+    const group = groups.get(key) ?? {
+      compoundId: w.compoundId,
+      target: r.target,
+      c: [],
+      b: [],
+      x: [],
+      cell: [],
+    };
     const block = blockById.get(r.id) ?? null;
     group.c.push(concentration_uM);
     group.b.push(block ?? Number.NaN);
     group.x.push(!used[i] || block === null);
+    // The well is the cell: readouts of one well and target are its applications in turn (cumulative),
+    // and the fit's CI then takes the cell as the unit (lib/science/fit/cell-clusters.ts).
+    group.cell.push(w.id);
     groups.set(key, group);
   });
 
@@ -185,7 +195,7 @@ export function analysePlate(
               compoundId: g.compoundId,
               target: g.target,
               model,
-              result: fitHill({ concentration_uM: g.c, block: g.b, excluded: g.x }, { model }),
+              result: fitHill({ concentration_uM: g.c, block: g.b, excluded: g.x, cell: g.cell }, { model }),
             };
           }),
   };

@@ -216,11 +216,7 @@ const RESHAPED: Importable[] = [
   },
 ];
 
-/**
- * Cumulative application: QC and the IC50s are checked as for the others, but not yet that each CI holds
- * the truth (see the test at the end).
- */
-// Eight concentrations as rows of one cell; missing values written "NaN".
+// Cumulative application: eight concentrations as rows of one cell; missing values written "NaN".
 const CUMULATIVE: Importable = {
   name: 'cumulative-rows',
   targets: 'column',
@@ -452,10 +448,18 @@ describe('invented export layouts through the import service', () => {
     },
   );
 
-  // The CIs of this layout are not checked: the applications of one cell share its run-down, so their
-  // points are not independent and the pooled fit's 95 % CI is too narrow (GW-0003 and GW-0006 of this
-  // file fall outside theirs). Known gap, noted on issue 18; the fit must treat the cell as the unit.
-  test('cumulative-rows imports with no edit: QC flags exactly the bad wells, every IC50 within ±15 %', async () => {
-    await importAndCheck(CUMULATIVE);
+  // The applications of one cell share its run-down, so their points are not independent: the fit takes
+  // the cell as the unit for its CI (lib/science/fit/cell-clusters.ts), and each CI must hold the truth.
+  test('cumulative-rows imports with no edit: QC flags exactly the bad wells, every IC50 within ±15 % and inside its CI', async () => {
+    const checked = await importAndCheck(CUMULATIVE);
+    expectCisHoldTruth(checked);
+    // Every fit of this file took the cell as the unit: its message says so.
+    const messages = await db().query<{ message: string }>(
+      `select f.message from fits f join plates p on p.id = f.plate_id
+         where p.label = :label and f.status = 'fitted'`,
+      { replacements: { label: checked.facts.plates[0]!.label }, type: 'SELECT' as never },
+    );
+    expect(messages.length).toBeGreaterThan(0);
+    for (const { message } of messages) expect(message).toContain('cells as the unit');
   });
 });

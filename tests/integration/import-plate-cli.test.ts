@@ -139,7 +139,8 @@ describe('import in one request', () => {
     expect(twice.stdout).toMatch(
       /refused: This exact file was already imported for this screen as plate KV-P01\.\n$/,
     );
-  });
+    // Three script runs, each a fresh Node process: several seconds each on a busy machine.
+  }, 180_000);
 
   test('the script refuses an account that may not import', async () => {
     const file = join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv');
@@ -156,5 +157,5 @@ describe('import in one request', () => {
       refused: 'no enabled account with the e-mail nobody@gatewell.test',
       errors: ['no enabled account with the e-mail nobody@gatewell.test'],
     });
-  });
+  }, 120_000);
 });

@@ -1,3 +1,7 @@
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
@@ -9,6 +13,7 @@ import {
   bigCsv,
   csv,
   csvWithout,
+  csvWithRoles,
   garbage,
   GOOD_ROWS,
   HEADER,
@@ -161,6 +166,56 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     expect(error.code).toBe('invalid');
     expect(error.message).toBe(message);
   });
+
+  test('role words left unmapped are refused with one error naming each, by the service and by the script’s dry run', async () => {
+    // "Test" is a word the guess knows; "carrier" and "panel" are not, and no mapping places them.
+    const bytes = csvWithRoles('carrier', 'panel', 'Test', 'panel');
+    const expected =
+      'Sheet "roles", row 1, column B "Role": the well-role column holds words Gatewell cannot place: "carrier", "panel"; on the mapping step assign each to negative control, positive control, test or empty.';
+    const error = await refusal(bytes, 'roles.csv');
+    expect(error.code).toBe('invalid');
+    expect(error.message).toBe(`The sheet has 1 error(s); first: ${expected}`);
+
+    // The same file through scripts/import-plate.ts --dry-run --json, as a child process on this database.
+    const dir = mkdtempSync(join(tmpdir(), 'gatewell-bad-roles-'));
+    try {
+      const file = join(dir, 'roles.csv');
+      writeFileSync(file, bytes);
+      const root = resolve(__dirname, '../..');
+      const before = await importRowCounts();
+      const out = spawnSync(
+        process.execPath,
+        [
+          '--conditions=react-server',
+          '--import',
+          'tsx',
+          join(root, 'scripts', 'import-plate.ts'),
+          file,
+          '--screen',
+          'Potassium counter-screen',
+          '--as',
+          biologist.email,
+          '--dry-run',
+          '--json',
+        ],
+        { encoding: 'utf8', cwd: root, env: process.env, timeout: 120_000 },
+      );
+      expect(out.stderr).toBe('');
+      expect(out.status).toBe(1);
+      const facts = JSON.parse(out.stdout) as {
+        errors: string[];
+        wellCount: number;
+        template: string | null;
+      };
+      expect(facts.errors).toEqual([expected, 'The sheet holds no wells.']);
+      expect(facts.wellCount).toBe(0);
+      expect(facts.template).toBeNull();
+      expect(await importRowCounts()).toEqual(before);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+    // The script is a fresh Node process: several seconds on a busy machine.
+  }, 120_000);
 
   test('missing optional QC columns: the check step names the rules not applied and nothing is written', async () => {
     const before = await importRowCounts();

@@ -5,6 +5,7 @@ import { fitLeastSquares, type LeastSquaresStop } from './levenberg-marquardt';
 import { hillCurveModel } from './hill-model';
 import type { ResolvedHillFitOptions } from './hill-options';
 import { concentrationLevels, hillSearchBox, hillStartValues } from './hill-start';
+import { cellClusterCovariance, pointsShareCells } from './cell-clusters';
 
 /**
  * Stopping tolerances for Hill fits: looser than the optimiser's defaults (which serve reference
@@ -18,10 +19,12 @@ export interface HillCurveEstimate {
   iterations: number;
   /** log10(IC50 / µM). */
   log10Ic50: number;
-  /** Standard error of log10 IC50 from s²(JᵀJ)⁻¹; null when it cannot be formed. */
+  /**
+   * Standard error of log10 IC50 from `covariance`; null when it cannot be formed.
+   */
   log10Ic50Se: number | null;
   ic50_uM: number;
-  /** 95 % interval 10^(log10 IC50 ± t₀.₉₇₅,ν · SE), ν = n − p (µM); null without an SE or when it overflows. */
+  /** 95 % interval 10^(log10 IC50 ± t₀.₉₇₅,ν · SE), ν = `degreesOfFreedom` (µM); null without an SE or when it overflows. */
   ic50Ci95_uM: [number, number] | null;
   hillSlope: number;
   hillSlopeSe: number | null;
@@ -39,24 +42,36 @@ export interface HillCurveEstimate {
   residualSd: number | null;
   /** Points used. */
   n: number;
+  /** Degrees of freedom of the t quantile of the intervals and bands: n − p, or G − 1 with cells as the unit. */
   degreesOfFreedom: number;
+  /**
+   * The unit the intervals treat as independent: 'point' (s²(JᵀJ)⁻¹ on n − p degrees of freedom), or
+   * 'cell' where points share cells (cumulative application; the cluster-robust covariance on G − 1,
+   * `cell-clusters.ts`).
+   */
+  intervalUnit: 'point' | 'cell';
+  /** G, the cells behind a 'cell' interval; null for 'point'. */
+  cells: number | null;
   /** log10 IC50 ended on the edge of its search range: the data do not place it. */
   ic50AtSearchEdge: boolean;
   hillSlopeAtBound: boolean;
   /** Free parameters in fitting order [log10 IC50, Hill slope, (bottom, top)], for curves and bands. */
   parameters: number[];
-  /** s²(JᵀJ)⁻¹ of the free parameters; null when it cannot be formed. */
+  /** Covariance of the free parameters (s²(JᵀJ)⁻¹, or cluster-robust by cell); null when it cannot be formed. */
   covariance: number[][] | null;
 }
 
 /**
  * Fits the Hill equation to the given points (all used; concentrations ≥ 0 µM, at least one > 0,
  * block finite). Start values and search box come from the data, so the fit is deterministic.
+ * `cells` names the cell of each point: where some cell holds several points (cumulative application),
+ * the intervals take the cell as the unit (`cell-clusters.ts`); the estimates are the same either way.
  */
 export function fitHillCurve(
   concentration_uM: ArrayLike<number>,
   block: ArrayLike<number>,
   options: ResolvedHillFitOptions,
+  cells?: ArrayLike<string>,
 ): HillCurveEstimate {
   const levels = concentrationLevels(concentration_uM, block);
   if (levels.length === 0) throw new RangeError('a Hill fit needs at least one concentration above 0');
@@ -70,10 +85,21 @@ export function fitHillCurve(
     ...HILL_TOLERANCES,
   });
   const [log10Ic50, hillSlope, bottom = 0, top = 1] = fit.parameters as [number, number, number?, number?];
-  const se = (j: number): number | null => fit.standardErrors?.[j] ?? null;
-  const log10Ic50Se = se(0);
   const nu = fit.degreesOfFreedom;
-  const t = nu > 0 ? jStat.studentt.inv(0.975, nu) : NaN;
+  const byCell = pointsShareCells(cells);
+  // With cells as the unit and fewer than two cells (or no usable covariance) there is no interval.
+  const clustered =
+    byCell && fit.converged
+      ? cellClusterCovariance(hillCurveModel(options.model), x, block, fit.parameters, cells!)
+      : null;
+  const covariance = byCell ? (clustered?.covariance ?? null) : fit.covariance;
+  const intervalNu = byCell ? (clustered?.degreesOfFreedom ?? 0) : nu;
+  const se = (j: number): number | null => {
+    const v = covariance?.[j]?.[j];
+    return v === undefined ? null : Math.sqrt(v);
+  };
+  const log10Ic50Se = se(0);
+  const t = intervalNu > 0 ? jStat.studentt.inv(0.975, intervalNu) : NaN;
   const tss = sumNthPowerDeviations(Array.from(block), 2);
   const edge = (j: number) =>
     nearBound(fit.parameters[j]!, box.lower[j]!) || nearBound(fit.parameters[j]!, box.upper[j]!);
@@ -95,11 +121,13 @@ export function fitHillCurve(
     r2: tss > 0 ? 1 - fit.rss / tss : null,
     residualSd: nu > 0 ? Math.sqrt(fit.rss / nu) : null,
     n: block.length,
-    degreesOfFreedom: nu,
+    degreesOfFreedom: intervalNu,
+    intervalUnit: byCell ? 'cell' : 'point',
+    cells: byCell ? (clustered?.cells ?? null) : null,
     ic50AtSearchEdge: edge(0),
     hillSlopeAtBound: edge(1),
     parameters: [...fit.parameters],
-    covariance: fit.covariance,
+    covariance,
   };
 }
 

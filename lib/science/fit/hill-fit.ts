@@ -20,6 +20,11 @@ export interface HillFitInput {
   block: ArrayLike<number>;
   /** true for wells left out (QC flag or exclusion); their values are not read. @default none */
   excluded?: ArrayLike<boolean>;
+  /**
+   * The cell each point was recorded in. Points sharing a cell are applications of one cell in turn
+   * (cumulative): the CI then takes the cell as the unit (`cell-clusters.ts`). @default every point its own
+   */
+  cell?: ArrayLike<string>;
 }
 
 export interface HillFitResult {
@@ -51,7 +56,7 @@ export interface HillFitResult {
 /** Fits block(C) = bottom + (top − bottom)/(1 + (IC50/C)^n) to one compound × target and classifies the outcome. */
 export function fitHill(input: HillFitInput, options?: HillFitOptions): HillFitResult {
   const o = resolveHillFitOptions(options);
-  const { concentration_uM, block } = usedPoints(input);
+  const { concentration_uM, block, cell } = usedPoints(input);
   const levels = concentrationLevels(concentration_uM, block);
   const base = { model: o.model, n: block.length, concentrations: levels.length };
   const none = (
@@ -99,7 +104,7 @@ export function fitHill(input: HillFitInput, options?: HillFitOptions): HillFitR
   if (highest.meanBlock < o.aboveRangeBlock) {
     return aboveRange(`block at ${uM(highest.concentration_uM)} is ${percent(highest.meanBlock)}`, null);
   }
-  const fit = fitHillCurve(concentration_uM, block, o);
+  const fit = fitHillCurve(concentration_uM, block, o, cell);
   if (!fit.converged) {
     return none(
       'not_converged',
@@ -117,7 +122,7 @@ export function fitHill(input: HillFitInput, options?: HillFitOptions): HillFitR
   return {
     ...base,
     status: 'fitted',
-    message: `IC50 ${uM(fit.ic50_uM)}${fit.ic50Ci95_uM ? ` (95 % CI ${uM(fit.ic50Ci95_uM[0])} to ${uM(fit.ic50Ci95_uM[1])})` : ''}, Hill slope ${round(fit.hillSlope)}, from ${base.n} wells at ${base.concentrations} concentrations.`,
+    message: `IC50 ${uM(fit.ic50_uM)}${fit.ic50Ci95_uM ? ` (95 % CI ${uM(fit.ic50Ci95_uM[0])} to ${uM(fit.ic50Ci95_uM[1])}${fit.intervalUnit === 'cell' ? `, cells as the unit` : ''})` : ''}, Hill slope ${round(fit.hillSlope)}, from ${fit.intervalUnit === 'cell' ? `${base.n} applications to ${fit.cells ?? cellCount(cell)} cells` : `${base.n} wells`} at ${base.concentrations} concentrations.`,
     ic50_uM: fit.ic50_uM,
     ic50Ci95_uM: fit.ic50Ci95_uM,
     log10Ic50Se: fit.log10Ic50Se,
@@ -150,19 +155,27 @@ function fitFlags(fit: HillCurveEstimate, lowest_uM: number, band: readonly [num
     flags.push({
       code: 'no_confidence_interval',
       message:
-        'No confidence interval on IC50: too few wells for the free parameters, or the data do not determine them separately.',
+        fit.intervalUnit === 'cell'
+          ? 'No confidence interval on IC50: the applications come from fewer than two cells, or the data do not determine the parameters separately.'
+          : 'No confidence interval on IC50: too few wells for the free parameters, or the data do not determine them separately.',
     });
   }
   return flags;
 }
 
 /** The wells not excluded, checked: concentration finite and ≥ 0, block finite; throws RangeError naming the well index. */
-function usedPoints(input: HillFitInput): { concentration_uM: Float64Array; block: Float64Array } {
-  const { concentration_uM: c, block: b, excluded } = input;
+function usedPoints(input: HillFitInput): {
+  concentration_uM: Float64Array;
+  block: Float64Array;
+  cell: string[] | undefined;
+} {
+  const { concentration_uM: c, block: b, excluded, cell } = input;
   if (c.length !== b.length)
     throw new RangeError(`concentration_uM has ${c.length} values but block has ${b.length}`);
   if (excluded && excluded.length !== c.length)
     throw new RangeError(`excluded has ${excluded.length} values but there are ${c.length} wells`);
+  if (cell && cell.length !== c.length)
+    throw new RangeError(`cell has ${cell.length} values but there are ${c.length} wells`);
   const keep: number[] = [];
   for (let i = 0; i < c.length; i++) {
     if (excluded?.[i]) continue;
@@ -174,8 +187,11 @@ function usedPoints(input: HillFitInput): { concentration_uM: Float64Array; bloc
   return {
     concentration_uM: Float64Array.from(keep, (i) => c[i]!),
     block: Float64Array.from(keep, (i) => b[i]!),
+    cell: cell ? keep.map((i) => cell[i]!) : undefined,
   };
 }
+
+const cellCount = (cell: readonly string[] | undefined): number => new Set(cell).size;
 
 const STOP_WORDS: Partial<Record<HillCurveEstimate['stop'], string>> = {
   max_iterations: 'iteration limit reached',
