@@ -150,10 +150,10 @@ test('a plate below its Z′ limit warns beside the sign button and needs the ac
   await expect(
     form.getByText(/tick that you read (it|them) before you sign\. Nothing was signed\./).first(),
   ).toBeVisible();
-  // The history shows what the submitter acknowledged with their signature.
+  // The history shows what the verifier and the submitter acknowledged with their signatures.
   await expect(
     approver.getByRole('region', { name: 'History' }).getByText('QC warnings acknowledged when signing:'),
-  ).toBeVisible();
+  ).toHaveCount(2);
   await shot(approver, 'signoff-5-qc-warning-needs-acknowledgement');
   expect(await dbRow<{ state: string }>('select state from plates where id = $1', [plate!.id])).toEqual({
     state: 'submitted',
