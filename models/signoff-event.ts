@@ -9,6 +9,13 @@ import {
 } from 'sequelize';
 import type { PlateState } from '@/lib/domain/plate-states';
 
+/** A QC warning the signer was shown and acknowledged (lib/signoff/qc-warnings.ts). */
+export interface AcknowledgedQcWarning {
+  code: string;
+  key: string;
+  message: string;
+}
+
 /** One signed transition of a plate's state. */
 export class SignoffEvent extends Model<
   InferAttributes<SignoffEvent>,
@@ -20,6 +27,10 @@ export class SignoffEvent extends Model<
   declare fromState: PlateState;
   declare toState: PlateState;
   declare occurredAt: CreationOptional<Date>;
+  /** The round of the plate's sign-off (reworks before it); set by the database's trigger. */
+  declare round: CreationOptional<number>;
+  /** The QC warnings shown to the signer and acknowledged with the signature; empty when there were none. */
+  declare qcWarnings: CreationOptional<AcknowledgedQcWarning[]>;
 
   static initModel(sequelize: Sequelize): void {
     SignoffEvent.init(
@@ -30,6 +41,8 @@ export class SignoffEvent extends Model<
         fromState: { type: DataTypes.TEXT, allowNull: false },
         toState: { type: DataTypes.TEXT, allowNull: false },
         occurredAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+        round: { type: DataTypes.INTEGER, allowNull: true },
+        qcWarnings: { type: DataTypes.JSONB, allowNull: false, defaultValue: [], field: 'qc_warnings' },
       },
       { sequelize, tableName: 'signoff_events', underscored: true, timestamps: false },
     );

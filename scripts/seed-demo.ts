@@ -182,6 +182,8 @@ async function seedSignoff(): Promise<void> {
         action: step.action,
         password: `demo-${step.role}-pass`,
         comment: step.comment,
+        // The demo signers read the plate's QC warnings (NAV-P03's low Z′) and acknowledge them, as the panel asks.
+        acknowledgeQcWarnings: true,
       });
     }
   }

@@ -14,6 +14,12 @@ type Fields = Record<string, unknown> | null;
 const field = (record: Fields, key: string) =>
   record && record[key] !== undefined && record[key] !== null ? String(record[key]) : '';
 
+/** The QC warnings a signer acknowledged with a step (its audit event's `qcWarningsAcknowledged`). */
+const acknowledged = (entry: HistoryEntry): string[] => {
+  const list = entry.after?.qcWarningsAcknowledged;
+  return Array.isArray(list) ? list.filter((w): w is string => typeof w === 'string') : [];
+};
+
 /** What one event says, in words: a title and a line of detail. */
 function describe(entry: HistoryEntry): { title: string; detail: string } {
   const { action, before, after } = entry;
@@ -96,6 +102,16 @@ export function PlateTimeline({ entries }: { entries: HistoryEntry[] }) {
                 <p className="text-sm text-ink-950">
                   {STEP_TITLES[entry.action] ? 'Comment' : 'Reason'}: “{entry.reason}”
                 </p>
+              ) : null}
+              {acknowledged(entry).length ? (
+                <div className="text-sm text-signal-warn">
+                  QC warnings acknowledged when signing:
+                  <ul className="list-disc pl-5 text-ink-800">
+                    {acknowledged(entry).map((w) => (
+                      <li key={w}>{w}</li>
+                    ))}
+                  </ul>
+                </div>
               ) : null}
               {signed ? (
                 <p className="mt-0.5 text-xs text-ink-500">

@@ -5,6 +5,31 @@ import { FormMessage } from '@/components/forms/field';
 import type { ActionState, FormAction } from '@/lib/actions/validated-action';
 import type { SignoffAction } from '@/lib/domain/plate-states';
 
+export interface FormQcWarning {
+  key: string;
+  message: string;
+}
+
+/** The plate's QC warnings, as the sign-off panel shows them before anyone signs. */
+export function QcWarningList({ warnings }: { warnings: FormQcWarning[] }) {
+  return (
+    <div
+      role="note"
+      aria-labelledby="signoff-qc-heading"
+      className="rounded-md border border-amber-300 bg-amber-50 p-3 text-sm"
+    >
+      <p id="signoff-qc-heading" className="font-semibold text-signal-warn">
+        QC {warnings.length === 1 ? 'warning' : `warnings (${warnings.length})`}: read before you sign
+      </p>
+      <ul className="mt-1 list-disc space-y-1 pl-5 text-ink-800">
+        {warnings.map((w) => (
+          <li key={w.key}>{w.message}</li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
 export interface FormChoice {
   action: SignoffAction;
   label: string;
@@ -23,12 +48,16 @@ export function SignoffForm({
   version,
   choices,
   notYours,
+  qcWarnings,
+  qcWarningKeys,
 }: {
   action: FormAction;
   plateId: string;
   version: number;
   choices: FormChoice[];
   notYours: string | null;
+  qcWarnings: FormQcWarning[];
+  qcWarningKeys: string;
 }) {
   const [state, formAction, pending] = useActionState(action, {});
   const form = useRef<HTMLFormElement>(null);
@@ -47,7 +76,14 @@ export function SignoffForm({
         <form ref={form} onSubmit={submit} className="space-y-4" noValidate aria-label="Sign this step">
           <input type="hidden" name="plateId" value={plateId} />
           <input type="hidden" name="expectedVersion" value={version} />
-          <StepFields key={version} choices={choices} errors={state.fieldErrors ?? {}} pending={pending} />
+          <input type="hidden" name="qcWarningsShown" value={qcWarningKeys} />
+          <StepFields
+            key={version}
+            choices={choices}
+            qcWarnings={qcWarnings}
+            errors={state.fieldErrors ?? {}}
+            pending={pending}
+          />
         </form>
       ) : notYours ? (
         <p className="rounded-md border border-ink-100 bg-paper p-3 text-sm text-ink-800">{notYours}</p>
@@ -59,10 +95,12 @@ export function SignoffForm({
 
 function StepFields({
   choices,
+  qcWarnings,
   errors: e,
   pending,
 }: {
   choices: FormChoice[];
+  qcWarnings: FormQcWarning[];
   errors: NonNullable<ActionState['fieldErrors']>;
   pending: boolean;
 }) {
@@ -137,6 +175,29 @@ function StepFields({
           {e.password?.join(' ')}
         </p>
       </div>
+      {qcWarnings.length ? (
+        <div className="space-y-2">
+          <QcWarningList warnings={qcWarnings} />
+          <label className="flex items-start gap-2 text-sm text-ink-900">
+            <input
+              type="checkbox"
+              name="acknowledgeQcWarnings"
+              value="yes"
+              className="mt-0.5"
+              aria-invalid={e.acknowledgeQcWarnings?.length ? true : undefined}
+              aria-describedby="signoff-acknowledge-error"
+            />
+            <span>
+              I read {qcWarnings.length === 1 ? 'this QC warning' : 'these QC warnings'} and sign knowing{' '}
+              {qcWarnings.length === 1 ? 'it' : 'them'}; my signature records that I saw{' '}
+              {qcWarnings.length === 1 ? 'it' : 'them'}.
+            </span>
+          </label>
+          <p id="signoff-acknowledge-error" aria-live="polite" className="min-h-4 text-xs text-signal-fail">
+            {e.acknowledgeQcWarnings?.join(' ')}
+          </p>
+        </div>
+      ) : null}
       <button type="submit" className="gw-button" disabled={pending}>
         {pending ? 'Signing…' : `Sign: ${choice.label}`}
       </button>

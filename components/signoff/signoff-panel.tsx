@@ -1,7 +1,7 @@
 import { StateBadge } from '@/components/ui/state-badge';
 import type { FormAction } from '@/lib/actions/validated-action';
 import type { SignoffPanelData } from '@/lib/signoff/panel';
-import { SignoffForm } from './signoff-form';
+import { QcWarningList, SignoffForm } from './signoff-form';
 import { SignoffSteps } from './signoff-steps';
 
 const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
@@ -49,12 +49,16 @@ export function SignoffPanel({ data, action }: { data: SignoffPanelData; action:
           )}
         </p>
       </div>
+      {/* Someone who signs reads the warnings beside the sign button; anyone else reads them here. */}
+      {data.qcWarnings.length && !data.choices.length ? <QcWarningList warnings={data.qcWarnings} /> : null}
       <SignoffForm
         action={action}
         plateId={data.plateId}
         version={data.version}
         choices={data.choices}
         notYours={data.notYours}
+        qcWarnings={data.qcWarnings}
+        qcWarningKeys={data.qcWarningKeys}
       />
     </section>
   );

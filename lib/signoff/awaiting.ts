@@ -12,7 +12,10 @@ export function awaitingCondition(
   const parts: string[] = [];
   if (can(actor, 'verifyCompoundMap'))
     parts.push(`(p.state = 'imported' and p.imported_by <> :awaitingActor)`);
-  if (can(actor, 'submitPlates')) parts.push(`p.state in ('verified', 'rejected')`);
+  if (can(actor, 'submitPlates'))
+    parts.push(
+      `((p.state = 'verified' and p.verified_by is distinct from :awaitingActor) or p.state = 'rejected')`,
+    );
   if (can(actor, 'decidePlates')) {
     parts.push(
       `(p.state = 'submitted' and p.imported_by <> :awaitingActor and p.verified_by is distinct from :awaitingActor and p.submitted_by is distinct from :awaitingActor)`,

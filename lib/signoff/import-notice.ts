@@ -4,6 +4,7 @@ import type { Actor } from '@/lib/auth/roles';
 import { queueMail } from '@/lib/mail/outbox';
 import { Plate, Screen } from '@/models';
 import { noticesFor } from './notices';
+import { plateQcWarnings } from './qc-warnings';
 import { SIGNOFF_STEPS } from './steps';
 
 /** Queues, in the import's transaction, the notice to chemists that a new plate waits for verification. */
@@ -19,6 +20,7 @@ export async function queueImportNotices(
     {
       actor,
       comment: '',
+      qcWarnings: await plateQcWarnings(plate.id, transaction),
       signoffEventId: null,
       mayAct: (userId) => SIGNOFF_STEPS.verify.dutyConflict(plate, userId) === null,
       plate: {

@@ -94,6 +94,20 @@ async function users(
   return selectRecipients(where, values, transaction);
 }
 
+/** The QC warnings in a notice: read them before signing the next step. */
+function qcLines(
+  step: SignoffAction | 'import',
+  signer: string,
+  warnings: readonly { message: string }[],
+): string[] {
+  if (!warnings.length) return [];
+  const heading =
+    step === 'import'
+      ? 'QC warnings on this plate (the sign-off panel shows them before anyone signs):'
+      : `QC warnings on this plate, which ${signer} acknowledged when signing:`;
+  return ['', heading, ...warnings.map((w) => `- ${w.message}`)];
+}
+
 /**
  * The notifications of one step: to everyone of the next role who may act on the plate (`mayAct`
  * applies segregation of duties), and on a decision to the importer and submitter; never to the signer.
@@ -104,6 +118,8 @@ export async function noticesFor(
     actor: Actor;
     plate: NoticePlate;
     comment: string;
+    /** The plate's QC warnings: acknowledged by the signer of the step, or found at import. */
+    qcWarnings: readonly { message: string }[];
     signoffEventId: string | null;
     mayAct: (userId: string) => boolean;
   },
@@ -134,6 +150,7 @@ export async function noticesFor(
       '',
       `${actor.name} ${audience.done} plate ${plate.label} (${plate.screenName}).`,
       ...(context.comment ? ['', `Comment: ${context.comment}`] : []),
+      ...qcLines(step, actor.name, context.qcWarnings),
       '',
       audience.next,
       '',

@@ -5,6 +5,7 @@ import { AppError } from '@/lib/errors';
 import type { SignoffAction } from '@/lib/domain/plate-states';
 import type { PlateState } from '@/lib/domain/plate-states';
 import { plateContentSha256 } from './plate-content';
+import { plateQcWarnings, qcWarningKeys, type QcWarning } from './qc-warnings';
 import { selectLastPlateSignature, selectPanelPlate } from './queries';
 import { stepsFrom, WAITING_FOR } from './steps';
 
@@ -35,6 +36,10 @@ export interface SignoffPanelData {
   choices: SignoffChoice[];
   /** Why this person cannot sign the step the plate waits for, when that is so. */
   notYours: string | null;
+  /** The plate's QC warnings, shown before anyone signs; a signer acknowledges them. */
+  qcWarnings: QcWarning[];
+  /** Their keys, sent back with the signature so that it covers the warnings shown. */
+  qcWarningKeys: string;
 }
 
 /** The sign-off panel of a plate for this person: its state, who signed, the data hash, and what they may sign. */
@@ -47,6 +52,7 @@ export async function signoffPanel(actor: Actor, plateId: string): Promise<Signo
     verifiedBy: plate.verifiedById,
     submittedBy: plate.submittedById,
   };
+  const qcWarnings = await plateQcWarnings(plate.id);
   const steps = stepsFrom(plate.state);
   const withRole = steps.filter((step) => can(actor, step.capability));
   const allowed = withRole.filter((step) => step.dutyConflict(signers, actor.id) === null);
@@ -77,5 +83,7 @@ export async function signoffPanel(actor: Actor, plateId: string): Promise<Signo
       commentRequired,
     })),
     notYours,
+    qcWarnings,
+    qcWarningKeys: qcWarningKeys(qcWarnings),
   };
 }

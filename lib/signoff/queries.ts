@@ -186,3 +186,27 @@ export async function selectRecipients(
     },
   );
 }
+
+export interface PlateQcRow {
+  zPrimeMin: number;
+  qcSummary: {
+    target: string;
+    zPrime?: { zPrime: number | null; message?: string };
+    qcRulesNotApplied?: { rule: string; message: string }[];
+  }[];
+  targets: { id: string; name: string }[];
+}
+
+// SQL for speed: the plate's QC summary, its screen's Z′ limit and the names of its targets in one query.
+export async function selectPlateQc(
+  plateId: string,
+  transaction?: Transaction,
+): Promise<PlateQcRow | undefined> {
+  const [row] = await db().query<PlateQcRow>(
+    `select s.z_prime_min as "zPrimeMin", p.qc_summary as "qcSummary",
+            coalesce((select json_agg(json_build_object('id', t.id, 'name', t.name) order by t.name) from targets t where t.screen_id = s.id), '[]') as targets
+       from plates p join screens s on s.id = p.screen_id where p.id = :plateId`,
+    opts(plateId, transaction),
+  );
+  return row;
+}

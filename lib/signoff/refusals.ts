@@ -47,6 +47,11 @@ const DUTY_CONSTRAINTS: Record<string, string> = {
     'The database refused it: whoever decides on a plate may not have submitted it.',
   plates_verifier_independent:
     'The database refused it: the chemist who verifies a plate may not have imported it.',
+  plates_submitter_not_verifier:
+    'The database refused it: whoever submits a plate may not have verified its compound map.',
+  signoff_events_one_duty_per_round:
+    'The database refused it: you already signed another step of this plate in this round, and its verifier, submitter and approver are three different people. Nothing was signed.',
+  signoff_events_signature_of_plate: 'The database refused it: that signature is not one of this plate.',
 };
 
 /** Turns the database's own refusals (the plate lock trigger, segregation-of-duties checks) into messages for people. */

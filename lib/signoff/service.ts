@@ -13,6 +13,7 @@ import type { PlateState, SignoffAction } from '@/lib/domain/plate-states';
 import { refusalFromDatabase, refuseWrongState } from './refusals';
 import { noticesFor } from './notices';
 import { plateContent } from './plate-content';
+import { plateQcWarnings, qcWarningKeys, type QcWarning } from './qc-warnings';
 import { SIGNOFF_STEPS, stepsFrom, type SignoffStep } from './steps';
 
 export interface SignoffResult {
@@ -25,6 +26,8 @@ export interface SignoffResult {
   contentSha256: string;
   /** Notifications queued in the outbox with the transition. */
   notified: number;
+  /** The QC warnings the signer acknowledged, stored with the sign-off event. */
+  qcWarnings: QcWarning[];
 }
 
 /** The plate columns a step sets: who verified, submitted or decided; rework clears them for the next round. */
@@ -41,6 +44,30 @@ function signerColumns(
 /** Whether someone may sign whatever the plate waits for next (used to address the notifications). */
 function mayActNext(plate: Plate, userId: string): boolean {
   return stepsFrom(plate.state).some((next) => next.dutyConflict(plate, userId) === null);
+}
+
+/**
+ * A plate with QC warnings is signed only by someone who ticked that they read them, and only over the
+ * warnings they were shown (a form sends their keys back): otherwise nothing is signed.
+ */
+function requireQcAcknowledgement(
+  label: string,
+  warnings: QcWarning[],
+  input: { acknowledgeQcWarnings: boolean; qcWarningsShown?: string | undefined },
+): void {
+  if (!warnings.length) return;
+  if (input.qcWarningsShown !== undefined && input.qcWarningsShown.trim() !== qcWarningKeys(warnings)) {
+    throw new AppError(
+      'conflict',
+      `The QC warnings of plate ${label} changed after you opened it; reload the page and read them before you sign. Nothing was signed.`,
+    );
+  }
+  if (!input.acknowledgeQcWarnings) {
+    const message = `Plate ${label} has ${warnings.length === 1 ? 'a QC warning' : `${warnings.length} QC warnings`}: tick that you read ${warnings.length === 1 ? 'it' : 'them'} before you sign. Nothing was signed.`;
+    throw new AppError('invalid', message, {
+      fieldErrors: { acknowledgeQcWarnings: [message] },
+    });
+  }
 }
 
 /** States a plate reaches only with current fits (the database checks submitted and approved as well). */
@@ -78,7 +105,9 @@ async function lockForStep(
  * Signs one sign-off step of a plate in one transaction: re-verifies the password, signs the SHA-256 of
  * the plate's data as it stands, writes the sign-off event, moves the plate's state (version + 1), and
  * appends the audit event and the notifications for whoever acts next. The plate row is locked first,
- * so of two people signing at once exactly one succeeds; the other is told what happened.
+ * so of two people signing at once exactly one succeeds; the other is told what happened. The signer is
+ * always `actor`, the signed-in person: no caller names another. A plate with QC warnings needs the
+ * signer's acknowledgement, stored with the sign-off event and told in the notifications.
  */
 export async function signPlateStep(
   actor: Actor,
@@ -91,6 +120,8 @@ export async function signPlateStep(
   try {
     return await db().transaction(async (transaction) => {
       const plate = await lockForStep(actor, plateId, step, input.expectedVersion, transaction);
+      const qcWarnings = await plateQcWarnings(plate.id, transaction);
+      requireQcAcknowledgement(plate.label, qcWarnings, input);
       const content = await plateContent(plate.id, transaction);
       const signature = await signRecord(
         actor,
@@ -105,7 +136,13 @@ export async function signPlateStep(
         transaction,
       );
       const event = await SignoffEvent.create(
-        { plateId: plate.id, signatureId: signature.id, fromState: step.from, toState: step.to },
+        {
+          plateId: plate.id,
+          signatureId: signature.id,
+          fromState: step.from,
+          toState: step.to,
+          qcWarnings: qcWarnings.map(({ code, key, message }) => ({ code, key, message })),
+        },
         { transaction },
       );
       const before = {
@@ -135,6 +172,7 @@ export async function signPlateStep(
             signoffEventId: event.id,
             meaning: step.meaning,
             contentSha256: signature.contentSha256,
+            ...(qcWarnings.length ? { qcWarningsAcknowledged: qcWarnings.map((w) => w.message) } : {}),
           },
         },
         transaction,
@@ -145,6 +183,7 @@ export async function signPlateStep(
         {
           actor,
           comment: input.comment,
+          qcWarnings,
           signoffEventId: event.id,
           mayAct: (userId) => mayActNext(plate, userId),
           plate: {
@@ -167,6 +206,7 @@ export async function signPlateStep(
         signoffEventId: event.id,
         contentSha256: signature.contentSha256,
         notified,
+        qcWarnings,
       };
     });
   } catch (error) {

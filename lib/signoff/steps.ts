@@ -6,7 +6,13 @@ import {
   type SignoffAction,
 } from '@/lib/domain/plate-states';
 
-/** Who has signed what on the plate so far in this round (the plate row's *_by columns). */
+/**
+ * Who has signed what on the plate so far in this round (the plate row's *_by columns, which rework
+ * clears). Segregation of duties: in one round the verifier, the submitter and the decider are three
+ * different people, whatever roles their accounts hold; the importer neither verifies nor decides. The
+ * database keeps the same rule (CHECKs on plates, and the trigger on signoff_events of migration
+ * 20261209000200, which states the rule in full).
+ */
 export interface PlateSigners {
   importedBy: string;
   verifiedBy: string | null;
@@ -55,7 +61,10 @@ export const SIGNOFF_STEPS: Record<SignoffAction, SignoffStep> = {
     label: 'Submit for approval',
     commentRequired: false,
     meaning: 'Reviewed and submitted: the QC, exclusions and fits of this plate are ready for approval.',
-    dutyConflict: none,
+    dutyConflict: (plate, actorId) =>
+      actorId === plate.verifiedBy
+        ? 'You verified this plate’s compound map, so another biologist reviews and submits it.'
+        : null,
   },
   approve: {
     action: 'approve',

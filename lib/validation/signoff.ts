@@ -2,7 +2,11 @@ import { z } from 'zod';
 import { MAX_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
 import { signoffActionSchema } from '@/lib/domain/plate-states';
 
-/** What a person sends to sign one step: the step, the password again, a comment, the version they saw. */
+/**
+ * What a person sends to sign one step: the step, the password again, a comment, the version they saw,
+ * and, when the plate has QC warnings, their acknowledgement of them. There is no field for the signer:
+ * a signature is always the signed-in person's own.
+ */
 export const signoffRequestSchema = z
   .object({
     action: signoffActionSchema,
@@ -16,6 +20,13 @@ export const signoffRequestSchema = z
       .int()
       .positive('The form lost the plate version; reload the page.')
       .optional(),
+    /** The signer ticked that they read the plate's QC warnings (a form sends the box's value, callers true). */
+    acknowledgeQcWarnings: z
+      .union([z.boolean(), z.literal('yes'), z.literal('on'), z.literal('')])
+      .optional()
+      .transform((value) => value === true || value === 'yes' || value === 'on'),
+    /** The keys of the QC warnings the form showed (lib/signoff/qc-warnings.ts), space-separated. */
+    qcWarningsShown: z.string().max(4000).optional(),
   })
   .superRefine((input, context) => {
     if (input.action === 'reject' && input.comment.length === 0) {

@@ -131,3 +131,37 @@ test('a plate goes through sign-off as chemist, biologist and two approvers, wit
   await expect(admin.getByText('Sent', { exact: true }).first()).toBeVisible();
   await shot(admin, 'signoff-4-admin-outbox');
 });
+
+test('a plate below its Z′ limit warns beside the sign button and needs the acknowledgement', async ({
+  browser,
+}) => {
+  // NAV-P03 is the noisy demo plate the demo signed through to submitted (scripts/seed-demo.ts).
+  const plate = await dbRow<{ id: string; state: string }>('select id, state from plates where label = $1', [
+    'NAV-P03',
+  ]);
+  expect(plate?.state).toBe('submitted');
+  const approver = await signedIn(browser, 'approver');
+  await approver.goto(`/plates/${plate!.id}/history`);
+  const form = approver.getByRole('form', { name: 'Sign this step' });
+  await expect(form.getByRole('note')).toContainText(/QC warning/);
+  await expect(form.getByRole('note')).toContainText(/Z′ 0\.\d\d is below the screen's limit of 0\.5/);
+  await approver.getByLabel('Your password, to sign').fill(PEOPLE.approver.password);
+  await approver.getByRole('button', { name: 'Sign: Approve' }).click();
+  await expect(
+    form.getByText(/tick that you read (it|them) before you sign\. Nothing was signed\./).first(),
+  ).toBeVisible();
+  // The history shows what the verifier and the submitter acknowledged with their signatures.
+  await expect(
+    approver.getByRole('region', { name: 'History' }).getByText('QC warnings acknowledged when signing:'),
+  ).toHaveCount(2);
+  await shot(approver, 'signoff-5-qc-warning-needs-acknowledgement');
+  expect(await dbRow<{ state: string }>('select state from plates where id = $1', [plate!.id])).toEqual({
+    state: 'submitted',
+  });
+  // What the submitter acknowledged is kept with the submit signature.
+  const submitted = await dbRow<{ codes: string[] }>(
+    `select array(select jsonb_array_elements(qc_warnings) ->> 'code') as codes from signoff_events where plate_id = $1 and to_state = 'submitted'`,
+    [plate!.id],
+  );
+  expect(submitted!.codes).toContain('z_prime_below_limit');
+});
