@@ -79,7 +79,8 @@ describe('the bad-input corpus is refused clearly and nothing is written', () =>
       () => workbookWithCells([HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(','))]).subarray(0, 300),
       'torn.xlsx',
       'invalid',
-      /^torn\.xlsx (took longer than 10 s to read|holds no readable workbook|looks like an xlsx file but could not be read)/,
+      // The workbook library never finishes this file (tests/unit/import-parse.test.ts): the deadline stops it.
+      /^torn\.xlsx took longer than 10 s to read and was stopped\./,
     ],
     [
       'a csv just over 10 MB',
