@@ -84,7 +84,7 @@ describe('the plate data hash the history tab shows', () => {
     const frozenAtStart = await frozenXids();
     const app = new pg.Client({ connectionString: process.env.DATABASE_URL });
     const notices: { severity?: string; message: string }[] = [];
-    app.on('notice', (notice) => notices.push({ severity: notice.severity, message: notice.message }));
+    app.on('notice', (notice) => notices.push({ severity: notice.severity, message: notice.message ?? '' }));
     await app.connect();
     try {
       await app.query('vacuum (freeze) readouts, wells, fits');

@@ -133,7 +133,7 @@ describe('plate forecasts', () => {
     const [low, high] = exposures as [(typeof exposures)[0], (typeof exposures)[0]];
     const control = forecast!.control;
     for (const c of [low, high]) expect(c.block.gNa).toBeGreaterThan(control.block.gNa ?? 0);
-    expect(high.block.gNa).toBeGreaterThan(low.block.gNa);
+    expect(high.block.gNa).toBeGreaterThan(low.block.gNa!);
     expect(control.measures.rheobase_uA_cm2).not.toBeNull();
     expect(low.measures.rheobase_uA_cm2).not.toBeNull();
     expect(high.measures.rheobase_uA_cm2).not.toBeNull();
