@@ -55,7 +55,9 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
   const blockShown = /gNa (\d+\.\d) %/.exec(await row.getByRole('cell').nth(0).innerText());
   expect(blockShown).not.toBeNull();
   expect(Math.abs(Number(blockShown![1]) - 89.0)).toBeLessThan(5);
-  await expect(row.getByRole('cell').nth(1)).toContainText(/\+\d+\.\d %/);
+  // Cells after the row header: block, rest, rheobase (its value, then its change beside control).
+  await expect(excitability.getByRole('columnheader').nth(3)).toHaveText('Rheobase (µA/cm²)');
+  await expect(row.getByRole('cell').nth(2)).toContainText(/\+\d+\.\d %/);
   await shot(page, 'plate-forecast');
 
   // Traces at another exposure, chosen from the keyboard.
