@@ -14,6 +14,12 @@ export interface ParseSpreadsheetOptions {
   timeoutMs?: number;
   /** Heap the parse worker may use, MB. @default 256 */
   maxMemoryMb?: number;
+  /**
+   * Most bytes the entries of a zip workbook (xlsx, ods) may unpack to in all, checked in the parse worker
+   * before the workbook is read, so a small file that inflates hugely (a zip bomb) is refused at once.
+   * @default 64 MB
+   */
+  maxInflatedBytes?: number;
   /** Most rows a sheet may have, header and title rows included. @default 20000 */
   maxRows?: number;
   /** Most columns a sheet may have. @default 200 */
@@ -25,7 +31,14 @@ export interface ParseSpreadsheetOptions {
 }
 
 const MB = 1024 * 1024;
-const DEFAULTS = { maxBytes: 10 * MB, timeoutMs: 10_000, maxMemoryMb: 256, maxRows: 20_000, maxColumns: 200 };
+const DEFAULTS = {
+  maxBytes: 10 * MB,
+  maxInflatedBytes: 64 * MB,
+  timeoutMs: 10_000,
+  maxMemoryMb: 256,
+  maxRows: 20_000,
+  maxColumns: 200,
+};
 const DEFAULT_NICENESS = 10;
 
 const startsKey = Symbol.for('gatewell.parseWorkerStarts');
@@ -68,7 +81,13 @@ export async function parseSpreadsheet(
       ? { kind: 'workbook', format: sniffed.format, bytes }
       : { kind: sniffed.kind, text: sniffed.text, sheetName: sheetNameFor(filename) };
   const reply = await runWorker(
-    { ...job, maxRows: limits.maxRows, maxColumns: limits.maxColumns, niceness: limits.niceness },
+    {
+      ...job,
+      maxRows: limits.maxRows,
+      maxColumns: limits.maxColumns,
+      maxInflatedBytes: limits.maxInflatedBytes,
+      niceness: limits.niceness,
+    },
     limits,
   );
   if (
@@ -172,6 +191,9 @@ function describeFailure(
   switch (code) {
     case 'timed_out':
       return `${filename} took longer than ${limits.timeoutMs / 1000} s to read and was stopped. Remove extra sheets or rows and upload it again.`;
+    case 'too_large':
+      // The file's own size is checked before the worker starts: from the worker, this is what it unpacks to.
+      return `${filename} unpacks to more than ${sizeLabel(limits.maxInflatedBytes)}; Gatewell reads workbooks that unpack to at most ${sizeLabel(limits.maxInflatedBytes)}. Remove extra sheets or rows and upload it again.`;
     case 'too_complex':
       return `${filename} needs more than ${limits.maxMemoryMb} MB of memory to read and was stopped. Remove extra sheets or rows and upload it again.`;
     case 'too_many_rows':

@@ -3,6 +3,7 @@
 // The workbook library is loaded only for workbooks and markup, so delimited text starts faster.
 import { setPriority } from 'node:os';
 import { parentPort, workerData } from 'node:worker_threads';
+import { inflateRawSync } from 'node:zlib';
 import { DelimitedTextError, parseDelimited } from './delimited-text.mjs';
 
 /** Cached values of formula errors, by the error number the workbook stores. */
@@ -86,13 +87,65 @@ function extractSheet(XLSX, name, sheet, maxRows, maxColumns) {
   return { name: `${name}`, rows, decimalComma: false };
 }
 
+const ZIP_END = 0x06054b50;
+const ZIP_CENTRAL = 0x02014b50;
+const ZIP_LOCAL = 0x04034b50;
+
+/**
+ * Refuses a zip container (xlsx, ods) whose entries unpack to more than `limit` bytes in all, before the
+ * workbook library reads it: first by the sizes the central directory declares, then by inflating each
+ * deflated entry with the rest of the allowance as its output cap, since a declared size can lie.
+ * A container this cannot walk is left to the workbook library, which refuses it with its own message.
+ * @param {Uint8Array} bytes @param {number} limit bytes
+ */
+function checkInflatedSize(bytes, limit) {
+  const zip = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const tooLarge = () => new LimitError('too_large', `its workbook unpacks to more than ${limit} bytes`);
+  let end = -1;
+  for (let i = zip.length - 22; i >= Math.max(0, zip.length - 22 - 0xffff); i--) {
+    if (zip.readUInt32LE(i) === ZIP_END) {
+      end = i;
+      break;
+    }
+  }
+  if (end < 0) return;
+  const entries = zip.readUInt16LE(end + 10);
+  let at = zip.readUInt32LE(end + 16);
+  let declared = 0;
+  let inflated = 0;
+  for (let n = 0; n < entries; n++) {
+    if (at + 46 > zip.length || zip.readUInt32LE(at) !== ZIP_CENTRAL) return;
+    const method = zip.readUInt16LE(at + 10);
+    const compressedSize = zip.readUInt32LE(at + 20);
+    // 0xffffffff stands for a ZIP64 size, which no workbook of a plate needs: counted as over the limit.
+    declared += zip.readUInt32LE(at + 24);
+    if (declared > limit) throw tooLarge();
+    const local = zip.readUInt32LE(at + 42);
+    at += 46 + zip.readUInt16LE(at + 28) + zip.readUInt16LE(at + 30) + zip.readUInt16LE(at + 32);
+    if (local + 30 > zip.length || zip.readUInt32LE(local) !== ZIP_LOCAL) continue;
+    const start = local + 30 + zip.readUInt16LE(local + 26) + zip.readUInt16LE(local + 28);
+    const data = zip.subarray(start, Math.min(zip.length, start + compressedSize));
+    if (method === 0) inflated += data.length;
+    else if (method === 8) {
+      try {
+        inflated += inflateRawSync(data, { maxOutputLength: Math.max(1, limit - inflated + 1) }).length;
+      } catch (error) {
+        if (/** @type {{ code?: string }} */ (error).code === 'ERR_BUFFER_TOO_LARGE') throw tooLarge();
+        return; // damaged data: the workbook library refuses it with its own message
+      }
+    }
+    if (inflated > limit) throw tooLarge();
+  }
+}
+
 async function run() {
-  const { kind, format, bytes, text, sheetName, maxRows, maxColumns } = workerData;
+  const { kind, format, bytes, text, sheetName, maxRows, maxColumns, maxInflatedBytes } = workerData;
   if (kind === 'delimited') {
     const { rows, delimiter } = parseDelimited(text, { maxRows, maxColumns });
     return [{ name: sheetName, rows, decimalComma: delimiter === ';' }];
   }
   // The ES module build loads several times faster than the CommonJS one; code pages matter only to xls.
+  if (kind === 'workbook' && format === 'xlsx') checkInflatedSize(bytes, maxInflatedBytes);
   const XLSX = await import('xlsx/xlsx.mjs');
   if (format === 'xls') XLSX.set_cptable(await import('xlsx/dist/cpexcel.full.mjs'));
   const options = { ...READ_OPTIONS, sheetRows: maxRows + 1 };

@@ -17,6 +17,7 @@ import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { demoFile, makeDemoScreens } from '../support/demo-scenario';
 import { importRowCounts } from '../support/import-counts';
+import { holdLocks } from '../support/lock-holder';
 
 const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
 const one = async <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
@@ -182,12 +183,34 @@ describe('import drafts', () => {
     expect((await previewImport(biologist, { draftId: fresh.draftId, ...fresh.choice })).ok).toBe(true);
   });
 
+  // The race is forced: a transaction of the test holds the draft's row, both commits start (each in its own
+  // transaction, as two import jobs run them) and PostgreSQL shows both waiting for that row; only then is
+  // it let go. Without the draft's row lock (lib/plates/import-drafts.ts) they would not wait, and both would
+  // read the draft unused and store two plates.
   test('a used draft cannot be committed twice: of two racing commits one stores the plate, the other is refused as used', async () => {
     const { draftId, choice } = await inspectDemo(biologist, 'nav-96-plate-01.xlsx', 'RACE-A');
-    const outcomes = await Promise.allSettled([
-      commitImport(biologist, { draftId, ...choice }),
-      commitImport(biologist, { draftId, ...choice, label: 'RACE-B' }),
+    const holder = await holdLocks([
+      { sql: 'select id from import_drafts where id = $1 for update', params: [draftId] },
     ]);
+    let outcomes: PromiseSettledResult<{ plateId: string }>[];
+    try {
+      const racing = Promise.allSettled([
+        db().transaction((transaction) => commitImport(biologist, { draftId, ...choice }, { transaction })),
+        db().transaction((transaction) =>
+          commitImport(biologist, { draftId, ...choice, label: 'RACE-B' }, { transaction }),
+        ),
+      ]);
+      const waiters = await holder.waiters(2);
+      // The first waits for the holder's transaction, the second for the row lock the first queued for.
+      const first = waiters.find((w) => w.blockedBy.includes(holder.pid))!;
+      expect(first.blockedBy).toEqual([holder.pid]);
+      const second = waiters.find((w) => w !== first)!;
+      expect([[holder.pid], [first.pid]]).toContainEqual(second.blockedBy);
+      await holder.release();
+      outcomes = await racing;
+    } finally {
+      await holder.release();
+    }
     const stored = outcomes.filter((o) => o.status === 'fulfilled');
     const refused = outcomes.filter((o) => o.status === 'rejected');
     expect(stored).toHaveLength(1);

@@ -21,6 +21,7 @@ import { signPlateStep } from '@/lib/signoff/service';
 import { ComputeJob, Fit, Plate, Signature } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
+import { holdLocks } from '../support/lock-holder';
 import { demoCommitRequest } from '../support/demo-plates';
 import { makeDemoScreens } from '../support/demo-scenario';
 import { fitsCurrent } from '../support/jobs';
@@ -158,10 +159,30 @@ describe('job queue for fits and forecasts', () => {
     const compound = (await listPlateForecasts(reader, plateId)).compounds.find(
       (c) => c.compound === 'GW-0001',
     )!;
-    const [first, second] = await Promise.all([
-      getPlateForecast(reader, plateId, compound.compoundId),
-      getPlateForecast(reader, plateId, compound.compoundId),
-    ]);
+    // The race is forced: a transaction of the test locks compute_jobs against writes, both requests start,
+    // and PostgreSQL shows one waiting to write its job row (holding the job key's lock) and the other
+    // waiting for that key's lock, so both found nothing stored and both are enqueueing. Without the key's
+    // lock (lib/jobs/queries.ts) both would wait on the table, and two jobs would be written.
+    const holder = await holdLocks([{ sql: 'lock table compute_jobs in exclusive mode' }]);
+    let first: Awaited<ReturnType<typeof getPlateForecast>>;
+    let second: typeof first;
+    try {
+      const racing = Promise.all([
+        getPlateForecast(reader, plateId, compound.compoundId),
+        getPlateForecast(reader, plateId, compound.compoundId),
+      ]);
+      const waiters = await holder.waiters(2);
+      const writing = waiters.find((w) => w.blockedBy.includes(holder.pid))!;
+      expect(writing).toMatchObject({ waitEvent: 'relation', blockedBy: [holder.pid] });
+      expect(waiters.find((w) => w !== writing)).toMatchObject({
+        waitEvent: 'advisory',
+        blockedBy: [writing.pid],
+      });
+      await holder.release();
+      [first, second] = await racing;
+    } finally {
+      await holder.release();
+    }
     expect(first.forecast!.inputSha256).toBe(second.forecast!.inputSha256);
     const jobs = await ComputeJob.findAll({ where: { plateId, kind: 'forecast' } });
     expect(jobs).toHaveLength(1); // the second request joined the first one’s job

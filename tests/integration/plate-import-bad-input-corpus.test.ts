@@ -24,14 +24,13 @@ import {
 } from '../fixtures/bad-input/build-corpus';
 
 // The bad-input corpus (tests/fixtures/bad-input/build-corpus.ts) through the real import service: each
-// file gets a clear message, within a bounded time and main-process heap growth, and writes nothing.
-// plate-import-bad-input.test.ts holds the basic per-cell cases; these are the hostile and odd files.
+// file gets a clear message and writes nothing. plate-import-bad-input.test.ts holds the basic per-cell
+// cases; these are the hostile and odd files. How long each refusal takes and how much heap it costs the
+// main process are figures, printed by scripts/bench-bad-input.ts, not checked here: the limits
+// that bound them (size, unpacked size, rows, worker heap and deadline) are each checked by the refusal
+// they give (here and in tests/unit/import-parse.test.ts).
 
-/** Generous bounds: the parse worker stops at 10 s and 256 MB of its own heap. */
-const MAX_SECONDS = 15;
-const MAX_HEAP_GROWTH_MB = 96;
-
-describe('the bad-input corpus is refused clearly, quickly, in bounded memory, and nothing is written', () => {
+describe('the bad-input corpus is refused clearly and nothing is written', () => {
   let biologist: Actor;
   let screenId: string;
 
@@ -47,31 +46,17 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     mediaType: 'application/octet-stream',
   });
 
-  /** Times one service call and the main process's heap growth across it. */
-  async function bounded<T>(call: () => Promise<T>): Promise<T> {
-    const heapBefore = process.memoryUsage().heapUsed;
-    const started = performance.now();
-    try {
-      return await call();
-    } finally {
-      expect((performance.now() - started) / 1000).toBeLessThan(MAX_SECONDS);
-      expect((process.memoryUsage().heapUsed - heapBefore) / 2 ** 20).toBeLessThan(MAX_HEAP_GROWTH_MB);
-    }
-  }
-
-  /** Inspect, then commit with the proposed mapping (and a template name, so a template write would show); each call bounded. */
+  /** Inspect, then commit with the proposed mapping (and a template name, so a template write would show). */
   async function importAll(bytes: Uint8Array, filename: string) {
-    const inspection = await bounded(() => inspectUpload(biologist, upload(bytes, filename)));
+    const inspection = await inspectUpload(biologist, upload(bytes, filename));
     const sheet = inspection.sheets[0]!;
-    return bounded(() =>
-      commitImport(biologist, {
-        draftId: inspection.draftId!,
-        sheet: sheet.name,
-        mapping: sheet.guess.mapping,
-        label: 'BAD-CORPUS',
-        templateName: 'bad corpus',
-      }),
-    );
+    return commitImport(biologist, {
+      draftId: inspection.draftId!,
+      sheet: sheet.name,
+      mapping: sheet.guess.mapping,
+      label: 'BAD-CORPUS',
+      templateName: 'bad corpus',
+    });
   }
 
   /** Runs the import and returns its refusal, having checked that nothing was written. */
@@ -99,7 +84,8 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
       () => workbookWithCells([HEADER.split(','), ...GOOD_ROWS.map((l) => l.split(','))]).subarray(0, 300),
       'torn.xlsx',
       'invalid',
-      /^torn\.xlsx (took longer than 10 s to read|holds no readable workbook|looks like an xlsx file but could not be read)/,
+      // The workbook library never finishes this file (tests/unit/import-parse.test.ts): the deadline stops it.
+      /^torn\.xlsx took longer than 10 s to read and was stopped\./,
     ],
     [
       'a csv just over 10 MB',
@@ -240,16 +226,25 @@ describe('the bad-input corpus is refused clearly, quickly, in bounded memory, a
     expect(await importRowCounts()).toEqual(before);
   });
 
-  test('a zip bomb (an xlsx of about 200 KB that inflates to 200 MB) is refused within the worker limits', async () => {
-    const bomb = await zipBombXlsx(200);
-    expect(bomb.length).toBeLessThan(2 ** 20);
-    const error = await refusal(bomb, 'bomb.xlsx');
-    expect(error.code).toBe('invalid');
-    // Stopped by the worker's memory or time limit, or read to its end and refused for the columns it lacks.
-    expect(error.message).toMatch(
-      /^bomb\.xlsx (needs more than 256 MB of memory|took longer than 10 s)|^The sheet has \d+ error\(s\); first: Sheet "Plate", row 1: no column is chosen for the compound identifier/,
-    );
-  });
+  // The parse worker unpacks at most 64 MB of a zip workbook (lib/imports/parse-worker.mjs): these fail if
+  // that limit is gone (the workbook library would start on 200 MB of sheet XML, and the refusal would be
+  // the memory or time limit's, or a missing column's), or if a lying size in the zip's headers got past it.
+  test.each([
+    ['declaring its true size', undefined],
+    ['declaring 1 KB', 1024],
+  ])(
+    'a zip bomb (an xlsx of about 200 KB that inflates to 200 MB) %s is refused for what it unpacks to',
+    async (_name, declaredSize) => {
+      const bomb = await zipBombXlsx(200, declaredSize);
+      expect(bomb.length).toBeLessThan(2 ** 20);
+      const error = await refusal(bomb, 'bomb.xlsx');
+      expect(error.code).toBe('too_large');
+      expect(error.details).toEqual({ code: 'too_large' });
+      expect(error.message).toBe(
+        'bomb.xlsx unpacks to more than 64 MB; Gatewell reads workbooks that unpack to at most 64 MB. Remove extra sheets or rows and upload it again.',
+      );
+    },
+  );
 
   test('formulas are never evaluated: a csv formula is text, and an xlsx formula without a stored value is empty', async () => {
     const fromCsv = await refusal(

@@ -35,7 +35,9 @@ describe('electronic signatures against the real database', () => {
 
   test('a signature records signer, meaning, comment, time and the hash of the canonical content, with its audit event', async () => {
     const { actor, input, entityId } = await sign();
+    const before = Date.now();
     const signature = await db().transaction((transaction) => signRecord(actor, input, transaction));
+    const after = Date.now();
     const expectedHash = createHash('sha256').update(canonicalJson(content)).digest('hex');
     expect(signature).toMatchObject({
       signerId: actor.id,
@@ -46,7 +48,10 @@ describe('electronic signatures against the real database', () => {
       entityId,
       contentSha256: expectedHash,
     });
-    expect(Date.now() - Date.parse(signature.signedAt)).toBeLessThan(60_000);
+    // The time of signing is the time of this call (the same machine's clock; milliseconds): not a stored
+    // or default time, nor one in another time zone.
+    expect(Date.parse(signature.signedAt)).toBeGreaterThanOrEqual(before);
+    expect(Date.parse(signature.signedAt)).toBeLessThanOrEqual(after);
     expect(await Signature.count({ where: { entityId } })).toBe(1);
     const event = await AuditEvent.findOne({ where: { action: 'sign', entityId }, raw: true });
     expect(event).toMatchObject({

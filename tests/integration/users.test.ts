@@ -12,6 +12,7 @@ import { disableUser, enableUser } from '@/lib/users/status';
 import { AuditEvent, User } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
+import { holdLocks } from '../support/lock-holder';
 
 const reason = 'test of user administration';
 
@@ -142,14 +143,37 @@ describe('user administration against the real database', () => {
     });
   });
 
+  // The race is forced: a transaction of the test holds both users' rows (the row each change locks), both
+  // changes start and PostgreSQL shows both waiting, and only then are the rows let go. Without the admin-set
+  // lock (lib/users/queries.ts) both would then count two admins, both would commit, and none would be left.
   test('two admins taking the admin role from each other at once leave one admin', async () => {
     const ada = await makeActor(['admin']);
     const abe = await makeActor(['admin']);
-    const results = await Promise.allSettled([
-      changeRoles(ada, { userId: abe.id, roles: [], reason }),
-      changeRoles(abe, { userId: ada.id, roles: [], reason }),
+    const holder = await holdLocks([
+      { sql: 'select id from users where id = any($1::uuid[]) for update', params: [[ada.id, abe.id]] },
     ]);
+    let results: PromiseSettledResult<unknown>[];
+    try {
+      const racing = Promise.allSettled([
+        changeRoles(ada, { userId: abe.id, roles: [], reason }),
+        changeRoles(abe, { userId: ada.id, roles: [], reason }),
+      ]);
+      const waiters = await holder.waiters(2);
+      // One change holds the admin-set lock and waits for its user's row; the other waits for that lock.
+      expect(waiters).toHaveLength(2);
+      const first = waiters.find((w) => w.blockedBy.includes(holder.pid));
+      const second = waiters.find((w) => w !== first);
+      expect(first?.blockedBy).toEqual([holder.pid]);
+      expect(second).toMatchObject({ waitEvent: 'advisory', blockedBy: [first!.pid] });
+      await holder.release();
+      results = await racing;
+    } finally {
+      await holder.release();
+    }
     expect(results.map((r) => r.status).sort()).toEqual(['fulfilled', 'rejected']);
+    expect((results.find((r) => r.status === 'rejected') as PromiseRejectedResult).reason).toMatchObject({
+      code: 'conflict',
+    });
     const [row] = await db().query(`select count(*)::int as n from user_roles where role = 'admin'`, {
       plain: false,
       raw: true,

@@ -3,7 +3,7 @@ import XLSX from 'xlsx';
 import { parseSpreadsheet, type ParseSpreadsheetOptions } from '@/lib/imports/parse-spreadsheet';
 import type { SpreadsheetErrorCode } from '@/lib/imports/spreadsheet-types';
 import { makeRandom } from '@/scripts/demo-plates/random';
-import { zip } from '../fixtures/bad-input/build-corpus';
+import { workbookWithCells, zip, zipBombXlsx } from '../fixtures/bad-input/build-corpus';
 
 const text = (value: string) => new TextEncoder().encode(value);
 
@@ -280,17 +280,41 @@ describe('parseSpreadsheet refuses what it cannot read, and says why', () => {
         message: 'plate.xlsx is too big to import: sheet "Readouts" has more than 3 rows.',
       },
     });
-    const slow = await parseSpreadsheet(bytes, 'plate.xlsx', { timeoutMs: 1 });
-    expect(slow).toEqual({
+    // A workbook cut off after 300 bytes sends the workbook library into a loop that never ends (seen to run
+    // 40 s, the whole deadline given): the deadline is what stops it, however fast the machine.
+    const torn = workbookWithCells([['Well'], ['A01']]).subarray(0, 300);
+    const endless = await parseSpreadsheet(torn, 'torn.xlsx', { timeoutMs: 2000 });
+    expect(endless).toEqual({
       ok: false,
       error: {
         code: 'timed_out',
         message:
-          'plate.xlsx took longer than 0.001 s to read and was stopped. Remove extra sheets or rows and upload it again.',
+          'torn.xlsx took longer than 2 s to read and was stopped. Remove extra sheets or rows and upload it again.',
       },
     });
     const small = await parseSpreadsheet(bytes, 'plate.xlsx', { maxMemoryMb: 2 });
     expect(small).toMatchObject({ ok: false, error: { code: 'too_complex' } });
+  });
+
+  // The unpacked-size limit of zip workbooks (parse-worker.mjs): a 3 MB bomb is refused under a 2 MB limit
+  // and read under a 4 MB one, so the refusal is the limit's and not some other failure; a lying size in
+  // the zip's headers is caught by inflating under the cap. Fails if the check is missing or trusts headers.
+  test('zip workbooks: what they unpack to is limited, whatever sizes their headers declare', async () => {
+    const MB = 1024 * 1024;
+    const refusal = {
+      ok: false,
+      error: {
+        code: 'too_large',
+        message:
+          'bomb.xlsx unpacks to more than 2 MB; Gatewell reads workbooks that unpack to at most 2 MB. Remove extra sheets or rows and upload it again.',
+      },
+    };
+    const honest = await zipBombXlsx(3);
+    expect(await parseSpreadsheet(honest, 'bomb.xlsx', { maxInflatedBytes: 2 * MB })).toEqual(refusal);
+    const lying = await zipBombXlsx(3, 1000);
+    expect(await parseSpreadsheet(lying, 'bomb.xlsx', { maxInflatedBytes: 2 * MB })).toEqual(refusal);
+    const read = await parseSpreadsheet(honest, 'bomb.xlsx', { maxInflatedBytes: 4 * MB });
+    expect(read).toMatchObject({ ok: true, sheets: [{ name: 'Plate', rows: [['Well']] }] });
   });
 
   test('the default size limit is 10 MB', async () => {
