@@ -7,12 +7,14 @@ import { randomUUID } from 'node:crypto';
 /**
  * Who knocks: an anonymous visitor; a session that has ended (its account signed out elsewhere: the cookie
  * still unseals, so the proxy lets it by and only the entry point's own check refuses it); a signed-in
- * account holding no role (a reader of results); and each role.
+ * account holding no role (a reader of results); an admin account whose password an admin set, before
+ * its owner chose their own (only the Account page and its password change are open); and each role.
  */
 export const SUBJECTS = [
   'anonymous',
   'ended',
   'no-role',
+  'first-sign-in',
   'chemist',
   'biologist',
   'approver',
@@ -20,14 +22,15 @@ export const SUBJECTS = [
 ] as const;
 export type Subject = (typeof SUBJECTS)[number];
 type Role = 'chemist' | 'biologist' | 'approver' | 'admin';
-type Reader = Exclude<Subject, 'anonymous' | 'ended'>;
+type Reader = Exclude<Subject, 'anonymous' | 'ended' | 'first-sign-in'>;
 
 /**
- * 200 (let in), 401 (no session), 403 (refused for the role), a redirect to sign-in or home. For a server
- * action, 401 and 403 are its answers "Your session has ended" and "This needs the … role" (actions
+ * 200 (let in), 401 (no session), 403 (refused for the role, or until the person chooses their own
+ * password), a redirect to sign-in, home or the Account page. For a server action, 401 and 403 are its
+ * answers "Your session has ended" and "This needs the … role" or "choose your own [password]" (actions
  * answer a form state, not a status), 200 is any other answer of the action.
  */
-export type Outcome = 200 | 401 | 403 | 'sign-in' | 'home';
+export type Outcome = 200 | 401 | 403 | 'sign-in' | 'home' | 'account';
 
 /** The tables an entry point writes: counted before and after each refused call (with audit_events). */
 export type Table =
@@ -115,13 +118,18 @@ const SIGN_OFF: Role[] = ['chemist', 'biologist', 'approver'];
 /** A signed-in page; roles outside `roles` get 403. */
 const page = (route: string, roles?: Role[]): RouteCase => ({
   route: `PAGE ${route}`,
-  expect: { anonymous: 'sign-in', ended: 'sign-in', ...only(roles) },
+  expect: {
+    anonymous: 'sign-in',
+    ended: 'sign-in',
+    'first-sign-in': route === '/account' ? 200 : 'account',
+    ...only(roles),
+  },
 });
 
 /** A route handler behind withUser: 401 without a session, 403 outside `roles`. */
 const api = (route: string, roles?: Role[], more: Pick<RouteCase, 'writes' | 'body'> = {}): RouteCase => ({
   route,
-  expect: { anonymous: 401, ended: 401, ...only(roles) },
+  expect: { anonymous: 401, ended: 401, 'first-sign-in': 403, ...only(roles) },
   ...more,
 });
 
@@ -134,10 +142,22 @@ const csv = (name: string, text: string): Upload => ({
 export const ROUTE_CASES: RouteCase[] = [
   // Open to anyone: sign-in (a signed-in person is sent home), asking for a password link, and the page a
   // link opens (here with a token that is none). A session that has ended is nobody's: sign-in shows its form.
-  { route: 'PAGE /sign-in', expect: { anonymous: 200, ended: 200, ...each(() => 'home') } },
-  { route: 'PAGE /lost-password', expect: { anonymous: 200, ended: 200, ...each(() => 200) } },
-  { route: 'PAGE /password-link/[token]', expect: { anonymous: 200, ended: 200, ...each(() => 200) } },
-  { route: 'GET /api/health', expect: { anonymous: 200, ended: 200, ...each(() => 200) } },
+  {
+    route: 'PAGE /sign-in',
+    expect: { anonymous: 200, ended: 200, 'first-sign-in': 'home', ...each(() => 'home') },
+  },
+  {
+    route: 'PAGE /lost-password',
+    expect: { anonymous: 200, ended: 200, 'first-sign-in': 200, ...each(() => 200) },
+  },
+  {
+    route: 'PAGE /password-link/[token]',
+    expect: { anonymous: 200, ended: 200, 'first-sign-in': 200, ...each(() => 200) },
+  },
+  {
+    route: 'GET /api/health',
+    expect: { anonymous: 200, ended: 200, 'first-sign-in': 200, ...each(() => 200) },
+  },
   page('/'),
   page('/account'),
   page('/plates'),
@@ -235,7 +255,7 @@ const signedInAction = (
   writes: Table[],
 ): ActionCase => ({
   action,
-  expect: { anonymous: 'sign-in', ended: 401, ...only(roles) },
+  expect: { anonymous: 'sign-in', ended: 401, 'first-sign-in': roles ? 403 : 200, ...only(roles) },
   form,
   writes,
 });
@@ -243,7 +263,7 @@ const signedInAction = (
 /** An action of the pages for anonymous visitors: anyone may call it. */
 const openAction = (action: string, form: ActionCase['form'], writes: Table[]): ActionCase => ({
   action,
-  expect: { anonymous: 200, ended: 200, ...each(() => 200) },
+  expect: { anonymous: 200, ended: 200, 'first-sign-in': 200, ...each(() => 200) },
   form,
   writes,
 });
@@ -377,7 +397,7 @@ export const ACTION_CASES: ActionCase[] = [
   // Sign-out ends the session: it runs last for each actor, and sends everyone to sign-in.
   {
     action: 'app/(auth)/sign-in/actions.ts#signOutAction',
-    expect: { anonymous: 'sign-in', ended: 'sign-in', ...each(() => 'sign-in') },
+    expect: { anonymous: 'sign-in', ended: 'sign-in', 'first-sign-in': 'sign-in', ...each(() => 'sign-in') },
     form: () => ({}),
     writes: [],
   },
