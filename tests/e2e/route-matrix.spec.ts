@@ -431,6 +431,17 @@ test('authorisation matrix: every entry point × every actor, nothing written wh
           () => actionCall(client, actionCase, expected !== 200),
           (response, label) => checkAction(response, expected, label),
         );
+        // The action refuses before it reads the form (its own check, not only the service's after
+        // parsing): an empty form gets the same refusal, not the fields it lacks.
+        if (expected === 401 || expected === 403)
+          await cell(
+            subject,
+            `ACTION ${actionCase.action} (empty form)`,
+            expected,
+            actionCase.writes,
+            () => actionCall(client, actionCase, false),
+            (response, label) => checkAction(response, expected, label),
+          );
       }
     }
 
