@@ -111,6 +111,41 @@ function WordList({
  * value and how a block column is written. Folded away by default; its summary line says what is set
  * and, where the setting is left to the guess, what the file looks like.
  */
+/** A labelled choice among fixed values (the reading settings' selects). */
+function ChoiceSelect<T extends string>({
+  id,
+  label,
+  value,
+  choices,
+  onChange,
+}: {
+  id: string;
+  label: string;
+  value: T;
+  choices: readonly { value: T; label: string }[];
+  onChange: (value: T) => void;
+}) {
+  return (
+    <>
+      <label htmlFor={id} className="gw-label">
+        {label}
+      </label>
+      <select
+        id={id}
+        className="gw-input mt-1 w-full"
+        value={value}
+        onChange={(e) => onChange(e.target.value as T)}
+      >
+        {choices.map((c) => (
+          <option key={c.value} value={c.value}>
+            {c.label}
+          </option>
+        ))}
+      </select>
+    </>
+  );
+}
+
 export function ReadingSettings({
   headers,
   mapping,
@@ -195,21 +230,13 @@ export function ReadingSettings({
       </summary>
       <div className="mt-3 grid gap-4 text-sm sm:grid-cols-2 lg:grid-cols-3">
         <div>
-          <label htmlFor="reading-units-row" className="gw-label">
-            The row right under the header
-          </label>
-          <select
+          <ChoiceSelect
             id="reading-units-row"
-            className="gw-input mt-1 w-full"
+            label="The row right under the header"
             value={mapping.rows.unitsRow}
-            onChange={(e) => setRows({ unitsRow: e.target.value as ColumnMapping['rows']['unitsRow'] })}
-          >
-            {UNITS_ROW_CHOICES.map((c) => (
-              <option key={c.value} value={c.value}>
-                {c.label}
-              </option>
-            ))}
-          </select>
+            choices={UNITS_ROW_CHOICES}
+            onChange={(unitsRow) => setRows({ unitsRow })}
+          />
           {guessedNote(seen.unitsRow)}
           {rowUnder ? (
             <p
@@ -244,42 +271,26 @@ export function ReadingSettings({
           />
         </div>
         <div>
-          <label htmlFor="reading-well-names" className="gw-label">
-            Wells are named
-          </label>
-          <select
+          <ChoiceSelect
             id="reading-well-names"
-            className="gw-input mt-1 w-full"
+            label="Wells are named"
             value={mapping.wellNames}
-            onChange={(e) => set({ wellNames: e.target.value as ColumnMapping['wellNames'] })}
-          >
-            {WELL_NAME_CHOICES.map((c) => (
-              <option key={c.value} value={c.value}>
-                {c.label}
-              </option>
-            ))}
-          </select>
+            choices={WELL_NAME_CHOICES}
+            onChange={(wellNames) => set({ wellNames })}
+          />
           {guessedNote(seen.wellNames)}
           <p className="mt-1 text-xs text-ink-500">
             The guess reads a whole number as a running number along the rows, anything else as a position.
           </p>
         </div>
         <div>
-          <label htmlFor="reading-application" className="gw-label">
-            How compound was applied
-          </label>
-          <select
+          <ChoiceSelect
             id="reading-application"
-            className="gw-input mt-1 w-full"
+            label="How compound was applied"
             value={mapping.application}
-            onChange={(e) => set({ application: e.target.value as ColumnMapping['application'] })}
-          >
-            {APPLICATION_CHOICES.map((c) => (
-              <option key={c.value} value={c.value}>
-                {c.label}
-              </option>
-            ))}
-          </select>
+            choices={APPLICATION_CHOICES}
+            onChange={(application) => set({ application })}
+          />
           <p className="mt-1 text-xs text-ink-500">
             The guess reads rows of one well and target that differ only in concentration as one cell given
             several concentrations in turn, a row each.
@@ -306,21 +317,13 @@ export function ReadingSettings({
           />
         </div>
         <div>
-          <label htmlFor="reading-block" className="gw-label">
-            A block column is written as
-          </label>
-          <select
+          <ChoiceSelect
             id="reading-block"
-            className="gw-input mt-1 w-full"
+            label="A block column is written as"
             value={mapping.units.block}
-            onChange={(e) => set({ block: e.target.value as ColumnMapping['units']['block'] })}
-          >
-            {BLOCK_CHOICES.map((c) => (
-              <option key={c.value} value={c.value}>
-                {c.label}
-              </option>
-            ))}
-          </select>
+            choices={BLOCK_CHOICES}
+            onChange={(block) => set({ block })}
+          />
           {mapping.columns.block === null ? (
             <p className="mt-1 text-xs text-ink-500">No column is chosen for the block.</p>
           ) : (

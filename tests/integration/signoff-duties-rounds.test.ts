@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize';
 import pg from 'pg';
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
@@ -9,20 +8,7 @@ import { signoffRequestSchema } from '@/lib/validation/signoff';
 import { Plate, Signature, SignoffEvent } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
-import { PASSWORD, signoffCast, type SignoffCast } from '../support/signoff-scenario';
-
-/** Rows that a signature writes: none of them may grow when a signature is refused. */
-async function writtenRows(plateId: string) {
-  const [row] = await db().query<Record<string, number>>(
-    `select (select count(*)::int from signatures) as signatures,
-            (select count(*)::int from signoff_events) as events,
-            (select count(*)::int from audit_events) as audits,
-            (select count(*)::int from mail_outbox) as mail,
-            (select version from plates where id = :plateId) as version`,
-    { type: QueryTypes.SELECT, replacements: { plateId } },
-  );
-  return row!;
-}
+import { PASSWORD, signoffCast, writtenRows, type SignoffCast } from '../support/signoff-scenario';
 
 /** A connection of its own as the app's role (DATABASE_URL), for raw SQL the test interleaves by hand. */
 async function appClient(): Promise<pg.Client> {

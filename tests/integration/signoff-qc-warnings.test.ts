@@ -1,4 +1,3 @@
-import { QueryTypes } from 'sequelize';
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
@@ -13,6 +12,7 @@ import { resetDatabase } from '../support/database';
 import { demoFile, makeDemoScreens } from '../support/demo-scenario';
 import { fakeSmtpSettings, waitForMessages } from '../support/fake-smtp';
 import { fitsCurrent } from '../support/jobs';
+import { writtenRows } from '../support/signoff-scenario';
 
 // A plate whose QC is doubtful carries that to the decision: the sign-off panel says so before anyone
 // signs, the signer must acknowledge it, the acknowledgement is kept with the signature and the next
@@ -41,18 +41,6 @@ function kvCsvWithoutSeriesResistance(): Uint8Array {
       .join(','),
   );
   return new TextEncoder().encode(`${kept.join('\n')}\n`);
-}
-
-async function writtenRows(plateId: string) {
-  const [row] = await db().query<Record<string, number>>(
-    `select (select count(*)::int from signatures) as signatures,
-            (select count(*)::int from signoff_events) as events,
-            (select count(*)::int from audit_events) as audits,
-            (select count(*)::int from mail_outbox) as mail,
-            (select version from plates where id = :plateId) as version`,
-    { type: QueryTypes.SELECT, replacements: { plateId } },
-  );
-  return row!;
 }
 
 describe('plate QC carried to the sign-off decision', () => {

@@ -9,6 +9,21 @@ export { asSchemaOwner, ownerUrl } from './schema-owner';
  */
 export async function resetDatabase(): Promise<void> {
   db(); // the app's connection and models, set up before the test uses them
+  // A job of the previous test may still be writing (a fit, an import's stage) while the truncate takes its
+  // locks table by table; PostgreSQL then ends one side with a deadlock (40P01). When the truncate is that
+  // side, it is tried again once the job has had a moment to finish; any other error stops the test.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await truncateAll();
+    } catch (error) {
+      if ((error as { code?: string }).code !== '40P01' || attempt >= 3) throw error;
+      await new Promise((resolve) => setTimeout(resolve, 200 * attempt));
+    }
+  }
+}
+
+/** One try at emptying every domain table and the waiting jobs, in one transaction. */
+async function truncateAll(): Promise<void> {
   await asSchemaOwner(async (client) => {
     const tables = (
       await client.query<{ tablename: string }>(
