@@ -1,83 +1,27 @@
 import 'server-only';
 import type { Sequelize } from 'sequelize';
-import { AuditEvent } from './audit-event';
-import { Batch } from './batch';
-import { Compound } from './compound';
-import { CompoundAlias } from './compound-alias';
-import { ComputeJob } from './compute-job';
-import { Fit } from './fit';
-import { Forecast } from './forecast';
-import { ImportDraft } from './import-draft';
-import { ImportTemplate } from './import-template';
-import { ImportUpload } from './import-upload';
-import { LoginAttempt } from './login-attempt';
-import { MailMessage } from './mail-message';
-import { PasswordLink } from './password-link';
-import { Plate } from './plate';
-import { Readout } from './readout';
-import { Screen } from './screen';
-import { Signature } from './signature';
-import { SignoffEvent } from './signoff-event';
-import { Target } from './target';
-import { TargetAlias } from './target-alias';
-import { UploadedFile } from './uploaded-file';
-import { User } from './user';
-import { UserRole } from './user-role';
-import { Well } from './well';
-
-export {
+import * as registry from './registry';
+import {
   AuditEvent,
   Batch,
   Compound,
   CompoundAlias,
-  ComputeJob,
   Fit,
-  Forecast,
-  ImportDraft,
-  ImportTemplate,
-  ImportUpload,
-  LoginAttempt,
-  MailMessage,
-  PasswordLink,
   Plate,
   Readout,
   Screen,
   Signature,
   SignoffEvent,
   Target,
-  TargetAlias,
   UploadedFile,
   User,
   UserRole,
   Well,
-};
+} from './registry';
 
-const models = [
-  AuditEvent,
-  Batch,
-  Compound,
-  CompoundAlias,
-  ComputeJob,
-  Fit,
-  Forecast,
-  ImportDraft,
-  ImportTemplate,
-  ImportUpload,
-  LoginAttempt,
-  MailMessage,
-  PasswordLink,
-  Plate,
-  Readout,
-  Screen,
-  Signature,
-  SignoffEvent,
-  Target,
-  TargetAlias,
-  UploadedFile,
-  User,
-  UserRole,
-  Well,
-];
+export * from './registry';
+
+const models = Object.values(registry);
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {

@@ -1,0 +1,25 @@
+// Every Gatewell model, once: models/index.ts exports them and registers each on the Sequelize instance.
+export { AuditEvent } from './audit-event';
+export { Batch } from './batch';
+export { Compound } from './compound';
+export { CompoundAlias } from './compound-alias';
+export { ComputeJob } from './compute-job';
+export { Fit } from './fit';
+export { Forecast } from './forecast';
+export { ImportDraft } from './import-draft';
+export { ImportTemplate } from './import-template';
+export { ImportUpload } from './import-upload';
+export { LoginAttempt } from './login-attempt';
+export { MailMessage } from './mail-message';
+export { PasswordLink } from './password-link';
+export { Plate } from './plate';
+export { Readout } from './readout';
+export { Screen } from './screen';
+export { Signature } from './signature';
+export { SignoffEvent } from './signoff-event';
+export { Target } from './target';
+export { TargetAlias } from './target-alias';
+export { UploadedFile } from './uploaded-file';
+export { User } from './user';
+export { UserRole } from './user-role';
+export { Well } from './well';
