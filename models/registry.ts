@@ -1,3 +1,4 @@
+import 'server-only';
 // Every Gatewell model, once: models/index.ts exports them and registers each on the Sequelize instance.
 export { AuditEvent } from './audit-event';
 export { Batch } from './batch';
