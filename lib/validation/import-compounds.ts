@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { columnMappingDraftSchema } from '@/lib/imports/mapping-schema';
-import { previewFieldsSchema } from './imports';
+import { plateLabelsSchema, previewFieldsSchema } from './imports';
 
 /** A file's compound identifier as the check step sends it back (the file's own text). */
 const fileName = z
@@ -49,6 +49,8 @@ export const waitingChoiceSchema = z.object({
   mapping: columnMappingDraftSchema,
   format: z.literal([96, 384, 1536]).optional(),
   label: z.string().max(120),
+  /** Labels of a file's plates by their key, for a file of several plates. */
+  labels: plateLabelsSchema.optional(),
 });
 export type WaitingChoice = z.infer<typeof waitingChoiceSchema>;
 
