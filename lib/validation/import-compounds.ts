@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { columnMappingDraftSchema } from '@/lib/imports/mapping-schema';
-import { plateLabelsSchema, previewFieldsSchema } from './imports';
+import { plateLabelsJson, plateLabelsSchema, previewFieldsSchema } from './imports';
 
 /** A file's compound identifier as the check step sends it back (the file's own text). */
 const fileName = z
@@ -41,6 +41,8 @@ export type UnknownCompoundsInput = z.input<typeof unknownCompoundsSchema>;
 /** The wait request: the preview's fields and the label chosen so far. */
 export const waitFieldsSchema = previewFieldsSchema.extend({
   label: z.string().trim().max(120).default(''),
+  /** For a file of several plates: each plate's label by its key, as JSON. */
+  labels: plateLabelsJson,
 });
 
 /** The choices a waiting draft keeps to resume with (import_drafts.waiting_choice). */

@@ -42,7 +42,7 @@ export const plateLabelsSchema = z
   )
   .refine((labels) => Object.keys(labels).length <= 50, 'Label at most 50 plates.');
 
-const labelsJson = z
+export const plateLabelsJson = z
   .string()
   .optional()
   .transform((text, ctx) => {
@@ -60,7 +60,7 @@ const labelsJson = z
 const commitOnlyFields = {
   label: z.string().trim().min(1, 'Give the plate a label (its barcode or name).').max(120),
   /** For a file of several plates: each plate's label by its key, as JSON (else each plate's own). */
-  labels: labelsJson,
+  labels: plateLabelsJson,
   templateName: z
     .string()
     .trim()
