@@ -92,7 +92,7 @@ test('a file of two plates is mapped once, stored as two plates, and its next fi
   // The guess proposes the plate column.
   const plates = page.getByRole('group', { name: 'Plates in this file' });
   await expect(plates.getByLabel('A plate column')).toBeChecked();
-  await expect(plates.getByLabel('Plate column')).toHaveValue('Plate barcode');
+  await expect(plates.getByLabel('Plate column', { exact: true })).toHaveValue('Plate barcode');
   const { roleWords, targetWords } = facts;
   await page.getByLabel(`Role of the value “${roleWords.vehicle}”`).selectOption('vehicle');
   await page.getByLabel(`Role of the value “${roleWords.reference}”`).selectOption('reference');
