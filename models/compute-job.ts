@@ -17,6 +17,8 @@ export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreation
   /** The work it stands for (plate, or plate + forecast input): at most one queued job per key. */
   declare jobKey: string;
   declare plateId: string | null;
+  /** Every plate stored from one file, the first being plateId (a file may hold several plates); null before. */
+  declare plateIds: CreationOptional<string[] | null>;
   declare compoundId: string | null;
   declare requestedBy: string | null;
   declare state: CreationOptional<ComputeJobState>;
@@ -38,6 +40,7 @@ export class ComputeJob extends Model<InferAttributes<ComputeJob>, InferCreation
         kind: { type: DataTypes.TEXT, allowNull: false },
         jobKey: { type: DataTypes.TEXT, allowNull: false },
         plateId: { type: DataTypes.UUID, allowNull: true },
+        plateIds: { type: DataTypes.ARRAY(DataTypes.UUID), allowNull: true },
         compoundId: { type: DataTypes.UUID, allowNull: true },
         requestedBy: { type: DataTypes.UUID, allowNull: true },
         state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'queued' },

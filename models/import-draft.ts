@@ -29,6 +29,8 @@ export class ImportDraft extends Model<InferAttributes<ImportDraft>, InferCreati
   declare expiresAt: Date;
   declare consumedAt: Date | null;
   declare plateId: string | null;
+  /** Every plate stored from one file, the first being plateId (a file may hold several plates); null before. */
+  declare plateIds: CreationOptional<string[] | null>;
   /** Set while the draft waits for compounds to be registered (lib/compounds/waiting-imports.ts). */
   declare waitingSince: CreationOptional<Date | null>;
   /** The file's identifiers the registry lacked when it began to wait. */
@@ -52,6 +54,7 @@ export class ImportDraft extends Model<InferAttributes<ImportDraft>, InferCreati
         expiresAt: { type: DataTypes.DATE, allowNull: false },
         consumedAt: { type: DataTypes.DATE, allowNull: true },
         plateId: { type: DataTypes.UUID, allowNull: true },
+        plateIds: { type: DataTypes.ARRAY(DataTypes.UUID), allowNull: true },
         waitingSince: { type: DataTypes.DATE, allowNull: true },
         waitingFor: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: true },
         waitingChoice: { type: DataTypes.JSONB, allowNull: true },

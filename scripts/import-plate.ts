@@ -7,6 +7,7 @@
 // service as POST /api/imports/plate (lib/plates/import-once.ts), committed in this process.
 // --offline needs no database: no templates, no registry (unregisteredCompounds is null, every compound
 // and target of the file is taken as known, QC at the default limits); it implies --dry-run.
+// A file of several plates (a sheet per plate, a plate column) is stored as a plate each, all or none.
 // Exit codes: 0 checked clean (and stored), 1 problems found (or refused), 2 bad arguments.
 import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
@@ -14,14 +15,12 @@ import { parseArgs } from 'node:util';
 import { z } from 'zod';
 import { issuePath } from './cli-input';
 import { parseSpreadsheet } from '../lib/imports/parse-spreadsheet';
-import { readPlateFacts } from '../lib/imports/plate-facts';
 import {
-  defaultRulesNotApplied,
   guessSheet,
-  importFacts,
+  offlineFileFacts,
+  unreadFileFacts,
   plateLabel,
-  validateOffline,
-  type ImportFacts,
+  type FileImportFacts,
 } from '../lib/plates/import-facts';
 
 const USAGE = `usage: node --conditions=react-server --import tsx scripts/import-plate.ts FILE --screen NAME|ID [options]
@@ -35,9 +34,16 @@ Reads a plate export, checks it as the import's check step does, and stores the 
                       file shows, else the guessed mapping)
   --label L           the plate's label (else the barcode found in the file, else the file's name)
   --dry-run           check only; store nothing
-  --json              print one JSON object (the check's facts; plateId when stored)
+  --json              print one JSON object (the check's facts; plateId when stored); \`plates\` lists
+                      every plate of the file with its facts (plateLabel, wellCount, roleCounts, …)
   --offline           no database: guessed mapping, no registry (implies --dry-run; not with --template)
   --help              this text
+
+A file may hold several plates (a sheet per plate, or a plate column): each is stored as a plate of its
+own, all or none, labelled by its barcode, sheet name or plate-column value (--label then goes unused).
+The top-level keys are then the first plate's (sheet, plateLabel, wellCount, roleCounts, …), except
+errors, warnings and unregisteredCompounds, which are the whole file's, each naming its plate;
+plateCount says how many plates there are.
 
 Exit codes: 0 clean (and stored), 1 problems found or the import refused, 2 bad arguments.`;
 
@@ -130,20 +136,8 @@ async function checkOffline(bytes: Uint8Array, filename: string, label: string |
   if (!parsed.ok) return { refused: parsed.error.message };
   if (parsed.sheets.length === 0) return { refused: `${filename} holds no sheets.` };
   const { sheet, mapping } = guessSheet(parsed.sheets);
-  const preview = validateOffline(sheet, mapping);
-  const found = readPlateFacts(parsed.sheets, mapping);
   return {
-    facts: importFacts({
-      filename,
-      sheet,
-      mapping,
-      template: null,
-      label: plateLabel(label, found.facts, filename),
-      preview,
-      factWarnings: found.warnings,
-      rulesNotApplied: defaultRulesNotApplied(preview),
-      offline: true,
-    }),
+    facts: offlineFileFacts({ filename, sheets: parsed.sheets, sheet, mapping, givenLabel: label }),
   };
 }
 
@@ -160,7 +154,12 @@ async function actorByEmail(email: string) {
   return rest;
 }
 
-type Outcome = { facts?: ImportFacts; refused?: string; plateId?: string; jobId?: string };
+type Outcome = {
+  facts?: FileImportFacts;
+  refused?: string;
+  plateId?: string;
+  plates?: { plateId: string; label: string }[];
+};
 
 /** The check (and store) with the database, through lib/plates/import-once.ts. */
 async function checkOnline(args: Args, bytes: Uint8Array, filename: string): Promise<Outcome> {
@@ -177,31 +176,21 @@ async function checkOnline(args: Args, bytes: Uint8Array, filename: string): Pro
   try {
     if (args.dryRun) return { facts: (await checkImportOnce(actor, request)).facts };
     const result = await importOnce(actor, request, { via: 'here' });
-    return { facts: result.facts, ...(result.state === 'stored' ? { plateId: result.plateId } : {}) };
+    return {
+      facts: result.facts,
+      ...(result.state === 'stored' ? { plateId: result.plateId, plates: result.plates } : {}),
+    };
   } catch (error) {
     if (!isAppError(error)) throw error;
-    const details = error.details as { facts?: ImportFacts } | undefined;
+    const details = error.details as { facts?: FileImportFacts } | undefined;
     return { refused: error.message, ...(details?.facts ? { facts: details.facts } : {}) };
   }
 }
 
 /** The facts of a file that could not be checked at all: no wells, the refusal as its one error. */
-function unreadFacts(args: Args, filename: string, refused: string, offline: boolean): ImportFacts {
-  return {
-    file: filename,
-    sheet: '',
-    template: null,
-    ...plateLabel(args.label, {}, filename),
-    plateFormat: null,
-    wellCount: 0,
-    roleCounts: { negativeControl: 0, positiveControl: 0, test: 0, empty: 0 },
-    concentrationUnit: '',
-    targets: [],
-    qcRulesNotApplied: [],
-    unregisteredCompounds: offline ? null : [],
-    errors: [refused],
-    warnings: [],
-  };
+function unreadFacts(args: Args, filename: string, refused: string, offline: boolean): FileImportFacts {
+  const label = plateLabel(args.label, {}, filename);
+  return unreadFileFacts({ filename, sheet: '', template: null, label, errors: [refused], offline });
 }
 
 function report(args: Args, filename: string, outcome: Outcome): number {
@@ -209,7 +198,17 @@ function report(args: Args, filename: string, outcome: Outcome): number {
   const facts = outcome.facts ?? (refused ? unreadFacts(args, filename, refused, args.offline) : undefined);
   const problems = Boolean(refused) || !facts || facts.errors.length > 0;
   if (args.json) {
-    const out = { ...(facts ?? {}), ...(refused ? { refused } : {}), ...(plateId ? { plateId } : {}) };
+    // Each stored plate's id goes beside its facts in `plates`; plateId is the first plate's.
+    const plates = facts?.plates.map((plate, i) => ({
+      ...plate,
+      ...(outcome.plates?.[i] ? { plateId: outcome.plates[i].plateId } : {}),
+    }));
+    const out = {
+      ...(facts ?? {}),
+      ...(plates ? { plates } : {}),
+      ...(refused ? { refused } : {}),
+      ...(plateId ? { plateId } : {}),
+    };
     process.stdout.write(`${JSON.stringify(out, null, 2)}\n`);
     return problems ? 1 : 0;
   }
@@ -226,11 +225,19 @@ function report(args: Args, filename: string, outcome: Outcome): number {
     );
     if (facts.unregisteredCompounds?.length)
       lines.push(`not registered: ${facts.unregisteredCompounds.join(', ')}`);
+    // A file of several plates: the first plate above, each plate in a line of its own.
+    if (facts.plateCount > 1)
+      for (const plate of facts.plates)
+        lines.push(
+          `  plate ${plate.plateLabel} (${plate.labelSource} ${plate.key}): ${plate.wellCount} wells, ${plate.errors.length} error(s)`,
+        );
     for (const warning of facts.warnings) lines.push(`warning: ${warning}`);
     for (const error of facts.errors) lines.push(`error: ${error}`);
   }
   if (refused && !outcome.facts?.errors.includes(refused)) lines.push(`refused: ${refused}`);
-  if (plateId) lines.push(`stored as plate ${facts?.plateLabel ?? ''} (${plateId})`);
+  if (outcome.plates && outcome.plates.length > 1)
+    for (const plate of outcome.plates) lines.push(`stored as plate ${plate.label} (${plate.plateId})`);
+  else if (plateId) lines.push(`stored as plate ${facts?.plateLabel ?? ''} (${plateId})`);
   else if (!problems) lines.push(args.dryRun ? 'checked clean; nothing stored (dry run)' : 'checked clean');
   process.stdout.write(`${lines.join('\n')}\n`);
   return problems ? 1 : 0;

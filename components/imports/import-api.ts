@@ -58,6 +58,22 @@ export interface Preview {
   fileProblems: { code: string; message: string; whatToDo: string }[];
   /** QC rules whose readout is in no well of the file (lib/science/qc/qc-rules.ts). */
   qcRulesNotApplied: { rule: string; label: string; message: string }[];
+  /** Every plate of the file (one, or a plate per sheet or plate-column value), as checked. */
+  plates: PlateCheckView[];
+}
+
+/** One plate of the file on the check step (lib/plates/import-service.ts, PlateCheck). */
+export interface PlateCheckView {
+  key: string;
+  sheet: string;
+  label: string;
+  labelSource: string;
+  wellCount: number;
+  ok: boolean;
+  summary: { errors: number; warnings: number };
+  fileProblems: { code: string; message: string; whatToDo: string }[];
+  issues: { message: string; severity: 'error' | 'warning' }[];
+  qcFlaggedWells: number;
 }
 
 export class ImportRequestError extends Error {

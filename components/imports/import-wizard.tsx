@@ -18,6 +18,7 @@ import { ImportProgress } from './import-progress';
 import { LayoutChoice, tableOf } from './layout-choice';
 import { MappingStep } from './mapping-step';
 import { PlateFactsForm } from './plate-facts-form';
+import { PlatesInFile, PlateSplitChoice, StoredPlates } from './plates-in-file';
 import { PreviewStep } from './preview-step';
 import { UnknownCompoundsPanel } from './unknown-compounds';
 import { ValueMaps } from './value-maps';
@@ -41,7 +42,13 @@ export interface ResumedImport {
   screenId: string;
   filename: string;
   sheets: Inspection['sheets'];
-  choice: { sheet: string; mapping: ColumnMapping; format?: number | undefined; label: string };
+  choice: {
+    sheet: string;
+    mapping: ColumnMapping;
+    format?: number | undefined;
+    label: string;
+    labels?: Record<string, string> | undefined;
+  };
   targetAliases: Inspection['targetAliases'];
 }
 
@@ -95,6 +102,9 @@ export function ImportWizard({
   const [templateId, setTemplateId] = useState('');
   const [recognised, setRecognised] = useState<string | null>(null);
   const [labelTouched, setLabelTouched] = useState(false);
+  // A file of several plates (issue 18): each plate's label by its key, and the plates once stored.
+  const [labels, setLabels] = useState<Record<string, string>>(resume?.choice.labels ?? {});
+  const [stored, setStored] = useState<{ plateId: string; label: string; href: string }[] | null>(null);
 
   async function run<T>(work: () => Promise<T>): Promise<T | null> {
     setBusy(true);
@@ -185,19 +195,33 @@ export function ImportWizard({
     if (result) {
       setPreview(result);
       if (result.facts.barcode && !labelTouched) setLabel(result.facts.barcode);
+      // Each plate keeps a label typed for it; the others take the file's own (barcode, sheet, column value).
+      if (result.plates.length > 1)
+        setLabels(Object.fromEntries(result.plates.map((p) => [p.key, labels[p.key] ?? p.label])));
       setStep(2);
     }
   }
 
+  const several = (preview?.plates.length ?? 0) > 1;
+  /** The commit's label fields: one label, or each plate's by its key. */
+  const labelFields = (): Record<string, string> =>
+    several ? { label: preview!.plates[0]!.label, labels: JSON.stringify(labels) } : { label };
+
   async function store() {
     const result = await run(() =>
-      commitWithProgress<{ href: string; plateId?: string; message?: string }>(
-        { ...fields(), label, templateName },
-        setProgress,
-      ),
+      commitWithProgress<{
+        href: string;
+        plateId?: string;
+        message?: string;
+        plates?: { plateId: string; label: string; href: string }[];
+      }>({ ...fields(), ...labelFields(), templateName }, setProgress),
     );
     if (!result) return;
-    if (result.plateId) {
+    if (result.plates && result.plates.length > 1) {
+      // Several plates stored: a link to each, here.
+      setLeaving(true);
+      setStored(result.plates);
+    } else if (result.plateId) {
       // Stored: the fits run on a worker now, and the plate's page follows them.
       setLeaving(true);
       setProgress({ work: 'commit', stage: 'fitting' });
@@ -392,6 +416,7 @@ export function ImportWizard({
             </p>
           ) : null}
           <LayoutChoice sheet={current} mapping={mapping} onChange={setMapping} />
+          <PlateSplitChoice headers={current.headers} mapping={mapping} onChange={setMapping} />
           <div className="overflow-x-auto">
             <MappingStep
               headers={tableOf(current, mapping).headers}
@@ -441,7 +466,7 @@ export function ImportWizard({
               <UnknownCompoundsPanel
                 unknown={preview.unknownCompounds}
                 canRegister={canRegisterCompounds}
-                waitFields={() => ({ ...fields(), label })}
+                waitFields={() => ({ ...fields(), ...labelFields() })}
                 onRegistered={check}
               />
             }
@@ -469,21 +494,35 @@ export function ImportWizard({
               ) : null}
             </div>
           ) : null}
+          {several ? (
+            <PlatesInFile
+              plates={preview.plates}
+              labels={labels}
+              onLabel={(key, value) => setLabels({ ...labels, [key]: value })}
+            />
+          ) : null}
+          {stored ? <StoredPlates plates={stored} /> : null}
           <div className="gw-card grid gap-4 p-5 sm:grid-cols-3">
-            <div>
-              <label htmlFor="import-label" className="gw-label">
-                Plate label
-              </label>
-              <input
-                id="import-label"
-                className="gw-input mt-1"
-                value={label}
-                onChange={(e) => {
-                  setLabel(e.target.value);
-                  setLabelTouched(true);
-                }}
-              />
-            </div>
+            {several ? (
+              <p className="text-sm text-ink-700">
+                {preview.plates.length} plates: each is labelled in the list above.
+              </p>
+            ) : (
+              <div>
+                <label htmlFor="import-label" className="gw-label">
+                  Plate label
+                </label>
+                <input
+                  id="import-label"
+                  className="gw-input mt-1"
+                  value={label}
+                  onChange={(e) => {
+                    setLabel(e.target.value);
+                    setLabelTouched(true);
+                  }}
+                />
+              </div>
+            )}
             <div>
               <label htmlFor="import-template-name" className="gw-label">
                 Save this mapping as a template (optional)
@@ -508,10 +547,22 @@ export function ImportWizard({
               <button
                 type="button"
                 className="gw-button"
-                disabled={busy || leaving || storing !== null || !preview.ok || !label.trim()}
+                disabled={
+                  busy ||
+                  leaving ||
+                  storing !== null ||
+                  !preview.ok ||
+                  (several ? preview.plates.some((p) => !labels[p.key]?.trim()) : !label.trim())
+                }
                 onClick={store}
               >
-                {busy || leaving ? 'Storing…' : 'Store plate'}
+                {stored
+                  ? 'Stored'
+                  : busy || leaving
+                    ? 'Storing…'
+                    : several
+                      ? `Store ${preview.plates.length} plates`
+                      : 'Store plate'}
               </button>
             </div>
             {progress?.work === 'commit' ? (

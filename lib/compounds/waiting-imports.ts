@@ -33,6 +33,8 @@ export interface WaitRequest {
   mapping: ColumnMappingInput;
   format?: PlateFormat | undefined;
   label: string;
+  /** Labels of a file's plates by their key, for a file of several plates. */
+  labels?: Record<string, string> | undefined;
 }
 
 /** Keeps the actor's draft waiting for the compounds its check found unregistered, and tells who may register them. */

@@ -67,6 +67,19 @@ export const layoutSchema = z
   ])
   .default({ kind: 'long' });
 
+/**
+ * How many plates the file holds (lib/imports/split-plates.ts): `one` (the chosen sheet is one plate),
+ * `sheet` (every sheet showing the chosen sheet's header row is a plate of its own) or `column` (the
+ * distinct values of `column`, a plate barcode or plate-id column, split the rows into plates).
+ */
+export const plateSplitSchema = z
+  .object({
+    by: z.enum(['one', 'sheet', 'column']).default('one'),
+    /** The header of the plate column (for `column`); null otherwise. */
+    column: header,
+  })
+  .prefault({});
+
 /** A column mapping as it is stored (version 2), before defaults. */
 const mappingObjectSchema = z.object({
   version: z.literal(2).default(2),
@@ -144,6 +157,8 @@ const mappingObjectSchema = z.object({
     .default({}),
   /** Where the plate barcode and the other plate facts are written outside the table. */
   facts: factsSchema.prefault({}),
+  /** How many plates the file holds; older mappings hold one. */
+  plates: plateSplitSchema,
   /** Rows of the table that are not wells (lib/imports/skip-rows.ts). */
   rows: z
     .object({
@@ -211,6 +226,13 @@ export const columnMappingSchema = columnMappingDraftSchema.superRefine((mapping
       message: 'Choose a target column or one target for the whole sheet, not both.',
     });
   }
+  if (mapping.plates.by === 'column' && mapping.plates.column === null) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['plates', 'column'],
+      message: 'Choose the column that names the plate of each row.',
+    });
+  }
   const seen = new Map<string, ImportField>();
   for (const field of IMPORT_FIELDS) {
     const chosen = mapping.columns[field];
@@ -234,4 +256,5 @@ export type ColumnMapping = z.output<typeof mappingObjectSchema>;
 export type ColumnMappingInput = z.input<typeof mappingObjectSchema>;
 export type FactLocator = z.output<typeof factLocatorSchema>;
 export type SheetLayout = z.output<typeof layoutSchema>;
+export type PlateSplit = z.output<typeof plateSplitSchema>;
 export type ImportTemplate = z.output<typeof importTemplateSchema>;

@@ -31,10 +31,11 @@ export interface ValidatePlateOptions {
 /**
  * A problem of the whole sheet, not of one row, that keeps the plate from being built: the check step
  * shows these first, each with what to do. `no_header_row` stands for the missing columns it sums up,
- * `no_wells` for rows that all have errors.
+ * `no_wells` for rows that all have errors, `plate_split` for a file that cannot be split into its plates
+ * as the mapping says (lib/imports/split-plates.ts).
  */
 export interface FileProblem {
-  code: ImportIssueCode | 'no_header_row' | 'no_wells';
+  code: ImportIssueCode | 'no_header_row' | 'no_wells' | 'plate_split';
   /** Where and what, as one sentence: `Sheet "Readouts", row 1: …`. */
   message: string;
   /** What the person can do about it, as one or two sentences. */

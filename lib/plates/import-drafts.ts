@@ -115,13 +115,16 @@ export async function readDraft(
   };
 }
 
-/** Marks the draft used by the plate, dropping its sheets and bytes, in the transaction that stores the plate. */
+/**
+ * Marks the draft used by its plates (a file may hold several, the first in plate_id), dropping its sheets
+ * and bytes, in the transaction that stores them.
+ */
 export async function consumeDraft(
   draftId: string,
-  plateId: string,
+  plateIds: readonly string[],
   transaction: Transaction,
 ): Promise<void> {
-  if (!(await consumeDraftRow(draftId, plateId, transaction)))
+  if (!(await consumeDraftRow(draftId, plateIds, transaction)))
     throw new AppError('conflict', 'This import draft was already used; read the file again.');
 }
 

@@ -1,7 +1,8 @@
 import 'server-only';
 import { guessMapping } from '@/lib/imports/guess-mapping';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
-import { guessFactLocators, type PlateFacts } from '@/lib/imports/plate-facts';
+import { guessFactLocators, readPlateFacts, type PlateFacts } from '@/lib/imports/plate-facts';
+import { guessPlateSplit, splitPlates } from '@/lib/imports/split-plates';
 import type { SheetData } from '@/lib/imports/spreadsheet-types';
 import { tableView } from '@/lib/imports/guess-mapping';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
@@ -23,8 +24,11 @@ export interface ImportFacts {
   /** The template applied (by name), or null when the mapping was guessed. */
   template: string | null;
   plateLabel: string;
-  /** Where the label came from: given, the plate barcode in the file, or the file name. */
-  labelSource: 'given' | 'barcode' | 'file';
+  /**
+   * Where the label came from: given, the plate barcode in the file, the file name, or, for a file of
+   * several plates, the plate's sheet name or plate-column value.
+   */
+  labelSource: 'given' | 'barcode' | 'file' | 'sheet' | 'column';
   plateFormat: number | null;
   wellCount: number;
   roleCounts: { negativeControl: number; positiveControl: number; test: number; empty: number };
@@ -38,6 +42,117 @@ export interface ImportFacts {
   unregisteredCompounds: string[] | null;
   errors: string[];
   warnings: string[];
+}
+
+/** One plate of a file's import facts: what ImportFacts says of one plate, and its key in the file. */
+export type PlateImportFacts = Omit<ImportFacts, 'file' | 'template'> & {
+  /** The sheet's name (one plate, a sheet per plate) or the plate-column value. */
+  key: string;
+};
+
+/**
+ * What an import of a file found, plate by plate (`plates`, in the order they are stored). A file of several
+ * plates keeps the top-level keys of one plate: those of its first plate (sheet, plateLabel, wellCount,
+ * roleCounts …), except `errors`, `warnings` and `unregisteredCompounds`, which are the whole file's, each
+ * error and warning naming its plate; `plateCount` says how many plates there are.
+ */
+export type FileImportFacts = ImportFacts & { plateCount: number; plates: PlateImportFacts[] };
+
+/** The file's facts from each plate's (see FileImportFacts); a file of one plate is that plate's facts. */
+export function joinPlateFacts(plates: readonly (ImportFacts & { key: string })[]): FileImportFacts {
+  const several = plates.length > 1;
+  const named = (label: string, lines: readonly string[]) =>
+    several ? lines.map((line) => `Plate "${label}": ${line}`) : [...lines];
+  const perPlate: PlateImportFacts[] = plates.map(({ file: _file, template: _template, ...rest }) => rest);
+  const { key: _key, ...first } = plates[0]!;
+  const unregistered =
+    first.unregisteredCompounds === null
+      ? null
+      : [...new Set(plates.flatMap((p) => p.unregisteredCompounds ?? []))];
+  return {
+    ...first,
+    errors: plates.flatMap((p) => named(p.plateLabel, p.errors)),
+    warnings: plates.flatMap((p) => named(p.plateLabel, p.warnings)),
+    unregisteredCompounds: unregistered,
+    plateCount: plates.length,
+    plates: perPlate,
+  };
+}
+
+/** The facts of a file whose plates could not be told apart (or read): no wells, the reason as its one error. */
+export function unreadFileFacts(input: {
+  filename: string;
+  sheet: string;
+  template: string | null;
+  label: Pick<ImportFacts, 'plateLabel' | 'labelSource'>;
+  errors: string[];
+  offline: boolean;
+}): FileImportFacts {
+  const facts: ImportFacts = {
+    file: input.filename,
+    sheet: input.sheet,
+    template: input.template,
+    ...input.label,
+    plateFormat: null,
+    wellCount: 0,
+    roleCounts: { negativeControl: 0, positiveControl: 0, test: 0, empty: 0 },
+    concentrationUnit: '',
+    targets: [],
+    qcRulesNotApplied: [],
+    unregisteredCompounds: input.offline ? null : [],
+    errors: input.errors,
+    warnings: [],
+  };
+  return { ...facts, plateCount: 0, plates: [] };
+}
+
+/**
+ * The check of a file with no registry (scripts/import-plate.ts --offline): split into its plates as the
+ * mapping says, each validated offline (validateOffline), its facts read on its own sheet.
+ */
+export function offlineFileFacts(input: {
+  filename: string;
+  sheets: readonly SheetData[];
+  sheet: SheetData;
+  mapping: ColumnMapping;
+  givenLabel: string | undefined;
+}): FileImportFacts {
+  const { filename, sheets, sheet, mapping } = input;
+  const split = splitPlates(sheets, sheet.name, mapping);
+  if (!split.ok)
+    return unreadFileFacts({
+      filename,
+      sheet: sheet.name,
+      template: null,
+      label: plateLabel(input.givenLabel, {}, filename),
+      errors: split.problems.map((p) => `${p.message} ${p.whatToDo}`),
+      offline: true,
+    });
+  const several = split.parts.length > 1;
+  return joinPlateFacts(
+    split.parts.map((part) => {
+      const preview = validateOffline(part.sheet, part.mapping);
+      const found = readPlateFacts(sheets, part.mapping);
+      const label =
+        several && part.label !== null && part.labelSource !== null
+          ? { plateLabel: part.label, labelSource: part.labelSource }
+          : plateLabel(input.givenLabel, found.facts, filename);
+      return {
+        key: part.key,
+        ...importFacts({
+          filename,
+          sheet: part.sheet,
+          mapping: part.mapping,
+          template: null,
+          label,
+          preview,
+          factWarnings: found.warnings,
+          rulesNotApplied: defaultRulesNotApplied(preview),
+          offline: true,
+        }),
+      };
+    }),
+  );
 }
 
 /** At most this many row errors are listed; the rest are counted in one more line. */
@@ -59,10 +174,11 @@ export function guessSheet(sheets: readonly SheetData[]): GuessedSheet {
     b.guess.missingFields.length < a.guess.missingFields.length ? b : a,
   );
   const located = guessFactLocators(sheets, best.sheet.name, best.guess.mapping.headerRow);
+  const withFacts = { ...best.guess.mapping, wellSheet: best.sheet.name, facts: located.facts };
+  // Several plates in the file (issue 18): a sheet per plate, or a plate column.
   const mapping = columnMappingDraftSchema.parse({
-    ...best.guess.mapping,
-    wellSheet: best.sheet.name,
-    facts: located.facts,
+    ...withFacts,
+    plates: guessPlateSplit(sheets, best.sheet, columnMappingDraftSchema.parse(withFacts)),
   });
   return { sheet: best.sheet, mapping };
 }

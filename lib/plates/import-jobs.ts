@@ -16,8 +16,8 @@ import {
   type StoredDraftCommit,
   type StoredImportRequest,
 } from '@/lib/validation/imports';
-import { ComputeJob, ImportUpload } from '@/models';
-import { commitImport, type CommitRequest } from './import-service';
+import { ComputeJob, ImportUpload, Plate } from '@/models';
+import { commitImport, type CommitRequest, type StoredPlate } from './import-service';
 import { readDraft, removeExpiredDrafts } from './import-drafts';
 import { importJobKey, removeUploadNoWorkerHolds, removeUploadsOfEndedJobs } from './import-queries';
 
@@ -118,15 +118,18 @@ export async function runQueuedImport(
           'forbidden',
           'The account that uploaded this file is no longer active; nothing was stored.',
         );
-      const { plateId } = await commitImport(actor, request, {
+      const { plateId, plates } = await commitImport(actor, request, {
         transaction,
         onStage: async (name) => void (await stage(name)),
       });
-      const message = `Stored as plate ${request.label}.`;
+      const message =
+        plates.length === 1
+          ? `Stored as plate ${plates[0]!.label}.`
+          : `Stored as ${plates.length} plates: ${plates.map((p) => p.label).join(', ')}.`;
       await removeUpload(payload.uploadId, transaction);
       // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
       await ComputeJob.update(
-        { state: 'done', plateId, finishedAt: new Date(), message },
+        { state: 'done', plateId, plateIds: plates.map((p) => p.plateId), finishedAt: new Date(), message },
         { where: { id: job.id }, transaction },
       );
       return message;
@@ -191,7 +194,16 @@ async function withdraw(job: ComputeJob, waitedMs: number): Promise<boolean> {
   return true;
 }
 
-export type ImportResult = { state: 'stored'; plateId: string } | { state: 'storing'; jobId: string };
+export type ImportResult =
+  { state: 'stored'; plateId: string; plates: StoredPlate[] } | { state: 'storing'; jobId: string };
+
+/** The plates an import job stored, in the order stored, with their labels. */
+async function storedPlates(job: ComputeJob): Promise<StoredPlate[]> {
+  const ids = job.plateIds?.length ? job.plateIds : [job.plateId!];
+  const rows = await Plate.findAll({ where: { id: ids }, attributes: ['id', 'label'], raw: true });
+  const label = new Map(rows.map((r) => [r.id, r.label]));
+  return ids.map((plateId) => ({ plateId, label: label.get(plateId) ?? '' }));
+}
 
 /** Reads the job's row; a lost database during the wait is tried again until the deadline. */
 async function readJob(jobId: string, deadline: number): Promise<ComputeJob> {
@@ -234,7 +246,8 @@ export async function awaitImport(
       runningSince === null ? started + queuedMs : runningSince + (waits.runningMs ?? IMPORT_RUN_WAIT_MS);
     const job = await readJob(jobId, deadline);
     tell(job);
-    if (job.state === 'done' && job.plateId) return { state: 'stored', plateId: job.plateId };
+    if (job.state === 'done' && job.plateId)
+      return { state: 'stored', plateId: job.plateId, plates: await storedPlates(job) };
     if (job.state === 'failed' || job.state === 'done') throw refusal(job);
     if (job.state === 'running') runningSince ??= Date.now();
     if (Date.now() >= deadline) {

@@ -7,12 +7,20 @@ import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapp
 import type { SheetData } from '@/lib/imports/spreadsheet-types';
 import { Screen } from '@/models';
 import { createDraft } from './import-drafts';
-import { guessSheet, importFacts, plateLabel, type ImportFacts } from './import-facts';
+import {
+  guessSheet,
+  importFacts,
+  joinPlateFacts,
+  plateLabel,
+  unreadFileFacts,
+  type FileImportFacts,
+} from './import-facts';
 import { awaitImport, queueImport } from './import-jobs';
 import {
+  checkImport,
   commitImport,
-  previewImport,
   readOnce,
+  type StoredPlate,
   type ImportPreview,
   type ParsedFile,
   type Upload,
@@ -39,7 +47,7 @@ export interface ImportOnceRequest {
 /** A file checked: its facts, the screen, and what a commit of it sends (null when the check found errors). */
 export interface CheckedImport {
   screenId: string;
-  facts: ImportFacts;
+  facts: FileImportFacts;
   preview: ImportPreview;
   commit: {
     upload: Upload & { parsed: ParsedFile };
@@ -95,19 +103,39 @@ export async function checkImportOnce(actor: Actor, request: ImportOnceRequest):
   const screen = await findScreen(request.screen);
   const upload = await readOnce({ ...request.file, screenId: screen.id });
   const { sheet, mapping, template } = await chooseMapping(actor, upload.parsed.sheets, request.template);
-  const preview = await previewImport(actor, { ...upload, sheet: sheet.name, mapping });
-  const label = plateLabel(request.label, preview.facts, upload.filename);
-  const facts = importFacts({
-    filename: upload.filename,
-    sheet,
-    mapping,
-    template,
-    label,
-    preview,
-    factWarnings: preview.factWarnings,
-    rulesNotApplied: preview.qcRulesNotApplied,
-    offline: false,
-  });
+  const { preview, plates } = await checkImport(actor, { ...upload, sheet: sheet.name, mapping });
+  const several = plates.length > 1;
+  const unused = `The label given (${request.label}) was not used: the file holds several plates, each labelled by its own barcode, sheet or plate column.`;
+  const facts = plates.length
+    ? joinPlateFacts(
+        plates.map((plate) => {
+          const found = importFacts({
+            filename: upload.filename,
+            sheet: plate.part.sheet,
+            mapping: plate.part.mapping,
+            template,
+            // A file of several plates labels each by its barcode, sheet or plate column; --label is one plate's.
+            label: several
+              ? { plateLabel: plate.label.label, labelSource: plate.label.labelSource }
+              : plateLabel(request.label, plate.preview.facts, upload.filename),
+            preview: plate.preview,
+            factWarnings: plate.preview.factWarnings,
+            rulesNotApplied: plate.qcRulesNotApplied,
+            offline: false,
+          });
+          if (several && request.label) found.warnings.push(unused);
+          return { key: plate.part.key, ...found };
+        }),
+      )
+    : unreadFileFacts({
+        filename: upload.filename,
+        sheet: sheet.name,
+        template,
+        label: plateLabel(request.label, {}, upload.filename),
+        errors: preview.fileProblems.map((p) => `${p.message} ${p.whatToDo}`),
+        offline: false,
+      });
+  const label = { plateLabel: facts.plateLabel };
   const clean = preview.ok && preview.plate !== null && facts.errors.length === 0;
   return {
     screenId: screen.id,
@@ -134,8 +162,8 @@ function refusal(checked: CheckedImport): AppError {
 }
 
 export type ImportOnceResult =
-  | { state: 'stored'; plateId: string; facts: ImportFacts }
-  | { state: 'storing'; jobId: string; facts: ImportFacts };
+  | { state: 'stored'; plateId: string; plates: StoredPlate[]; facts: FileImportFacts }
+  | { state: 'storing'; jobId: string; facts: FileImportFacts };
 
 /**
  * Checks the file and, when the check is clean, stores the plate: `via: 'job'` keeps the parsed file as an
@@ -162,8 +190,8 @@ export async function importOnce(
       { plateId: duplicate.plateId, facts: checked.facts },
     );
   if (options.via === 'here') {
-    const { plateId } = await commitImport(actor, { ...upload, ...choice });
-    return { state: 'stored', plateId, facts: checked.facts };
+    const { plateId, plates } = await commitImport(actor, { ...upload, ...choice });
+    return { state: 'stored', plateId, plates, facts: checked.facts };
   }
   const draft = await createDraft(actor, {
     ...upload,

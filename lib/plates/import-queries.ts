@@ -35,13 +35,18 @@ export async function removeUploadsOfEndedJobs(): Promise<void> {
  */
 export async function consumeDraftRow(
   draftId: string,
-  plateId: string,
+  plateIds: readonly string[],
   transaction: Transaction,
 ): Promise<boolean> {
   const used = await db().query<{ id: string }>(
-    `update import_drafts set consumed_at = now(), plate_id = :plateId, sheets = null, bytes = null
+    `update import_drafts set consumed_at = now(), plate_id = :plateId, plate_ids = :plateIds::uuid[],
+        sheets = null, bytes = null
       where id = :draftId and consumed_at is null returning id`,
-    { type: QueryTypes.SELECT, replacements: { draftId, plateId }, transaction },
+    {
+      type: QueryTypes.SELECT,
+      replacements: { draftId, plateId: plateIds[0]!, plateIds: `{${plateIds.join(',')}}` },
+      transaction,
+    },
   );
   return used.length > 0;
 }

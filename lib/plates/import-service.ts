@@ -21,7 +21,9 @@ import { guessFactLocators, readPlateFacts, type PlateFacts } from '@/lib/import
 import { parseSpreadsheet } from '@/lib/imports/parse-spreadsheet';
 import type { PlateFormat } from '@/lib/domain/plate-formats';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
-import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
+import { validatePlateSheet, type FileProblem, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
+import type { ImportIssue } from '@/lib/imports/import-issue';
+import { guessPlateSplit, splitPlates, type PlatePart } from '@/lib/imports/split-plates';
 import { layoutHeaderCells } from '@/lib/imports/reshape-table';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import type { QcRuleNotApplied } from '@/lib/science/qc/qc-rules';
@@ -30,7 +32,8 @@ import { Screen, Target } from '@/models';
 import { parsedPlateInput } from './analysis-input';
 import { consumeDraft, createDraft, readDraft } from './import-drafts';
 import { analysisSettings } from './settings';
-import { findDuplicateUpload, sha256Hex, storePlate } from './store';
+import { plateLabel } from './import-facts';
+import { findDuplicateUpload, sha256Hex, storePlate, storeUploadedFile } from './store';
 import { recogniseTemplate, rememberTargetAliases, saveTemplate, screenTargetAliases } from './templates';
 
 /**
@@ -185,24 +188,78 @@ export interface SheetChoice {
 
 export type PreviewRequest = ImportSource & SheetChoice;
 
-/** What the check step shows: the sheet's preview, QC messages per row, and the QC rules not applied. */
+/**
+ * One plate of the file as the check step lists it: its key in the file (sheet name or plate-column value),
+ * the label the file gives it, its well count, and its own problems and issues, each naming the plate.
+ */
+export interface PlateCheck {
+  key: string;
+  sheet: string;
+  label: string;
+  labelSource: 'barcode' | 'sheet' | 'column' | 'file';
+  wellCount: number;
+  ok: boolean;
+  summary: PlatePreview['summary'];
+  fileProblems: FileProblem[];
+  /** At most 200 of its issues, errors first. */
+  issues: ImportIssue[];
+  facts: PlateFacts;
+  factWarnings: string[];
+  /** Wells QC flags on at least one readout. */
+  qcFlaggedWells: number;
+}
+
+/**
+ * What the check step shows: the first plate's preview (rows, QC messages per row, the QC rules not
+ * applied) with the whole file's verdict (`ok`, `fileProblems` and unknown compounds and targets of every
+ * plate), and each plate of the file in `plates` (one for a file of one plate).
+ */
 export type ImportPreview = PlatePreview &
   SheetFacts & {
     qc: Record<number, string[]>;
     /** Rules whose readout the file does not carry (in no well): not applied, the others still run. */
     qcRulesNotApplied: QcRuleNotApplied[];
+    plates: PlateCheck[];
   };
 
 /**
  * Step 2: every row with its parse result and QC flags, the plate built from good rows, whole-file
- * problems with what to do, and the QC rules the file's readouts leave unapplied. Nothing is written.
+ * problems with what to do, and the QC rules the file's readouts leave unapplied; for a file of several
+ * plates the first plate's rows and every plate's check. Nothing is written.
  */
 export async function previewImport(actor: Actor, request: PreviewRequest): Promise<ImportPreview> {
+  return (await checkImport(actor, request)).preview;
+}
+
+/** A plate of the file as a check found it: the part, its label, its preview and the QC rules it leaves unapplied. */
+export interface CheckedPlate {
+  part: PlatePart;
+  label: Pick<PlateCheck, 'label' | 'labelSource'>;
+  preview: PlatePreview & SheetFacts;
+  qcRulesNotApplied: QcRuleNotApplied[];
+}
+
+/**
+ * The check step's preview and each plate of the file as checked (empty when the file cannot be split
+ * into its plates: the preview's fileProblems say why), for callers that report per plate
+ * (lib/plates/import-once.ts). Nothing is written.
+ */
+export async function checkImport(
+  actor: Actor,
+  request: PreviewRequest,
+): Promise<{ preview: ImportPreview; plates: CheckedPlate[] }> {
   requireCapability(actor, 'importPlates');
   const { file, screen, targets } = await openSource(actor, request);
-  const preview = await checkSheet(file, targets, request);
-  if (!preview.plate) return { ...preview, qc: {}, qcRulesNotApplied: [] };
-  return { ...preview, ...previewQc(preview, analysisSettings(screen)) };
+  const checked = await checkFile(file, targets, request);
+  const settings = analysisSettings(screen);
+  const plates = checked.ok
+    ? checked.parts.map((part) => ({
+        ...part,
+        label: partLabel(part, file.filename),
+        qcRulesNotApplied: part.preview.plate ? previewQc(part.preview, settings).qcRulesNotApplied : [],
+      }))
+    : [];
+  return { preview: filePreview(checked, file.filename, settings), plates };
 }
 
 /** The plate facts read from outside the table, and a warning for each located fact not found. */
@@ -211,23 +268,158 @@ interface SheetFacts {
   factWarnings: string[];
 }
 
-/** Validates the chosen sheet of the file with the mapping against the registered compounds and the screen's targets. */
-async function checkSheet(
+/** A plate of the file checked: the part and its preview. */
+interface CheckedPart {
+  part: PlatePart;
+  preview: PlatePreview & SheetFacts;
+}
+
+/** The file checked plate by plate, or the reasons it cannot be split into plates. */
+type CheckedFile = { ok: true; parts: CheckedPart[] } | { ok: false; sheet: string; problems: FileProblem[] };
+
+/**
+ * Splits the file into its plates as the mapping says (lib/imports/split-plates.ts) and validates each
+ * against the registered compounds and the screen's targets, as one plate's file would be.
+ */
+async function checkFile(
   file: OpenedFile,
   targets: string[],
   choice: SheetChoice,
   transaction?: Transaction,
-): Promise<PlatePreview & SheetFacts> {
-  const sheet = file.sheets.find((s) => s.name === choice.sheet);
-  if (!sheet) throw new AppError('invalid', `${file.filename} has no sheet named "${choice.sheet}".`);
-  const preview = validatePlateSheet(sheet, choice.mapping, {
+): Promise<CheckedFile> {
+  if (!file.sheets.some((s) => s.name === choice.sheet))
+    throw new AppError('invalid', `${file.filename} has no sheet named "${choice.sheet}".`);
+  const mapping = columnMappingDraftSchema.parse(choice.mapping);
+  const split = splitPlates(file.sheets, choice.sheet, mapping);
+  if (!split.ok)
+    return {
+      ok: false,
+      sheet: choice.sheet,
+      problems: split.problems.map((p) => ({ code: 'plate_split' as const, ...p })),
+    };
+  const options = {
     knownCompounds: await knownCompoundNames(transaction), // identifiers and aliases (lib/compounds/aliases.ts)
     knownTargets: targets,
     targetAliases: await screenTargetAliases(file.screenId, transaction),
     ...(choice.format ? { plateFormat: choice.format } : {}),
+  };
+  const parts = split.parts.map((part) => {
+    const preview = validatePlateSheet(part.sheet, part.mapping, options);
+    const { facts, warnings } = readPlateFacts(file.sheets, part.mapping);
+    return { part, preview: { ...preview, facts, factWarnings: warnings } };
   });
-  const { facts, warnings } = readPlateFacts(file.sheets, columnMappingDraftSchema.parse(choice.mapping));
-  return { ...preview, facts, factWarnings: warnings };
+  return { ok: true, parts };
+}
+
+/** The label a plate gets unless the person gives one: the file's (barcode, sheet, column value), else the file name. */
+function partLabel(checked: CheckedPart, filename: string): Pick<PlateCheck, 'label' | 'labelSource'> {
+  const { part, preview } = checked;
+  if (part.label !== null && part.labelSource !== null)
+    return { label: part.label, labelSource: part.labelSource };
+  const found = plateLabel(undefined, preview.facts, filename);
+  return { label: found.plateLabel, labelSource: found.labelSource === 'barcode' ? 'barcode' : 'file' };
+}
+
+/** A message prefixed with the plate it belongs to, in a file of several plates. */
+const ofPlate = (several: boolean, label: string, message: string) =>
+  several ? `Plate "${label}": ${message}` : message;
+
+/** The check step's preview of the whole file (see ImportPreview). */
+function filePreview(
+  checked: CheckedFile,
+  filename: string,
+  settings: ReturnType<typeof analysisSettings>,
+): ImportPreview {
+  if (!checked.ok) {
+    const empty = validatePlateSheet(
+      { name: checked.sheet, rows: [], decimalComma: false },
+      {},
+      { knownCompounds: [], knownTargets: [] },
+    );
+    return {
+      ...empty,
+      issues: [],
+      summary: { rows: 0, okRows: 0, errorRows: 0, errors: checked.problems.length, warnings: 0 },
+      fileProblems: checked.problems,
+      ok: false,
+      facts: {},
+      factWarnings: [],
+      qc: {},
+      qcRulesNotApplied: [],
+      plates: [],
+    };
+  }
+  const several = checked.parts.length > 1;
+  const plates: PlateCheck[] = checked.parts.map((checkedPart) => {
+    const { part, preview } = checkedPart;
+    const { label, labelSource } = partLabel(checkedPart, filename);
+    const qc = preview.plate ? previewQc(preview, settings).qc : {};
+    const flaggedRows = new Set(Object.keys(qc).map(Number));
+    const flagged = (preview.plate?.wells ?? []).filter((w) =>
+      w.readouts.some((r) => flaggedRows.has(r.row)),
+    );
+    const issues = [...preview.issues]
+      .sort((a, b) => Number(b.severity === 'error') - Number(a.severity === 'error'))
+      .slice(0, 200)
+      .map((issue) => ({ ...issue, message: ofPlate(several, label, issue.message) }));
+    return {
+      key: part.key,
+      sheet: part.sheet.name,
+      label,
+      labelSource,
+      wellCount: preview.plate?.wells.length ?? 0,
+      ok: preview.ok,
+      summary: preview.summary,
+      fileProblems: preview.fileProblems.map((p) => ({ ...p, message: ofPlate(several, label, p.message) })),
+      issues,
+      facts: preview.facts,
+      factWarnings: preview.factWarnings.map((w) => ofPlate(several, label, w)),
+      qcFlaggedWells: flagged.length,
+    };
+  });
+  const first = checked.parts[0]!.preview;
+  const firstQc: Pick<ImportPreview, 'qc' | 'qcRulesNotApplied'> = first.plate
+    ? previewQc(first, settings)
+    : { qc: {}, qcRulesNotApplied: [] };
+  if (!several) return { ...first, ...firstQc, plates };
+  // The whole file's verdict: every plate's problems and unknown names, each naming its plate.
+  const previews = checked.parts.map((p) => p.preview);
+  return {
+    ...first,
+    ...firstQc,
+    ok: plates.every((p) => p.ok),
+    fileProblems: plates.flatMap((p) => p.fileProblems),
+    summary: {
+      rows: sum(previews, (p) => p.summary.rows),
+      okRows: sum(previews, (p) => p.summary.okRows),
+      errorRows: sum(previews, (p) => p.summary.errorRows),
+      errors: sum(previews, (p) => p.summary.errors),
+      warnings: sum(previews, (p) => p.summary.warnings),
+    },
+    unknownCompounds: mergeRows(
+      previews.flatMap((p) => p.unknownCompounds),
+      (c) => c.identifier,
+    ),
+    unknownTargets: mergeRows(
+      previews.flatMap((p) => p.unknownTargets),
+      (t) => t.name,
+    ),
+    factWarnings: plates.flatMap((p) => p.factWarnings),
+    plates,
+  };
+}
+
+const sum = <T>(items: readonly T[], value: (item: T) => number) =>
+  items.reduce((total, item) => total + value(item), 0);
+
+/** Items of several plates merged by name, their rows joined. */
+function mergeRows<T extends { rows: number[] }>(items: readonly T[], key: (item: T) => string): T[] {
+  const byKey = new Map<string, T>();
+  for (const item of items) {
+    const seen = byKey.get(key(item));
+    byKey.set(key(item), seen ? { ...seen, rows: [...new Set([...seen.rows, ...item.rows])] } : item);
+  }
+  return [...byKey.values()];
 }
 
 /** QC messages per spreadsheet row and the rules not applied, from the same analysis the commit stores. */
@@ -247,16 +439,74 @@ function previewQc(
 }
 
 export type CommitRequest = PreviewRequest & {
+  /** The plate's label; for a file of several plates, the label of any plate `labels` does not name. */
   label: string;
+  /** Labels of a file's plates by their key (sheet name or plate-column value); each plate's own by default. */
+  labels?: Record<string, string> | undefined;
   templateName?: string | undefined;
   supersedesPlateId?: string | undefined;
 };
 
+/** A plate stored by a commit: its id and label. */
+export interface StoredPlate {
+  plateId: string;
+  label: string;
+}
+
+/** The refusal of a file a check found faults in: the first plate with a fault is named, nothing is stored. */
+function commitRefusal(checked: CheckedFile, labels: readonly string[]): AppError {
+  if (!checked.ok) {
+    const problem = checked.problems[0]!;
+    return new AppError(
+      'invalid',
+      `The file cannot be split into plates; nothing was stored: ${problem.message} ${problem.whatToDo}`,
+      { fileProblems: checked.problems, issues: [] },
+    );
+  }
+  const several = checked.parts.length > 1;
+  const index = checked.parts.findIndex((p) => !p.preview.ok || !p.preview.plate);
+  const { preview } = checked.parts[index]!;
+  const label = labels[index]!;
+  // A whole-file problem comes first, with what to do; otherwise the first row error.
+  const problem = preview.fileProblems[0];
+  const first = preview.issues.find((issue) => issue.severity === 'error');
+  const firstText = problem ? `${problem.message} ${problem.whatToDo}` : first?.message;
+  const what = firstText
+    ? `${several ? `Plate "${label}"` : 'The sheet'} has ${preview.summary.errors} error(s); first: ${firstText}`
+    : `${several ? `Plate "${label}"` : 'The sheet'} holds no wells.`;
+  return new AppError('invalid', several ? `${what} No plate of the file was stored.` : what, {
+    fileProblems: preview.fileProblems.map((p) => ({ ...p, message: ofPlate(several, label, p.message) })),
+    issues: preview.issues
+      .slice(0, 200)
+      .map((issue) => ({ ...issue, message: ofPlate(several, label, issue.message) })),
+    ...(several ? { plate: label } : {}),
+  });
+}
+
+/** Each plate's label: the one given for its key, else (one plate) the request's, else the file's own. */
+function commitLabels(checked: Extract<CheckedFile, { ok: true }>, request: CommitRequest, filename: string) {
+  const several = checked.parts.length > 1;
+  const labels = checked.parts.map((part) => {
+    const given = request.labels?.[part.part.key]?.trim();
+    if (given) return given.slice(0, 120);
+    if (!several) return request.label;
+    return partLabel(part, filename).label;
+  });
+  const repeated = labels.find((label, i) => labels.indexOf(label) !== i);
+  if (repeated !== undefined)
+    throw new AppError(
+      'invalid',
+      `Two plates of this file would both be labelled "${repeated}"; give each plate its own label. Nothing was stored.`,
+    );
+  return labels;
+}
+
 /**
- * Step 3: stores the plate, its wells, readouts and QC, its queued fit job, and the template, and
- * consumes the draft it came from, all in one transaction (the caller's when given: a queued import also
- * removes its upload in it, lib/plates/import-jobs.ts). A draft is read under its row lock in that
- * transaction, so a second commit of it waits and is then refused as used.
+ * Step 3: stores every plate of the file (one, or each sheet or plate-column value as the mapping says),
+ * each with its wells, readouts and QC, its queued fit job and its audit event, the file once, the template,
+ * and consumes the draft it came from, all in one transaction (the caller's when given: a queued import also
+ * removes its upload in it, lib/plates/import-jobs.ts): a fault in any plate stores none. A draft is read
+ * under its row lock in that transaction, so a second commit of it waits and is then refused as used.
  */
 export async function commitImport(
   actor: Actor,
@@ -266,7 +516,7 @@ export async function commitImport(
     /** Told when the import moves on to checking the rows and to storing the plate (the job's progress). */
     onStage?: (stage: 'checking' | 'storing') => Promise<void>;
   } = {},
-): Promise<{ plateId: string }> {
+): Promise<{ plateId: string; plates: StoredPlate[] }> {
   requireCapability(actor, 'importPlates');
   // A file sent with the request is read before the transaction opens (the screen checked first).
   const source: ImportSource =
@@ -274,20 +524,10 @@ export async function commitImport(
   const store = async (transaction: Transaction) => {
     const { file, targets } = await openSource(actor, source, transaction);
     await options.onStage?.('checking');
-    const preview = await checkSheet(file, targets, request, transaction);
-    if (!preview.ok || !preview.plate) {
-      // A whole-file problem comes first, with what to do; otherwise the first row error.
-      const problem = preview.fileProblems[0];
-      const first = preview.issues.find((issue) => issue.severity === 'error');
-      const firstText = problem ? `${problem.message} ${problem.whatToDo}` : first?.message;
-      throw new AppError(
-        'invalid',
-        firstText
-          ? `The sheet has ${preview.summary.errors} error(s); first: ${firstText}`
-          : 'The sheet holds no wells.',
-        { fileProblems: preview.fileProblems, issues: preview.issues.slice(0, 200) },
-      );
-    }
+    const checked = await checkFile(file, targets, request, transaction);
+    if (!checked.ok) throw commitRefusal(checked, []);
+    const labels = commitLabels(checked, request, file.filename);
+    if (checked.parts.some((p) => !p.preview.ok || !p.preview.plate)) throw commitRefusal(checked, labels);
     await options.onStage?.('storing');
     const mapping: ColumnMapping = {
       ...columnMappingSchema.parse(request.mapping),
@@ -306,22 +546,32 @@ export async function commitImport(
     }
     // The file's target values are remembered as the screen's aliases, so the next file needs no clicks.
     await rememberTargetAliases(actor, file.screenId, mapping.targetValues, transaction);
-    const stored = await storePlate(
-      actor,
-      {
-        screenId: file.screenId,
-        label: request.label,
-        facts: preview.facts,
-        plate: preview.plate,
-        importTemplateId,
-        file: { bytes: file.bytes, filename: file.filename, mediaType: file.mediaType },
-        supersedesPlateId: request.supersedesPlateId ?? null,
-      },
-      transaction,
-    );
-    if (file.draftId) await consumeDraft(file.draftId, stored.plateId, transaction);
-    await queueImportNotices(actor, stored.plateId, transaction); // chemists hear of the new plate (lib/signoff)
-    return stored;
+    const fileRecord = { bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
+    // The file is stored once (duplicates refused there); its plates share the record.
+    const uploadedFile = await storeUploadedFile(actor, file.screenId, fileRecord, transaction);
+    const plates: StoredPlate[] = [];
+    for (const [index, { preview }] of checked.parts.entries()) {
+      const label = labels[index]!;
+      const stored = await storePlate(
+        actor,
+        {
+          screenId: file.screenId,
+          label,
+          facts: preview.facts,
+          plate: preview.plate!,
+          importTemplateId,
+          file: fileRecord,
+          uploadedFile,
+          supersedesPlateId: checked.parts.length === 1 ? (request.supersedesPlateId ?? null) : null,
+        },
+        transaction,
+      );
+      plates.push({ plateId: stored.plateId, label });
+    }
+    const plateIds = plates.map((p) => p.plateId);
+    if (file.draftId) await consumeDraft(file.draftId, plateIds, transaction);
+    await queueImportNotices(actor, plateIds, transaction); // chemists hear of the new plates, once (lib/signoff)
+    return { plateId: plateIds[0]!, plates };
   };
   return options.transaction ? store(options.transaction) : db().transaction(store);
 }
@@ -334,6 +584,8 @@ export function inspectSheets(sheets: SheetData[]): SheetInspection[] {
     // Plate facts outside the table (issue 18): barcode-like keys on other sheets or above the header.
     const located = guessFactLocators(sheets, sheet.name, headerRow);
     guess.mapping = { ...guess.mapping, facts: located.facts };
+    // Several plates in the file (issue 18): a sheet per plate, or a plate column.
+    guess.mapping = { ...guess.mapping, plates: guessPlateSplit(sheets, sheet, guess.mapping) };
     // A wide or grid sheet is mapped as the long table read from it (lib/imports/reshape-table.ts).
     const { headers, sample, values } = tableView(sheet, guess.mapping);
     return {

@@ -22,6 +22,14 @@ export interface StorePlateInput {
   supersedesPlateId?: string | null;
   /** Plate facts read from outside the file's table (barcode, run date, cell line, temperature, operator). */
   facts?: Record<string, string>;
+  /** The file's record when another plate of the same file stored it already (storeUploadedFile). */
+  uploadedFile?: StoredFile;
+}
+
+/** An uploaded file as stored: its record's id and its SHA-256. */
+export interface StoredFile {
+  id: string;
+  sha256: string;
 }
 
 export const sha256Hex = (bytes: Uint8Array): string => createHash('sha256').update(bytes).digest('hex');
@@ -62,8 +70,43 @@ async function idsByName(screenId: string, plate: ParsedPlate, transaction: Tran
 }
 
 /**
- * Writes an imported plate in the caller's transaction: the raw file with its SHA-256, the plate, its
- * wells and readouts with QC reasons and block, Z′ per target, the queued fit job, and the audit event.
+ * Stores the raw file with its SHA-256 in the caller's transaction, once per file whatever number of
+ * plates it holds; a file already stored for the screen is refused (its first plate named).
+ */
+export async function storeUploadedFile(
+  actor: Actor,
+  screenId: string,
+  file: StorePlateInput['file'],
+  transaction: Transaction,
+): Promise<StoredFile> {
+  const sha256 = sha256Hex(file.bytes);
+  const duplicate = await findDuplicateUpload(screenId, sha256, transaction);
+  if (duplicate) {
+    throw new AppError(
+      'conflict',
+      `This exact file was already imported for this screen as plate ${duplicate.label}.`,
+      { plateId: duplicate.plateId },
+    );
+  }
+  const stored = await UploadedFile.create(
+    {
+      screenId,
+      filename: file.filename,
+      mediaType: file.mediaType,
+      sizeBytes: file.bytes.byteLength,
+      sha256,
+      content: Buffer.from(file.bytes),
+      uploadedBy: actor.id,
+    },
+    { transaction },
+  );
+  return { id: stored.id, sha256 };
+}
+
+/**
+ * Writes an imported plate in the caller's transaction: the raw file with its SHA-256 (unless a plate of
+ * the same file stored it, `uploadedFile`), the plate, its wells and readouts with QC reasons and block,
+ * Z′ per target, the queued fit job, and the audit event.
  */
 export async function storePlate(
   actor: Actor,
@@ -72,29 +115,9 @@ export async function storePlate(
 ): Promise<{ plateId: string }> {
   const screen = await Screen.findByPk(input.screenId, { transaction });
   if (!screen) throw new AppError('not_found', 'No such screen.');
-  const sha256 = sha256Hex(input.file.bytes);
-  const duplicate = await findDuplicateUpload(screen.id, sha256, transaction);
-  if (duplicate) {
-    throw new AppError(
-      'conflict',
-      `This exact file was already imported for this screen as plate ${duplicate.label}.`,
-      { plateId: duplicate.plateId },
-    );
-  }
+  const file = input.uploadedFile ?? (await storeUploadedFile(actor, screen.id, input.file, transaction));
+  const { sha256 } = file;
   const ids = await idsByName(screen.id, input.plate, transaction);
-
-  const file = await UploadedFile.create(
-    {
-      screenId: screen.id,
-      filename: input.file.filename,
-      mediaType: input.file.mediaType,
-      sizeBytes: input.file.bytes.byteLength,
-      sha256,
-      content: Buffer.from(input.file.bytes),
-      uploadedBy: actor.id,
-    },
-    { transaction },
-  );
   const plateId = randomUUID();
   const readouts: ReadoutData[] = [];
   const wellRows = input.plate.wells.map((w) => {

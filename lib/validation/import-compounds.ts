@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { columnMappingDraftSchema } from '@/lib/imports/mapping-schema';
-import { previewFieldsSchema } from './imports';
+import { plateLabelsJson, plateLabelsSchema, previewFieldsSchema } from './imports';
 
 /** A file's compound identifier as the check step sends it back (the file's own text). */
 const fileName = z
@@ -41,6 +41,8 @@ export type UnknownCompoundsInput = z.input<typeof unknownCompoundsSchema>;
 /** The wait request: the preview's fields and the label chosen so far. */
 export const waitFieldsSchema = previewFieldsSchema.extend({
   label: z.string().trim().max(120).default(''),
+  /** For a file of several plates: each plate's label by its key, as JSON. */
+  labels: plateLabelsJson,
 });
 
 /** The choices a waiting draft keeps to resume with (import_drafts.waiting_choice). */
@@ -49,6 +51,8 @@ export const waitingChoiceSchema = z.object({
   mapping: columnMappingDraftSchema,
   format: z.literal([96, 384, 1536]).optional(),
   label: z.string().max(120),
+  /** Labels of a file's plates by their key, for a file of several plates. */
+  labels: plateLabelsSchema.optional(),
 });
 export type WaitingChoice = z.infer<typeof waitingChoiceSchema>;
 

@@ -34,9 +34,33 @@ const sheetFields = {
     .transform((v) => (v === '' ? undefined : (Number(v) as 96 | 384 | 1536))),
 };
 
+/** Labels of a file's plates by their key (sheet name or plate-column value), for a file of several plates. */
+export const plateLabelsSchema = z
+  .record(
+    z.string().max(200),
+    z.string().trim().min(1, 'Give every plate a label (its barcode or name).').max(120),
+  )
+  .refine((labels) => Object.keys(labels).length <= 50, 'Label at most 50 plates.');
+
+export const plateLabelsJson = z
+  .string()
+  .optional()
+  .transform((text, ctx) => {
+    if (!text) return undefined;
+    try {
+      return JSON.parse(text) as unknown;
+    } catch {
+      ctx.addIssue({ code: 'custom', message: 'The plate labels are not valid JSON.' });
+      return z.NEVER;
+    }
+  })
+  .pipe(plateLabelsSchema.optional());
+
 /** What a commit adds to a preview: the plate's label, a template to save, a plate it supersedes. */
 const commitOnlyFields = {
   label: z.string().trim().min(1, 'Give the plate a label (its barcode or name).').max(120),
+  /** For a file of several plates: each plate's label by its key, as JSON (else each plate's own). */
+  labels: plateLabelsJson,
   templateName: z
     .string()
     .trim()
@@ -64,6 +88,7 @@ const storedCommitFields = {
   mapping: columnMappingDraftSchema,
   format: z.literal([96, 384, 1536]).optional(),
   label: z.string().min(1).max(120),
+  labels: plateLabelsSchema.optional(),
   templateName: z.string().max(100).optional(),
   supersedesPlateId: z.uuid().optional(),
 };

@@ -81,12 +81,18 @@ describe('imports as jobs', () => {
     const result = await awaitImport(jobId);
     expect(result.state).toBe('stored');
     const plate = await Plate.findOne({ where: { label: 'JOB-P01' }, rejectOnEmpty: true });
-    expect(result).toEqual({ state: 'stored', plateId: plate.id });
+    // The plates stored (one here; a file may hold several), the first also as plateId.
+    expect(result).toEqual({
+      state: 'stored',
+      plateId: plate.id,
+      plates: [{ plateId: plate.id, label: 'JOB-P01' }],
+    });
     const job = await ComputeJob.findByPk(jobId, { rejectOnEmpty: true });
     expect(job).toMatchObject({
       kind: 'plate-import',
       state: 'done',
       plateId: plate.id,
+      plateIds: [plate.id],
       requestedBy: biologist.id,
       message: 'Stored as plate JOB-P01.',
     });

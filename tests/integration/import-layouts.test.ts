@@ -9,7 +9,7 @@ import { screenSchema } from '@/lib/validation/screens';
 import { Plate, Well } from '@/models';
 import { layout, type FileFacts } from '../fixtures/export-layouts';
 import type { TableReadBack } from '../fixtures/export-layouts/layout-kit';
-import type { Target } from '../fixtures/export-layouts/truth';
+import { expectedIc50s, PLATES, type PlateName, type Target } from '../fixtures/export-layouts/truth';
 import { makeActor } from '../support/actors';
 import { demoScreensSetup } from '../support/demo-scenario';
 import { fitsCurrent } from '../support/jobs';
@@ -18,7 +18,8 @@ import { fitsCurrent } from '../support/jobs';
  * The invented export layouts (tests/fixtures/export-layouts) that Gatewell's import service reads today,
  * each with a mapping this test writes from the file's facts: its header row, the columns of its table,
  * its units, its words for the roles, and, where the file names its one target in words of its own, that
- * target for the whole sheet. The layouts it cannot read yet are listed in the fixture's README.
+ * target for the whole sheet; and the two layouts of several plates, told apart by sheet or by a plate
+ * column (issue 18).
  */
 
 interface Importable {
@@ -461,5 +462,213 @@ describe('invented export layouts through the import service', () => {
     );
     expect(messages.length).toBeGreaterThan(0);
     for (const { message } of messages) expect(message).toContain('cells as the unit');
+  });
+
+  /**
+   * The two invented layouts of several plates (issue 18): a sheet per plate, and a plate column. Mapped
+   * once (the file's columns, units and words, and how its plates are told apart), each file is stored as a
+   * plate per plate of the truth in one transaction; QC flags exactly each plate's bad wells, every
+   * measurable IC50 of each plate is within ±15 % of the truth and its CI holds it, and the template saved
+   * with the first file reads a second file of the layout by its fingerprint with no edit.
+   */
+  const SEVERAL: (Importable & { plates: ColumnMappingInput['plates'] })[] = [
+    {
+      name: 'plates-per-sheet',
+      targets: 'mapped',
+      plates: { by: 'sheet' },
+      columns: {
+        well: 'Well',
+        role: 'Well type',
+        compound: 'Compound',
+        concentration: 'Conc (uM)',
+        target: 'Target',
+        controlCurrent: 'I pre (pA)',
+        compoundCurrent: 'I post (pA)',
+      },
+    },
+    {
+      name: 'plate-column-tsv',
+      targets: 'mapped',
+      plates: { by: 'column', column: 'Plate barcode' },
+      columns: {
+        well: 'Well',
+        role: 'Role',
+        compound: 'Compound',
+        concentration: 'Conc (nM)',
+        target: 'Target',
+        controlCurrent: 'I control (nA)',
+        compoundCurrent: 'I compound (nA)',
+      },
+    },
+  ];
+
+  /** QC flags exactly the plate's bad wells; each measurable IC50 of its plan within ±15 % and inside its CI. */
+  async function expectPlateMatchesTruth(
+    plateId: string,
+    truth: FileFacts['plates'][number],
+    targets: Target[],
+  ) {
+    await fitsCurrent(plateId);
+    const stored = await Plate.findByPk(plateId, { rejectOnEmpty: true });
+    expect(stored.label).toBe(truth.label);
+    expect(stored.format).toBe(truth.format);
+    expect(await Well.count({ where: { plateId } })).toBe(truth.wellCount);
+    const flagged = await db().query<{ position: string }>(
+      `select distinct w.position from readouts r join wells w on w.id = r.well_id
+         where w.plate_id = :plateId and jsonb_array_length(r.qc_reasons) > 0 order by w.position`,
+      { replacements: { plateId }, type: 'SELECT' as never },
+    );
+    expect(flagged.map((f) => f.position)).toEqual(truth.badWells.map((b) => b.well).sort());
+    const fits = await db().query<{
+      identifier: string;
+      target: string;
+      status: string;
+      ic50: number;
+      low: number;
+      high: number;
+    }>(
+      `select c.identifier, t.name as target, f.status, f.ic50_um as ic50, f.ic50_ci_low_um as low,
+              f.ic50_ci_high_um as high
+         from fits f join compounds c on c.id = f.compound_id join targets t on t.id = f.target_id
+         where f.plate_id = :plateId`,
+      { replacements: { plateId }, type: 'SELECT' as never },
+    );
+    const name = (Object.keys(PLATES) as PlateName[]).find((n) => PLATES[n].barcode === truth.label)!;
+    const expected = expectedIc50s(PLATES[name], targets);
+    expect(expected.length).toBeGreaterThan(0);
+    for (const ic50 of expected) {
+      const label = `${truth.label}: ${ic50.compound} on ${ic50.target}`;
+      const fit = fits.find((f) => f.identifier === ic50.compound && f.target === ic50.target);
+      expect(fit?.status, label).toBe('fitted');
+      expect(fit!.ic50 / ic50.ic50_uM, label).toBeGreaterThanOrEqual(0.85);
+      expect(fit!.ic50 / ic50.ic50_uM, label).toBeLessThanOrEqual(1.15);
+      expect(fit!.low, label).toBeLessThanOrEqual(ic50.ic50_uM);
+      expect(fit!.high, label).toBeGreaterThanOrEqual(ic50.ic50_uM);
+    }
+  }
+
+  const tableCount = async (table: string) =>
+    (
+      await db().query<{ n: number }>(`select count(*)::int as n from ${table}`, { type: 'SELECT' as never })
+    )[0]!.n;
+
+  test.each(SEVERAL)(
+    '$name: mapped once, stored as a plate each (QC, IC50s, CIs), and its template reads a second file',
+    async (importable) => {
+      const file = layout(importable.name).write();
+      const { facts } = file;
+      const targets = Object.keys(facts.targetWords) as Target[];
+      const screenId = screens[targets.join('+')]!;
+      const mapping = { ...mappingFor(importable, facts), plates: importable.plates };
+      const upload = { screenId, bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
+      const inspection = await inspectUpload(biologist, upload);
+      // The guess proposes how the plates are told apart.
+      const guessed = inspection.sheets.find((s) => s.name === facts.plates[0]!.sheet)!.guess.mapping.plates;
+      expect(guessed).toEqual({ by: importable.plates!.by, column: importable.plates!.column ?? null });
+      const draftId = inspection.draftId!;
+      const sheet = facts.plates[0]!.sheet;
+      const preview = await previewImport(biologist, { draftId, sheet, mapping });
+      expect(preview.fileProblems).toEqual([]);
+      expect(preview.plates.map((p) => [p.label, p.wellCount, p.ok])).toEqual(
+        facts.plates.map((p) => [p.label, p.wellCount, true]),
+      );
+      const files = await tableCount('uploaded_files');
+      const audits = await tableCount(`audit_events where action = 'import'`);
+      const mails = await tableCount(`mail_outbox where kind = 'plate_imported'`);
+      const name = `${importable.name} layout`;
+      const committed = await commitImport(biologist, {
+        draftId,
+        sheet,
+        mapping,
+        label: 'unused',
+        templateName: name,
+      });
+      expect(committed.plates.map((p) => p.label)).toEqual(facts.plates.map((p) => p.label));
+      for (const [i, truth] of facts.plates.entries())
+        await expectPlateMatchesTruth(committed.plates[i]!.plateId, truth, targets);
+      // One file record shared by the plates, an audit event per plate, one notice per chemist for the file.
+      expect(await tableCount('uploaded_files')).toBe(files + 1);
+      const shared = await Plate.findAll({ where: { id: committed.plates.map((p) => p.plateId) } });
+      expect(new Set(shared.map((p) => p.uploadedFileId)).size).toBe(1);
+      expect(await tableCount(`audit_events where action = 'import'`)).toBe(audits + 2);
+      const notices = await db().query<{ plate_id: string; n: number }>(
+        `select plate_id, count(*)::int as n from mail_outbox where kind = 'plate_imported' group by plate_id`,
+        { type: 'SELECT' as never },
+      );
+      const chemists = await tableCount(`user_roles where role = 'chemist'`);
+      expect(await tableCount(`mail_outbox where kind = 'plate_imported'`)).toBe(mails + chemists);
+      expect(notices.find((n) => n.plate_id === committed.plates[1]!.plateId)).toBeUndefined();
+
+      // The same file again is a duplicate, named by its first plate.
+      const again = await inspectUpload(biologist, upload);
+      expect(again.duplicateOf?.plateId).toBe(committed.plates[0]!.plateId);
+
+      // A second file of the layout: recognised by the template, previewed and stored with no edit.
+      const second = secondFile(layout(importable.name).write());
+      const next = await inspectUpload(biologist, {
+        screenId,
+        bytes: second.bytes,
+        filename: second.filename,
+        mediaType: second.mediaType,
+      });
+      expect(next.duplicateOf).toBeNull();
+      expect(next.recognised?.name).toBe(name);
+      const recognised = next.recognised!;
+      const stored = await commitImport(biologist, {
+        draftId: next.draftId!,
+        sheet: recognised.sheet,
+        mapping: recognised.mapping,
+        label: 'unused',
+      });
+      expect(stored.plates.map((p) => p.label)).toEqual(facts.plates.map((p) => p.label));
+      for (const [i, truth] of facts.plates.entries())
+        expect(await Well.count({ where: { plateId: stored.plates[i]!.plateId } })).toBe(truth.wellCount);
+    },
+  );
+
+  test('a fault in one plate of the file stores no plate, naming that plate; row counts unchanged', async () => {
+    const file = layout('plate-column-tsv').write();
+    const { facts } = file;
+    const [, second] = facts.plates;
+    // The second plate's first well is written as a well no plate has (Z99): an error of that plate only.
+    const text = new TextDecoder().decode(file.bytes);
+    const lines = text.split('\n');
+    const at = lines.findIndex((line) => line.startsWith(`${second!.label}\t`));
+    const cells = lines[at]!.split('\t');
+    cells[1] = 'Z99';
+    lines[at] = cells.join('\t');
+    const bytes = new TextEncoder().encode(lines.join('\n'));
+    const screenId = screens['Kv7.2']!;
+    const mapping = {
+      ...mappingFor(SEVERAL[1]!, facts),
+      plates: SEVERAL[1]!.plates,
+    };
+    const inspection = await inspectUpload(biologist, {
+      screenId,
+      bytes,
+      filename: file.filename,
+      mediaType: file.mediaType,
+    });
+    const request = { draftId: inspection.draftId!, sheet: facts.plates[0]!.sheet, mapping, label: 'x' };
+    const preview = await previewImport(biologist, request);
+    expect(preview.ok).toBe(false);
+    expect(preview.plates.map((p) => p.ok)).toEqual([true, false]);
+    expect(preview.plates[1]!.issues[0]!.message).toMatch(new RegExp(`^Plate "${second!.label}": Sheet `));
+    const tables = [
+      'plates',
+      'wells',
+      'readouts',
+      'uploaded_files',
+      'audit_events',
+      'mail_outbox',
+      'compute_jobs',
+    ];
+    const before = await Promise.all(tables.map(tableCount));
+    await expect(commitImport(biologist, request)).rejects.toThrow(
+      new RegExp(
+        `^Plate "${second!.label}" has 1 error\\(s\\); first: .*Z99.* No plate of the file was stored\\.$`,
+      ),
+    );
+    expect(await Promise.all(tables.map(tableCount))).toEqual(before);
   });
 });

@@ -138,10 +138,8 @@ describe('import-plate --offline on a demo export', () => {
     const count = (word: string) => types.filter((t) => t === word).length;
     const { code, facts } = dryRun(file);
     expect(code).toBe(0);
-    expect(facts).toEqual({
-      file: 'kv-96-plate-01.csv',
+    const plateFacts = {
       sheet: 'kv-96-plate-01',
-      template: null,
       plateLabel: 'kv-96-plate-01',
       labelSource: 'file',
       plateFormat: manifest.format,
@@ -158,8 +156,39 @@ describe('import-plate --offline on a demo export', () => {
       unregisteredCompounds: null,
       errors: [],
       warnings: [],
+    };
+    // One plate: the top-level keys are its facts, and `plates` lists it once.
+    expect(facts).toEqual({
+      file: 'kv-96-plate-01.csv',
+      template: null,
+      ...plateFacts,
+      plateCount: 1,
+      plates: [{ key: 'kv-96-plate-01', ...plateFacts }],
     });
   });
+
+  // Two plates in one file (issue 18): the guess splits them, a plate each labelled by its barcode. Their
+  // role words are the layout's own, which no guess places (a template maps them, see the integration
+  // tests), so each plate's error names the plate.
+  test.each(['plate-column-tsv', 'plates-per-sheet'])(
+    "%s: a plate each in `plates`, labelled by its barcode; top-level keys are the first plate's",
+    (name) => {
+      const written = layout(name).write();
+      const { code, facts } = dryRun(write(written.filename, written.bytes));
+      expect(code).toBe(1);
+      const labels = written.facts.plates.map((p) => p.label);
+      const plates = facts.plates as { plateLabel: string; errors: string[] }[];
+      expect(facts.plateCount).toBe(2);
+      expect(plates.map((p) => p.plateLabel)).toEqual(labels);
+      expect(facts.plateLabel).toBe(labels[0]);
+      for (const [i, plate] of plates.entries()) {
+        expect(plate.errors[0]).toContain('cannot place');
+        expect((facts.errors as string[]).filter((e) => e.startsWith(`Plate "${labels[i]}": `))).toHaveLength(
+          plate.errors.length,
+        );
+      }
+    },
+  );
 
   test('--label wins over the file name', () => {
     const file = join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv');

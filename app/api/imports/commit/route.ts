@@ -19,7 +19,12 @@ function outcome(jobId: string, result: ImportResult): NextResponse {
       { status: 202 },
     );
   }
-  return NextResponse.json({ plateId: result.plateId, href: `/plates/${result.plateId}` }, { status: 201 });
+  // Every plate the file held (one, or a plate per sheet or plate-column value); plateId is the first.
+  const plates = result.plates.map((p) => ({ ...p, href: `/plates/${p.plateId}` }));
+  return NextResponse.json(
+    { plateId: result.plateId, href: `/plates/${result.plateId}`, plates },
+    { status: 201 },
+  );
 }
 
 /**

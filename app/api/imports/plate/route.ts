@@ -10,7 +10,8 @@ import { importOnceFieldsSchema } from '@/lib/validation/imports';
  * Imports a plate in one request, for scripts: the file, the screen (name or id), optionally a template
  * (name or id; else the one the file's header fingerprint shows, else the guessed mapping) and a label
  * (else the file's barcode, else its name). Reads the file once, checks it, and, when the check finds no
- * error, queues its commit for a worker and waits: 201 with the plate id and what the check found, 202
+ * error, queues its commit for a worker and waits: 201 with the plate id, every plate of the file
+ * (`plates`: a file may hold a plate per sheet or a plate column) and what the check found, 202
  * when a worker is still storing it, or the refusal (422 with `details.facts` and the problems).
  */
 export const POST = withUser(
@@ -31,8 +32,14 @@ export const POST = withUser(
         },
         { status: 202 },
       );
+    // Every plate of the file with what the check found of it; plateId and href are the first plate's.
+    const plates = result.plates.map((plate, i) => ({
+      ...plate,
+      href: `/plates/${plate.plateId}`,
+      facts: result.facts.plates[i] ?? null,
+    }));
     return NextResponse.json(
-      { plateId: result.plateId, href: `/plates/${result.plateId}`, facts: result.facts },
+      { plateId: result.plateId, href: `/plates/${result.plateId}`, plates, facts: result.facts },
       { status: 201 },
     );
   },
