@@ -7,7 +7,7 @@ import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapp
 import type { SheetData } from '@/lib/imports/spreadsheet-types';
 import { Screen } from '@/models';
 import { createDraft } from './import-drafts';
-import { guessSheet, importFacts, plateLabel, type ImportFacts } from './import-facts';
+import { guessSheet, importFacts, plateLabel, sheetForMapping, type ImportFacts } from './import-facts';
 import { awaitImport, queueImport } from './import-jobs';
 import {
   commitImport,
@@ -28,10 +28,12 @@ import { listTemplates, matchTemplate, type TemplateSummary } from './templates'
  * route: no import CPU in the processes that serve pages) or in the calling process (the script).
  */
 
-/** One file to import: the screen and template by name or id, an optional label. */
+/** One file to import: the screen and template by name or id (or a mapping given whole), an optional label. */
 export interface ImportOnceRequest {
   screen: string;
   template?: string | undefined;
+  /** A complete mapping applied as given (`scripts/import-plate.ts --mapping`); not with `template`. */
+  mapping?: ColumnMapping | undefined;
   label?: string | undefined;
   file: Pick<Upload, 'bytes' | 'filename' | 'mediaType'>;
 }
@@ -77,8 +79,18 @@ function templateSheet(template: TemplateSummary, sheets: readonly SheetData[]):
   return sheets.find((s) => s.name === name) ?? sheets[0]!;
 }
 
-/** The sheet and mapping: the template named, else the one the file's fingerprint shows, else the guess. */
-async function chooseMapping(actor: Actor, sheets: readonly SheetData[], templateName: string | undefined) {
+/**
+ * The sheet and mapping: the mapping given, else the template named, else the one the file's fingerprint
+ * shows, else the guess.
+ */
+async function chooseMapping(actor: Actor, sheets: readonly SheetData[], request: ImportOnceRequest) {
+  if (request.mapping) {
+    if (request.template) throw new AppError('invalid', 'Give a mapping or a template, not both.');
+    const given = sheetForMapping(sheets, request.mapping);
+    if ('refused' in given) throw new AppError('invalid', given.refused);
+    return { ...given, template: null };
+  }
+  const templateName = request.template;
   const templates = templateName ? [await findTemplate(actor, templateName)] : await listTemplates(actor);
   const chosen = templateName ? templates[0]! : matchTemplate(templates, sheets)?.template;
   if (chosen) {
@@ -94,7 +106,7 @@ export async function checkImportOnce(actor: Actor, request: ImportOnceRequest):
   requireCapability(actor, 'importPlates');
   const screen = await findScreen(request.screen);
   const upload = await readOnce({ ...request.file, screenId: screen.id });
-  const { sheet, mapping, template } = await chooseMapping(actor, upload.parsed.sheets, request.template);
+  const { sheet, mapping, template } = await chooseMapping(actor, upload.parsed.sheets, request);
   const preview = await previewImport(actor, { ...upload, sheet: sheet.name, mapping });
   const label = plateLabel(request.label, preview.facts, upload.filename);
   const facts = importFacts({
