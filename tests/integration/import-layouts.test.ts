@@ -5,7 +5,7 @@ import { db } from '@/lib/db';
 import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
 import { Plate } from '@/models';
 import { layout, type FileFacts } from '../fixtures/export-layouts';
-import { MAPPINGS, type SinglePlateLayout } from '../fixtures/export-layouts/mappings';
+import { MAPPINGS, SINGLE_PLATE_LAYOUTS, type SinglePlateLayout } from '../fixtures/export-layouts/mappings';
 import { expectPlateHoldsTruth, layoutScreensSetup, type LayoutScreen } from '../support/layout-imports';
 import { fileTargets } from '../support/layout-truth';
 
@@ -14,20 +14,6 @@ import { fileTargets } from '../support/layout-truth';
  * its mapping as a user writes it once (tests/fixtures/export-layouts/mappings.ts, shared with the script's
  * test, import-plate-cli-layouts.test.ts). The layouts of several plates per file are not read here yet.
  */
-
-/** Layouts of one long table (one row per well and target) with one concentration per well. */
-const IMPORTABLE: SinglePlateLayout[] = [
-  'long-comma-csv',
-  'semicolon-decimal-comma',
-  'tab-text-titled',
-  'xls-workbook',
-  'ods-workbook',
-  'xlsx-run-1536',
-  // Units in a second header row and mean/count rows below: both skipped as rows that are not wells.
-  'units-row-summary',
-  // The block as percent inhibition instead of the current after compound, wells as a running index.
-  'percent-inhibition-index',
-];
 
 /**
  * Layouts read through the reshape step (lib/imports/reshape-table.ts): a column block per target, and
@@ -39,6 +25,11 @@ const RESHAPED: SinglePlateLayout[] = [
   'grid-384-xlsx',
   'grid-1536-csv',
 ];
+
+/** The other single-plate layouts but the cumulative one: a long table with one concentration per well. */
+const IMPORTABLE = SINGLE_PLATE_LAYOUTS.filter(
+  (name) => !RESHAPED.includes(name) && name !== 'cumulative-rows',
+);
 
 /**
  * Another file of the same layout: one decimal value of the data written one

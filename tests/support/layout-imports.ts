@@ -9,7 +9,7 @@ import { screenSchema } from '@/lib/validation/screens';
 import { Plate, Well } from '@/models';
 import type { FileFacts, PlateFacts } from '../fixtures/export-layouts/layout-kit';
 import { makeActor } from './actors';
-import { demoScreensSetup } from './demo-scenario';
+import { DEMO_SCREEN_SETTINGS, demoScreensSetup } from './demo-scenario';
 import { fitsCurrent } from './jobs';
 import { fileTargets } from './layout-truth';
 
@@ -31,19 +31,7 @@ export async function layoutScreensSetup(): Promise<{
   const admin = await makeActor(['admin']);
   const both = await createScreen(
     admin,
-    screenSchema.parse({
-      name: 'Sodium and potassium screen',
-      description: '',
-      neuronPreset: 'pospischil-rs-2008',
-      zPrimeMin: 0.5,
-      sealResistanceMin_GOhm: 0.5,
-      controlCurrentMin_pA: 200,
-      seriesResistanceMax_MOhm: 25,
-      capacitanceMin_pF: 1,
-      capacitanceMax_pF: 100,
-      vehicleRundownMax_percent: 20,
-      exposures_uM: '0.1, 1',
-    }),
+    screenSchema.parse({ ...DEMO_SCREEN_SETTINGS, name: 'Sodium and potassium screen' }),
   );
   await addTarget(admin, both.id, { name: 'Nav1.7', conductance: 'gNa', description: '' });
   await addTarget(admin, both.id, { name: 'Kv7.2', conductance: 'gM', description: '' });
