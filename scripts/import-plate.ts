@@ -1,19 +1,22 @@
 // Gatewell plate import from the command line, for automation:
 //   node --conditions=react-server --import tsx scripts/import-plate.ts FILE --screen NAME|ID --as EMAIL
-//        [--template NAME|ID] [--label L] [--dry-run] [--json] [--offline]
-// Reads the file once (the same worker-thread parser as the app), maps it with the template named, else
-// the template whose header fingerprint the file shows, else the guessed mapping, and checks it as the
+//        [--template NAME|ID | --mapping FILE.json] [--label L] [--dry-run] [--json] [--offline]
+// Reads the file once (the same worker-thread parser as the app), maps it with the mapping file given (a
+// saved template's mapping as JSON, lib/imports/mapping-schema.ts), else the template named, else the
+// template whose header fingerprint the file shows, else the guessed mapping, and checks it as the
 // check step does. Without --dry-run it stores the plate when the check finds no error, through the same
 // service as POST /api/imports/plate (lib/plates/import-once.ts), committed in this process.
-// --offline needs no database: no templates, no registry (unregisteredCompounds is null, every compound
-// and target of the file is taken as known, QC at the default limits); it implies --dry-run.
+// --offline needs no database: no templates (the guessed mapping, or --mapping), no registry
+// (unregisteredCompounds is null, every compound and target of the file is taken as known, QC at the
+// default limits); it implies --dry-run.
 // A file of several plates (a sheet per plate, a plate column) is stored as a plate each, all or none.
 // Exit codes: 0 checked clean (and stored), 1 problems found (or refused), 2 bad arguments.
 import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
-import { issuePath } from './cli-input';
+import { issuePath, readJsonFile } from './cli-input';
+import { columnMappingSchema, type ColumnMapping } from '../lib/imports/mapping-schema';
 import { parseSpreadsheet } from '../lib/imports/parse-spreadsheet';
 import {
   guessSheet,
@@ -21,6 +24,7 @@ import {
   unreadFileFacts,
   plateLabel,
   type FileImportFacts,
+  sheetForMapping,
 } from '../lib/plates/import-facts';
 
 const USAGE = `usage: node --conditions=react-server --import tsx scripts/import-plate.ts FILE --screen NAME|ID [options]
@@ -32,11 +36,14 @@ Reads a plate export, checks it as the import's check step does, and stores the 
                       required unless --offline. Needs DATABASE_URL (and the app's other settings).
   --template NAME|ID  apply this saved import template (else the template whose header fingerprint the
                       file shows, else the guessed mapping)
+  --mapping FILE.json apply this column mapping, written as a saved template's mapping (docs/imports.md,
+                      Column mapping); its wellSheet, else the sheet the guess chooses (not with --template)
   --label L           the plate's label (else the barcode found in the file, else the file's name)
   --dry-run           check only; store nothing
   --json              print one JSON object (the check's facts; plateId when stored); \`plates\` lists
                       every plate of the file with its facts (plateLabel, wellCount, roleCounts, …)
-  --offline           no database: guessed mapping, no registry (implies --dry-run; not with --template)
+  --offline           no database: the guessed mapping or --mapping, no registry (implies --dry-run;
+                      not with --template)
   --help              this text
 
 A file may hold several plates (a sheet per plate, or a plate column): each is stored as a plate of its
@@ -53,6 +60,7 @@ const argsSchema = z
     screen: z.string().trim().min(1).optional(),
     as: z.email('must be an e-mail address').optional(),
     template: z.string().trim().min(1).optional(),
+    mapping: z.string().min(1).optional(),
     label: z.string().trim().min(1).max(120, 'must be at most 120 characters').optional(),
     dryRun: z.boolean(),
     json: z.boolean(),
@@ -65,12 +73,14 @@ const argsSchema = z
         path: ['template'],
         message: 'templates are kept in the database: not with --offline',
       });
+    if (args.mapping && args.template)
+      ctx.addIssue({ code: 'custom', path: ['mapping'], message: 'a mapping file or a template, not both' });
     if (!args.offline && !args.screen)
       ctx.addIssue({ code: 'custom', path: ['screen'], message: 'is required (or --offline)' });
     if (!args.offline && !args.as)
       ctx.addIssue({ code: 'custom', path: ['as'], message: 'is required (or --offline)' });
   });
-type Args = z.infer<typeof argsSchema>;
+type Args = z.infer<typeof argsSchema> & { columnMapping?: ColumnMapping };
 
 /** The command line checked; null (with the reason on stderr) when it is not usable. */
 function readArgs(argv: readonly string[]): Args | 'help' | null {
@@ -83,6 +93,7 @@ function readArgs(argv: readonly string[]): Args | 'help' | null {
         screen: { type: 'string' },
         as: { type: 'string' },
         template: { type: 'string' },
+        mapping: { type: 'string' },
         label: { type: 'string' },
         'dry-run': { type: 'boolean', default: false },
         json: { type: 'boolean', default: false },
@@ -105,6 +116,7 @@ function readArgs(argv: readonly string[]): Args | 'help' | null {
     screen: values.screen,
     as: values.as,
     template: values.template,
+    mapping: values.mapping,
     label: values.label,
     dryRun: values['dry-run'] || values.offline,
     json: values.json,
@@ -115,7 +127,11 @@ function readArgs(argv: readonly string[]): Args | 'help' | null {
     process.stderr.write(`import-plate: bad arguments:\n${lines.join('\n')}\n`);
     return null;
   }
-  return checked.data;
+  if (!checked.data.mapping) return checked.data;
+  const mapping = readJsonFile(checked.data.mapping, columnMappingSchema, 'mapping');
+  if (mapping.ok) return { ...checked.data, columnMapping: mapping.data };
+  process.stderr.write(`import-plate: --mapping: ${mapping.message}\n`);
+  return null;
 }
 
 /** The file's bytes, or null (with the reason on stderr). */
@@ -130,12 +146,15 @@ function readBytes(file: string): Uint8Array | null {
   }
 }
 
-/** The check with no database: parse, guess, validate with every compound and target of the file known. */
-async function checkOffline(bytes: Uint8Array, filename: string, label: string | undefined) {
+/** The check with no database: parse, map (given or guessed), validate with every compound and target known. */
+async function checkOffline(bytes: Uint8Array, filename: string, args: Args) {
+  const { label, columnMapping } = args;
   const parsed = await parseSpreadsheet(bytes, filename);
   if (!parsed.ok) return { refused: parsed.error.message };
   if (parsed.sheets.length === 0) return { refused: `${filename} holds no sheets.` };
-  const { sheet, mapping } = guessSheet(parsed.sheets);
+  const chosen = columnMapping ? sheetForMapping(parsed.sheets, columnMapping) : guessSheet(parsed.sheets);
+  if ('refused' in chosen) return { refused: chosen.refused };
+  const { sheet, mapping } = chosen;
   return {
     facts: offlineFileFacts({ filename, sheets: parsed.sheets, sheet, mapping, givenLabel: label }),
   };
@@ -170,6 +189,7 @@ async function checkOnline(args: Args, bytes: Uint8Array, filename: string): Pro
   const request = {
     screen: args.screen!,
     template: args.template,
+    mapping: args.columnMapping,
     label: args.label,
     file: { bytes, filename, mediaType: 'application/octet-stream' },
   };
@@ -217,7 +237,7 @@ function report(args: Args, filename: string, outcome: Outcome): number {
   if (facts && outcome.facts) {
     const r = facts.roleCounts;
     lines.push(
-      `${facts.file}, sheet "${facts.sheet}"${facts.template ? `, template ${facts.template}` : ', guessed mapping'}`,
+      `${facts.file}, sheet "${facts.sheet}"${facts.template ? `, template ${facts.template}` : args.mapping ? `, mapping ${args.mapping}` : ', guessed mapping'}`,
       `plate ${facts.plateLabel} (label from the ${facts.labelSource}), ${facts.wellCount} wells` +
         `${facts.plateFormat ? ` on a ${facts.plateFormat}-well plate` : ''}: ${r.negativeControl} negative control, ` +
         `${r.positiveControl} positive control, ${r.test} test, ${r.empty} empty`,
@@ -253,7 +273,7 @@ async function main(argv: readonly string[]): Promise<number> {
   const bytes = readBytes(args.file);
   if (!bytes) return 2;
   const filename = basename(args.file);
-  if (args.offline) return report(args, filename, await checkOffline(bytes, filename, args.label));
+  if (args.offline) return report(args, filename, await checkOffline(bytes, filename, args));
   try {
     return report(args, filename, await checkOnline(args, bytes, filename));
   } finally {

@@ -183,6 +183,25 @@ export function guessSheet(sheets: readonly SheetData[]): GuessedSheet {
   return { sheet: best.sheet, mapping };
 }
 
+/**
+ * The sheet a mapping given whole (`scripts/import-plate.ts --mapping`) reads: the sheet it names, else
+ * the sheet the guess would choose; the mapping as given, with that sheet. A sheet named but not in the
+ * file is refused, naming the file's sheets.
+ */
+export function sheetForMapping(
+  sheets: readonly SheetData[],
+  mapping: ColumnMapping,
+): GuessedSheet | { refused: string } {
+  const sheet = mapping.wellSheet
+    ? sheets.find((s) => s.name === mapping.wellSheet)
+    : guessSheet(sheets).sheet;
+  if (!sheet)
+    return {
+      refused: `The mapping reads the sheet "${mapping.wellSheet}", which the file does not hold; its sheets: ${sheets.map((s) => `"${s.name}"`).join(', ')}.`,
+    };
+  return { sheet, mapping: { ...mapping, wellSheet: sheet.name } };
+}
+
 /** The plate's label: the one given, else the barcode found in the file, else the file's name without its extension. */
 export function plateLabel(
   given: string | undefined,

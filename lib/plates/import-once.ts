@@ -12,6 +12,7 @@ import {
   importFacts,
   joinPlateFacts,
   plateLabel,
+  sheetForMapping,
   unreadFileFacts,
   type FileImportFacts,
 } from './import-facts';
@@ -36,10 +37,12 @@ import { listTemplates, matchTemplate, type TemplateSummary } from './templates'
  * route: no import CPU in the processes that serve pages) or in the calling process (the script).
  */
 
-/** One file to import: the screen and template by name or id, an optional label. */
+/** One file to import: the screen and template by name or id (or a mapping given whole), an optional label. */
 export interface ImportOnceRequest {
   screen: string;
   template?: string | undefined;
+  /** A complete mapping applied as given (`scripts/import-plate.ts --mapping`); not with `template`. */
+  mapping?: ColumnMapping | undefined;
   label?: string | undefined;
   file: Pick<Upload, 'bytes' | 'filename' | 'mediaType'>;
 }
@@ -85,8 +88,18 @@ function templateSheet(template: TemplateSummary, sheets: readonly SheetData[]):
   return sheets.find((s) => s.name === name) ?? sheets[0]!;
 }
 
-/** The sheet and mapping: the template named, else the one the file's fingerprint shows, else the guess. */
-async function chooseMapping(actor: Actor, sheets: readonly SheetData[], templateName: string | undefined) {
+/**
+ * The sheet and mapping: the mapping given, else the template named, else the one the file's fingerprint
+ * shows, else the guess.
+ */
+async function chooseMapping(actor: Actor, sheets: readonly SheetData[], request: ImportOnceRequest) {
+  if (request.mapping) {
+    if (request.template) throw new AppError('invalid', 'Give a mapping or a template, not both.');
+    const given = sheetForMapping(sheets, request.mapping);
+    if ('refused' in given) throw new AppError('invalid', given.refused);
+    return { ...given, template: null };
+  }
+  const templateName = request.template;
   const templates = templateName ? [await findTemplate(actor, templateName)] : await listTemplates(actor);
   const chosen = templateName ? templates[0]! : matchTemplate(templates, sheets)?.template;
   if (chosen) {
@@ -102,7 +115,7 @@ export async function checkImportOnce(actor: Actor, request: ImportOnceRequest):
   requireCapability(actor, 'importPlates');
   const screen = await findScreen(request.screen);
   const upload = await readOnce({ ...request.file, screenId: screen.id });
-  const { sheet, mapping, template } = await chooseMapping(actor, upload.parsed.sheets, request.template);
+  const { sheet, mapping, template } = await chooseMapping(actor, upload.parsed.sheets, request);
   const { preview, plates } = await checkImport(actor, { ...upload, sheet: sheet.name, mapping });
   const several = plates.length > 1;
   const unused = `The label given (${request.label}) was not used: the file holds several plates, each labelled by its own barcode, sheet or plate column.`;

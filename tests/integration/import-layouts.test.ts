@@ -2,25 +2,39 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import * as XLSX from 'xlsx';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
-import type { ColumnMappingInput } from '@/lib/imports/mapping-schema';
 import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
-import { addTarget, createScreen } from '@/lib/screens/service';
-import { screenSchema } from '@/lib/validation/screens';
-import { Plate, Well } from '@/models';
+import { Plate } from '@/models';
 import { layout, type FileFacts } from '../fixtures/export-layouts';
+import type { ColumnMappingInput } from '@/lib/imports/mapping-schema';
+import { Well } from '@/models';
 import type { TableReadBack } from '../fixtures/export-layouts/layout-kit';
 import { expectedIc50s, PLATES, type PlateName, type Target } from '../fixtures/export-layouts/truth';
-import { makeActor } from '../support/actors';
-import { demoScreensSetup } from '../support/demo-scenario';
 import { fitsCurrent } from '../support/jobs';
+import { MAPPINGS, SINGLE_PLATE_LAYOUTS, type SinglePlateLayout } from '../fixtures/export-layouts/mappings';
+import { expectPlateHoldsTruth, layoutScreensSetup, type LayoutScreen } from '../support/layout-imports';
+import { fileTargets } from '../support/layout-truth';
 
 /**
- * The invented export layouts (tests/fixtures/export-layouts) that Gatewell's import service reads today,
- * each with a mapping this test writes from the file's facts: its header row, the columns of its table,
- * its units, its words for the roles, and, where the file names its one target in words of its own, that
- * target for the whole sheet; and the two layouts of several plates, told apart by sheet or by a plate
- * column (issue 18).
+ * The invented export layouts (tests/fixtures/export-layouts) through Gatewell's import service, each with
+ * its mapping as a user writes it once (tests/fixtures/export-layouts/mappings.ts, shared with the script's
+ * test, import-plate-cli-layouts.test.ts). The two layouts of several plates per file are mapped below, as a user maps them once.
  */
+
+/**
+ * Layouts read through the reshape step (lib/imports/reshape-table.ts): a column block per target, and
+ * plate-shaped grids whose "Target" line above the grids is read as a column of every well.
+ */
+const RESHAPED: SinglePlateLayout[] = [
+  'wide-fraction-block',
+  'grid-96-tsv',
+  'grid-384-xlsx',
+  'grid-1536-csv',
+];
+
+/** The other single-plate layouts but the cumulative one: a long table with one concentration per well. */
+const IMPORTABLE = SINGLE_PLATE_LAYOUTS.filter(
+  (name) => !RESHAPED.includes(name) && name !== 'cumulative-rows',
+);
 
 interface Importable {
   name: string;
@@ -35,202 +49,6 @@ interface Importable {
   layout?: ColumnMappingInput['layout'];
   headerRow?: number;
 }
-
-const IMPORTABLE: Importable[] = [
-  {
-    name: 'long-comma-csv',
-    targets: 'column',
-    columns: {
-      well: 'Well ID',
-      role: 'Type',
-      compound: 'Item',
-      concentration: 'Dose (nM)',
-      target: 'Channel',
-      controlCurrent: 'Peak pre (pA)',
-      compoundCurrent: 'Peak post (pA)',
-    },
-  },
-  {
-    name: 'semicolon-decimal-comma',
-    targets: 'fixed',
-    columns: {
-      well: 'Pos',
-      role: 'Sample type',
-      compound: 'Substance',
-      concentration: 'Conc [uM]',
-      controlCurrent: 'I before [nA]',
-      compoundCurrent: 'I after [nA]',
-    },
-  },
-  {
-    name: 'tab-text-titled',
-    targets: 'fixed',
-    columns: {
-      well: 'Well',
-      role: 'Content',
-      compound: 'Compound',
-      concentration: 'Conc (mM)',
-      controlCurrent: 'I baseline (pA)',
-      compoundCurrent: 'I drug (pA)',
-    },
-  },
-  {
-    name: 'xls-workbook',
-    targets: 'fixed',
-    columns: {
-      well: 'Well',
-      role: 'Content',
-      compound: 'Compound ID',
-      concentration: 'Concentration (µM)',
-      controlCurrent: 'Ipre (pA)',
-      compoundCurrent: 'Ipost (pA)',
-    },
-  },
-  {
-    name: 'ods-workbook',
-    targets: 'column',
-    columns: {
-      well: 'Well position',
-      role: 'Well role',
-      compound: 'Cmpd',
-      concentration: 'Final conc (µM)',
-      target: 'Ion channel',
-      controlCurrent: 'Control current (nA)',
-      compoundCurrent: 'Compound current (nA)',
-    },
-  },
-  {
-    name: 'xlsx-run-1536',
-    targets: 'column',
-    columns: {
-      well: 'Well',
-      role: 'Sample kind',
-      compound: 'Sample ID',
-      concentration: 'Conc nM',
-      target: 'Target',
-      controlCurrent: 'Current before / pA',
-      compoundCurrent: 'Current after / pA',
-    },
-  },
-  {
-    // Units in a second header row and mean/count rows below: both skipped as rows that are not wells.
-    name: 'units-row-summary',
-    targets: 'fixed',
-    columns: {
-      well: 'Well',
-      role: 'Group',
-      compound: 'Compound',
-      concentration: 'Concentration',
-      controlCurrent: 'Current before',
-      compoundCurrent: 'Current after',
-    },
-  },
-  {
-    // The block as percent inhibition instead of the current after compound, wells as a running index.
-    name: 'percent-inhibition-index',
-    targets: 'fixed',
-    columns: {
-      well: 'Well #',
-      role: 'Control',
-      compound: 'Compound',
-      concentration: 'Conc. (nM)',
-      controlCurrent: 'Baseline peak (nA)',
-      block: '% Inhibition',
-    },
-  },
-];
-
-/**
- * Layouts read through the reshape step (lib/imports/reshape-table.ts): a column block per target, and
- * plate-shaped grids whose "Target" line above the grids is read as a column of every well. The grids'
- * QC columns are their blocks' titles; the first grid's title is in row 4, under "Plate", "Target" and
- * a blank line.
- */
-const RESHAPED: Importable[] = [
-  {
-    name: 'wide-fraction-block',
-    targets: 'mapped',
-    layout: { kind: 'wide', targets: ['SCN9A', 'KCNQ2'] },
-    columns: {
-      well: 'Well',
-      role: 'Treatment',
-      compound: 'Compound',
-      concentration: 'Conc (µM)',
-      target: 'Target',
-      controlCurrent: 'I0 (pA)',
-      block: 'block',
-    },
-  },
-  {
-    name: 'grid-96-tsv',
-    targets: 'mapped',
-    layout: { kind: 'grid', constants: ['Target'] },
-    headerRow: 4,
-    columns: {
-      well: 'Well',
-      role: 'Layout',
-      compound: 'Compound',
-      concentration: 'Concentration (µM)',
-      target: 'Target',
-      controlCurrent: 'Peak current before (pA)',
-      compoundCurrent: 'Peak current after (pA)',
-      sealResistance: 'Seal (GΩ)',
-      seriesResistance: 'Series resistance (MΩ)',
-      capacitance: 'Capacitance (pF)',
-    },
-  },
-  {
-    name: 'grid-384-xlsx',
-    targets: 'mapped',
-    layout: { kind: 'grid', constants: ['Target'] },
-    headerRow: 4,
-    columns: {
-      well: 'Well',
-      role: 'Well content',
-      compound: 'Substance',
-      concentration: 'Dose (nM)',
-      target: 'Target',
-      controlCurrent: 'I pre (nA)',
-      compoundCurrent: 'I post (nA)',
-      sealResistance: 'R seal (MΩ)',
-      seriesResistance: 'R series (MΩ)',
-      capacitance: 'C slow (pF)',
-    },
-  },
-  {
-    name: 'grid-1536-csv',
-    targets: 'mapped',
-    layout: { kind: 'grid', constants: ['Target'] },
-    headerRow: 4,
-    columns: {
-      well: 'Well',
-      role: 'Role map',
-      compound: 'Compound map',
-      concentration: 'Concentration map (mM)',
-      target: 'Target',
-      controlCurrent: 'Control peak (pA)',
-      compoundCurrent: 'Treated peak (pA)',
-      sealResistance: 'Seal resistance (GΩ)',
-      seriesResistance: 'Access resistance (MΩ)',
-      capacitance: 'Membrane capacitance (pF)',
-    },
-  },
-];
-
-// Cumulative application: eight concentrations as rows of one cell; missing values written "NaN".
-const CUMULATIVE: Importable = {
-  name: 'cumulative-rows',
-  targets: 'column',
-  columns: {
-    well: 'Cell',
-    role: 'Role',
-    compound: 'Compound',
-    concentration: 'Conc (µM)',
-    target: 'Target',
-    controlCurrent: 'I control (pA)',
-    compoundCurrent: 'I compound (pA)',
-  },
-};
 
 /** The mapping of a layout: the test's columns, the QC columns and units from the file's facts. */
 function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInput {
@@ -313,43 +131,21 @@ function secondFile(file: ReturnType<ReturnType<typeof layout>['write']>) {
 
 describe('invented export layouts through the import service', () => {
   let biologist: Actor;
-  /** Screen ids by the targets a file records: one target, or both. */
-  let screens: Record<string, string>;
+  let screenFor: (facts: FileFacts) => LayoutScreen;
 
   beforeAll(async () => {
-    const setup = await demoScreensSetup();
-    biologist = setup.biologist;
-    const admin = await makeActor(['admin']);
-    const both = await createScreen(
-      admin,
-      screenSchema.parse({
-        name: 'Sodium and potassium screen',
-        description: '',
-        neuronPreset: 'pospischil-rs-2008',
-        zPrimeMin: 0.5,
-        sealResistanceMin_GOhm: 0.5,
-        controlCurrentMin_pA: 200,
-        seriesResistanceMax_MOhm: 25,
-        capacitanceMin_pF: 1,
-        capacitanceMax_pF: 100,
-        vehicleRundownMax_percent: 20,
-        exposures_uM: '0.1, 1',
-      }),
-    );
-    await addTarget(admin, both.id, { name: 'Nav1.7', conductance: 'gNa', description: '' });
-    await addTarget(admin, both.id, { name: 'Kv7.2', conductance: 'gM', description: '' });
-    screens = { ...setup.screens, 'Nav1.7+Kv7.2': both.id };
+    ({ biologist, screenFor } = await layoutScreensSetup());
   });
   afterAll(() => db().close());
 
-  /** Imports a layout's file and checks QC, every IC50 within ±15 % and (with `ci`) its CI holding the truth. */
-  async function importAndCheck(importable: Importable, templateName?: string) {
-    const file = layout(importable.name).write();
+  /** Imports a layout's file with its mapping; QC, every IC50 within ±15 % and its CI holding the truth. */
+  async function importAndCheck(name: SinglePlateLayout, templateName?: string) {
+    const file = layout(name).write();
     const { facts } = file;
     const [plate] = facts.plates;
-    const targets = Object.keys(facts.targetWords) as Target[];
-    const screenId = screens[targets.join('+')]!;
-    const mapping = mappingFor(importable, facts);
+    const targets = fileTargets(facts);
+    const mapping = MAPPINGS[name];
+    const screenId = screenFor(facts).id;
     const upload = { screenId, bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
 
     const inspection = await inspectUpload(biologist, upload);
@@ -366,71 +162,28 @@ describe('invented export layouts through the import service', () => {
       label: plate!.label,
       templateName,
     });
-    await fitsCurrent(plateId);
-
+    await expectPlateHoldsTruth(plateId, plate!, facts.expectedIc50);
     const stored = await Plate.findByPk(plateId, { rejectOnEmpty: true });
-    expect(stored.format).toBe(plate!.format);
     expect(stored.label).toBe(plate!.label);
-    expect(await Well.count({ where: { plateId } })).toBe(plate!.wellCount);
-
-    const flagged = await db().query<{ position: string }>(
-      `select distinct w.position from readouts r join wells w on w.id = r.well_id
-         where w.plate_id = :plateId and jsonb_array_length(r.qc_reasons) > 0 order by w.position`,
-      { replacements: { plateId }, type: 'SELECT' as never },
-    );
-    expect(flagged.map((f) => f.position)).toEqual(plate!.badWells.map((b) => b.well).sort());
-
-    const fits = await db().query<{
-      identifier: string;
-      target: string;
-      status: string;
-      ic50: number;
-      low: number;
-      high: number;
-    }>(
-      `select c.identifier, t.name as target, f.status, f.ic50_um as ic50, f.ic50_ci_low_um as low,
-                f.ic50_ci_high_um as high
-         from fits f join compounds c on c.id = f.compound_id join targets t on t.id = f.target_id
-         where f.plate_id = :plateId`,
-      { replacements: { plateId }, type: 'SELECT' as never },
-    );
-    expect(facts.expectedIc50.length).toBeGreaterThan(0);
-    for (const truth of facts.expectedIc50) {
-      const label = `${truth.compound} on ${truth.target}`;
-      const fit = fits.find((f) => f.identifier === truth.compound && f.target === truth.target);
-      expect(fit?.status, label).toBe('fitted');
-      expect(fit!.ic50 / truth.ic50_uM, label).toBeGreaterThanOrEqual(0.85);
-      expect(fit!.ic50 / truth.ic50_uM, label).toBeLessThanOrEqual(1.15);
-    }
-    return { fits, facts, mapping };
-  }
-
-  /** Each truth's IC50 lies inside its fit's 95 % CI. */
-  function expectCisHoldTruth({ fits, facts }: Awaited<ReturnType<typeof importAndCheck>>) {
-    for (const truth of facts.expectedIc50) {
-      const label = `${truth.compound} on ${truth.target}`;
-      const fit = fits.find((f) => f.identifier === truth.compound && f.target === truth.target)!;
-      expect(fit.low, label).toBeLessThanOrEqual(truth.ic50_uM);
-      expect(fit.high, label).toBeGreaterThanOrEqual(truth.ic50_uM);
-    }
+    return { facts, mapping };
   }
 
   test.each(IMPORTABLE)(
-    '$name imports with no edit: QC flags exactly the bad wells and every measurable IC50 is recovered',
-    async (importable) => expectCisHoldTruth(await importAndCheck(importable)),
+    '%s imports with no edit: QC flags exactly the bad wells and every measurable IC50 is recovered',
+    async (name) => {
+      await importAndCheck(name);
+    },
   );
 
   test.each(RESHAPED)(
-    '$name imports through the reshape step (QC, IC50s and CIs), and its template reads a second file',
-    async (importable) => {
-      const name = `${importable.name} layout`;
-      const imported = await importAndCheck(importable, name);
-      expectCisHoldTruth(imported);
-      const { mapping } = imported;
-      const second = secondFile(layout(importable.name).write());
+    '%s imports through the reshape step (QC, IC50s and CIs), and its template reads a second file',
+    async (layoutName) => {
+      const name = `${layoutName} layout`;
+      const { mapping } = await importAndCheck(layoutName, name);
+      const second = secondFile(layout(layoutName).write());
       const [plate] = second.facts.plates;
-      const targets = Object.keys(second.facts.targetWords) as Target[];
-      const screenId = screens[targets.join('+')]!;
+      const targets = fileTargets(second.facts);
+      const screenId = screenFor(second.facts).id;
       const { bytes, filename, mediaType } = second;
       const inspection = await inspectUpload(biologist, { screenId, bytes, filename, mediaType });
       expect(inspection.duplicateOf).toBeNull();
@@ -452,8 +205,7 @@ describe('invented export layouts through the import service', () => {
   // The applications of one cell share its run-down, so their points are not independent: the fit takes
   // the cell as the unit for its CI (lib/science/fit/cell-clusters.ts), and each CI must hold the truth.
   test('cumulative-rows imports with no edit: QC flags exactly the bad wells, every IC50 within ±15 % and inside its CI', async () => {
-    const checked = await importAndCheck(CUMULATIVE);
-    expectCisHoldTruth(checked);
+    const checked = await importAndCheck('cumulative-rows');
     // Every fit of this file took the cell as the unit: its message says so.
     const messages = await db().query<{ message: string }>(
       `select f.message from fits f join plates p on p.id = f.plate_id
@@ -558,7 +310,7 @@ describe('invented export layouts through the import service', () => {
       const file = layout(importable.name).write();
       const { facts } = file;
       const targets = Object.keys(facts.targetWords) as Target[];
-      const screenId = screens[targets.join('+')]!;
+      const screenId = screenFor(facts).id;
       const mapping = { ...mappingFor(importable, facts), plates: importable.plates };
       const upload = { screenId, bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
       const inspection = await inspectUpload(biologist, upload);
@@ -638,7 +390,7 @@ describe('invented export layouts through the import service', () => {
     cells[1] = 'Z99';
     lines[at] = cells.join('\t');
     const bytes = new TextEncoder().encode(lines.join('\n'));
-    const screenId = screens['Kv7.2']!;
+    const screenId = screenFor(facts).id;
     const mapping = {
       ...mappingFor(SEVERAL[1]!, facts),
       plates: SEVERAL[1]!.plates,

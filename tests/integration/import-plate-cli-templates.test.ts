@@ -3,10 +3,9 @@
 // file of that layout, by its header fingerprint and by --template NAME, and the printed facts are the
 // mapped ones. The layout is the invented semicolon-separated one (tests/fixtures/export-layouts), whose
 // role words no guess places and whose target word is not the screen's.
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
@@ -16,19 +15,10 @@ import { ImportTemplate, Plate } from '@/models';
 import { layout } from '../fixtures/export-layouts';
 import { plate } from '../fixtures/export-layouts/truth';
 import { demoScreensSetup } from '../support/demo-scenario';
+import { runScript } from '../support/run-script';
 
-const root = resolve(__dirname, '../..');
 const dir = mkdtempSync(join(tmpdir(), 'gatewell-import-cli-templates-'));
 const TEMPLATE = 'Rig B semicolon export';
-
-function runScript(args: string[]) {
-  const out = spawnSync(
-    process.execPath,
-    ['--conditions=react-server', '--import', 'tsx', join(root, 'scripts', 'import-plate.ts'), ...args],
-    { encoding: 'utf8', cwd: root, env: process.env, timeout: 120_000 },
-  );
-  return { code: out.status, stdout: out.stdout, stderr: out.stderr };
-}
 
 // The first file of the layout, as written, and its lines (header first, `;`-separated, decimal commas).
 const first = layout('semicolon-decimal-comma').write();

@@ -1,8 +1,7 @@
 // The one-request import on the real database: the service behind POST /api/imports/plate (checked, then
 // stored by a job worker from an import draft), its refusal of a file with errors and of a file already
 // stored, and scripts/import-plate.ts as a child process importing into this test database.
-import { spawnSync } from 'node:child_process';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
@@ -12,17 +11,7 @@ import { ImportDraft, Plate, Well } from '@/models';
 import { layout } from '../fixtures/export-layouts';
 import { importRowCounts } from '../support/import-counts';
 import { demoFile, demoScreensSetup } from '../support/demo-scenario';
-
-const root = resolve(__dirname, '../..');
-
-function runScript(args: string[]) {
-  const out = spawnSync(
-    process.execPath,
-    ['--conditions=react-server', '--import', 'tsx', join(root, 'scripts', 'import-plate.ts'), ...args],
-    { encoding: 'utf8', cwd: root, env: process.env, timeout: 120_000 },
-  );
-  return { code: out.status, stdout: out.stdout, stderr: out.stderr };
-}
+import { ROOT as root, runScript } from '../support/run-script';
 
 describe('import in one request', () => {
   let biologist: Actor;

@@ -1,7 +1,6 @@
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
@@ -9,6 +8,7 @@ import { AppError } from '@/lib/errors';
 import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
 import { importRowCounts } from '../support/import-counts';
 import { potassiumImportSetup } from '../support/demo-scenario';
+import { runScript } from '../support/run-script';
 import {
   bigCsv,
   csv,
@@ -167,27 +167,18 @@ describe('the bad-input corpus is refused clearly and nothing is written', () =>
     try {
       const file = join(dir, 'roles.csv');
       writeFileSync(file, bytes);
-      const root = resolve(__dirname, '../..');
       const before = await importRowCounts();
-      const out = spawnSync(
-        process.execPath,
-        [
-          '--conditions=react-server',
-          '--import',
-          'tsx',
-          join(root, 'scripts', 'import-plate.ts'),
-          file,
-          '--screen',
-          'Potassium counter-screen',
-          '--as',
-          biologist.email,
-          '--dry-run',
-          '--json',
-        ],
-        { encoding: 'utf8', cwd: root, env: process.env, timeout: 120_000 },
-      );
+      const out = runScript([
+        file,
+        '--screen',
+        'Potassium counter-screen',
+        '--as',
+        biologist.email,
+        '--dry-run',
+        '--json',
+      ]);
       expect(out.stderr).toBe('');
-      expect(out.status).toBe(1);
+      expect(out.code).toBe(1);
       const facts = JSON.parse(out.stdout) as {
         errors: string[];
         wellCount: number;

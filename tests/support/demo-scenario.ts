@@ -18,20 +18,23 @@ export function demoFile(name: string): { bytes: Uint8Array; manifest: DemoManif
   };
 }
 
+/** The settings of the demo screens (Gatewell's default QC limits), all but the name. */
+export const DEMO_SCREEN_SETTINGS = {
+  description: '',
+  neuronPreset: 'pospischil-rs-2008',
+  zPrimeMin: 0.5,
+  sealResistanceMin_GOhm: 0.5,
+  controlCurrentMin_pA: 200,
+  seriesResistanceMax_MOhm: 25,
+  capacitanceMin_pF: 1,
+  capacitanceMax_pF: 100,
+  vehicleRundownMax_percent: 20,
+  exposures_uM: '0.1, 1',
+};
+
 /** One screen per demo target (as the demo seeder makes them) and the demo compounds; returns screen ids by target. */
 export async function makeDemoScreens(admin: Actor, chemist: Actor): Promise<Record<string, string>> {
-  const base = {
-    description: '',
-    neuronPreset: 'pospischil-rs-2008',
-    zPrimeMin: 0.5,
-    sealResistanceMin_GOhm: 0.5,
-    controlCurrentMin_pA: 200,
-    seriesResistanceMax_MOhm: 25,
-    capacitanceMin_pF: 1,
-    capacitanceMax_pF: 100,
-    vehicleRundownMax_percent: 20,
-    exposures_uM: '0.1, 1',
-  };
+  const base = DEMO_SCREEN_SETTINGS;
   const nav = await createScreen(admin, screenSchema.parse({ ...base, name: 'Pain sodium screen' }));
   await addTarget(admin, nav.id, { name: 'Nav1.7', conductance: 'gNa', description: '' });
   const kv = await createScreen(admin, screenSchema.parse({ ...base, name: 'Potassium counter-screen' }));

@@ -186,6 +186,13 @@ function strings(file: LayoutFile): string[] {
   );
 }
 
+/** Every line of the file's sheets that holds two written cells, as [first, second]. */
+function keyValueLines(file: LayoutFile): Value[][] {
+  return Object.values(readBack(file)).flatMap((rows) =>
+    rows.map((row) => row.filter((cell) => cell !== null && cell !== '')).filter((row) => row.length === 2),
+  );
+}
+
 /** Reads a written file back and checks its wells, bad wells, barcode and words against its facts. */
 function expectFactsHold(file: LayoutFile): void {
   const { facts } = file;
@@ -213,6 +220,9 @@ function expectFactsHold(file: LayoutFile): void {
         file.filename.startsWith(plateFacts.label),
       plateFacts.label,
     ).toBe(true);
+    // Where the facts say so, the barcode stands beside its key on a line of its own: key, barcode.
+    if (facts.barcodeKey !== undefined)
+      expect(keyValueLines(file), plateFacts.label).toContainEqual([facts.barcodeKey, plateFacts.label]);
   }
   for (const word of Object.values(facts.roleWords)) expect(cells, word).toContain(word);
   for (const word of Object.values(facts.targetWords))

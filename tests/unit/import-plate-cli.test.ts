@@ -2,31 +2,23 @@
 // the facts it prints for files of the invented export layouts (tests/fixtures/export-layouts) and for a
 // demo export (seeders/data/demo-plates) against what the generators recorded, a file lacking a readout,
 // a file with role words no guess places, and bad arguments.
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import XLSX from 'xlsx';
 import { afterAll, describe, expect, test } from 'vitest';
 import { layout, type LayoutFile } from '../fixtures/export-layouts';
-import { PLATES, plate, type PlateName } from '../fixtures/export-layouts/truth';
+import { MAPPINGS } from '../fixtures/export-layouts/mappings';
+import { truthRoleCounts } from '../support/layout-truth';
+import { ROOT as root, runScript, SCRIPT_TIMEOUT_MS } from '../support/run-script';
 
-const root = resolve(__dirname, '../..');
 const dir = mkdtempSync(join(tmpdir(), 'gatewell-import-cli-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 /** Runs the script with no database settings in its environment. */
-function run(args: string[]) {
-  const env = { ...process.env };
-  delete env.DATABASE_URL;
-  delete env.DATABASE_OWNER_URL;
-  const out = spawnSync(
-    process.execPath,
-    ['--conditions=react-server', '--import', 'tsx', join(root, 'scripts', 'import-plate.ts'), ...args],
-    { encoding: 'utf8', cwd: root, env, timeout: 60_000 },
-  );
-  return { code: out.status, stdout: out.stdout, stderr: out.stderr };
-}
+const run = (args: string[]) => runScript(args, { offline: true });
+
+const json = (value: unknown) => new TextEncoder().encode(JSON.stringify(value));
 
 function write(name: string, bytes: Uint8Array): string {
   const file = join(dir, name);
@@ -40,18 +32,7 @@ function dryRun(file: string) {
 }
 
 /** The truth's role counts of the plate a layout file records (by its barcode). */
-function truthRoles(written: LayoutFile) {
-  const label = written.facts.plates[0]!.label;
-  const name = (Object.keys(PLATES) as PlateName[]).find((n) => PLATES[n].barcode === label)!;
-  const wells = plate(name).wells;
-  const count = (role: string) => wells.filter((w) => w.role === role).length;
-  return {
-    negativeControl: count('vehicle'),
-    positiveControl: count('reference'),
-    test: count('test'),
-    empty: 0,
-  };
-}
+const truthRoles = (written: LayoutFile) => truthRoleCounts(written.facts.plates[0]!.label);
 
 describe('import-plate --offline --dry-run --json on the invented layouts', () => {
   test.each(['xls-workbook', 'xlsx-run-1536'])(
@@ -219,4 +200,74 @@ describe('import-plate arguments', () => {
     expect(missing.code).toBe(2);
     expect(missing.stderr).toBe(`import-plate: cannot read ${join(dir, 'absent.csv')}: ENOENT\n`);
   });
+
+  // Three script runs in each of these: a fresh Node process each, several seconds on a busy machine.
+  test(
+    '--mapping: a mapping that is not complete, or not JSON, is refused naming each bad field; exit 2',
+    () => {
+      const demo = join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv');
+      // Two fields from one column, four required fields left out, a unit Gatewell does not know.
+      const incomplete = write('incomplete.json', json({ columns: { well: 'Well', compound: 'Well' } }));
+      const out = run([demo, '--offline', '--mapping', incomplete]);
+      expect(out.code).toBe(2);
+      expect(out.stdout).toBe('');
+      const lines = out.stderr.trimEnd().split('\n');
+      expect(lines[0]).toBe(`import-plate: --mapping: invalid mapping in ${incomplete}:`);
+      expect(lines.slice(1).map((line) => line.split(':')[0]!.trim())).toEqual([
+        'columns.concentration',
+        'columns.target',
+        'columns.controlCurrent',
+        'columns.compoundCurrent',
+        'columns.compound',
+      ]);
+      const badUnit = write('bad-unit.json', json({ units: { concentration: 'micromolar' } }));
+      const unit = run([demo, '--offline', '--mapping', badUnit]);
+      expect(unit.code).toBe(2);
+      expect(unit.stderr).toMatch(
+        /^import-plate: --mapping: invalid mapping in .*\n {2}units\.concentration: /,
+      );
+      const notJson = write('not-json.json', new TextEncoder().encode('{ "columns": '));
+      const broken = run([demo, '--offline', '--mapping', notJson]);
+      expect(broken.code).toBe(2);
+      expect(broken.stderr).toMatch(/^import-plate: --mapping: .*not-json\.json is not valid JSON: /);
+    },
+    SCRIPT_TIMEOUT_MS,
+  );
+
+  test(
+    '--mapping with --template: exit 2, naming the clash; a sheet the file lacks: refused, exit 1',
+    () => {
+      // A text file's one sheet is named by the file: "GWX-096-0417".
+      const written = layout('semicolon-decimal-comma').write();
+      const file = write(written.filename, written.bytes);
+      const mapping = write(
+        'other-sheet.json',
+        json({ ...MAPPINGS['semicolon-decimal-comma'], wellSheet: 'Data' }),
+      );
+      const both = run([
+        file,
+        '--screen',
+        'S',
+        '--as',
+        'a@gatewell.test',
+        '--template',
+        'T',
+        '--mapping',
+        mapping,
+      ]);
+      expect(both.code).toBe(2);
+      expect(both.stderr).toBe(
+        'import-plate: bad arguments:\n  --mapping: a mapping file or a template, not both\n',
+      );
+      const out = run([file, '--offline', '--json', '--mapping', mapping]);
+      expect(out.code).toBe(1);
+      expect(JSON.parse(out.stdout)).toMatchObject({
+        wellCount: 0,
+        errors: [
+          'The mapping reads the sheet "Data", which the file does not hold; its sheets: "GWX-096-0417".',
+        ],
+      });
+    },
+    SCRIPT_TIMEOUT_MS,
+  );
 });
