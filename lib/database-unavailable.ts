@@ -21,3 +21,16 @@ export function isDatabaseUnavailable(error: unknown): boolean {
   if (typeof code === 'string' && (code.startsWith('08') || code.startsWith('57P'))) return true;
   return BROKEN_CONNECTION.test(error.parent.message);
 }
+
+/**
+ * What people read when the database's disk is full. Uploaded files are kept in the database
+ * (uploaded_files, import_drafts, import_uploads), so this is where the upload storage fills up; the
+ * statement that met the full disk was rolled back with its whole transaction.
+ */
+export const STORAGE_FULL_MESSAGE =
+  "The server's upload storage is full, so nothing was stored or changed. Tell your Gatewell administrator; it works again once space has been freed.";
+
+/** Whether PostgreSQL refused a write because its disk is full (SQLSTATE 53100 disk_full, "No space left on device"). */
+export function isStorageFull(error: unknown): boolean {
+  return error instanceof DatabaseError && (error.parent as { code?: unknown }).code === '53100';
+}

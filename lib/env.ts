@@ -12,6 +12,11 @@ const schema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().default('Gatewell <gatewell@localhost>'),
+  // The longest any job may stay taken before it counts as lost (its worker died) and is retried; each
+  // kind's own limit (lib/jobs/kinds.ts) applies when it is shorter. Unset: the kinds' own limits.
+  GATEWELL_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(3600).optional(),
+  // How often the queue looks for lost jobs (and archives old ones); one process does it per interval.
+  GATEWELL_JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
 });
 
 export type Env = z.infer<typeof schema>;

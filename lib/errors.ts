@@ -9,6 +9,7 @@ export const ERROR_STATUS = {
   rate_limited: 429,
   too_large: 413,
   unavailable: 503,
+  storage_full: 507,
 } as const;
 
 export type ErrorCode = keyof typeof ERROR_STATUS;

@@ -5,7 +5,12 @@ import { currentActor } from '@/lib/auth/current-actor';
 import { refuseUntilOwnPassword } from '@/lib/auth/own-password';
 import { requireRole, type Actor } from '@/lib/auth/roles';
 import type { Role } from '@/lib/domain/roles';
-import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
+import {
+  DATABASE_UNAVAILABLE_MESSAGE,
+  isDatabaseUnavailable,
+  isStorageFull,
+  STORAGE_FULL_MESSAGE,
+} from '@/lib/database-unavailable';
 import { isAppError } from '@/lib/errors';
 
 /** What every form action answers: a message for the whole form and/or messages keyed by field. */
@@ -57,6 +62,10 @@ export function failedActionState(error: unknown): ActionState {
   if (isDatabaseUnavailable(error)) {
     console.error('database unavailable during an action', error);
     return { message: DATABASE_UNAVAILABLE_MESSAGE };
+  }
+  if (isStorageFull(error)) {
+    console.error('storage full during an action', error);
+    return { message: STORAGE_FULL_MESSAGE };
   }
   console.error('unhandled action error', error);
   return { message: 'Something failed on the server; nothing was changed.' };

@@ -9,7 +9,12 @@ import type { Role } from '@/lib/domain/roles';
 import { SESSION_COOKIE } from '@/lib/auth/session-config';
 import { readSealedSession } from '@/lib/auth/session-read';
 import { renewedSessionCookie } from '@/lib/auth/session-renewal';
-import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '@/lib/database-unavailable';
+import {
+  DATABASE_UNAVAILABLE_MESSAGE,
+  isDatabaseUnavailable,
+  isStorageFull,
+  STORAGE_FULL_MESSAGE,
+} from '@/lib/database-unavailable';
 import { env } from '@/lib/env';
 import { AppError, isAppError } from '@/lib/errors';
 
@@ -46,7 +51,7 @@ async function renewSession(request: NextRequest): Promise<void> {
   if (renewed) (await cookies()).set(renewed.name, renewed.value, renewed.options);
 }
 
-/** Maps an error to a JSON answer: zod → 422, AppError → its status, a lost database → a logged 503, anything else → a logged 500. */
+/** Maps an error to a JSON answer: zod → 422, AppError → its status, a lost database → a logged 503, a full disk → a logged 507, anything else → a logged 500. */
 export function errorResponse(error: unknown): NextResponse {
   if (error instanceof ZodError) {
     return NextResponse.json(
@@ -66,6 +71,10 @@ export function errorResponse(error: unknown): NextResponse {
       { error: 'unavailable', message: DATABASE_UNAVAILABLE_MESSAGE },
       { status: 503 },
     );
+  }
+  if (isStorageFull(error)) {
+    console.error('storage full during a route', error);
+    return NextResponse.json({ error: 'storage_full', message: STORAGE_FULL_MESSAGE }, { status: 507 });
   }
   console.error('unhandled route error', error);
   return NextResponse.json(

@@ -12,16 +12,49 @@ export interface UploadedBytes {
   mediaType: string;
 }
 
+const TOO_LARGE = 'The file is larger than 10 MB; Gatewell reads files up to 10 MB.';
+/** The most a form may hold: the largest file and room for the other fields and the multipart framing. */
+const MAX_FORM_BYTES = MAX_UPLOAD_BYTES + 64 * 1024;
+
+/**
+ * The request body, read chunk by chunk and refused with 413 as soon as it passes the form limit (the
+ * rest is not read). A body sent in chunks declares no size, so the declared size alone cannot stop it.
+ */
+async function readCappedBody(request: NextRequest): Promise<Uint8Array<ArrayBuffer>> {
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  const reader = request.body?.getReader();
+  if (!reader) return new Uint8Array(0);
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > MAX_FORM_BYTES) {
+      await reader.cancel().catch(() => undefined);
+      throw new AppError('too_large', TOO_LARGE);
+    }
+    chunks.push(value);
+  }
+  const body = new Uint8Array(size);
+  let at = 0;
+  for (const chunk of chunks) {
+    body.set(chunk, at);
+    at += chunk.byteLength;
+  }
+  return body;
+}
+
 /** A posted form (multipart or url-encoded): its text fields and the file under "file", when one was sent. */
 export async function readForm(
   request: NextRequest,
 ): Promise<{ fields: Record<string, string>; file: File | null }> {
   const declared = Number(request.headers.get('content-length') ?? 0);
-  if (declared > MAX_UPLOAD_BYTES + 64 * 1024)
-    throw new AppError('too_large', 'The file is larger than 10 MB; Gatewell reads files up to 10 MB.');
+  if (declared > MAX_FORM_BYTES) throw new AppError('too_large', TOO_LARGE);
+  const body = await readCappedBody(request);
   let form: FormData;
   try {
-    form = await request.formData();
+    const contentType = request.headers.get('content-type') ?? '';
+    form = await new Response(body, { headers: { 'content-type': contentType } }).formData();
   } catch {
     throw new AppError('invalid', 'The request could not be read as a form.');
   }

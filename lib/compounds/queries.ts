@@ -116,3 +116,16 @@ export async function selectAllCompoundNames(transaction?: Transaction): Promise
 export async function lockCompoundNames(transaction: Transaction): Promise<void> {
   await db().query("select pg_advisory_xact_lock(hashtext('gatewell.compound-names'))", { transaction });
 }
+
+// SQL: the labels of the approved plates whose wells use the compound (their signed content names its identifier).
+export async function selectApprovedPlateLabels(
+  compoundId: string,
+  transaction?: Transaction,
+): Promise<string[]> {
+  const rows = await db().query<{ label: string }>(
+    `select distinct p.label from plates p join wells w on w.plate_id = p.id
+      where w.compound_id = :compoundId and p.state = 'approved' order by p.label`,
+    { type: QueryTypes.SELECT, replacements: { compoundId }, ...(transaction ? { transaction } : {}) },
+  );
+  return rows.map((r) => r.label);
+}

@@ -7,7 +7,7 @@ import { AppError } from '@/lib/errors';
 import type { BatchInput, CompoundInput } from '@/lib/validation/compounds';
 import { Batch, Compound } from '@/models';
 import { resolveCompoundNames } from './aliases';
-import { lockCompoundNames } from './queries';
+import { lockCompoundNames, selectApprovedPlateLabels } from './queries';
 
 export interface CompoundRecord {
   id: string;
@@ -89,6 +89,23 @@ export async function createCompound(actor: Actor, input: CompoundInput): Promis
   return db().transaction((transaction) => insertCompound(actor, input, transaction));
 }
 
+/**
+ * An approved plate's signed content names its compounds by identifier, so the identifier of a compound
+ * that any approved plate uses stays as it is (the database refuses it too: migration 20261210001900).
+ * A new name for such a compound goes in as an alias, which imports resolve to it.
+ */
+async function refuseRenameOnApprovedPlates(compound: Compound, transaction: Transaction): Promise<void> {
+  const labels = await selectApprovedPlateLabels(compound.id, transaction);
+  if (labels.length === 0) return;
+  const shown =
+    labels.length > 5 ? `${labels.slice(0, 5).join(', ')} and ${labels.length - 5} more` : labels.join(', ');
+  throw new AppError(
+    'locked',
+    `${compound.identifier} is used on approved plate${labels.length === 1 ? '' : 's'} ${shown}, whose signed content names it, so its identifier cannot change; nothing was changed. Keep ${compound.identifier} and use the new name as an alias of it: an import whose file uses the new name offers to map it to ${compound.identifier}.`,
+    { fieldErrors: { identifier: [`Used on approved plates; add the new name as an alias instead.`] } },
+  );
+}
+
 /** Edits a compound's identity fields; the audit event keeps before and after. */
 export async function updateCompound(
   actor: Actor,
@@ -100,6 +117,7 @@ export async function updateCompound(
     const compound = await Compound.findByPk(compoundId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!compound) throw new AppError('not_found', 'No such compound.');
     const before = toCompound(compound);
+    if (input.identifier !== compound.identifier) await refuseRenameOnApprovedPlates(compound, transaction);
     await refuseAliasClash(input.identifier, transaction);
     await compound
       .update(input, { transaction })

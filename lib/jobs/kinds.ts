@@ -51,15 +51,18 @@ export const JOB_KINDS = {
 /** The payload a caller passes for a kind of job (the schema's input). */
 export type JobPayload<Kind extends ComputeJobKind> = z.input<(typeof JOB_KINDS)[Kind]['payload']>;
 
-/** The pg-boss options of a kind's queue, from its definition. */
-export function queueOptions(kind: ComputeJobKind): PgBoss.Queue {
+/**
+ * The pg-boss options of a kind's queue, from its definition; `expireCapSeconds` (the deployment's
+ * GATEWELL_JOB_EXPIRE_SECONDS) shortens the time a job may stay taken before it counts as lost.
+ */
+export function queueOptions(kind: ComputeJobKind, expireCapSeconds?: number): PgBoss.Queue {
   const definition: JobKindDefinition = JOB_KINDS[kind];
   const { queue, policy, retry, expireInSeconds } = definition;
   return {
     name: queue,
     policy,
     retryLimit: retry.limit,
-    expireInSeconds,
+    expireInSeconds: Math.min(expireInSeconds, expireCapSeconds ?? expireInSeconds),
     ...(retry.delaySeconds === undefined ? {} : { retryDelay: retry.delaySeconds }),
     ...(retry.backoff === undefined ? {} : { retryBackoff: retry.backoff }),
   };

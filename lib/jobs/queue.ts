@@ -43,10 +43,17 @@ export function jobQueue(): Promise<PgBoss> {
       application_name: 'gatewell-jobs',
       max: 4,
       schedule: false,
+      // A job whose worker died stays taken until its expiry; this pass finds it and retries it.
+      maintenanceIntervalSeconds: env().GATEWELL_JOB_MAINTENANCE_SECONDS,
     });
     boss.on('error', (error: Error) => console.error(`[gatewell jobs] ${error.message}`));
     await boss.start();
-    for (const kind of COMPUTE_JOB_KINDS) await boss.createQueue(JOB_KINDS[kind].queue, queueOptions(kind));
+    for (const kind of COMPUTE_JOB_KINDS) {
+      const options = queueOptions(kind, env().GATEWELL_JOB_EXPIRE_SECONDS);
+      // createQueue leaves an existing queue as it was: the update carries changed retry and expiry settings to it.
+      await boss.createQueue(options.name, options);
+      await boss.updateQueue(options.name, options);
+    }
     return boss;
   })().catch((error: unknown) => {
     state.boss = null;

@@ -4,7 +4,7 @@ import type { Transaction } from 'sequelize';
 import type { z } from 'zod';
 import { loadActor } from '@/lib/auth/load-actor';
 import { requireCapability, type Actor } from '@/lib/auth/roles';
-import { isDatabaseUnavailable } from '@/lib/database-unavailable';
+import { isDatabaseUnavailable, isStorageFull, STORAGE_FULL_MESSAGE } from '@/lib/database-unavailable';
 import { db } from '@/lib/db';
 import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
 import type { JobContext } from '@/lib/jobs/job-types';
@@ -136,6 +136,8 @@ export async function runQueuedImport(
     });
   } catch (error) {
     if (!isDatabaseUnavailable(error)) await removeUpload(payload.uploadId).catch(() => undefined);
+    // Told to the person waiting as it is (refusal below), not as a failure on the worker.
+    if (isStorageFull(error)) throw new AppError('storage_full', STORAGE_FULL_MESSAGE);
     throw error;
   }
 }

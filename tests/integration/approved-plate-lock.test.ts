@@ -353,15 +353,23 @@ describe('an approved plate refuses every write path, with nothing written', () 
     expect(outcome).toMatchObject({ created: true });
   });
 
-  // Known gap, found by this test: renaming a compound changes what the approved plate shows and its data
-  // hash (the compound identifier is part of the signed content; the snapshot's contentSha256 moves), and
-  // nothing refuses it. `test.fails`
-  // keeps the suite green while the gap is open and fails as soon as the rename is refused or stops
-  // reaching the approved plate: then make this an ordinary test.
-  test.fails('updateCompound: renaming a compound on the approved plate', async () => {
+  // The approved plate's signed content names its compounds by identifier: the identifier of a compound it
+  // uses is refused a change, in the service (pointing to aliases) and in the database, with nothing changed.
+  test('updateCompound: renaming a compound on the approved plate is refused, pointing to aliases', async () => {
     const well = await wellOf();
     const compound = await compoundService.getCompound(cast.chemist, well.compoundId!);
-    await unchangedAfter(() =>
+    const compoundRow = () =>
+      db().query('select to_jsonb(c) as c from compounds c where c.id = :id', {
+        type: QueryTypes.SELECT,
+        replacements: { id: compound.id },
+      });
+    const compoundEvents = () =>
+      db().query('select count(*)::int as n from audit_events where entity_id::text = :id', {
+        type: QueryTypes.SELECT,
+        replacements: { id: compound.id },
+      });
+    const [rowBefore, eventsBefore] = [await compoundRow(), await compoundEvents()];
+    const outcome = await unchangedAfter(() =>
       compoundService.updateCompound(cast.chemist, well.compoundId!, {
         identifier: `${compound.identifier}-R`,
         name: compound.name,
@@ -369,6 +377,25 @@ describe('an approved plate refuses every write path, with nothing written', () 
         molecularWeight: compound.molecularWeight,
       }),
     );
+    expect(outcome).toMatchObject({
+      code: 'locked',
+      message: `${compound.identifier} is used on approved plate NAV-P01, whose signed content names it, so its identifier cannot change; nothing was changed. Keep ${compound.identifier} and use the new name as an alias of it: an import whose file uses the new name offers to map it to ${compound.identifier}.`,
+    });
+    expect(await compoundRow()).toEqual(rowBefore);
+    expect(await compoundEvents()).toEqual(eventsBefore);
+
+    // Past the service, the database refuses it too (migration 20261210001900).
+    const direct = await unchangedAfter(() =>
+      db().query("update compounds set identifier = identifier || '-R' where id = :id", {
+        replacements: { id: compound.id },
+      }),
+    );
+    expect(String(direct)).toMatch(
+      new RegExp(
+        `compound ${compound.identifier} is used on approved plate NAV-P01; its identifier cannot change`,
+      ),
+    );
+    expect(await compoundRow()).toEqual(rowBefore);
   });
 
   test.each([

@@ -15,8 +15,8 @@ export interface LockWaiter {
 export interface LockHolder {
   /** The holder's own backend pid. */
   pid: number;
-  /** Waits until `count` other sessions of this database wait on a lock (10 s at most, else throws). */
-  waiters(count: number): Promise<LockWaiter[]>;
+  /** Waits until `count` other sessions of this database wait on a lock (`timeoutMs`, 10 s unless given, else throws). */
+  waiters(count: number, timeoutMs?: number): Promise<LockWaiter[]>;
   /** Ends the holding transaction (commit), letting the waiters through. */
   release(): Promise<void>;
 }
@@ -34,8 +34,8 @@ export async function holdLocks(statements: { sql: string; params?: unknown[] }[
   let released = false;
   return {
     pid,
-    async waiters(count) {
-      const deadline = Date.now() + 10_000;
+    async waiters(count, timeoutMs = 10_000) {
+      const deadline = Date.now() + timeoutMs;
       for (;;) {
         // Inside a transaction PostgreSQL keeps one snapshot of pg_stat_activity: drop it for a fresh view.
         await client.query('select pg_stat_clear_snapshot()');
