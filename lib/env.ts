@@ -1,5 +1,6 @@
 import 'server-only';
 import { z } from 'zod';
+import { isTimeZone } from '@/lib/domain/time-zone';
 
 const schema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -12,6 +13,11 @@ const schema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().default('Gatewell <gatewell@localhost>'),
+  /** The IANA time zone the audit trail shows and reads times in (UTC unless set). */
+  GATEWELL_TIME_ZONE: z
+    .string()
+    .default('UTC')
+    .refine(isTimeZone, 'GATEWELL_TIME_ZONE must be an IANA time zone such as Europe/Berlin'),
 });
 
 export type Env = z.infer<typeof schema>;
