@@ -48,7 +48,8 @@ export async function proxy(request: NextRequest) {
 
 // API routes skip the proxy: they answer 401 and check origins themselves (withUser), renew the session
 // cookie on reads themselves, and their JSON needs no page policy; each request through the proxy costs
-// the server some milliseconds of CPU (docs/performance.md, Session 4).
+// the server some milliseconds of CPU (docs/performance.md, Session 4). The app's icons (app/icon.*,
+// app/apple-icon.*, app/favicon.ico) are public files: they skip it too, so the sign-in page has them.
 export const config = {
-  matcher: ['/((?!api/|_next/static|_next/image|favicon.ico).*)'],
+  matcher: ['/((?!api/|_next/static|_next/image|favicon.ico|icon\\.|apple-icon\\.).*)'],
 };

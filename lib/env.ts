@@ -1,5 +1,6 @@
 import 'server-only';
 import { z } from 'zod';
+import { isTimeZone } from '@/lib/domain/time-zone';
 
 const schema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -17,6 +18,11 @@ const schema = z.object({
   GATEWELL_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(3600).optional(),
   // How often the queue looks for lost jobs (and archives old ones); one process does it per interval.
   GATEWELL_JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+  /** The IANA time zone the audit trail shows and reads times in (UTC unless set). */
+  GATEWELL_TIME_ZONE: z
+    .string()
+    .default('UTC')
+    .refine(isTimeZone, 'GATEWELL_TIME_ZONE must be an IANA time zone such as Europe/Berlin'),
 });
 
 export type Env = z.infer<typeof schema>;

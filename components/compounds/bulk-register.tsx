@@ -2,6 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
+import { BusyButton } from '@/components/ui/busy-button';
 
 interface Result {
   rows: { row: number; input: { identifier: string; name: string; lot: string } | null; errors: string[] }[];
@@ -26,11 +27,11 @@ export function BulkRegister() {
   const [file, setFile] = useState<File | null>(null);
   const [result, setResult] = useState<Result | null>(null);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
-  const [busy, setBusy] = useState(false);
+  const [busy, setBusy] = useState<'check' | 'register' | null>(null);
 
   async function run(commit: boolean) {
     if (!file) return;
-    setBusy(true);
+    setBusy(commit ? 'register' : 'check');
     setMessage(null);
     try {
       const answer = await send(file, commit);
@@ -43,7 +44,7 @@ export function BulkRegister() {
     } catch (e) {
       setMessage({ ok: false, text: e instanceof Error ? e.message : 'The request failed.' });
     } finally {
-      setBusy(false);
+      setBusy(null);
     }
   }
 
@@ -70,17 +71,24 @@ export function BulkRegister() {
             }}
           />
         </div>
-        <button type="button" className="gw-button-quiet" disabled={!file || busy} onClick={() => run(false)}>
+        <BusyButton
+          className="gw-button-quiet"
+          busy={busy === 'check'}
+          busyLabel="Checking rows…"
+          disabled={!file || busy !== null}
+          onClick={() => run(false)}
+        >
           Check rows
-        </button>
-        <button
-          type="button"
-          className="gw-button"
-          disabled={!file || busy || !result?.ok}
+        </BusyButton>
+        {/* Registered once: the same sheet cannot be sent twice without checking it again. */}
+        <BusyButton
+          busy={busy === 'register'}
+          busyLabel={`Registering ${result?.rows.length ?? ''} compound(s)…`}
+          disabled={!file || busy !== null || !result?.ok || result.registered > 0}
           onClick={() => run(true)}
         >
           Register {result?.ok ? result.rows.length : ''} compound(s)
-        </button>
+        </BusyButton>
       </div>
       <p
         role="status"

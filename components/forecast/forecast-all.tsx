@@ -64,7 +64,7 @@ export function ForecastAll({ list, at }: { list: PlateForecastList; at: number 
             <progress className="w-full accent-lagoon-700" max={run.total ?? 1} value={run.done} />
             {run.state === 'queued'
               ? `Queued: ${run.total ?? '?'} forecast(s) wait for a worker…`
-              : `Forecasting ${Math.min(run.done + 1, run.total ?? run.done + 1)} of ${run.total ?? '?'} on ${run.worker ?? 'a worker'}…`}
+              : `Forecasting ${Math.min(run.done + 1, run.total ?? run.done + 1)} of ${run.total ?? '?'}…`}
           </>
         ) : run?.state === 'failed' ? (
           <span className="text-signal-fail">

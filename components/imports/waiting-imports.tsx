@@ -3,6 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { AppLink } from '@/components/ui/app-link';
+import { BusyButton } from '@/components/ui/busy-button';
 import { RegisterUnknownCompounds } from './unknown-compounds';
 
 /** A waiting import as the list shows it (lib/compounds/waiting-imports.ts, WaitingImport). */
@@ -21,20 +22,29 @@ export interface WaitingImportItem {
 function DiscardButton({ draftId, filename }: { draftId: string; filename: string }) {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
   async function discard() {
     if (!window.confirm(`Discard the waiting import of ${filename}? You would read the file again.`)) return;
     const body = new FormData();
     body.set('draftId', draftId);
-    const response = await fetch('/api/imports/discard', { method: 'POST', body });
-    if (response.ok) return router.refresh();
-    const json = (await response.json().catch(() => ({}))) as { message?: string };
-    setError(json.message ?? `The server answered ${response.status}.`);
+    setBusy(true);
+    setError(null);
+    try {
+      const response = await fetch('/api/imports/discard', { method: 'POST', body });
+      if (response.ok) return router.refresh();
+      const json = (await response.json().catch(() => ({}))) as { message?: string };
+      setError(json.message ?? `The server answered ${response.status}.`);
+    } catch {
+      setError('The request did not reach Gatewell; try again.');
+    } finally {
+      setBusy(false);
+    }
   }
   return (
     <>
-      <button type="button" className="gw-button-quiet" onClick={discard}>
+      <BusyButton className="gw-button-quiet" busy={busy} busyLabel="Discarding…" onClick={discard}>
         Discard
-      </button>
+      </BusyButton>
       {error ? (
         <span role="alert" className="text-signal-fail">
           {error}

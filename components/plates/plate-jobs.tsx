@@ -23,8 +23,7 @@ export function usePlateJobs(plateId: string, fitsPendingAtLoad: boolean) {
 
 function fitJobText(job: JobViewData | undefined): string {
   if (!job) return 'waiting for a worker to take the job';
-  if (job.state === 'running')
-    return `running on worker ${job.worker ?? '—'}${job.attempts > 1 ? `, attempt ${job.attempts}` : ''}`;
+  if (job.state === 'running') return `running${job.attempts > 1 ? `, attempt ${job.attempts}` : ''}`;
   if (job.state === 'failed')
     return `the last attempt failed (${job.message ?? 'no reason given'}); a worker retries it within a minute`;
   return job.message ? `queued: ${job.message}` : 'queued for the next free worker';

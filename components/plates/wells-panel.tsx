@@ -3,6 +3,7 @@
 import type { ColDef, RowDataUpdatedEvent, SelectionChangedEvent } from 'ag-grid-community';
 import { useMemo, useState } from 'react';
 import { useSWRConfig } from 'swr';
+import { BusyButton } from '@/components/ui/busy-button';
 import { DataGrid } from '@/components/ui/data-grid';
 import { exclusionSchema, type WellRowView } from '@/lib/validation/plates';
 import { plateJobsKey } from './plate-jobs';
@@ -97,7 +98,7 @@ export function WellsPanel({
   const [selected, setSelected] = useState<Set<string>>(new Set());
   const [reason, setReason] = useState('');
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
-  const [busy, setBusy] = useState(false);
+  const [busy, setBusy] = useState<'exclude' | 'include' | null>(null);
 
   if (error)
     return (
@@ -131,7 +132,7 @@ export function WellsPanel({
     });
     if (!parsed.success)
       return setMessage({ ok: false, text: parsed.error.issues.map((i) => i.message).join(' ') });
-    setBusy(true);
+    setBusy(excluded ? 'exclude' : 'include');
     try {
       const result = await postJson<{ changed: number }>(`/api/plates/${plateId}/exclusions`, parsed.data);
       setMessage({
@@ -144,7 +145,7 @@ export function WellsPanel({
     } catch (e) {
       setMessage({ ok: false, text: e instanceof Error ? e.message : 'The change failed.' });
     } finally {
-      setBusy(false);
+      setBusy(null);
     }
   }
 
@@ -206,22 +207,23 @@ export function WellsPanel({
               placeholder="e.g. seal lost during compound addition"
             />
           </div>
-          <button
-            type="button"
-            className="gw-button"
-            disabled={busy || selected.size === 0}
+          <BusyButton
+            busy={busy === 'exclude'}
+            busyLabel="Excluding…"
+            disabled={busy !== null || selected.size === 0}
             onClick={() => apply(true)}
           >
             Exclude
-          </button>
-          <button
-            type="button"
+          </BusyButton>
+          <BusyButton
             className="gw-button-quiet"
-            disabled={busy || selected.size === 0}
+            busy={busy === 'include'}
+            busyLabel="Re-including…"
+            disabled={busy !== null || selected.size === 0}
             onClick={() => apply(false)}
           >
             Re-include
-          </button>
+          </BusyButton>
           <p
             role="status"
             aria-live="polite"

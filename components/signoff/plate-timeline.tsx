@@ -115,7 +115,10 @@ export function PlateTimeline({ entries }: { entries: HistoryEntry[] }) {
               ) : null}
               {signed ? (
                 <p className="mt-0.5 text-xs text-ink-500">
-                  Data SHA-256 <span className="break-all font-mono">{signed.contentSha256}</span>
+                  Data fingerprint (SHA-256){' '}
+                  <span className="font-mono" title={signed.contentSha256}>
+                    {signed.contentSha256.slice(0, 12)}…
+                  </span>
                 </p>
               ) : null}
             </li>

@@ -1,6 +1,8 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
 import { auditEventsForExport } from '@/lib/audit/search';
+import { changeText, eventKindLabel, objectKindLabel } from '@/lib/audit/field-labels';
+import { wallClockText } from '@/lib/domain/time-zone';
 import type { AuditFilter } from '@/lib/validation/audit';
 import type { Cell, ExportDocument } from './document';
 
@@ -11,7 +13,10 @@ function describeFilter(filter: AuditFilter): string {
   const parts = [
     filter.entityType ? `record type ${filter.entityType}` : null,
     filter.entityId ? `record ${filter.entityId}` : null,
+    filter.action ? `kind of event ${filter.action}` : null,
     filter.userId ? `person ${filter.userId}` : null,
+    filter.plate ? `plate ${filter.plate}` : null,
+    filter.compound ? `compound ${filter.compound}` : null,
     filter.from ? `from ${iso(filter.from)}` : null,
     filter.to ? `before ${iso(filter.to)}` : null,
   ].filter((part): part is string => part !== null);
@@ -26,12 +31,13 @@ const json = (value: unknown): Cell => (value === null || value === undefined ? 
  * inspections outside Gatewell. Admins and approvers only (auditEventsForExport checks).
  */
 export async function auditExport(actor: Actor, rawFilter: unknown): Promise<ExportDocument> {
-  const { filter, rows } = await auditEventsForExport(actor, rawFilter);
+  const { filter, rows, names, timeZone } = await auditEventsForExport(actor, rawFilter);
   const about: [string, Cell][] = [
     ['Gatewell export', 'Audit trail'],
     ['Filter', describeFilter(filter)],
     ['Events', rows.length],
     ['Order', 'Newest first'],
+    ['Local times in', timeZone],
     ['Exported by', `${actor.name} <${actor.email}>`],
     ['Exported at (UTC)', new Date().toISOString().replace(/\.\d+Z$/, 'Z')],
   ];
@@ -41,11 +47,18 @@ export async function auditExport(actor: Actor, rawFilter: unknown): Promise<Exp
       {
         sheet: 'Audit trail',
         key: 'events',
+        // Words for people first (local time, object, changes), then the values as recorded, for tools.
         columns: [
           'Event',
           'Time (UTC)',
+          `Local time (${timeZone})`,
           'Person',
+          'Roles now',
           'E-mail',
+          'What happened',
+          'Kind of object',
+          'Object',
+          'Changes',
           'Action',
           'Record type',
           'Record id',
@@ -57,8 +70,14 @@ export async function auditExport(actor: Actor, rawFilter: unknown): Promise<Exp
         rows: rows.map((r) => [
           r.id,
           r.occurredAt,
+          wallClockText(r.occurredAt, timeZone).replace('T', ' '),
           r.actorName,
+          r.actorRoles,
           r.actorEmail,
+          eventKindLabel(r.action),
+          objectKindLabel(r.entityType),
+          r.objectName,
+          changeText(r.before, r.after, names),
           r.action,
           r.entityType,
           r.entityId,

@@ -1,4 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto';
+import * as XLSX from 'xlsx';
 import { readFileSync } from 'node:fs';
 import { expect, type Browser, type BrowserContext, type Page, type Request } from '@playwright/test';
 import pg from 'pg';
@@ -116,5 +117,16 @@ export async function expectOneReadImport(
     size: file.length,
     used: true,
     sheets: false,
+  });
+}
+
+/** The rows of a downloaded csv file as cells, read by SheetJS (quoted commas and line breaks kept in their cell). */
+export function csvCells(text: string): string[][] {
+  const book = XLSX.read(text, { type: 'string', raw: true });
+  return XLSX.utils.sheet_to_json<string[]>(book.Sheets[book.SheetNames[0]!]!, {
+    header: 1,
+    raw: false,
+    defval: '',
+    blankrows: false,
   });
 }

@@ -163,9 +163,16 @@ describe('the append-only audit trail', () => {
       '2026-12-01T09:30:10.000Z',
       '2026-12-01T08:00:00.000Z',
     ]);
+    // December in UTC: the local time is the UTC wall clock.
     expect(table!.rows[0]!.slice(2)).toEqual([
+      '2026-12-01 09:31:00',
       approver.name,
+      'approver',
       approver.email,
+      'Signed',
+      'Plate',
+      null,
+      'N: 1 → 2',
       'sign',
       'plate',
       'p-2',
@@ -203,9 +210,10 @@ describe('the append-only audit trail', () => {
     await expect(auditExport(admin, { to: 'soon' })).rejects.toMatchObject({ code: 'invalid' });
   });
 
-  test('filter choices list the record types that occur and every person', async () => {
+  test('filter choices list the record types and kinds of event that occur and every person', async () => {
     const choices = await auditFilterChoices(approver);
     expect(choices.entityTypes).toEqual(['plate', 'session', 'user']);
+    expect(choices.actions).toEqual(['create', 'sign', 'sign_in_failed', 'update']);
     expect(choices.people.map((p) => p.id)).toEqual(expect.arrayContaining([admin.id, approver.id]));
   });
 });

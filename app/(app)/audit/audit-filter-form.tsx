@@ -1,46 +1,40 @@
 import { Field } from '@/components/forms/field';
 import { SelectField } from '@/components/forms/select-field';
 import { AppLink } from '@/components/ui/app-link';
+import { eventKindLabel, objectKindLabel } from '@/lib/audit/field-labels';
+import type { AUDIT_FILTER_KEYS } from '@/lib/validation/audit';
 
-export type FilterValues = Partial<Record<'entityType' | 'entityId' | 'userId' | 'from' | 'to', string>>;
+export type FilterValues = Partial<Record<(typeof AUDIT_FILTER_KEYS)[number], string>>;
 type Errors = Partial<Record<string, string[]>>;
+
+const byLabel = (a: { label: string }, b: { label: string }) => a.label.localeCompare(b.label, 'en-GB');
 
 /** The audit trail's filters as a plain GET form, so every filtered view has its own address. */
 export function AuditFilterForm({
   values,
   errors,
-  entityTypes,
-  people,
+  timeZone,
+  choices,
 }: {
   values: FilterValues;
   errors: Errors;
-  entityTypes: string[];
-  people: { id: string; label: string }[];
+  timeZone: string;
+  choices: {
+    entityTypes: string[];
+    actions: string[];
+    people: { id: string; label: string }[];
+    plates: string[];
+    compounds: string[];
+  };
 }) {
   return (
     <form
       method="get"
       action="/audit"
-      className="gw-card mb-4 grid gap-x-4 gap-y-1 p-4 sm:grid-cols-2 xl:grid-cols-[repeat(5,minmax(0,1fr))_auto]"
+      className="gw-card mb-4 grid gap-x-4 gap-y-1 p-4 sm:grid-cols-2 lg:grid-cols-4"
       role="search"
       aria-label="Filter the audit trail"
     >
-      <SelectField
-        label="Record type"
-        name="entityType"
-        id="filter-entityType"
-        defaultValue={values.entityType ?? ''}
-        errors={errors.entityType}
-        options={[{ value: '', label: 'Any' }, ...entityTypes.map((type) => ({ value: type, label: type }))]}
-      />
-      <Field
-        label="Record id"
-        name="entityId"
-        id="filter-entityId"
-        defaultValue={values.entityId}
-        className="gw-input mt-1 font-mono"
-        errors={errors.entityId}
-      />
       <SelectField
         label="Person"
         name="userId"
@@ -49,11 +43,65 @@ export function AuditFilterForm({
         errors={errors.userId}
         options={[
           { value: '', label: 'Anyone' },
-          ...people.map((person) => ({ value: person.id, label: person.label })),
+          ...choices.people.map((person) => ({ value: person.id, label: person.label })),
+        ]}
+      />
+      <SelectField
+        label="What happened"
+        name="action"
+        id="filter-action"
+        defaultValue={values.action ?? ''}
+        errors={errors.action}
+        options={[
+          { value: '', label: 'Anything' },
+          ...choices.actions
+            .map((action) => ({ value: action, label: eventKindLabel(action) }))
+            .sort(byLabel),
         ]}
       />
       <Field
-        label="From (UTC)"
+        label="Plate"
+        name="plate"
+        id="filter-plate"
+        list="filter-plate-labels"
+        hint="Its label; every plate of that label, wells included"
+        defaultValue={values.plate}
+        errors={errors.plate}
+        autoComplete="off"
+      />
+      <datalist id="filter-plate-labels">
+        {choices.plates.map((label) => (
+          <option key={label} value={label} />
+        ))}
+      </datalist>
+      <Field
+        label="Compound"
+        name="compound"
+        id="filter-compound"
+        list="filter-compound-identifiers"
+        hint="Its identifier; its batches and aliases included"
+        defaultValue={values.compound}
+        errors={errors.compound}
+        autoComplete="off"
+      />
+      <datalist id="filter-compound-identifiers">
+        {choices.compounds.map((identifier) => (
+          <option key={identifier} value={identifier} />
+        ))}
+      </datalist>
+      <SelectField
+        label="Kind of object"
+        name="entityType"
+        id="filter-entityType"
+        defaultValue={values.entityType ?? ''}
+        errors={errors.entityType}
+        options={[
+          { value: '', label: 'Any' },
+          ...choices.entityTypes.map((type) => ({ value: type, label: objectKindLabel(type) })).sort(byLabel),
+        ]}
+      />
+      <Field
+        label={`From (${timeZone})`}
         name="from"
         id="filter-from"
         type="datetime-local"
@@ -61,13 +109,14 @@ export function AuditFilterForm({
         errors={errors.from}
       />
       <Field
-        label="To (UTC)"
+        label={`To (${timeZone})`}
         name="to"
         id="filter-to"
         type="datetime-local"
         defaultValue={values.to}
         errors={errors.to}
       />
+      {values.entityId ? <input type="hidden" name="entityId" value={values.entityId} /> : null}
       <div className="flex items-start gap-2 pt-6">
         <button type="submit" className="gw-button">
           Filter
@@ -76,6 +125,11 @@ export function AuditFilterForm({
           Clear
         </AppLink>
       </div>
+      {errors.entityId ? (
+        <p role="alert" className="text-xs text-signal-fail sm:col-span-2 lg:col-span-4">
+          {errors.entityId.join(' ')}
+        </p>
+      ) : null}
     </form>
   );
 }

@@ -1,74 +1,102 @@
 'use client';
 
 import type { ColDef } from 'ag-grid-community';
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { DataGrid } from '@/components/ui/data-grid';
+import {
+  changeLine,
+  eventKindLabel,
+  fieldChanges,
+  objectKindLabel,
+  type NameLookup,
+} from '@/lib/audit/field-labels';
 import type { AuditRow } from '@/lib/audit/search';
-import { changeSummary } from './change-summary';
+import { formatInZone } from '@/lib/domain/time-zone';
 
-const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium', timeZone: 'UTC' });
 const orDash = (value: unknown) =>
   value === null || value === undefined || value === '' ? '—' : String(value);
 
-const columns: ColDef<AuditRow>[] = [
-  {
-    field: 'occurredAt',
-    headerName: 'Time (UTC)',
-    valueFormatter: (p) => when.format(new Date(p.value as string)),
-    width: 150,
-  },
-  {
-    colId: 'actor',
-    headerName: 'Person',
-    valueGetter: (p) => p.data?.actorName ?? 'nobody signed in',
-    tooltipValueGetter: (p) => p.data?.actorEmail ?? null,
-    width: 125,
-  },
-  { field: 'action', headerName: 'Action', width: 130, cellClass: 'font-mono text-xs' },
-  { field: 'entityType', headerName: 'Record', width: 90 },
-  {
-    field: 'entityId',
-    headerName: 'Record id',
-    width: 110,
-    cellClass: 'font-mono text-xs',
-    valueFormatter: (p) => orDash(p.value),
-    tooltipField: 'entityId',
-  },
-  {
-    field: 'reason',
-    headerName: 'Reason',
-    flex: 1,
-    minWidth: 120,
-    wrapText: true,
-    autoHeight: true,
-    valueFormatter: (p) => orDash(p.value),
-  },
-  {
-    colId: 'change',
-    headerName: 'Before → after',
-    valueGetter: (p) => (p.data ? changeSummary(p.data.before, p.data.after) : ''),
-    flex: 2,
-    minWidth: 220,
-    wrapText: true,
-    autoHeight: true,
-    cellClass: 'text-xs leading-5 py-1.5',
-  },
-];
+/** Who acted, in words: name and today's roles, or that nobody was signed in. */
+const person = (row: AuditRow) =>
+  row.actorName ? `${row.actorName}${row.actorRoles ? ` (${row.actorRoles})` : ''}` : 'Nobody signed in';
 
-function Values({ title, value }: { title: string; value: unknown }) {
-  return (
-    <div className="min-w-0 flex-1">
-      <h3 className="text-sm font-semibold">{title}</h3>
-      <pre className="mt-1 max-h-72 overflow-auto rounded bg-paper p-3 font-mono text-xs">
-        {value === null || value === undefined ? '—' : JSON.stringify(value, null, 2)}
-      </pre>
-    </div>
-  );
+/** The object in words: its kind and its name; a record since gone is said so, never shown by its id. */
+const object = (row: AuditRow) => {
+  const kind = objectKindLabel(row.entityType);
+  if (row.objectName) return `${kind} ${row.objectName}`;
+  return row.entityId ? `${kind} (no longer known)` : kind;
+};
+
+function columnsFor(timeZone: string, names: NameLookup): ColDef<AuditRow>[] {
+  return [
+    {
+      field: 'occurredAt',
+      headerName: `When (${timeZone})`,
+      valueFormatter: (p) => formatInZone(p.value as string, timeZone),
+      width: 215,
+    },
+    {
+      colId: 'actor',
+      headerName: 'Person',
+      valueGetter: (p) => (p.data ? person(p.data) : ''),
+      tooltipValueGetter: (p) => p.data?.actorEmail ?? null,
+      width: 170,
+      wrapText: true,
+      autoHeight: true,
+    },
+    {
+      colId: 'action',
+      headerName: 'What happened',
+      valueGetter: (p) => (p.data ? eventKindLabel(p.data.action) : ''),
+      width: 170,
+      wrapText: true,
+      autoHeight: true,
+    },
+    {
+      colId: 'object',
+      headerName: 'Object',
+      valueGetter: (p) => (p.data ? object(p.data) : ''),
+      width: 190,
+      wrapText: true,
+      autoHeight: true,
+    },
+    {
+      field: 'reason',
+      headerName: 'Reason',
+      width: 160,
+      wrapText: true,
+      autoHeight: true,
+      valueFormatter: (p) => orDash(p.value),
+    },
+    {
+      colId: 'change',
+      headerName: 'Changes (field: before → after)',
+      valueGetter: (p) =>
+        p.data
+          ? fieldChanges(p.data.before, p.data.after, names).map(changeLine).join('\n') || 'no field changed'
+          : '',
+      flex: 1,
+      minWidth: 240,
+      wrapText: true,
+      autoHeight: true,
+      cellClass: 'text-xs leading-5 py-1.5 whitespace-pre-line',
+    },
+  ];
 }
 
-/** One page of audit events, newest first (filtered on the server); a chosen row shows its full before and after. */
-export function AuditGrid({ rows }: { rows: AuditRow[] }) {
+/** One page of audit events, newest first (filtered on the server); a chosen row shows each change in full. */
+export function AuditGrid({
+  rows,
+  names,
+  timeZone,
+}: {
+  rows: AuditRow[];
+  names: NameLookup;
+  timeZone: string;
+}) {
   const [chosen, setChosen] = useState<AuditRow | null>(null);
+  const columns = useMemo(() => columnsFor(timeZone, names), [timeZone, names]);
+  const changes = chosen ? fieldChanges(chosen.before, chosen.after, names) : [];
   return (
     <div className="space-y-4">
       <DataGrid<AuditRow>
@@ -82,28 +110,57 @@ export function AuditGrid({ rows }: { rows: AuditRow[] }) {
           if ((e.event as KeyboardEvent | undefined)?.key === 'Enter') setChosen(e.data ?? null);
         }}
         rowClass="cursor-pointer"
-        height={Math.min(620, 60 + rows.length * 52)}
+        height={Math.min(620, 60 + rows.length * 60)}
       />
       <section aria-live="polite" aria-label="Chosen event" className="gw-card p-4">
         {chosen ? (
           <>
             <h2 className="text-base font-semibold">
-              Event {chosen.id}: <span className="font-mono">{chosen.action}</span> on {chosen.entityType}{' '}
-              {chosen.entityId ?? ''}
+              {eventKindLabel(chosen.action)}: {object(chosen)}
             </h2>
             <p className="mt-1 text-sm text-ink-700">
-              {when.format(new Date(chosen.occurredAt))} UTC by{' '}
-              {chosen.actorName ? `${chosen.actorName} <${chosen.actorEmail}>` : 'nobody signed in'}
+              {formatInZone(chosen.occurredAt, timeZone)} by{' '}
+              {chosen.actorName ? `${person(chosen)} <${chosen.actorEmail}>` : 'nobody signed in'}
               {chosen.address ? ` from ${chosen.address}` : ''}. Reason: {orDash(chosen.reason)}.
             </p>
-            <div className="mt-3 flex flex-col gap-4 md:flex-row">
-              <Values title="Before" value={chosen.before} />
-              <Values title="After" value={chosen.after} />
-            </div>
+            {changes.length ? (
+              <table className="mt-3 w-full text-left text-sm">
+                <thead className="text-ink-500">
+                  <tr>
+                    <th scope="col" className="py-1 pr-4 font-medium">
+                      Field
+                    </th>
+                    <th scope="col" className="py-1 pr-4 font-medium">
+                      Before
+                    </th>
+                    <th scope="col" className="py-1 font-medium">
+                      After
+                    </th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {changes.map((change) => (
+                    <tr key={change.field} className="border-t border-ink-100 align-top">
+                      <th scope="row" className="py-1 pr-4 font-medium">
+                        {change.field}
+                      </th>
+                      <td className="py-1 pr-4 break-words">{change.before ?? '—'}</td>
+                      <td className="py-1 break-words">{change.after ?? 'removed'}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            ) : (
+              <p className="mt-3 text-sm text-ink-700">No field changed.</p>
+            )}
+            <p className="mt-2 text-xs text-ink-500">
+              Internal references and file fingerprints are left out here; the csv and xlsx downloads keep
+              every value as recorded.
+            </p>
           </>
         ) : (
           <p className="text-sm text-ink-700">
-            Choose an event (click, or Enter on a row) to see its full before and after.
+            Choose an event (click, or Enter on a row) to see each of its changes in full.
           </p>
         )}
       </section>

@@ -3,21 +3,20 @@ import { AppLink } from '@/components/ui/app-link';
 import { z } from 'zod';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
-import { auditFilterChoices, searchAudit } from '@/lib/audit/search';
+import { auditFilterChoices, auditFilterSchemaHere, auditTimeZone, searchAudit } from '@/lib/audit/search';
 import { requirePageRole } from '@/lib/auth/page-guard';
 import { rolesFor } from '@/lib/domain/roles';
-import { auditFilterSchema } from '@/lib/validation/audit';
+import { AUDIT_FILTER_KEYS } from '@/lib/validation/audit';
 import { AuditFilterForm, type FilterValues } from './audit-filter-form';
 import { AuditGrid } from './audit-grid';
 
 export const metadata: Metadata = { title: 'Audit trail' };
 
 type SearchParams = Record<string, string | string[] | undefined>;
-const FILTER_KEYS = ['entityType', 'entityId', 'userId', 'from', 'to'] as const;
 
 function filterValues(params: SearchParams): FilterValues {
   const values: FilterValues = {};
-  for (const key of FILTER_KEYS) {
+  for (const key of AUDIT_FILTER_KEYS) {
     const raw = params[key];
     const value = Array.isArray(raw) ? raw[0] : raw;
     if (value) values[key] = value;
@@ -38,7 +37,9 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
   const actor = await requirePageRole(...rolesFor('readAudit'));
   const params = await searchParams;
   const values = filterValues(params);
-  const parsed = auditFilterSchema.safeParse(params);
+  const timeZone = auditTimeZone();
+  // The search parameters are parsed by zod (searchAudit parses them again at its own boundary).
+  const parsed = auditFilterSchemaHere().safeParse(params);
   const [choices, result] = await Promise.all([
     auditFilterChoices(actor),
     parsed.success ? searchAudit(actor, params) : null,
@@ -46,18 +47,24 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
   const errors = parsed.success ? {} : z.flattenError(parsed.error).fieldErrors;
   const first = result ? (result.page - 1) * result.pageSize + 1 : 0;
   const last = result ? first + result.rows.length - 1 : 0;
+  const pages = result ? Math.max(1, Math.ceil(result.total / result.pageSize)) : 0;
   return (
     <>
       <PageHeader
         title="Audit trail"
-        intro="Every change, sign-in and signature, as it happened. Nothing here can be edited or removed, not even by an administrator."
+        intro={`Every change, sign-in and signature, as it happened. Nothing here can be edited or removed, not even by an administrator. Times are in ${timeZone}.`}
       />
-      <AuditFilterForm
-        values={values}
-        errors={errors}
-        entityTypes={choices.entityTypes}
-        people={choices.people}
-      />
+      <AuditFilterForm values={values} errors={errors} timeZone={timeZone} choices={choices} />
+      {values.entityId ? (
+        <p className="mb-3 text-sm text-ink-700">
+          Showing the events of one record only.{' '}
+          <AppLink
+            href={`/audit?${new URLSearchParams(Object.entries(values).filter(([key]) => key !== 'entityId'))}`}
+          >
+            Show every record
+          </AppLink>
+        </p>
+      ) : null}
       {!result ? (
         <p role="alert" className="text-sm font-medium text-signal-fail">
           Correct the filter to see events.
@@ -66,9 +73,9 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         <EmptyState title="No events match">Widen the time range or clear a filter.</EmptyState>
       ) : (
         <>
-          <div className="mb-2 flex items-center justify-between text-sm text-ink-700">
+          <div className="mb-2 flex flex-wrap items-center justify-between gap-2 text-sm text-ink-700">
             <p aria-live="polite">
-              Events {first}–{last} of {result.total}, newest first
+              Events {first}–{last} of {result.total}, newest first (page {result.page} of {pages})
             </p>
             <p className="flex items-center gap-2">
               <span className="text-ink-500">Download all {result.total}:</span>
@@ -92,7 +99,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
               ) : null}
             </nav>
           </div>
-          <AuditGrid rows={result.rows} />
+          <AuditGrid rows={result.rows} names={result.names} timeZone={result.timeZone} />
         </>
       )}
     </>
