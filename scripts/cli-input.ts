@@ -13,17 +13,22 @@ export function issuePath(path: readonly PropertyKey[]): string {
     .join('');
 }
 
-/** Reads the one FILE.json argument of tool `name` and checks it; on a fault writes why to stderr. */
+/**
+ * Reads the one FILE.json argument of tool `name` and checks it; on a fault writes why to stderr.
+ * `usageDetail` (lines) follows the usage line on wrong usage.
+ */
 export function readCliInput<Schema extends z.ZodType>(
   name: string,
   argv: readonly string[],
   schema: Schema,
+  usageDetail?: string,
 ): CliInput<z.infer<Schema>> {
   const fail = (message: string, exitCode = 1): CliInput<never> => {
     process.stderr.write(exitCode === 2 ? `${message}\n` : `${name}: ${message}\n`);
     return { ok: false, exitCode };
   };
-  if (argv.length !== 1) return fail(`usage: npx tsx scripts/${name}.ts FILE.json`, 2);
+  if (argv.length !== 1)
+    return fail(`usage: npx tsx scripts/${name}.ts FILE.json${usageDetail ? `\n${usageDetail}` : ''}`, 2);
   const file = argv[0]!;
   let text: string;
   try {
