@@ -37,8 +37,19 @@ export default async function ScreenPage({ params }: { params: Promise<{ screenI
             columns={[
               { header: 'Target', cell: (t) => t.name },
               {
-                header: 'Model conductance',
+                header: `Model conductance (${screen.neuronPreset})`,
                 cell: (t) => <span className="font-mono">{t.conductance}</span>,
+              },
+              {
+                header: 'In the other presets',
+                cell: (t) => (
+                  <span className="text-xs text-ink-700">
+                    {t.byPreset
+                      .filter((m) => m.preset !== screen.neuronPreset)
+                      .map((m) => `${m.preset} → ${m.conductance ?? 'none'}`)
+                      .join(' · ')}
+                  </span>
+                ),
               },
             ]}
           />
