@@ -11,6 +11,7 @@ import {
   initialConductanceByPreset,
   type ScreenInput,
   type TargetInput,
+  type TargetMappingInput,
 } from '@/lib/validation/screens';
 import { Screen, Target } from '@/models';
 
@@ -142,5 +143,51 @@ export async function addTarget(actor: Actor, screenId: string, input: TargetInp
       transaction,
     );
     return { id: target.id };
+  });
+}
+
+/**
+ * Sets a target's conductance in a preset other than its screen's current one (admin), used if the
+ * screen later switches to that preset. The current preset's mapping is the one fits and forecasts
+ * read; it is chosen when the target is added and is not changed here.
+ */
+export async function setTargetMapping(
+  actor: Actor,
+  targetId: string,
+  input: TargetMappingInput,
+): Promise<void> {
+  requireCapability(actor, 'manageScreens');
+  await db().transaction(async (transaction) => {
+    const target = await Target.findByPk(targetId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!target) throw new AppError('not_found', 'No such target.');
+    const screen = await Screen.findByPk(target.screenId, { transaction });
+    if (!screen) throw new AppError('not_found', 'No such screen.');
+    if (input.preset === screen.neuronPreset) {
+      const message = `${input.preset} is the screen’s current preset; its mapping is fixed when the target is added.`;
+      throw new AppError('invalid', message, { fieldErrors: { preset: [message] } });
+    }
+    const allowed = blockableConductances(input.preset);
+    if (!allowed.includes(input.conductance)) {
+      const message = `${input.preset} has no blockable conductance ${input.conductance}; choose one of ${allowed.join(', ')}.`;
+      throw new AppError('invalid', message, { fieldErrors: { conductance: [message] } });
+    }
+    const before = { conductanceByPreset: target.conductanceByPreset };
+    const conductanceByPreset = conductanceByPresetSchema.parse({
+      ...target.conductanceByPreset,
+      [input.preset]: input.conductance,
+    });
+    await target.update({ conductanceByPreset }, { transaction });
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'update',
+        entityType: 'target',
+        entityId: target.id,
+        before,
+        after: { conductanceByPreset },
+        address: actor.address,
+      },
+      transaction,
+    );
   });
 }

@@ -56,6 +56,14 @@ export const targetSchema = z.object({
 
 export type TargetInput = z.infer<typeof targetSchema>;
 
+/** A target's conductance in one preset other than its screen's current one, as an admin sets it. */
+export const targetMappingSchema = z.object({
+  preset: z.enum(PRESET_NAMES, { error: `Choose a preset: ${PRESET_NAMES.join(', ')}.` }),
+  conductance: z.string().trim().min(1, 'Choose the model conductance.'),
+});
+
+export type TargetMappingInput = z.infer<typeof targetMappingSchema>;
+
 /** The conductances of a preset that a target may map to. */
 export function blockableConductances(presetName: string): string[] {
   return conductanceNames(getPreset(presetName)).blockable;

@@ -1,7 +1,7 @@
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import { db } from '@/lib/db';
 import { getScreen } from '@/lib/screens/list';
-import { addTarget, createScreen, updateScreen } from '@/lib/screens/service';
+import { addTarget, createScreen, setTargetMapping, updateScreen } from '@/lib/screens/service';
 import { PRESET_NAMES } from '@/lib/science/neuron/presets';
 import { screenSchema } from '@/lib/validation/screens';
 import { AuditEvent, Target } from '@/models';
@@ -116,6 +116,37 @@ describe('screens and targets on the real database', () => {
     expect(screen.neuronPreset).toBe('pospischil-rs-2008');
     expect(screen.targets.map((t) => t.conductance).sort()).toEqual(['gM', 'gNa']);
     expect(await AuditEvent.count()).toBe(audits);
+  });
+
+  test('an admin sets a target’s mapping in another preset; the switch then uses it', async () => {
+    const admin = await makeActor(['admin']);
+    const { id } = await createScreen(admin, screenSchema.parse(form));
+    const { id: targetId } = await addTarget(admin, id, {
+      name: 'Kv7.2/7.3',
+      conductance: 'gM',
+      description: '',
+    });
+    // Bad input names its field and writes nothing: the leak, the screen's current preset.
+    await expect(
+      setTargetMapping(admin, targetId, { preset: 'wang-buzsaki-1996', conductance: 'gL' }),
+    ).rejects.toMatchObject({
+      code: 'invalid',
+      message: 'wang-buzsaki-1996 has no blockable conductance gL; choose one of gNa, gK.',
+    });
+    await expect(
+      setTargetMapping(admin, targetId, { preset: 'pospischil-rs-2008', conductance: 'gK' }),
+    ).rejects.toMatchObject({ code: 'invalid' });
+    expect((await Target.findByPk(targetId))!.conductanceByPreset).toEqual({ 'pospischil-rs-2008': 'gM' });
+    await expect(
+      setTargetMapping(await makeActor(['biologist']), targetId, {
+        preset: 'wang-buzsaki-1996',
+        conductance: 'gK',
+      }),
+    ).rejects.toMatchObject({ code: 'forbidden' });
+
+    await setTargetMapping(admin, targetId, { preset: 'wang-buzsaki-1996', conductance: 'gK' });
+    await updateScreen(admin, id, screenSchema.parse({ ...form, neuronPreset: 'wang-buzsaki-1996' }));
+    expect((await getScreen(admin, id)).targets[0]!.conductance).toBe('gK');
   });
 
   test('only an admin manages screens', async () => {
