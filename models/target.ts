@@ -8,12 +8,17 @@ import {
   type Sequelize,
 } from 'sequelize';
 
-/** A current measured in a screen, mapped to one conductance of the screen's neuron preset. */
+/**
+ * A current measured in a screen, mapped to one conductance of the screen's neuron preset
+ * (`conductance`), and to a conductance of each other preset it has been given or defaulted to
+ * (`conductanceByPreset`, preset name → conductance), used when the screen's preset changes.
+ */
 export class Target extends Model<InferAttributes<Target>, InferCreationAttributes<Target>> {
   declare id: CreationOptional<string>;
   declare screenId: string;
   declare name: string;
   declare conductance: string;
+  declare conductanceByPreset: CreationOptional<Record<string, string>>;
   declare description: CreationOptional<string>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -25,6 +30,7 @@ export class Target extends Model<InferAttributes<Target>, InferCreationAttribut
         screenId: { type: DataTypes.UUID, allowNull: false },
         name: { type: DataTypes.TEXT, allowNull: false },
         conductance: { type: DataTypes.TEXT, allowNull: false },
+        conductanceByPreset: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -43,14 +43,20 @@ export function readJsonFile<Schema extends z.ZodType>(
   return { ok: true, data: parsed.data };
 }
 
-/** Reads the one FILE.json argument of tool `name` and checks it; on a fault writes why to stderr. */
+/**
+ * Reads the one FILE.json argument of tool `name` and checks it; on a fault writes why to stderr.
+ * `usageDetail` (lines) follows the usage line on wrong usage.
+ */
 export function readCliInput<Schema extends z.ZodType>(
   name: string,
   argv: readonly string[],
   schema: Schema,
+  usageDetail?: string,
 ): CliInput<z.infer<Schema>> {
   if (argv.length !== 1) {
-    process.stderr.write(`usage: npx tsx scripts/${name}.ts FILE.json\n`);
+    process.stderr.write(
+      `usage: npx tsx scripts/${name}.ts FILE.json${usageDetail ? `\n${usageDetail}` : ''}\n`,
+    );
     return { ok: false, exitCode: 2 };
   }
   const read = readJsonFile(argv[0]!, schema);

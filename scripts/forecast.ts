@@ -1,14 +1,22 @@
 // Gatewell forecast CLI: `npx tsx scripts/forecast.ts FILE.json` forecasts one block condition and prints JSON.
-// Input (the forecast input file): {"preset": "hh-squid-1952" | "pospischil-rs-2008", "block": {conductance: fraction 0–1},
+// Input (the forecast input file): {"preset": one of PRESET_NAMES (listed by the usage text), "block": {conductance: fraction 0–1},
 //   "stepMs": rheobase step in ms (default 500), "drives_uA_cm2": [drives for firing rates]}.
 // Output: {"rest_mV", "rheobase_uA_cm2", "threshold_mV", "rates_Hz": {drive: Hz}, "flags": [...]} of the blocked cell.
 // Exit 0 with the forecast, 1 for input that cannot be read or is invalid, 2 for wrong usage.
 import { readCliInput } from './cli-input';
 import { computeForecast } from '../lib/science/forecast/forecast';
 import { forecastInputFileSchema } from '../lib/science/forecast/request-schema';
+import { PRESET_NAMES, conductanceNames, getPreset } from '../lib/science/neuron/presets';
+
+/** Every preset id with its blockable conductances, for the usage text. */
+const USAGE_DETAIL = [
+  'FILE.json: {"preset": ID, "block": {conductance: fraction 0–1}, "stepMs": ms, "drives_uA_cm2": [µA/cm², ...]}',
+  'presets (ID: blockable conductances):',
+  ...PRESET_NAMES.map((name) => `  ${name}: ${conductanceNames(getPreset(name)).blockable.join(', ')}`),
+].join('\n');
 
 function main(argv: readonly string[]): number {
-  const parsed = readCliInput('forecast', argv, forecastInputFileSchema);
+  const parsed = readCliInput('forecast', argv, forecastInputFileSchema, USAGE_DETAIL);
   if (!parsed.ok) return parsed.exitCode;
   const input = parsed.data;
   const drives = input.drives_uA_cm2 ?? [];

@@ -2,6 +2,7 @@ import type { CompoundForecast } from '@/lib/validation/forecasts';
 import { FiPlot } from './fi-plot';
 import { MeasuresTable } from './measures-table';
 import { PotencyTable } from './potency-table';
+import { TargetMapping } from './target-mapping';
 import { exposureColors, umText } from './series-colors';
 import { SweepPlot } from './sweep-plot';
 import { TracePlot } from './trace-plot';
@@ -63,6 +64,7 @@ export function ForecastDetail({
   const colors = exposureColors(data.exposures_uM.length);
   return (
     <div className="space-y-5">
+      <TargetMapping preset={data.preset} targets={data.targets} />
       <PotencyTable targets={data.targets} exposures_uM={data.exposures_uM} showPlate={showPlate} />
       {!f ? (
         <p className="gw-card border-dashed p-5 text-sm text-ink-700">{data.reason}</p>

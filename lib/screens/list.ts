@@ -3,6 +3,8 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import type { ScreenQcLimits } from '@/lib/domain/readouts';
 import { AppError } from '@/lib/errors';
+import { PRESET_NAMES } from '@/lib/science/neuron/presets';
+import { conductanceInPreset } from '@/lib/validation/screens';
 import { Screen, Target } from '@/models';
 
 export interface ScreenDetail extends Omit<ScreenQcLimits, 'normaliseToReference'> {
@@ -11,7 +13,13 @@ export interface ScreenDetail extends Omit<ScreenQcLimits, 'normaliseToReference
   description: string;
   neuronPreset: string;
   exposures_uM: number[];
-  targets: { id: string; name: string; conductance: string }[];
+  targets: {
+    id: string;
+    name: string;
+    conductance: string;
+    /** The target's conductance in every preset (stored, else the default for its name), null where none. */
+    byPreset: { preset: string; conductance: string | null }[];
+  }[];
 }
 
 /** Screens with their targets and QC thresholds, by name. */
@@ -55,6 +63,14 @@ function toDetail(screen: Screen): ScreenDetail {
     capacitanceMax_pF: plain.capacitanceMax_pF,
     vehicleRundownMax_fraction: plain.vehicleRundownMax_fraction,
     exposures_uM: plain.exposures_uM,
-    targets: plain.targets.map((t) => ({ id: t.id, name: t.name, conductance: t.conductance })),
+    targets: plain.targets.map((t) => ({
+      id: t.id,
+      name: t.name,
+      conductance: t.conductance,
+      byPreset: PRESET_NAMES.map((preset) => ({
+        preset,
+        conductance: preset === plain.neuronPreset ? t.conductance : conductanceInPreset(t, preset),
+      })),
+    })),
   };
 }

@@ -4,7 +4,15 @@ import { recordAudit } from '@/lib/audit/record';
 import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { blockableConductances, type ScreenInput, type TargetInput } from '@/lib/validation/screens';
+import {
+  blockableConductances,
+  conductanceByPresetSchema,
+  conductanceInPreset,
+  initialConductanceByPreset,
+  type ScreenInput,
+  type TargetInput,
+  type TargetMappingInput,
+} from '@/lib/validation/screens';
 import { Screen, Target } from '@/models';
 
 function columns(input: ScreenInput) {
@@ -51,19 +59,39 @@ export async function updateScreen(actor: Actor, screenId: string, input: Screen
   await db().transaction(async (transaction) => {
     const screen = await Screen.findByPk(screenId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!screen) throw new AppError('not_found', 'No such screen.');
-    const targets = await Target.findAll({ where: { screenId }, transaction });
-    const allowed = blockableConductances(input.neuronPreset);
-    const orphan = targets.find((t) => !allowed.includes(t.conductance));
+    const targets = await Target.findAll({ where: { screenId }, transaction, lock: transaction.LOCK.UPDATE });
+    // Each target's conductance in the (possibly new) preset: its stored mapping there, else the default
+    // for its name. A target with neither blocks the change, and nothing is written.
+    const next = targets.map((t) => ({ target: t, conductance: conductanceInPreset(t, input.neuronPreset) }));
+    const orphan = next.find((n) => n.conductance === null);
     if (orphan) {
-      throw new AppError(
-        'invalid',
-        `Target ${orphan.name} maps to ${orphan.conductance}, which ${input.neuronPreset} does not have.`,
-        {
-          fieldErrors: {
-            neuronPreset: [`${input.neuronPreset} has no ${orphan.conductance} for target ${orphan.name}.`],
+      const t = orphan.target;
+      const allowed = blockableConductances(input.neuronPreset);
+      const message = `Target ${t.name} (${t.conductance} in ${screen.neuronPreset}) has no conductance in ${input.neuronPreset}; it has ${allowed.join(', ')}.`;
+      throw new AppError('invalid', message, { fieldErrors: { neuronPreset: [message] } });
+    }
+    if (input.neuronPreset !== screen.neuronPreset) {
+      for (const { target, conductance } of next) {
+        const before = { conductance: target.conductance, conductanceByPreset: target.conductanceByPreset };
+        const conductanceByPreset = conductanceByPresetSchema.parse({
+          ...target.conductanceByPreset,
+          [screen.neuronPreset]: target.conductance,
+          [input.neuronPreset]: conductance!,
+        });
+        await target.update({ conductance: conductance!, conductanceByPreset }, { transaction });
+        await recordAudit(
+          {
+            actorId: actor.id,
+            action: 'update',
+            entityType: 'target',
+            entityId: target.id,
+            before,
+            after: { conductance: target.conductance, conductanceByPreset },
+            address: actor.address,
           },
-        },
-      );
+          transaction,
+        );
+      }
     }
     const before = plainScreen(screen);
     await screen
@@ -95,8 +123,13 @@ export async function addTarget(actor: Actor, screenId: string, input: TargetInp
       const message = `${screen.neuronPreset} has no blockable conductance ${input.conductance}; choose one of ${allowed.join(', ')}.`;
       throw new AppError('invalid', message, { fieldErrors: { conductance: [message] } });
     }
-    const target = await Target.create({ ...input, screenId }, { transaction }).catch((e) =>
-      conflict(e, `This screen already has a target named ${input.name}.`, 'name'),
+    const conductanceByPreset = initialConductanceByPreset(
+      input.name,
+      screen.neuronPreset,
+      input.conductance,
+    );
+    const target = await Target.create({ ...input, conductanceByPreset, screenId }, { transaction }).catch(
+      (e) => conflict(e, `This screen already has a target named ${input.name}.`, 'name'),
     );
     await recordAudit(
       {
@@ -104,11 +137,57 @@ export async function addTarget(actor: Actor, screenId: string, input: TargetInp
         action: 'create',
         entityType: 'target',
         entityId: target.id,
-        after: { screenId, ...input },
+        after: { screenId, ...input, conductanceByPreset },
         address: actor.address,
       },
       transaction,
     );
     return { id: target.id };
+  });
+}
+
+/**
+ * Sets a target's conductance in a preset other than its screen's current one (admin), used if the
+ * screen later switches to that preset. The current preset's mapping is the one fits and forecasts
+ * read; it is chosen when the target is added and is not changed here.
+ */
+export async function setTargetMapping(
+  actor: Actor,
+  targetId: string,
+  input: TargetMappingInput,
+): Promise<void> {
+  requireCapability(actor, 'manageScreens');
+  await db().transaction(async (transaction) => {
+    const target = await Target.findByPk(targetId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!target) throw new AppError('not_found', 'No such target.');
+    const screen = await Screen.findByPk(target.screenId, { transaction });
+    if (!screen) throw new AppError('not_found', 'No such screen.');
+    if (input.preset === screen.neuronPreset) {
+      const message = `${input.preset} is the screen’s current preset; its mapping is fixed when the target is added.`;
+      throw new AppError('invalid', message, { fieldErrors: { preset: [message] } });
+    }
+    const allowed = blockableConductances(input.preset);
+    if (!allowed.includes(input.conductance)) {
+      const message = `${input.preset} has no blockable conductance ${input.conductance}; choose one of ${allowed.join(', ')}.`;
+      throw new AppError('invalid', message, { fieldErrors: { conductance: [message] } });
+    }
+    const before = { conductanceByPreset: target.conductanceByPreset };
+    const conductanceByPreset = conductanceByPresetSchema.parse({
+      ...target.conductanceByPreset,
+      [input.preset]: input.conductance,
+    });
+    await target.update({ conductanceByPreset }, { transaction });
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'update',
+        entityType: 'target',
+        entityId: target.id,
+        before,
+        after: { conductanceByPreset },
+        address: actor.address,
+      },
+      transaction,
+    );
   });
 }

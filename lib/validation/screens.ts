@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { PRESET_NAMES, conductanceNames, getPreset } from '@/lib/science/neuron/presets';
+import { PRESET_NAMES, conductanceNames, getPreset, isPresetName } from '@/lib/science/neuron/presets';
+import { defaultConductance } from '@/lib/science/neuron/presets/target-conductance';
 
 const number = (message: string) => z.coerce.number({ error: message }).refine(Number.isFinite, message);
 
@@ -55,7 +56,64 @@ export const targetSchema = z.object({
 
 export type TargetInput = z.infer<typeof targetSchema>;
 
+/** A target's conductance in one preset other than its screen's current one, as an admin sets it. */
+export const targetMappingSchema = z.object({
+  preset: z.enum(PRESET_NAMES, { error: `Choose a preset: ${PRESET_NAMES.join(', ')}.` }),
+  conductance: z.string().trim().min(1, 'Choose the model conductance.'),
+});
+
+export type TargetMappingInput = z.infer<typeof targetMappingSchema>;
+
 /** The conductances of a preset that a target may map to. */
 export function blockableConductances(presetName: string): string[] {
   return conductanceNames(getPreset(presetName)).blockable;
+}
+
+/**
+ * A target's conductance per preset (preset name → conductance), as stored in
+ * targets.conductance_by_preset: every key a known preset, every value a blockable conductance of it.
+ */
+export const conductanceByPresetSchema = z
+  .record(z.string(), z.string(), { error: 'The mapping must be an object of preset → conductance.' })
+  .superRefine((mapping, ctx) => {
+    for (const [preset, conductance] of Object.entries(mapping)) {
+      if (!isPresetName(preset)) {
+        ctx.addIssue({ code: 'custom', path: [preset], message: `Unknown preset ${preset}.` });
+      } else if (!blockableConductances(preset).includes(conductance)) {
+        ctx.addIssue({
+          code: 'custom',
+          path: [preset],
+          message: `${preset} has no blockable conductance ${conductance}; choose one of ${blockableConductances(preset).join(', ')}.`,
+        });
+      }
+    }
+  });
+
+export type ConductanceByPreset = z.infer<typeof conductanceByPresetSchema>;
+
+/**
+ * A target's conductance in `presetName`: the one stored for that preset if it is still blockable there,
+ * else Gatewell's default for the target's name (lib/science/neuron/presets/target-conductance.ts), else null.
+ */
+export function conductanceInPreset(
+  target: { name: string; conductanceByPreset: Record<string, string> },
+  presetName: string,
+): string | null {
+  const stored = target.conductanceByPreset[presetName];
+  if (stored !== undefined && blockableConductances(presetName).includes(stored)) return stored;
+  return defaultConductance(target.name, getPreset(presetName));
+}
+
+/** A new target's mapping in every preset: the chosen conductance in the screen's preset, defaults elsewhere. */
+export function initialConductanceByPreset(
+  targetName: string,
+  screenPreset: string,
+  conductance: string,
+): ConductanceByPreset {
+  const mapping: ConductanceByPreset = {};
+  for (const preset of PRESET_NAMES) {
+    const c = preset === screenPreset ? conductance : defaultConductance(targetName, getPreset(preset));
+    if (c) mapping[preset] = c;
+  }
+  return conductanceByPresetSchema.parse(mapping);
 }

@@ -41,6 +41,11 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
   await expect(page.getByRole('heading', { name: 'GW-0001 on NAV-P01' })).toBeVisible();
   await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 30_000 });
   await expect(traces(page)).toContainText('GW-0001 at 1 µM');
+  // Each target beside the model conductance it blocks, in the screen's preset (seed-demo: Nav1.7 → gNa,
+  // on the Pospischil et al. 2008 regular-spiking cell).
+  const mapping = page.getByRole('region', { name: 'Targets in the model' });
+  await expect(mapping).toContainText('Nav1.7 → gNa');
+  await expect(mapping).toContainText('Cortical regular-spiking neuron (Pospischil et al. 2008)');
   await expect(page.getByRole('figure').filter({ hasText: 'f–I curves' })).toBeVisible();
   await expect(page.getByRole('figure').filter({ hasText: 'Rheobase against concentration' })).toBeVisible();
   const excitability = page.getByRole('table', { name: 'Excitability beside control at each exposure' });

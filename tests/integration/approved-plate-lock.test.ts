@@ -84,6 +84,8 @@ const MODULE_EXPORTS: Record<string, [Record<string, unknown>, Record<string, st
       createScreen: 'writes a new screen, with no plates',
       updateScreen: 'write: the QC settings and exposures plates are analysed with',
       addTarget: 'writes a target of the screen; an imported plate keeps its targets',
+      setTargetMapping:
+        'writes a target’s conductance in a preset the screen does not use; fits and forecasts read the current one',
     },
   ],
   'lib/signoff/service.ts': [signoff, { signPlateStep: 'write: a sign-off step' }],
@@ -118,6 +120,7 @@ const CHANGING_ENTRY_POINTS: Record<string, string> = {
   'app/(app)/screens/actions.ts createScreenAction': 'createScreen',
   'app/(app)/screens/actions.ts updateScreenAction': 'updateScreen',
   'app/(app)/screens/actions.ts addTargetAction': 'addTarget',
+  'app/(app)/screens/actions.ts setTargetMappingAction': 'setTargetMapping',
   'app/(app)/admin/users/actions.ts': 'users, no plate data',
   'app/(app)/admin/outbox/actions.ts': 'mail, no plate data',
   'app/(app)/account/actions.ts': 'own account, no plate data',

@@ -1,7 +1,8 @@
 import { afterAll, beforeEach, describe, expect, test } from 'vitest';
 import { db } from '@/lib/db';
 import { getScreen } from '@/lib/screens/list';
-import { addTarget, createScreen, updateScreen } from '@/lib/screens/service';
+import { addTarget, createScreen, setTargetMapping, updateScreen } from '@/lib/screens/service';
+import { PRESET_NAMES } from '@/lib/science/neuron/presets';
 import { screenSchema } from '@/lib/validation/screens';
 import { AuditEvent, Target } from '@/models';
 import { makeActor } from '../support/actors';
@@ -63,6 +64,91 @@ describe('screens and targets on the real database', () => {
     expect((await getScreen(admin, id)).neuronPreset).toBe('pospischil-rs-2008');
   });
 
+  test('each target keeps a conductance per preset: switching presets maps it, and switching back restores it', async () => {
+    const admin = await makeActor(['admin']);
+    const { id } = await createScreen(admin, screenSchema.parse({ ...form, neuronPreset: 'hh-squid-1952' }));
+    // Mapped by hand in HH to gK although its name says sodium: the hand mapping wins in HH only.
+    await addTarget(admin, id, { name: 'hNav1.5 late', conductance: 'gK', description: '' });
+    await addTarget(admin, id, { name: 'Kv2.1', conductance: 'gK', description: '' });
+    const created = await Target.findOne({ where: { name: 'hNav1.5 late' } });
+    // Stored at creation: the chosen conductance in HH, the defaults for its name in the other presets.
+    expect(created!.conductanceByPreset).toEqual({
+      'hh-squid-1952': 'gK',
+      'pospischil-rs-2008': 'gNa',
+      'wang-buzsaki-1996': 'gNa',
+    });
+    const audits = await AuditEvent.count({ where: { entityType: 'target' } });
+
+    await updateScreen(admin, id, screenSchema.parse({ ...form, neuronPreset: 'wang-buzsaki-1996' }));
+    let screen = await getScreen(admin, id);
+    expect(screen.neuronPreset).toBe('wang-buzsaki-1996');
+    expect(Object.fromEntries(screen.targets.map((t) => [t.name, t.conductance]))).toEqual({
+      'hNav1.5 late': 'gNa',
+      'Kv2.1': 'gK',
+    });
+    // Every remapped target is audited (two targets).
+    expect(await AuditEvent.count({ where: { entityType: 'target' } })).toBe(audits + 2);
+
+    await updateScreen(admin, id, screenSchema.parse({ ...form, neuronPreset: 'hh-squid-1952' }));
+    screen = await getScreen(admin, id);
+    expect(screen.targets.find((t) => t.name === 'hNav1.5 late')!.conductance).toBe('gK');
+    expect(screen.targets.find((t) => t.name === 'hNav1.5 late')!.byPreset).toEqual([
+      { preset: 'hh-squid-1952', conductance: 'gK' },
+      { preset: 'pospischil-rs-2008', conductance: 'gNa' },
+      { preset: 'wang-buzsaki-1996', conductance: 'gNa' },
+    ]);
+  });
+
+  test('a refused preset change names the unmapped target and writes nothing', async () => {
+    const admin = await makeActor(['admin']);
+    const { id } = await createScreen(admin, screenSchema.parse(form));
+    await addTarget(admin, id, { name: 'Nav1.7', conductance: 'gNa', description: '' });
+    await addTarget(admin, id, { name: 'Kv7.2/7.3', conductance: 'gM', description: '' });
+    const audits = await AuditEvent.count();
+    await expect(
+      updateScreen(admin, id, screenSchema.parse({ ...form, neuronPreset: 'wang-buzsaki-1996' })),
+    ).rejects.toMatchObject({
+      code: 'invalid',
+      message:
+        'Target Kv7.2/7.3 (gM in pospischil-rs-2008) has no conductance in wang-buzsaki-1996; it has gNa, gK.',
+    });
+    const screen = await getScreen(admin, id);
+    expect(screen.neuronPreset).toBe('pospischil-rs-2008');
+    expect(screen.targets.map((t) => t.conductance).sort()).toEqual(['gM', 'gNa']);
+    expect(await AuditEvent.count()).toBe(audits);
+  });
+
+  test('an admin sets a target’s mapping in another preset; the switch then uses it', async () => {
+    const admin = await makeActor(['admin']);
+    const { id } = await createScreen(admin, screenSchema.parse(form));
+    const { id: targetId } = await addTarget(admin, id, {
+      name: 'Kv7.2/7.3',
+      conductance: 'gM',
+      description: '',
+    });
+    // Bad input names its field and writes nothing: the leak, the screen's current preset.
+    await expect(
+      setTargetMapping(admin, targetId, { preset: 'wang-buzsaki-1996', conductance: 'gL' }),
+    ).rejects.toMatchObject({
+      code: 'invalid',
+      message: 'wang-buzsaki-1996 has no blockable conductance gL; choose one of gNa, gK.',
+    });
+    await expect(
+      setTargetMapping(admin, targetId, { preset: 'pospischil-rs-2008', conductance: 'gK' }),
+    ).rejects.toMatchObject({ code: 'invalid' });
+    expect((await Target.findByPk(targetId))!.conductanceByPreset).toEqual({ 'pospischil-rs-2008': 'gM' });
+    await expect(
+      setTargetMapping(await makeActor(['biologist']), targetId, {
+        preset: 'wang-buzsaki-1996',
+        conductance: 'gK',
+      }),
+    ).rejects.toMatchObject({ code: 'forbidden' });
+
+    await setTargetMapping(admin, targetId, { preset: 'wang-buzsaki-1996', conductance: 'gK' });
+    await updateScreen(admin, id, screenSchema.parse({ ...form, neuronPreset: 'wang-buzsaki-1996' }));
+    expect((await getScreen(admin, id)).targets[0]!.conductance).toBe('gK');
+  });
+
   test('only an admin manages screens', async () => {
     const biologist = await makeActor(['biologist']);
     await expect(createScreen(biologist, screenSchema.parse(form))).rejects.toMatchObject({
@@ -71,7 +157,7 @@ describe('screens and targets on the real database', () => {
   });
 
   test.each([
-    [{ neuronPreset: 'frog' }, 'neuronPreset', 'Choose a preset: hh-squid-1952, pospischil-rs-2008.'],
+    [{ neuronPreset: 'frog' }, 'neuronPreset', `Choose a preset: ${PRESET_NAMES.join(', ')}.`],
     [{ capacitanceMax_pF: '0.5' }, 'capacitanceMax_pF', 'Must be above the minimum capacitance.'],
     [{ exposures_uM: '1, -2' }, 'exposures_uM', 'Exposures must be above 0 µM.'],
     [{ zPrimeMin: 'high' }, 'zPrimeMin', 'Enter Z′ as a number.'],

@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import numerical from '../fixtures/check-values/hodgkin-huxley-1952-numerical.json';
 import { afterAll, describe, expect, test } from 'vitest';
+import { PRESET_NAMES, conductanceNames, getPreset } from '@/lib/science/neuron/presets';
 
 const root = resolve(__dirname, '../..');
 const tsx = join(root, 'node_modules', '.bin', 'tsx');
@@ -62,7 +63,7 @@ describe('forecast CLI', () => {
     [
       'unknown preset',
       '{"preset":"frog-heart"}',
-      ['preset: preset must be one of: hh-squid-1952, pospischil-rs-2008'],
+      [`preset: preset must be one of: ${PRESET_NAMES.join(', ')}`],
     ],
     [
       'unknown or unblockable conductance',
@@ -118,5 +119,21 @@ describe('forecast CLI', () => {
     const { code, stderr } = run('{}', []);
     expect(code).toBe(2);
     expect(stderr).toContain('usage: npx tsx scripts/forecast.ts FILE.json');
+    // The usage text lists every preset id with its blockable conductances.
+    for (const name of PRESET_NAMES) {
+      expect(stderr).toContain(`  ${name}: ${conductanceNames(getPreset(name)).blockable.join(', ')}`);
+    }
+    expect(stderr).toContain('wang-buzsaki-1996: gNa, gK');
+  });
+
+  // Every preset id runs through the CLI: a control with a rest, a rheobase and a rate at 10 µA/cm².
+  test.each(PRESET_NAMES)('preset %s runs', (preset) => {
+    const { code, stdout, stderr } = run(JSON.stringify({ preset, block: {}, drives_uA_cm2: [10] }));
+    expect(stderr).toBe('');
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    expect(out.rest_mV).toBeLessThan(-50);
+    expect(out.rheobase_uA_cm2).toBeGreaterThan(0);
+    expect(out.rates_Hz['10']).toBeGreaterThan(0);
   });
 });

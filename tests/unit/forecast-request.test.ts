@@ -17,7 +17,14 @@ function problems(input: unknown): string {
 
 describe('forecastRequestSchema', () => {
   test.each([
-    [{ preset: 'squid' }, 'preset: preset must be one of: hh-squid-1952, pospischil-rs-2008'],
+    [
+      { preset: 'squid' },
+      'preset: preset must be one of: hh-squid-1952, pospischil-rs-2008, wang-buzsaki-1996',
+    ],
+    [
+      { preset: 'wang-buzsaki-1996', block: { gM: 0.5 } },
+      'block.gM: unknown conductance "gM" for preset wang-buzsaki-1996 (blockable: gNa, gK)',
+    ],
     [
       { preset: 'hh-squid-1952', block: { gCa: 0.5 } },
       'block.gCa: unknown conductance "gCa" for preset hh-squid-1952 (blockable: gNa, gK)',

@@ -16,6 +16,7 @@ const relative = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 describe.each([
   ['hh-squid-1952', [10, 20]],
   ['pospischil-rs-2008', [4, 10]],
+  ['wang-buzsaki-1996', [2, 10]],
 ] as const)('%s: halving dt from the default', (preset, drives) => {
   const model = compileModel(getPreset(preset));
   const start = findRest(model).start;

@@ -5,9 +5,9 @@ import { redirect } from 'next/navigation';
 import { z } from 'zod';
 import { validatedAction } from '@/lib/actions/validated-action';
 import { rolesFor } from '@/lib/domain/roles';
-import { addTarget, createScreen, updateScreen } from '@/lib/screens/service';
+import { addTarget, createScreen, setTargetMapping, updateScreen } from '@/lib/screens/service';
 import { parseId } from '@/lib/validation/ids';
-import { screenSchema, targetSchema } from '@/lib/validation/screens';
+import { screenSchema, targetMappingSchema, targetSchema } from '@/lib/validation/screens';
 
 /** Creates a screen and opens it to add targets. */
 export const createScreenAction = validatedAction(
@@ -41,5 +41,17 @@ export const addTargetAction = validatedAction(
     await addTarget(actor, parseId(screenId, 'screen'), fields);
     revalidatePath(`/screens/${screenId}`);
     return { ok: true, message: `Target ${fields.name} added.` };
+  },
+);
+
+/** Sets a target's conductance in another preset than the screen's current one. */
+export const setTargetMappingAction = validatedAction(
+  targetMappingSchema.extend({ screenId: z.string(), targetId: z.string() }),
+  rolesFor('manageScreens'),
+  async (input, actor) => {
+    const { screenId, targetId, ...fields } = input;
+    await setTargetMapping(actor, parseId(targetId, 'target'), fields);
+    revalidatePath(`/screens/${screenId}`);
+    return { ok: true, message: `Mapping in ${fields.preset} saved.` };
   },
 );

@@ -16,6 +16,7 @@ type StepFactory = (
   erev: Float64Array,
   dtOverC: number,
   exactGates: (gates: Float64Array, v: number) => void,
+  instantGates: (gates: Float64Array, v: number) => void,
 ) => MembraneStep;
 
 const factories = new Map<string, StepFactory>();
@@ -29,7 +30,8 @@ const factories = new Map<string, StepFactory>();
 function stepFactory(model: CompiledModel): StepFactory {
   const nGates = model.gates.length;
   const stride = nGates * 2;
-  const layout = `${nGates}|${Array.from(model.termStart).join(',')}|${Array.from(model.termGate).join(',')}|${Array.from(model.termPower).join(',')}`;
+  const instantLayout = model.gates.map((g) => (g.kinetics.kind === 'instantaneous' ? 1 : 0)).join('');
+  const layout = `${nGates}|${instantLayout}|${Array.from(model.termStart).join(',')}|${Array.from(model.termGate).join(',')}|${Array.from(model.termPower).join(',')}`;
   const hit = factories.get(layout);
   if (hit) return hit;
   const lines: string[] = [];
@@ -44,20 +46,40 @@ function stepFactory(model: CompiledModel): StepFactory {
     );
   }
   lines.push('  } else exactGates(x, v);');
-  for (let j = 0; j < nGates; j++) lines.push(`  const x${j} = x[${j}];`);
+  const instant = model.gates.flatMap((g, j) => (g.kinetics.kind === 'instantaneous' ? [j] : []));
+  const declare = instant.length > 0 ? 'let' : 'const';
+  for (let j = 0; j < nGates; j++) lines.push(`  ${declare} x${j} = x[${j}];`);
   const weights: string[] = [];
+  const sums: string[] = [];
   for (let k = 0; k < model.g_mS_cm2.length; k++) {
     const factors = [`gMax[${k}]`];
     for (let t = model.termStart[k]!; t < model.termStart[k + 1]!; t++) {
       const gate = Number(model.termGate[t]);
       for (let p = 0; p < Number(model.termPower[t]); p++) factors.push(`x${gate}`);
     }
-    lines.push(`  const w${k} = ${factors.join(' * ')};`);
+    sums.push(`w${k} = ${factors.join(' * ')};`);
     weights.push(`w${k}`);
   }
-  lines.push(`  const g = ${weights.join(' + ')};`);
-  lines.push(`  const gE = ${weights.map((w, k) => `${w} * erev[${k}]`).join(' + ')};`);
-  lines.push('  const vInf = (I + gE) / g;');
+  sums.push(`g = ${weights.join(' + ')};`);
+  sums.push(`gE = ${weights.map((w, k) => `${w} * erev[${k}]`).join(' + ')};`);
+  sums.push('vInf = (I + gE) / g;');
+  lines.push(`  let ${[...weights, 'g', 'gE', 'vInf'].join(', ')};`);
+  for (const line of sums) lines.push(`  ${line}`);
+  if (instant.length > 0) {
+    // Instantaneous gates (x = x∞(V)) are taken at V(t) above; the corrector takes them at the midpoint
+    // of the predicted step and repeats the V step, which keeps the scheme second order.
+    lines.push('  const vm = 0.5 * (v + vInf + (v - vInf) * Math.exp(-dtOverC * g));');
+    lines.push('  const um = (vm - vMin) * inv;');
+    lines.push('  if (um >= 0 && um < intervals) {');
+    lines.push(`    const i = um | 0; const f = um - i; const b = i * ${stride};`);
+    for (const j of instant) {
+      const a = 2 * j;
+      lines.push(`    { const p = b + ${a + 1}; x[${j}] = coef[p] + f * (coef[p + ${stride}] - coef[p]); }`);
+    }
+    lines.push('  } else instantGates(x, vm);');
+    for (const j of instant) lines.push(`  x${j} = x[${j}];`);
+    for (const line of sums) lines.push(`  ${line}`);
+  }
   lines.push('  return vInf + (v - vInf) * Math.exp(-dtOverC * g);');
   lines.push('};');
   const factory = new Function(
@@ -69,6 +91,7 @@ function stepFactory(model: CompiledModel): StepFactory {
     'erev',
     'dtOverC',
     'exactGates',
+    'instantGates',
     lines.join('\n'),
   ) as StepFactory;
   factories.set(layout, factory);
@@ -90,6 +113,13 @@ export function membraneStep(
       x[j] = inf + (x[j]! - inf) * Math.exp(-dt_ms / infTau[1]!);
     }
   };
+  const instantGates = (x: Float64Array, v: number) => {
+    for (let j = 0; j < x.length; j++) {
+      if (model.gates[j]!.kinetics.kind !== 'instantaneous') continue;
+      gateInfTau(model.gates[j]!, v, infTau);
+      x[j] = infTau[0]!;
+    }
+  };
   return stepFactory(model)(
     table?.coefficients ?? new Float64Array(0),
     table?.vMin_mV ?? 0,
@@ -99,5 +129,6 @@ export function membraneStep(
     model.reversal_mV,
     dt_ms / model.capacitance_uF_cm2,
     exactGates,
+    instantGates,
   );
 }

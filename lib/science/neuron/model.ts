@@ -40,7 +40,9 @@ export function compileModel(
   preset.conductances.forEach((c, k) => {
     termStart[k] = termGate.length;
     const q10 = c.q10 ?? 1;
-    const phi = q10 ** ((preset.temperature_C - (c.referenceTemperature_C ?? preset.temperature_C)) / 10);
+    const phi =
+      (c.rateFactor ?? 1) *
+      q10 ** ((preset.temperature_C - (c.referenceTemperature_C ?? preset.temperature_C)) / 10);
     for (const gate of c.gates) {
       if (!Number.isInteger(gate.power) || gate.power < 1)
         throw new Error(`gate ${c.name}.${gate.name}: power must be a positive integer`);
@@ -60,14 +62,21 @@ export function compileModel(
     termStart,
     termGate: Int32Array.from(termGate),
     termPower: Int32Array.from(termPower),
-    kineticsKey: `${preset.name}@${preset.temperature_C}:${JSON.stringify(preset.conductances.map((c) => [c.q10, c.referenceTemperature_C, c.gates]))}`,
+    kineticsKey: `${preset.name}@${preset.temperature_C}:${JSON.stringify(preset.conductances.map((c) => [c.q10, c.referenceTemperature_C, c.rateFactor, c.gates]))}`,
   };
 }
 
-/** Steady state x∞ and time constant τ (ms) of a gate at V, written into out[0], out[1]. */
+/**
+ * Steady state x∞ and time constant τ (ms) of a gate at V, written into out[0], out[1]. An
+ * instantaneous gate has τ = 0: the exact update exp(−dt/τ) = 0 sets it to x∞(V).
+ */
 export function gateInfTau(gate: CompiledModel['gates'][number], v_mV: number, out: Float64Array): void {
   const k = gate.kinetics;
-  if (k.kind === 'alpha-beta') {
+  if (k.kind === 'instantaneous') {
+    const a = evaluateRate(k.alpha, v_mV);
+    out[0] = a / (a + evaluateRate(k.beta, v_mV));
+    out[1] = 0;
+  } else if (k.kind === 'alpha-beta') {
     const a = evaluateRate(k.alpha, v_mV);
     const b = evaluateRate(k.beta, v_mV);
     out[0] = a / (a + b);

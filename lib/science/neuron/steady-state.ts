@@ -63,7 +63,7 @@ export function isStable(model: CompiledModel, v_mV: number): boolean {
   const nGates = model.gates.length;
   const c = model.capacitance_uF_cm2;
   const { g } = conductanceSums(model, x);
-  const a = -g / c;
+  let a = -g / c;
   const b = new Float64Array(nGates);
   for (let k = 0; k < model.g_mS_cm2.length; k++) {
     const drive = v_mV - model.reversal_mV[k]!;
@@ -79,21 +79,28 @@ export function isStable(model: CompiledModel, v_mV: number): boolean {
   const rate = new Float64Array(nGates);
   const cj = new Float64Array(nGates);
   const h = 1e-4;
+  // Instantaneous gates (τ = 0) are functions of V: they fold into a as b_j · x∞_j′(V), not into the product.
+  const slow: number[] = [];
   model.gates.forEach((gate, j) => {
     gateInfTau(gate, v_mV + h, out);
     const up = out[0]!;
     gateInfTau(gate, v_mV - h, out);
     const down = out[0]!;
     gateInfTau(gate, v_mV, out);
+    if (out[1]! === 0) {
+      a += b[j]! * ((up - down) / (2 * h));
+      return;
+    }
+    slow.push(j);
     rate[j] = 1 / out[1]!;
     cj[j] = ((up - down) / (2 * h)) * rate[j]!;
   });
   // Coefficients in ascending powers of λ.
   let poly = [-a, 1];
-  for (let j = 0; j < nGates; j++) poly = multiplyLinear(poly, rate[j]!);
-  for (let j = 0; j < nGates; j++) {
+  for (const j of slow) poly = multiplyLinear(poly, rate[j]!);
+  for (const j of slow) {
     let term = [1];
-    for (let i = 0; i < nGates; i++) if (i !== j) term = multiplyLinear(term, rate[i]!);
+    for (const i of slow) if (i !== j) term = multiplyLinear(term, rate[i]!);
     const bc = b[j]! * cj[j]!;
     term.forEach((coef, p) => (poly[p] = (poly[p] ?? 0) - bc * coef));
   }

@@ -14,7 +14,17 @@ export interface InfTauKinetics {
   tau: TauForm;
 }
 
-export type GateKinetics = AlphaBetaKinetics | InfTauKinetics;
+/**
+ * A gate taken at its steady state at every instant, x = α(V)/(α(V) + β(V)) (Wang & Buzsáki 1996's
+ * sodium activation m∞). It has no time constant; the integrator sets it from V at each step.
+ */
+export interface InstantaneousKinetics {
+  kind: 'instantaneous';
+  alpha: RateForm;
+  beta: RateForm;
+}
+
+export type GateKinetics = AlphaBetaKinetics | InfTauKinetics | InstantaneousKinetics;
 
 /** One gating variable of a conductance, raised to `power` (m³ → power 3). */
 export interface GateSpec {
@@ -36,6 +46,8 @@ export interface ConductanceSpec {
   /** Temperature scaling of every rate (α, β multiplied, τ divided) by q10^((T − reference)/10). */
   q10?: number;
   referenceTemperature_C?: number;
+  /** A fixed factor on every rate of its gates besides q10 (Wang & Buzsáki 1996's φ = 5). @default 1 */
+  rateFactor?: number;
 }
 
 /** A published single-compartment model, as data. */

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { ScreenForm } from '@/components/screens/screen-form';
 import { TargetForm } from '@/components/screens/target-form';
+import { TargetMappingForm } from '@/components/screens/target-mapping-form';
 import { DataTable } from '@/components/ui/data-table';
 import { PageHeader } from '@/components/ui/page-header';
 import { requireActor } from '@/lib/auth/current-actor';
@@ -10,7 +11,8 @@ import { isAppError } from '@/lib/errors';
 import { getScreen } from '@/lib/screens/list';
 import { parseId } from '@/lib/validation/ids';
 import { blockableConductances } from '@/lib/validation/screens';
-import { addTargetAction, updateScreenAction } from '../actions';
+import { PRESET_NAMES } from '@/lib/science/neuron/presets';
+import { addTargetAction, setTargetMappingAction, updateScreenAction } from '../actions';
 import { PRESET_OPTIONS } from '../presets';
 
 export const metadata: Metadata = { title: 'Screen' };
@@ -37,8 +39,19 @@ export default async function ScreenPage({ params }: { params: Promise<{ screenI
             columns={[
               { header: 'Target', cell: (t) => t.name },
               {
-                header: 'Model conductance',
+                header: `Model conductance (${screen.neuronPreset})`,
                 cell: (t) => <span className="font-mono">{t.conductance}</span>,
+              },
+              {
+                header: 'In the other presets',
+                cell: (t) => (
+                  <span className="text-xs text-ink-700">
+                    {t.byPreset
+                      .filter((m) => m.preset !== screen.neuronPreset)
+                      .map((m) => `${m.preset} → ${m.conductance ?? 'none'}`)
+                      .join(' · ')}
+                  </span>
+                ),
               },
             ]}
           />
@@ -53,6 +66,24 @@ export default async function ScreenPage({ params }: { params: Promise<{ screenI
               action={addTargetAction}
               screenId={screen.id}
               conductances={blockableConductances(screen.neuronPreset)}
+            />
+          </div>
+        ) : null}
+        {isAdmin && screen.targets.length ? (
+          <div className="gw-card p-5">
+            <h3 className="mb-2 text-sm font-semibold">Mapping in the other presets</h3>
+            <p className="mb-3 text-xs text-ink-700">
+              Used if the screen switches to that preset. Without one, a target takes the default for its name
+              (sodium channels → gNa, Kv7 → gM, Kv1–Kv3 → gK); a target with neither blocks the switch.
+            </p>
+            <TargetMappingForm
+              action={setTargetMappingAction}
+              screenId={screen.id}
+              targets={screen.targets.map((t) => ({ id: t.id, name: t.name }))}
+              presets={PRESET_NAMES.filter((p) => p !== screen.neuronPreset).map((p) => ({
+                name: p,
+                conductances: blockableConductances(p),
+              }))}
             />
           </div>
         ) : null}
