@@ -19,6 +19,7 @@ const USAGE = `usage: node --conditions=react-server --import tsx scripts/scale-
   --batch N             plates written per transaction (default 250)
   --forecasts N         forecasts computed by the forecast service on approved plates (default 40)
   --hash-concurrency N  connections working out signed content hashes side by side (default 4)
+  --writers N           connections writing batches of plates side by side (default 2)
   --tag T               letters and digits that tell this fill's names and ids apart (default from the clock)
   --probes FILE         writes the ids the load test reads (default .var/scale/probes.json)`;
 
@@ -30,6 +31,7 @@ const schema = z.object({
   batch: z.coerce.number().int().min(1).max(5000).default(250),
   forecasts: z.coerce.number().int().min(0).max(10_000).default(40),
   hashConcurrency: z.coerce.number().int().min(1).max(8).default(4),
+  writers: z.coerce.number().int().min(1).max(8).default(2),
   tag: z
     .string()
     .regex(/^[a-z0-9]{1,8}$/, 'use 1–8 lower-case letters or digits')
@@ -47,6 +49,7 @@ async function main(): Promise<number> {
       batch: { type: 'string' },
       forecasts: { type: 'string' },
       'hash-concurrency': { type: 'string' },
+      writers: { type: 'string' },
       tag: { type: 'string' },
       probes: { type: 'string' },
       help: { type: 'boolean' },

@@ -66,6 +66,9 @@ else
   # shellcheck disable=SC2086
   env -u DATABASE_OWNER_URL node --conditions=react-server --import tsx scripts/scale-fill.ts --probes "$probes" ${GATEWELL_SCALE_FILL_ARGS:-} | tee .var/scale/fill.log
 fi
+# A database a year old has been vacuumed and analysed by autovacuum; the owner does it now (the app's role may not).
+say "vacuum and analyse as the owner"
+/usr/lib/postgresql/15/bin/psql "$DATABASE_OWNER_URL" -qc 'vacuum (analyze)'
 unset DATABASE_OWNER_URL
 
 if [ -n "${GATEWELL_LOAD_REUSE_BUILD:-}" ] && [ -f "$GATEWELL_DIST_DIR/BUILD_ID" ]; then

@@ -25,6 +25,8 @@ export interface FillOptions {
   forecasts: number;
   /** Connections working out content hashes side by side. */
   hashConcurrency: number;
+  /** Connections writing batches of plates side by side. */
+  writers: number;
   /** Tells every id and name of this fill apart from an earlier one in the same database. */
   tag: string;
   /** Sign-off paths in turn (plate n takes path n mod length) instead of the year's mix; for tests. */
@@ -156,15 +158,15 @@ async function workTables(
   who: Awaited<ReturnType<typeof people>>,
 ) {
   for (const statement of `
-    create temp table fill_template_wells (template int, position text, row_index smallint, column_index smallint, role text,
+    create unlogged table fill_template_wells (template int, position text, row_index smallint, column_index smallint, role text,
       slot int, concentration_um double precision, seal_resistance_gohm double precision, series_resistance_mohm double precision, capacitance_pf double precision);
-    create temp table fill_template_readouts (template int, position text, target_slot int, control_current_pa double precision,
+    create unlogged table fill_template_readouts (template int, position text, target_slot int, control_current_pa double precision,
       compound_current_pa double precision, fractional_block double precision, qc_reasons jsonb);
-    create temp table fill_template_fits (template int, slot int, target_slot int, model text, status text, message text, ic50_um double precision,
+    create unlogged table fill_template_fits (template int, slot int, target_slot int, model text, status text, message text, ic50_um double precision,
       ic50_ci_low_um double precision, ic50_ci_high_um double precision, ic50_lower_bound_um double precision, log10_ic50_se double precision,
       hill double precision, top double precision, bottom double precision, r2 double precision, residual_sd double precision, n int, flags jsonb, estimate jsonb);
-    create temp table fill_template_summary (template int, summary text);
-    create temp table fill_hashes (plate_id uuid primary key, sha char(64))`.split(';'))
+    create unlogged table fill_template_summary (template int, summary text);
+    create unlogged table fill_hashes (plate_id uuid primary key, sha char(64))`.split(';'))
     await client.query(statement);
   for (const [t, template] of templates.entries()) {
     await client.query(
@@ -192,19 +194,19 @@ async function workTables(
   }
   // Targets of each screen by slot (their creation order).
   await client.query(
-    `create temp table fill_targets as
+    `create unlogged table fill_targets as
        select s.idx - 1 as screen_idx, (row_number() over (partition by t.screen_id order by t.created_at, t.name) - 1)::int as slot, t.id
          from unnest($1::uuid[]) with ordinality as s(id, idx) join targets t on t.screen_id = s.id`,
     [screenIds],
   );
   await client.query(
-    `create temp table fill_screens as select idx - 1 as screen_idx, id from unnest($1::uuid[]) with ordinality as s(id, idx)`,
+    `create unlogged table fill_screens as select idx - 1 as screen_idx, id from unnest($1::uuid[]) with ordinality as s(id, idx)`,
     [screenIds],
   );
   // The plan: plate n of N, oldest first over the past year; the newest still in sign-off, the rest mostly approved.
   await client.query(
-    `create temp table fill_plates as
-       select n, md5($1 || ':plate:' || n)::uuid as id, md5($1 || ':file:' || n)::uuid as file_id,
+    `create unlogged table fill_plates as
+       select n, overlay(overlay(md5($1 || ':plate:' || n) placing '4' from 13) placing '8' from 17)::uuid as id, overlay(overlay(md5($1 || ':file:' || n) placing '4' from 13) placing '8' from 17)::uuid as file_id,
               (n % $3::int)::int as screen_idx, ((n * 7) % $4::int)::int as template,
               'SC' || upper($1) || '-' || lpad(n::text, 5, '0') as label,
               now() - interval '365 days' * (1 - n::double precision / $2::int) - interval '1 hour' as imported_at,
@@ -245,12 +247,12 @@ async function workTables(
     })),
   );
   await client.query(
-    `create temp table fill_steps as select * from jsonb_to_recordset($1::jsonb) as x(path text, step int, action text,
+    `create unlogged table fill_steps as select * from jsonb_to_recordset($1::jsonb) as x(path text, step int, action text,
        from_state text, to_state text, meaning text, decider int, steps_in_path int)`,
     [JSON.stringify(steps)],
   );
   await client.query(
-    `create temp table fill_approvers as select idx - 1 as slot, id from unnest($1::uuid[]) with ordinality as a(id, idx)`,
+    `create unlogged table fill_approvers as select idx - 1 as slot, id from unnest($1::uuid[]) with ordinality as a(id, idx)`,
     [who.approvers],
   );
 }
@@ -261,7 +263,7 @@ async function writeCompounds(client: pg.Client, options: FillOptions, chemistId
   const { rows } = await client.query<{ id: string }>(
     `with made as (
        insert into compounds (id, identifier, name, smiles, molecular_weight, created_by, created_at, updated_at)
-       select md5($1 || ':compound:' || i)::uuid, 'SC' || upper($1) || '-' || lpad(i::text, 5, '0'), 'Scale compound ' || i, '',
+       select overlay(overlay(md5($1 || ':compound:' || i) placing '4' from 13) placing '8' from 17)::uuid, 'SC' || upper($1) || '-' || lpad(i::text, 5, '0'), 'Scale compound ' || i, '',
               round((250 + (abs(hashtext($1 || 'mw' || i)) % 300) + 0.1 * (i % 10))::numeric, 1)::double precision, $3,
               now() - interval '400 days' + interval '1 minute' * i, now() - interval '400 days' + interval '1 minute' * i
          from generate_series(1, $2) as i
@@ -276,7 +278,7 @@ async function writeCompounds(client: pg.Client, options: FillOptions, chemistId
     [options.tag, options.compounds, chemistId],
   );
   await client.query(
-    `create temp table fill_compounds as select (row_number() over (order by identifier) - 1)::int as idx, id from compounds
+    `create unlogged table fill_compounds as select (row_number() over (order by identifier) - 1)::int as idx, id from compounds
       where identifier like 'SC' || upper($1) || '-%'`,
     [options.tag],
   );
@@ -315,7 +317,7 @@ async function writePlates(client: pg.Client, options: FillOptions, lo: number, 
   await client.query(
     `insert into wells (id, plate_id, position, row_index, column_index, role, compound_id, concentration_um,
                         seal_resistance_gohm, series_resistance_mohm, capacitance_pf)
-     select md5($3 || ':well:' || p.n || ':' || w.position)::uuid, p.id, w.position, w.row_index, w.column_index, w.role, c.id,
+     select overlay(overlay(md5($3 || ':well:' || p.n || ':' || w.position) placing '4' from 13) placing '8' from 17)::uuid, p.id, w.position, w.row_index, w.column_index, w.role, c.id,
             w.concentration_um, w.seal_resistance_gohm, w.series_resistance_mohm, w.capacitance_pf
        from fill_plates p join fill_template_wells w on w.template = p.template
             left join fill_compounds c on c.idx = (p.n * $5 + w.slot) % $4
@@ -324,7 +326,7 @@ async function writePlates(client: pg.Client, options: FillOptions, lo: number, 
   );
   await client.query(
     `insert into readouts (well_id, target_id, control_current_pa, compound_current_pa, fractional_block, qc_reasons)
-     select md5($3 || ':well:' || p.n || ':' || r.position)::uuid, t.id, r.control_current_pa, r.compound_current_pa,
+     select overlay(overlay(md5($3 || ':well:' || p.n || ':' || r.position) placing '4' from 13) placing '8' from 17)::uuid, t.id, r.control_current_pa, r.compound_current_pa,
             r.fractional_block, r.qc_reasons
        from fill_plates p join fill_template_readouts r on r.template = p.template
             join fill_targets t on t.screen_idx = p.screen_idx and t.slot = r.target_slot
@@ -345,7 +347,7 @@ async function writePlates(client: pg.Client, options: FillOptions, lo: number, 
   await client.query(
     `insert into compute_jobs (id, kind, job_key, plate_id, requested_by, state, done, total, message, attempts, worker,
                                created_at, started_at, finished_at)
-     select md5($3 || ':job:' || p.n)::uuid, 'plate-fits', 'plate-fits:' || p.id, p.id, p.importer, 'done', 0, null,
+     select overlay(overlay(md5($3 || ':job:' || p.n) placing '4' from 13) placing '8' from 17)::uuid, 'plate-fits', 'plate-fits:' || p.id, p.id, p.importer, 'done', 0, null,
             (select count(*) from fill_template_fits f where f.template = p.template) || ' fit(s) computed.', 1, 'scale-fill',
             p.imported_at, p.imported_at + interval '1 minute', p.imported_at + interval '2 minutes'
        from fill_plates p where p.n between $1 and $2`,
@@ -355,7 +357,7 @@ async function writePlates(client: pg.Client, options: FillOptions, lo: number, 
     `insert into audit_events (occurred_at, actor_id, action, entity_type, entity_id, after, address)
      select p.imported_at, p.importer, 'import', 'plate', p.id::text,
             jsonb_build_object('label', p.label, 'screenId', s.id, 'format', 384, 'filename', p.label || '.xlsx',
-              'sha256', f.sha256, 'wells', 384, 'readouts', 768, 'fitJobId', md5($3 || ':job:' || p.n)::uuid, 'supersedesPlateId', null),
+              'sha256', f.sha256, 'wells', 384, 'readouts', 768, 'fitJobId', overlay(overlay(md5($3 || ':job:' || p.n) placing '4' from 13) placing '8' from 17)::uuid, 'supersedesPlateId', null),
             '127.0.0.1'
        from fill_plates p join fill_screens s on s.screen_idx = p.screen_idx join uploaded_files f on f.id = p.file_id
       where p.n between $1 and $2`,
@@ -409,8 +411,8 @@ async function signOff(client: pg.Client, options: FillOptions): Promise<void> {
                    else (select a.id from fill_approvers a where a.slot = case when s.path = 'approved' then (p.n % 2) else s.decider end) end as signer,
               case s.action when 'reject' then ($3::text[])[1 + p.n % cardinality($3::text[])] else '' end as comment,
               least(p.imported_at + interval '3 hours' * s.step, now() - interval '1 minute' * (20 - s.step)) as at,
-              md5($1 || ':signature:' || p.n || ':' || s.step)::uuid as signature_id,
-              md5($1 || ':event:' || p.n || ':' || s.step)::uuid as event_id, h.sha, s.step
+              overlay(overlay(md5($1 || ':signature:' || p.n || ':' || s.step) placing '4' from 13) placing '8' from 17)::uuid as signature_id,
+              overlay(overlay(md5($1 || ':event:' || p.n || ':' || s.step) placing '4' from 13) placing '8' from 17)::uuid as event_id, h.sha, s.step
          from fill_plates p join fill_steps s on s.path = p.path and s.step = $2 join fill_hashes h on h.plate_id = p.id`,
       parameters,
     );
@@ -448,7 +450,7 @@ async function signOff(client: pg.Client, options: FillOptions): Promise<void> {
        from fill_plates p
             join lateral (
               select s.to_state, s.steps_in_path, e.occurred_at as at, sg.signer_id as signer
-                from fill_steps s join signoff_events e on e.plate_id = p.id and e.id = md5($1 || ':event:' || p.n || ':' || s.step)::uuid
+                from fill_steps s join signoff_events e on e.plate_id = p.id and e.id = overlay(overlay(md5($1 || ':event:' || p.n || ':' || s.step) placing '4' from 13) placing '8' from 17)::uuid
                 join signatures sg on sg.id = e.signature_id
                where s.path = p.path and s.step = s.steps_in_path) last on true
       where pl.id = p.id`,
@@ -481,8 +483,17 @@ async function writeForecasts(client: pg.Client, options: FillOptions, biologist
 /** Fills the database DATABASE_URL names (users seeded first) and says what it wrote and how long each part took. */
 export async function fillScale(options: FillOptions): Promise<FillResult> {
   const seconds: Record<string, number> = {};
-  const client = new pg.Client({ connectionString: process.env.DATABASE_URL, options: '-c jit=off' });
-  await client.connect();
+  // The work tables live in a schema of this fill's own (the app's role may create one), so that several
+  // sessions can write plates side by side; it is dropped at the end.
+  const schema = `scale_fill_${options.tag}`;
+  const session = async () => {
+    const client = new pg.Client({ connectionString: process.env.DATABASE_URL, options: '-c jit=off' });
+    await client.connect();
+    return client;
+  };
+  const client = await session();
+  await client.query(`create schema ${schema}`);
+  await client.query(`set search_path = ${schema}, public`);
   try {
     const who = await people(client);
     const templates = await timed(seconds, 'templates', async () =>
@@ -498,15 +509,30 @@ export async function fillScale(options: FillOptions): Promise<FillResult> {
     options.log(`${screenIds.length} screens, ${compoundIds.length} compounds`);
     await workTables(client, options, templates, screenIds, who);
     await timed(seconds, 'plates', async () => {
-      for (let lo = 1; lo <= options.plates; lo += options.batch) {
-        const hi = Math.min(options.plates, lo + options.batch - 1);
-        await writePlates(client, options, lo, hi);
-        if (hi % (options.batch * 5) === 0 || hi === options.plates)
-          options.log(
-            `  plates ${hi} of ${options.plates} (${((performance.now() / 1000) | 0) - 0} s on the clock)`,
-          );
+      const writers = await Promise.all(Array.from({ length: options.writers }, session));
+      let next = 1;
+      let written = 0;
+      const start = performance.now();
+      try {
+        await Promise.all(
+          writers.map(async (writer) => {
+            await writer.query(`set search_path = ${schema}, public`);
+            while (next <= options.plates) {
+              const lo = next;
+              const hi = Math.min(options.plates, lo + options.batch - 1);
+              next = hi + 1;
+              await writePlates(writer, options, lo, hi);
+              written += hi - lo + 1;
+              if (written % (options.batch * 4) === 0)
+                options.log(
+                  `  plates ${written} of ${options.plates} (${((performance.now() - start) / 1000).toFixed(0)} s)`,
+                );
+            }
+          }),
+        );
+      } finally {
+        await Promise.all(writers.map((writer) => writer.end()));
       }
-      await client.query('analyze');
     });
     options.log(`plates, wells, readouts, fits written in ${seconds.plates!.toFixed(1)} s`);
     const hashed = await timed(seconds, 'hashes', () => workOutHashes(client, options));
@@ -517,10 +543,10 @@ export async function fillScale(options: FillOptions): Promise<FillResult> {
       writeForecasts(client, options, who.biologists[0]!),
     );
     options.log(`${forecasts} forecasts in ${seconds.forecasts!.toFixed(1)} s`);
-    await client.query('analyze');
     const { rows } = await client.query<{ id: string }>('select id from fill_plates order by n');
     return { plateIds: rows.map((r) => r.id), compoundIds, screenIds, approverIds: who.approvers, seconds };
   } finally {
+    await client.query(`drop schema if exists ${schema} cascade`).catch(() => {});
     await client.end();
   }
 }

@@ -5,6 +5,7 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { db } from '@/lib/db';
 import { plateContentSha256 } from '@/lib/signoff/plate-content';
+import { parseId } from '@/lib/validation/ids';
 import { fillScale, PATHS, type FillResult, type SignoffPath } from '@/scripts/scale/fill';
 import { makeActor } from '../support/actors';
 import { asSchemaOwner, resetDatabase } from '../support/database';
@@ -44,6 +45,7 @@ beforeAll(async () => {
     batch: 3,
     forecasts: 1,
     hashConcurrency: 2,
+    writers: 2,
     tag: 'tst',
     paths: PATH_LIST,
     log: () => {},
@@ -74,6 +76,14 @@ describe('scale fill at a tiny size', () => {
       'select count(distinct compound_id)::int as n from wells where compound_id is not null group by plate_id',
     );
     expect(perPlate.map((p) => p.n)).toEqual(Array(PLATES).fill(80));
+  });
+
+  test('gives ids the routes of the app take (lib/validation/ids.ts), so every page of the fill opens', async () => {
+    const [ids] = await rows<{ wells: string[]; signatures: string[] }>(
+      `select (select array_agg(id::text) from wells) as wells, (select array_agg(id::text) from signatures) as signatures`,
+    );
+    for (const id of [...result.plateIds, ...result.compoundIds, ...ids!.wells, ...ids!.signatures])
+      expect(parseId(id)).toBe(id);
   });
 
   test('leaves each plate in the state its sign-off path ends in, with one event per step', async () => {
