@@ -111,7 +111,7 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
     options.importRate > 0 ? `in turn, ${options.importRate} import(s)/s in all` : 'back to back';
   return [
     `Gatewell load test against ${options.url} for ${options.durationS} s after ${options.warmUpS} s of the same load unmeasured`,
-    `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
+    `  reads:   ${options.readers} signed-in readers (sessions of ${options.readerAccounts ?? `the ${DEMO_ACCOUNTS.length} demo users`} in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
     `           ${options.documents ? 'every page loaded as a document' : 'the plate list loaded as a document, then client-side navigations (RSC requests) as a browser makes them'}, and the JSON the pages fetch`,
     `  imports: ${options.importers} biologist session(s) posting distinct plate exports ${importPace} (${prepared} encoded ahead, seed ${options.seed})`,
     ...(options.grow
