@@ -7,6 +7,7 @@ import { availableParallelism, loadavg } from 'node:os';
 import { prepareCommits, type CommitSource } from './load/commit-source';
 import { readerWalk, type Read } from './load/reader-walk';
 import { listedPlateIds } from './load/discover';
+import { scaleReads } from './load/scale-reads';
 import { parseOptions, type LoadOptions } from './load/options';
 import { runGroup, type ScheduledRequest, type Tally } from './load/run-people';
 import { cpuNow, cpuSince, type CpuUse } from './load/server-cpu';
@@ -110,12 +111,17 @@ function describe(options: LoadOptions, plates: number, reads: number, prepared:
     options.importRate > 0 ? `in turn, ${options.importRate} import(s)/s in all` : 'back to back';
   return [
     `Gatewell load test against ${options.url} for ${options.durationS} s after ${options.warmUpS} s of the same load unmeasured`,
-    `  reads:   ${options.readers} signed-in readers (sessions of the ${DEMO_ACCOUNTS.length} demo users in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
+    `  reads:   ${options.readers} signed-in readers (sessions of ${options.readerAccounts ?? `the ${DEMO_ACCOUNTS.length} demo users`} in turn), ${pace}, each walking ${reads} reads over ${plates} plate(s)`,
     `           ${options.documents ? 'every page loaded as a document' : 'the plate list loaded as a document, then client-side navigations (RSC requests) as a browser makes them'}, and the JSON the pages fetch`,
     `  imports: ${options.importers} biologist session(s) posting distinct plate exports ${importPace} (${prepared} encoded ahead, seed ${options.seed})`,
     ...(options.grow
       ? [
           `  before:  ${options.grow} exports imported before the clock started, so the plate list is that much longer`,
+        ]
+      : []),
+    ...(options.probes
+      ? [
+          `  scale:   after each plate a compound profile, three audit searches and a later plate-list page (ids from ${options.probes})`,
         ]
       : []),
     `  machine: ${availableParallelism()} cores, 1-minute load average ${loadavg()[0]!.toFixed(2)} before the run (the load generator shares the machine)`,
@@ -181,9 +187,16 @@ async function main(): Promise<number> {
   const health = await fetch(new URL('/api/health', options.url));
   if (health.status !== 200) throw new Error(`${options.url}/api/health answered ${health.status}`);
 
+  const accounts = options.readerAccounts
+    ? options.readerAccounts.split(',').map((name) => {
+        const account = DEMO_ACCOUNTS.find((a) => a.email.split('@')[0] === name);
+        if (!account) throw new Error(`--reader-accounts: no demo account ${name}`);
+        return account;
+      })
+    : DEMO_ACCOUNTS;
   const readerCookies = await signInAll(
     options.url,
-    Array.from({ length: options.readers }, (_, i) => DEMO_ACCOUNTS[i % DEMO_ACCOUNTS.length]!),
+    Array.from({ length: options.readers }, (_, i) => accounts[i % accounts.length]!),
   );
   const importerCookies = await signInAll(
     options.url,
@@ -194,9 +207,14 @@ async function main(): Promise<number> {
     options.plates,
   );
   if (plateIds.length === 0) throw new Error('the plate list is empty: seed the demo data first');
-  const sequence = await readerWalk(options.url, readerCookies[0] ?? importerCookies[0]!, plateIds, {
+  const walk = await readerWalk(options.url, readerCookies[0] ?? importerCookies[0]!, plateIds, {
     documents: options.documents,
   });
+  // With a probes file, each plate's seven reads are followed by the reads a year of data adds.
+  const extra = options.probes ? scaleReads(options.probes, plateIds.length) : null;
+  const sequence = extra
+    ? walk.flatMap((read, i) => (i % 7 === 6 ? [read, ...extra[(i - 6) / 7]!] : [read]))
+    : walk;
   const source =
     importerCookies.length > 0
       ? await prepareCommits({

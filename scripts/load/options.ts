@@ -27,6 +27,11 @@ const schema = z.object({
   serverPid: z.coerce.number().int().positive().optional(),
   workerPid: z.coerce.number().int().positive().optional(),
   documents: z.boolean().default(false),
+  probes: z.string().optional(),
+  readerAccounts: z
+    .string()
+    .regex(/^[a-z0-9]+(,[a-z0-9]+)*$/, 'a comma-separated list of demo account names such as admin,approver')
+    .optional(),
   reportOnly: z.boolean().default(false),
 });
 
@@ -42,6 +47,7 @@ const FLAGS: Record<string, string> = {
   reportOnly: 'report-only',
   serverPid: 'server-pid',
   workerPid: 'worker-pid',
+  readerAccounts: 'reader-accounts',
 };
 
 export type LoadOptions = z.infer<typeof schema> & { readRate: number; prepare: number; seed: number };
@@ -72,6 +78,10 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --seed N             first seed of the generated exports (default from the clock)
   --server-pid PID     the server's process id: prints the CPU time it and the processes below it used during the load (Linux)
   --worker-pid PID     a job worker's process id: prints its CPU time too
+  --probes FILE        also read compound profiles, the audit trail and later plate-list pages, with the ids the
+                       scale fill wrote to FILE (scripts/scale-test.sh)
+  --reader-accounts L  readers sign in only as these demo accounts, e.g. admin,approver,approver2 (who may read
+                       the audit trail); default every demo account in turn
   --report-only        print the figures and exit 0 even when a target is missed`;
 
 /** About how many imports warm-up and measured load post: at the import rate, or at 2 a second per importer back to back. */
@@ -112,6 +122,8 @@ export function parseOptions(
         'server-pid': { type: 'string' },
         'worker-pid': { type: 'string' },
         documents: { type: 'boolean' },
+        probes: { type: 'string' },
+        'reader-accounts': { type: 'string' },
         'report-only': { type: 'boolean' },
         help: { type: 'boolean' },
       },
@@ -138,6 +150,8 @@ export function parseOptions(
     serverPid: values['server-pid'],
     workerPid: values['worker-pid'],
     documents: values.documents,
+    probes: values.probes,
+    readerAccounts: values['reader-accounts'],
     reportOnly: values['report-only'],
   });
   if (!parsed.success) {
