@@ -54,6 +54,8 @@ const MODULE_EXPORTS: Record<string, [Record<string, unknown>, Record<string, st
     {
       sha256Hex: 'pure: a hash',
       findDuplicateUpload: 'read',
+      storeUploadedFile:
+        'writes the file record the plates of one file share, before any plate; no plate data',
       storePlate: 'write: re-import (a new plate; the same file again is refused)',
     },
   ],
@@ -63,6 +65,7 @@ const MODULE_EXPORTS: Record<string, [Record<string, unknown>, Record<string, st
       readOnce: 'read: parses an upload',
       inspectUpload: 'writes an import draft only',
       previewImport: 'read',
+      checkImport: 'read: checks each plate of a file',
       commitImport: 'write: re-import (a new plate; the same file again is refused)',
       inspectSheets: 'pure',
     },
