@@ -375,6 +375,17 @@ export const ACTION_CASES: ActionCase[] = [
     (ids) => ({ screenId: ids.screenId, name: 'Matrix target', conductance: 'gK' }),
     ['targets'],
   ),
+  signedInAction(
+    'app/(app)/screens/actions.ts#setTargetMappingAction',
+    MANAGE_SCREENS,
+    (ids) => ({
+      screenId: ids.screenId,
+      targetId: ids.fitTargetId,
+      preset: 'wang-buzsaki-1996',
+      conductance: 'gNa',
+    }),
+    [],
+  ),
   openAction(
     'app/(auth)/lost-password/actions.ts#requestPasswordLinkAction',
     (ids) => ({ email: ids.readerEmail }),
