@@ -32,17 +32,29 @@ set +e
 rm -rf test-output && mkdir -p test-output/screenshots
 status=0
 failed_steps=()
-step() { local name=$1; shift; say "$name"; "$@" || { status=1; failed_steps+=("$name"); say "FAILED: $name"; }; }
+# Each step is announced with the minutes and seconds since the run began, so slow steps show.
+step() {
+  local name=$1; shift
+  say "$name ($((SECONDS / 60))m$((SECONDS % 60))s)"
+  "$@" || { status=1; failed_steps+=("$name"); say "FAILED: $name"; }
+}
 
 step "format (prettier --check)" npx prettier --check . --log-level warn
 step "lint (eslint, boundary rules)" npx eslint . --max-warnings=0
 step "type check (tsc)" npx tsc --noEmit -p .
 step "migrating the test database" migrate
+
+# The production build reads no database (every route is dynamic), so it runs beside Vitest, which runs
+# one test file at a time and leaves the second core mostly idle; its result is checked before Playwright.
+say "production build, beside vitest (output in test-output/build.log)"
+(npx next build >test-output/build.log 2>&1; echo $? >test-output/build.status) &
+build_pid=$!
 step "unit and integration tests (vitest)" npx vitest run
 
 # End-to-end tests start from a fresh database with the demo data.
 step "resetting the test database for end-to-end tests" bash -c 'bash scripts/pg.sh reset "$instance" && npx sequelize-cli db:migrate >/dev/null && npx sequelize-cli db:seed:all >/dev/null'
-step "production build" bash -c 'npx next build >test-output/build.log 2>&1 || { tail -n 40 test-output/build.log; exit 1; }'
+wait "$build_pid"
+step "production build (finished)" bash -c '[ "$(cat test-output/build.status 2>/dev/null)" = 0 ] || { tail -n 40 test-output/build.log; exit 1; }'
 step "end-to-end tests (playwright)" npx playwright test
 
 [ ${#failed_steps[@]} -eq 0 ] || printf 'failed steps: %s\n' "${failed_steps[*]}"
