@@ -22,7 +22,7 @@ describe.each([
   const start = findRest(model).start;
   const dt = DEFAULT_DT_MS;
 
-  test.each(drives)('rate at %s µA/cm² changes by under 0.1 %%', (drive) => {
+  test.each(drives)('rate at %s µA/cm² changes by under one part in a thousand', (drive) => {
     const coarse = firingRate(model, start, drive, { dt_ms: dt }).rate_Hz;
     const fine = firingRate(model, start, drive, { dt_ms: dt / 2 }).rate_Hz;
     expect(fine).toBeGreaterThan(0);
