@@ -130,3 +130,24 @@ export function csvCells(text: string): string[][] {
     blankrows: false,
   });
 }
+
+/** The audit download's header row, as a person reads it (written out here, not taken from the app). */
+export const AUDIT_EXPORT_HEADER = [
+  'Event',
+  'Time (UTC)',
+  'Local time (UTC)',
+  'Person',
+  'Roles now',
+  'E-mail',
+  'What happened',
+  'Kind of object',
+  'Object',
+  'Changes',
+  'Action',
+  'Record type',
+  'Record id',
+  'Reason',
+  'Before',
+  'After',
+  'Address',
+] as const;
