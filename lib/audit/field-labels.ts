@@ -240,11 +240,17 @@ export interface FieldChange {
   after: string | null;
 }
 
-const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
+/** No value at all: a field missing, null or empty reads the same to a person ("—"). */
+const nothing = (value: unknown) => value === null || value === undefined || value === '';
+
+/** Unchanged for a reader: equal values, or nothing before and nothing after (missing vs empty is no change). */
+const same = (a: unknown, b: unknown) =>
+  (nothing(a) && nothing(b)) || JSON.stringify(a) === JSON.stringify(b);
 
 /**
  * What an event changed, field by field, in words: a creation lists what was set (before null), a
- * removal what was there (after null), a change only the fields that differ. Internal references and
+ * removal what was there (after null), a change only the fields that differ (missing and empty count as
+ * the same, and a field the after-record lacks as not recorded). Internal references and
  * fingerprints are left out. A value that is not an object becomes one line labelled "Value".
  */
 export function fieldChanges(before: unknown, after: unknown, names: NameLookup = {}): FieldChange[] {
@@ -255,13 +261,16 @@ export function fieldChanges(before: unknown, after: unknown, names: NameLookup 
   const keys = [...new Set([...Object.keys(b), ...Object.keys(a)])].filter(
     (key) => !INTERNAL_FIELDS.has(key),
   );
-  return keys
-    .filter((key) => !(hasBefore && hasAfter && same(b[key], a[key])))
-    .map((key) => ({
-      field: fieldLabel(key),
-      before: hasBefore ? showValue(b[key], names) : null,
-      after: hasAfter ? showValue(a[key], names) : null,
-    }));
+  return (
+    keys
+      // On a change, a field the after-record does not hold was not recorded, not removed: left out.
+      .filter((key) => !(hasBefore && hasAfter && (same(b[key], a[key]) || !(key in a))))
+      .map((key) => ({
+        field: fieldLabel(key),
+        before: hasBefore ? showValue(b[key], names) : null,
+        after: hasAfter ? showValue(a[key], names) : null,
+      }))
+  );
 }
 
 /** One change as a line: `Field: before → after`, `Field: after` (set) or `Field: before → removed`. */

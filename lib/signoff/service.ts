@@ -168,6 +168,9 @@ export async function signPlateStep(
           after: {
             state: plate.state,
             version: plate.version,
+            verifiedBy: plate.verifiedBy,
+            submittedBy: plate.submittedBy,
+            decidedBy: plate.decidedBy,
             signatureId: signature.id,
             signoffEventId: event.id,
             meaning: step.meaning,

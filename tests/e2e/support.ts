@@ -151,3 +151,69 @@ export const AUDIT_EXPORT_HEADER = [
   'After',
   'Address',
 ] as const;
+
+/**
+ * Every main page an admin can open, on the demo data: lists, a plate (NAV-P02) with its tabs, a compound
+ * with its profile, a screen, a person, the outbox, the audit trail and the account page. The import page
+ * is the biologist's and is not in this list.
+ */
+export async function mainPages(): Promise<{ pages: string[]; plate: { id: string } }> {
+  const plate = await queryOne<{ id: string }>(`select id from plates where label = 'NAV-P02'`);
+  const compound = await queryOne<{ id: string }>(
+    `select compound_id as id from wells where plate_id = $1 and compound_id is not null limit 1`,
+    [plate!.id],
+  );
+  const screen = await queryOne<{ id: string }>('select screen_id as id from plates where id = $1', [
+    plate!.id,
+  ]);
+  const user = await queryOne<{ id: string }>(`select id from users where email = 'biologist@gatewell.test'`);
+  const pages = [
+    '/',
+    '/plates',
+    `/plates/${plate!.id}`,
+    `/plates/${plate!.id}/fits`,
+    `/plates/${plate!.id}/forecast`,
+    `/plates/${plate!.id}/history`,
+    '/compounds',
+    `/compounds/${compound!.id}`,
+    `/compounds/${compound!.id}/profile`,
+    '/screens',
+    `/screens/${screen!.id}`,
+    '/screens/new',
+    '/admin/users',
+    '/admin/users/new',
+    `/admin/users/${user!.id}`,
+    '/admin/outbox',
+    '/audit',
+    '/account',
+  ];
+  return { pages, plate: plate! };
+}
+
+const UUID = /[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/gi;
+/** What an internal id looks like on a screen: UUIDs, worker names (host:pid), process ids, long hex. */
+const ID_PATTERNS: [string, RegExp][] = [
+  ['UUID', UUID],
+  ['worker name', /\b[a-z][a-z0-9-]*:\d{2,}\b/g],
+  ['process id', /\bpid\b/gi],
+  ['long hex', /\b[0-9a-f]{20,}\b/gi],
+];
+
+/** Every id-shaped piece of the page's rendered text, with what it looked like. */
+export async function idsOnPage(page: Page): Promise<string[]> {
+  const text = await page.locator('body').innerText();
+  return ID_PATTERNS.flatMap(([what, pattern]) => [...text.matchAll(pattern)].map((m) => `${what}: ${m[0]}`));
+}
+
+/** A full-page screenshot at 1440×900 and at 1024×768 in test-output/screenshots/, then back to the default size. */
+export async function shootAtTwoSizes(page: Page, name: string) {
+  for (const [width, height] of [
+    [1440, 900],
+    [1024, 768],
+  ] as const) {
+    await page.setViewportSize({ width, height });
+    await page.waitForTimeout(300); // the grids lay out again at the new width
+    await page.screenshot({ path: `test-output/screenshots/${name}-${width}x${height}.png`, fullPage: true });
+  }
+  await page.setViewportSize({ width: 1280, height: 860 });
+}

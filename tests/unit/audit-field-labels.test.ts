@@ -65,6 +65,18 @@ describe('changes as field: before → after', () => {
     expect(changeText(before, after, { [screen]: 'Pain sodium screen' })).toBe(expected);
   });
 
+  test('a field missing on one side and empty on the other is no change; nothing to something is', () => {
+    expect(fieldChanges({ reason: '' }, { reason: null, comment: undefined })).toEqual([]);
+    expect(fieldChanges({ label: 'NAV-P01' }, { label: 'NAV-P01', reason: '' })).toEqual([]);
+    // A field the after-record does not hold was not recorded, so it is not shown as removed.
+    expect(fieldChanges({ state: 'submitted', verifiedBy: 'x' }, { state: 'approved' })).toEqual([
+      { field: 'State', before: 'submitted', after: 'approved' },
+    ]);
+    expect(fieldChanges({ reason: null }, { reason: 'seal lost' })).toEqual([
+      { field: 'Reason', before: '—', after: 'seal lost' },
+    ]);
+  });
+
   test('a change keeps before and after apart for the detail table', () => {
     expect(fieldChanges({ excluded: false }, { excluded: true })).toEqual([
       { field: 'Excluded', before: 'no', after: 'yes' },

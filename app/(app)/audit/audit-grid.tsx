@@ -16,6 +16,9 @@ import { formatInZone } from '@/lib/domain/time-zone';
 const orDash = (value: unknown) =>
   value === null || value === undefined || value === '' ? '—' : String(value);
 
+/** A text closed by one full stop, whether or not it already ends with one. */
+const sentence = (text: string) => (/[.!?]$/.test(text) ? text : `${text}.`);
+
 /** Who acted, in words: name and today's roles, or that nobody was signed in. */
 const person = (row: AuditRow) =>
   row.actorName ? `${row.actorName}${row.actorRoles ? ` (${row.actorRoles})` : ''}` : 'Nobody signed in';
@@ -33,14 +36,18 @@ function columnsFor(timeZone: string, names: NameLookup): ColDef<AuditRow>[] {
       field: 'occurredAt',
       headerName: `When (${timeZone})`,
       valueFormatter: (p) => formatInZone(p.value as string, timeZone),
-      width: 215,
+      flex: 1.3,
+      minWidth: 130,
+      wrapText: true,
+      autoHeight: true,
     },
     {
       colId: 'actor',
       headerName: 'Person',
       valueGetter: (p) => (p.data ? person(p.data) : ''),
       tooltipValueGetter: (p) => p.data?.actorEmail ?? null,
-      width: 170,
+      flex: 1,
+      minWidth: 110,
       wrapText: true,
       autoHeight: true,
     },
@@ -48,7 +55,8 @@ function columnsFor(timeZone: string, names: NameLookup): ColDef<AuditRow>[] {
       colId: 'action',
       headerName: 'What happened',
       valueGetter: (p) => (p.data ? eventKindLabel(p.data.action) : ''),
-      width: 170,
+      flex: 1,
+      minWidth: 100,
       wrapText: true,
       autoHeight: true,
     },
@@ -56,14 +64,16 @@ function columnsFor(timeZone: string, names: NameLookup): ColDef<AuditRow>[] {
       colId: 'object',
       headerName: 'Object',
       valueGetter: (p) => (p.data ? object(p.data) : ''),
-      width: 190,
+      flex: 1.1,
+      minWidth: 110,
       wrapText: true,
       autoHeight: true,
     },
     {
       field: 'reason',
       headerName: 'Reason',
-      width: 160,
+      flex: 1,
+      minWidth: 100,
       wrapText: true,
       autoHeight: true,
       valueFormatter: (p) => orDash(p.value),
@@ -75,11 +85,11 @@ function columnsFor(timeZone: string, names: NameLookup): ColDef<AuditRow>[] {
         p.data
           ? fieldChanges(p.data.before, p.data.after, names).map(changeLine).join('\n') || 'no field changed'
           : '',
-      flex: 1,
-      minWidth: 240,
+      flex: 2,
+      minWidth: 170,
       wrapText: true,
       autoHeight: true,
-      cellClass: 'text-xs leading-5 py-1.5 whitespace-pre-line',
+      cellClass: 'text-xs whitespace-pre-line leading-5 py-2.5',
     },
   ];
 }
@@ -104,7 +114,8 @@ export function AuditGrid({
         rows={rows}
         columns={columns}
         getRowId={(p) => String(p.data.id)}
-        defaultColDef={{ filter: false, sortable: false, resizable: true }}
+        // Wrapped cells read as lines of text, not lines spaced a whole row apart.
+        defaultColDef={{ filter: false, sortable: false, resizable: true, cellClass: 'leading-5 py-2.5' }}
         onRowClicked={(e) => setChosen(e.data ?? null)}
         onCellKeyDown={(e) => {
           if ((e.event as KeyboardEvent | undefined)?.key === 'Enter') setChosen(e.data ?? null);
@@ -121,7 +132,7 @@ export function AuditGrid({
             <p className="mt-1 text-sm text-ink-700">
               {formatInZone(chosen.occurredAt, timeZone)} by{' '}
               {chosen.actorName ? `${person(chosen)} <${chosen.actorEmail}>` : 'nobody signed in'}
-              {chosen.address ? ` from ${chosen.address}` : ''}. Reason: {orDash(chosen.reason)}.
+              {chosen.address ? ` from ${chosen.address}` : ''}. Reason: {sentence(orDash(chosen.reason))}
             </p>
             {changes.length ? (
               <table className="mt-3 w-full text-left text-sm">

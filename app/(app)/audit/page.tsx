@@ -71,6 +71,11 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         </p>
       ) : result.total === 0 ? (
         <EmptyState title="No events match">Widen the time range or clear a filter.</EmptyState>
+      ) : result.rows.length === 0 ? (
+        <EmptyState title={`There is no page ${result.page}`}>
+          These filters give {result.total} events on {pages} {pages === 1 ? 'page' : 'pages'}.{' '}
+          <AppLink href={pageHref(values, pages)}>Go to the last page</AppLink>
+        </EmptyState>
       ) : (
         <>
           <div className="mb-2 flex flex-wrap items-center justify-between gap-2 text-sm text-ink-700">
