@@ -242,6 +242,41 @@ describe('invented export layouts through the import service', () => {
     },
   );
 
+  test('a barcode in a fixed cell of each plate sheet labels each plate with its own barcode', async () => {
+    // The sheet-per-plate file with its sheets renamed and each plate's barcode written in cell B1 of its
+    // own sheet, two rows above the table: the mapping points at cell B1 of the first plate's sheet.
+    const file = layout('plates-per-sheet').write();
+    const { facts } = file;
+    const book = XLSX.read(file.bytes, { type: 'array' });
+    const renamed = XLSX.utils.book_new();
+    facts.plates.forEach((plate, i) => {
+      const rows = XLSX.utils.sheet_to_json<unknown[]>(book.Sheets[plate.sheet]!, { header: 1 });
+      const withBarcode = [['Barcode', plate.label], [], ...rows];
+      XLSX.utils.book_append_sheet(renamed, XLSX.utils.aoa_to_sheet(withBarcode), `Run ${i + 1}`);
+    });
+    const bytes = new Uint8Array(XLSX.write(renamed, { type: 'array', bookType: 'xlsx' }) as ArrayBuffer);
+    const mapping = {
+      ...MAPPINGS['plates-per-sheet'],
+      headerRow: 3,
+      facts: { barcode: { kind: 'cell' as const, sheet: 'Run 1', address: 'B1' } },
+    };
+    const inspection = await inspectUpload(biologist, {
+      screenId: screenFor(facts).id,
+      bytes,
+      filename: 'two-runs.xlsx',
+      mediaType: file.mediaType,
+    });
+    const request = { draftId: inspection.draftId!, sheet: 'Run 1', mapping, label: 'unused' };
+    const preview = await previewImport(biologist, request);
+    expect(preview.fileProblems).toEqual([]);
+    expect(preview.plates.map((p) => [p.sheet, p.label, p.labelSource, p.facts.barcode])).toEqual(
+      facts.plates.map((p, i) => [`Run ${i + 1}`, p.label, 'barcode', p.label]),
+    );
+    const committed = await commitImport(biologist, request);
+    const stored = await Plate.findAll({ where: { id: committed.plates.map((p) => p.plateId) } });
+    expect(stored.map((p) => p.label).sort()).toEqual(facts.plates.map((p) => p.label).sort());
+  });
+
   test('a fault in one plate of the file stores no plate, naming that plate; row counts unchanged', async () => {
     const file = layout('plate-column-tsv').write();
     const { facts } = file;
