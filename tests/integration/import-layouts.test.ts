@@ -13,7 +13,7 @@ import {
   type SinglePlateLayout,
 } from '../fixtures/export-layouts/mappings';
 import { expectPlateHoldsTruth, layoutScreensSetup, type LayoutScreen } from '../support/layout-imports';
-import { fileTargets, plateExpectedIc50 } from '../support/layout-truth';
+import { fileTargets, plateExpectedIc50, truthRoleCounts } from '../support/layout-truth';
 
 /**
  * The invented export layouts (tests/fixtures/export-layouts) through Gatewell's import service, each with
@@ -182,9 +182,20 @@ describe('invented export layouts through the import service', () => {
       const sheet = facts.plates[0]!.sheet;
       const preview = await previewImport(biologist, { draftId, sheet, mapping });
       expect(preview.fileProblems).toEqual([]);
-      expect(preview.plates.map((p) => [p.label, p.wellCount, p.ok])).toEqual(
-        facts.plates.map((p) => [p.label, p.wellCount, true]),
+      // Each plate's own facts on the check step, from its truth: QC flags exactly its bad wells.
+      expect(
+        preview.plates.map((p) => [p.label, p.wellCount, p.format, p.roleCounts, p.qcFlaggedWells, p.ok]),
+      ).toEqual(
+        facts.plates.map((p) => [
+          p.label,
+          p.wellCount,
+          p.format,
+          truthRoleCounts(p.label),
+          p.badWells.length,
+          true,
+        ]),
       );
+      expect(preview.plates.map((p) => p.qcRulesNotApplied)).toEqual(facts.plates.map(() => []));
       const files = await tableCount('uploaded_files');
       const audits = await tableCount(`audit_events where action = 'import'`);
       const mails = await tableCount(`mail_outbox where kind = 'plate_imported'`);
@@ -275,6 +286,39 @@ describe('invented export layouts through the import service', () => {
     const committed = await commitImport(biologist, request);
     const stored = await Plate.findAll({ where: { id: committed.plates.map((p) => p.plateId) } });
     expect(stored.map((p) => p.label).sort()).toEqual(facts.plates.map((p) => p.label).sort());
+  });
+
+  test('a QC readout absent from one plate only: that plate reports its rule not applied, named on the file', async () => {
+    // The plate-column file with the series resistance of every row of its second plate written as missing.
+    const file = layout('plate-column-tsv').write();
+    const { facts } = file;
+    const [first, second] = facts.plates;
+    const lines = new TextDecoder().decode(file.bytes).split('\n');
+    const rs = lines[0]!.split('\t').indexOf('Rs (MOhm)');
+    expect(rs).toBeGreaterThan(0);
+    const edited = lines.map((line) => {
+      if (!line.startsWith(`${second!.label}\t`)) return line;
+      const cells = line.split('\t');
+      cells[rs] = facts.missingMarker;
+      return cells.join('\t');
+    });
+    const inspection = await inspectUpload(biologist, {
+      screenId: screenFor(facts).id,
+      bytes: new TextEncoder().encode(edited.join('\n')),
+      filename: file.filename,
+      mediaType: file.mediaType,
+    });
+    const preview = await previewImport(biologist, {
+      draftId: inspection.draftId!,
+      sheet: first!.sheet,
+      mapping: MAPPINGS['plate-column-tsv'],
+    });
+    expect(preview.plates.map((p) => p.qcRulesNotApplied.map((r) => r.rule))).toEqual([
+      [],
+      ['series_resistance'],
+    ]);
+    expect(preview.qcRulesNotApplied.map((r) => r.rule)).toEqual(['series_resistance']);
+    expect(preview.qcRulesNotApplied[0]!.message).toMatch(new RegExp(`^Plate "${second!.label}": `));
   });
 
   test('a fault in one plate of the file stores no plate, naming that plate; row counts unchanged', async () => {
