@@ -69,11 +69,16 @@ export interface PlateCheckView {
   label: string;
   labelSource: string;
   wellCount: number;
+  format: number | null;
+  roleCounts: { negativeControl: number; positiveControl: number; test: number; empty: number };
   ok: boolean;
-  summary: { errors: number; warnings: number };
+  summary: { rows: number; okRows: number; errorRows: number; errors: number; warnings: number };
   fileProblems: { code: string; message: string; whatToDo: string }[];
   issues: { message: string; severity: 'error' | 'warning' }[];
+  facts: FoundFacts;
+  factWarnings: string[];
   qcFlaggedWells: number;
+  qcRulesNotApplied: { rule: string; label: string; message: string }[];
 }
 
 export class ImportRequestError extends Error {

@@ -470,10 +470,19 @@ export function ImportWizard({
                 onRegistered={check}
               />
             }
+            platesPanel={
+              <PlatesInFile
+                plates={preview.plates}
+                labels={labels}
+                onLabel={(key, value) => setLabels({ ...labels, [key]: value })}
+              />
+            }
           />
-          {Object.keys(preview.facts).length > 0 ||
-          preview.factWarnings.length > 0 ||
-          preview.emptyWells > 0 ? (
+          {/* A file of several plates shows each plate's facts, warnings and empty wells in its list. */}
+          {!several &&
+          (Object.keys(preview.facts).length > 0 ||
+            preview.factWarnings.length > 0 ||
+            preview.emptyWells > 0) ? (
             <div className="gw-card space-y-1 p-4 text-sm" aria-label="Plate facts and skipped wells">
               {Object.entries(preview.facts).map(([fact, value]) => (
                 <p key={fact}>
@@ -493,13 +502,6 @@ export function ImportWizard({
                 </p>
               ) : null}
             </div>
-          ) : null}
-          {several ? (
-            <PlatesInFile
-              plates={preview.plates}
-              labels={labels}
-              onLabel={(key, value) => setLabels({ ...labels, [key]: value })}
-            />
           ) : null}
           {stored ? <StoredPlates plates={stored} /> : null}
           <div className="gw-card grid gap-4 p-5 sm:grid-cols-3">

@@ -1,6 +1,7 @@
 'use client';
 
 import { AppLink } from '@/components/ui/app-link';
+import { PLATE_FACT_LABEL, type PlateFact } from '@/lib/imports/import-fields';
 import type { ColumnMapping } from '@/lib/imports/mapping-schema';
 import type { PlateCheckView } from './import-api';
 
@@ -78,7 +79,23 @@ export function PlateSplitChoice({
   );
 }
 
-/** The check step's list of the file's plates: each with its label (editable), well count and issues. */
+const ROLE_WORDS = [
+  ['negativeControl', 'negative'],
+  ['positiveControl', 'positive'],
+  ['test', 'test'],
+  ['empty', 'empty'],
+] as const;
+
+/** A plate's (or the file's) wells by role, as one line: "8 negative · 8 positive · 80 test · 0 empty". */
+function rolesLine(counts: PlateCheckView['roleCounts']) {
+  return ROLE_WORDS.map(([key, word]) => `${counts[key]} ${word}`).join(' · ');
+}
+
+/**
+ * The check step's list of the file's plates, each with its own facts: label (editable), format, wells,
+ * wells by role, wells QC flags, QC rules not applied, the plate facts read beside its table, and its
+ * errors and warnings; under them, the whole file's totals (sums of the plates, never one plate's).
+ */
 export function PlatesInFile({
   plates,
   labels,
@@ -88,47 +105,93 @@ export function PlatesInFile({
   labels: Record<string, string>;
   onLabel: (key: string, label: string) => void;
 }) {
+  const total = (value: (plate: PlateCheckView) => number) =>
+    plates.reduce((sum, plate) => sum + value(plate), 0);
+  const totalRoles = Object.fromEntries(
+    ROLE_WORDS.map(([key]) => [key, total((p) => p.roleCounts[key])]),
+  ) as PlateCheckView['roleCounts'];
+  const formats = [...new Set(plates.map((p) => p.format).filter((f) => f !== null))];
+  const rules = [...new Set(plates.flatMap((p) => p.qcRulesNotApplied.map((r) => r.label)))];
+  const errors = total((p) => (p.ok ? 0 : p.summary.errors || 1));
+  const warnings = total((p) => p.summary.warnings + p.factWarnings.length);
+  const head = 'py-1 pr-3';
+  const cell = 'py-1.5 pr-3';
   return (
-    <section className="gw-card space-y-2 p-4" aria-label="Plates in this file">
+    <section className="gw-card space-y-2 overflow-x-auto p-4" aria-label="Plates in this file">
       <h2 className="text-base font-semibold">Plates in this file ({plates.length})</h2>
       <table className="min-w-full text-sm">
         <thead className="text-left text-xs uppercase tracking-wide text-ink-700">
           <tr>
-            <th scope="col" className="py-1 pr-3">
+            <th scope="col" className={head}>
               In the file
             </th>
-            <th scope="col" className="py-1 pr-3">
+            <th scope="col" className={head}>
               Plate label
             </th>
-            <th scope="col" className="py-1 pr-3">
+            <th scope="col" className={head}>
               Wells
             </th>
-            <th scope="col" className="py-1 pr-3">
+            <th scope="col" className={head}>
+              Format
+            </th>
+            <th scope="col" className={head}>
+              Wells by role
+            </th>
+            <th scope="col" className={head}>
               QC flags
             </th>
+            <th scope="col" className={head}>
+              QC rules not applied
+            </th>
+            <th scope="col" className={head}>
+              Plate facts
+            </th>
             <th scope="col" className="py-1">
-              Issues
+              Errors and warnings
             </th>
           </tr>
         </thead>
         <tbody className="divide-y divide-ink-100 align-top">
           {plates.map((plate, i) => (
             <tr key={plate.key} data-plate={plate.key}>
-              <td className="py-1.5 pr-3 font-mono">{plate.key}</td>
-              <td className="py-1.5 pr-3">
+              <td className={`${cell} whitespace-nowrap font-mono`}>{plate.key}</td>
+              <td className={cell}>
                 <input
                   aria-label={`Label of plate ${i + 1}`}
-                  className="gw-input"
+                  className="gw-input min-w-44"
                   value={labels[plate.key] ?? plate.label}
                   onChange={(e) => onLabel(plate.key, e.target.value)}
                 />
               </td>
-              <td className="py-1.5 pr-3">{plate.wellCount}</td>
-              <td className="py-1.5 pr-3">{plate.qcFlaggedWells}</td>
+              <td className={`${cell} tabular-nums`}>{plate.wellCount}</td>
+              <td className={`${cell} tabular-nums`}>{plate.format ?? '—'}</td>
+              <td className={`${cell} whitespace-nowrap tabular-nums`}>{rolesLine(plate.roleCounts)}</td>
+              <td className={`${cell} tabular-nums`}>{plate.qcFlaggedWells}</td>
+              <td className={cell}>
+                {plate.qcRulesNotApplied.length ? (
+                  <span className="text-signal-warn">
+                    {plate.qcRulesNotApplied.map((r) => r.label).join(', ')}
+                  </span>
+                ) : (
+                  'none'
+                )}
+              </td>
+              <td className={`${cell} text-xs`}>
+                {Object.keys(plate.facts).length ? null : '—'}
+                {Object.entries(plate.facts).map(([fact, value]) => (
+                  <p key={fact}>
+                    <span className="text-ink-500">{PLATE_FACT_LABEL[fact as PlateFact]}:</span>{' '}
+                    <span className="font-mono">{value}</span>
+                  </p>
+                ))}
+              </td>
               <td className="py-1.5">
                 {plate.ok ? (
                   <span className="text-signal-pass">
-                    No errors{plate.summary.warnings ? `, ${plate.summary.warnings} warning(s)` : ''}
+                    No errors
+                    {plate.summary.warnings + plate.factWarnings.length
+                      ? `, ${plate.summary.warnings + plate.factWarnings.length} warning(s)`
+                      : ''}
                   </span>
                 ) : (
                   <span className="font-medium text-signal-fail">{plate.summary.errors || 1} error(s)</span>
@@ -137,6 +200,7 @@ export function PlatesInFile({
                   {[
                     ...plate.fileProblems.map((p) => `${p.message} ${p.whatToDo}`),
                     ...plate.issues.map((x) => x.message),
+                    ...plate.factWarnings,
                   ]
                     .slice(0, 3)
                     .map((message) => (
@@ -149,6 +213,27 @@ export function PlatesInFile({
             </tr>
           ))}
         </tbody>
+        <tfoot className="border-t-2 border-ink-200 font-medium">
+          <tr data-plate-total="">
+            <th scope="row" className={`${cell} text-left`} colSpan={2}>
+              All {plates.length} plates
+            </th>
+            <td className={`${cell} tabular-nums`}>{total((p) => p.wellCount)}</td>
+            <td className={`${cell} tabular-nums`}>{formats.join(', ') || '—'}</td>
+            <td className={`${cell} whitespace-nowrap tabular-nums`}>{rolesLine(totalRoles)}</td>
+            <td className={`${cell} tabular-nums`}>{total((p) => p.qcFlaggedWells)}</td>
+            <td className={cell}>{rules.length ? rules.join(', ') : 'none'}</td>
+            <td className={cell} />
+            <td className="py-1.5">
+              {errors ? (
+                <span className="text-signal-fail">{errors} error(s)</span>
+              ) : (
+                <span className="text-signal-pass">No errors</span>
+              )}
+              {warnings ? `, ${warnings} warning(s)` : ''}
+            </td>
+          </tr>
+        </tfoot>
       </table>
     </section>
   );

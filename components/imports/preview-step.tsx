@@ -69,16 +69,43 @@ const COLUMNS: ColDef<PreviewGridRow>[] = [
 ];
 
 /**
+ * The headline counts. A file of one plate: its rows, format and wells. A file of several plates: the
+ * whole file's totals (sums over its plates) and their formats, each plate's own facts in `platesPanel`.
+ */
+function headline(preview: Preview): [string, string | number][] {
+  const { summary, plates } = preview;
+  if (plates.length <= 1)
+    return [
+      ['Rows read', summary.rows],
+      ['Rows ready', summary.okRows],
+      ['Rows with errors', summary.errorRows],
+      ['Plate format', preview.plate ? `${preview.plate.format} (${preview.plate.formatSource})` : '—'],
+      ['Wells', preview.plate?.wells.length ?? 0],
+    ];
+  const formats = [...new Set(plates.map((p) => p.format).filter((f) => f !== null))];
+  return [
+    ['Plates', plates.length],
+    ['Wells, all plates', plates.reduce((n, p) => n + p.wellCount, 0)],
+    ['Rows read, all plates', summary.rows],
+    ['Rows with errors, all plates', summary.errorRows],
+    [formats.length > 1 ? 'Plate formats' : 'Plate format', formats.join(', ') || '—'],
+  ];
+}
+
+/**
  * The preview: counts, whole-file problems with what to do, the QC rules not applied, and every row
- * with its parse result and QC flags.
+ * with its parse result and QC flags (for a file of several plates, the first plate's rows, said so).
  */
 export function PreviewStep({
   preview,
   unknownCompoundsPanel,
+  platesPanel,
 }: {
   preview: Preview;
   /** Shown instead of the plain list of unregistered compounds (unknown-compounds.tsx). */
   unknownCompoundsPanel?: ReactNode;
+  /** Each plate's facts, under the headline, for a file of several plates (plates-in-file.tsx). */
+  platesPanel?: ReactNode;
 }) {
   const rows: PreviewGridRow[] = preview.rows.map((r) => {
     const qc = preview.qc[String(r.row)] ?? [];
@@ -99,23 +126,19 @@ export function PreviewStep({
       ].join(' · '),
     };
   });
-  const { summary } = preview;
+  const several = preview.plates.length > 1;
+  const firstPlate = preview.plates[0];
   return (
     <div className="space-y-4">
-      <dl className="grid grid-cols-2 gap-3 sm:grid-cols-5">
-        {[
-          ['Rows read', summary.rows],
-          ['Rows ready', summary.okRows],
-          ['Rows with errors', summary.errorRows],
-          ['Plate format', preview.plate ? `${preview.plate.format} (${preview.plate.formatSource})` : '—'],
-          ['Wells', preview.plate?.wells.length ?? 0],
-        ].map(([label, value]) => (
+      <dl className="grid grid-cols-2 gap-3 sm:grid-cols-5" aria-label="Check totals">
+        {headline(preview).map(([label, value]) => (
           <div key={String(label)} className="gw-card p-3">
             <dt className="text-xs text-ink-500">{label}</dt>
             <dd className="text-lg font-semibold tabular-nums">{value}</dd>
           </div>
         ))}
       </dl>
+      {several ? platesPanel : null}
       {preview.fileProblems.length ? (
         <section
           role="alert"
@@ -164,9 +187,15 @@ export function PreviewStep({
           . A chemist registers them on the Compounds page; then check the rows again.
         </p>
       ) : null}
+      {rows.length && several && firstPlate ? (
+        <p className="text-sm text-ink-700">
+          The rows below are those of plate <span className="font-medium">{firstPlate.label}</span>, the first
+          of the file&rsquo;s {preview.plates.length} plates; the list above counts every plate.
+        </p>
+      ) : null}
       {rows.length ? (
         <DataGrid<PreviewGridRow>
-          label="Preview of every row"
+          label={several ? 'Preview of the first plate’s rows' : 'Preview of every row'}
           rows={rows}
           columns={COLUMNS}
           height={460}

@@ -7,7 +7,7 @@ import 'server-only';
 import { headerFingerprint } from './fingerprint';
 import type { ColumnMapping, FactLocator, PlateSplit } from './mapping-schema';
 import { columnLetter, normaliseLabel } from './normalise-text';
-import { FACT_KEYS, findKeyValue } from './plate-facts';
+import { FACT_KEYS, findKeyValue, readFact } from './plate-facts';
 import { readText, shorten } from './read-cell';
 import { layoutHeaderCells } from './reshape-table';
 import { isSummaryRow, isUnitsRow } from './skip-rows';
@@ -107,15 +107,22 @@ function splitBySheet(sheets: readonly SheetData[], chosen: SheetData, mapping: 
   }
   if (problems.length) return { ok: false, problems };
   if (plates.length > MAX_PLATES_PER_FILE) return { ok: false, problems: [tooMany(plates.length)] };
+  const located = plates.map((sheet) => {
+    const partMapping = { ...mapping, wellSheet: sheet.name, facts: factsOnSheet(mapping, plates, sheet) };
+    return { sheet, partMapping, barcode: barcodeOn(sheets, partMapping) };
+  });
+  // A barcode read alike for several plates (a run sheet the plates share) is the file's, not a plate's:
+  // those plates are labelled by their sheets, so that no two plates of a file share a label.
+  const seen = new Map<string, number>();
+  for (const { barcode } of located) if (barcode) seen.set(barcode, (seen.get(barcode) ?? 0) + 1);
   return {
     ok: true,
-    parts: plates.map((sheet) => {
-      const partMapping = { ...mapping, wellSheet: sheet.name, facts: factsOnSheet(mapping, plates, sheet) };
-      const barcode = barcodeOn(sheets, partMapping);
+    parts: located.map(({ sheet, partMapping, barcode }) => {
+      const own = barcode !== null && seen.get(barcode) === 1 ? barcode : null;
       return {
         key: sheet.name,
-        label: (barcode ?? sheet.name).slice(0, 120),
-        labelSource: barcode ? ('barcode' as const) : ('sheet' as const),
+        label: (own ?? sheet.name).slice(0, 120),
+        labelSource: own ? ('barcode' as const) : ('sheet' as const),
         sheet,
         mapping: partMapping,
       };
@@ -123,18 +130,18 @@ function splitBySheet(sheets: readonly SheetData[], chosen: SheetData, mapping: 
   };
 }
 
-/** The barcode where the part's mapping locates it, or null. */
+/** The barcode where the part's mapping locates it (beside a key, or in a fixed cell), or null. */
 function barcodeOn(sheets: readonly SheetData[], mapping: ColumnMapping): string | null {
   const locator = mapping.facts.barcode;
   if (!locator) return null;
-  if (locator.kind === 'key') return findKeyValue(sheets, locator.key, locator.sheet)?.value.trim() || null;
-  return null;
+  return readFact(sheets, locator)?.trim() || null;
 }
 
 /**
- * The mapping's fact locators moved to the part's own sheet: a fact located on a plate sheet (or on any
- * sheet, by its key) is read from this plate's sheet when that sheet holds it; facts on other sheets
- * (a run sheet shared by the plates) stay where they are.
+ * The mapping's fact locators moved to the part's own sheet: a fact located on a plate sheet (a cell, or
+ * beside a key) is read on this plate's sheet, at the same cell or beside the same key, never on another
+ * plate's; a fact located by its key on any sheet is read on this plate's sheet when that sheet holds the
+ * key; facts on other sheets (a run sheet shared by the plates) stay where they are.
  */
 function factsOnSheet(
   mapping: ColumnMapping,
@@ -144,7 +151,7 @@ function factsOnSheet(
   const onPlateSheet = (name: string | null) => name === null || plateSheets.some((s) => s.name === name);
   const moved = (locator: FactLocator | null): FactLocator | null => {
     if (!locator || !onPlateSheet(locator.sheet)) return locator;
-    if (locator.kind === 'cell') return { ...locator, sheet: sheet.name };
+    if (locator.kind === 'cell' || locator.sheet !== null) return { ...locator, sheet: sheet.name };
     return findKeyValue([sheet], locator.key) ? { ...locator, sheet: sheet.name } : locator;
   };
   return Object.fromEntries(

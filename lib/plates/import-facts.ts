@@ -1,10 +1,9 @@
 import 'server-only';
-import { guessMapping } from '@/lib/imports/guess-mapping';
+import { guessMapping, tableView } from '@/lib/imports/guess-mapping';
 import { columnMappingDraftSchema, type ColumnMapping } from '@/lib/imports/mapping-schema';
 import { guessFactLocators, readPlateFacts, type PlateFacts } from '@/lib/imports/plate-facts';
 import { guessPlateSplit, splitPlates } from '@/lib/imports/split-plates';
 import type { SheetData } from '@/lib/imports/spreadsheet-types';
-import { tableView } from '@/lib/imports/guess-mapping';
 import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-plate-sheet';
 import type { QcRuleNotApplied } from '@/lib/science/qc/qc-rules';
 import { qcRulesNotApplied, readoutsAbsentFromEveryWell } from '@/lib/science/qc/qc-rules';

@@ -198,6 +198,10 @@ export interface PlateCheck {
   label: string;
   labelSource: 'barcode' | 'sheet' | 'column' | 'file';
   wellCount: number;
+  /** The plate's format (96, 384, 1536), null when no well could be read. */
+  format: PlateFormat | null;
+  /** Its wells by role, and the rows the role value map marks empty (skipped). */
+  roleCounts: { negativeControl: number; positiveControl: number; test: number; empty: number };
   ok: boolean;
   summary: PlatePreview['summary'];
   fileProblems: FileProblem[];
@@ -207,6 +211,8 @@ export interface PlateCheck {
   factWarnings: string[];
   /** Wells QC flags on at least one readout. */
   qcFlaggedWells: number;
+  /** The QC rules this plate's readouts leave unapplied (the others still run). */
+  qcRulesNotApplied: QcRuleNotApplied[];
 }
 
 /**
@@ -353,7 +359,11 @@ function filePreview(
   const plates: PlateCheck[] = checked.parts.map((checkedPart) => {
     const { part, preview } = checkedPart;
     const { label, labelSource } = partLabel(checkedPart, filename);
-    const qc = preview.plate ? previewQc(preview, settings).qc : {};
+    const { qc, qcRulesNotApplied } = preview.plate
+      ? previewQc(preview, settings)
+      : { qc: {}, qcRulesNotApplied: [] };
+    const wells = preview.plate?.wells ?? [];
+    const count = (role: string) => wells.filter((w) => w.role === role).length;
     const flaggedRows = new Set(Object.keys(qc).map(Number));
     const flagged = (preview.plate?.wells ?? []).filter((w) =>
       w.readouts.some((r) => flaggedRows.has(r.row)),
@@ -367,7 +377,14 @@ function filePreview(
       sheet: part.sheet.name,
       label,
       labelSource,
-      wellCount: preview.plate?.wells.length ?? 0,
+      wellCount: wells.length,
+      format: preview.plate?.format ?? null,
+      roleCounts: {
+        negativeControl: count('vehicle'),
+        positiveControl: count('reference'),
+        test: count('test'),
+        empty: preview.emptyWells,
+      },
       ok: preview.ok,
       summary: preview.summary,
       fileProblems: preview.fileProblems.map((p) => ({ ...p, message: ofPlate(several, label, p.message) })),
@@ -375,6 +392,7 @@ function filePreview(
       facts: preview.facts,
       factWarnings: preview.factWarnings.map((w) => ofPlate(several, label, w)),
       qcFlaggedWells: flagged.length,
+      qcRulesNotApplied,
     };
   });
   const first = checked.parts[0]!.preview;
@@ -387,6 +405,7 @@ function filePreview(
   return {
     ...first,
     ...firstQc,
+    qcRulesNotApplied: rulesOfPlates(plates),
     ok: plates.every((p) => p.ok),
     fileProblems: plates.flatMap((p) => p.fileProblems),
     summary: {
@@ -407,6 +426,28 @@ function filePreview(
     factWarnings: plates.flatMap((p) => p.factWarnings),
     plates,
   };
+}
+
+/**
+ * The QC rules not applied on any plate of a file: a rule no plate applies is told as it is; a rule only
+ * some plates leave unapplied names those plates.
+ */
+function rulesOfPlates(plates: readonly PlateCheck[]): QcRuleNotApplied[] {
+  const byRule = new Map<string, { rule: QcRuleNotApplied; labels: string[] }>();
+  for (const plate of plates)
+    for (const rule of plate.qcRulesNotApplied) {
+      const seen = byRule.get(rule.rule) ?? { rule, labels: [] };
+      seen.labels.push(plate.label);
+      byRule.set(rule.rule, seen);
+    }
+  return [...byRule.values()].map(({ rule, labels }) =>
+    labels.length === plates.length
+      ? rule
+      : {
+          ...rule,
+          message: `${labels.length === 1 ? 'Plate' : 'Plates'} ${labels.map((l) => `"${l}"`).join(', ')}: ${rule.message}`,
+        },
+  );
 }
 
 const sum = <T>(items: readonly T[], value: (item: T) => number) =>

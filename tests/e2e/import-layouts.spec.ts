@@ -229,17 +229,37 @@ for (const c of CASES) {
   });
 }
 
-test('the wizard shows the stage of the work and keeps its buttons disabled while it runs', async ({
+/** A comma-separated export with one column left out (its header and every row's value). */
+function withoutColumn(csv: Buffer, header: string): Buffer {
+  const lines = csv.toString('utf8').split('\n');
+  const index = lines[0]!
+    .replace(/^\ufeff/, '')
+    .split(',')
+    .indexOf(header);
+  expect(index).toBeGreaterThan(0);
+  const kept = lines.map((line) =>
+    line === '' || line === '\r'
+      ? line
+      : line
+          .split(',')
+          .filter((_, i) => i !== index)
+          .join(','),
+  );
+  return Buffer.from(kept.join('\n'), 'utf8');
+}
+
+test('the wizard shows the stage of the work, keeps its buttons disabled while it runs, and names a QC rule not applied', async ({
   page,
 }) => {
   test.setTimeout(120_000);
   await signIn(page, DEMO.biologist.email, DEMO.biologist.password);
-  // The demo potassium export, made new for this run (the guess maps it whole).
+  // The demo potassium export, made new for this run (the guess maps it whole), without its series
+  // resistance column: the series-resistance rule is not applied, on the check step and on the plate.
   const path = join(folder, 'kv-stages.csv');
-  writeFileSync(path, freshPotassiumExport());
+  writeFileSync(path, withoutColumn(freshPotassiumExport(), 'Rs (MΩ)'));
   // Each request is held until the test has looked at the screen, so that the stage shown is certain.
   const held: Record<string, () => void> = {};
-  for (const step of ['inspect', 'commit'])
+  for (const step of ['inspect', 'preview', 'commit'])
     await page.route(`**/api/imports/${step}`, async (route) => {
       await new Promise<void>((release) => (held[step] = release));
       await route.continue();
@@ -259,7 +279,13 @@ test('the wizard shows the stage of the work and keeps its buttons disabled whil
   await expect(progress).toHaveCount(0);
 
   await page.getByRole('button', { name: 'Check every row' }).click();
+  await expect(progress).toContainText('Checking every row');
+  await expect(progress.locator('[aria-current="step"]')).toHaveText(/Checking every row/);
+  await expect(page.getByRole('button', { name: 'Checking…' })).toBeDisabled();
+  await expect.poll(() => held.preview !== undefined).toBe(true);
+  held.preview!();
   await expect(page.getByRole('button', { name: 'Store plate' })).toBeEnabled();
+  await expect(page.getByRole('region', { name: 'QC rules not applied' })).toContainText('series resistance');
   await page.getByLabel('Plate label').fill(`STAGES-${randomBytes(3).toString('hex')}`);
   await page.getByRole('button', { name: 'Store plate' }).click();
   await expect(progress).toContainText('Waiting for a worker');
@@ -270,4 +296,11 @@ test('the wizard shows the stage of the work and keeps its buttons disabled whil
   await expect.poll(() => held.commit !== undefined).toBe(true);
   held.commit!();
   await expect(page).toHaveURL(/\/plates\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+  // The plate's QC summary says so too, once the plate's analysis is stored.
+  const note = page.getByRole('note').filter({ hasText: 'QC rules not applied' });
+  await expect(async () => {
+    await page.reload();
+    await expect(note).toContainText('series resistance', { timeout: 2_000 });
+  }).toPass({ timeout: 60_000 });
+  await screenshot(page, 'import-rule-not-applied-plate');
 });

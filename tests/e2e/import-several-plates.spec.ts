@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect, test, type Page } from '@playwright/test';
 import { layout } from '../fixtures/export-layouts';
+import { truthRoleCounts } from '../support/layout-truth';
 import { DEMO, screenshot, signIn } from './support';
 
 /**
@@ -14,18 +15,21 @@ import { DEMO, screenshot, signIn } from './support';
  * layout, recognised by its header with no click on the mapping step, stored as two more plates.
  */
 
+/** The truth's count of one role summed over the file's plates. */
+const sumRoles = (role: 'negativeControl' | 'positiveControl' | 'test') =>
+  facts.plates.reduce((n, p) => n + truthRoleCounts(p.label)[role], 0);
+
 const folder = mkdtempSync(join(tmpdir(), 'gatewell-several-'));
 const written = layout('plate-column-tsv').write();
 const { facts } = written;
 
-/** The layout's file, or another file of it: one decimal value written one more (same header, new bytes). */
-function exportFile(name: string, bump: boolean): string {
+/**
+ * The layout's file, or another file of it: the same rows and a blank line more at its end (skipped on
+ * import), so that its bytes differ while every well, and so the truth, stays the same.
+ */
+function exportFile(name: string, another: boolean): string {
   let text = new TextDecoder().decode(written.bytes);
-  if (bump)
-    text = text.replace(
-      /(\t)(\d+\.\d+)(?=[\t\r\n])/,
-      (_all, sep: string, n: string) => sep + String(Number(n) + 1),
-    );
+  if (another) text = `${text}\n\n`;
   const path = join(folder, name);
   writeFileSync(path, text);
   return path;
@@ -48,12 +52,32 @@ async function checkAndStore(page: Page, name: string, templateName?: string) {
   await page.getByRole('button', { name: 'Check every row' }).click();
   const list = page.getByRole('region', { name: 'Plates in this file' });
   await expect(list.getByRole('heading', { name: 'Plates in this file (2)' })).toBeVisible();
+  // Each plate's own facts, from the truth: wells, format, wells by role, wells QC flags (exactly its
+  // bad wells), no QC rule left unapplied (the file has every QC readout), no errors.
   for (const [i, plate] of facts.plates.entries()) {
     await expect(list.getByLabel(`Label of plate ${i + 1}`)).toHaveValue(plate.label);
-    await expect(list.locator(`tr[data-plate="${plate.label}"] td`).nth(2)).toHaveText(
-      String(plate.wellCount),
+    const cells = list.locator(`tr[data-plate="${plate.label}"] td`);
+    await expect(cells.nth(2)).toHaveText(String(plate.wellCount));
+    await expect(cells.nth(3)).toHaveText(String(plate.format));
+    const roles = truthRoleCounts(plate.label);
+    await expect(cells.nth(4)).toHaveText(
+      `${roles.negativeControl} negative · ${roles.positiveControl} positive · ${roles.test} test · 0 empty`,
     );
+    await expect(cells.nth(5)).toHaveText(String(plate.badWells.length));
+    await expect(cells.nth(6)).toHaveText('none');
+    await expect(cells.nth(8)).toHaveText(/^No errors/);
   }
+  // The file's totals are sums over its plates, in the list and in the headline.
+  const wells = facts.plates.reduce((n, p) => n + p.wellCount, 0);
+  const totals = list.locator('tr[data-plate-total] td');
+  await expect(totals.nth(0)).toHaveText(String(wells));
+  await expect(totals.nth(2)).toHaveText(
+    `${sumRoles('negativeControl')} negative · ${sumRoles('positiveControl')} positive · ${sumRoles('test')} test · 0 empty`,
+  );
+  await expect(totals.nth(3)).toHaveText(String(facts.plates.reduce((n, p) => n + p.badWells.length, 0)));
+  await expect(page.getByLabel('Check totals')).toContainText(`Plates${facts.plates.length}`);
+  await expect(page.getByLabel('Check totals')).toContainText(`Wells, all plates${wells}`);
+  await expect(page.getByText(`The rows below are those of plate ${facts.plates[0]!.label}`)).toBeVisible();
   if (templateName) await page.getByLabel('Save this mapping as a template (optional)').fill(templateName);
   await screenshot(page, `import-several-plates-${name}-check`);
   const storeButton = page.getByRole('button', { name: 'Store 2 plates' });

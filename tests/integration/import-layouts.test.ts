@@ -2,22 +2,23 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import * as XLSX from 'xlsx';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
+import { columnMappingSchema } from '@/lib/imports/mapping-schema';
 import { commitImport, inspectUpload, previewImport } from '@/lib/plates/import-service';
-import { Plate } from '@/models';
+import { Plate, Well } from '@/models';
 import { layout, type FileFacts } from '../fixtures/export-layouts';
-import type { ColumnMappingInput } from '@/lib/imports/mapping-schema';
-import { Well } from '@/models';
-import type { TableReadBack } from '../fixtures/export-layouts/layout-kit';
-import { expectedIc50s, PLATES, type PlateName, type Target } from '../fixtures/export-layouts/truth';
-import { fitsCurrent } from '../support/jobs';
-import { MAPPINGS, SINGLE_PLATE_LAYOUTS, type SinglePlateLayout } from '../fixtures/export-layouts/mappings';
+import {
+  MAPPINGS,
+  SEVERAL_PLATE_LAYOUTS,
+  SINGLE_PLATE_LAYOUTS,
+  type SinglePlateLayout,
+} from '../fixtures/export-layouts/mappings';
 import { expectPlateHoldsTruth, layoutScreensSetup, type LayoutScreen } from '../support/layout-imports';
-import { fileTargets } from '../support/layout-truth';
+import { fileTargets, plateExpectedIc50, truthRoleCounts } from '../support/layout-truth';
 
 /**
  * The invented export layouts (tests/fixtures/export-layouts) through Gatewell's import service, each with
  * its mapping as a user writes it once (tests/fixtures/export-layouts/mappings.ts, shared with the script's
- * test, import-plate-cli-layouts.test.ts). The two layouts of several plates per file are mapped below, as a user maps them once.
+ * test, import-plate-cli-layouts.test.ts), the layouts of several plates per file among them.
  */
 
 /**
@@ -35,70 +36,6 @@ const RESHAPED: SinglePlateLayout[] = [
 const IMPORTABLE = SINGLE_PLATE_LAYOUTS.filter(
   (name) => !RESHAPED.includes(name) && name !== 'cumulative-rows',
 );
-
-interface Importable {
-  name: string;
-  /** Header of each field's column in the file. */
-  columns: ColumnMappingInput['columns'];
-  /**
-   * Whether the file's target words are the screen's (up to case and punctuation), or one target is named,
-   * or the target column holds the file's own words, mapped to the screen's targets.
-   */
-  targets: 'column' | 'fixed' | 'mapped';
-  /** How a wide or grid sheet is laid out, and its header row (a grid's: the first grid's title). */
-  layout?: ColumnMappingInput['layout'];
-  headerRow?: number;
-}
-
-/** The mapping of a layout: the test's columns, the QC columns and units from the file's facts. */
-function mappingFor(importable: Importable, facts: FileFacts): ColumnMappingInput {
-  const targets = Object.keys(facts.targetWords) as Target[];
-  const { units } = facts;
-  // A table's QC columns come from the file's facts; a grid's are the test's own (its blocks' titles).
-  const table = facts.readBack.shape === 'table' ? (facts.readBack as TableReadBack) : null;
-  return {
-    ...(importable.layout ? { layout: importable.layout } : {}),
-    headerRow: importable.headerRow ?? table!.headerRow,
-    columns: {
-      ...(table
-        ? {
-            sealResistance: table.sealResistance,
-            seriesResistance: table.seriesResistance,
-            capacitance: table.capacitance,
-          }
-        : {}),
-      ...importable.columns,
-    },
-    units: {
-      concentration: units.concentration,
-      controlCurrent: units.current,
-      compoundCurrent: units.current,
-      sealResistance: units.sealResistance,
-      seriesResistance: units.seriesResistance,
-      capacitance: units.capacitance,
-      ...(units.block ? { block: units.block } : {}),
-    },
-    fixedTarget: importable.targets === 'fixed' ? targets[0]! : null,
-    // The file's own target words, mapped to the screen's targets.
-    targetValues:
-      importable.targets === 'mapped'
-        ? Object.fromEntries(targets.map((target) => [facts.targetWords[target]!, target]))
-        : {},
-    // The file's way of writing a missing value, where Gatewell does not read it so by default.
-    missing: { notANumber: facts.missingMarker === 'NaN' },
-    // The file's own words for the roles, in the role column or as the compound identifier.
-    roleValues: {
-      [facts.roleWords.vehicle]: 'vehicle',
-      [facts.roleWords.reference]: 'reference',
-      [facts.roleWords.test]: 'test',
-    },
-    controls: {
-      negative: [facts.roleWords.vehicle],
-      positive: [facts.roleWords.reference],
-      zeroConcentration: false,
-    },
-  };
-}
 
 /**
  * Another file of the same layout: one decimal value of the data written one
@@ -218,116 +155,51 @@ describe('invented export layouts through the import service', () => {
 
   /**
    * The two invented layouts of several plates (issue 18): a sheet per plate, and a plate column. Mapped
-   * once (the file's columns, units and words, and how its plates are told apart), each file is stored as a
-   * plate per plate of the truth in one transaction; QC flags exactly each plate's bad wells, every
-   * measurable IC50 of each plate is within ±15 % of the truth and its CI holds it, and the template saved
-   * with the first file reads a second file of the layout by its fingerprint with no edit.
+   * once (MAPPINGS: the file's columns, units and words, and how its plates are told apart), each file is
+   * stored as a plate per plate of the truth in one transaction; each plate is checked against its own
+   * truth (expectPlateHoldsTruth with that plate's IC50s), and the template saved with the first file
+   * reads a second file of the layout by its fingerprint with no edit.
    */
-  const SEVERAL: (Importable & { plates: ColumnMappingInput['plates'] })[] = [
-    {
-      name: 'plates-per-sheet',
-      targets: 'mapped',
-      plates: { by: 'sheet' },
-      columns: {
-        well: 'Well',
-        role: 'Well type',
-        compound: 'Compound',
-        concentration: 'Conc (uM)',
-        target: 'Target',
-        controlCurrent: 'I pre (pA)',
-        compoundCurrent: 'I post (pA)',
-      },
-    },
-    {
-      name: 'plate-column-tsv',
-      targets: 'mapped',
-      plates: { by: 'column', column: 'Plate barcode' },
-      columns: {
-        well: 'Well',
-        role: 'Role',
-        compound: 'Compound',
-        concentration: 'Conc (nM)',
-        target: 'Target',
-        controlCurrent: 'I control (nA)',
-        compoundCurrent: 'I compound (nA)',
-      },
-    },
-  ];
-
-  /** QC flags exactly the plate's bad wells; each measurable IC50 of its plan within ±15 % and inside its CI. */
-  async function expectPlateMatchesTruth(
-    plateId: string,
-    truth: FileFacts['plates'][number],
-    targets: Target[],
-  ) {
-    await fitsCurrent(plateId);
-    const stored = await Plate.findByPk(plateId, { rejectOnEmpty: true });
-    expect(stored.label).toBe(truth.label);
-    expect(stored.format).toBe(truth.format);
-    expect(await Well.count({ where: { plateId } })).toBe(truth.wellCount);
-    const flagged = await db().query<{ position: string }>(
-      `select distinct w.position from readouts r join wells w on w.id = r.well_id
-         where w.plate_id = :plateId and jsonb_array_length(r.qc_reasons) > 0 order by w.position`,
-      { replacements: { plateId }, type: 'SELECT' as never },
-    );
-    expect(flagged.map((f) => f.position)).toEqual(truth.badWells.map((b) => b.well).sort());
-    const fits = await db().query<{
-      identifier: string;
-      target: string;
-      status: string;
-      ic50: number;
-      low: number;
-      high: number;
-    }>(
-      `select c.identifier, t.name as target, f.status, f.ic50_um as ic50, f.ic50_ci_low_um as low,
-              f.ic50_ci_high_um as high
-         from fits f join compounds c on c.id = f.compound_id join targets t on t.id = f.target_id
-         where f.plate_id = :plateId`,
-      { replacements: { plateId }, type: 'SELECT' as never },
-    );
-    const name = (Object.keys(PLATES) as PlateName[]).find((n) => PLATES[n].barcode === truth.label)!;
-    const expected = expectedIc50s(PLATES[name], targets);
-    expect(expected.length).toBeGreaterThan(0);
-    for (const ic50 of expected) {
-      const label = `${truth.label}: ${ic50.compound} on ${ic50.target}`;
-      const fit = fits.find((f) => f.identifier === ic50.compound && f.target === ic50.target);
-      expect(fit?.status, label).toBe('fitted');
-      expect(fit!.ic50 / ic50.ic50_uM, label).toBeGreaterThanOrEqual(0.85);
-      expect(fit!.ic50 / ic50.ic50_uM, label).toBeLessThanOrEqual(1.15);
-      expect(fit!.low, label).toBeLessThanOrEqual(ic50.ic50_uM);
-      expect(fit!.high, label).toBeGreaterThanOrEqual(ic50.ic50_uM);
-    }
-  }
-
   const tableCount = async (table: string) =>
     (
       await db().query<{ n: number }>(`select count(*)::int as n from ${table}`, { type: 'SELECT' as never })
     )[0]!.n;
 
-  test.each(SEVERAL)(
-    '$name: mapped once, stored as a plate each (QC, IC50s, CIs), and its template reads a second file',
-    async (importable) => {
-      const file = layout(importable.name).write();
+  test.each(SEVERAL_PLATE_LAYOUTS)(
+    '%s: mapped once, stored as a plate each (QC, IC50s, CIs), and its template reads a second file',
+    async (layoutName) => {
+      const file = layout(layoutName).write();
       const { facts } = file;
-      const targets = Object.keys(facts.targetWords) as Target[];
       const screenId = screenFor(facts).id;
-      const mapping = { ...mappingFor(importable, facts), plates: importable.plates };
+      const mapping = MAPPINGS[layoutName];
+      const split = columnMappingSchema.parse(mapping).plates;
       const upload = { screenId, bytes: file.bytes, filename: file.filename, mediaType: file.mediaType };
       const inspection = await inspectUpload(biologist, upload);
       // The guess proposes how the plates are told apart.
       const guessed = inspection.sheets.find((s) => s.name === facts.plates[0]!.sheet)!.guess.mapping.plates;
-      expect(guessed).toEqual({ by: importable.plates!.by, column: importable.plates!.column ?? null });
+      expect(guessed).toEqual(split);
       const draftId = inspection.draftId!;
       const sheet = facts.plates[0]!.sheet;
       const preview = await previewImport(biologist, { draftId, sheet, mapping });
       expect(preview.fileProblems).toEqual([]);
-      expect(preview.plates.map((p) => [p.label, p.wellCount, p.ok])).toEqual(
-        facts.plates.map((p) => [p.label, p.wellCount, true]),
+      // Each plate's own facts on the check step, from its truth: QC flags exactly its bad wells.
+      expect(
+        preview.plates.map((p) => [p.label, p.wellCount, p.format, p.roleCounts, p.qcFlaggedWells, p.ok]),
+      ).toEqual(
+        facts.plates.map((p) => [
+          p.label,
+          p.wellCount,
+          p.format,
+          truthRoleCounts(p.label),
+          p.badWells.length,
+          true,
+        ]),
       );
+      expect(preview.plates.map((p) => p.qcRulesNotApplied)).toEqual(facts.plates.map(() => []));
       const files = await tableCount('uploaded_files');
       const audits = await tableCount(`audit_events where action = 'import'`);
       const mails = await tableCount(`mail_outbox where kind = 'plate_imported'`);
-      const name = `${importable.name} layout`;
+      const name = `${layoutName} layout`;
       const committed = await commitImport(biologist, {
         draftId,
         sheet,
@@ -336,8 +208,11 @@ describe('invented export layouts through the import service', () => {
         templateName: name,
       });
       expect(committed.plates.map((p) => p.label)).toEqual(facts.plates.map((p) => p.label));
-      for (const [i, truth] of facts.plates.entries())
-        await expectPlateMatchesTruth(committed.plates[i]!.plateId, truth, targets);
+      for (const [i, truth] of facts.plates.entries()) {
+        const { plateId } = committed.plates[i]!;
+        expect((await Plate.findByPk(plateId, { rejectOnEmpty: true })).label).toBe(truth.label);
+        await expectPlateHoldsTruth(plateId, truth, plateExpectedIc50(truth.label, facts));
+      }
       // One file record shared by the plates, an audit event per plate, one notice per chemist for the file.
       expect(await tableCount('uploaded_files')).toBe(files + 1);
       const shared = await Plate.findAll({ where: { id: committed.plates.map((p) => p.plateId) } });
@@ -356,7 +231,7 @@ describe('invented export layouts through the import service', () => {
       expect(again.duplicateOf?.plateId).toBe(committed.plates[0]!.plateId);
 
       // A second file of the layout: recognised by the template, previewed and stored with no edit.
-      const second = secondFile(layout(importable.name).write());
+      const second = secondFile(layout(layoutName).write());
       const next = await inspectUpload(biologist, {
         screenId,
         bytes: second.bytes,
@@ -378,6 +253,74 @@ describe('invented export layouts through the import service', () => {
     },
   );
 
+  test('a barcode in a fixed cell of each plate sheet labels each plate with its own barcode', async () => {
+    // The sheet-per-plate file with its sheets renamed and each plate's barcode written in cell B1 of its
+    // own sheet, two rows above the table: the mapping points at cell B1 of the first plate's sheet.
+    const file = layout('plates-per-sheet').write();
+    const { facts } = file;
+    const book = XLSX.read(file.bytes, { type: 'array' });
+    const renamed = XLSX.utils.book_new();
+    facts.plates.forEach((plate, i) => {
+      const rows = XLSX.utils.sheet_to_json<unknown[]>(book.Sheets[plate.sheet]!, { header: 1 });
+      const withBarcode = [['Barcode', plate.label], [], ...rows];
+      XLSX.utils.book_append_sheet(renamed, XLSX.utils.aoa_to_sheet(withBarcode), `Run ${i + 1}`);
+    });
+    const bytes = new Uint8Array(XLSX.write(renamed, { type: 'array', bookType: 'xlsx' }) as ArrayBuffer);
+    const mapping = {
+      ...MAPPINGS['plates-per-sheet'],
+      headerRow: 3,
+      facts: { barcode: { kind: 'cell' as const, sheet: 'Run 1', address: 'B1' } },
+    };
+    const inspection = await inspectUpload(biologist, {
+      screenId: screenFor(facts).id,
+      bytes,
+      filename: 'two-runs.xlsx',
+      mediaType: file.mediaType,
+    });
+    const request = { draftId: inspection.draftId!, sheet: 'Run 1', mapping, label: 'unused' };
+    const preview = await previewImport(biologist, request);
+    expect(preview.fileProblems).toEqual([]);
+    expect(preview.plates.map((p) => [p.sheet, p.label, p.labelSource, p.facts.barcode])).toEqual(
+      facts.plates.map((p, i) => [`Run ${i + 1}`, p.label, 'barcode', p.label]),
+    );
+    const committed = await commitImport(biologist, request);
+    const stored = await Plate.findAll({ where: { id: committed.plates.map((p) => p.plateId) } });
+    expect(stored.map((p) => p.label).sort()).toEqual(facts.plates.map((p) => p.label).sort());
+  });
+
+  test('a QC readout absent from one plate only: that plate reports its rule not applied, named on the file', async () => {
+    // The plate-column file with the series resistance of every row of its second plate written as missing.
+    const file = layout('plate-column-tsv').write();
+    const { facts } = file;
+    const [first, second] = facts.plates;
+    const lines = new TextDecoder().decode(file.bytes).split('\n');
+    const rs = lines[0]!.split('\t').indexOf('Rs (MOhm)');
+    expect(rs).toBeGreaterThan(0);
+    const edited = lines.map((line) => {
+      if (!line.startsWith(`${second!.label}\t`)) return line;
+      const cells = line.split('\t');
+      cells[rs] = facts.missingMarker;
+      return cells.join('\t');
+    });
+    const inspection = await inspectUpload(biologist, {
+      screenId: screenFor(facts).id,
+      bytes: new TextEncoder().encode(edited.join('\n')),
+      filename: file.filename,
+      mediaType: file.mediaType,
+    });
+    const preview = await previewImport(biologist, {
+      draftId: inspection.draftId!,
+      sheet: first!.sheet,
+      mapping: MAPPINGS['plate-column-tsv'],
+    });
+    expect(preview.plates.map((p) => p.qcRulesNotApplied.map((r) => r.rule))).toEqual([
+      [],
+      ['series_resistance'],
+    ]);
+    expect(preview.qcRulesNotApplied.map((r) => r.rule)).toEqual(['series_resistance']);
+    expect(preview.qcRulesNotApplied[0]!.message).toMatch(new RegExp(`^Plate "${second!.label}": `));
+  });
+
   test('a fault in one plate of the file stores no plate, naming that plate; row counts unchanged', async () => {
     const file = layout('plate-column-tsv').write();
     const { facts } = file;
@@ -391,10 +334,7 @@ describe('invented export layouts through the import service', () => {
     lines[at] = cells.join('\t');
     const bytes = new TextEncoder().encode(lines.join('\n'));
     const screenId = screenFor(facts).id;
-    const mapping = {
-      ...mappingFor(SEVERAL[1]!, facts),
-      plates: SEVERAL[1]!.plates,
-    };
+    const mapping = MAPPINGS['plate-column-tsv'];
     const inspection = await inspectUpload(biologist, {
       screenId,
       bytes,

@@ -1,5 +1,5 @@
-// scripts/import-plate.ts --mapping FILE.json as a child process on every invented single-plate export
-// layout (tests/fixtures/export-layouts), each with its mapping as a user writes it once
+// scripts/import-plate.ts --mapping FILE.json as a child process on every invented export
+// layout (of one plate or of several) (tests/fixtures/export-layouts), each with its mapping as a user writes it once
 // (tests/fixtures/export-layouts/mappings.ts, the one import-layouts.test.ts gives the import service):
 // (a) --offline --dry-run --json with no database settings at all, the printed facts against what the
 // layout's writer and the truth recorded; (b) committed into the test database as a biologist, the
@@ -18,17 +18,11 @@ import {
   MAPPINGS,
   SEVERAL_PLATE_LAYOUTS,
   SINGLE_PLATE_LAYOUTS,
-  type SinglePlateLayout,
+  type MappedLayout,
 } from '../fixtures/export-layouts/mappings';
 import { expectPlateHoldsTruth, layoutScreensSetup, type LayoutScreen } from '../support/layout-imports';
-import { truthRoleCounts } from '../support/layout-truth';
+import { plateExpectedIc50, truthRoleCounts } from '../support/layout-truth';
 import { runScript } from '../support/run-script';
-
-/**
- * The layouts of several plates per file, not run through the script here yet: one mapping reads one
- * plate today. Add them to the tests below (with their mappings) once the script reads several plates.
- */
-const NOT_YET_THROUGH_THE_SCRIPT: readonly string[] = SEVERAL_PLATE_LAYOUTS;
 
 /** Each run is a fresh Node process (several seconds on a busy machine), and a commit waits for its fits. */
 const SCRIPT_TEST_MS = 180_000;
@@ -37,7 +31,7 @@ const dir = mkdtempSync(join(tmpdir(), 'gatewell-import-cli-layouts-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 /** A layout's file and its mapping written to a folder of their own; their paths. */
-function writeLayout(name: SinglePlateLayout): { written: LayoutFile; file: string; mapping: string } {
+function writeLayout(name: MappedLayout): { written: LayoutFile; file: string; mapping: string } {
   const written = layout(name).write();
   const folder = join(dir, name);
   mkdirSync(folder, { recursive: true });
@@ -62,11 +56,66 @@ function expectedLabel(written: LayoutFile) {
 /** The file's target values as it writes them, sorted. */
 const targetWords = (facts: FileFacts) => Object.values(facts.targetWords).sort();
 
-test('every layout is either run through the script here or listed as not yet', () => {
-  expect([...SINGLE_PLATE_LAYOUTS, ...NOT_YET_THROUGH_THE_SCRIPT].sort()).toEqual(
+test('every layout is run through the script here, of one plate or of several', () => {
+  expect([...SINGLE_PLATE_LAYOUTS, ...SEVERAL_PLATE_LAYOUTS].sort()).toEqual(
     LAYOUTS.map((l) => l.name).sort(),
   );
   for (const name of SINGLE_PLATE_LAYOUTS) expect(layout(name).write().facts.plates, name).toHaveLength(1);
+  for (const name of SEVERAL_PLATE_LAYOUTS) expect(layout(name).write().facts.plates, name).toHaveLength(2);
+});
+
+/**
+ * Where each plate of a several-plate layout takes its label with no --label: the sheet's name (a sheet
+ * per plate, each named by its barcode) or its value in the plate column (the barcode).
+ */
+const severalLabelSource = (name: MappedLayout) =>
+  MAPPINGS[name].plates?.by === 'column' ? 'column' : 'sheet';
+
+describe('import-plate --offline --dry-run --json --mapping on the layouts of several plates', () => {
+  test.each(SEVERAL_PLATE_LAYOUTS)(
+    '%s: the file and each plate (label, wells, roles, unit, targets, QC rules) as the writer recorded them',
+    (name) => {
+      const { written, file, mapping } = writeLayout(name);
+      const { facts } = written;
+      const out = runScript([file, '--offline', '--dry-run', '--json', '--mapping', mapping], {
+        offline: true,
+      });
+      expect(out.stderr).toBe('');
+      expect(out.code).toBe(0);
+      const printed = JSON.parse(out.stdout) as Record<string, unknown> & {
+        plates: (Record<string, unknown> & { targets: string[] })[];
+      };
+      // The top-level keys are the first plate's, but errors, warnings and unregistered compounds: the file's.
+      expect(printed).toMatchObject({
+        file: written.filename,
+        template: null,
+        plateCount: facts.plates.length,
+        plateLabel: facts.plates[0]!.label,
+        unregisteredCompounds: null,
+        errors: [],
+        warnings: [],
+      });
+      expect(printed.plates).toHaveLength(facts.plates.length);
+      for (const [i, plate] of facts.plates.entries()) {
+        expect(printed.plates[i], plate.label).toMatchObject({
+          key: plate.label,
+          sheet: plate.sheet,
+          plateLabel: plate.label,
+          labelSource: severalLabelSource(name),
+          plateFormat: plate.format,
+          wellCount: plate.wellCount,
+          roleCounts: truthRoleCounts(plate.label),
+          concentrationUnit: facts.units.concentration,
+          qcRulesNotApplied: [],
+          unregisteredCompounds: null,
+          errors: [],
+          warnings: [],
+        });
+        expect([...printed.plates[i]!.targets].sort(), plate.label).toEqual(targetWords(facts));
+      }
+    },
+    SCRIPT_TEST_MS,
+  );
 });
 
 describe('import-plate --offline --dry-run --json --mapping on every single-plate layout', () => {
@@ -148,6 +197,48 @@ describe('import-plate --mapping committed into the database, read back against 
       expect(stored.screenId).toBe(screen.id);
       expect(stored.importedBy).toBe(biologist.id);
       await expectPlateHoldsTruth(stored.id, plate, facts.expectedIc50);
+    },
+    SCRIPT_TEST_MS,
+  );
+
+  test.each(SEVERAL_PLATE_LAYOUTS)(
+    '%s: stored as a plate each; each plate read back against its own truth',
+    async (name) => {
+      const { written, file, mapping } = writeLayout(name);
+      const { facts } = written;
+      const screen = screenFor(facts);
+      const out = runScript([
+        file,
+        '--screen',
+        screen.name,
+        '--as',
+        biologist.email,
+        '--mapping',
+        mapping,
+        '--json',
+      ]);
+      expect(out.stderr).toBe('');
+      expect(out.code).toBe(0);
+      const printed = JSON.parse(out.stdout) as Record<string, unknown> & {
+        plateId: string;
+        plates: { plateId: string; plateLabel: string; wellCount: number }[];
+      };
+      expect(printed).toMatchObject({
+        plateCount: facts.plates.length,
+        unregisteredCompounds: [],
+        errors: [],
+      });
+      expect(printed.plates.map((p) => [p.plateLabel, p.wellCount])).toEqual(
+        facts.plates.map((p) => [p.label, p.wellCount]),
+      );
+      expect(printed.plateId).toBe(printed.plates[0]!.plateId);
+      for (const [i, plate] of facts.plates.entries()) {
+        const stored = await Plate.findByPk(printed.plates[i]!.plateId, { rejectOnEmpty: true });
+        expect(stored.label).toBe(plate.label);
+        expect(stored.screenId).toBe(screen.id);
+        expect(stored.importedBy).toBe(biologist.id);
+        await expectPlateHoldsTruth(stored.id, plate, plateExpectedIc50(plate.label, facts));
+      }
     },
     SCRIPT_TEST_MS,
   );

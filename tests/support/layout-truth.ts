@@ -1,7 +1,7 @@
 // What the truth of the invented export layouts (tests/fixtures/export-layouts) says an import of a
 // file must find, in the names of an import's facts (lib/plates/import-facts.ts); no database needed.
 import type { FileFacts } from '../fixtures/export-layouts/layout-kit';
-import { PLATES, plate, type PlateName, type Target } from '../fixtures/export-layouts/truth';
+import { expectedIc50s, PLATES, plate, type PlateName, type Target } from '../fixtures/export-layouts/truth';
 
 /** The screen targets a file records, in the truth's order. */
 export function fileTargets(facts: FileFacts): Target[] {
@@ -20,4 +20,11 @@ export function truthRoleCounts(label: string) {
     test: count('test'),
     empty: 0,
   };
+}
+
+/** The IC50s the truth expects of one plate of a file (by its barcode): each measurable compound × target. */
+export function plateExpectedIc50(label: string, facts: FileFacts): FileFacts['expectedIc50'] {
+  const name = (Object.keys(PLATES) as PlateName[]).find((n) => PLATES[n].barcode === label);
+  if (!name) throw new RangeError(`no plate of the truth has the barcode ${label}`);
+  return expectedIc50s(PLATES[name], fileTargets(facts));
 }

@@ -4,6 +4,7 @@ import {
   columnMappingSchema,
   type ColumnMappingInput,
 } from '@/lib/imports/mapping-schema';
+import { readPlateFacts } from '@/lib/imports/plate-facts';
 import { guessPlateSplit, splitPlates } from '@/lib/imports/split-plates';
 import type { Cell, SheetData } from '@/lib/imports/spreadsheet-types';
 import { validatePlateSheet } from '@/lib/imports/validate-plate-sheet';
@@ -76,6 +77,70 @@ describe('a sheet per plate', () => {
     expect(split.ok && split.parts.map((p) => [p.label, p.labelSource])).toEqual([
       ['BC-001', 'barcode'],
       ['BC-002', 'barcode'],
+    ]);
+  });
+
+  test('a barcode and a run date in fixed cells are read on each plate sheet, not on the first one', () => {
+    const withCells = (name: string, code: string, date: string) =>
+      sheet(name, [['Barcode', code, null, 'Run date', date], [], HEADER, ...wells(code)]);
+    const mapping = columnMappingDraftSchema.parse({
+      ...BASE,
+      headerRow: 3,
+      plates: { by: 'sheet' },
+      facts: {
+        barcode: { kind: 'cell', sheet: 'Plate 1', address: 'B1' },
+        runDate: { kind: 'cell', sheet: 'Plate 1', address: 'E1' },
+      },
+    });
+    const sheets = [
+      info,
+      withCells('Plate 1', 'BC-101', '2026-04-17'),
+      withCells('Plate 2', 'BC-102', '2026-04-18'),
+    ];
+    const split = splitPlates(sheets, 'Plate 1', mapping);
+    expect(split.ok).toBe(true);
+    if (!split.ok) return;
+    expect(split.parts.map((p) => [p.key, p.label, p.labelSource])).toEqual([
+      ['Plate 1', 'BC-101', 'barcode'],
+      ['Plate 2', 'BC-102', 'barcode'],
+    ]);
+    expect(split.parts.map((p) => readPlateFacts(sheets, p.mapping))).toEqual([
+      { facts: { barcode: 'BC-101', runDate: '2026-04-17' }, warnings: [] },
+      { facts: { barcode: 'BC-102', runDate: '2026-04-18' }, warnings: [] },
+    ]);
+  });
+
+  test("a plate sheet without the barcode is labelled by its sheet, never by another plate's barcode", () => {
+    const mapping = columnMappingDraftSchema.parse({
+      ...BASE,
+      headerRow: 3,
+      plates: { by: 'sheet' },
+      facts: { barcode: { kind: 'key', sheet: 'S1', key: 'Barcode' } },
+    });
+    const first = sheet('S1', [['Barcode', 'BC-001'], [], HEADER, ...wells('A')]);
+    const second = sheet('S2', [['Notes', 'none'], [], HEADER, ...wells('B')]);
+    const split = splitPlates([first, second], 'S1', mapping);
+    expect(split.ok && split.parts.map((p) => [p.label, p.labelSource])).toEqual([
+      ['BC-001', 'barcode'],
+      ['S2', 'sheet'],
+    ]);
+    // The second plate's check says where the barcode was looked for.
+    expect(split.ok && readPlateFacts([first, second], split.parts[1]!.mapping).warnings).toEqual([
+      'The plate barcode was not found beside the key "Barcode" on sheet "S2".',
+    ]);
+  });
+
+  test('one barcode on a run sheet the plates share labels no plate: each is labelled by its sheet', () => {
+    const run = sheet('Run', [['Plate ID', 'RUN-7']]);
+    const mapping = columnMappingDraftSchema.parse({
+      ...BASE,
+      plates: { by: 'sheet' },
+      facts: { barcode: { kind: 'key', sheet: 'Run', key: 'Plate ID' } },
+    });
+    const split = splitPlates([run, a, b], 'PLATE-A', mapping);
+    expect(split.ok && split.parts.map((p) => [p.label, p.labelSource])).toEqual([
+      ['PLATE-A', 'sheet'],
+      ['PLATE-B', 'sheet'],
     ]);
   });
 
