@@ -13,15 +13,7 @@ set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 
 instance=test-year
-export GATEWELL_PG_TEST_PORT=${GATEWELL_PG_TEST_PORT:-54590}
-port=${GATEWELL_SCALE_PORT:-4350}
-DATABASE_URL=$(bash scripts/pg.sh url "$instance")
-DATABASE_OWNER_URL=$(bash scripts/pg.sh owner-url "$instance")
-export DATABASE_URL DATABASE_OWNER_URL
-export SESSION_SECRET=${LOAD_SESSION_SECRET:-gatewell-load-secret-0123456789-abcdefghij}
-export APP_URL=http://127.0.0.1:$port
-export GATEWELL_DIST_DIR=.next-load
-export GATEWELL_MAIL_SENDER=off
+load_setup "$instance" 54590 "${GATEWELL_SCALE_PORT:-4350}"
 export GATEWELL_JOB_WORKER=off
 probes=.var/scale/probes.json
 
@@ -39,10 +31,6 @@ stop_all() {
   fi
 }
 trap stop_all EXIT
-
-health_ok() {
-  node -e "fetch(process.argv[1]).then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))" "$APP_URL/api/health"
-}
 
 ensure_node_modules
 if health_ok; then
@@ -71,25 +59,13 @@ say "vacuum and analyse as the owner"
 /usr/lib/postgresql/15/bin/psql "$DATABASE_OWNER_URL" -qc 'vacuum (analyze)'
 unset DATABASE_OWNER_URL
 
-if [ -n "${GATEWELL_LOAD_REUSE_BUILD:-}" ] && [ -f "$GATEWELL_DIST_DIR/BUILD_ID" ]; then
-  say "reusing the build in $GATEWELL_DIST_DIR/ (GATEWELL_LOAD_REUSE_BUILD)"
-else
-  say "production build into $GATEWELL_DIST_DIR/ (log in .var/load-build.log)"
-  cp tsconfig.json .var/load-tsconfig.json
-  npx next build >.var/load-build.log 2>&1 || { cp .var/load-tsconfig.json tsconfig.json; tail -n 40 .var/load-build.log; say "the build failed"; exit 2; }
-  cp .var/load-tsconfig.json tsconfig.json
-fi
+load_build
 
 processes=${GATEWELL_WEB_PROCESSES:-$(nproc 2>/dev/null || echo 1)}
 say "serving on $APP_URL with $processes web process(es) (log in .var/scale/server.log)"
 node scripts/serve.mjs --port "$port" --hostname 127.0.0.1 --processes "$processes" >.var/scale/server.log 2>&1 &
 server_pid=$!
-for _ in $(seq 120); do
-  health_ok && break
-  kill -0 "$server_pid" 2>/dev/null || { tail -n 20 .var/scale/server.log; say "the server stopped"; exit 2; }
-  sleep 0.5
-done
-health_ok || { say "no healthy answer from $APP_URL/api/health within 60 s"; exit 2; }
+wait_healthy "$server_pid" .var/scale/server.log
 
 set +e
 node --import tsx scripts/load-test.ts --url "$APP_URL" --server-pid "$server_pid" --readers 50 --importers 0 \

@@ -141,11 +141,19 @@ export async function selectNamesOf(ids: string[]): Promise<{ id: string; name: 
   );
 }
 
-// SQL for speed: the distinct kinds of event of the whole trail, read as plain values.
+// SQL for speed: the distinct kinds of event of the whole trail by a loose index scan through
+// audit_events_action (as selectAuditEntityTypes below), a few index probes instead of reading every event.
 export async function selectAuditActions(): Promise<{ action: string }[]> {
-  return db().query<{ action: string }>('select distinct action from audit_events order by 1', {
-    type: QueryTypes.SELECT,
-  });
+  return db().query<{ action: string }>(
+    `with recursive actions as (
+       (select action from audit_events order by action limit 1)
+       union all
+       select (select a.action from audit_events a where a.action > t.action order by a.action limit 1)
+         from actions t where t.action is not null
+     )
+     select action from actions where action is not null order by action`,
+    { type: QueryTypes.SELECT },
+  );
 }
 
 // SQL: the most recent plate labels and every compound identifier, for the filter's suggestions.

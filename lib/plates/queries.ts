@@ -197,10 +197,11 @@ function filterSql(filter: PlateFilter): { where: string; replacements: Record<s
 }
 
 /**
- * SQL for speed (README, Load): plates, newest first, with well counts and the number of wells that fail QC on any target. The
- * counts are worked out once for the returned plates together, grouped by plate (not one subquery per
- * plate and well, whose plan depends on table statistics that lag behind a stream of imports); a well
- * fails when one of its readouts has QC reasons (found through the partial index readouts_failing_well).
+ * SQL for speed (README, Load): plates, newest first, with well counts and the number of wells that fail QC
+ * on any target (a well fails when one of its readouts has QC reasons). Both counts are read from
+ * plate_well_tallies, which triggers keep true with every change to the plate's wells and readouts
+ * (migrations/20261211001100-plate-well-tallies-and-filter-indexes.js): counting them per page read
+ * 19,200 wells and took 870 ms on a year of data (docs/performance.md, "A year of data").
  */
 export async function selectPlates(
   filter: PlateFilter,
@@ -212,26 +213,16 @@ export async function selectPlates(
   return db().query<PlateSummary>(
     `with page as materialized (
        select p.id from plates p ${sql.where} order by p.imported_at desc, p.id desc limit :limit offset :offset
-     ),
-     well_counts as (
-       select w.plate_id, count(*)::int as n from wells w where w.plate_id in (select id from page) group by w.plate_id
-     ),
-     failing_wells as (
-       select w.plate_id, count(distinct r.well_id)::int as n
-         from readouts r join wells w on w.id = r.well_id
-        where jsonb_array_length(r.qc_reasons) > 0 and w.plate_id in (select id from page)
-        group by w.plate_id
      )
      select p.id, p.label, p.format, p.state, s.name as "screenName", u.name as "importedBy",
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
-            coalesce(wc.n, 0) as "wellCount", coalesce(fw.n, 0) as "failingWellCount",
+            coalesce(t.wells, 0) as "wellCount", coalesce(t.failing_wells, 0) as "failingWellCount",
             (select count(*)::int from jsonb_array_elements(p.qc_summary) q where (q -> 'zPrime' ->> 'passes')::boolean is not true) as "failingTargets"
        from page
        join plates p on p.id = page.id
        join screens s on s.id = p.screen_id
        join users u on u.id = p.imported_by
-       left join well_counts wc on wc.plate_id = p.id
-       left join failing_wells fw on fw.plate_id = p.id
+       left join plate_well_tallies t on t.plate_id = p.id
       order by p.imported_at desc, p.id desc`,
     { type: QueryTypes.SELECT, replacements: { ...sql.replacements, limit, offset } },
   );

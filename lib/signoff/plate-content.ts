@@ -9,7 +9,7 @@ import {
   selectContentPlate,
   selectContentReadouts,
   selectContentWells,
-  selectRowVersionFingerprint,
+  selectContentRevision,
 } from './queries';
 
 /** Format of the signed plate content; bump it if the fields below ever change. */
@@ -35,32 +35,37 @@ export async function plateContent(
 
 /**
  * SHA-256 of the canonical JSON of the plate's data as it stands. Inside the caller's transaction (a
- * signature) it is always worked out afresh; otherwise (the history tab) from the row-version cache below.
+ * signature) it is always worked out afresh from the rows; otherwise (the history tab) it comes from a
+ * cache of this process, used only while the plate's content revision is the one the hash was worked out
+ * at. PostgreSQL triggers draw a new revision in the same transaction as every insert, update or delete
+ * of a row the content reads (migrations/20261211001000-plate-content-revisions.js), whoever writes it,
+ * and the app's role can neither set a revision nor lift a trigger. So a cached hash never outlives the
+ * data it was worked out from; one indexed read of the revision replaces reading the plate's rows.
  */
 export async function plateContentSha256(plateId: string, transaction?: Transaction): Promise<string> {
   if (transaction) return contentSha256(await plateContent(plateId, transaction));
-  const fingerprint = await rowVersionFingerprint(plateId);
+  const revision = await selectContentRevision(plateId);
   const cached = contentHashes().get(plateId);
-  if (cached && cached.fingerprint === fingerprint && Date.now() - cached.at < CONTENT_HASH_MAX_AGE_MS)
+  if (revision && cached?.revision === revision && Date.now() - cached.at < CONTENT_HASH_MAX_AGE_MS)
     return cached.sha256;
-  // Read the content and the fingerprint in one snapshot, so that the cached hash belongs to that fingerprint.
-  const { sha256, fingerprint: seen } = await db().transaction(
+  // Read the content and its revision in one snapshot, so that the cached hash belongs to that revision.
+  const { sha256, revision: seen } = await db().transaction(
     { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true },
     async (snapshot) => ({
       sha256: contentSha256(await plateContent(plateId, snapshot)),
-      fingerprint: await rowVersionFingerprint(plateId, snapshot),
+      revision: await selectContentRevision(plateId, snapshot),
     }),
   );
-  remember(plateId, { fingerprint: seen, sha256, at: Date.now() });
+  if (seen) remember(plateId, { revision: seen, sha256, at: Date.now() });
   return sha256;
 }
 
-/** A cached hash is worked out afresh at least this often, whatever the fingerprint says (common practice, no source). */
+/** A cached hash is worked out afresh from the rows at least this often, whatever the revision says (common practice, no source). */
 export const CONTENT_HASH_MAX_AGE_MS = 10 * 60 * 1000;
 const CONTENT_HASH_ENTRIES = 1000;
 
 interface CachedHash {
-  fingerprint: string;
+  revision: string;
   sha256: string;
   at: number;
 }
@@ -73,16 +78,4 @@ function remember(plateId: string, entry: CachedHash): void {
   cache.delete(plateId);
   cache.set(plateId, entry);
   if (cache.size > CONTENT_HASH_ENTRIES) cache.delete(cache.keys().next().value!);
-}
-
-/**
- * MD5 of the row versions (xmin, the writing transaction, and ctid, the tuple's place) of every row the
- * content reads. PostgreSQL writes a new tuple version for every UPDATE and removes it on DELETE, so
- * any change to those rows, through Gatewell or behind its back, gives another fingerprint; VACUUM FREEZE
- * may change it too, which only costs a fresh hash (PostgreSQL 15 manual, 5.5 "System Columns" and 25.1.5
- * "Preventing Transaction ID Wraparound Failures"). A few milliseconds in PostgreSQL instead of reading
- * and hashing every well, readout and fit.
- */
-async function rowVersionFingerprint(plateId: string, transaction?: Transaction): Promise<string> {
-  return (await selectRowVersionFingerprint(plateId, transaction)) ?? '';
 }

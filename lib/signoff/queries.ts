@@ -6,68 +6,62 @@ import type { PlateState } from '@/lib/domain/plate-states';
 const opts = (plateId: string, transaction?: Transaction) =>
   ({ type: QueryTypes.SELECT, replacements: { plateId }, ...(transaction ? { transaction } : {}) }) as const;
 
-// SQL: the signed content is exactly these columns, named and ordered here, so that the same data always hashes the same.
+/**
+ * SQL: the signed content is exactly these columns, named and ordered here, so that the same data always
+ * hashes the same. Every table these read must draw a new content revision when its rows change
+ * (migrations/20261211001000-plate-content-revisions.js); tests/integration/plate-content-hash.test.ts
+ * checks that against the tables PostgreSQL's plans of these statements read.
+ */
+export const CONTENT_SQL = {
+  plate: `select p.id, p.label, p.format, p.screen_id as "screenId", p.supersedes_plate_id as "supersedesPlateId", p.imported_by as "importedBy",
+            f.filename, f.sha256 as "fileSha256", p.qc_summary as "qcSummary"
+       from plates p join uploaded_files f on f.id = p.uploaded_file_id where p.id = :plateId`,
+  // Every well of the plate in plate order.
+  wells: `select w.id, w.position, w.role, w.compound_id as "compoundId", c.identifier as compound, w.batch_id as "batchId",
+            w.concentration_um as "concentrationUm", w.seal_resistance_gohm as "sealResistanceGohm", w.series_resistance_mohm as "seriesResistanceMohm",
+            w.capacitance_pf as "capacitancePf", w.excluded, w.exclusion_reason as "exclusionReason", w.excluded_by as "excludedBy"
+       from wells w left join compounds c on c.id = w.compound_id where w.plate_id = :plateId order by w.row_index, w.column_index`,
+  // Every readout of the plate in plate order.
+  readouts: `select r.well_id as "wellId", r.target_id as "targetId", r.control_current_pa as "controlCurrentPa", r.compound_current_pa as "compoundCurrentPa",
+            r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons"
+       from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by w.row_index, w.column_index, r.target_id`,
+  fits: `select compound_id as "compoundId", target_id as "targetId", model, status, message, ic50_um as "ic50Um", ic50_ci_low_um as "ic50CiLowUm",
+            ic50_ci_high_um as "ic50CiHighUm", ic50_lower_bound_um as "ic50LowerBoundUm", log10_ic50_se as "log10Ic50Se", hill, top, bottom,
+            r2, residual_sd as "residualSd", n, flags, estimate
+       from fits where plate_id = :plateId order by compound_id, target_id`,
+} as const;
+
 export async function selectContentPlate(
   plateId: string,
   transaction?: Transaction,
 ): Promise<Record<string, unknown> | undefined> {
-  const [plate] = await db().query<Record<string, unknown>>(
-    `select p.id, p.label, p.format, p.screen_id as "screenId", p.supersedes_plate_id as "supersedesPlateId", p.imported_by as "importedBy",
-            f.filename, f.sha256 as "fileSha256", p.qc_summary as "qcSummary"
-       from plates p join uploaded_files f on f.id = p.uploaded_file_id where p.id = :plateId`,
-    opts(plateId, transaction),
-  );
+  const [plate] = await db().query<Record<string, unknown>>(CONTENT_SQL.plate, opts(plateId, transaction));
   return plate;
 }
 
-// SQL for speed and a fixed shape: every well of the plate in plate order, as the signature covers it.
 export async function selectContentWells(plateId: string, transaction?: Transaction): Promise<object[]> {
-  return db().query(
-    `select w.id, w.position, w.role, w.compound_id as "compoundId", c.identifier as compound, w.batch_id as "batchId",
-            w.concentration_um as "concentrationUm", w.seal_resistance_gohm as "sealResistanceGohm", w.series_resistance_mohm as "seriesResistanceMohm",
-            w.capacitance_pf as "capacitancePf", w.excluded, w.exclusion_reason as "exclusionReason", w.excluded_by as "excludedBy"
-       from wells w left join compounds c on c.id = w.compound_id where w.plate_id = :plateId order by w.row_index, w.column_index`,
-    opts(plateId, transaction),
-  );
+  return db().query(CONTENT_SQL.wells, opts(plateId, transaction));
 }
 
-// SQL for speed and a fixed shape: every readout of the plate in plate order, as the signature covers it.
 export async function selectContentReadouts(plateId: string, transaction?: Transaction): Promise<object[]> {
-  return db().query(
-    `select r.well_id as "wellId", r.target_id as "targetId", r.control_current_pa as "controlCurrentPa", r.compound_current_pa as "compoundCurrentPa",
-            r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons"
-       from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by w.row_index, w.column_index, r.target_id`,
-    opts(plateId, transaction),
-  );
+  return db().query(CONTENT_SQL.readouts, opts(plateId, transaction));
 }
 
-// SQL: the fits exactly as the signature covers them (columns, names and order fixed here).
 export async function selectContentFits(plateId: string, transaction?: Transaction): Promise<object[]> {
-  return db().query(
-    `select compound_id as "compoundId", target_id as "targetId", model, status, message, ic50_um as "ic50Um", ic50_ci_low_um as "ic50CiLowUm",
-            ic50_ci_high_um as "ic50CiHighUm", ic50_lower_bound_um as "ic50LowerBoundUm", log10_ic50_se as "log10Ic50Se", hill, top, bottom,
-            r2, residual_sd as "residualSd", n, flags, estimate
-       from fits where plate_id = :plateId order by compound_id, target_id`,
-    opts(plateId, transaction),
-  );
+  return db().query(CONTENT_SQL.fits, opts(plateId, transaction));
 }
 
-// SQL: reads the system columns xmin and ctid and aggregates them in PostgreSQL, which the ORM cannot say.
-export async function selectRowVersionFingerprint(
+// SQL: the plate's content revision, which triggers draw afresh with every change to its signed content
+// (migrations/20261211001000-plate-content-revisions.js); the ORM has no model for it.
+export async function selectContentRevision(
   plateId: string,
   transaction?: Transaction,
 ): Promise<string | null> {
-  const [row] = await db().query<{ fingerprint: string | null }>(
-    `select md5(string_agg(part, ',')) as fingerprint from (
-       select 'p' || p.xmin || p.ctid || f.xmin || f.ctid as part from plates p join uploaded_files f on f.id = p.uploaded_file_id where p.id = :plateId
-       union all (select 'w' || w.xmin || w.ctid || coalesce(c.xmin::text || c.ctid::text, '') from wells w left join compounds c on c.id = w.compound_id
-                   where w.plate_id = :plateId order by w.id)
-       union all (select 'r' || r.xmin || r.ctid from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by r.id)
-       union all (select 'f' || x.xmin || x.ctid from fits x where x.plate_id = :plateId order by x.id)
-     ) parts`,
+  const [row] = await db().query<{ revision: string }>(
+    `select revision::text as revision from plate_content_revisions where plate_id = :plateId`,
     opts(plateId, transaction),
   );
-  return row?.fingerprint ?? null;
+  return row?.revision ?? null;
 }
 
 export interface PanelPlateRow {
