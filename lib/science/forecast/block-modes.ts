@@ -7,7 +7,7 @@ import { parseForecastRequest, type ParsedForecastRequest } from './request-sche
 export interface BlockModesForecast {
   /** Every potency taken as tonic block at its ic50 (inactivatedIc50 ignored). */
   tonic: ForecastResult;
-  /** Potencies with inactivatedIc50 block state-dependently (Bean, Cohen & Kuo 1983). */
+  /** Potencies with inactivatedIc50 block state-dependently (Bean, Cohen & Tsien 1983). */
   stateDependent: ForecastResult;
   /** Per condition (same order as the forecasts' conditions): ΔV½ (mV) of each state-dependent conductance. */
   inactivationShift_mV: Record<string, number>[];

@@ -1,9 +1,9 @@
 import type { NeuronPreset } from './types';
 
 /**
- * State-dependent block in the modulated-receptor steady state (Bean, Cohen & Kuo 1983, J Gen Physiol
- * 81:613–642). A blocker binds resting channels with dissociation constant Kr and inactivated ones with
- * Ki. With inactivation h∞(V) = 1/(1 + e^((V − V½)/k)) in equilibrium with binding, the fraction of
+ * State-dependent block in the modulated-receptor steady state (Bean, Cohen & Tsien 1983, "Lidocaine
+ * block of cardiac sodium channels", J Gen Physiol 81:613–642; authors and pages from memory).
+ * A blocker binds resting channels with dissociation constant Kr and inactivated ones with Ki. With inactivation h∞(V) = 1/(1 + e^((V − V½)/k)) in equilibrium with binding, the fraction of
  * channels free of drug and not inactivated is
  *
  *   1/(1 + D/Kr) · h∞(V − ΔV½),   ΔV½ = k · ln[(1 + D/Kr)/(1 + D/Ki)]
