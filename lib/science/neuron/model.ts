@@ -20,6 +20,8 @@ export interface CompiledModel {
   termPower: Int32Array;
   /** Identifies the kinetics (preset and temperature), for sharing rate tables. */
   kineticsKey: string;
+  /** The preset's holding current (µA/cm²), added to every drive. */
+  holdingCurrent_uA_cm2: number;
 }
 
 /**
@@ -78,6 +80,7 @@ export function compileModel(
     termStart,
     termGate: Int32Array.from(termGate),
     termPower: Int32Array.from(termPower),
+    holdingCurrent_uA_cm2: preset.holdingCurrent_uA_cm2 ?? 0,
     kineticsKey: `${preset.name}@${preset.temperature_C}:${JSON.stringify(preset.conductances.map((c) => [c.q10, c.referenceTemperature_C, c.rateFactor, c.gates]))}`,
   };
 }

@@ -65,6 +65,11 @@ export interface NeuronPreset {
   capacitance_uF_cm2: number;
   temperature_C: number;
   conductances: ConductanceSpec[];
+  /**
+   * A constant current always injected (µA/cm², positive depolarising) as part of the published cell,
+   * e.g. the holding current of a patch-clamped neuron; every drive adds to it. @default 0
+   */
+  holdingCurrent_uA_cm2?: number;
 }
 
 /** Membrane state: voltage and every gate, in the compiled gate order. */
