@@ -53,9 +53,16 @@ function pool(): Piscina {
   return state.pool;
 }
 
-/** Cache key: preset (name and content), scaled conductances and the whole protocol of the task. */
+/**
+ * Cache key: preset (name and content), scaled conductances, inactivation shifts (state-dependent
+ * block) and the whole protocol of the task.
+ */
 function cacheKey(task: ForecastTask): string {
-  const scaled = task.preset.conductances.map((c) => [c.name, c.g_mS_cm2 * (task.scale[c.name] ?? 1)]);
+  const scaled = task.preset.conductances.map((c) => [
+    c.name,
+    c.g_mS_cm2 * (task.scale[c.name] ?? 1),
+    task.inactivationShift?.[c.name] ?? 0,
+  ]);
   const presetHash = createHash('sha1').update(JSON.stringify(task.preset)).digest('hex');
   return `${task.kind}|${task.preset.name}|${presetHash}|${JSON.stringify(scaled)}|${JSON.stringify(task.request)}`;
 }

@@ -96,6 +96,8 @@ describe('screens and targets on the real database', () => {
       { preset: 'hh-squid-1952', conductance: 'gK' },
       { preset: 'pospischil-rs-2008', conductance: 'gNa' },
       { preset: 'wang-buzsaki-1996', conductance: 'gNa' },
+      // A generic sodium name has no default in the DRG preset (its sodium is split by subtype).
+      { preset: 'xie-drg-2024', conductance: null },
     ]);
   });
 
@@ -136,7 +138,10 @@ describe('screens and targets on the real database', () => {
     await expect(
       setTargetMapping(admin, targetId, { preset: 'pospischil-rs-2008', conductance: 'gK' }),
     ).rejects.toMatchObject({ code: 'invalid' });
-    expect((await Target.findByPk(targetId))!.conductanceByPreset).toEqual({ 'pospischil-rs-2008': 'gM' });
+    expect((await Target.findByPk(targetId))!.conductanceByPreset).toEqual({
+      'pospischil-rs-2008': 'gM',
+      'xie-drg-2024': 'gM',
+    });
     await expect(
       setTargetMapping(await makeActor(['biologist']), targetId, {
         preset: 'wang-buzsaki-1996',

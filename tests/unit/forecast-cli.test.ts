@@ -58,6 +58,36 @@ describe('forecast CLI', () => {
   });
 
   // Several faults in one file are all reported, one line each.
+  // State-dependent block (modulated receptor, Bean, Cohen & Tsien 1983; modulated-receptor-bean-1983.json):
+  // the CLI prints tonic and state-dependent forecasts side by side with the shift of Na inactivation.
+  test('potencies with an inactivated-state IC50: tonic and state-dependent side by side', () => {
+    const { code, stdout, stderr } = run(
+      JSON.stringify({
+        preset: 'hh-squid-1952',
+        potencies: { gNa: { ic50: 10, hill: 1, inactivatedIc50: 0.5 } },
+        concentrations: [1],
+        drives_uA_cm2: [20],
+      }),
+    );
+    expect(stderr).toBe('');
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    expect(Object.keys(out)).toEqual(['control', 'conditions']);
+    const [c] = out.conditions;
+    expect(Object.keys(c)).toEqual([
+      'concentration',
+      'block',
+      'inactivationShift_mV',
+      'tonic',
+      'stateDependent',
+    ]);
+    // Tonic block D/(D + Kr) = 1/11; ΔV½ = 6.95·ln(1.1/3) = −6.9729 mV (fixture, first case).
+    expect(c.block.gNa).toBeCloseTo(1 / 11, 6);
+    expect(c.inactivationShift_mV.gNa).toBeCloseTo(-6.9729, 4);
+    expect(c.stateDependent.rheobase_uA_cm2).toBeGreaterThan(c.tonic.rheobase_uA_cm2);
+    expect(c.stateDependent.rates_Hz['20']).toBeLessThan(c.tonic.rates_Hz['20']);
+  });
+
   test.each([
     ['not JSON', '{"preset": "hh-squid-1952",', ['is not valid JSON']],
     [

@@ -19,7 +19,7 @@ describe('forecastRequestSchema', () => {
   test.each([
     [
       { preset: 'squid' },
-      'preset: preset must be one of: hh-squid-1952, pospischil-rs-2008, wang-buzsaki-1996',
+      'preset: preset must be one of: hh-squid-1952, pospischil-rs-2008, wang-buzsaki-1996, xie-drg-2024',
     ],
     [
       { preset: 'wang-buzsaki-1996', block: { gM: 0.5 } },

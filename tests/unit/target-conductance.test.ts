@@ -21,6 +21,15 @@ describe('default conductance of a target name', () => {
     ['Kv4.3', 'pospischil-rs-2008', null],
     ['Cav1.2', 'pospischil-rs-2008', null],
     ['Leak', 'hh-squid-1952', null],
+    // The DRG preset's subtype conductances; a subtype rule falls back to gNa in the other presets (above).
+    ['Nav1.7', 'xie-drg-2024', 'gNav17'],
+    ['hSCN9A', 'xie-drg-2024', 'gNav17'],
+    ['Nav1.8', 'xie-drg-2024', 'gNav18'],
+    ['SCN10A', 'xie-drg-2024', 'gNav18'],
+    ['Nav1.8', 'wang-buzsaki-1996', 'gNa'],
+    ['hNav1.5', 'xie-drg-2024', null],
+    ['Kv7.2/7.3', 'xie-drg-2024', 'gM'],
+    ['Kv2.1', 'xie-drg-2024', 'gK'],
   ])('%s in %s → %s', (name, preset, expected) => {
     expect(defaultConductance(name, getPreset(preset))).toBe(expected);
   });
@@ -50,11 +59,13 @@ describe('stored mapping (conductanceByPresetSchema)', () => {
   test('a new target: the chosen conductance in its screen’s preset, defaults elsewhere, none where none', () => {
     expect(initialConductanceByPreset('Kv7.2', 'pospischil-rs-2008', 'gM')).toEqual({
       'pospischil-rs-2008': 'gM',
+      'xie-drg-2024': 'gM',
     });
     expect(initialConductanceByPreset('Nav1.7', 'wang-buzsaki-1996', 'gNa')).toEqual({
       'hh-squid-1952': 'gNa',
       'pospischil-rs-2008': 'gNa',
       'wang-buzsaki-1996': 'gNa',
+      'xie-drg-2024': 'gNav17',
     });
   });
 });

@@ -25,3 +25,4 @@ export {
 } from './assemble';
 export { computeForecast } from './forecast';
 export { runForecastTask, type ForecastTask, type MeasureTask, type TraceTask } from './tasks';
+export { computeBlockModes, tonicOnly, type BlockModesForecast } from './block-modes';

@@ -6,6 +6,7 @@ import {
   type FiCurve,
 } from '../neuron/excitability';
 import { getPreset } from '../neuron/presets';
+import { inactivationSlope_mV, modulatedReceptorShift_mV } from '../neuron/state-dependent-block';
 import type { NeuronPreset } from '../neuron/types';
 import { poreBlockFraction } from './pore-block';
 import type { ParsedForecastRequest } from './request-schema';
@@ -35,6 +36,11 @@ export interface PlannedCondition {
   block: Record<string, number>;
   /** Multiplier 1 − block per conductance. */
   scale: Record<string, number>;
+  /**
+   * Shift ΔV½ (mV) of the inactivation of each conductance blocked state-dependently (a potency with
+   * inactivatedIc50); empty for tonic block.
+   */
+  inactivationShift: Record<string, number>;
 }
 
 export interface ForecastPlan {
@@ -67,10 +73,11 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
     label: string,
     concentration: number | null,
     fractions: Record<string, number>,
+    inactivationShift: Record<string, number> = {},
   ): PlannedCondition => {
     const block = Object.fromEntries(blockable.map((name) => [name, fractions[name] ?? 0]));
     const scale = Object.fromEntries(blockable.map((name) => [name, 1 - (block[name] ?? 0)]));
-    return { label, concentration, block, scale };
+    return { label, concentration, block, scale, inactivationShift };
   };
   const unit = request.concentrationUnit ?? null;
   let conditions: PlannedCondition[] = [];
@@ -83,6 +90,13 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
         c,
         Object.fromEntries(
           Object.entries(potencies).map(([name, pot]) => [name, poreBlockFraction(c, pot.ic50, pot.hill)]),
+        ),
+        Object.fromEntries(
+          Object.entries(potencies).flatMap(([name, pot]) => {
+            const k = inactivationSlope_mV(preset, name);
+            if (pot.inactivatedIc50 === undefined || k === null) return [];
+            return [[name, modulatedReceptorShift_mV(c, pot.ic50, pot.inactivatedIc50, k)]];
+          }),
         ),
       ),
     );
@@ -148,6 +162,7 @@ export function conditionTasks(plan: ForecastPlan, control: Excitability): Measu
     kind: 'measure',
     preset: plan.preset,
     scale: c.scale,
+    inactivationShift: c.inactivationShift,
     request: {
       protocol: excitabilityProtocol(plan.protocol),
       drives_uA_cm2: [...plan.protocol.drives_uA_cm2, ...curve],
@@ -176,6 +191,14 @@ export function traceTasks(
   return {
     drive_uA_cm2: drive,
     control: { kind: 'trace', preset: plan.preset, scale: {}, request },
-    condition: chosen ? { kind: 'trace', preset: plan.preset, scale: chosen.scale, request } : null,
+    condition: chosen
+      ? {
+          kind: 'trace',
+          preset: plan.preset,
+          scale: chosen.scale,
+          inactivationShift: chosen.inactivationShift,
+          request,
+        }
+      : null,
   };
 }

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { PRESET_NAMES, conductanceNames, getPreset, isPresetName } from '../neuron/presets';
+import { stateDependentConductances } from '../neuron/state-dependent-block';
 
 /** Optional protocol settings of a forecast; defaults in DEFAULT_FORECAST_PROTOCOL. */
 export const forecastProtocolSchema = z.strictObject({
@@ -72,12 +73,22 @@ const fraction = z
   .min(0, { error: 'block fraction must be between 0 and 1' })
   .max(1, { error: 'block fraction must be between 0 and 1' });
 
-const potencySchema = z.strictObject({
+export const potencySchema = z.strictObject({
+  /** Tonic IC50: the resting-state affinity Kr when inactivatedIc50 is given. */
   ic50: z.number({ error: 'ic50 must be a number' }).positive({ error: 'ic50 must be positive' }),
   hill: z
     .number({ error: 'hill must be a number' })
     .positive({ error: 'Hill slope must be positive' })
     .max(10, { error: 'Hill slope must be at most 10' }),
+  /**
+   * Inactivated-state IC50 (Ki, same unit as ic50): makes the block state-dependent (modulated
+   * receptor, lib/science/neuron/state-dependent-block.ts). Only for a conductance with an
+   * inactivation gate.
+   */
+  inactivatedIc50: z
+    .number({ error: 'inactivatedIc50 must be a number' })
+    .positive({ error: 'inactivatedIc50 must be positive' })
+    .optional(),
 });
 
 const traceSchema = z.union([
@@ -112,9 +123,27 @@ function checkConductanceKeys(preset: string, keys: string[], field: string, ctx
   }
 }
 
+/** inactivatedIc50 only on conductances whose inactivation gate state-dependent block can shift. */
+function checkStateDependentKeys(
+  preset: string,
+  potencies: Record<string, unknown>,
+  ctx: z.RefinementCtx,
+): void {
+  const shiftable = stateDependentConductances(getPreset(preset));
+  for (const [key, potency] of Object.entries(potencies)) {
+    if (!isObject(potency) || potency.inactivatedIc50 === undefined || shiftable.includes(key)) continue;
+    ctx.addIssue({
+      code: 'custom',
+      path: ['potencies', key, 'inactivatedIc50'],
+      message: `conductance "${key}" of preset ${preset} has no inactivation gate, so no state-dependent block (possible: ${shiftable.join(', ') || 'none'})`,
+    });
+  }
+}
+
 /**
  * A forecast request: a preset and either one block map (conductance → fraction 0–1) or potencies
- * (IC50 and Hill slope per conductance) with concentrations (same unit as the IC50s).
+ * (IC50 and Hill slope per conductance, and optionally the inactivated-state IC50 for state-dependent
+ * block) with concentrations (same unit as the IC50s).
  */
 export const forecastRequestSchema = z
   .strictObject(
@@ -151,7 +180,10 @@ export const forecastRequestSchema = z
     (r, ctx) => {
       if (!isPresetName(r.preset)) return;
       if (isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
-      if (isObject(r.potencies)) checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
+      if (isObject(r.potencies)) {
+        checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
+        checkStateDependentKeys(r.preset, r.potencies, ctx);
+      }
       if (r.block && r.potencies)
         ctx.addIssue({
           code: 'custom',
@@ -192,8 +224,10 @@ function isObject(value: unknown): value is Record<string, unknown> {
 export type ForecastRequest = z.input<typeof forecastRequestSchema>;
 
 /**
- * The forecast input file read by scripts/forecast.ts:
- * {"preset":"hh-squid-1952","block":{"gNa":0.3},"stepMs":500,"drives_uA_cm2":[10,20]}.
+ * The forecast input file read by scripts/forecast.ts: one block condition,
+ * {"preset":"hh-squid-1952","block":{"gNa":0.3},"stepMs":500,"drives_uA_cm2":[10,20]}, or potencies at
+ * concentrations, forecast tonic and state-dependent side by side,
+ * {"preset":"hh-squid-1952","potencies":{"gNa":{"ic50":10,"hill":1,"inactivatedIc50":0.5}},"concentrations":[1,3]}.
  */
 export const forecastInputFileSchema = z
   .strictObject(
@@ -202,6 +236,8 @@ export const forecastInputFileSchema = z
       block: z
         .record(z.string(), fraction, { error: 'block must be an object of conductance → fraction' })
         .optional(),
+      potencies: forecastRequestSchema.shape.potencies,
+      concentrations: forecastRequestSchema.shape.concentrations,
       stepMs: forecastProtocolSchema.shape.stepMs,
       drives_uA_cm2: forecastProtocolSchema.shape.drives_uA_cm2,
     },
@@ -209,8 +245,26 @@ export const forecastInputFileSchema = z
   )
   .superRefine(
     (r, ctx) => {
-      if (isPresetName(r.preset) && isObject(r.block))
-        checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
+      if (!isPresetName(r.preset)) return;
+      if (isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
+      if (isObject(r.potencies)) {
+        checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
+        checkStateDependentKeys(r.preset, r.potencies, ctx);
+      }
+      if (r.block && r.potencies)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['potencies'],
+          message: 'give either block or potencies, not both',
+        });
+      if (r.potencies && !r.concentrations)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['concentrations'],
+          message: 'potencies need a list of concentrations',
+        });
+      if (r.concentrations && !r.potencies)
+        ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'concentrations need potencies' });
     },
     { when: (payload) => isObject(payload.value) },
   );

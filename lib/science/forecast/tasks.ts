@@ -10,6 +10,8 @@ export interface MeasureTask {
   preset: NeuronPreset;
   /** Conductance → multiplier (1 − block). */
   scale: Record<string, number>;
+  /** Conductance → shift of its inactivation (mV), for state-dependent block. @default none */
+  inactivationShift?: Record<string, number>;
   request: ExcitabilityRequest;
 }
 
@@ -17,17 +19,18 @@ export interface TraceTask {
   kind: 'trace';
   preset: NeuronPreset;
   scale: Record<string, number>;
+  inactivationShift?: Record<string, number>;
   request: TraceRequest;
 }
 
 export type ForecastTask = MeasureTask | TraceTask;
 
 export function runMeasureTask(task: MeasureTask): Excitability {
-  return measureExcitability(compileModel(task.preset, task.scale), task.request);
+  return measureExcitability(compileModel(task.preset, task.scale, task.inactivationShift), task.request);
 }
 
 export function runTraceTask(task: TraceTask): VoltageTrace {
-  return voltageTrace(compileModel(task.preset, task.scale), task.request);
+  return voltageTrace(compileModel(task.preset, task.scale, task.inactivationShift), task.request);
 }
 
 /** Run either kind of task (the worker's entry point uses this). */

@@ -1,10 +1,12 @@
-import { gateInfTau, type CompiledModel } from './model';
+import { unshiftedGateInfTau, type CompiledModel } from './model';
 
 /**
  * Per-gate update coefficients on a voltage grid, for one time step dt: over a step with V held,
  * x ← A(V)·x + B(V) with A = exp(−dt/τ(V)), B = x∞(V)·(1 − A) (exact for frozen V).
  * Linear interpolation between grid points; grid spacing chosen so the interpolation error in
- * A and B stays below about 1e-6 relative (see tests/unit/neuron-integrator.test.ts).
+ * A and B stays below about 1e-6 relative (see tests/unit/neuron-integrator.test.ts). The table holds
+ * the gates without their voltage shifts (state-dependent block); the step looks a shifted gate up at
+ * V − shift, so one table serves every shift.
  */
 export interface GateTable {
   vMin_mV: number;
@@ -35,7 +37,7 @@ export function gateTable(model: CompiledModel, dt_ms: number): GateTable {
   for (let i = 0; i <= intervals; i++) {
     const v = TABLE_V_MIN_mV + i * TABLE_STEP_mV;
     for (let j = 0; j < nGates; j++) {
-      gateInfTau(model.gates[j]!, v, out);
+      unshiftedGateInfTau(model.gates[j]!, v, out);
       const a = Math.exp(-dt_ms / out[1]!);
       coefficients[(i * nGates + j) * 2] = a;
       coefficients[(i * nGates + j) * 2 + 1] = out[0]! * (1 - a);

@@ -10,7 +10,7 @@ import type { MembraneState } from './types';
 export const DEFAULT_DT_MS = 0.025;
 
 export interface RunProtocol {
-  /** Constant injected current over the run (µA/cm², positive = depolarising). */
+  /** Constant injected current over the run (µA/cm², positive = depolarising), on top of the preset's holding current. */
   current_uA_cm2: number;
   duration_ms: number;
   /** Stop right after the first spike (rheobase search). @default false */
@@ -77,7 +77,7 @@ export function simulate(
     throw new Error('simulate: dt and duration must be positive');
   const step = stepFor(model, dt, options.rates ?? 'table');
   const x = Float64Array.from(start.gates);
-  const current = protocol.current_uA_cm2;
+  const current = protocol.current_uA_cm2 + model.holdingCurrent_uA_cm2;
   const steps = Math.round(protocol.duration_ms / dt);
   const slope = protocol.thresholdSlope_mV_ms ?? 10;
   const level = protocol.spikeLevel_mV ?? 0;

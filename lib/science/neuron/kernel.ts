@@ -17,6 +17,7 @@ type StepFactory = (
   dtOverC: number,
   exactGates: (gates: Float64Array, v: number) => void,
   instantGates: (gates: Float64Array, v: number) => void,
+  shift: Float64Array,
 ) => MembraneStep;
 
 const factories = new Map<string, StepFactory>();
@@ -31,16 +32,26 @@ function stepFactory(model: CompiledModel): StepFactory {
   const nGates = model.gates.length;
   const stride = nGates * 2;
   const instantLayout = model.gates.map((g) => (g.kinetics.kind === 'instantaneous' ? 1 : 0)).join('');
-  const layout = `${nGates}|${instantLayout}|${Array.from(model.termStart).join(',')}|${Array.from(model.termGate).join(',')}|${Array.from(model.termPower).join(',')}`;
+  const shifted = model.gates.flatMap((g, j) => (g.shift_mV !== 0 ? [j] : []));
+  const layout = `${nGates}|${instantLayout}|${shifted.join(',')}|${Array.from(model.termStart).join(',')}|${Array.from(model.termGate).join(',')}|${Array.from(model.termPower).join(',')}`;
   const hit = factories.get(layout);
   if (hit) return hit;
   const lines: string[] = [];
   lines.push('return function step(x, v, I) {');
   lines.push('  const u = (v - vMin) * inv;');
-  lines.push('  if (u >= 0 && u < intervals) {');
+  // A shifted gate (state-dependent block) is looked up in the unshifted table at V − shift.
+  for (const j of shifted) lines.push(`  const u${j} = (v - shift[${j}] - vMin) * inv;`);
+  const inRange = ['u', ...shifted.map((j) => `u${j}`)].map((u) => `${u} >= 0 && ${u} < intervals`);
+  lines.push(`  if (${inRange.join(' && ')}) {`);
   lines.push(`    const i = u | 0; const f = u - i; const b = i * ${stride};`);
   for (let j = 0; j < nGates; j++) {
     const a = 2 * j;
+    if (shifted.includes(j)) {
+      lines.push(
+        `    { const i${j} = u${j} | 0; const f${j} = u${j} - i${j}; const p = i${j} * ${stride} + ${a}; x[${j}] = (coef[p] + f${j} * (coef[p + ${stride}] - coef[p])) * x[${j}] + coef[p + 1] + f${j} * (coef[p + ${stride + 1}] - coef[p + 1]); }`,
+      );
+      continue;
+    }
     lines.push(
       `    { const p = b + ${a}; x[${j}] = (coef[p] + f * (coef[p + ${stride}] - coef[p])) * x[${j}] + coef[p + 1] + f * (coef[p + ${stride + 1}] - coef[p + 1]); }`,
     );
@@ -92,6 +103,7 @@ function stepFactory(model: CompiledModel): StepFactory {
     'dtOverC',
     'exactGates',
     'instantGates',
+    'shift',
     lines.join('\n'),
   ) as StepFactory;
   factories.set(layout, factory);
@@ -130,5 +142,6 @@ export function membraneStep(
     dt_ms / model.capacitance_uF_cm2,
     exactGates,
     instantGates,
+    Float64Array.from(model.gates, (g) => g.shift_mV),
   );
 }

@@ -5,8 +5,11 @@ import type { GateKinetics, MembraneState, NeuronPreset } from './types';
 export interface CompiledModel {
   presetName: string;
   capacitance_uF_cm2: number;
-  /** Per gate: its kinetics and the temperature factor φ applied to its rates. */
-  gates: { label: string; kinetics: GateKinetics; phi: number }[];
+  /**
+   * Per gate: its kinetics, the temperature factor φ applied to its rates, and a voltage shift: the
+   * gate's rates are taken at V − shift_mV (0 unless state-dependent block shifts an inactivation gate).
+   */
+  gates: { label: string; kinetics: GateKinetics; phi: number; shift_mV: number }[];
   conductanceNames: string[];
   /** Scaled maximal conductances (mS/cm²), in conductance order. */
   g_mS_cm2: Float64Array;
@@ -17,21 +20,33 @@ export interface CompiledModel {
   termPower: Int32Array;
   /** Identifies the kinetics (preset and temperature), for sharing rate tables. */
   kineticsKey: string;
+  /** The preset's holding current (µA/cm²), added to every drive. */
+  holdingCurrent_uA_cm2: number;
 }
 
 /**
  * Flatten a preset, with each conductance multiplied by `scale[name]` (default 1), e.g.
- * { gNa: 0.7 } for 30 % block. Throws on a name the preset does not have.
+ * { gNa: 0.7 } for 30 % block, and the inactivation gate of each conductance in `inactivationShift`
+ * shifted along the voltage axis by that many mV (state-dependent block: its rates, so h∞ and τh, are
+ * taken at V − shift; a negative shift moves inactivation to more negative voltages). Throws on a
+ * name the preset does not have, or a shift of a conductance without an inactivation gate.
  */
 export function compileModel(
   preset: NeuronPreset,
   scale: Readonly<Record<string, number>> = {},
+  inactivationShift: Readonly<Record<string, number>> = {},
 ): CompiledModel {
   const names = preset.conductances.map((c) => c.name);
   if (names.length === 0) throw new Error(`preset ${preset.name} has no conductances`);
-  for (const key of Object.keys(scale)) {
+  for (const key of [...Object.keys(scale), ...Object.keys(inactivationShift)]) {
     if (!names.includes(key))
       throw new Error(`preset ${preset.name} has no conductance "${key}" (has ${names.join(', ')})`);
+  }
+  for (const [key, shift] of Object.entries(inactivationShift)) {
+    if (!Number.isFinite(shift)) throw new Error(`inactivation shift of ${key} must be a finite number`);
+    const c = preset.conductances.find((x) => x.name === key);
+    if (!c?.gates.some((g) => g.inactivationSlope_mV !== undefined))
+      throw new Error(`conductance ${key} of preset ${preset.name} has no inactivation gate to shift`);
   }
   const gates: CompiledModel['gates'] = [];
   const termStart = new Int32Array(names.length + 1);
@@ -48,7 +63,10 @@ export function compileModel(
         throw new Error(`gate ${c.name}.${gate.name}: power must be a positive integer`);
       termGate.push(gates.length);
       termPower.push(gate.power);
-      gates.push({ label: `${c.name}.${gate.name}`, kinetics: gate.kinetics, phi });
+      const shift_mV = gate.inactivationSlope_mV !== undefined ? (inactivationShift[c.name] ?? 0) : 0;
+      if (shift_mV !== 0 && gate.kinetics.kind === 'instantaneous')
+        throw new Error(`gate ${c.name}.${gate.name}: an instantaneous gate cannot be shifted`);
+      gates.push({ label: `${c.name}.${gate.name}`, kinetics: gate.kinetics, phi, shift_mV });
     }
   });
   termStart[names.length] = termGate.length;
@@ -62,15 +80,26 @@ export function compileModel(
     termStart,
     termGate: Int32Array.from(termGate),
     termPower: Int32Array.from(termPower),
+    holdingCurrent_uA_cm2: preset.holdingCurrent_uA_cm2 ?? 0,
     kineticsKey: `${preset.name}@${preset.temperature_C}:${JSON.stringify(preset.conductances.map((c) => [c.q10, c.referenceTemperature_C, c.rateFactor, c.gates]))}`,
   };
 }
 
 /**
- * Steady state x∞ and time constant τ (ms) of a gate at V, written into out[0], out[1]. An
- * instantaneous gate has τ = 0: the exact update exp(−dt/τ) = 0 sets it to x∞(V).
+ * Steady state x∞ and time constant τ (ms) of a gate at V, written into out[0], out[1], with the
+ * gate's voltage shift applied (rates at V − shift). An instantaneous gate has τ = 0: the exact
+ * update exp(−dt/τ) = 0 sets it to x∞(V).
  */
 export function gateInfTau(gate: CompiledModel['gates'][number], v_mV: number, out: Float64Array): void {
+  unshiftedGateInfTau(gate, v_mV - gate.shift_mV, out);
+}
+
+/** As gateInfTau, without the gate's voltage shift (the rate tables are built unshifted). */
+export function unshiftedGateInfTau(
+  gate: CompiledModel['gates'][number],
+  v_mV: number,
+  out: Float64Array,
+): void {
   const k = gate.kinetics;
   if (k.kind === 'instantaneous') {
     const a = evaluateRate(k.alpha, v_mV);

@@ -49,7 +49,15 @@ export interface BellTau {
   fallScale_mV: number;
 }
 
-export type TauForm = ConstantTau | BellTau;
+/** τ = tau / (1 + exp(−(V − mid)/scale)), a sigmoid τ(V) (the slow Kdr inactivation of the DRG preset). */
+export interface SigmoidTau {
+  form: 'sigmoid-tau';
+  tau_ms: number;
+  mid_mV: number;
+  scale_mV: number;
+}
+
+export type TauForm = ConstantTau | BellTau | SigmoidTau;
 
 /** Below this |x| the exp-linear form uses its series 1 + x/2 + x²/12 (error < 1e-13). */
 const EXP_LINEAR_SERIES_LIMIT = 1e-4;
@@ -82,5 +90,7 @@ export function evaluateTau(f: TauForm, v_mV: number): number {
       const d = v_mV - f.mid_mV;
       return f.scale_ms / (f.rise * Math.exp(d / f.riseScale_mV) + f.fall * Math.exp(-d / f.fallScale_mV));
     }
+    case 'sigmoid-tau':
+      return f.tau_ms / (1 + Math.exp(-(v_mV - f.mid_mV) / f.scale_mV));
   }
 }

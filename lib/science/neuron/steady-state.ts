@@ -1,9 +1,12 @@
 import { conductanceSums, gateInfTau, steadyStateAt, type CompiledModel } from './model';
 
-/** Net steady-state membrane current (µA/cm², outward positive) at V with every gate at x∞(V). */
+/**
+ * Net steady-state membrane current (µA/cm², outward positive) at V with every gate at x∞(V), less the
+ * preset's holding current: the drive needed to hold V there.
+ */
 export function steadyStateCurrent(model: CompiledModel, v_mV: number): number {
   const { g, gE } = conductanceSums(model, steadyStateAt(model, v_mV).gates);
-  return g * v_mV - gE;
+  return g * v_mV - gE - model.holdingCurrent_uA_cm2;
 }
 
 export interface FixedPoint {

@@ -31,6 +31,13 @@ export interface GateSpec {
   name: string;
   power: number;
   kinetics: GateKinetics;
+  /**
+   * Marks the conductance's inactivation gate, for state-dependent block
+   * (lib/science/neuron/state-dependent-block.ts): the slope factor k (mV) of its steady state h∞(V),
+   * taken as the slope of the Boltzmann curve with the same steepness at the midpoint,
+   * k = −1/(4·h∞′(V½)). Derived per preset from its own rate functions; the preset file shows how.
+   */
+  inactivationSlope_mV?: number;
 }
 
 /** One membrane conductance: I = g · Π gates^power · (V − E). */
@@ -58,6 +65,11 @@ export interface NeuronPreset {
   capacitance_uF_cm2: number;
   temperature_C: number;
   conductances: ConductanceSpec[];
+  /**
+   * A constant current always injected (µA/cm², positive depolarising) as part of the published cell,
+   * e.g. the holding current of a patch-clamped neuron; every drive adds to it. @default 0
+   */
+  holdingCurrent_uA_cm2?: number;
 }
 
 /** Membrane state: voltage and every gate, in the compiled gate order. */

@@ -37,6 +37,9 @@ export const hhSquid1952: NeuronPreset = {
         {
           name: 'h',
           power: 1,
+          // Slope factor of h∞ for state-dependent block, derived here from αh, βh: h∞ = 1/2 where
+          // αh = βh, at V½ = −62.31 mV; k = −1/(4·h∞′(V½)) = 6.950 mV.
+          inactivationSlope_mV: 6.95,
           kinetics: {
             kind: 'alpha-beta',
             // αh = 0.07 e^(−(V+65)/20)

@@ -44,6 +44,9 @@ export const pospischilRs2008: NeuronPreset = {
         {
           name: 'h',
           power: 1,
+          // Slope factor of h∞ for state-dependent block, derived here from αh, βh: h∞ = 1/2 where
+          // αh = βh, at V½ = −33.37 mV (V_T = −55 mV); k = −1/(4·h∞′(V½)) = 3.990 mV.
+          inactivationSlope_mV: 3.99,
           kinetics: {
             kind: 'alpha-beta',
             // αh = 0.128 e^((17 − v2)/18)
