@@ -219,6 +219,7 @@ test('no main page shows an internal id: UUIDs, worker names, process ids or lon
     '/admin/outbox',
     '/audit',
     '/account',
+    '/notices',
   ];
   const { context, page } = await signedInContext(browser, 'admin');
   const found: string[] = [];

@@ -23,6 +23,8 @@ export const changePasswordAction = validatedAction(
   { beforeOwnPassword: true },
 );
 
+const sentenceCase = (label: string) => label[0]!.toLowerCase() + label.slice(1);
+
 /** Sets how the signed-in person is told of plates and imports: by e-mail and in Gatewell, or in Gatewell only. */
 export const setNoticeDeliveryAction = validatedAction(
   noticeDeliverySchema,
@@ -32,8 +34,8 @@ export const setNoticeDeliveryAction = validatedAction(
     return {
       ok: true,
       message: changed
-        ? `Saved: ${NOTICE_DELIVERY_LABELS[delivery].toLowerCase()}.`
-        : `No change: already ${NOTICE_DELIVERY_LABELS[delivery].toLowerCase()}.`,
+        ? `Saved: ${sentenceCase(NOTICE_DELIVERY_LABELS[delivery])}.`
+        : `No change: already ${sentenceCase(NOTICE_DELIVERY_LABELS[delivery])}.`,
     };
   },
 );
