@@ -12,6 +12,8 @@ export { ImportTemplate } from './import-template';
 export { ImportUpload } from './import-upload';
 export { LoginAttempt } from './login-attempt';
 export { MailMessage } from './mail-message';
+export { Notice } from './notice';
+export { NoticeDeliveryChoice } from './notice-delivery';
 export { PasswordLink } from './password-link';
 export { Plate } from './plate';
 export { Readout } from './readout';

@@ -6,6 +6,7 @@ import { signOutAction } from '@/app/(auth)/sign-in/actions';
 import { requireActor } from '@/lib/auth/current-actor';
 import { PATHNAME_HEADER, rolesForPath } from '@/lib/auth/page-roles';
 import { hasRole } from '@/lib/auth/roles';
+import { unseenNoticeCount } from '@/lib/notices/service';
 
 export default async function SignedInLayout({ children }: { children: ReactNode }) {
   const actor = await requireActor();
@@ -16,7 +17,7 @@ export default async function SignedInLayout({ children }: { children: ReactNode
   const needed = rolesForPath(pathname);
   if (needed && !hasRole(actor, ...needed)) forbidden();
   return (
-    <AppShell actor={actor} signOut={signOutAction}>
+    <AppShell actor={actor} unseenNotices={await unseenNoticeCount(actor)} signOut={signOutAction}>
       {children}
     </AppShell>
   );

@@ -72,7 +72,8 @@ export function WaitingImports({ items, canRegister }: { items: WaitingImportIte
         {items.map((item) => (
           <li
             key={item.id}
-            className="rounded-md border border-ink-100 p-4 text-sm"
+            id={`waiting-import-${item.id}`}
+            className="scroll-mt-4 rounded-md border border-ink-100 p-4 text-sm"
             aria-label={`Import of ${item.filename}`}
           >
             <p>

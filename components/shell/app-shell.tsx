@@ -2,17 +2,22 @@ import type { ReactNode } from 'react';
 import type { Actor } from '@/lib/auth/roles';
 import { navItemsFor } from './nav-items';
 import { NavLinks } from './nav-links';
+import { NoticeBell } from './notice-bell';
 
 /**
- * The frame of every signed-in page: navigation, the signed-in person and their roles, sign-out.
+ * The frame of every signed-in page: navigation, the bell with the count of new notices, the signed-in
+ * person and their roles, sign-out.
  * The sign-out action comes from the layout, so that components import no app code.
  */
 export function AppShell({
   actor,
+  unseenNotices,
   signOut,
   children,
 }: {
   actor: Actor;
+  /** How many of the person's notices are new (lib/notices/service.ts). */
+  unseenNotices: number;
   signOut: () => Promise<void>;
   children: ReactNode;
 }) {
@@ -25,9 +30,12 @@ export function AppShell({
         Skip to content
       </a>
       <header className="bg-ink-950 text-ink-100 lg:sticky lg:top-0 lg:flex lg:h-screen lg:flex-col">
-        <div className="flex items-center justify-between gap-4 px-4 py-3 lg:block lg:px-5 lg:py-6">
-          <p className="text-lg font-semibold tracking-wide text-white">Gatewell</p>
-          <p className="text-xs text-ink-300 lg:mt-1">Ion-channel screening</p>
+        <div className="flex items-center justify-between gap-4 px-4 py-3 lg:px-5 lg:py-6">
+          <div>
+            <p className="text-lg font-semibold tracking-wide text-white">Gatewell</p>
+            <p className="text-xs text-ink-300 lg:mt-1">Ion-channel screening</p>
+          </div>
+          <NoticeBell unseen={unseenNotices} />
         </div>
         <nav aria-label="Main" className="px-2 pb-2 lg:flex-1 lg:px-3">
           <NavLinks items={navItemsFor(actor.roles)} />

@@ -72,6 +72,7 @@ export const FIELD_LABELS: Record<string, FieldLabel> = {
   newPassword: { label: 'New password' },
   sent: { label: 'Link sent' },
   why: { label: 'Why not sent' },
+  noticeDelivery: { label: 'Notices by' },
   // plates, wells, fits
   label: { label: 'Plate label' },
   screenId: { label: 'Screen' },

@@ -3,11 +3,13 @@ import { Op, type Transaction } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { rolesFor } from '@/lib/domain/roles';
 import { env } from '@/lib/env';
-import { queueMail, type OutgoingMail } from '@/lib/mail/outbox';
+import { queueNotices, type NoticeToQueue } from '@/lib/notices/queue';
 import { User, UserRole } from '@/models';
 
 /** Where the people who may register compounds find the imports waiting for them. */
 export const WAITING_IMPORTS_PATH = '/compounds#waiting-imports';
+/** One waiting import in the list of the compounds page (components/imports/waiting-imports.tsx). */
+export const waitingImportPath = (draftId: string) => `/compounds#waiting-import-${draftId}`;
 /** Where an import's owner resumes a waiting import. */
 export const resumeImportPath = (draftId: string) => `/plates/import?resume=${draftId}`;
 
@@ -33,23 +35,30 @@ async function registrars(transaction: Transaction) {
 const list = (identifiers: readonly string[]) => identifiers.map((id) => `  - ${id}`);
 
 /**
- * Queues, in the caller's transaction, the notice to everyone who may register compounds (not the
- * actor) that an import waits for these identifiers; returns the recipients' addresses.
+ * Writes, in the caller's transaction, the notice (in Gatewell and, by choice, by e-mail) to everyone who
+ * may register compounds (not the actor) that an import waits for these identifiers; returns the
+ * addresses of the people told.
  */
 export async function queueWaitingNotices(
   actor: Actor,
-  draft: { filename: string; screenName: string; waitingFor: readonly string[] },
+  draft: { id: string; filename: string; screenName: string; waitingFor: readonly string[] },
   transaction: Transaction,
 ): Promise<string[]> {
   const people = (await registrars(transaction)).filter((p) => p.id !== actor.id);
   const n = draft.waitingFor.length;
-  const messages: OutgoingMail[] = people.map((person) => ({
+  const title = `An import waits for ${n} compound${n === 1 ? '' : 's'} to be registered`;
+  const messages: NoticeToQueue[] = people.map((person) => ({
     kind: 'import_waiting_for_compounds',
+    notice: {
+      title,
+      summary: `${actor.name} is importing ${draft.filename} (${draft.screenName}), which names compounds the registry does not know: ${draft.waitingFor.join(', ')}. Register them, or map each to a registered compound as an alias.`,
+      linkPath: waitingImportPath(draft.id),
+    },
     plateId: null,
     signoffEventId: null,
     recipientId: person.id,
     toAddress: person.email,
-    subject: `Gatewell: an import waits for ${n} compound${n === 1 ? '' : 's'} to be registered`,
+    subject: `Gatewell: ${title[0]!.toLowerCase()}${title.slice(1)}`,
     bodyText: [
       `Hello ${person.name},`,
       '',
@@ -63,11 +72,14 @@ export async function queueWaitingNotices(
       'Gatewell',
     ].join('\n'),
   }));
-  await queueMail(messages, transaction);
+  await queueNotices(messages, transaction);
   return messages.map((m) => m.toAddress);
 }
 
-/** Queues, in the caller's transaction, the notice to a waiting import's owner that nothing is missing now. */
+/**
+ * Writes, in the caller's transaction, the notice (in Gatewell and, by choice, by e-mail) to a waiting
+ * import's owner that nothing is missing now.
+ */
 export async function queueReadyNotice(
   actor: Actor,
   draft: { id: string; ownerId: string; filename: string; waitingFor: readonly string[] },
@@ -81,10 +93,15 @@ export async function queueReadyNotice(
     transaction,
   });
   if (!owner) return;
-  await queueMail(
+  await queueNotices(
     [
       {
         kind: 'import_compounds_ready',
+        notice: {
+          title: `The compounds of ${draft.filename} are registered`,
+          summary: `${actor.name} registered or mapped the compounds your import of ${draft.filename} waited for: ${draft.waitingFor.join(', ')}. Check the rows again and store the plate.`,
+          linkPath: resumeImportPath(draft.id),
+        },
         plateId: null,
         signoffEventId: null,
         recipientId: owner.id,

@@ -69,7 +69,7 @@ export async function holdImportForCompounds(
     );
     const notified = await queueWaitingNotices(
       actor,
-      { filename: draft.filename, screenName: screen.name, waitingFor },
+      { id: draft.id, filename: draft.filename, screenName: screen.name, waitingFor },
       transaction,
     );
     return { waitingFor, notified };

@@ -1,14 +1,14 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
-import { queueMail } from '@/lib/mail/outbox';
+import { queueNotices } from '@/lib/notices/queue';
 import { Plate, Screen } from '@/models';
 import { noticesFor, plateSignoffPath } from './notices';
 import { plateQcWarnings } from './qc-warnings';
 import { SIGNOFF_STEPS } from './steps';
 
 /**
- * Queues, in the import's transaction, the notice to chemists that new plates wait for verification: one
+ * Writes, in the import's transaction, the notice to chemists (in Gatewell and by e-mail) that new plates wait for verification: one
  * notice per person for the whole import, however many plates the file held (the first plate's link,
  * then every plate's label and link, and the QC warnings of each, named by plate).
  */
@@ -53,5 +53,5 @@ export async function queueImportNotices(
     },
     transaction,
   );
-  return queueMail(notices, transaction);
+  return queueNotices(notices, transaction);
 }

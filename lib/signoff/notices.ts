@@ -4,8 +4,8 @@ import type { Actor } from '@/lib/auth/roles';
 import { PLATE_TRANSITIONS, type SignoffAction } from '@/lib/domain/plate-states';
 import { rolesFor, type Role } from '@/lib/domain/roles';
 import { env } from '@/lib/env';
-import type { OutgoingMail } from '@/lib/mail/outbox';
-import type { MailKind } from '@/lib/domain/mail';
+import type { NoticeKind } from '@/lib/domain/notices';
+import type { NoticeToQueue } from '@/lib/notices/queue';
 import { selectRecipients, type RecipientRow } from './queries';
 
 /** Where a plate's sign-off panel and history live; e-mails link here. */
@@ -20,7 +20,7 @@ export interface NoticePlate {
 }
 
 interface Audience {
-  kind: MailKind;
+  kind: NoticeKind;
   roles: readonly Role[];
   /** Whether the importer and submitter hear of it too. */
   owners: boolean;
@@ -109,7 +109,7 @@ function qcLines(
 }
 
 /**
- * The notifications of one step: to everyone of the next role who may act on the plate (`mayAct`
+ * The notices of one step (kept in Gatewell and, by each person's choice, mailed): to everyone of the next role who may act on the plate (`mayAct`
  * applies segregation of duties), and on a decision to the importer and submitter; never to the signer.
  */
 export async function noticesFor(
@@ -124,7 +124,7 @@ export async function noticesFor(
     mayAct: (userId: string) => boolean;
   },
   transaction: Transaction,
-): Promise<OutgoingMail[]> {
+): Promise<NoticeToQueue[]> {
   const audience = AUDIENCE[step];
   const { actor, plate } = context;
   const next = (await users('role', audience.roles, transaction)).filter((person) =>
@@ -137,9 +137,21 @@ export async function noticesFor(
     (person) => person.id !== actor.id,
   );
   const link = `${env().APP_URL.replace(/\/$/, '')}${plateSignoffPath(plate.id)}`;
+  const title = `Plate ${plate.label} ${audience.subject}`;
   const subject = `Gatewell: plate ${plate.label} ${audience.subject}`;
+  // The notice in Gatewell says the same in a few sentences; an import's comment (each plate's address
+  // when a file held several) is left out, as the label already names every plate.
+  const summary = [
+    `${actor.name} ${audience.done} plate ${plate.label} (${plate.screenName}).`,
+    audience.next,
+    ...(context.comment && step !== 'import' ? [`Comment: ${context.comment}`] : []),
+    ...(context.qcWarnings.length
+      ? [`QC warnings: ${context.qcWarnings.map((w) => w.message).join('; ')}`]
+      : []),
+  ].join(' ');
   return people.map((person) => ({
     kind: audience.kind,
+    notice: { title, summary, linkPath: plateSignoffPath(plate.id) },
     plateId: plate.id,
     signoffEventId: context.signoffEventId,
     recipientId: person.id,

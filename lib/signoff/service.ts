@@ -5,7 +5,7 @@ import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { signRecord } from '@/lib/auth/signature';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
-import { queueMail } from '@/lib/mail/outbox';
+import { queueNotices } from '@/lib/notices/queue';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { signoffRequestSchema, type SignoffRequest } from '@/lib/validation/signoff';
 import { Plate, Screen, SignoffEvent } from '@/models';
@@ -199,7 +199,7 @@ export async function signPlateStep(
         },
         transaction,
       );
-      const notified = await queueMail(notices, transaction);
+      const notified = await queueNotices(notices, transaction);
       return {
         plateId: plate.id,
         label: plate.label,

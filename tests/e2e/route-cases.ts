@@ -46,6 +46,8 @@ export type Table =
   | 'import_uploads'
   | 'login_attempts'
   | 'mail_outbox'
+  | 'notice_delivery'
+  | 'notices'
   | 'password_links'
   | 'plates'
   | 'screens'
@@ -160,6 +162,7 @@ export const ROUTE_CASES: RouteCase[] = [
   },
   page('/'),
   page('/account'),
+  page('/notices'),
   page('/plates'),
   page('/plates/import', IMPORT_PLATES),
   page('/plates/[plateId]'),
@@ -260,6 +263,15 @@ const signedInAction = (
   writes,
 });
 
+/**
+ * A signed-in person's action on their own things (notices, how they are told): every role may call it,
+ * but not before choosing their own password.
+ */
+const ownAction = (action: string, form: ActionCase['form'], writes: Table[]): ActionCase => ({
+  ...signedInAction(action, undefined, form, writes),
+  expect: { anonymous: 'sign-in', ended: 401, 'first-sign-in': 403, ...only(undefined) },
+});
+
 /** An action of the pages for anonymous visitors: anyone may call it. */
 const openAction = (action: string, form: ActionCase['form'], writes: Table[]): ActionCase => ({
   action,
@@ -292,6 +304,19 @@ export const ACTION_CASES: ActionCase[] = [
       confirmPassword: 'matrix-new-password-1',
     }),
     ['audit_events'],
+  ),
+  ownAction('app/(app)/account/actions.ts#setNoticeDeliveryAction', () => ({ delivery: 'app_only' }), [
+    'notice_delivery',
+    'audit_events',
+  ]),
+  // Marking seen changes rows, adds none: nothing for the count to see; the integration test
+  // (tests/integration/notices.test.ts) checks that another's notice is refused with nothing written.
+  ownAction('app/(app)/notices/actions.ts#openNoticeAction', () => ({ noticeId: randomUUID() }), []),
+  ownAction('app/(app)/notices/actions.ts#markNoticeSeenAction', () => ({ noticeId: randomUUID() }), []),
+  ownAction(
+    'app/(app)/notices/actions.ts#markAllNoticesSeenAction',
+    () => ({ upTo: new Date().toISOString() }),
+    [],
   ),
   signedInAction(
     'app/(app)/admin/outbox/actions.ts#requeueMailAction',

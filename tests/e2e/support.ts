@@ -154,7 +154,7 @@ export const AUDIT_EXPORT_HEADER = [
 
 /**
  * Every main page an admin can open, on the demo data: lists, a plate (NAV-P02) with its tabs, a compound
- * with its profile, a screen, a person, the outbox, the audit trail and the account page. The import page
+ * with its profile, a screen, a person, the outbox, the audit trail, the account page and the notices. The import page
  * is the biologist's and is not in this list.
  */
 export async function mainPages(): Promise<{ pages: string[]; plate: { id: string } }> {
@@ -186,6 +186,7 @@ export async function mainPages(): Promise<{ pages: string[]; plate: { id: strin
     '/admin/outbox',
     '/audit',
     '/account',
+    '/notices',
   ];
   return { pages, plate: plate! };
 }

@@ -127,6 +127,7 @@ const CHANGING_ENTRY_POINTS: Record<string, string> = {
   'app/(app)/admin/users/actions.ts': 'users, no plate data',
   'app/(app)/admin/outbox/actions.ts': 'mail, no plate data',
   'app/(app)/account/actions.ts': 'own account, no plate data',
+  'app/(app)/notices/actions.ts': 'own notices marked seen, no plate data',
   'app/(auth)/lost-password/actions.ts': 'password links, no plate data',
   'app/(auth)/password-link/[token]/actions.ts': 'own password, no plate data',
   'app/(auth)/sign-in/actions.ts': 'sessions, no plate data',

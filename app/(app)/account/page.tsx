@@ -1,9 +1,11 @@
 import type { Metadata } from 'next';
 import { PageHeader } from '@/components/ui/page-header';
+import { NoticeDeliveryForm } from '@/components/notices/notice-delivery-form';
 import { ROLE_CHOICES } from '@/components/users/role-choices';
 import { requireActor } from '@/lib/auth/current-actor';
 import { MIN_PASSWORD_LENGTH } from '@/lib/auth/password-policy';
-import { changePasswordAction } from './actions';
+import { noticeDeliveryOf } from '@/lib/notices/service';
+import { changePasswordAction, setNoticeDeliveryAction } from './actions';
 import { ChangePasswordForm } from './change-password-form';
 
 export const metadata: Metadata = { title: 'Account' };
@@ -11,6 +13,7 @@ export const metadata: Metadata = { title: 'Account' };
 export default async function AccountPage() {
   const actor = await requireActor();
   const roles = ROLE_CHOICES.filter((choice) => actor.roles.includes(choice.role));
+  const delivery = await noticeDeliveryOf(actor);
   return (
     <>
       <PageHeader title="Account" intro={`Signed in as ${actor.name} (${actor.email}).`} />
@@ -51,6 +54,17 @@ export default async function AccountPage() {
             Every other session of yours ends; this one stays signed in.
           </p>
           <ChangePasswordForm action={changePasswordAction} minPasswordLength={MIN_PASSWORD_LENGTH} />
+        </section>
+        <section className="gw-card p-5" aria-labelledby="notices-heading">
+          <h2 id="notices-heading" className="text-lg font-semibold">
+            How you are told
+          </h2>
+          <p className="mb-3 mt-1 text-sm text-ink-700">
+            Notices about your plates, plates you may sign next and imports waiting for compounds always
+            appear under the bell at the top. No e-mail is needed for the record: every sign-off is in the
+            audit trail whichever you choose. Password links and invitations always come by e-mail.
+          </p>
+          <NoticeDeliveryForm action={setNoticeDeliveryAction} current={delivery} />
         </section>
       </div>
     </>
