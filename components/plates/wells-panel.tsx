@@ -8,7 +8,8 @@ import { DataGrid } from '@/components/ui/data-grid';
 import { exclusionSchema, type WellRowView } from '@/lib/validation/plates';
 import { plateJobsKey } from './plate-jobs';
 import { fitsKey, postJson, usePlateWells, wellsKey } from './plate-data';
-import { PlateMap, type MapColouring } from './plate-map';
+import { MAP_MODES, MAP_MODE_LABEL, type MapMode } from './map-colours';
+import { PlateMap } from './plate-map';
 
 const fmt = (digits: number) => (p: { value: unknown }) =>
   typeof p.value === 'number' ? p.value.toPrecision(digits) : '—';
@@ -85,16 +86,19 @@ export function WellsPanel({
   plateId,
   format,
   canEdit,
+  initialMode = 'block',
 }: {
   plateId: string;
   format: number;
   canEdit: boolean;
+  /** The colouring the map opens on: compound for someone who verifies the compound map. */
+  initialMode?: MapMode;
 }) {
   const { data, error, isLoading } = usePlateWells(plateId);
   const { mutate } = useSWRConfig();
   const targets = useMemo(() => [...new Set(data?.wells.map((w) => w.target))], [data]);
   const [target, setTarget] = useState<string | null>(null);
-  const [colouring, setColouring] = useState<MapColouring>('block');
+  const [colouring, setColouring] = useState<MapMode>(initialMode);
   const [selected, setSelected] = useState<Set<string>>(new Set());
   const [reason, setReason] = useState('');
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
@@ -170,9 +174,9 @@ export function WellsPanel({
             ))}
           </select>
         </label>
-        <fieldset className="flex gap-3 text-sm">
-          <legend className="sr-only">Colour wells by</legend>
-          {(['block', 'qc'] as const).map((mode) => (
+        <fieldset className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm">
+          <legend className="float-left mr-1 text-ink-500">Colour wells by</legend>
+          {MAP_MODES.map((mode) => (
             <label key={mode} className="inline-flex items-center gap-1">
               <input
                 type="radio"
@@ -180,7 +184,7 @@ export function WellsPanel({
                 checked={colouring === mode}
                 onChange={() => setColouring(mode)}
               />
-              {mode === 'block' ? 'Fractional block' : 'QC status'}
+              {MAP_MODE_LABEL[mode]}
             </label>
           ))}
         </fieldset>
@@ -188,7 +192,8 @@ export function WellsPanel({
       <PlateMap
         format={format}
         wells={wells}
-        colouring={colouring}
+        mode={colouring}
+        label={`Plate map of ${current}, ${format} wells`}
         selected={selected}
         onToggle={editable ? toggle : undefined}
       />
