@@ -15,20 +15,28 @@ const FAILED = '#c2410c';
 
 /** The plot's legend, drawn inside the SVG so that a downloaded file carries it. */
 function Legend({
+  hasCurve,
   hasBand,
   extrapolated,
-  hollow,
+  excluded,
+  failed,
 }: {
+  hasCurve: boolean;
   hasBand: boolean;
   extrapolated: boolean;
-  hollow: boolean;
+  excluded: boolean;
+  failed: boolean;
 }) {
   const items: { key: string; label: string; mark: ReactNode }[] = [
-    {
-      key: 'within',
-      label: 'Fitted curve, tested range',
-      mark: <line x1={0} x2={22} y1={0} y2={0} stroke={CURVE} strokeWidth={2.2} />,
-    },
+    ...(hasCurve
+      ? [
+          {
+            key: 'within',
+            label: 'Fitted curve, tested range',
+            mark: <line x1={0} x2={22} y1={0} y2={0} stroke={CURVE} strokeWidth={2.2} />,
+          },
+        ]
+      : []),
     ...(extrapolated
       ? [
           {
@@ -50,13 +58,17 @@ function Legend({
         ]
       : []),
     { key: 'used', label: 'Well used in the fit', mark: <circle cx={11} cy={0} r={3.5} fill="#12202f" /> },
-    ...(hollow
+    ...(excluded
       ? [
           {
             key: 'excluded',
             label: 'Excluded well (hollow)',
             mark: <circle cx={11} cy={0} r={3.5} fill="#ffffff" stroke={EXCLUDED} strokeWidth={1.6} />,
           },
+        ]
+      : []),
+    ...(failed
+      ? [
           {
             key: 'failed',
             label: 'Failed QC (hollow)',
@@ -110,7 +122,9 @@ export function DoseResponsePlot({ fit, points, id }: { fit: FitView; points: We
   const range = testedRange(points);
   const parts = range ? splitCurve(fit.curve, range.lo_uM, range.hi_uM) : null;
   const hasBand = fit.curve.length > 0 && fit.curve[0]!.low !== null;
-  const hollow = points.some((p) => p.excluded || p.qcReasons.length > 0);
+  const drawn = points.filter(
+    (p) => p.concentration_uM && p.concentration_uM > 0 && p.fractionalBlock !== null,
+  );
   const label = `${fit.compound} on ${fit.target}: ${fit.message}`;
   return (
     <svg
@@ -216,29 +230,29 @@ export function DoseResponsePlot({ fit, points, id }: { fit: FitView; points: We
           </text>
         </g>
       ) : null}
-      {points
-        .filter((p) => p.concentration_uM && p.concentration_uM > 0 && p.fractionalBlock !== null)
-        .map((p) => {
-          const kind = p.excluded ? 'excluded' : p.qcReasons.length ? 'failed' : 'used';
-          return (
-            <circle
-              key={p.readoutId}
-              cx={x(p.concentration_uM!)}
-              cy={y(Math.max(-0.2, Math.min(1.2, p.fractionalBlock!)))}
-              r={3.5}
-              fill={kind === 'used' ? '#12202f' : '#ffffff'}
-              stroke={kind === 'used' ? '#12202f' : kind === 'excluded' ? EXCLUDED : FAILED}
-              strokeWidth={kind === 'used' ? 1 : 1.6}
-              data-well={kind}
-            >
-              <title>{`${p.position}: ${(p.fractionalBlock! * 100).toFixed(1)} % at ${p.concentration_uM!.toPrecision(3)} µM${kind === 'used' ? '' : kind === 'excluded' ? ' (excluded)' : ' (failed QC)'}`}</title>
-            </circle>
-          );
-        })}
+      {drawn.map((p) => {
+        const kind = p.excluded ? 'excluded' : p.qcReasons.length ? 'failed' : 'used';
+        return (
+          <circle
+            key={p.readoutId}
+            cx={x(p.concentration_uM!)}
+            cy={y(Math.max(-0.2, Math.min(1.2, p.fractionalBlock!)))}
+            r={3.5}
+            fill={kind === 'used' ? '#12202f' : '#ffffff'}
+            stroke={kind === 'used' ? '#12202f' : kind === 'excluded' ? EXCLUDED : FAILED}
+            strokeWidth={kind === 'used' ? 1 : 1.6}
+            data-well={kind}
+          >
+            <title>{`${p.position}: ${(p.fractionalBlock! * 100).toFixed(1)} % at ${p.concentration_uM!.toPrecision(3)} µM${kind === 'used' ? '' : kind === 'excluded' ? ' (excluded)' : ' (failed QC)'}`}</title>
+          </circle>
+        );
+      })}
       <Legend
+        hasCurve={Boolean(parts?.within.length)}
         hasBand={hasBand}
         extrapolated={Boolean(parts?.below.length || parts?.above.length)}
-        hollow={hollow}
+        excluded={drawn.some((p) => p.excluded)}
+        failed={drawn.some((p) => !p.excluded && p.qcReasons.length > 0)}
       />
     </svg>
   );

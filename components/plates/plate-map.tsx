@@ -1,6 +1,6 @@
 'use client';
 
-import { useMemo, useState, type KeyboardEvent } from 'react';
+import { useEffect, useMemo, useState, type KeyboardEvent } from 'react';
 import type { WellRowView } from '@/lib/validation/plates';
 import {
   MAP_MODE_LABEL,
@@ -63,6 +63,7 @@ export function PlateMap({
   selected = new Set(),
   onToggle,
   label,
+  onShow,
 }: {
   format: number;
   wells: WellRowView[];
@@ -71,6 +72,11 @@ export function PlateMap({
   onToggle?: ((wellId: string) => void) | undefined;
   /** What the map shows, for its accessible name; its colouring is added. */
   label?: string;
+  /**
+   * Where the facts of the well under the pointer or focus go: given, the caller shows them (one box for
+   * several maps); else a box beside the map shows them.
+   */
+  onShow?: (well: WellRowView | undefined) => void;
 }) {
   const { rows, columns } = GEOMETRY[format] ?? GEOMETRY[96]!;
   const [focus, setFocus] = useState(0);
@@ -87,6 +93,7 @@ export function PlateMap({
   const height = margin + rows * cell + 2;
   const focused = byCell.get(focus);
   const shown = byCell.get(hover ?? focus);
+  useEffect(() => onShow?.(shown), [onShow, shown]);
   const labelSize = cell > 20 ? 10 : cell > 12 ? 8 : 6.5;
   const name = `${label ?? `Plate map, ${format} wells`}, coloured by ${MAP_MODE_LABEL[mode].toLowerCase()}`;
 
@@ -119,11 +126,14 @@ export function PlateMap({
   }
 
   return (
-    <figure className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_15rem]" data-map-mode={mode}>
+    <figure
+      className={`grid items-start gap-4 ${onShow ? '' : 'xl:grid-cols-[minmax(0,1fr)_15rem]'}`}
+      data-map-mode={mode}
+    >
       <div className="min-w-0 space-y-2">
         <svg
           viewBox={`0 0 ${width} ${height}`}
-          className="block h-auto w-full max-w-4xl rounded-md bg-card outline-none focus-visible:ring-3 focus-visible:ring-lagoon-500"
+          className={`block h-auto w-full ${format === 96 ? 'max-w-2xl' : 'max-w-4xl'} rounded-md bg-card outline-none focus-visible:ring-3 focus-visible:ring-lagoon-500`}
           role="grid"
           aria-label={name}
           tabIndex={0}
@@ -214,15 +224,15 @@ export function PlateMap({
           })}
         </svg>
         <figcaption>
-          <MapLegend items={legend} title={MAP_MODE_LABEL[mode]} />
+          <MapLegend items={legend} title={MAP_MODE_LABEL[mode]} marks={cell >= 18} />
         </figcaption>
       </div>
-      <WellFactsBox well={shown} />
+      {onShow ? null : <WellFactsBox well={shown} />}
     </figure>
   );
 }
 
-function WellFactsBox({ well }: { well: WellRowView | undefined }) {
+export function WellFactsBox({ well }: { well: WellRowView | undefined }) {
   return (
     <section aria-label="Well facts" className="gw-card p-3 text-sm" data-testid="well-facts">
       <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-500">Well facts</h3>
@@ -242,7 +252,7 @@ function WellFactsBox({ well }: { well: WellRowView | undefined }) {
   );
 }
 
-function MapLegend({ items, title }: { items: LegendItem[]; title: string }) {
+function MapLegend({ items, title, marks }: { items: LegendItem[]; title: string; marks: boolean }) {
   return (
     <div
       className="text-xs text-ink-700"
@@ -262,7 +272,7 @@ function MapLegend({ items, title }: { items: LegendItem[]; title: string }) {
             <span data-legend-fill={item.fill}>{item.label}</span>
           </li>
         ))}
-        <li>V vehicle · R reference blocker</li>
+        {marks ? <li>V vehicle · R reference blocker</li> : null}
       </ul>
     </div>
   );
