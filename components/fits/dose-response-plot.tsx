@@ -1,16 +1,106 @@
+import type { ReactNode } from 'react';
 import { scaleLinear, scaleLog } from 'd3-scale';
 import { area, line } from 'd3-shape';
 import type { FitView, WellRowView } from '@/lib/validation/plates';
+import { splitCurve, testedRange, type CurvePoint } from './curve-parts';
 
-const W = 360;
-const H = 230;
-const M = { top: 12, right: 14, bottom: 40, left: 46 };
+const W = 420;
+const H = 330;
+const LEGEND_H = 62;
+const M = { top: 12, right: 14, bottom: 40 + LEGEND_H, left: 50 };
+const BAND = '#2a9d9f';
+const CURVE = '#0b4f53';
+const EXCLUDED = '#3b4a59';
+const FAILED = '#c2410c';
+
+/** The plot's legend, drawn inside the SVG so that a downloaded file carries it. */
+function Legend({
+  hasCurve,
+  hasBand,
+  extrapolated,
+  excluded,
+  failed,
+}: {
+  hasCurve: boolean;
+  hasBand: boolean;
+  extrapolated: boolean;
+  excluded: boolean;
+  failed: boolean;
+}) {
+  const items: { key: string; label: string; mark: ReactNode }[] = [
+    ...(hasCurve
+      ? [
+          {
+            key: 'within',
+            label: 'Fitted curve, tested range',
+            mark: <line x1={0} x2={22} y1={0} y2={0} stroke={CURVE} strokeWidth={2.2} />,
+          },
+        ]
+      : []),
+    ...(extrapolated
+      ? [
+          {
+            key: 'beyond',
+            label: 'Beyond tested range',
+            mark: (
+              <line x1={0} x2={22} y1={0} y2={0} stroke={CURVE} strokeWidth={1.6} strokeDasharray="5 4" />
+            ),
+          },
+        ]
+      : []),
+    ...(hasBand
+      ? [
+          {
+            key: 'band',
+            label: '95 % confidence band',
+            mark: <rect x={0} y={-5} width={22} height={10} fill={BAND} fillOpacity={0.32} stroke={BAND} />,
+          },
+        ]
+      : []),
+    { key: 'used', label: 'Well used in the fit', mark: <circle cx={11} cy={0} r={3.5} fill="#12202f" /> },
+    ...(excluded
+      ? [
+          {
+            key: 'excluded',
+            label: 'Excluded well (hollow)',
+            mark: <circle cx={11} cy={0} r={3.5} fill="#ffffff" stroke={EXCLUDED} strokeWidth={1.6} />,
+          },
+        ]
+      : []),
+    ...(failed
+      ? [
+          {
+            key: 'failed',
+            label: 'Failed QC (hollow)',
+            mark: <circle cx={11} cy={0} r={3.5} fill="#ffffff" stroke={FAILED} strokeWidth={1.6} />,
+          },
+        ]
+      : []),
+  ];
+  const top = H - LEGEND_H + 8;
+  return (
+    <g data-plot-legend="" aria-label="Legend">
+      {items.map((item, i) => (
+        <g
+          key={item.key}
+          transform={`translate(${M.left - 30 + (i % 2) * 190} ${top + Math.floor(i / 2) * 17})`}
+        >
+          {item.mark}
+          <text x={28} y={3.5} fontSize={10.5} fill="#2b4157">
+            {item.label}
+          </text>
+        </g>
+      ))}
+    </g>
+  );
+}
 
 /**
- * Concentration–block plot of one fit: wells as points (excluded or QC-failed hollow), the fitted
- * curve with its 95 % band, and the IC50 marker. Log concentration axis.
+ * Concentration–block plot of one fit: wells as points (excluded and QC-failed ones hollow), the fitted
+ * curve solid across the tested concentrations and dashed beyond them, its 95 % band, the IC50 marker and
+ * a legend inside the drawing. Log concentration axis in µM, block in %.
  */
-export function DoseResponsePlot({ fit, points }: { fit: FitView; points: WellRowView[] }) {
+export function DoseResponsePlot({ fit, points, id }: { fit: FitView; points: WellRowView[]; id?: string }) {
   const concentrations = points.map((p) => p.concentration_uM!).filter((c) => c > 0);
   const lo = Math.min(...concentrations, ...(fit.curve.length ? [fit.curve[0]!.concentration_uM] : []));
   const hi = Math.max(...concentrations, ...(fit.curve.length ? [fit.curve.at(-1)!.concentration_uM] : []));
@@ -21,18 +111,32 @@ export function DoseResponsePlot({ fit, points }: { fit: FitView; points: WellRo
   const y = scaleLinear()
     .domain([-0.2, 1.2])
     .range([H - M.bottom, M.top]);
-  const curve = line<FitView['curve'][number]>()
+  const curve = line<CurvePoint>()
     .x((d) => x(d.concentration_uM))
     .y((d) => y(d.block));
-  const band = area<FitView['curve'][number]>()
+  const band = area<CurvePoint>()
     .x((d) => x(d.concentration_uM))
     .y0((d) => y(d.low ?? d.block))
     .y1((d) => y(d.high ?? d.block));
   const ticks = x.ticks().filter((t) => Number.isInteger(Math.log10(t)));
+  const range = testedRange(points);
+  const parts = range ? splitCurve(fit.curve, range.lo_uM, range.hi_uM) : null;
+  const hasBand = fit.curve.length > 0 && fit.curve[0]!.low !== null;
+  const drawn = points.filter(
+    (p) => p.concentration_uM && p.concentration_uM > 0 && p.fractionalBlock !== null,
+  );
   const label = `${fit.compound} on ${fit.target}: ${fit.message}`;
   return (
-    <svg viewBox={`0 0 ${W} ${H}`} className="w-full" role="img" aria-label={label}>
+    <svg
+      id={id}
+      viewBox={`0 0 ${W} ${H}`}
+      className="w-full"
+      role="img"
+      aria-label={label}
+      fontFamily="system-ui, sans-serif"
+    >
       <title>{label}</title>
+      <rect x={0} y={0} width={W} height={H} fill="#ffffff" />
       {[0, 0.5, 1].map((v) => (
         <g key={v}>
           <line
@@ -44,31 +148,72 @@ export function DoseResponsePlot({ fit, points }: { fit: FitView; points: WellRo
             strokeDasharray={v === 0.5 ? '3 3' : undefined}
           />
           <text x={M.left - 6} y={y(v) + 3} textAnchor="end" fontSize={10} fill="#51677d">
-            {v * 100}%
+            {v * 100}
           </text>
         </g>
       ))}
+      <line x1={M.left} x2={W - M.right} y1={H - M.bottom} y2={H - M.bottom} stroke="#9aa9b8" />
       {ticks.map((t) => (
-        <text key={t} x={x(t)} y={H - M.bottom + 14} textAnchor="middle" fontSize={10} fill="#51677d">
-          {t >= 1 ? t : t.toPrecision(1)}
-        </text>
+        <g key={t}>
+          <line x1={x(t)} x2={x(t)} y1={H - M.bottom} y2={H - M.bottom + 4} stroke="#9aa9b8" />
+          <text x={x(t)} y={H - M.bottom + 15} textAnchor="middle" fontSize={10} fill="#51677d">
+            {t >= 1 ? t : t.toPrecision(1)}
+          </text>
+        </g>
       ))}
-      <text x={(M.left + W - M.right) / 2} y={H - 6} textAnchor="middle" fontSize={10} fill="#2b4157">
+      <text
+        x={(M.left + W - M.right) / 2}
+        y={H - M.bottom + 31}
+        textAnchor="middle"
+        fontSize={10.5}
+        fill="#2b4157"
+      >
         Concentration (µM, log scale)
       </text>
       <text
-        transform={`translate(12 ${(M.top + H - M.bottom) / 2}) rotate(-90)`}
+        transform={`translate(13 ${(M.top + H - M.bottom) / 2}) rotate(-90)`}
         textAnchor="middle"
-        fontSize={10}
+        fontSize={10.5}
         fill="#2b4157"
       >
-        Fractional block
+        Fractional block (%)
       </text>
-      {fit.curve.length && fit.curve[0]!.low !== null ? (
-        <path d={band(fit.curve) ?? ''} fill="#168f94" opacity={0.18} />
+      {hasBand ? (
+        <path
+          d={band(fit.curve) ?? ''}
+          fill={BAND}
+          fillOpacity={0.32}
+          stroke={BAND}
+          strokeOpacity={0.8}
+          strokeWidth={0.8}
+          data-part="band"
+        />
       ) : null}
-      {fit.curve.length ? (
-        <path d={curve(fit.curve) ?? ''} fill="none" stroke="#0b5f63" strokeWidth={2} />
+      {parts ? (
+        <>
+          {(['below', 'above'] as const).map((key) =>
+            parts[key].length ? (
+              <path
+                key={key}
+                d={curve(parts[key]) ?? ''}
+                fill="none"
+                stroke={CURVE}
+                strokeWidth={1.6}
+                strokeDasharray="5 4"
+                data-part={key}
+              />
+            ) : null,
+          )}
+          {parts.within.length ? (
+            <path
+              d={curve(parts.within) ?? ''}
+              fill="none"
+              stroke={CURVE}
+              strokeWidth={2.2}
+              data-part="within"
+            />
+          ) : null}
+        </>
       ) : null}
       {fit.ic50_uM !== null && fit.ic50_uM >= x.domain()[0]! && fit.ic50_uM <= x.domain()[1]! ? (
         <g>
@@ -85,24 +230,30 @@ export function DoseResponsePlot({ fit, points }: { fit: FitView; points: WellRo
           </text>
         </g>
       ) : null}
-      {points
-        .filter((p) => p.concentration_uM && p.concentration_uM > 0 && p.fractionalBlock !== null)
-        .map((p) => {
-          const used = !p.excluded && p.qcReasons.length === 0;
-          return (
-            <circle
-              key={p.readoutId}
-              cx={x(p.concentration_uM!)}
-              cy={y(Math.max(-0.2, Math.min(1.2, p.fractionalBlock!)))}
-              r={3.5}
-              fill={used ? '#12202f' : 'white'}
-              stroke={used ? '#12202f' : '#b42318'}
-              strokeWidth={1.4}
-            >
-              <title>{`${p.position}: ${(p.fractionalBlock! * 100).toFixed(1)} % at ${p.concentration_uM!.toPrecision(3)} µM${used ? '' : p.excluded ? ' (excluded)' : ' (failed QC)'}`}</title>
-            </circle>
-          );
-        })}
+      {drawn.map((p) => {
+        const kind = p.excluded ? 'excluded' : p.qcReasons.length ? 'failed' : 'used';
+        return (
+          <circle
+            key={p.readoutId}
+            cx={x(p.concentration_uM!)}
+            cy={y(Math.max(-0.2, Math.min(1.2, p.fractionalBlock!)))}
+            r={3.5}
+            fill={kind === 'used' ? '#12202f' : '#ffffff'}
+            stroke={kind === 'used' ? '#12202f' : kind === 'excluded' ? EXCLUDED : FAILED}
+            strokeWidth={kind === 'used' ? 1 : 1.6}
+            data-well={kind}
+          >
+            <title>{`${p.position}: ${(p.fractionalBlock! * 100).toFixed(1)} % at ${p.concentration_uM!.toPrecision(3)} µM${kind === 'used' ? '' : kind === 'excluded' ? ' (excluded)' : ' (failed QC)'}`}</title>
+          </circle>
+        );
+      })}
+      <Legend
+        hasCurve={Boolean(parts?.within.length)}
+        hasBand={hasBand}
+        extrapolated={Boolean(parts?.below.length || parts?.above.length)}
+        excluded={drawn.some((p) => p.excluded)}
+        failed={drawn.some((p) => !p.excluded && p.qcReasons.length > 0)}
+      />
     </svg>
   );
 }

@@ -6,6 +6,7 @@ import { fitsKey, postJson, usePlateFits, usePlateWells, wellsKey } from '@/comp
 import type { FitView } from '@/lib/validation/plates';
 import { DataTable } from '@/components/ui/data-table';
 import { plateJobsKey } from '@/components/plates/plate-jobs';
+import { SvgDownloadButton } from '@/components/ui/svg-download-button';
 import { DoseResponsePlot } from './dose-response-plot';
 
 const STATUS_TEXT: Record<FitView['status'], string> = {
@@ -117,9 +118,17 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
               </span>
             </header>
             <DoseResponsePlot
+              id={`plot-${fit.id}`}
               fit={fit}
               points={allWells.filter((w) => w.compoundId === fit.compoundId && w.targetId === fit.targetId)}
             />
+            <div className="mb-2 flex justify-end">
+              <SvgDownloadButton
+                targetId={`plot-${fit.id}`}
+                filename={`${fit.compound}-${fit.target}-dose-response.svg`.replace(/[^\w.-]+/g, '_')}
+                label={`Download SVG of ${fit.compound} on ${fit.target}`}
+              />
+            </div>
             <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
               <dt className="text-ink-500">IC50</dt>
               <dd className="tabular-nums">{ic50Text(fit)}</dd>

@@ -8,97 +8,111 @@ import { DataGrid } from '@/components/ui/data-grid';
 import { exclusionSchema, type WellRowView } from '@/lib/validation/plates';
 import { plateJobsKey } from './plate-jobs';
 import { fitsKey, postJson, usePlateWells, wellsKey } from './plate-data';
-import { PlateMap, type MapColouring } from './plate-map';
+import { MAP_MODES, MAP_MODE_LABEL, type MapMode } from './map-colours';
+import { PlateMap } from './plate-map';
 
 const fmt = (digits: number) => (p: { value: unknown }) =>
   typeof p.value === 'number' ? p.value.toPrecision(digits) : '—';
 
-const COLUMNS: ColDef<WellRowView>[] = [
-  { field: 'position', headerName: 'Well', width: 90 },
-  { field: 'role', headerName: 'Role', width: 100 },
-  { field: 'compound', headerName: 'Compound', width: 120 },
-  {
-    field: 'concentration_uM',
-    headerName: 'Conc. (µM)',
-    width: 110,
-    type: 'numericColumn',
-    valueFormatter: fmt(3),
-  },
-  {
-    field: 'controlCurrent_pA',
-    headerName: 'Control (pA)',
-    width: 120,
-    type: 'numericColumn',
-    valueFormatter: fmt(4),
-  },
-  {
-    field: 'compoundCurrent_pA',
-    headerName: 'Compound (pA)',
-    width: 130,
-    type: 'numericColumn',
-    valueFormatter: fmt(4),
-  },
-  {
-    field: 'fractionalBlock',
-    headerName: 'Block',
-    width: 95,
-    type: 'numericColumn',
-    valueFormatter: (p) => (typeof p.value === 'number' ? `${(p.value * 100).toFixed(1)} %` : '—'),
-  },
-  {
-    field: 'sealResistance_GOhm',
-    headerName: 'Seal (GΩ)',
-    width: 105,
-    type: 'numericColumn',
-    valueFormatter: fmt(3),
-  },
-  {
-    field: 'seriesResistance_MOhm',
-    headerName: 'Series (MΩ)',
-    width: 115,
-    type: 'numericColumn',
-    valueFormatter: fmt(3),
-  },
-  {
-    field: 'capacitance_pF',
-    headerName: 'Cap. (pF)',
-    width: 100,
-    type: 'numericColumn',
-    valueFormatter: fmt(3),
-  },
-  {
-    headerName: 'QC',
-    flex: 1,
-    minWidth: 220,
-    valueGetter: (p) => p.data?.qcReasons.map((q) => q.message).join('; ') || 'passed',
-    cellClass: (p) => (p.data?.qcReasons.length ? 'text-signal-fail' : 'text-signal-pass'),
-  },
-  {
-    headerName: 'Excluded',
-    width: 200,
-    valueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : ''),
-  },
-];
+// Full names with units in the headers; long ones wrap (defaultColDef below) and show whole on hover.
+const COLUMNS = (
+  [
+    { field: 'position', headerName: 'Well', width: 84, pinned: 'left', lockPinned: true },
+    { field: 'role', headerName: 'Role', width: 110 },
+    { field: 'compound', headerName: 'Compound', width: 120 },
+    {
+      field: 'concentration_uM',
+      headerName: 'Concentration (µM)',
+      width: 130,
+      type: 'numericColumn',
+      valueFormatter: fmt(3),
+    },
+    {
+      field: 'controlCurrent_pA',
+      headerName: 'Control current (pA)',
+      width: 130,
+      type: 'numericColumn',
+      valueFormatter: fmt(4),
+    },
+    {
+      field: 'compoundCurrent_pA',
+      headerName: 'Current with compound (pA)',
+      width: 140,
+      type: 'numericColumn',
+      valueFormatter: fmt(4),
+    },
+    {
+      field: 'fractionalBlock',
+      headerName: 'Fractional block (%)',
+      width: 120,
+      type: 'numericColumn',
+      valueFormatter: (p) => (typeof p.value === 'number' ? (p.value * 100).toFixed(1) : '—'),
+    },
+    {
+      field: 'sealResistance_GOhm',
+      headerName: 'Seal resistance (GΩ)',
+      width: 125,
+      type: 'numericColumn',
+      valueFormatter: fmt(3),
+    },
+    {
+      field: 'seriesResistance_MOhm',
+      headerName: 'Series resistance (MΩ)',
+      width: 125,
+      type: 'numericColumn',
+      valueFormatter: fmt(3),
+    },
+    {
+      field: 'capacitance_pF',
+      headerName: 'Capacitance (pF)',
+      width: 120,
+      type: 'numericColumn',
+      valueFormatter: fmt(3),
+    },
+    {
+      headerName: 'QC',
+      flex: 1,
+      minWidth: 220,
+      valueGetter: (p) => p.data?.qcReasons.map((q) => q.message).join('; ') || 'passed',
+      cellClass: (p) => (p.data?.qcReasons.length ? 'text-signal-fail' : 'text-signal-pass'),
+      tooltipValueGetter: (p) => p.data?.qcReasons.map((q) => q.message).join('; ') || 'passed',
+    },
+    {
+      headerName: 'Excluded',
+      width: 200,
+      valueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : ''),
+      tooltipValueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : null),
+    },
+  ] satisfies ColDef<WellRowView>[] as ColDef<WellRowView>[]
+).map((c) => ({ headerTooltip: c.headerName, ...c }));
+
+const QC_ANY = '';
+const QC_PASSED = ':passed';
+const QC_FAILED = ':failed';
 
 /** Plate map and wells grid of one target, with exclusion and re-inclusion of selected wells. */
 export function WellsPanel({
   plateId,
   format,
   canEdit,
+  initialMode = 'block',
 }: {
   plateId: string;
   format: number;
   canEdit: boolean;
+  /** The colouring the map opens on: compound for someone who verifies the compound map. */
+  initialMode?: MapMode;
 }) {
   const { data, error, isLoading } = usePlateWells(plateId);
   const { mutate } = useSWRConfig();
   const targets = useMemo(() => [...new Set(data?.wells.map((w) => w.target))], [data]);
   const [target, setTarget] = useState<string | null>(null);
-  const [colouring, setColouring] = useState<MapColouring>('block');
+  const [colouring, setColouring] = useState<MapMode>(initialMode);
   const [selected, setSelected] = useState<Set<string>>(new Set());
   const [reason, setReason] = useState('');
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [busy, setBusy] = useState<'exclude' | 'include' | null>(null);
+  const [qcFilter, setQcFilter] = useState(QC_ANY);
 
   if (error)
     return (
@@ -114,6 +128,17 @@ export function WellsPanel({
     );
   const current = target ?? targets[0] ?? '';
   const wells = data.wells.filter((w) => w.target === current);
+  // The QC reasons of this target's wells, by code, for the grid's filter.
+  const reasons = [...new Map(wells.flatMap((w) => w.qcReasons.map((q) => [q.code, q.message]))).entries()];
+  const gridRows = wells.filter((w) =>
+    qcFilter === QC_ANY
+      ? true
+      : qcFilter === QC_PASSED
+        ? w.qcReasons.length === 0
+        : qcFilter === QC_FAILED
+          ? w.qcReasons.length > 0
+          : w.qcReasons.some((q) => q.code === qcFilter),
+  );
   const editable = canEdit && ['imported', 'verified', 'rejected'].includes(data.state);
   const toggle = (id: string) =>
     setSelected((s) => {
@@ -170,9 +195,9 @@ export function WellsPanel({
             ))}
           </select>
         </label>
-        <fieldset className="flex gap-3 text-sm">
-          <legend className="sr-only">Colour wells by</legend>
-          {(['block', 'qc'] as const).map((mode) => (
+        <fieldset className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm">
+          <legend className="float-left mr-1 text-ink-500">Colour wells by</legend>
+          {MAP_MODES.map((mode) => (
             <label key={mode} className="inline-flex items-center gap-1">
               <input
                 type="radio"
@@ -180,7 +205,7 @@ export function WellsPanel({
                 checked={colouring === mode}
                 onChange={() => setColouring(mode)}
               />
-              {mode === 'block' ? 'Fractional block' : 'QC status'}
+              {MAP_MODE_LABEL[mode]}
             </label>
           ))}
         </fieldset>
@@ -188,7 +213,8 @@ export function WellsPanel({
       <PlateMap
         format={format}
         wells={wells}
-        colouring={colouring}
+        mode={colouring}
+        label={`Plate map of ${current}, ${format} wells`}
         selected={selected}
         onToggle={editable ? toggle : undefined}
       />
@@ -241,9 +267,35 @@ export function WellsPanel({
               : 'Only a biologist excludes or re-includes wells.'}
         </p>
       )}
+      <div className="flex flex-wrap items-center gap-4 text-sm">
+        <label>
+          Wells by QC{' '}
+          <select
+            className="gw-input inline-block w-auto"
+            value={qcFilter}
+            onChange={(e) => setQcFilter(e.target.value)}
+          >
+            <option value={QC_ANY}>All wells</option>
+            <option value={QC_PASSED}>QC passed</option>
+            <option value={QC_FAILED}>QC failed, any reason</option>
+            {reasons.map(([code, message]) => (
+              <option key={code} value={code}>
+                Failed: {message}
+              </option>
+            ))}
+          </select>
+        </label>
+        <p role="status" className="text-ink-700">
+          {gridRows.length} of {wells.length} wells shown
+        </p>
+      </div>
       <DataGrid<WellRowView>
         label={`Wells of ${current}`}
-        rows={wells}
+        rows={gridRows}
+        defaultColDef={{ wrapHeaderText: true, autoHeaderHeight: true }}
+        tooltipShowDelay={300}
+        // Twelve columns: all drawn, so that every cell's text is in the page whatever the scroll.
+        suppressColumnVirtualisation
         columns={COLUMNS}
         height={480}
         getRowId={(p) => p.data.readoutId}
@@ -256,6 +308,8 @@ export function WellsPanel({
                 headerCheckbox: true,
                 enableClickSelection: false,
               } as const,
+              // The boxes stay beside the pinned well column when the grid scrolls sideways.
+              selectionColumnDef: { pinned: 'left' as const },
               onSelectionChanged: (e: SelectionChangedEvent<WellRowView>) =>
                 setSelected(new Set(e.api.getSelectedRows().map((r) => r.id))),
               onRowDataUpdated: (e: RowDataUpdatedEvent<WellRowView>) =>

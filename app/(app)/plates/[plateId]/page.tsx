@@ -11,7 +11,13 @@ export default async function PlateWellsPage({ params }: { params: Promise<{ pla
   return (
     <div className="space-y-8">
       <QcSummary header={header} />
-      <WellsPanel plateId={header.id} format={header.format} canEdit={can(actor, 'reviewPlates')} />
+      <WellsPanel
+        plateId={header.id}
+        format={header.format}
+        canEdit={can(actor, 'reviewPlates')}
+        // Someone who verifies compound maps and does not review QC opens the map on compounds.
+        initialMode={can(actor, 'verifyCompoundMap') && !can(actor, 'reviewPlates') ? 'compound' : 'block'}
+      />
     </div>
   );
 }

@@ -1,0 +1,112 @@
+// How long a 384-well plate page takes to become interactive in a real browser, warm: Debian's Chromium,
+// signed in as a demo user, opens the plate page N times after one cold load, and for each load measures
+// from the start of the navigation until the plate map has drawn all its wells and answers the keyboard
+// (focus the map, press →, the well-facts box shows the second well). Prints each figure's median, p95,
+// min and max in ms; the goal (issue 21) is < 300 ms warm. Figures only: it passes or fails nothing.
+// Usage: node --import tsx scripts/bench-plate-page.ts [--base http://127.0.0.1:4310] [--user biologist]
+//        [--plate NAV-P02] [--count 15]   (against a running production server with the demo data)
+import { parseArgs } from 'node:util';
+import { chromium } from '@playwright/test';
+
+const { values } = parseArgs({
+  options: {
+    base: { type: 'string', default: 'http://127.0.0.1:4310' },
+    user: { type: 'string', default: 'biologist' },
+    plate: { type: 'string', default: 'NAV-P02' },
+    count: { type: 'string', default: '15' },
+  },
+});
+const base = values.base!;
+const count = Number(values.count);
+
+const summary = (label: string, ms: number[]) => {
+  const sorted = [...ms].sort((a, b) => a - b);
+  const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)]!;
+  console.log(
+    `${label.padEnd(44)} median ${at(0.5).toFixed(0).padStart(5)} ms · p95 ${at(0.95).toFixed(0).padStart(5)} ms · ` +
+      `min ${sorted[0]!.toFixed(0).padStart(5)} · max ${sorted.at(-1)!.toFixed(0).padStart(5)}`,
+  );
+};
+
+async function main() {
+  const browser = await chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    args: [
+      '--headless',
+      '--no-first-run',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-sync',
+    ],
+  });
+  try {
+    const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
+    await page.goto(`${base}/sign-in`);
+    await page.getByLabel('E-mail').fill(`${values.user}@gatewell.test`);
+    await page.getByLabel('Password', { exact: true }).fill(`demo-${values.user}-pass`);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+    await page.goto(`${base}/plates`);
+    const href = await page
+      .getByRole('link', { name: values.plate, exact: true })
+      .first()
+      .getAttribute('href');
+    if (!href) throw new Error(`no plate ${values.plate} in the plate list`);
+    const url = new URL(href, base).toString();
+
+    const loadOnce = async () => {
+      const started = performance.now();
+      await page.goto(url, { waitUntil: 'commit' });
+      const map = page.getByRole('grid', { name: /^Plate map of .*384 wells/ });
+      // Every position drawn (wells, and the empty positions of a plate that does not fill them).
+      await map.locator('g').nth(383).waitFor({ state: 'attached' });
+      const drawn = performance.now() - started;
+      await map.focus();
+      await page.keyboard.press('ArrowRight');
+      await page
+        .getByRole('region', { name: 'Well facts' })
+        .getByText(/^A0?2$/)
+        .waitFor();
+      const interactive = performance.now() - started;
+      const nav = await page.evaluate(() => {
+        const [entry] = performance.getEntriesByType('navigation') as PerformanceNavigationTiming[];
+        return {
+          ttfb: entry!.responseStart - entry!.startTime,
+          dom: entry!.domInteractive - entry!.startTime,
+        };
+      });
+      return { drawn, interactive, ...nav };
+    };
+
+    const cold = await loadOnce();
+    console.log(
+      `plate ${values.plate} at ${url}; cold load: interactive after ${cold.interactive.toFixed(0)} ms`,
+    );
+    const runs = [];
+    for (let i = 0; i < count; i += 1) runs.push(await loadOnce());
+    console.log(`warm loads: ${count} (Chromium ${browser.version()}, 1440×900)`);
+    summary(
+      'first byte of the page (navigation timing)',
+      runs.map((r) => r.ttfb),
+    );
+    summary(
+      'DOM interactive (navigation timing)',
+      runs.map((r) => r.dom),
+    );
+    summary(
+      'map drawn, all 384 wells',
+      runs.map((r) => r.drawn),
+    );
+    summary(
+      'interactive: → moves focus, facts shown',
+      runs.map((r) => r.interactive),
+    );
+  } finally {
+    await browser.close();
+  }
+}
+
+main().catch((error: unknown) => {
+  console.error(error instanceof Error ? error.message : error);
+  process.exit(1);
+});
