@@ -34,7 +34,10 @@ export function CompoundPicker({
                 className={`w-full rounded-md border px-3 py-2 text-left text-sm ${active ? 'border-lagoon-600 bg-lagoon-100' : 'border-ink-100 bg-card hover:bg-paper'}`}
               >
                 <span className="block font-mono font-medium text-ink-950">{c.compound}</span>
-                <span className={`block text-xs ${status.className}`}>{status.text}</span>
+                {/* On the chosen (tinted) button the status is dark ink: the signal colours lack contrast there. */}
+                <span className={`block text-xs ${active ? 'text-ink-800' : status.className}`}>
+                  {status.text}
+                </span>
               </button>
             </li>
           );

@@ -165,63 +165,68 @@ export function PlateMap({
               {rowLetter(r)}
             </text>
           ))}
-          {Array.from({ length: rows * columns }, (_, i) => {
-            const w = byCell.get(i);
-            const x = margin + (i % columns) * cell;
-            const y = margin + Math.floor(i / columns) * cell;
-            const isSelected = w ? selected.has(w.id) : false;
-            const fill = wellFill(w, mode, context);
-            return (
-              <g
-                key={i}
-                id={w ? `well-${w.id}` : undefined}
-                role={w ? 'gridcell' : undefined}
-                aria-selected={w && onToggle ? isSelected : undefined}
-                aria-label={w ? describe(w) : undefined}
-                data-well={w?.position}
-                data-fill={w ? fill : undefined}
-                onMouseEnter={() => setHover(i)}
-                onClick={() => {
-                  setFocus(i);
-                  if (w) onToggle?.(w.id);
-                }}
-                className={w && onToggle ? 'cursor-pointer' : undefined}
-              >
-                <rect
-                  x={x + 1}
-                  y={y + 1}
-                  width={cell - 2}
-                  height={cell - 2}
-                  rx={cell / 2.5}
-                  fill={fill}
-                  stroke={isSelected ? '#0b1622' : i === focus ? '#0b1622' : '#c7d1db'}
-                  strokeWidth={isSelected ? 2 : i === focus ? 2.5 : 0.8}
-                />
-                {w?.excluded ? (
-                  <line
-                    x1={x + 3}
-                    y1={y + cell - 3}
-                    x2={x + cell - 3}
-                    y2={y + 3}
-                    stroke={isDarkFill(fill) ? '#ffffff' : '#2b4157'}
-                    strokeWidth={1.2}
-                  />
-                ) : null}
-                {w && w.role !== 'test' && cell >= 18 ? (
-                  <text
-                    x={x + cell / 2}
-                    y={y + cell / 2 + 3}
-                    textAnchor="middle"
-                    fontSize={cell > 20 ? 10 : 8}
-                    fontWeight={600}
-                    fill={isDarkFill(fill) ? '#ffffff' : '#12202f'}
+          {Array.from({ length: rows }, (_, r) => (
+            <g key={`row${r}`} role="row">
+              {Array.from({ length: columns }, (_, c) => {
+                const i = r * columns + c;
+                const w = byCell.get(i);
+                const x = margin + c * cell;
+                const y = margin + r * cell;
+                const isSelected = w ? selected.has(w.id) : false;
+                const fill = wellFill(w, mode, context);
+                return (
+                  <g
+                    key={i}
+                    id={w ? `well-${w.id}` : undefined}
+                    role="gridcell"
+                    aria-selected={w && onToggle ? isSelected : undefined}
+                    aria-label={w ? describe(w) : `${rowLetter(r)}${c + 1}: no well`}
+                    data-well={w?.position}
+                    data-fill={w ? fill : undefined}
+                    onMouseEnter={() => setHover(i)}
+                    onClick={() => {
+                      setFocus(i);
+                      if (w) onToggle?.(w.id);
+                    }}
+                    className={w && onToggle ? 'cursor-pointer' : undefined}
                   >
-                    {w.role === 'vehicle' ? 'V' : 'R'}
-                  </text>
-                ) : null}
-              </g>
-            );
-          })}
+                    <rect
+                      x={x + 1}
+                      y={y + 1}
+                      width={cell - 2}
+                      height={cell - 2}
+                      rx={cell / 2.5}
+                      fill={fill}
+                      stroke={isSelected ? '#0b1622' : i === focus ? '#0b1622' : '#c7d1db'}
+                      strokeWidth={isSelected ? 2 : i === focus ? 2.5 : 0.8}
+                    />
+                    {w?.excluded ? (
+                      <line
+                        x1={x + 3}
+                        y1={y + cell - 3}
+                        x2={x + cell - 3}
+                        y2={y + 3}
+                        stroke={isDarkFill(fill) ? '#ffffff' : '#2b4157'}
+                        strokeWidth={1.2}
+                      />
+                    ) : null}
+                    {w && w.role !== 'test' && cell >= 18 ? (
+                      <text
+                        x={x + cell / 2}
+                        y={y + cell / 2 + 3}
+                        textAnchor="middle"
+                        fontSize={cell > 20 ? 10 : 8}
+                        fontWeight={600}
+                        fill={isDarkFill(fill) ? '#ffffff' : '#12202f'}
+                      >
+                        {w.role === 'vehicle' ? 'V' : 'R'}
+                      </text>
+                    ) : null}
+                  </g>
+                );
+              })}
+            </g>
+          ))}
         </svg>
         <figcaption>
           <MapLegend items={legend} title={MAP_MODE_LABEL[mode]} marks={cell >= 18} />
