@@ -3,19 +3,8 @@
 import { BusyButton } from '@/components/ui/busy-button';
 import { useFormAction } from '@/components/forms/use-form-action';
 import type { FormAction } from '@/lib/actions/validated-action';
-import { NOTICE_LINK_LABELS, NOTICE_STATE_LABELS, type NoticeKind } from '@/lib/domain/notices';
+import { NOTICE_LINK_LABELS, NOTICE_STATE_LABELS, type NoticeItem } from '@/lib/domain/notices';
 import { formatInZone } from '@/lib/domain/time-zone';
-
-/** One notice as the list shows it (lib/notices/service.ts, NoticeItem). */
-export interface NoticeListItem {
-  id: string;
-  kind: NoticeKind;
-  title: string;
-  summary: string;
-  linkPath: string;
-  createdAt: string;
-  seen: boolean;
-}
 
 /** A one-button form on one notice (or on all): the notice rides in a hidden field, never shown. */
 function NoticeButton({
@@ -69,7 +58,7 @@ export function NoticeList({
   openAction,
   markSeenAction,
 }: {
-  items: NoticeListItem[];
+  items: NoticeItem[];
   timeZone: string;
   openAction: FormAction;
   markSeenAction: FormAction;

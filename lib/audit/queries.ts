@@ -141,21 +141,6 @@ export async function selectNamesOf(ids: string[]): Promise<{ id: string; name: 
   );
 }
 
-// SQL for speed: the distinct kinds of event of the whole trail by a loose index scan through
-// audit_events_action (as selectAuditEntityTypes below), a few index probes instead of reading every event.
-export async function selectAuditActions(): Promise<{ action: string }[]> {
-  return db().query<{ action: string }>(
-    `with recursive actions as (
-       (select action from audit_events order by action limit 1)
-       union all
-       select (select a.action from audit_events a where a.action > t.action order by a.action limit 1)
-         from actions t where t.action is not null
-     )
-     select action from actions where action is not null order by action`,
-    { type: QueryTypes.SELECT },
-  );
-}
-
 // SQL: the most recent plate labels and every compound identifier, for the filter's suggestions.
 export async function selectPlateAndCompoundNames(): Promise<{ plates: string[]; compounds: string[] }> {
   const [plates, compounds] = await Promise.all([
@@ -170,20 +155,31 @@ export async function selectPlateAndCompoundNames(): Promise<{ plates: string[];
   return { plates: plates.map((r) => r.label), compounds: compounds.map((r) => r.identifier) };
 }
 
-// SQL for speed: the distinct record types of the whole trail by a loose index scan (a recursive query
-// stepping from one type to the next through audit_events_entity), a few index probes instead of a pass
-// over every event of the year.
-export async function selectAuditEntityTypes(): Promise<{ entityType: string }[]> {
-  return db().query<{ entityType: string }>(
-    `with recursive types as (
-       (select entity_type from audit_events order by entity_type limit 1)
+// SQL for speed: the distinct values of one indexed column of the whole trail by a loose index scan (a
+// recursive query stepping from one value to the next through the column's index, audit_events_action or
+// audit_events_entity), a few index probes instead of a pass over every event of the year.
+async function distinctAuditValues(column: 'action' | 'entity_type'): Promise<string[]> {
+  const rows = await db().query<{ value: string }>(
+    `with recursive steps as (
+       (select ${column} as value from audit_events order by ${column} limit 1)
        union all
-       select (select a.entity_type from audit_events a where a.entity_type > t.entity_type order by a.entity_type limit 1)
-         from types t where t.entity_type is not null
+       select (select a.${column} from audit_events a where a.${column} > t.value order by a.${column} limit 1)
+         from steps t where t.value is not null
      )
-     select entity_type as "entityType" from types where entity_type is not null order by 1`,
+     select value from steps where value is not null order by value`,
     { type: QueryTypes.SELECT },
   );
+  return rows.map((row) => row.value);
+}
+
+/** The distinct kinds of event of the whole trail. */
+export async function selectAuditActions(): Promise<{ action: string }[]> {
+  return (await distinctAuditValues('action')).map((action) => ({ action }));
+}
+
+/** The distinct record types of the whole trail. */
+export async function selectAuditEntityTypes(): Promise<{ entityType: string }[]> {
+  return (await distinctAuditValues('entity_type')).map((entityType) => ({ entityType }));
 }
 
 // SQL: each person's label is put together by PostgreSQL, name and address, as plain rows.

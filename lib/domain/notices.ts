@@ -46,3 +46,14 @@ export const NOTICE_LINK_LABELS: Record<NoticeKind, string> = {
   import_waiting_for_compounds: 'Open the waiting import',
   import_compounds_ready: 'Resume the import',
 };
+
+/** One notice as the Notices page shows it; `id` is only for the page's forms, never shown. */
+export interface NoticeItem {
+  id: string;
+  kind: NoticeKind;
+  title: string;
+  summary: string;
+  linkPath: string;
+  createdAt: string;
+  seen: boolean;
+}

@@ -7,7 +7,7 @@ import {
   DEFAULT_NOTICE_DELIVERY,
   NOTICES_PER_PAGE,
   type NoticeDelivery,
-  type NoticeKind,
+  type NoticeItem,
 } from '@/lib/domain/notices';
 import { env } from '@/lib/env';
 import { AppError } from '@/lib/errors';
@@ -18,17 +18,6 @@ import { Notice, NoticeDeliveryChoice } from '@/models';
  * of how they are told. Each person reads and marks only their own: another's notice is refused as not
  * found, with nothing written.
  */
-
-/** One notice as the Notices page shows it; `id` is only for the page's forms, never shown. */
-export interface NoticeItem {
-  id: string;
-  kind: NoticeKind;
-  title: string;
-  summary: string;
-  linkPath: string;
-  createdAt: string;
-  seen: boolean;
-}
 
 export interface NoticePage {
   items: NoticeItem[];

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { expect, test, type Page } from '@playwright/test';
 import { layout, type LayoutFile } from '../fixtures/export-layouts';
 import type { PlateName } from '../fixtures/export-layouts/truth';
-import { DEMO, freshPotassiumExport, screenshot, signIn } from './support';
+import { DEMO, fitsSettled, freshPotassiumExport, screenshot, signIn } from './support';
 
 /**
  * Invented export layouts (tests/fixtures/export-layouts) of different conventions, imported through the
@@ -124,14 +124,7 @@ interface FitJson {
 /** Checks the stored plate against the truth, through the signed-in answers the plate's page reads. */
 async function expectTruth(page: Page, plateId: string, file: LayoutFile) {
   const [plate] = file.facts.plates;
-  await expect
-    .poll(
-      async () =>
-        ((await (await page.request.get(`/api/plates/${plateId}/fits`)).json()) as { fitsPending: boolean })
-          .fitsPending,
-      { timeout: 90_000, intervals: [500, 1000] },
-    )
-    .toBe(false);
+  await fitsSettled(page, plateId);
   const wells = (await (await page.request.get(`/api/plates/${plateId}/wells`)).json()) as {
     wells: { position: string; qcReasons: unknown[] }[];
   };

@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
-import { freshPotassiumExport, signedInContext } from './support';
+import { fitsSettled, freshPotassiumExport, signedInContext } from './support';
 
 /**
  * The plate map's colourings, legends, keyboard and well facts; the chemist's compound map; a 1536-well
@@ -39,17 +39,6 @@ async function importPlate(page: Page, name: string, buffer: Buffer, label: stri
 async function wellsOf(page: Page, plateId: string): Promise<WellJson[]> {
   return ((await (await page.request.get(`/api/plates/${plateId}/wells`)).json()) as { wells: WellJson[] })
     .wells;
-}
-
-async function fitsSettled(page: Page, plateId: string) {
-  await expect
-    .poll(
-      async () =>
-        ((await (await page.request.get(`/api/plates/${plateId}/fits`)).json()) as { fitsPending: boolean })
-          .fitsPending,
-      { timeout: 90_000, intervals: [500, 1000] },
-    )
-    .toBe(false);
 }
 
 /** The fill the map drew for a well, by its position. */

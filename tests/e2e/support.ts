@@ -218,3 +218,15 @@ export async function shootAtTwoSizes(page: Page, name: string) {
   }
   await page.setViewportSize({ width: 1280, height: 860 });
 }
+
+/** Waits (up to 90 s) until the plate's fits are no longer pending, as the plate's page asks the API. */
+export async function fitsSettled(page: Page, plateId: string): Promise<void> {
+  await expect
+    .poll(
+      async () =>
+        ((await (await page.request.get(`/api/plates/${plateId}/fits`)).json()) as { fitsPending: boolean })
+          .fitsPending,
+      { timeout: 90_000, intervals: [500, 1000] },
+    )
+    .toBe(false);
+}

@@ -165,6 +165,23 @@ describe('import-plate --mapping committed into the database, read back against 
   });
   afterAll(() => db().close());
 
+  /** The script run for real as the biologist, on the screen, with the layout's mapping: its printed JSON. */
+  function commit<Printed>(file: string, screenName: string, mapping: string): Printed {
+    const out = runScript([
+      file,
+      '--screen',
+      screenName,
+      '--as',
+      biologist.email,
+      '--mapping',
+      mapping,
+      '--json',
+    ]);
+    expect(out.stderr).toBe('');
+    expect(out.code).toBe(0);
+    return JSON.parse(out.stdout) as Printed;
+  }
+
   test.each(SINGLE_PLATE_LAYOUTS)(
     '%s: stored as the account named on the screen named; QC flags exactly the bad wells, every IC50 within ±15 % and inside its CI',
     async (name) => {
@@ -172,19 +189,7 @@ describe('import-plate --mapping committed into the database, read back against 
       const { facts } = written;
       const plate = facts.plates[0]!;
       const screen = screenFor(facts);
-      const out = runScript([
-        file,
-        '--screen',
-        screen.name,
-        '--as',
-        biologist.email,
-        '--mapping',
-        mapping,
-        '--json',
-      ]);
-      expect(out.stderr).toBe('');
-      expect(out.code).toBe(0);
-      const printed = JSON.parse(out.stdout) as { plateId: string } & Record<string, unknown>;
+      const printed = commit<{ plateId: string } & Record<string, unknown>>(file, screen.name, mapping);
       // The truth's compounds are the demo scenario's, all registered on this database.
       expect(printed).toMatchObject({
         ...expectedLabel(written),
@@ -207,22 +212,12 @@ describe('import-plate --mapping committed into the database, read back against 
       const { written, file, mapping } = writeLayout(name);
       const { facts } = written;
       const screen = screenFor(facts);
-      const out = runScript([
-        file,
-        '--screen',
-        screen.name,
-        '--as',
-        biologist.email,
-        '--mapping',
-        mapping,
-        '--json',
-      ]);
-      expect(out.stderr).toBe('');
-      expect(out.code).toBe(0);
-      const printed = JSON.parse(out.stdout) as Record<string, unknown> & {
-        plateId: string;
-        plates: { plateId: string; plateLabel: string; wellCount: number }[];
-      };
+      const printed = commit<
+        Record<string, unknown> & {
+          plateId: string;
+          plates: { plateId: string; plateLabel: string; wellCount: number }[];
+        }
+      >(file, screen.name, mapping);
       expect(printed).toMatchObject({
         plateCount: facts.plates.length,
         unregisteredCompounds: [],

@@ -89,7 +89,7 @@ function columnsFor(timeZone: string, names: NameLookup): ColDef<AuditRow>[] {
       minWidth: 170,
       wrapText: true,
       autoHeight: true,
-      cellClass: 'text-xs whitespace-pre-line leading-5 py-2.5',
+      cellClass: 'text-xs whitespace-pre-line leading-5! py-2.5',
     },
   ];
 }
@@ -115,13 +115,16 @@ export function AuditGrid({
         columns={columns}
         getRowId={(p) => String(p.data.id)}
         // Wrapped cells read as lines of text, not lines spaced a whole row apart.
-        defaultColDef={{ filter: false, sortable: false, resizable: true, cellClass: 'leading-5 py-2.5' }}
+        defaultColDef={{ filter: false, sortable: false, resizable: true, cellClass: 'leading-5! py-2.5' }}
         onRowClicked={(e) => setChosen(e.data ?? null)}
         onCellKeyDown={(e) => {
           if ((e.event as KeyboardEvent | undefined)?.key === 'Enter') setChosen(e.data ?? null);
         }}
         rowClass="cursor-pointer"
-        height={Math.min(620, 60 + rows.length * 60)}
+        // A page holds at most 100 events: the grid grows with its rows (wrapped cells make them tall), and
+        // the page scrolls, so no row is cut at a fixed height.
+        domLayout="autoHeight"
+        height="auto"
       />
       <section aria-live="polite" aria-label="Chosen event" className="gw-card p-4">
         {chosen ? (

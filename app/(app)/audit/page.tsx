@@ -3,6 +3,7 @@ import { AppLink } from '@/components/ui/app-link';
 import { z } from 'zod';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
+import { Pager } from '@/components/ui/pager';
 import { auditFilterChoices, auditFilterSchemaHere, auditTimeZone, searchAudit } from '@/lib/audit/search';
 import { requirePageRole } from '@/lib/auth/page-guard';
 import { rolesFor } from '@/lib/domain/roles';
@@ -78,32 +79,25 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         </EmptyState>
       ) : (
         <>
-          <div className="mb-2 flex flex-wrap items-center justify-between gap-2 text-sm text-ink-700">
-            <p aria-live="polite">
-              Events {first}–{last} of {result.total}, newest first (page {result.page} of {pages})
-            </p>
-            <p className="flex items-center gap-2">
-              <span className="text-ink-500">Download all {result.total}:</span>
-              <a className="gw-button-quiet py-1" href={exportHref(values, 'csv')} download>
-                csv
-              </a>
-              <a className="gw-button-quiet py-1" href={exportHref(values, 'xlsx')} download>
-                xlsx
-              </a>
-            </p>
-            <nav aria-label="Pages of events" className="flex gap-2">
-              {result.page > 1 ? (
-                <AppLink href={pageHref(values, result.page - 1)} className="gw-button-quiet py-1">
-                  Newer
-                </AppLink>
-              ) : null}
-              {last < result.total ? (
-                <AppLink href={pageHref(values, result.page + 1)} className="gw-button-quiet py-1">
-                  Older
-                </AppLink>
-              ) : null}
-            </nav>
-          </div>
+          <Pager
+            label="Pages of events"
+            page={result.page}
+            hasOlder={last < result.total}
+            pageHref={(page) => pageHref(values, page)}
+            between={
+              <p className="flex items-center gap-2">
+                <span className="text-ink-500">Download all {result.total}:</span>
+                <a className="gw-button-quiet py-1" href={exportHref(values, 'csv')} download>
+                  csv
+                </a>
+                <a className="gw-button-quiet py-1" href={exportHref(values, 'xlsx')} download>
+                  xlsx
+                </a>
+              </p>
+            }
+          >
+            Events {first}–{last} of {result.total}, newest first (page {result.page} of {pages})
+          </Pager>
           <AuditGrid rows={result.rows} names={result.names} timeZone={result.timeZone} />
         </>
       )}

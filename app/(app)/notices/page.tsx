@@ -3,6 +3,7 @@ import { MarkAllSeenButton, NoticeList } from '@/components/notices/notice-list'
 import { AppLink } from '@/components/ui/app-link';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
+import { Pager } from '@/components/ui/pager';
 import { requireActor } from '@/lib/auth/current-actor';
 import { NOTICES_PER_PAGE } from '@/lib/domain/notices';
 import { listNotices } from '@/lib/notices/service';
@@ -45,24 +46,16 @@ export default async function NoticesPage({
       />
       {result.total ? (
         <>
-          <div className="mb-3 flex items-center justify-between text-sm text-ink-700">
-            <p aria-live="polite">
-              Notices {first}–{last} of {result.total}, {result.unseen} new
-              {result.pages > 1 ? ` (page ${result.page} of ${result.pages})` : ''}
-            </p>
-            <nav aria-label="Pages of notices" className="flex gap-2">
-              {result.page > 1 ? (
-                <AppLink href={pageHref(result.page - 1)} className="gw-button-quiet py-1">
-                  Newer
-                </AppLink>
-              ) : null}
-              {result.page < result.pages ? (
-                <AppLink href={pageHref(result.page + 1)} className="gw-button-quiet py-1">
-                  Older
-                </AppLink>
-              ) : null}
-            </nav>
-          </div>
+          <Pager
+            label="Pages of notices"
+            page={result.page}
+            hasOlder={result.page < result.pages}
+            pageHref={pageHref}
+            className="mb-3"
+          >
+            Notices {first}–{last} of {result.total}, {result.unseen} new
+            {result.pages > 1 ? ` (page ${result.page} of ${result.pages})` : ''}
+          </Pager>
           <NoticeList
             items={result.items}
             timeZone={result.timeZone}

@@ -178,26 +178,7 @@ export const forecastRequestSchema = z
   )
   .superRefine(
     (r, ctx) => {
-      if (!isPresetName(r.preset)) return;
-      if (isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
-      if (isObject(r.potencies)) {
-        checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
-        checkStateDependentKeys(r.preset, r.potencies, ctx);
-      }
-      if (r.block && r.potencies)
-        ctx.addIssue({
-          code: 'custom',
-          path: ['potencies'],
-          message: 'give either block or potencies, not both',
-        });
-      if (r.potencies && !r.concentrations)
-        ctx.addIssue({
-          code: 'custom',
-          path: ['concentrations'],
-          message: 'potencies need a list of concentrations',
-        });
-      if (r.concentrations && !r.potencies)
-        ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'concentrations need potencies' });
+      checkBlockOrPotencies(r, ctx);
       const count = r.potencies
         ? Array.isArray(r.concentrations)
           ? r.concentrations.length
@@ -216,6 +197,37 @@ export const forecastRequestSchema = z
     // Run even when other fields failed, so that every fault is reported at once.
     { when: (payload) => isObject(payload.value) },
   );
+
+/**
+ * What the request and the input file share: conductance keys known to the preset (and state-dependent
+ * potencies only where it has an inactivation gate), either block or potencies, and potencies with their
+ * concentrations.
+ */
+function checkBlockOrPotencies(
+  r: { preset: string; block?: unknown; potencies?: unknown; concentrations?: unknown },
+  ctx: z.RefinementCtx,
+): void {
+  if (!isPresetName(r.preset)) return;
+  if (isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
+  if (isObject(r.potencies)) {
+    checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
+    checkStateDependentKeys(r.preset, r.potencies, ctx);
+  }
+  if (r.block && r.potencies)
+    ctx.addIssue({
+      code: 'custom',
+      path: ['potencies'],
+      message: 'give either block or potencies, not both',
+    });
+  if (r.potencies && !r.concentrations)
+    ctx.addIssue({
+      code: 'custom',
+      path: ['concentrations'],
+      message: 'potencies need a list of concentrations',
+    });
+  if (r.concentrations && !r.potencies)
+    ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'concentrations need potencies' });
+}
 
 function isObject(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
@@ -245,26 +257,7 @@ export const forecastInputFileSchema = z
   )
   .superRefine(
     (r, ctx) => {
-      if (!isPresetName(r.preset)) return;
-      if (isObject(r.block)) checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
-      if (isObject(r.potencies)) {
-        checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
-        checkStateDependentKeys(r.preset, r.potencies, ctx);
-      }
-      if (r.block && r.potencies)
-        ctx.addIssue({
-          code: 'custom',
-          path: ['potencies'],
-          message: 'give either block or potencies, not both',
-        });
-      if (r.potencies && !r.concentrations)
-        ctx.addIssue({
-          code: 'custom',
-          path: ['concentrations'],
-          message: 'potencies need a list of concentrations',
-        });
-      if (r.concentrations && !r.potencies)
-        ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'concentrations need potencies' });
+      checkBlockOrPotencies(r, ctx);
     },
     { when: (payload) => isObject(payload.value) },
   );
