@@ -247,7 +247,8 @@ export async function selectImporters(): Promise<{ id: string; name: string }[]>
   );
 }
 
-// SQL for speed: the duplicate check of every upload, one indexed join with a limit.
+// SQL for speed: the duplicate check of every upload, one indexed join with a limit. A file of several
+// plates is named by the plate whose label sorts first (byte order), so the answer is the same every time.
 export async function selectDuplicateUpload(
   screenId: string,
   sha256: string,
@@ -255,7 +256,7 @@ export async function selectDuplicateUpload(
 ): Promise<{ plateId: string; label: string } | undefined> {
   const [row] = await db().query<{ plateId: string; label: string }>(
     `select p.id as "plateId", p.label from uploaded_files f join plates p on p.uploaded_file_id = f.id
-      where f.screen_id = :screenId and f.sha256 = :sha256 limit 1`,
+      where f.screen_id = :screenId and f.sha256 = :sha256 order by p.label collate "C", p.id limit 1`,
     { type: QueryTypes.SELECT, replacements: { screenId, sha256 }, ...(transaction ? { transaction } : {}) },
   );
   return row;
