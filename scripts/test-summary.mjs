@@ -24,6 +24,34 @@ if (playwright) {
   failed += playwright.stats.unexpected + playwright.stats.flaky;
   skipped += playwright.stats.skipped;
 }
+// The failing tests are named again here, at the end, so a log that only keeps its tail still says which.
+const failures = [];
+for (const file of vitest?.testResults ?? []) {
+  for (const test of file.assertionResults ?? []) {
+    if (test.status !== 'failed') continue;
+    const why = String(test.failureMessages?.[0] ?? '')
+      .split('\n')[0]
+      .slice(0, 300);
+    failures.push(`vitest: ${file.name.replace(process.cwd() + '/', '')} › ${test.fullName}\n    ${why}`);
+  }
+}
+function walkSuites(suites, titles) {
+  for (const suite of suites ?? []) {
+    const path = suite.title ? [...titles, suite.title] : titles;
+    for (const spec of suite.specs ?? []) {
+      for (const test of spec.tests ?? []) {
+        if (test.status !== 'unexpected' && test.status !== 'flaky') continue;
+        const error = test.results?.find((r) => r.error)?.error?.message ?? '';
+        const why = String(error).split('\n')[0].slice(0, 300);
+        failures.push(`playwright (${test.status}): ${[...path, spec.title].join(' › ')}\n    ${why}`);
+      }
+    }
+    walkSuites(suite.suites, path);
+  }
+}
+walkSuites(playwright?.suites, []);
+if (failures.length) console.log(`failing tests:\n  ${failures.join('\n  ')}`);
+
 const vitestFailed = vitest ? vitest.numFailedTests : 0;
 const playwrightFailed = playwright ? playwright.stats.unexpected + playwright.stats.flaky : 0;
 const unaccounted = process.argv.slice(2).filter((step) => {
