@@ -30,7 +30,7 @@ export const hhSquid1952: NeuronPreset = {
       reversal_mV: 50, // HH 1952 Table 3: E_Na = −115 mV displacement, i.e. +50 mV
       blockable: true,
       q10: 3, // HH 1952: φ = 3^((T − 6.3)/10)
-      referenceTemperature_C: 6.3,
+      referenceTemperature_C: 6.3, // HH 1952: φ = 1 at 6.3 °C
       gates: [
         {
           name: 'm',
@@ -65,8 +65,8 @@ export const hhSquid1952: NeuronPreset = {
       g_mS_cm2: 36, // HH 1952 Table 3
       reversal_mV: -77, // HH 1952 Table 3: E_K = +12 mV displacement, i.e. −77 mV
       blockable: true,
-      q10: 3,
-      referenceTemperature_C: 6.3,
+      q10: 3, // HH 1952: φ = 3^((T − 6.3)/10), as for sodium
+      referenceTemperature_C: 6.3, // HH 1952: φ = 1 at 6.3 °C
       gates: [
         {
           name: 'n',

@@ -41,7 +41,7 @@ export const pospischilRs2008: NeuronPreset = {
       reversal_mV: 50, // sPY_template: v_sodium = 50 mV
       blockable: true,
       q10: 3, // HH_traub.mod: tadj = 3^((celsius − 36)/10)
-      referenceTemperature_C: 36,
+      referenceTemperature_C: 36, // HH_traub.mod: tadj = 1 at 36 °C
       gates: [
         {
           name: 'm',
@@ -76,8 +76,8 @@ export const pospischilRs2008: NeuronPreset = {
       g_mS_cm2: 5, // sPY_template: gkbar_hh2 = 0.005 S/cm²
       reversal_mV: -100, // sPY_template: v_potassium = −100 mV
       blockable: true,
-      q10: 3, // HH_traub.mod
-      referenceTemperature_C: 36,
+      q10: 3, // HH_traub.mod: tadj = 3^((celsius − 36)/10)
+      referenceTemperature_C: 36, // HH_traub.mod: tadj = 1 at 36 °C
       gates: [
         {
           name: 'n',
@@ -99,7 +99,7 @@ export const pospischilRs2008: NeuronPreset = {
       reversal_mV: -100, // sPY_template: ek = v_potassium = −100 mV
       blockable: true,
       q10: 2.3, // IM_cortex.mod: tadj = 2.3^((celsius − 36)/10)
-      referenceTemperature_C: 36,
+      referenceTemperature_C: 36, // IM_cortex.mod: tadj = 1 at 36 °C
       gates: [
         {
           name: 'p',
