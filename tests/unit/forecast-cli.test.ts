@@ -4,8 +4,10 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import numerical from '../fixtures/check-values/hodgkin-huxley-1952-numerical.json';
+import drg from '../fixtures/check-values/xie-drg-2024.json';
 import { afterAll, describe, expect, test } from 'vitest';
 import { PRESET_NAMES, conductanceNames, getPreset } from '@/lib/science/neuron/presets';
+import { XIE_DRG_2024_UA_CM2_PER_PA } from '@/lib/science/neuron/presets/xie-drg-2024';
 
 const root = resolve(__dirname, '../..');
 const tsx = join(root, 'node_modules', '.bin', 'tsx');
@@ -154,6 +156,18 @@ describe('forecast CLI', () => {
       expect(stderr).toContain(`  ${name}: ${conductanceNames(getPreset(name)).blockable.join(', ')}`);
     }
     expect(stderr).toContain('wang-buzsaki-1996: gNa, gK');
+  });
+
+  // The CLI passes the preset and the step on: the DRG cell's baseline rheobase for the authors' 1000 ms
+  // step, 17 pA in their code with noise (xie-drg-2024.json), within the 1.5 pA of neuron-xie-drg-2024.test.ts.
+  test('xie-drg-2024 with a 1000 ms step: the authors’ 17 pA rheobase', () => {
+    const { code, stdout, stderr } = run(
+      JSON.stringify({ preset: 'xie-drg-2024', block: {}, stepMs: drg.stepDuration_ms }),
+    );
+    expect(stderr).toBe('');
+    expect(code).toBe(0);
+    const rheobase_pA = JSON.parse(stdout).rheobase_uA_cm2 / XIE_DRG_2024_UA_CM2_PER_PA;
+    expect(Math.abs(rheobase_pA - drg.baselineRheobase_pA)).toBeLessThanOrEqual(1.5);
   });
 
   // Every preset id runs through the CLI: a control with a rest, a rheobase and a rate at 10 µA/cm².

@@ -1,13 +1,14 @@
 // The Hodgkin–Huxley 1952 preset against published behaviour. Values and their sources are in
 // tests/fixtures/check-values/: hodgkin-huxley-1952-numerical.json (rest, rates, rheobase),
-// hodgkin-huxley-1952-bifurcations.json (Hopf point, fold, periods) and hodgkin-huxley-1952-from-memory.json.
+// hodgkin-huxley-1952-bifurcations.json (Hopf point, fold, periods) and hodgkin-huxley-1952-from-memory.json
+// (second Hopf point; the paper's own threshold for a short shock).
 import bifurcations from '../fixtures/check-values/hodgkin-huxley-1952-bifurcations.json';
 import fromMemory from '../fixtures/check-values/hodgkin-huxley-1952-from-memory.json';
 import numerical from '../fixtures/check-values/hodgkin-huxley-1952-numerical.json';
 import { describe, expect, test } from 'vitest';
 import { firingRate } from '@/lib/science/neuron/firing-rate';
 import { simulate } from '@/lib/science/neuron/integrate';
-import { compileModel } from '@/lib/science/neuron/model';
+import { cloneState, compileModel } from '@/lib/science/neuron/model';
 import { hhSquid1952 } from '@/lib/science/neuron/presets/hh-squid-1952';
 import { findRest } from '@/lib/science/neuron/rest';
 import { findRheobase } from '@/lib/science/neuron/rheobase';
@@ -73,6 +74,25 @@ describe('firing from rest (step at t = 0, spike = upward crossing of 0 mV)', ()
     expect(Math.abs(r.rheobase_uA_cm2! - numerical.rheobase_uA_cm2)).toBeLessThanOrEqual(0.005);
     const [lo, hi] = r.bracket!;
     expect(hi - lo).toBeLessThanOrEqual(1e-3 * hi);
+  });
+});
+
+describe('threshold for a short shock (HH 1952 Part III, calculated membrane action potentials; from memory: hodgkin-huxley-1952-from-memory.json)', () => {
+  // The paper's calculation: from rest, the membrane displaced at once by a few mV, gates at their resting
+  // values, no further current. 7 mV gives an action potential and 6 mV does not (remembered); the check is
+  // the paper's own bracket, not a number from our model. 50 ms covers the slow rise near threshold.
+  const shock = (depolarisation_mV: number) => {
+    const start = cloneState(rest.start);
+    start.v_mV += depolarisation_mV;
+    return simulate(model, start, { current_uA_cm2: 0, duration_ms: 50 }).spikeTimes_ms;
+  };
+
+  test(`${fromMemory.shortShock.subthreshold_mV} mV: no action potential`, () => {
+    expect(shock(fromMemory.shortShock.subthreshold_mV)).toEqual([]);
+  });
+
+  test(`${fromMemory.shortShock.suprathreshold_mV} mV: one action potential`, () => {
+    expect(shock(fromMemory.shortShock.suprathreshold_mV)).toHaveLength(1);
   });
 });
 

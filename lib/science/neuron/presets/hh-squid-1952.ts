@@ -3,9 +3,18 @@ import type { NeuronPreset } from '../types';
 /**
  * Hodgkin–Huxley 1952 squid giant axon, modern sign convention (rest near −65 mV), 6.3 °C.
  * Conductances and reversal potentials: Hodgkin & Huxley 1952, J Physiol 117:500–544, Table 3,
- * re-expressed with V = −65 mV + displacement. Rate functions (ms⁻¹, V in mV) in the form used by
- * the NEURON simulator's hh.mod; every α and β is multiplied by φ = 3^((T − 6.3)/10).
+ * re-expressed with V = −65 mV + displacement. Rate functions (ms⁻¹, V in mV): the paper's, moved to
+ * that convention, in the form used by the NEURON simulator's hh.mod; every α and β is multiplied by
+ * φ = 3^((T − 6.3)/10), the paper's temperature factor (1 at its 6.3 °C).
+ *
+ *   C dV/dt = I − gNa·m³h·(V − E_Na) − gK·n⁴·(V − E_K) − gL·(V − E_L)
+ *   dx/dt = φ·(αx(1 − x) − βx·x)  for x = m, h, n
+ *   αm = 0.1(V + 40)/(1 − e^(−(V+40)/10)),   βm = 4 e^(−(V+65)/18)
+ *   αh = 0.07 e^(−(V+65)/20),                βh = 1/(1 + e^(−(V+35)/10))
+ *   αn = 0.01(V + 55)/(1 − e^(−(V+55)/10)),  βn = 0.125 e^(−(V+65)/80)
+ *
  * Conductance names: gNa (transient sodium, m³h), gK (delayed-rectifier potassium, n⁴), gL (leak).
+ * Checked against published behaviour in tests/unit/neuron-hh-reference.test.ts.
  */
 export const hhSquid1952: NeuronPreset = {
   name: 'hh-squid-1952',
@@ -21,7 +30,7 @@ export const hhSquid1952: NeuronPreset = {
       reversal_mV: 50, // HH 1952 Table 3: E_Na = −115 mV displacement, i.e. +50 mV
       blockable: true,
       q10: 3, // HH 1952: φ = 3^((T − 6.3)/10)
-      referenceTemperature_C: 6.3,
+      referenceTemperature_C: 6.3, // HH 1952: φ = 1 at 6.3 °C
       gates: [
         {
           name: 'm',
@@ -56,8 +65,8 @@ export const hhSquid1952: NeuronPreset = {
       g_mS_cm2: 36, // HH 1952 Table 3
       reversal_mV: -77, // HH 1952 Table 3: E_K = +12 mV displacement, i.e. −77 mV
       blockable: true,
-      q10: 3,
-      referenceTemperature_C: 6.3,
+      q10: 3, // HH 1952: φ = 3^((T − 6.3)/10), as for sodium
+      referenceTemperature_C: 6.3, // HH 1952: φ = 1 at 6.3 °C
       gates: [
         {
           name: 'n',

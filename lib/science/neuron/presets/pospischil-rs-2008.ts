@@ -7,6 +7,19 @@ import type { NeuronPreset } from '../types';
  * distributed with the paper (ModelDB; files sPY_template, HH_traub.mod, IM_cortex.mod), read from
  * a public copy of that code; the ModelDB accession (123623) is from memory. The paper's per-cell fits in its figures use other values
  * (for example V_T = −56.2 mV; from memory), so this preset is "the distributed RS cell".
+ *
+ *   C dV/dt = I − gNa·m³h·(V − E_Na) − gK·n⁴·(V − E_K) − gM·p·(V − E_K) − gL·(V − E_L)
+ *   Traub-type rates (HH_traub.mod), v2 = V − V_T, each α and β × 3^((T − 36)/10):
+ *   αm = 0.32(13 − v2)/(e^((13−v2)/4) − 1),   βm = 0.28(v2 − 40)/(e^((v2−40)/5) − 1)
+ *   αh = 0.128 e^((17 − v2)/18),               βh = 4/(1 + e^((40 − v2)/5))
+ *   αn = 0.032(15 − v2)/(e^((15−v2)/5) − 1),   βn = 0.5 e^((10 − v2)/40)
+ *   dp/dt = (p∞ − p)/τp (IM_cortex.mod):  p∞ = 1/(1 + e^(−(V+35)/10)),
+ *   τp = τmax/(3.3 e^((V+35)/20) + e^(−(V+35)/20)) / 2.3^((T − 36)/10)
+ *
+ * The authors' cell is one compartment with L = d = 96 µm (sPY_template: "area is about 29000 um2";
+ * π·96·96 = 28953 µm²), so 1 nA injected there is 3.454 µA/cm² here, and its leak alone is the
+ * template's "Rin = 34 Meg". Their demonstration (demo_PY_RS.hoc) is a 0.75 nA step of 400 ms from
+ * −70 mV. Checked against the code and an outside run of it in tests/unit/neuron-pospischil-rs-2008.test.ts.
  * Conductance names: gNa (transient sodium, m³h), gK (delayed-rectifier potassium, n⁴),
  * gM (slow non-inactivating M-type potassium, p), gL (leak).
  */
@@ -28,7 +41,7 @@ export const pospischilRs2008: NeuronPreset = {
       reversal_mV: 50, // sPY_template: v_sodium = 50 mV
       blockable: true,
       q10: 3, // HH_traub.mod: tadj = 3^((celsius − 36)/10)
-      referenceTemperature_C: 36,
+      referenceTemperature_C: 36, // HH_traub.mod: tadj = 1 at 36 °C
       gates: [
         {
           name: 'm',
@@ -63,8 +76,8 @@ export const pospischilRs2008: NeuronPreset = {
       g_mS_cm2: 5, // sPY_template: gkbar_hh2 = 0.005 S/cm²
       reversal_mV: -100, // sPY_template: v_potassium = −100 mV
       blockable: true,
-      q10: 3, // HH_traub.mod
-      referenceTemperature_C: 36,
+      q10: 3, // HH_traub.mod: tadj = 3^((celsius − 36)/10)
+      referenceTemperature_C: 36, // HH_traub.mod: tadj = 1 at 36 °C
       gates: [
         {
           name: 'n',
@@ -86,7 +99,7 @@ export const pospischilRs2008: NeuronPreset = {
       reversal_mV: -100, // sPY_template: ek = v_potassium = −100 mV
       blockable: true,
       q10: 2.3, // IM_cortex.mod: tadj = 2.3^((celsius − 36)/10)
-      referenceTemperature_C: 36,
+      referenceTemperature_C: 36, // IM_cortex.mod: tadj = 1 at 36 °C
       gates: [
         {
           name: 'p',

@@ -167,7 +167,7 @@ export const xieDrg2024: NeuronPreset = {
       name: 'gM',
       description: 'M-type potassium (p)',
       g_mS_cm2: 0.05, // smallDRG_DIV0.m: gKm = 0.05
-      reversal_mV: -90,
+      reversal_mV: -90, // smallDRG_DIV0.m: Ek = −90 mV
       blockable: true,
       gates: [
         {
@@ -175,7 +175,7 @@ export const xieDrg2024: NeuronPreset = {
           power: 1,
           kinetics: {
             kind: 'inf-tau',
-            // p∞ = 1/(1 + exp(−(V + 35)/5))
+            // p∞ = 1/(1 + exp(−(V + 35)/5))  (smallDRG_DIV0.m, M current)
             inf: sigmoid(1, -35, 5),
             // τp = 1000/(3.3(exp((V + 35)/10) + exp(−(V + 35)/10)))/tadj, tadj = 3^((25 − 23.5)/10)
             tau: {
@@ -195,7 +195,7 @@ export const xieDrg2024: NeuronPreset = {
       name: 'gAHP',
       description: 'slow afterhyperpolarisation potassium (z), Prescott et al. 2008 form',
       g_mS_cm2: 2.5, // smallDRG_DIV0.m: gAHP = 2.5
-      reversal_mV: -90,
+      reversal_mV: -90, // smallDRG_DIV0.m: Ek = −90 mV
       blockable: true,
       gates: [
         {
@@ -203,7 +203,7 @@ export const xieDrg2024: NeuronPreset = {
           power: 1,
           kinetics: {
             kind: 'inf-tau',
-            // z∞ = 1/(1 + exp((β_z − V)/γ_z)), β_z = 5 mV, γ_z = 4 mV
+            // z∞ = 1/(1 + exp((β_z − V)/γ_z)), smallDRG_DIV0.m: β_z = 5 mV, γ_z = 4 mV
             inf: sigmoid(1, 5, 4),
             tau: { form: 'constant', tau_ms: 100 }, // smallDRG_DIV0.m: tau_z = 100 ms
           },
