@@ -41,8 +41,8 @@ export interface GroupOptions {
   timeoutS: number;
 }
 
-/** An answer the person's browser shows: 2xx, or 304 for a body its cache holds. */
-const answered = (status: number) => (status >= 200 && status <= 299) || status === 304;
+/** Whether an answer is refused: outside 2xx, except 304 for a body the browser's cache holds (a request without an answer has no status and is counted as a timeout or socket error instead). */
+const refused = (status: number) => (status < 200 || status > 299) && status !== 304;
 
 const delay = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
@@ -79,7 +79,7 @@ function template(baseUrl: string, next: () => ScheduledRequest, tally: Tally): 
       const tag = headers?.etag;
       const store = !/no-store/i.test(String(headers?.['cache-control'] ?? ''));
       if (status === 200 && typeof tag === 'string' && store) heldTags.set(String(context.held), tag);
-      if (!answered(status) && tally.firstRefusals.length < 5)
+      if (refused(status) && tally.firstRefusals.length < 5)
         tally.firstRefusals.push(`${String(context.route)} ${status}: ${body.slice(0, 200)}`);
     },
   };

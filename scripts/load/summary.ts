@@ -39,14 +39,13 @@ export function latencyFigures(samples: readonly Sample[]): LatencyFigures {
   };
 }
 
-/** An answer the person's browser shows: 2xx, or 304 for a body its cache holds. */
-const answered = (status: number) => (status >= 200 && status <= 299) || status === 304;
+/** Whether an answer is refused: outside 2xx, except 304 for a body the browser's cache holds (a request without an answer has no status and is counted as a timeout or socket error instead). */
+const refused = (status: number) => (status < 200 || status > 299) && status !== 304;
 
 /** The figures of one group of people. */
 export function groupFigures(tally: Tally): GroupFigures {
   const statuses: Record<number, number> = {};
-  for (const { status } of tally.samples)
-    if (!answered(status)) statuses[status] = (statuses[status] ?? 0) + 1;
+  for (const { status } of tally.samples) if (refused(status)) statuses[status] = (statuses[status] ?? 0) + 1;
   const non2xx = Object.values(statuses).reduce((sum, count) => sum + count, 0);
   return {
     ...latencyFigures(tally.samples),
