@@ -221,11 +221,13 @@ test('plate map colourings, keyboard and facts; compound map; 1536 wells; plots 
   await expect(plot).toContainText('95 % confidence band');
   // The fits answer carries each fit's estimates, not curve points; asked again with its tag it is 304.
   const fitsAnswer = await page.request.get(`/api/plates/${plateId}/fits`);
-  const tag = fitsAnswer.headers()['etag']!;
-  expect(tag).toMatch(/^"[\w-]+"$/);
+  const fitsTag = fitsAnswer.headers()['etag']!;
+  expect(fitsTag).toMatch(/^"[\w-]+"$/);
   expect(fitsAnswer.headers()['cache-control']).toBe('private, no-cache');
   expect(JSON.stringify(await fitsAnswer.json())).not.toContain('"curve"');
-  const again = await page.request.get(`/api/plates/${plateId}/fits`, { headers: { 'if-none-match': tag } });
+  const again = await page.request.get(`/api/plates/${plateId}/fits`, {
+    headers: { 'if-none-match': fitsTag },
+  });
   expect(again.status()).toBe(304);
   expect(await again.text()).toBe('');
   await expect(plot).toContainText('Concentration (µM, log scale)');
