@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { scaleLinear, scaleLog } from 'd3-scale';
 import { area, line } from 'd3-shape';
+import { fitCurve } from '@/lib/science/fit/hill-band';
 import type { FitView, WellRowView } from '@/lib/validation/plates';
 import { splitCurve, testedRange, type CurvePoint } from './curve-parts';
 
@@ -100,7 +101,17 @@ function Legend({
  * curve solid across the tested concentrations and dashed beyond them, its 95 % band, the IC50 marker and
  * a legend inside the drawing. Log concentration axis in µM, block in %.
  */
-export function DoseResponsePlot({ fit, points, id }: { fit: FitView; points: WellRowView[]; id?: string }) {
+export function DoseResponsePlot({
+  fit: view,
+  points,
+  id,
+}: {
+  fit: FitView;
+  points: WellRowView[];
+  id?: string;
+}) {
+  // The curve and band are worked out here from the fit's estimates (the fits answer carries no points).
+  const fit = { ...view, curve: fitCurve(view.model, view.curveBasis) };
   const concentrations = points.map((p) => p.concentration_uM!).filter((c) => c > 0);
   const lo = Math.min(...concentrations, ...(fit.curve.length ? [fit.curve[0]!.concentration_uM] : []));
   const hi = Math.max(...concentrations, ...(fit.curve.length ? [fit.curve.at(-1)!.concentration_uM] : []));

@@ -141,18 +141,25 @@ export async function selectNamesOf(ids: string[]): Promise<{ id: string; name: 
   );
 }
 
-// SQL: the most recent plate labels and every compound identifier, for the filter's suggestions.
-export async function selectPlateAndCompoundNames(): Promise<{ plates: string[]; compounds: string[] }> {
-  const [plates, compounds] = await Promise.all([
-    db().query<{ label: string }>(
-      'select label from plates group by label order by max(imported_at) desc limit 500',
-      { type: QueryTypes.SELECT },
-    ),
-    db().query<{ identifier: string }>('select identifier from compounds order by identifier limit 2000', {
-      type: QueryTypes.SELECT,
-    }),
-  ]);
-  return { plates: plates.map((r) => r.label), compounds: compounds.map((r) => r.identifier) };
+// SQL: plate labels holding the text, newest import first, grouped by label (a pass over the plates'
+// labels: 5,000 rows for a year of screening).
+export async function selectPlateLabelsLike(text: string, limit: number): Promise<string[]> {
+  const rows = await db().query<{ label: string }>(
+    `select label from plates where strpos(lower(label), lower(:text)) > 0
+      group by label order by max(imported_at) desc limit :limit`,
+    { type: QueryTypes.SELECT, replacements: { text, limit } },
+  );
+  return rows.map((r) => r.label);
+}
+
+// SQL: a substring match on identifiers, case-insensitive, in the registry's order.
+export async function selectCompoundIdentifiersLike(text: string, limit: number): Promise<string[]> {
+  const rows = await db().query<{ identifier: string }>(
+    `select identifier from compounds where strpos(lower(identifier), lower(:text)) > 0
+      order by identifier limit :limit`,
+    { type: QueryTypes.SELECT, replacements: { text, limit } },
+  );
+  return rows.map((r) => r.identifier);
 }
 
 // SQL for speed: the distinct values of one indexed column of the whole trail by a loose index scan (a

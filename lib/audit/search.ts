@@ -3,7 +3,12 @@ import { requireCapability, type Actor } from '@/lib/auth/roles';
 import { parseOrRefuse } from '@/lib/validation/parse';
 import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
-import { AUDIT_PAGE_SIZE, auditFilterSchemaFor, type AuditFilter } from '@/lib/validation/audit';
+import {
+  AUDIT_PAGE_SIZE,
+  auditFilterSchemaFor,
+  auditSuggestionsSchema,
+  type AuditFilter,
+} from '@/lib/validation/audit';
 import type { NameLookup } from './field-labels';
 import {
   countAuditEvents,
@@ -11,8 +16,9 @@ import {
   selectAuditEntityTypes,
   selectAuditEvents,
   selectNamesOf,
+  selectCompoundIdentifiersLike,
   selectPeopleLabels,
-  selectPlateAndCompoundNames,
+  selectPlateLabelsLike,
   type AuditRow,
 } from './queries';
 
@@ -105,26 +111,39 @@ export interface AuditFilterChoices {
   entityTypes: string[];
   actions: string[];
   people: { id: string; label: string }[];
-  plates: string[];
-  compounds: string[];
 }
 
 /**
- * The choices of the audit filter: kinds of object and of event that occur, people, recent plate labels
- * and compound identifiers. Admins and approvers only.
+ * The choices of the audit filter: kinds of object and of event that occur, and people. Plate labels and
+ * compound identifiers are suggested as they are typed (`auditFilterSuggestions`), not listed on each page.
+ * Admins and approvers only.
  */
 export async function auditFilterChoices(actor: Actor): Promise<AuditFilterChoices> {
   requireCapability(actor, 'readAudit');
-  const [types, actions, people, named] = await Promise.all([
+  const [types, actions, people] = await Promise.all([
     selectAuditEntityTypes(),
     selectAuditActions(),
     selectPeopleLabels(),
-    selectPlateAndCompoundNames(),
   ]);
   return {
     entityTypes: types.map((row) => row.entityType),
     actions: actions.map((row) => row.action),
     people,
-    ...named,
   };
+}
+
+/** Suggestions in one answer (our choice: what a datalist shows without scrolling far). */
+export const AUDIT_SUGGESTION_LIMIT = 20;
+
+/**
+ * What the audit filter's plate or compound field suggests for the text typed so far: plate labels holding
+ * it, newest import first, or compound identifiers holding it (case-insensitive), at most
+ * AUDIT_SUGGESTION_LIMIT. Input from the query string (`kind`, `q`), checked by zod. Admins and approvers only.
+ */
+export async function auditFilterSuggestions(actor: Actor, input: unknown): Promise<string[]> {
+  requireCapability(actor, 'readAudit');
+  const { kind, q } = parseOrRefuse(auditSuggestionsSchema, input);
+  return kind === 'plate'
+    ? selectPlateLabelsLike(q, AUDIT_SUGGESTION_LIMIT)
+    : selectCompoundIdentifiersLike(q, AUDIT_SUGGESTION_LIMIT);
 }

@@ -55,3 +55,40 @@ export async function getCompoundProfile(actor: Actor, compoundId: string): Prom
     })),
   };
 }
+
+/** Fits shown on one page of a compound's profile (our choice, as the plate list's 50). */
+export const PROFILE_FITS_PAGE_SIZE = 50;
+
+export interface CompoundProfilePage extends Omit<CompoundProfile, 'fits'> {
+  /** The fits of this page only, in the profile's order (approved plates first, then newest first). */
+  fits: ProfileFit[];
+  fitCount: number;
+  approvedCount: number;
+  /** 1-based, within 1 … pages. */
+  page: number;
+  pages: number;
+}
+
+/**
+ * A compound's profile with one page of its fits: potencies, selectivity and screens come from every fit,
+ * the table from this page's 50, so that a compound tested on hundreds of plates stays a small page.
+ * A page past the last shows the last.
+ */
+export async function getCompoundProfilePage(
+  actor: Actor,
+  compoundId: string,
+  page: number,
+  pageSize = PROFILE_FITS_PAGE_SIZE,
+): Promise<CompoundProfilePage> {
+  const profile = await getCompoundProfile(actor, compoundId);
+  const pages = Math.max(1, Math.ceil(profile.fits.length / pageSize));
+  const shown = Math.min(Math.max(1, Math.trunc(page) || 1), pages);
+  return {
+    ...profile,
+    fits: profile.fits.slice((shown - 1) * pageSize, shown * pageSize),
+    fitCount: profile.fits.length,
+    approvedCount: profile.fits.filter((f) => f.approved).length,
+    page: shown,
+    pages,
+  };
+}

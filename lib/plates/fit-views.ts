@@ -1,18 +1,15 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
-import { hillBand, type BandPoint } from '@/lib/science/fit/hill-band';
+import type { CurveBasis } from '@/lib/science/fit/hill-band';
 import type { FitView } from '@/lib/validation/plates';
 import { listPlateFits, type FitRow } from './detail';
 import { selectFitEstimatesWithRanges } from './queries';
 
-/** 121 log-spaced concentrations from a decade below to a decade above the tested range (µM). */
-function grid(lowest: number, highest: number): number[] {
-  const from = Math.log10(lowest) - 1;
-  const to = Math.log10(highest) + 1;
-  return Array.from({ length: 121 }, (_, i) => 10 ** (from + ((to - from) * i) / 120));
-}
-
-/** The plate's fits with the fitted curve and its 95 % band, ready to plot. */
+/**
+ * The plate's fits with what their curve and 95 % band are drawn from (estimates, covariance, degrees of
+ * freedom and the tested range): the browser draws them with `fitCurve` (lib/science/fit/hill-band.ts),
+ * so the answer carries a handful of numbers per fit instead of 121 points of curve and band.
+ */
 export async function listFitViews(actor: Actor, plateId: string): Promise<FitView[]> {
   const fits = await listPlateFits(actor, plateId);
   const rows = await selectFitEstimatesWithRanges(plateId);
@@ -25,15 +22,15 @@ export async function listFitViews(actor: Actor, plateId: string): Promise<FitVi
       (fit.status === 'fitted' || fit.status === 'above_range') &&
       extra?.lowest &&
       extra.highest;
-    const curve: BandPoint[] = drawable
-      ? hillBand(
-          fit.model,
-          estimate.parameters!,
-          estimate.covariance ?? null,
-          estimate.degreesOfFreedom ?? 0,
-          grid(extra.lowest!, extra.highest!),
-        )
-      : [];
-    return { ...fit, status: fit.status as FitView['status'], curve };
+    const curveBasis: CurveBasis | null = drawable
+      ? {
+          parameters: estimate.parameters!,
+          covariance: estimate.covariance ?? null,
+          degreesOfFreedom: estimate.degreesOfFreedom ?? 0,
+          lowest_uM: extra.lowest!,
+          highest_uM: extra.highest!,
+        }
+      : null;
+    return { ...fit, status: fit.status as FitView['status'], curveBasis };
   });
 }

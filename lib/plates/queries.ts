@@ -315,3 +315,24 @@ export async function insertReadouts(
 ): Promise<void> {
   await insertRows('readouts', READOUT_COLUMNS, rows, transaction);
 }
+
+export interface PlateAnswerStamp {
+  version: number;
+  state: string;
+  fitsPending: boolean;
+  revision: string | null;
+  targetsChangedAt: string | null;
+}
+
+// SQL: one indexed read of what a plate's JSON answers depend on (its content revision, workflow columns
+// and the last change to its screen's targets), for their entity tag.
+export async function selectPlateAnswerStamp(plateId: string): Promise<PlateAnswerStamp | null> {
+  const [row] = await db().query<PlateAnswerStamp>(
+    `select p.version, p.state, p.fits_pending as "fitsPending", r.revision::text as revision,
+            (select max(t.updated_at) from targets t where t.screen_id = p.screen_id)::text as "targetsChangedAt"
+       from plates p left join plate_content_revisions r on r.plate_id = p.id
+      where p.id = :plateId`,
+    { type: QueryTypes.SELECT, replacements: { plateId } },
+  );
+  return row ?? null;
+}

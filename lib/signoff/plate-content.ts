@@ -48,7 +48,18 @@ export async function plateContentSha256(plateId: string, transaction?: Transact
   const cached = contentHashes().get(plateId);
   if (revision && cached?.revision === revision && Date.now() - cached.at < CONTENT_HASH_MAX_AGE_MS)
     return cached.sha256;
-  // Read the content and its revision in one snapshot, so that the cached hash belongs to that revision.
+  // Views of one plate at one revision arriving together share one reading of its rows: the first
+  // starts it, the others wait for its answer (a snapshot begun after they read that revision).
+  const key = `${plateId}@${revision ?? 'none'}`;
+  const running = hashesInFlight().get(key);
+  if (running) return running;
+  const work = hashFromRows(plateId).finally(() => hashesInFlight().delete(key));
+  hashesInFlight().set(key, work);
+  return work;
+}
+
+/** The hash worked out from the rows, with the content and its revision read in one snapshot, and remembered. */
+async function hashFromRows(plateId: string): Promise<string> {
   const { sha256, revision: seen } = await db().transaction(
     { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true },
     async (snapshot) => ({
@@ -72,6 +83,8 @@ interface CachedHash {
 
 // One cache per server process, shared by the bundles that import this module.
 const contentHashes = () => processMap<string, CachedHash>('plateContentHashes');
+// The readings of plates' rows under way in this process, by plate and the revision read before starting.
+const hashesInFlight = () => processMap<string, Promise<string>>('plateContentHashesInFlight');
 
 function remember(plateId: string, entry: CachedHash): void {
   const cache = contentHashes();

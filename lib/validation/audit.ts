@@ -96,3 +96,13 @@ export const AUDIT_FILTER_KEYS = [
   'from',
   'to',
 ] as const;
+
+/**
+ * The query of the audit filter's suggestions (GET /api/audit/suggestions): which field (plate labels
+ * unless `compound` is asked for), and the text typed so far (nothing typed: the newest plates, the
+ * first identifiers).
+ */
+export const auditSuggestionsSchema = z.object({
+  kind: z.enum(['plate', 'compound'], { message: 'Ask for plate or compound suggestions.' }).default('plate'),
+  q: z.string().trim().max(100, 'At most 100 characters.').default(''),
+});

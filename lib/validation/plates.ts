@@ -54,14 +54,16 @@ export const wellsResponseSchema = z.object({
   wells: z.array(wellRowSchema),
 });
 
-const bandPoint = z.object({
-  concentration_uM: z.number(),
-  block: z.number(),
-  low: z.number().nullable(),
-  high: z.number().nullable(),
+/** What the browser draws a fit's curve and band from (`fitCurve`, lib/science/fit/hill-band.ts). */
+const curveBasis = z.object({
+  parameters: z.array(z.number()),
+  covariance: z.array(z.array(z.number())).nullable(),
+  degreesOfFreedom: z.number(),
+  lowest_uM: z.number().positive(),
+  highest_uM: z.number().positive(),
 });
 
-/** One fit with its curve and band, as the fits view receives it. */
+/** One fit with what its curve and band are drawn from, as the fits view receives it. */
 export const fitViewSchema = z.object({
   id: z.uuid(),
   compoundId: z.uuid(),
@@ -84,7 +86,7 @@ export const fitViewSchema = z.object({
   residualSd: z.number().nullable(),
   n: z.number().int(),
   flags: z.array(qcReason),
-  curve: z.array(bandPoint),
+  curveBasis: curveBasis.nullable(),
 });
 
 export const fitsResponseSchema = z.object({

@@ -41,7 +41,18 @@ export interface GroupOptions {
   timeoutS: number;
 }
 
+/** Whether an answer is refused: outside 2xx, except 304 for a body the browser's cache holds (a request without an answer has no status and is counted as a timeout or socket error instead). */
+const refused = (status: number) => (status < 200 || status > 299) && status !== 304;
+
 const delay = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+/**
+ * The entity tags each person's browser holds, by session and address: a browser keeps an answer that
+ * carries an ETag (and no `no-store`) in its HTTP cache and, asked for the same address again, sends
+ * If-None-Match with it; a 304 answer then serves the kept body. Gatewell's pages and navigations are
+ * `no-store`; its plate wells and fits JSON carry tags (lib/plates/answer-tag.ts).
+ */
+const heldTags = new Map<string, string>();
 
 function template(baseUrl: string, next: () => ScheduledRequest, tally: Tally): autocannon.Request {
   const origin = new URL(baseUrl).origin;
@@ -49,7 +60,11 @@ function template(baseUrl: string, next: () => ScheduledRequest, tally: Tally): 
     setupRequest: (request, context) => {
       const scheduled = next();
       context.route = scheduled.route;
+      const held = `${scheduled.cookie}\n${scheduled.path}`;
+      context.held = held;
       const headers: Record<string, string> = { ...scheduled.headers, cookie: scheduled.cookie };
+      const tag = (scheduled.method ?? 'GET') === 'GET' ? heldTags.get(held) : undefined;
+      if (tag) headers['if-none-match'] = tag;
       if (scheduled.method === 'POST') headers.origin = origin;
       if (scheduled.contentType) headers['content-type'] = scheduled.contentType;
       return {
@@ -60,8 +75,11 @@ function template(baseUrl: string, next: () => ScheduledRequest, tally: Tally): 
         ...(scheduled.body ? { body: scheduled.body } : {}),
       };
     },
-    onResponse: (status, body, context) => {
-      if ((status < 200 || status > 299) && tally.firstRefusals.length < 5)
+    onResponse: (status, body, context, headers) => {
+      const tag = headers?.etag;
+      const store = !/no-store/i.test(String(headers?.['cache-control'] ?? ''));
+      if (status === 200 && typeof tag === 'string' && store) heldTags.set(String(context.held), tag);
+      if (refused(status) && tally.firstRefusals.length < 5)
         tally.firstRefusals.push(`${String(context.route)} ${status}: ${body.slice(0, 200)}`);
     },
   };

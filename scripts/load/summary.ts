@@ -18,7 +18,9 @@ export interface LatencyFigures {
 export interface GroupFigures extends LatencyFigures {
   perSecond: number;
   non2xx: number;
-  /** Non-2xx answers by status, e.g. { 500: 2 }. */
+  /** 304 answers: a body the person's browser held, asked again with its tag (counted as answered). */
+  notModified: number;
+  /** Non-2xx answers by status, e.g. { 500: 2 } (304 is not one of them). */
   statuses: Record<number, number>;
   socketErrors: number;
   timeouts: number;
@@ -37,16 +39,19 @@ export function latencyFigures(samples: readonly Sample[]): LatencyFigures {
   };
 }
 
+/** Whether an answer is refused: outside 2xx, except 304 for a body the browser's cache holds (a request without an answer has no status and is counted as a timeout or socket error instead). */
+const refused = (status: number) => (status < 200 || status > 299) && status !== 304;
+
 /** The figures of one group of people. */
 export function groupFigures(tally: Tally): GroupFigures {
   const statuses: Record<number, number> = {};
-  for (const { status } of tally.samples)
-    if (status < 200 || status > 299) statuses[status] = (statuses[status] ?? 0) + 1;
+  for (const { status } of tally.samples) if (refused(status)) statuses[status] = (statuses[status] ?? 0) + 1;
   const non2xx = Object.values(statuses).reduce((sum, count) => sum + count, 0);
   return {
     ...latencyFigures(tally.samples),
     perSecond: tally.seconds > 0 ? tally.samples.length / tally.seconds : 0,
     non2xx,
+    notModified: tally.samples.filter((sample) => sample.status === 304).length,
     statuses,
     socketErrors: tally.socketErrors,
     timeouts: tally.timeouts,
@@ -75,6 +80,7 @@ export function groupLine(name: string, figures: GroupFigures): string {
   return (
     `${name.padEnd(8)} ${String(figures.answers).padStart(6)} answers  ${figures.perSecond.toFixed(1).padStart(6)} req/s  ` +
     `p50 ${ms(figures.p50).padStart(7)}  p95 ${ms(figures.p95).padStart(7)}  p99 ${ms(figures.p99).padStart(7)}  max ${ms(figures.max).padStart(7)} ms  ` +
+    `${figures.notModified ? `304 (browser's copy) ${figures.notModified}  ` : ''}` +
     `errors ${figures.errors} (non-2xx ${figures.non2xx}${statuses ? ` [${statuses}]` : ''}, socket ${figures.socketErrors}, timeouts ${figures.timeouts})`
   );
 }

@@ -51,6 +51,13 @@ test('the audit trail names people, objects and fields, and keeps its filters in
   const { context, page } = await signedInContext(browser, 'admin');
   await page.goto('/audit');
   await expect(page.getByRole('columnheader', { name: 'When (UTC)' })).toBeVisible();
+  await page.getByLabel('Plate').fill('nav-p0');
+  // The labels holding what was typed are fetched as it is typed (none are listed with the page).
+  await expect(page.locator('#filter-plate-labels option[value="NAV-P02"]')).toHaveCount(1);
+  await expect(page.locator('#filter-plate-labels option[value="KV-P01"]')).toHaveCount(0);
+  await page.getByLabel('Compound').fill('GW-000');
+  await expect(page.locator('#filter-compound-identifiers option[value="GW-0001"]')).toHaveCount(1);
+  await page.getByLabel('Compound').fill('');
   await page.getByLabel('Plate').fill('NAV-P02');
   await page.getByLabel('What happened').selectOption({ label: 'Approved' });
   await page.getByRole('button', { name: 'Filter' }).click();

@@ -208,6 +208,17 @@ test('plate map colourings, keyboard and facts; compound map; 1536 wells; plots 
   expect(ends.last).toBeCloseTo(ends.hi, 1);
   await expect(plot.locator('[data-part="band"]')).toHaveCount(1);
   await expect(plot).toContainText('95 % confidence band');
+  // The fits answer carries each fit's estimates, not curve points; asked again with its tag it is 304.
+  const fitsAnswer = await page.request.get(`/api/plates/${plateId}/fits`);
+  const fitsTag = fitsAnswer.headers()['etag']!;
+  expect(fitsTag).toMatch(/^"[\w-]+"$/);
+  expect(fitsAnswer.headers()['cache-control']).toBe('private, no-cache');
+  expect(JSON.stringify(await fitsAnswer.json())).not.toContain('"curve"');
+  const again = await page.request.get(`/api/plates/${plateId}/fits`, {
+    headers: { 'if-none-match': fitsTag },
+  });
+  expect(again.status()).toBe(304);
+  expect(await again.text()).toBe('');
   await expect(plot).toContainText('Concentration (µM, log scale)');
   await expect(plot).toContainText('Fractional block (%)');
   const hollow = plot.locator('circle[data-well="excluded"]');

@@ -181,6 +181,7 @@ export const ROUTE_CASES: RouteCase[] = [
   page('/admin/outbox', MANAGE_MAIL),
   page('/audit', READ_AUDIT),
   api('GET /api/audit', READ_AUDIT),
+  api('GET /api/audit/suggestions', READ_AUDIT),
   // Every download is audited: a refused one must not be.
   api('GET /api/audit/export', READ_AUDIT, { writes: ['audit_events'] }),
   api('GET /api/import-templates'),

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { changeText } from '@/lib/audit/field-labels';
-import { auditFilterChoices, searchAudit } from '@/lib/audit/search';
+import { auditFilterChoices, auditFilterSuggestions, searchAudit } from '@/lib/audit/search';
 import type { Actor } from '@/lib/auth/roles';
 import { addBatch, createCompound, updateCompound } from '@/lib/compounds/service';
 import { db } from '@/lib/db';
@@ -126,10 +126,23 @@ describe('the audit trail filtered by plate, compound and kind of event', () => 
     expect(document.about).toEqual(expect.arrayContaining([['Filter', 'compound GW-AUDIT-7']]));
   });
 
-  test('the filter offers the kinds of event, recent plate labels and compound identifiers', async () => {
+  test('the filter offers the kinds of event; plate labels and compound identifiers are suggested as typed', async () => {
     const choices = await auditFilterChoices(admin);
     expect(choices.actions).toEqual(expect.arrayContaining(['create', 'exclude_well', 'import', 'update']));
-    expect(choices.plates).toEqual(['NAV-P01']);
-    expect(choices.compounds).toContain('GW-AUDIT-7');
+    expect(choices).not.toHaveProperty('plates');
+    expect(choices).not.toHaveProperty('compounds');
+    expect(await auditFilterSuggestions(admin, { kind: 'plate', q: 'nav-p' })).toEqual(['NAV-P01']);
+    expect(await auditFilterSuggestions(admin, {})).toEqual(['NAV-P01']);
+    expect(await auditFilterSuggestions(admin, { kind: 'plate', q: 'KV' })).toEqual([]);
+    expect(await auditFilterSuggestions(admin, { kind: 'compound', q: 'audit-7' })).toEqual(['GW-AUDIT-7']);
+    // A wildcard of LIKE is only a character here.
+    expect(await auditFilterSuggestions(admin, { kind: 'compound', q: '%' })).toEqual([]);
+    await expect(auditFilterSuggestions(admin, { kind: 'screen' })).rejects.toMatchObject({
+      code: 'invalid',
+    });
+    await expect(auditFilterSuggestions(admin, { q: 'x'.repeat(101) })).rejects.toMatchObject({
+      code: 'invalid',
+    });
+    await expect(auditFilterSuggestions(chemist, { q: 'NAV' })).rejects.toMatchObject({ code: 'forbidden' });
   });
 });

@@ -3,7 +3,7 @@
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
-import { getCompoundProfile } from '@/lib/compounds/profile';
+import { getCompoundProfile, getCompoundProfilePage } from '@/lib/compounds/profile';
 import { db } from '@/lib/db';
 import { getCompoundForecast } from '@/lib/forecasts/compound-forecast';
 import { closeForecastPool } from '@/lib/compute/forecast-pool';
@@ -51,6 +51,22 @@ describe('compound profile', () => {
       ['Pain sodium screen', false],
       ['Potassium counter-screen', true],
     ]);
+  });
+
+  test('a page of the profile holds its share of the fits; potencies and selectivity still come from every fit', async () => {
+    const id = await idOf('GW-0001');
+    const whole = await getCompoundProfile(reader, id);
+    const second = await getCompoundProfilePage(reader, id, 2, 1);
+    expect(second).toMatchObject({ fitCount: 2, approvedCount: 1, page: 2, pages: 2 });
+    expect(second.fits.map((f) => f.plateLabel)).toEqual(['NAV-P01']);
+    expect(second.potencies.map((p) => p.plateLabel)).toEqual(['KV-P01', 'NAV-P01']);
+    expect(second.selectivity).toEqual(whole.selectivity);
+    // A page past the last shows the last; the default page size holds both fits on one page.
+    expect((await getCompoundProfilePage(reader, id, 9, 1)).fits.map((f) => f.plateLabel)).toEqual([
+      'NAV-P01',
+    ]);
+    expect(await getCompoundProfilePage(reader, id, 1)).toMatchObject({ page: 1, pages: 1, fitCount: 2 });
+    expect((await getCompoundProfilePage(reader, id, 1)).fits).toHaveLength(2);
   });
 
   test('selectivity: an IC50 above the tested range gives a bound, not a number', async () => {

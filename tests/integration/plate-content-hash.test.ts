@@ -43,6 +43,18 @@ describe('the plate data hash the history tab shows', () => {
     expect(await plateContentSha256(plateId)).toBe(first);
   });
 
+  test('views arriving together after a change each get the hash of the changed data', async () => {
+    const before = await plateContentSha256(plateId);
+    await db().query(
+      `update readouts set control_current_pa = control_current_pa + 2 where id = (select r.id from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by r.id limit 1)`,
+      { replacements: { plateId } },
+    );
+    const together = await Promise.all(Array.from({ length: 5 }, () => plateContentSha256(plateId)));
+    const expected = await fresh();
+    expect(expected).not.toBe(before);
+    expect(together).toEqual(Array.from({ length: 5 }, () => expected));
+  });
+
   test.each([
     [
       'a readout current',

@@ -1,5 +1,6 @@
 import { Field } from '@/components/forms/field';
 import { SelectField } from '@/components/forms/select-field';
+import { SuggestingField } from '@/components/forms/suggesting-field';
 import { AppLink } from '@/components/ui/app-link';
 import { eventKindLabel, objectKindLabel } from '@/lib/audit/field-labels';
 import type { AUDIT_FILTER_KEYS } from '@/lib/validation/audit';
@@ -23,8 +24,6 @@ export function AuditFilterForm({
     entityTypes: string[];
     actions: string[];
     people: { id: string; label: string }[];
-    plates: string[];
-    compounds: string[];
   };
 }) {
   return (
@@ -59,36 +58,26 @@ export function AuditFilterForm({
             .sort(byLabel),
         ]}
       />
-      <Field
+      <SuggestingField
         label="Plate"
         name="plate"
         id="filter-plate"
-        list="filter-plate-labels"
+        listId="filter-plate-labels"
+        source="/api/audit/suggestions?kind=plate"
         hint="Its label; every plate of that label, wells included"
         defaultValue={values.plate}
         errors={errors.plate}
-        autoComplete="off"
       />
-      <datalist id="filter-plate-labels">
-        {choices.plates.map((label) => (
-          <option key={label} value={label} />
-        ))}
-      </datalist>
-      <Field
+      <SuggestingField
         label="Compound"
         name="compound"
         id="filter-compound"
-        list="filter-compound-identifiers"
+        listId="filter-compound-identifiers"
+        source="/api/audit/suggestions?kind=compound"
         hint="Its identifier; its batches and aliases included"
         defaultValue={values.compound}
         errors={errors.compound}
-        autoComplete="off"
       />
-      <datalist id="filter-compound-identifiers">
-        {choices.compounds.map((identifier) => (
-          <option key={identifier} value={identifier} />
-        ))}
-      </datalist>
       <SelectField
         label="Kind of object"
         name="entityType"

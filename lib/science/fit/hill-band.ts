@@ -37,3 +37,31 @@ export function hillBand(
     return { concentration_uM: c, block, low: block - half, high: block + half };
   });
 }
+
+/** What a fitted curve and its band are drawn from: the estimates and the compound's tested range (µM). */
+export interface CurveBasis {
+  parameters: number[];
+  covariance: number[][] | null;
+  degreesOfFreedom: number;
+  lowest_uM: number;
+  highest_uM: number;
+}
+
+/** 121 log-spaced concentrations from a decade below to a decade above the tested range (µM; our choice, no source). */
+export function curveGrid(lowest_uM: number, highest_uM: number): number[] {
+  const from = Math.log10(lowest_uM) - 1;
+  const to = Math.log10(highest_uM) + 1;
+  return Array.from({ length: 121 }, (_, i) => 10 ** (from + ((to - from) * i) / 120));
+}
+
+/** The fitted curve and its 95 % band over `curveGrid` of the tested range; none without a basis. */
+export function fitCurve(model: HillModelName, basis: CurveBasis | null): BandPoint[] {
+  if (!basis) return [];
+  return hillBand(
+    model,
+    basis.parameters,
+    basis.covariance,
+    basis.degreesOfFreedom,
+    curveGrid(basis.lowest_uM, basis.highest_uM),
+  );
+}
