@@ -78,6 +78,16 @@ export function ForecastDetail({
               {f.inputSha256.slice(0, 12)}…
             </span>
           </p>
+          {f.bands ? (
+            <p className="text-xs text-ink-500" data-testid="forecast-band-note">
+              Bands: 95 % over {f.bands.draws} draws (seed {f.bands.seed}). {f.bands.method}{' '}
+              {f.bands.sources.map((s) => `${s.conductance}: ${s.note}`).join(' ')}
+            </p>
+          ) : (
+            <p className="text-xs text-ink-500">
+              No uncertainty bands: this forecast was stored before Gatewell computed them.
+            </p>
+          )}
           <MeasuresTable
             control={f.control}
             conditions={f.conditions}
