@@ -71,6 +71,9 @@ export function planCompoundForecast(
       uncertainty: {
         seed: FORECAST_BAND_SEED,
         draws: FORECAST_BAND_DRAWS,
+        // Bands at the exposures of interest only: 200 model runs per banded concentration, and the sweep's
+        // other points would multiply that several times over.
+        concentrations: exposures_uM.filter((c) => c > 0),
         potencies: Object.fromEntries(
           used.flatMap((p) =>
             uncertainty?.[p.conductance] ? [[p.conductance, uncertainty[p.conductance]!]] : [],

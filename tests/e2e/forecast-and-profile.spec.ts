@@ -63,6 +63,12 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
   // Cells after the row header: block, rest, rheobase (its value, then its change beside control).
   await expect(excitability.getByRole('columnheader').nth(3)).toHaveText('Rheobase (µA/cm²)');
   await expect(row.getByRole('cell').nth(2)).toContainText(/\+\d+\.\d %/);
+  // Uncertainty bands (200 draws of each fit's log IC50 and Hill slope): the exposure's rheobase has its
+  // 95 % range beneath it, both sweep plots shade a band, and the note says how the draws were made.
+  await expect(row.getByRole('cell').nth(2)).toContainText(/95 %: \d/);
+  await expect(page.getByTestId('forecast-band')).toHaveCount(2);
+  await expect(page.getByTestId('forecast-band-note')).toContainText('200 draws');
+  await expect(page.getByTestId('forecast-band-note')).toContainText('covariance');
   await shot(page, 'plate-forecast');
 
   // Traces at another exposure, chosen from the keyboard.
@@ -130,6 +136,13 @@ test('forecast and export routes answer bad input with a clear message, and expo
     'Fits',
     'Forecast at exposures',
   ]);
+  const forecastSheet = XLSX.utils.sheet_to_json<unknown[]>(book.Sheets['Forecast at exposures']!, {
+    header: 1,
+  });
+  const header = forecastSheet.find((r) => r.includes('Rheobase 2.5 % (µA/cm²)'));
+  expect(header).toEqual(
+    expect.arrayContaining(['Rheobase 97.5 % (µA/cm²)', 'Rate 2.5 % (Hz)', 'Band draws']),
+  );
   const wells = await page.request.get(`/api/plates/${plateId}/export?format=csv&table=wells`);
   expect(wells.headers()['content-type']).toBe('text/csv; charset=utf-8');
   expect(await wells.text()).toContain('Well,Role,Compound,Concentration (µM),Target');
@@ -149,6 +162,7 @@ test('a compound profile gathers fits across plates, selectivity and the forecas
   await expect(page.getByText('IC50 Kv7.2 ÷ IC50 Nav1.7')).toBeVisible();
   await expect(page.getByRole('note', { name: 'Caution' })).toContainText(CAUTION);
   await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByTestId('forecast-band').first()).toBeVisible();
   await shot(page, 'compound-profile');
 
   await page.locator('summary', { hasText: 'Download' }).click();

@@ -127,7 +127,8 @@ describe('bands', () => {
       ),
     );
     expect(r.bands!.conditions).toHaveLength(2);
-    r.bands!.conditions.forEach((band, i) => {
+    r.bands!.conditions.forEach((b, i) => {
+      const band = b!;
       const m = r.conditions[i]!.measures;
       expect(m.rheobase_uA_cm2).not.toBeNull();
       for (const q of [band.rheobase_uA_cm2.low, band.rheobase_uA_cm2.median, band.rheobase_uA_cm2.high])
@@ -164,6 +165,17 @@ describe('bands', () => {
     const block = r.bands!.conditions[0]!.block.gNa!;
     expect(block.low!).toBeLessThan(block.high!);
     expect(computeForecast(request).bands).toEqual(r.bands);
+  });
+
+  test('only the concentrations asked for get a band', () => {
+    const fit = fitOf(simulatedWells(9));
+    const request = bandRequest(fit, fit.covariance, fit.degreesOfFreedom, [TRUTH.ic50_uM, 1], 2, 10);
+    const r = computeForecast({
+      ...request,
+      uncertainty: { ...request.uncertainty, concentrations: [1] },
+    });
+    expect(r.bands!.conditions[0]).toBeNull();
+    expect(r.bands!.conditions[1]!.rheobase_uA_cm2.low).not.toBeNull();
   });
 
   test('bands need potencies, and uncertainty only of conductances with a potency', () => {

@@ -36,7 +36,14 @@ describe('forecast CLI', () => {
     );
     expect(code).toBe(0);
     const out = JSON.parse(stdout);
-    expect(Object.keys(out)).toEqual(['rest_mV', 'rheobase_uA_cm2', 'threshold_mV', 'rates_Hz', 'flags']);
+    expect(Object.keys(out)).toEqual([
+      'rest_mV',
+      'rheobase_uA_cm2',
+      'threshold_mV',
+      'rates_Hz',
+      'flags',
+      'caution',
+    ]);
     // HH 1952 behaviour (hodgkin-huxley-1952-numerical.json): rest −64.996 mV, rheobase ≈ 2.24, ≈ 68.3 and 86.5 Hz.
     expect(out.rest_mV).toBeCloseTo(numerical.rest_mV, 3);
     expect(Math.abs(out.rheobase_uA_cm2 - numerical.rheobase_uA_cm2)).toBeLessThanOrEqual(0.005);
@@ -135,5 +142,48 @@ describe('forecast CLI', () => {
     expect(out.rest_mV).toBeLessThan(-50);
     expect(out.rheobase_uA_cm2).toBeGreaterThan(0);
     expect(out.rates_Hz['10']).toBeGreaterThan(0);
+  });
+});
+
+describe('forecast CLI with bands', () => {
+  test('prints a band per measure and the caution; zero covariance gives the point forecast as its band', () => {
+    const { code, stdout } = run(
+      JSON.stringify({
+        preset: 'pospischil-rs-2008',
+        potencies: { gNa: { ic50: 1, hill: 1 } },
+        concentrations: [1],
+        uncertainty: {
+          seed: 1,
+          draws: 10,
+          potencies: {
+            gNa: {
+              covariance: [
+                [0, 0],
+                [0, 0],
+              ],
+            },
+          },
+        },
+      }),
+    );
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    expect(out.caution).toMatch(/not a clinical or regulatory safety determination/);
+    const c = out.conditions[0];
+    expect(c.rheobase_uA_cm2).not.toBeNull();
+    expect(c.bands.rheobase_uA_cm2).toEqual({
+      median: c.rheobase_uA_cm2,
+      low: c.rheobase_uA_cm2,
+      high: c.rheobase_uA_cm2,
+      missing: 0,
+    });
+  });
+
+  test('bands without potencies are refused with a message', () => {
+    const { code, stderr } = run(
+      JSON.stringify({ preset: 'hh-squid-1952', block: { gNa: 0.2 }, uncertainty: { seed: 1 } }),
+    );
+    expect(code).toBe(1);
+    expect(stderr).toContain('uncertainty bands need potencies');
   });
 });

@@ -11,6 +11,8 @@ export interface BandRequest {
   seed: number;
   /** Per conductance of `potencies`: the fit's covariance and/or wells; absent means none known. */
   potencies: Record<string, PotencyUncertaintyInput>;
+  /** Concentrations to band (same unit as the request's); null: every one. */
+  concentrations: number[] | null;
 }
 
 export const DEFAULT_BAND_DRAWS = 200;
@@ -53,7 +55,8 @@ export interface ForecastBands {
   seed: number;
   level: 0.95;
   sources: { conductance: string; source: DrawSource; note: string }[];
-  conditions: ConditionBand[];
+  /** Per condition (same order as the forecast's); null where no band was asked for. */
+  conditions: (ConditionBand | null)[];
   method: string;
 }
 
@@ -109,8 +112,12 @@ export function planBands(plan: ForecastPlan, control: Excitability, chunk = 64)
     drawPotency(name, plan.potencies![name]!, bands.potencies[name], bands.draws, random),
   );
   const blockable = plan.preset.conductances.filter((c) => c.blockable).map((c) => c.name);
+  const wanted = (c: number | null) =>
+    bands.concentrations === null ||
+    (c !== null && bands.concentrations.some((w) => Math.abs(w - c) <= 1e-9 * Math.max(w, c)));
   // Per condition: the block of each drawn conductance per draw, the distinct scale maps and each draw's map index.
   const layout = plan.conditions.map((c) => {
+    if (!wanted(c.concentration)) return { blocks: [], scales: [], index: new Int32Array(0) };
     const blocks = drawn.map((d) =>
       Float64Array.from({ length: bands.draws }, (_, i) =>
         c.concentration === null ? 0 : poreBlockFraction(c.concentration, 10 ** d.log10Ic50[i]!, d.hill[i]!),
@@ -179,6 +186,7 @@ export function planBands(plan: ForecastPlan, control: Excitability, chunk = 64)
         method: BAND_METHOD,
         conditions: plan.conditions.map((c, ci) => {
           const l = layout[ci]!;
+          if (!wanted(c.concentration)) return null;
           const perDraw = Array.from(l.index, (k) => measured[ci]![k]!);
           return {
             concentration: c.concentration,

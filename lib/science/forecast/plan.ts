@@ -106,7 +106,12 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
   const u = request.uncertainty;
   const bands: BandRequest | null =
     u && request.potencies
-      ? { draws: u.draws ?? DEFAULT_BAND_DRAWS, seed: u.seed, potencies: u.potencies ?? {} }
+      ? {
+          draws: u.draws ?? DEFAULT_BAND_DRAWS,
+          seed: u.seed,
+          potencies: u.potencies ?? {},
+          concentrations: u.concentrations ?? null,
+        }
       : null;
   return {
     preset,

@@ -125,6 +125,11 @@ const uncertaintySchema = z.strictObject({
     .min(0, { error: 'uncertainty.seed must be 0 – 4294967295' })
     .max(4294967295, { error: 'uncertainty.seed must be 0 – 4294967295' }),
   potencies: z.record(z.string(), potencyUncertaintySchema).optional(),
+  /** Band only these of the request's concentrations. @default every one */
+  concentrations: z
+    .array(z.number({ error: 'uncertainty.concentrations must be numbers' }).min(0))
+    .max(50)
+    .optional(),
 });
 
 const traceSchema = z.union([
@@ -254,7 +259,9 @@ export type ForecastRequest = z.input<typeof forecastRequestSchema>;
 
 /**
  * The forecast input file read by scripts/forecast.ts:
- * {"preset":"hh-squid-1952","block":{"gNa":0.3},"stepMs":500,"drives_uA_cm2":[10,20]}.
+ * {"preset":"hh-squid-1952","block":{"gNa":0.3},"stepMs":500,"drives_uA_cm2":[10,20]}, or instead of
+ * block potencies at concentrations with optional bands:
+ * {"preset":…,"potencies":{"gNa":{"ic50":1,"hill":1}},"concentrations":[0.3,1],"uncertainty":{"seed":1,…}}.
  */
 export const forecastInputFileSchema = z
   .strictObject(
@@ -265,6 +272,20 @@ export const forecastInputFileSchema = z
         .optional(),
       stepMs: forecastProtocolSchema.shape.stepMs,
       drives_uA_cm2: forecastProtocolSchema.shape.drives_uA_cm2,
+      /** Instead of block: potencies at concentrations, optionally with uncertainty bands. */
+      potencies: z
+        .record(z.string(), potencySchema, {
+          error: 'potencies must be an object of conductance → {ic50, hill}',
+        })
+        .optional(),
+      concentrations: z
+        .array(z.number({ error: 'each concentration must be a number' }).min(0), {
+          error: 'concentrations must be a list of numbers',
+        })
+        .min(1)
+        .max(50)
+        .optional(),
+      uncertainty: uncertaintySchema.optional(),
     },
     { error: (issue) => (issue.code === 'invalid_type' ? 'the input must be a JSON object' : undefined) },
   )
@@ -272,6 +293,22 @@ export const forecastInputFileSchema = z
     (r, ctx) => {
       if (isPresetName(r.preset) && isObject(r.block))
         checkConductanceKeys(r.preset, Object.keys(r.block), 'block', ctx);
+      if (isPresetName(r.preset) && isObject(r.potencies))
+        checkConductanceKeys(r.preset, Object.keys(r.potencies), 'potencies', ctx);
+      if (r.block && r.potencies)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['potencies'],
+          message: 'give either block or potencies, not both',
+        });
+      if (Boolean(r.potencies) !== Boolean(r.concentrations))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['concentrations'],
+          message: 'potencies and concentrations go together',
+        });
+      if (r.uncertainty && !r.potencies)
+        ctx.addIssue({ code: 'custom', path: ['uncertainty'], message: 'uncertainty bands need potencies' });
     },
     { when: (payload) => isObject(payload.value) },
   );
