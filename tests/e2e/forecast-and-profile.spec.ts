@@ -32,6 +32,9 @@ const traces = (page: Page) =>
 test('a plate’s forecast shows the caution, traces, f–I curves and the sweep; one compound or all at once', async ({
   page,
 }) => {
+  // Each forecast now runs the model 200 times per exposure for its bands (seconds of work per compound,
+  // minutes for the whole plate on a shared 2-core machine), so this test waits longer than the default.
+  test.setTimeout(600_000);
   const plateId = await idOf('select id from plates where label = $1', 'NAV-P01');
   await signIn(page);
   await page.goto(`/plates/${plateId}`);
@@ -39,7 +42,7 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
   await expect(page).toHaveURL(new RegExp(`/plates/${plateId}/forecast$`));
   await expect(page.getByRole('note', { name: 'Caution' })).toContainText(CAUTION);
   await expect(page.getByRole('heading', { name: 'GW-0001 on NAV-P01' })).toBeVisible();
-  await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 30_000 });
+  await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 180_000 });
   await expect(traces(page)).toContainText('GW-0001 at 1 µM');
   // Each target beside the model conductance it blocks, in the screen's preset (seed-demo: Nav1.7 → gNa,
   // on the Pospischil et al. 2008 regular-spiking cell).
@@ -79,12 +82,12 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
 
   await page.getByRole('button', { name: /GW-0002/ }).click();
   await expect(page.getByRole('heading', { name: 'GW-0002 on NAV-P01' })).toBeVisible();
-  await expect(traces(page)).toContainText('GW-0002 at 0.3 µM', { timeout: 30_000 });
+  await expect(traces(page)).toContainText('GW-0002 at 0.3 µM', { timeout: 180_000 });
 
   await page.getByRole('button', { name: /^Forecast the \d+ not yet computed$/ }).click();
   // The run is one job on the queue; the worker process computes each missing forecast and reports progress.
   await expect(page.getByText(/^Last run: \d+ of \d+ forecasts computed and stored\.$/)).toBeVisible({
-    timeout: 60_000,
+    timeout: 420_000,
   });
   await expect(
     page.getByRole('navigation', { name: 'Compounds on this plate' }).getByText('Forecast stored'),
