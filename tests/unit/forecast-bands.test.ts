@@ -193,8 +193,8 @@ describe('bands', () => {
   });
 
   test('the truth’s forecast lies inside the 95 % band in at least 90 % of 200 simulated plates', () => {
-    // One concentration (the true IC50) and the short protocol keep 200 × 200 model runs near half a minute
-    // on an idle core. 200 plates rather than 100: with 100 the binomial error (± 2.3 %) is as large as the
+    // One concentration (the true IC50) and the short protocol keep the 200 × 200 model runs to 1.5–3 min on
+    // this shared 2-core machine (93 s at load 5: over the ~60 s asked for). 200 plates rather than 100: with 100 the binomial error (± 2.3 %) is as large as the
     // margin between the nominal 95 % and the 90 % asked for (on the first 100 seeds the fit's own Wald
     // interval of log IC50 covered the truth 91 times).
     const at = [TRUTH.ic50_uM];
