@@ -7,7 +7,8 @@
 // over repeats, after one warm-up run (rate tables built, code compiled). Then the uncertainty bands on the
 // pool: one compound with bands (200 draws × 5 concentrations), and every compound of a 384-well plate
 // (32 compounds × 10 wells, 5 concentrations each, invented potencies) with bands, each once; targets
-// < 1 s and < 5 s, with the threads used and the load average printed (the machine may be shared).
+// < 1 s and < 5 s, with the threads used, the model runs the bands took, the process's CPU time and the
+// load average printed (the machine may be shared). `--bands` prints only the band figures.
 import { computeForecast } from '../lib/science/forecast/forecast';
 import { loadavg } from 'node:os';
 import {
@@ -49,7 +50,7 @@ async function time(repeats: number, work: () => unknown): Promise<string> {
 
 async function main(repeats: number): Promise<void> {
   console.log(`forecast benchmark, median (min–max) of ${repeats} runs`);
-  for (const name of PRESET_NAMES) {
+  for (const name of bandsOnly ? [] : PRESET_NAMES) {
     const model = compileModel(getPreset(name));
     const rest = findRest(model).start;
     const rheobase = findRheobase(model, rest);
@@ -94,6 +95,24 @@ function bandRequest(preset: string, ic50: number, seed: number) {
   };
 }
 
+/** CPU seconds of this process (every thread) since `from`. */
+function cpuSeconds(from: NodeJS.CpuUsage): string {
+  const u = process.cpuUsage(from);
+  return ((u.user + u.system) / 1e6).toFixed(1);
+}
+
+/** Model runs the bands took beside the point forecasts, and how each measure's band was found. */
+function runsOf(results: Awaited<ReturnType<typeof runForecast>>[]): string {
+  const ways = new Map<string, number>();
+  let runs = 0;
+  for (const r of results)
+    for (const c of r.bands?.conditions ?? []) {
+      runs += c?.runs ?? 0;
+      for (const w of Object.values(c?.ways ?? {})) ways.set(w, (ways.get(w) ?? 0) + 1);
+    }
+  return `${runs} (${[...ways].map(([w, k]) => `${w} ${k}`).join(', ')})`;
+}
+
 async function bandFigures(): Promise<void> {
   const load = () =>
     loadavg()
@@ -105,27 +124,31 @@ bands on the pool: ${forecastPoolThreads()} worker thread(s); load average ${loa
     clearForecastCache();
     await runForecast(bandRequest(name, 1, 0)); // warm-up: threads started, code compiled
     clearForecastCache();
+    const cpu0 = process.cpuUsage();
     const t0 = performance.now();
-    await runForecast(bandRequest(name, 1, 1));
+    const single = await runForecast(bandRequest(name, 1, 1));
     const one = performance.now() - t0;
+    const cpuOne = cpuSeconds(cpu0);
     console.log(
-      `  ${name}: one compound, 200 draws × 5 concentrations   ${one.toFixed(0).padStart(7)} ms (target < 1000)`,
+      `  ${name}: one compound, 200 draws × 5 concentrations   ${one.toFixed(0).padStart(7)} ms (target < 1000); ${runsOf([single])} band runs; CPU ${cpuOne} s`,
     );
     clearForecastCache();
+    const cpu1 = process.cpuUsage();
     const t1 = performance.now();
     // 384 wells: 32 compounds of 10 wells; potencies spread over two decades.
-    await Promise.all(
+    const all = await Promise.all(
       Array.from({ length: 32 }, (_, i) => runForecast(bandRequest(name, 0.1 * 10 ** (i / 16), 100 + i))),
     );
     const plate = performance.now() - t1;
     console.log(
-      `  ${name}: 384-well plate, 32 compounds with bands     ${plate.toFixed(0).padStart(7)} ms (target < 5000)`,
+      `  ${name}: 384-well plate, 32 compounds with bands     ${plate.toFixed(0).padStart(7)} ms (target < 5000); ${runsOf(all)} band runs; CPU ${cpuSeconds(cpu1)} s`,
     );
   }
   console.log(`  load average after: ${load()}`);
 }
 
-const repeats = Number(process.argv[2] ?? 9);
+const bandsOnly = process.argv.includes('--bands');
+const repeats = Number(process.argv.slice(2).find((a) => a !== '--bands') ?? 9);
 if (!Number.isInteger(repeats) || repeats < 1) {
   process.stderr.write('usage: npx tsx scripts/bench-forecast.ts [repeats ≥ 1]\n');
   process.exitCode = 2;

@@ -6,7 +6,9 @@ import { Piscina } from 'piscina';
 import { assembleForecast, type ForecastResult } from '@/lib/science/forecast/assemble';
 import { conditionTasks, controlTask, planForecast, traceTasks } from '@/lib/science/forecast/plan';
 import { parseForecastRequest } from '@/lib/science/forecast/request-schema';
-import { planBands, type BandSample, type BandTask } from '@/lib/science/forecast/bands';
+import type { BandCellResult, BandTask } from '@/lib/science/forecast/band-cell';
+import { planBands } from '@/lib/science/forecast/bands';
+import type { FiringTransition } from '@/lib/science/forecast/firing-transition';
 import type { MeasureTask, TraceTask } from '@/lib/science/forecast/tasks';
 import type { VoltageTrace } from '@/lib/science/neuron/downsample';
 import type { Excitability } from '@/lib/science/neuron/excitability';
@@ -92,12 +94,11 @@ async function run<T extends Excitability | VoltageTrace>(task: MeasureTask | Tr
 
 /**
  * A band task on the threads. Not cached: its draws are continuous, so results would rarely repeat and
- * would push the conditions out of the cache (identical block maps within a forecast are measured once,
- * planBands).
+ * would push the conditions out of the cache.
  */
-async function runBand(task: BandTask): Promise<BandSample[]> {
+async function runBand(task: BandTask): Promise<BandCellResult> {
   state.tasksRun++;
-  return (await pool().run(task)) as BandSample[];
+  return (await pool().run(task)) as BandCellResult;
 }
 
 /**
@@ -109,25 +110,33 @@ export async function runForecast(input: unknown): Promise<ForecastResult> {
   const plan = planForecast(parseForecastRequest(input));
   const control = await run<Excitability>(controlTask(plan));
   const t = traceTasks(plan, control);
-  const bandWork = planBands(plan, control, bandChunk(plan));
-  const [conditions, controlTrace, conditionTrace, bandResults] = await Promise.all([
-    Promise.all(conditionTasks(plan, control).map((task) => run<Excitability>(task))),
+  const bandWork = planBands(plan, control);
+  const conditionRuns = conditionTasks(plan, control).map((task) => run<Excitability>(task));
+  // Each banded concentration's task starts once its point measurement is in (it reuses it).
+  const bandRuns = bandWork
+    ? bandWork.conditions.map(
+        async (i) => [i, await runBand(bandWork.task(i, await conditionRuns[i]!))] as const,
+      )
+    : [];
+  const transitionRun = bandWork
+    ? Promise.all(conditionRuns).then(async (measured) => {
+        state.tasksRun++;
+        return (await pool().run(bandWork.transitionTask(control, measured))) as FiringTransition;
+      })
+    : Promise.resolve(null);
+  const [conditions, controlTrace, conditionTrace, bandResults, transition] = await Promise.all([
+    Promise.all(conditionRuns),
     t ? run<VoltageTrace>(t.control) : Promise.resolve(null),
     t?.condition ? run<VoltageTrace>(t.condition) : Promise.resolve(null),
-    bandWork ? Promise.all(bandWork.tasks.map(runBand)) : Promise.resolve(null),
+    bandWork ? Promise.all(bandRuns) : Promise.resolve(null),
+    transitionRun,
   ]);
   const traces =
     t && controlTrace
       ? { drive_uA_cm2: t.drive_uA_cm2, control: controlTrace, condition: conditionTrace }
       : null;
-  const bands = bandWork && bandResults ? bandWork.assemble(bandResults) : null;
+  const bands = bandWork && bandResults ? bandWork.assemble(new Map(bandResults), transition) : null;
   return assembleForecast(plan, control, conditions, traces, bands);
-}
-
-/** Measurements per band task: about four tasks per thread per condition, so that the threads share the work evenly. */
-function bandChunk(plan: ReturnType<typeof planForecast>): number {
-  const draws = plan.bands?.draws ?? 1;
-  return Math.max(8, Math.ceil(draws / (4 * forecastPoolThreads())));
 }
 
 /** Stop the worker threads (scripts and tests call this so the process can exit). */

@@ -1,9 +1,19 @@
 import type { Excitability, ExcitabilityRequest } from '../neuron/excitability';
-import type { NeuronPreset } from '../neuron/types';
+import {
+  bandOf,
+  type Band,
+  type BandCellResult,
+  type BandMeasure,
+  type BandTask,
+  type BandWay,
+} from './band-cell';
 import type { ForecastPlan } from './plan';
 import { poreBlockFraction } from './pore-block';
 import { seededRandom } from './prng';
+import { nearFiringTransition, type FiringTransition, type TransitionTask } from './firing-transition';
 import { drawPotency, type DrawSource, type PotencyUncertaintyInput } from './uncertainty';
+
+export { bandOf, quantileSorted, type Band, type BandSample, type BandTask } from './band-cell';
 
 /** Bands asked for in a forecast request (validated by request-schema.ts). */
 export interface BandRequest {
@@ -17,30 +27,6 @@ export interface BandRequest {
 
 export const DEFAULT_BAND_DRAWS = 200;
 
-/** One draw's measures at one concentration. */
-export interface BandSample {
-  rheobase_uA_cm2: number | null;
-  threshold_mV: number | null;
-  rate_Hz: number | null;
-}
-
-/** Many blocked models of one preset under one request: one measurement per scale map. */
-export interface BandTask {
-  kind: 'band';
-  preset: NeuronPreset;
-  request: ExcitabilityRequest;
-  scales: Record<string, number>[];
-}
-
-/** Median and 2.5–97.5 % quantiles of a measure over the draws; null where undefined (see `missing`). */
-export interface Band {
-  median: number | null;
-  low: number | null;
-  high: number | null;
-  /** Draws without a value: for rheobase no spike up to the ceiling (counted as above every value). */
-  missing: number;
-}
-
 export interface ConditionBand {
   concentration: number | null;
   /** Band of the fraction blocked, per conductance. */
@@ -48,6 +34,12 @@ export interface ConditionBand {
   rheobase_uA_cm2: Band;
   threshold_mV: Band;
   referenceRate_Hz: Band;
+  /** How each measure's band was found (band-cell.ts). */
+  ways?: Record<BandMeasure, BandWay>;
+  /** Model runs the band took beside the point forecast. */
+  runs?: number;
+  /** Its concentration lies within the firing transition's band, or its rate band's low end is under half its high end. */
+  nearTransition?: boolean;
 }
 
 export interface ForecastBands {
@@ -58,52 +50,31 @@ export interface ForecastBands {
   /** Per condition (same order as the forecast's); null where no band was asked for. */
   conditions: (ConditionBand | null)[];
   method: string;
+  /** Where the compound stops the cell firing repetitively at the reference drive, with its band. */
+  transition?: FiringTransition | null;
 }
 
 export const BAND_METHOD =
-  'Each fit’s log IC50 and Hill slope drawn jointly (normal with the fit’s covariance, else a bootstrap of its wells), the model run per draw at each concentration; median and 2.5–97.5 % quantiles of the draws.';
+  'Each fit’s log IC50 and Hill slope drawn jointly (normal or t with the fit’s covariance, else a bootstrap of its wells); median and 2.5–97.5 % quantiles of the draws’ rheobase, threshold and rate at each concentration, the model run at the quantile points of the draws ordered by block where every run agrees with that order, else per draw.';
 
-/** Quantile of sorted values by linear interpolation (Hyndman & Fan 1996, type 7); ∞ gives null. */
-export function quantileSorted(sorted: readonly number[], p: number): number | null {
-  if (sorted.length === 0) return null;
-  const h = (sorted.length - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.ceil(h);
-  const a = sorted[lo]!;
-  const b = sorted[hi]!;
-  const q = lo === hi ? a : a + (h - lo) * (b - a);
-  return Number.isFinite(q) ? q : null;
-}
-
-/** Band of values; `nullAs` says how a missing value counts (above all, or left out). */
-export function bandOf(values: readonly (number | null)[], nullAs: 'infinity' | 'omit'): Band {
-  const missing = values.filter((v) => v === null).length;
-  const kept = values
-    .map((v) => (v === null ? (nullAs === 'infinity' ? Number.POSITIVE_INFINITY : null) : v))
-    .filter((v): v is number => v !== null)
-    .sort((a, b) => a - b);
-  return {
-    median: quantileSorted(kept, 0.5),
-    low: quantileSorted(kept, 0.025),
-    high: quantileSorted(kept, 0.975),
-    missing,
-  };
-}
-
-/** The band work of a planned forecast: tasks to run (any order, any thread) and how to put the answers together. */
+/** The band work of a planned forecast: one task per banded condition, made once that condition is measured. */
 export interface BandWork {
-  tasks: BandTask[];
-  assemble(results: BandSample[][]): ForecastBands;
+  /** Indices of the banded conditions. */
+  conditions: number[];
+  /** The task of condition `index`, given the point forecast's measurement of it. */
+  task(index: number, measured: Excitability): BandTask;
+  /** The firing transition's task, given the control and every condition measured. */
+  transitionTask(control: Excitability, conditions: Excitability[]): TransitionTask;
+  assemble(results: Map<number, BandCellResult>, transition: FiringTransition | null): ForecastBands;
 }
 
 /**
- * Plans the bands: draws every used potency's parameters (seeded, in conductance-name order), turns each
- * draw into a block map per concentration, and groups the distinct maps of each concentration into tasks
- * of at most `chunk` measurements (identical maps are measured once). Each measurement uses the
- * control's reference drive and starts its rheobase search at the control's rheobase, as the point
- * forecast's conditions do.
+ * Plans the bands: draws every used potency's parameters (seeded, in conductance-name order) and turns
+ * each draw into a block per drawn conductance at each banded concentration. Each concentration's task
+ * uses the control's reference drive and starts its rheobase search at that condition's own rheobase
+ * (the point forecast's), and carries the point forecast's measures at the estimate (band-cell.ts).
  */
-export function planBands(plan: ForecastPlan, control: Excitability, chunk = 64): BandWork | null {
+export function planBands(plan: ForecastPlan, control: Excitability): BandWork | null {
   const bands = plan.bands;
   if (!bands || !plan.potencies) return null;
   const random = seededRandom(bands.seed);
@@ -111,100 +82,99 @@ export function planBands(plan: ForecastPlan, control: Excitability, chunk = 64)
   const drawn = names.map((name) =>
     drawPotency(name, plan.potencies![name]!, bands.potencies[name], bands.draws, random),
   );
-  const blockable = plan.preset.conductances.filter((c) => c.blockable).map((c) => c.name);
   const wanted = (c: number | null) =>
     bands.concentrations === null ||
     (c !== null && bands.concentrations.some((w) => Math.abs(w - c) <= 1e-9 * Math.max(w, c)));
-  // Per condition: the block of each drawn conductance per draw, the distinct scale maps and each draw's map index.
-  const layout = plan.conditions.map((c) => {
-    if (!wanted(c.concentration)) return { blocks: [], scales: [], index: new Int32Array(0) };
-    const blocks = drawn.map((d) =>
-      Float64Array.from({ length: bands.draws }, (_, i) =>
-        c.concentration === null ? 0 : poreBlockFraction(c.concentration, 10 ** d.log10Ic50[i]!, d.hill[i]!),
+  const conditions = plan.conditions.flatMap((c, i) => (wanted(c.concentration) ? [i] : []));
+  const bandRequest: ExcitabilityRequest = {
+    protocol: {
+      dt_ms: plan.protocol.dt_ms,
+      rates: plan.protocol.rates,
+      rheobaseStep_ms: plan.protocol.rheobaseStep_ms,
+      rheobaseRelTolerance: plan.protocol.rheobaseRelTolerance,
+      rheobaseCeiling_uA_cm2: plan.protocol.rheobaseCeiling_uA_cm2,
+      rateStep_ms: plan.protocol.rateStep_ms,
+      thresholdSlope_mV_ms: plan.protocol.thresholdSlope_mV_ms,
+      thresholdStepFactor: plan.protocol.thresholdStepFactor,
+    },
+    drives_uA_cm2: [],
+    referenceDrive_uA_cm2: control.referenceDrive_uA_cm2 ?? undefined,
+  };
+  const fixedScaleOf = (scale: Record<string, number>) =>
+    Object.fromEntries(Object.entries(scale).filter(([name]) => !names.includes(name)));
+  const blocksAt = (concentration: number | null) =>
+    drawn.map((d) =>
+      Array.from({ length: bands.draws }, (_, i) =>
+        concentration === null ? 0 : poreBlockFraction(concentration, 10 ** d.log10Ic50[i]!, d.hill[i]!),
       ),
     );
-    const distinct = new Map<string, number>();
-    const scales: Record<string, number>[] = [];
-    const index = new Int32Array(bands.draws);
-    for (let i = 0; i < bands.draws; i++) {
-      const scale = Object.fromEntries(
-        blockable.map((name) => {
-          const k = names.indexOf(name);
-          return [name, k < 0 ? (c.scale[name] ?? 1) : 1 - blocks[k]![i]!];
-        }),
-      );
-      const key = JSON.stringify(scale);
-      let at = distinct.get(key);
-      if (at === undefined) {
-        at = scales.length;
-        distinct.set(key, at);
-        scales.push(scale);
-      }
-      index[i] = at;
-    }
-    return { blocks, scales, index };
-  });
-  const tasks: BandTask[] = [];
-  const owners: { condition: number; from: number }[] = [];
-  layout.forEach((l, ci) => {
-    // The same start as the point forecast's conditions (conditionTasks), so that a draw equal to the
-    // estimate measures exactly the point forecast.
-    const guess = control.rheobase_uA_cm2 ?? undefined;
-    const request: ExcitabilityRequest = {
-      protocol: {
-        dt_ms: plan.protocol.dt_ms,
-        rates: plan.protocol.rates,
-        rheobaseStep_ms: plan.protocol.rheobaseStep_ms,
-        rheobaseRelTolerance: plan.protocol.rheobaseRelTolerance,
-        rheobaseCeiling_uA_cm2: plan.protocol.rheobaseCeiling_uA_cm2,
-        rateStep_ms: plan.protocol.rateStep_ms,
-        thresholdSlope_mV_ms: plan.protocol.thresholdSlope_mV_ms,
-        thresholdStepFactor: plan.protocol.thresholdStepFactor,
-      },
-      drives_uA_cm2: [],
-      referenceDrive_uA_cm2: control.referenceDrive_uA_cm2 ?? undefined,
-      rheobaseGuess_uA_cm2: guess,
-    };
-    for (let from = 0; from < l.scales.length; from += chunk) {
-      tasks.push({ kind: 'band', preset: plan.preset, request, scales: l.scales.slice(from, from + chunk) });
-      owners.push({ condition: ci, from });
-    }
-  });
   return {
-    tasks,
-    assemble(results) {
-      const measured = layout.map((l) => new Array<BandSample>(l.scales.length));
-      results.forEach((samples, t) => {
-        const o = owners[t]!;
-        samples.forEach((s, k) => (measured[o.condition]![o.from + k] = s));
-      });
+    conditions,
+    task(index, measured) {
+      const c = plan.conditions[index]!;
+      const fixedScale = fixedScaleOf(c.scale);
+      const request: ExcitabilityRequest = {
+        ...bandRequest,
+        rheobaseGuess_uA_cm2: measured.rheobase_uA_cm2 ?? control.rheobase_uA_cm2 ?? undefined,
+      };
       return {
+        kind: 'band',
+        preset: plan.preset,
+        request,
+        names,
+        blocks: blocksAt(c.concentration),
+        fixedScale,
+        center: {
+          block: names.map((name) => c.block[name] ?? 0),
+          sample: {
+            rheobase_uA_cm2: measured.rheobase_uA_cm2,
+            threshold_mV: measured.threshold_mV,
+            rate_Hz: measured.reference?.rate_Hz ?? null,
+          },
+        },
+      };
+    },
+    transitionTask(ctrl, measured) {
+      const points = plan.conditions
+        .map((c, i) => ({
+          concentration: c.concentration ?? 0,
+          rate_Hz: measured[i]!.reference?.rate_Hz ?? 0,
+        }))
+        .sort((a, b) => a.concentration - b.concentration);
+      return {
+        kind: 'transition',
+        preset: plan.preset,
+        request: bandRequest,
+        fixedScale: fixedScaleOf(plan.conditions[0]?.scale ?? {}),
+        potencies: plan.potencies!,
+        measured: [{ concentration: 0, rate_Hz: ctrl.reference?.rate_Hz ?? 0 }, ...points],
+        draws: Object.fromEntries(
+          drawn.map((d) => [d.conductance, { log10Ic50: [...d.log10Ic50], hill: [...d.hill] }]),
+        ),
+      };
+    },
+    assemble(results, transition) {
+      return {
+        transition,
         draws: bands.draws,
         seed: bands.seed,
         level: 0.95,
         sources: drawn.map((d) => ({ conductance: d.conductance, source: d.source, note: d.note })),
         method: BAND_METHOD,
         conditions: plan.conditions.map((c, ci) => {
-          const l = layout[ci]!;
-          if (!wanted(c.concentration)) return null;
-          const perDraw = Array.from(l.index, (k) => measured[ci]![k]!);
+          const r = results.get(ci);
+          if (!r) return null;
           return {
             concentration: c.concentration,
             block: Object.fromEntries(
-              drawn.map((d, k) => [d.conductance, bandOf([...l.blocks[k]!], 'omit')]),
+              drawn.map((d, k) => [d.conductance, bandOf(blocksAt(c.concentration)[k]!, 'omit')]),
             ),
-            rheobase_uA_cm2: bandOf(
-              perDraw.map((s) => s.rheobase_uA_cm2),
-              'infinity',
-            ),
-            threshold_mV: bandOf(
-              perDraw.map((s) => s.threshold_mV),
-              'omit',
-            ),
-            referenceRate_Hz: bandOf(
-              perDraw.map((s) => s.rate_Hz),
-              'omit',
-            ),
+            rheobase_uA_cm2: r.rheobase_uA_cm2,
+            threshold_mV: r.threshold_mV,
+            referenceRate_Hz: r.rate_Hz,
+            ways: r.ways,
+            runs: r.runs,
+            nearTransition: nearFiringTransition(c.concentration, transition, r.rate_Hz),
           };
         }),
       };

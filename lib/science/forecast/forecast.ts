@@ -1,5 +1,6 @@
 import { assembleForecast, type ForecastResult } from './assemble';
 import { planBands } from './bands';
+import { findFiringTransition } from './firing-transition';
 import { conditionTasks, controlTask, planForecast, traceTasks } from './plan';
 import { parseForecastRequest } from './request-schema';
 import { runBandTask, runMeasureTask, runTraceTask } from './tasks';
@@ -23,6 +24,11 @@ export function computeForecast(input: unknown): ForecastResult {
       }
     : null;
   const bandWork = planBands(plan, control);
-  const bands = bandWork ? bandWork.assemble(bandWork.tasks.map(runBandTask)) : null;
+  const bands = bandWork
+    ? bandWork.assemble(
+        new Map(bandWork.conditions.map((i) => [i, runBandTask(bandWork.task(i, conditions[i]!))])),
+        findFiringTransition(bandWork.transitionTask(control, conditions)),
+      )
+    : null;
   return assembleForecast(plan, control, conditions, traces, bands);
 }

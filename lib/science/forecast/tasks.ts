@@ -3,7 +3,8 @@ import { compileModel } from '../neuron/model';
 import type { NeuronPreset } from '../neuron/types';
 import { voltageTrace, type TraceRequest } from '../neuron/voltage-trace';
 import type { VoltageTrace } from '../neuron/downsample';
-import type { BandSample, BandTask } from './bands';
+import { bandCell, type BandCellResult, type BandTask } from './band-cell';
+import { findFiringTransition, type FiringTransition, type TransitionTask } from './firing-transition';
 
 /** Units of forecast work; plain data, so they cross to a worker thread unchanged. */
 export interface MeasureTask {
@@ -21,7 +22,7 @@ export interface TraceTask {
   request: TraceRequest;
 }
 
-export type ForecastTask = MeasureTask | TraceTask | BandTask;
+export type ForecastTask = MeasureTask | TraceTask | BandTask | TransitionTask;
 
 export function runMeasureTask(task: MeasureTask): Excitability {
   return measureExcitability(compileModel(task.preset, task.scale), task.request);
@@ -31,20 +32,16 @@ export function runTraceTask(task: TraceTask): VoltageTrace {
   return voltageTrace(compileModel(task.preset, task.scale), task.request);
 }
 
-/** One measurement per scale map of a band task: rheobase, threshold and the rate at the reference drive. */
-export function runBandTask(task: BandTask): BandSample[] {
-  return task.scales.map((scale) => {
-    const e = measureExcitability(compileModel(task.preset, scale), task.request);
-    return {
-      rheobase_uA_cm2: e.rheobase_uA_cm2,
-      threshold_mV: e.threshold_mV,
-      rate_Hz: e.reference?.rate_Hz ?? null,
-    };
-  });
+/** The bands of one concentration (band-cell.ts). */
+export function runBandTask(task: BandTask): BandCellResult {
+  return bandCell(task);
 }
 
 /** Run any kind of task (the worker's entry point uses this). */
-export function runForecastTask(task: ForecastTask): Excitability | VoltageTrace | BandSample[] {
+export function runForecastTask(
+  task: ForecastTask,
+): Excitability | VoltageTrace | BandCellResult | FiringTransition {
   if (task.kind === 'band') return runBandTask(task);
+  if (task.kind === 'transition') return findFiringTransition(task);
   return task.kind === 'measure' ? runMeasureTask(task) : runTraceTask(task);
 }
