@@ -5,8 +5,8 @@
 //   "uncertainty": {"seed", "draws" (default 200), "potencies": {conductance: {"covariance": [[var log10 IC50, cov], [cov, var Hill]],
 //   "degreesOfFreedom", "wells": [{"concentration_uM", "block"}]}}} for 95 % bands.
 // Output, block: {"rest_mV", "rheobase_uA_cm2", "threshold_mV", "rates_Hz": {drive: Hz}, "flags": [...], "caution"} of the blocked cell.
-// Output, potencies: {"control": {...}, "conditions": [{"concentration", "block", measures, "bands": {measure: {median, low, high, missing}}}],
-//   "bandSources", "caution"}. Exit 0 with the forecast, 1 for input that cannot be read or is invalid, 2 for wrong usage.
+// Output, potencies: {"control": {...}, "conditions": [{"concentration", "block", measures, "bands": {measure: {median, low, high, missing}},
+//   "nearTransition"}], "bandSources", "firingTransition": {status, concentration, block, band, note} (with bands), "caution"}. Exit 0 with the forecast, 1 for input that cannot be read or is invalid, 2 for wrong usage.
 import { readCliInput } from './cli-input';
 import type { ConditionForecast } from '../lib/science/forecast/assemble';
 import type { Band } from '../lib/science/forecast/bands';
@@ -64,11 +64,13 @@ function main(argv: readonly string[]): number {
                 referenceRate_Hz: band(b.referenceRate_Hz, 3),
               }
             : null,
+          nearTransition: b?.nearTransition ?? false,
         };
       }),
       bandSources: result.bands
         ? { draws: result.bands.draws, seed: result.bands.seed, sources: result.bands.sources }
         : null,
+      firingTransition: result.bands?.transition ?? null,
       caution: result.caution,
     };
     process.stdout.write(`${JSON.stringify(output, null, 2)}\n`);

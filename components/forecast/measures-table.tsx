@@ -59,6 +59,15 @@ function Row({ c, name }: { c: ConditionView; name: string }) {
         className={`px-3 py-2 ${c.measures.flags.length ? 'font-medium text-signal-fail' : 'text-ink-500'}`}
       >
         {flagText(c.measures.flags)}
+        {c.band?.nearTransition ? (
+          <span
+            className="mt-1 block text-xs font-medium whitespace-nowrap text-signal-warn"
+            data-testid="near-transition"
+            title="The firing transition's band covers this concentration, or the rate changes by more than half within its band"
+          >
+            Near a firing transition
+          </span>
+        ) : null}
       </td>
     </tr>
   );

@@ -1,5 +1,5 @@
 import 'server-only';
-import type { CompoundForecast, ConditionView } from '@/lib/validation/forecasts';
+import type { CompoundForecast, ConditionView, TransitionView } from '@/lib/validation/forecasts';
 import type { Cell, ExportTable } from './document';
 
 const round = (v: number | null, digits = 4): number | null =>
@@ -63,6 +63,19 @@ function bandCells(c: ConditionView): Cell[] {
   ];
 }
 
+/** The firing transition in words, for exports (firing-transition.ts). */
+export function transitionText(t: TransitionView | null): string {
+  if (!t) return 'Firing transition: not found for this stored forecast.';
+  if (t.status !== 'found' || t.concentration_uM === null) return `Firing transition: none. ${t.note}`;
+  const block = Object.entries(t.block ?? {})
+    .map(([g, b]) => `${g} ${(b * 100).toFixed(1)} %`)
+    .join(', ');
+  const band = t.band ? ` (95 %: ${sigText(t.band.low)}–${sigText(t.band.high)} µM)` : '';
+  return `Firing transition: stops firing repetitively at the reference drive from ${sigText(t.concentration_uM)} µM${band}, block ${block}.`;
+}
+
+const sigText = (v: number) => Number(v.toPrecision(3)).toString();
+
 /** Control and each exposure of one compound's forecast; a compound without a forecast gets one row saying why. */
 export function forecastRows(f: CompoundForecast): Cell[][] {
   const potencies = f.targets.map((t) => `${t.target} (${t.conductance}): ${t.note}`).join(' ');
@@ -91,7 +104,7 @@ export function forecastRows(f: CompoundForecast): Cell[][] {
       ],
     ];
   const bandNotes = view.bands
-    ? `${view.bands.method} ${view.bands.sources.map((s) => `${s.conductance}: ${s.note}`).join(' ')}`
+    ? `${view.bands.method} ${view.bands.sources.map((s) => `${s.conductance}: ${s.note}`).join(' ')} ${transitionText(view.bands.transition)}`
     : 'No bands: stored before bands were computed.';
   const row = (name: string, c: ConditionView): Cell[] => [
     ...head,
@@ -112,7 +125,10 @@ export function forecastRows(f: CompoundForecast): Cell[][] {
     ...bandCells(c),
     c.band ? view.bands!.draws : null,
     c.band ? bandNotes : name === 'Control' ? 'Control: no block, no band.' : bandNotes,
-    c.measures.flags.map((x) => FLAG_WORDS[x] ?? x).join('; ') || 'none',
+    [
+      ...c.measures.flags.map((x) => FLAG_WORDS[x] ?? x),
+      ...(c.band?.nearTransition ? ['near a firing transition'] : []),
+    ].join('; ') || 'none',
     potencies,
     view.inputSha256,
   ];

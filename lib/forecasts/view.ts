@@ -24,6 +24,7 @@ function conditionView(
           rheobase_uA_cm2: band.rheobase_uA_cm2,
           threshold_mV: band.threshold_mV,
           referenceRate_Hz: band.referenceRate_Hz,
+          nearTransition: band.nearTransition ?? false,
         }
       : null,
   };
@@ -48,7 +49,21 @@ export function forecastView(stored: StoredForecast, exposures_uM: number[]): Fo
     control: conditionView(r.control, exposures_uM),
     conditions: r.conditions.map((c, i) => conditionView(c, exposures_uM, r.bands?.conditions[i] ?? null)),
     bands: r.bands
-      ? { draws: r.bands.draws, seed: r.bands.seed, method: r.bands.method, sources: r.bands.sources }
+      ? {
+          draws: r.bands.draws,
+          seed: r.bands.seed,
+          method: r.bands.method,
+          sources: r.bands.sources,
+          transition: r.bands.transition
+            ? {
+                status: r.bands.transition.status,
+                concentration_uM: r.bands.transition.concentration,
+                block: r.bands.transition.block,
+                band: r.bands.transition.band,
+                note: r.bands.transition.note,
+              }
+            : null,
+        }
       : null,
     traces: r.traces
       ? {

@@ -52,6 +52,17 @@ export const conditionBandSchema = z.object({
   rheobase_uA_cm2: bandSchema,
   threshold_mV: bandSchema,
   referenceRate_Hz: bandSchema,
+  /** Within the firing transition's band, or the rate changes by more than half within its band. */
+  nearTransition: z.boolean(),
+});
+
+/** Where the compound stops the cell firing repetitively at the reference drive (firing-transition.ts). */
+export const transitionViewSchema = z.object({
+  status: z.enum(['found', 'silent-at-control', 'fires-throughout']),
+  concentration_uM: nullableNumber,
+  block: z.record(z.string(), z.number()).nullable(),
+  band: z.object({ low: z.number(), median: z.number(), high: z.number() }).nullable(),
+  note: z.string(),
 });
 
 export const conditionViewSchema = z.object({
@@ -101,6 +112,8 @@ export const forecastViewSchema = z.object({
       seed: z.number(),
       method: z.string(),
       sources: z.array(z.object({ conductance: z.string(), source: z.string(), note: z.string() })),
+      /** Null for forecasts stored before transitions were found. */
+      transition: transitionViewSchema.nullable(),
     })
     .nullable(),
   traces: z
@@ -173,3 +186,5 @@ export const compoundForecastQuerySchema = z.object({
   screenId: z.uuid({ error: 'screenId must be the id of a screen the compound was tested in.' }).optional(),
   at: plateForecastQuerySchema.shape.at,
 });
+
+export type TransitionView = z.infer<typeof transitionViewSchema>;
