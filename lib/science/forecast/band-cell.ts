@@ -1,0 +1,458 @@
+import { DEFAULT_EXCITABILITY_PROTOCOL, type ExcitabilityRequest } from '../neuron/excitability';
+import { firingRate } from '../neuron/firing-rate';
+import { compileModel } from '../neuron/model';
+import { findRest } from '../neuron/rest';
+import { findRheobase } from '../neuron/rheobase';
+import { simulate } from '../neuron/integrate';
+import type { NeuronPreset } from '../neuron/types';
+
+/** One draw's measures at one concentration. */
+export interface BandSample {
+  rheobase_uA_cm2: number | null;
+  threshold_mV: number | null;
+  rate_Hz: number | null;
+}
+
+/** Median and 2.5–97.5 % quantiles of a measure over the draws; null where undefined (see `missing`). */
+export interface Band {
+  median: number | null;
+  low: number | null;
+  high: number | null;
+  /** Draws without a value: for rheobase no spike up to the ceiling (counted as above every value). */
+  missing: number;
+}
+
+export type BandMeasure = 'rheobase_uA_cm2' | 'threshold_mV' | 'rate_Hz';
+export const BAND_MEASURES: readonly BandMeasure[] = ['rheobase_uA_cm2', 'threshold_mV', 'rate_Hz'];
+
+/**
+ * How a measure's band was found in one cell (one concentration):
+ * - 'fixed': every draw has the estimate's block, so the band is the point forecast (no model run);
+ * - 'ranked': the draws ordered by their block (one drawn conductance) or by a linear surrogate of the
+ *   measure (several), and the model run only at the 2.5, 50 and 97.5 % points of that order; accepted
+ *   only when every run of the cell is monotone in that order (see bandCell);
+ * - 'fitted': not monotone there, but a quadratic in the blocks through every run of the cell fits each
+ *   within half the slack below; the draws' values read from it;
+ * - 'per-draw': the model run for every draw (blocks rounded to 0.1 %, identical ones run once).
+ */
+export type BandWay = 'fixed' | 'ranked' | 'fitted' | 'per-draw';
+
+/** The band work of one concentration: the drawn blocks and the point forecast's own measurement there. */
+export interface BandTask {
+  kind: 'band';
+  preset: NeuronPreset;
+  /** Reference drive and rheobase search start (the point condition's rheobase), as for the point forecast. */
+  request: ExcitabilityRequest;
+  /** Drawn conductances (sorted) and, per conductance, its block per draw. */
+  names: string[];
+  blocks: number[][];
+  /** Multiplier of every other blockable conductance (as in the point condition). */
+  fixedScale: Record<string, number>;
+  /**
+   * Inactivation shift (mV) of state-dependent block, the point condition's, the same for every draw
+   * (the drawn Kr moves the block; Ki has no fit uncertainty given). @default none
+   */
+  inactivationShift?: Record<string, number>;
+  /** The estimate's block per drawn conductance and the point forecast's measures there. */
+  center: { block: number[]; sample: BandSample };
+}
+
+export interface BandCellResult {
+  rheobase_uA_cm2: Band;
+  threshold_mV: Band;
+  rate_Hz: Band;
+  ways: Record<BandMeasure, BandWay>;
+  /** Model runs made (for the benchmark). */
+  runs: number;
+}
+
+/** Quantile of sorted values by linear interpolation (Hyndman & Fan 1996, type 7); ∞ gives null. */
+export function quantileSorted(sorted: readonly number[], p: number): number | null {
+  if (sorted.length === 0) return null;
+  const h = (sorted.length - 1) * p;
+  const lo = Math.floor(h);
+  const hi = Math.ceil(h);
+  const a = sorted[lo]!;
+  const b = sorted[hi]!;
+  const q = lo === hi ? a : a + (h - lo) * (b - a);
+  return Number.isFinite(q) ? q : null;
+}
+
+/** Band of values; `nullAs` says how a missing value counts (above all, or left out). */
+export function bandOf(values: readonly (number | null)[], nullAs: 'infinity' | 'omit'): Band {
+  const missing = values.filter((v) => v === null).length;
+  const kept = values
+    .map((v) => (v === null ? (nullAs === 'infinity' ? Number.POSITIVE_INFINITY : null) : v))
+    .filter((v): v is number => v !== null)
+    .sort((a, b) => a - b);
+  return {
+    median: quantileSorted(kept, 0.5),
+    low: quantileSorted(kept, 0.025),
+    high: quantileSorted(kept, 0.975),
+    missing,
+  };
+}
+
+const NULL_AS: Record<BandMeasure, 'infinity' | 'omit'> = {
+  rheobase_uA_cm2: 'infinity',
+  threshold_mV: 'omit',
+  rate_Hz: 'omit',
+};
+
+/**
+ * How far two runs may go against the order before a ranking is refused: the rheobase bisection's
+ * tolerance (0.1 %) with room for its start, and small fractions of a millivolt and a hertz. Our choice,
+ * no source.
+ */
+function slack(m: BandMeasure, a: number, b: number): number {
+  if (m === 'rheobase_uA_cm2') return 0.005 * Math.max(Math.abs(a), Math.abs(b));
+  return m === 'threshold_mV' ? 0.2 : 0.5;
+}
+
+/**
+ * One draw's measures with the functions of measureExcitability (rest, rheobase search, threshold at
+ * thresholdStepFactor × rheobase, rate at the reference drive), so a run here equals that measurement;
+ * `rateOnly` skips the rheobase and threshold.
+ */
+export function measureSample(
+  preset: NeuronPreset,
+  scale: Record<string, number>,
+  request: ExcitabilityRequest,
+  rateOnly = false,
+  inactivationShift: Readonly<Record<string, number>> = {},
+): BandSample {
+  const p = { ...DEFAULT_EXCITABILITY_PROTOCOL, ...request.protocol };
+  const model = compileModel(preset, scale, inactivationShift);
+  const integrator = { dt_ms: p.dt_ms, rates: p.rates };
+  const rest = findRest(model, integrator);
+  const drive = request.referenceDrive_uA_cm2;
+  const rate_Hz =
+    drive === undefined
+      ? null
+      : firingRate(model, rest.start, drive, { ...integrator, step_ms: p.rateStep_ms }).rate_Hz;
+  if (rateOnly || rest.rest_mV === null) return { rheobase_uA_cm2: null, threshold_mV: null, rate_Hz };
+  const rheo = findRheobase(model, rest.start, {
+    ...integrator,
+    step_ms: p.rheobaseStep_ms,
+    relTolerance: p.rheobaseRelTolerance,
+    ceiling_uA_cm2: p.rheobaseCeiling_uA_cm2,
+    guess_uA_cm2: request.rheobaseGuess_uA_cm2,
+    thresholdSlope_mV_ms: p.thresholdSlope_mV_ms,
+  });
+  const threshold_mV =
+    rheo.rheobase_uA_cm2 === null
+      ? null
+      : simulate(
+          model,
+          rest.start,
+          {
+            current_uA_cm2: rheo.rheobase_uA_cm2 * p.thresholdStepFactor,
+            duration_ms: p.rheobaseStep_ms,
+            stopAtFirstSpike: true,
+            thresholdSlope_mV_ms: p.thresholdSlope_mV_ms,
+          },
+          integrator,
+        ).firstSpikeThreshold_mV;
+  return { rheobase_uA_cm2: rheo.rheobase_uA_cm2, threshold_mV, rate_Hz };
+}
+
+/** The model run for every draw, unrounded: the reference the shortcut is tested against. */
+export function perDrawSamples(task: BandTask): BandSample[] {
+  const n = task.blocks[0]?.length ?? 0;
+  return Array.from({ length: n }, (_, i) =>
+    measureSample(
+      task.preset,
+      scaleOf(task, drawVector(task, i)),
+      task.request,
+      false,
+      task.inactivationShift,
+    ),
+  );
+}
+
+/** Band of one measure over per-draw samples. */
+export function bandOfSamples(samples: readonly BandSample[], m: BandMeasure): Band {
+  return bandOf(
+    samples.map((s) => s[m]),
+    NULL_AS[m],
+  );
+}
+
+function drawVector(task: BandTask, i: number): number[] {
+  return task.blocks.map((b) => b[i]!);
+}
+
+function scaleOf(task: BandTask, block: readonly number[]): Record<string, number> {
+  const scale = { ...task.fixedScale };
+  task.names.forEach((name, k) => (scale[name] = 1 - block[k]!));
+  return scale;
+}
+
+/** A measure's value for ordering: a missing rheobase counts as above every value, others as unknown. */
+function orderValue(m: BandMeasure, s: BandSample): number | null {
+  const v = s[m];
+  if (v === null) return m === 'rheobase_uA_cm2' ? Number.POSITIVE_INFINITY : null;
+  return v;
+}
+
+/** True when the values, taken in the order of their keys, never go against one direction by more than the slack. */
+function monotone(m: BandMeasure, points: { key: number; value: number }[]): boolean {
+  const sorted = [...points].sort((a, b) => a.key - b.key);
+  const fits = (sign: 1 | -1) =>
+    sorted.every((p, i) => {
+      if (i === 0) return true;
+      const prev = sorted[i - 1]!;
+      return sign * (p.value - prev.value) >= -slack(m, p.value, prev.value);
+    });
+  return fits(1) || fits(-1);
+}
+
+const QUANTILES = [0.025, 0.5, 0.975] as const;
+
+/**
+ * Bands of rheobase, threshold and rate at one concentration from few model runs.
+ *
+ * Every measure depends on the draw only through its blocks. When a measure is monotone along an order
+ * of the draws, its quantiles are its values at the draws' quantile points in that order, so three runs
+ * give the band. With one drawn conductance the order is the block itself; with several, each measure's
+ * order is a linear surrogate whose slopes come from one extra run per conductance beside the point
+ * forecast (measures whose slopes point the same way, within 0.5 % in cosine, share one order and its
+ * runs). The shortcut is only taken where the evidence allows: every run of the cell (the point, the
+ * slope runs, the extremes of a single conductance, every quantile run) must be monotone in the order
+ * within a small slack, no threshold or rate may be missing among them, and with several conductances
+ * neither may the rheobase, nor may the rate fall to 0 at some runs and not others (a firing transition
+ * across the cloud). Otherwise the measure falls back to a run per draw (blocks rounded to 0.1 %,
+ * identical ones run once; the rate alone where only it is needed). tests/unit/forecast-band-shortcut.test.ts
+ * compares this with a run per draw.
+ */
+export function bandCell(task: BandTask): BandCellResult {
+  const n = task.blocks[0]?.length ?? 0;
+  const d = task.names.length;
+  const bandOfCenter = (m: BandMeasure) =>
+    bandOf(new Array<number | null>(n).fill(task.center.sample[m]), NULL_AS[m]);
+  const spread = task.blocks.map((b) => Math.max(...b) - Math.min(...b));
+  if (n === 0 || spread.every((s) => s <= 1e-12)) {
+    return {
+      rheobase_uA_cm2: bandOfCenter('rheobase_uA_cm2'),
+      threshold_mV: bandOfCenter('threshold_mV'),
+      rate_Hz: bandOfCenter('rate_Hz'),
+      ways: { rheobase_uA_cm2: 'fixed', threshold_mV: 'fixed', rate_Hz: 'fixed' },
+      runs: 0,
+    };
+  }
+  let runs = 0;
+  const full = new Map<string, BandSample>();
+  const rateOnly = new Map<string, BandSample>();
+  const evaluated: { block: number[]; sample: BandSample }[] = [
+    { block: task.center.block, sample: task.center.sample },
+  ];
+  full.set(task.center.block.join(','), task.center.sample);
+  const run = (block: number[]): BandSample => {
+    const key = block.join(',');
+    let s = full.get(key);
+    if (!s) {
+      runs++;
+      s = measureSample(task.preset, scaleOf(task, block), task.request, false, task.inactivationShift);
+      full.set(key, s);
+      evaluated.push({ block, sample: s });
+    }
+    return s;
+  };
+
+  // Orders: the block of the one spread conductance, else a linear surrogate per measure.
+  const moving = spread.map((s, k) => (s > 1e-12 ? k : -1)).filter((k) => k >= 0);
+  const weights: Partial<Record<BandMeasure, number[] | null>> = {};
+  if (moving.length === 1) {
+    const w = new Array<number>(d).fill(0);
+    w[moving[0]!] = 1;
+    for (const m of BAND_MEASURES) weights[m] = w;
+  } else {
+    const slopes = moving.map((k) => {
+      const b = task.blocks[k]!;
+      const mean = b.reduce((a, x) => a + x, 0) / n;
+      const sd = Math.sqrt(b.reduce((a, x) => a + (x - mean) ** 2, 0) / n);
+      const step = Math.max(2 * sd, 1e-4);
+      const c = task.center.block[k]!;
+      const to = c + step <= 1 ? c + step : c - step;
+      const block = [...task.center.block];
+      block[k] = to;
+      return { k, delta: to - c, sample: run(block) };
+    });
+    for (const m of BAND_MEASURES) {
+      const c = task.center.sample[m];
+      if (c === null || slopes.some((s) => s.sample[m] === null)) {
+        weights[m] = null;
+        continue;
+      }
+      const w = new Array<number>(d).fill(0);
+      for (const s of slopes) w[s.k] = (s.sample[m]! - c) / s.delta;
+      weights[m] = w.every((x) => x === 0) ? null : w;
+    }
+    // A rate flat at the point and slope runs (e.g. 0 Hz) has no order of its own: it takes the rheobase's.
+    if (weights.rate_Hz === null && weights.rheobase_uA_cm2) weights.rate_Hz = weights.rheobase_uA_cm2;
+  }
+
+  // Measures whose orders agree share one set of runs.
+  const groups: { w: number[]; measures: BandMeasure[] }[] = [];
+  const cosine = (a: number[], b: number[]) => {
+    const dot = a.reduce((s, x, i) => s + x * b[i]!, 0);
+    return dot / (Math.hypot(...a) * Math.hypot(...b));
+  };
+  for (const m of BAND_MEASURES) {
+    const w = weights[m];
+    if (!w) continue;
+    const g = groups.find((x) => Math.abs(cosine(x.w, w)) > 0.995);
+    if (g) g.measures.push(m);
+    else groups.push({ w, measures: [m] });
+  }
+
+  const ranked: Partial<Record<BandMeasure, { values: number[]; w: number[] }>> = {};
+  for (const g of groups) {
+    const key = (block: readonly number[]) => block.reduce((s, x, i) => s + x * g.w[i]!, 0);
+    const order = Array.from({ length: n }, (_, i) => i).sort(
+      (a, b) => key(drawVector(task, a)) - key(drawVector(task, b)),
+    );
+    run(drawVector(task, order[0]!));
+    run(drawVector(task, order[n - 1]!));
+    const at = QUANTILES.map((p) => {
+      const h = (n - 1) * p;
+      const lo = Math.floor(h);
+      const f = h - lo;
+      const a = drawVector(task, order[lo]!);
+      const b = drawVector(task, order[Math.ceil(h)]!);
+      return run(a.map((x, k) => x + f * (b[k]! - x)));
+    });
+    for (const m of g.measures) {
+      const values = at.map((s) => orderValue(m, s));
+      if (values.every((v): v is number => v !== null)) ranked[m] = { values, w: g.w };
+    }
+  }
+
+  const result = {} as Pick<BandCellResult, BandMeasure>;
+  const ways = {} as Record<BandMeasure, BandWay>;
+  const perDraw: BandMeasure[] = [];
+  for (const m of BAND_MEASURES) {
+    const r = ranked[m];
+    const points = evaluated.map((e) => ({
+      key: e.block.reduce((s, x, i) => s + x * (r?.w[i] ?? 0), 0),
+      value: orderValue(m, e.sample),
+    }));
+    const known = points.filter((p): p is { key: number; value: number } => p.value !== null);
+    const several = moving.length > 1;
+    const silent = known.filter((p) => !Number.isFinite(p.value)).length;
+    if (m === 'rheobase_uA_cm2' && !several && silent === points.length) {
+      // One conductance, no spike at either end of the order nor between: no draw spikes.
+      result[m] = { low: null, median: null, high: null, missing: n };
+      ways[m] = 'ranked';
+      continue;
+    }
+    if (m !== 'rheobase_uA_cm2' && known.length === 0 && points.length >= 4) {
+      // Missing at every run, the ends of the order among them (e.g. no threshold crossing at any draw).
+      result[m] = { low: null, median: null, high: null, missing: n };
+      ways[m] = 'ranked';
+      continue;
+    }
+    // A rheobase missing at some runs (the count of such draws is wanted), or a rate falling to 0 at some
+    // runs and not others with several conductances (the surrogate's slopes then say little).
+    const transition =
+      silent > 0 ||
+      (several && m === 'rate_Hz' && known.some((p) => p.value === 0) && known.some((p) => p.value > 0));
+    if (r && known.length === points.length && !transition && monotone(m, known)) {
+      const sorted = [...r.values].sort((a, b) => a - b);
+      result[m] = { low: sorted[0]!, median: sorted[1]!, high: sorted[2]!, missing: 0 };
+      ways[m] = 'ranked';
+      continue;
+    }
+    const fitted =
+      known.length === points.length && !transition ? quadraticFit(task, moving, evaluated, m) : null;
+    if (fitted) {
+      result[m] = bandOf(
+        Array.from({ length: n }, (_, i) => fitted(drawVector(task, i))),
+        NULL_AS[m],
+      );
+      ways[m] = 'fitted';
+    } else perDraw.push(m);
+  }
+
+  if (perDraw.length > 0) {
+    const onlyRate = perDraw.every((m) => m === 'rate_Hz');
+    const samples = Array.from({ length: n }, (_, i) => {
+      const block = drawVector(task, i).map((x) => Math.round(x * 1000) / 1000);
+      const key = block.join(',');
+      const cached = full.get(key) ?? (onlyRate ? rateOnly.get(key) : undefined);
+      if (cached) return cached;
+      runs++;
+      const s = measureSample(
+        task.preset,
+        scaleOf(task, block),
+        task.request,
+        onlyRate,
+        task.inactivationShift,
+      );
+      (onlyRate ? rateOnly : full).set(key, s);
+      return s;
+    });
+    for (const m of perDraw) {
+      result[m] = bandOf(
+        samples.map((s) => s[m]),
+        NULL_AS[m],
+      );
+      ways[m] = 'per-draw';
+    }
+  }
+  return { ...result, ways, runs };
+}
+
+/** Solves a small symmetric system by Gaussian elimination with partial pivoting; null when singular. */
+function solve(a: number[][], b: number[]): number[] | null {
+  const n = b.length;
+  const m = a.map((row, i) => [...row, b[i]!]);
+  for (let c = 0; c < n; c++) {
+    let p = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(m[r]![c]!) > Math.abs(m[p]![c]!)) p = r;
+    if (Math.abs(m[p]![c]!) < 1e-12) return null;
+    [m[c], m[p]] = [m[p]!, m[c]!];
+    for (let r = 0; r < n; r++) {
+      if (r === c) continue;
+      const f = m[r]![c]! / m[c]![c]!;
+      for (let k = c; k <= n; k++) m[r]![k]! -= f * m[c]![k]!;
+    }
+  }
+  return m.map((row, i) => row[n]! / row[i]!);
+}
+
+/**
+ * A quadratic in the blocks of the moving conductances, least squares through the cell's runs, or null
+ * when there are not two runs more than terms or a run lies off it by more than half the slack.
+ */
+function quadraticFit(
+  task: BandTask,
+  moving: number[],
+  evaluated: { block: number[]; sample: BandSample }[],
+  m: BandMeasure,
+): ((block: number[]) => number) | null {
+  const n = task.blocks[0]!.length;
+  const centre = moving.map((k) => task.center.block[k]!);
+  const width = moving.map((k) => {
+    const b = task.blocks[k]!;
+    return Math.max(Math.max(...b) - Math.min(...b), 1e-9);
+  });
+  const terms = (block: readonly number[]) => {
+    const x = moving.map((k, j) => (block[k]! - centre[j]!) / width[j]!);
+    const t = [1, ...x];
+    for (let i = 0; i < x.length; i++) for (let j = i; j < x.length; j++) t.push(x[i]! * x[j]!);
+    return t;
+  };
+  const rows = evaluated.map((e) => ({ t: terms(e.block), v: e.sample[m]! }));
+  const p = rows[0]!.t.length;
+  if (rows.length < p + 2 || n === 0) return null;
+  const ata = Array.from({ length: p }, (_, i) =>
+    Array.from({ length: p }, (_, j) => rows.reduce((s, r) => s + r.t[i]! * r.t[j]!, 0)),
+  );
+  const atb = Array.from({ length: p }, (_, i) => rows.reduce((s, r) => s + r.t[i]! * r.v, 0));
+  const coef = solve(ata, atb);
+  if (!coef) return null;
+  const at = (block: readonly number[]) => terms(block).reduce((s, x, i) => s + x * coef[i]!, 0);
+  if (rows.some((r, k) => Math.abs(at(evaluated[k]!.block) - r.v) > slack(m, r.v, r.v) / 2)) return null;
+  return at;
+}
