@@ -84,7 +84,6 @@ function measures(cell: ConditionForecast) {
     rest_mV: round(m.rest_mV, 4),
     rheobase_uA_cm2: round(m.rheobase_uA_cm2, 4),
     threshold_mV: round(m.threshold_mV, 3),
-    referenceRate_Hz: round(m.referenceRate_Hz, 3),
     rates_Hz: Object.fromEntries(cell.detail.fI.map((r) => [String(r.drive_uA_cm2), round(r.rate_Hz, 3)])),
     flags: m.flags,
   };
@@ -99,8 +98,10 @@ function bandedMeasures(result: ForecastResult, i: number) {
     high: round(x.high, digits),
     missing: x.missing,
   });
+  const cell = result.conditions[i]!;
   return {
-    ...measures(result.conditions[i]!),
+    ...measures(cell),
+    referenceRate_Hz: round(cell.measures.referenceRate_Hz, 3),
     bands: b
       ? {
           rheobase_uA_cm2: band(b.rheobase_uA_cm2, 4),

@@ -226,7 +226,8 @@ describe('forecast CLI with bands', () => {
   test('state-dependent potencies: each side has its bands and firing transition', () => {
     const { code, stdout, stderr } = run(
       JSON.stringify({
-        preset: 'hh-squid-1952',
+        // Pospischil's cell fires repetitively at twice its rheobase (HH 1952 does not), so it has a transition.
+        preset: 'pospischil-rs-2008',
         potencies: { gNa: { ic50: 10, hill: 1, inactivatedIc50: 0.5 } },
         concentrations: [1],
         uncertainty: {
@@ -254,6 +255,7 @@ describe('forecast CLI with bands', () => {
     }
     // The shift makes the cell harder to excite than tonic block alone (as in the test above).
     expect(stateDependent.bands.rheobase_uA_cm2.median).toBeGreaterThan(tonic.bands.rheobase_uA_cm2.median);
+    expect(stateDependent.bands.referenceRate_Hz.median).toBe(stateDependent.referenceRate_Hz);
     expect(Object.keys(out.firingTransition)).toEqual(['tonic', 'stateDependent']);
     expect(out.firingTransition.stateDependent.status).toBe('found');
     // Silencing needs less drug with the shift than with tonic block alone.
