@@ -33,9 +33,11 @@ export const BAND_MEASURES: readonly BandMeasure[] = ['rheobase_uA_cm2', 'thresh
  *   only when every run of the cell is monotone in that order (see bandCell);
  * - 'fitted': not monotone there, but a quadratic in the blocks through every run of the cell fits each
  *   within half the slack below; the draws' values read from it;
+ * - 'ordered': the rate at a firing transition, from rate-only runs that settle which draws are silent and
+ *   the fastest few (rateByDominance; exact where the rate is monotone in each block);
  * - 'per-draw': the model run for every draw (blocks rounded to 0.1 %, identical ones run once).
  */
-export type BandWay = 'fixed' | 'ranked' | 'fitted' | 'per-draw';
+export type BandWay = 'fixed' | 'ranked' | 'fitted' | 'ordered' | 'per-draw';
 
 /** The band work of one concentration: the drawn blocks and the point forecast's own measurement there. */
 export interface BandTask {
@@ -112,14 +114,17 @@ function slack(m: BandMeasure, a: number, b: number): number {
 /**
  * One draw's measures with the functions of measureExcitability (rest, rheobase search, threshold at
  * thresholdStepFactor × rheobase, rate at the reference drive), so a run here equals that measurement;
- * `rateOnly` skips the rheobase and threshold.
+ * `rateOnly` true skips the rheobase and threshold, 'no-rate' the rate. A warm start begins the rheobase
+ * search at a neighbouring draw's rheobase with a narrow first bracket, at dt only: the same tolerance
+ * (0.1 % by default), so it agrees with a search from scratch within it.
  */
 export function measureSample(
   preset: NeuronPreset,
   scale: Record<string, number>,
   request: ExcitabilityRequest,
-  rateOnly = false,
+  rateOnly: boolean | 'no-rate' = false,
   inactivationShift: Readonly<Record<string, number>> = {},
+  warmStart?: { guess_uA_cm2: number; firstGrowth: number },
 ): BandSample {
   const p = { ...DEFAULT_EXCITABILITY_PROTOCOL, ...request.protocol };
   const model = compileModel(preset, scale, inactivationShift);
@@ -127,16 +132,19 @@ export function measureSample(
   const rest = findRest(model, integrator);
   const drive = request.referenceDrive_uA_cm2;
   const rate_Hz =
-    drive === undefined
+    drive === undefined || rateOnly === 'no-rate'
       ? null
       : firingRate(model, rest.start, drive, { ...integrator, step_ms: p.rateStep_ms }).rate_Hz;
-  if (rateOnly || rest.rest_mV === null) return { rheobase_uA_cm2: null, threshold_mV: null, rate_Hz };
+  if (rateOnly === true || rest.rest_mV === null)
+    return { rheobase_uA_cm2: null, threshold_mV: null, rate_Hz };
   const rheo = findRheobase(model, rest.start, {
     ...integrator,
     step_ms: p.rheobaseStep_ms,
     relTolerance: p.rheobaseRelTolerance,
     ceiling_uA_cm2: p.rheobaseCeiling_uA_cm2,
-    guess_uA_cm2: request.rheobaseGuess_uA_cm2,
+    guess_uA_cm2: warmStart?.guess_uA_cm2 ?? request.rheobaseGuess_uA_cm2,
+    firstGrowth: warmStart?.firstGrowth,
+    coarseDtFactor: warmStart ? 1 : undefined,
     thresholdSlope_mV_ms: p.thresholdSlope_mV_ms,
   });
   const threshold_mV =
@@ -208,6 +216,9 @@ function monotone(m: BandMeasure, points: { key: number; value: number }[]): boo
 }
 
 const QUANTILES = [0.025, 0.5, 0.975] as const;
+
+/** First relative bracket step of a warm-started rheobase search (1 %; our choice, no source). */
+const WARM_START_GROWTH = 0.01;
 
 /**
  * Bands of rheobase, threshold and rate at one concentration from few model runs.
@@ -374,24 +385,66 @@ export function bandCell(task: BandTask): BandCellResult {
     } else perDraw.push(m);
   }
 
+  if (perDraw.includes('rate_Hz')) {
+    const dirs = rateDirections(task, moving, evaluated, weights.rheobase_uA_cm2 ?? null, isSeveral(moving));
+    const ordered = dirs ? rateByDominance(task, dirs, evaluated) : null;
+    if (ordered) {
+      runs += ordered.runs;
+      result.rate_Hz = ordered.band;
+      ways.rate_Hz = 'ordered';
+      perDraw.splice(perDraw.indexOf('rate_Hz'), 1);
+    }
+  }
+
   if (perDraw.length > 0) {
     const onlyRate = perDraw.every((m) => m === 'rate_Hz');
-    const samples = Array.from({ length: n }, (_, i) => {
+    const parts: boolean | 'no-rate' = onlyRate ? true : perDraw.includes('rate_Hz') ? false : 'no-rate';
+    const partial = new Map<string, BandSample>();
+    // Draws in the order of the block vector's sum so that each rheobase search starts from a near
+    // neighbour's rheobase (the nearest draw already run) with a narrow first bracket: the same bisection
+    // tolerance, fewer steps (tests/unit/forecast-band-shortcut.test.ts checks it against runs from scratch).
+    const known: { block: number[]; rheobase: number }[] = evaluated.flatMap((e) =>
+      e.sample.rheobase_uA_cm2 === null ? [] : [{ block: e.block, rheobase: e.sample.rheobase_uA_cm2 }],
+    );
+    const nearest = (block: readonly number[]) => {
+      let best: number | undefined;
+      let bestD = Infinity;
+      for (const k of known) {
+        const dist = k.block.reduce((s, x, j) => s + (x - block[j]!) ** 2, 0);
+        if (dist < bestD) {
+          bestD = dist;
+          best = k.rheobase;
+        }
+      }
+      return best;
+    };
+    const order = Array.from({ length: n }, (_, i) => i).sort(
+      (a, b) =>
+        drawVector(task, a).reduce((s, x) => s + x, 0) - drawVector(task, b).reduce((s, x) => s + x, 0),
+    );
+    const samples = new Array<BandSample>(n);
+    for (const i of order) {
       const block = drawVector(task, i).map((x) => Math.round(x * 1000) / 1000);
       const key = block.join(',');
-      const cached = full.get(key) ?? (onlyRate ? rateOnly.get(key) : undefined);
-      if (cached) return cached;
+      const cached = full.get(key) ?? (onlyRate ? rateOnly.get(key) : partial.get(key));
+      if (cached) {
+        samples[i] = cached;
+        continue;
+      }
       runs++;
+      const guess = onlyRate ? undefined : nearest(block);
       const s = measureSample(
         task.preset,
         scaleOf(task, block),
         task.request,
-        onlyRate,
+        parts,
         task.inactivationShift,
+        guess === undefined ? undefined : { guess_uA_cm2: guess, firstGrowth: WARM_START_GROWTH },
       );
-      (onlyRate ? rateOnly : full).set(key, s);
-      return s;
-    });
+      (parts === true ? rateOnly : parts === false ? full : partial).set(key, s);
+      if (s.rheobase_uA_cm2 !== null) known.push({ block, rheobase: s.rheobase_uA_cm2 });
+      samples[i] = s;
+    }
     for (const m of perDraw) {
       result[m] = bandOf(
         samples.map((s) => s[m]),
@@ -401,6 +454,137 @@ export function bandCell(task: BandTask): BandCellResult {
     }
   }
   return { ...result, ways, runs };
+}
+
+/** More than one conductance's block varies over the draws. */
+function isSeveral(moving: readonly number[]): boolean {
+  return moving.length > 1;
+}
+
+/**
+ * The direction (+1 or −1) in which the rate moves with each moving conductance's block, from the
+ * rheobase (a more excitable cell has a lower rheobase and a higher rate): the rheobase's surrogate slopes
+ * with several conductances, its values at the order's ends with one. Null where a direction is unknown.
+ */
+function rateDirections(
+  task: BandTask,
+  moving: number[],
+  evaluated: { block: number[]; sample: BandSample }[],
+  rheobaseSlopes: number[] | null,
+  severalMoving: boolean,
+): number[] | null {
+  const dirs = new Array<number>(task.names.length).fill(0);
+  if (severalMoving) {
+    if (!rheobaseSlopes) return null;
+    for (const k of moving) {
+      const w = rheobaseSlopes[k]!;
+      if (!(w !== 0 && Number.isFinite(w))) return null;
+      dirs[k] = -Math.sign(w);
+    }
+    return dirs;
+  }
+  const k = moving[0]!;
+  const withRheobase = evaluated.filter((e) => e.sample.rheobase_uA_cm2 !== null);
+  if (withRheobase.length < 2) return null;
+  const lo = withRheobase.reduce((a, b) => (b.block[k]! < a.block[k]! ? b : a));
+  const hi = withRheobase.reduce((a, b) => (b.block[k]! > a.block[k]! ? b : a));
+  const d = hi.sample.rheobase_uA_cm2! - lo.sample.rheobase_uA_cm2!;
+  if (d === 0 || hi.block[k] === lo.block[k]) return null;
+  dirs[k] = -Math.sign(d);
+  return dirs;
+}
+
+/**
+ * The rate's band at a firing transition from few rate-only runs, exact where the rate is monotone in each
+ * conductance's block (in the directions `dirs`): a draw at least as excitable as another in every
+ * conductance (dirs_k · (a_k − b_k) ≥ 0 for all k) fires at least as fast. Which draws are silent follows
+ * from runs chosen by bisection along the excitability order (a silent run silences every draw less
+ * excitable than it, a firing one fires every draw more excitable), and the quantiles above the silent
+ * draws from the firing draws that fewer than k others outrank (the k-th fastest is among them: in a
+ * linear extension of the order by rate, each of the first k + 1 has at most k draws above it in the
+ * order). The runs made must agree with the order within 0.5 Hz, else null (the caller runs every draw).
+ */
+function rateByDominance(
+  task: BandTask,
+  dirs: number[],
+  evaluated: { block: number[]; sample: BandSample }[],
+): { band: Band; runs: number } | null {
+  const n = task.blocks[0]?.length ?? 0;
+  const vec = Array.from({ length: n }, (_, i) => drawVector(task, i));
+  const atLeast = (a: readonly number[], b: readonly number[]) =>
+    dirs.every((dk, k) => dk === 0 || dk * (a[k]! - b[k]!) >= 0);
+  // above[i]: draws that outrank i (identical vectors: the lower index outranks, a strict order).
+  const outranks = (a: number, b: number) =>
+    a !== b && atLeast(vec[a]!, vec[b]!) && (!atLeast(vec[b]!, vec[a]!) || a < b);
+  const above: number[][] = Array.from({ length: n }, () => []);
+  const below: number[][] = Array.from({ length: n }, () => []);
+  for (let a = 0; a < n; a++)
+    for (let b = 0; b < n; b++)
+      if (outranks(a, b)) {
+        above[b]!.push(a);
+        below[a]!.push(b);
+      }
+  let runs = 0;
+  const rate = new Map<number, number>();
+  const known: { block: readonly number[]; rate: number }[] = evaluated.flatMap((e) =>
+    e.sample.rate_Hz === null ? [] : [{ block: e.block, rate: e.sample.rate_Hz }],
+  );
+  const runDraw = (i: number): number => {
+    let r = rate.get(i);
+    if (r === undefined) {
+      runs++;
+      r = measureSample(
+        task.preset,
+        scaleOf(task, vec[i]!),
+        task.request,
+        true,
+        task.inactivationShift,
+      ).rate_Hz!;
+      rate.set(i, r);
+      known.push({ block: vec[i]!, rate: r });
+    }
+    return r;
+  };
+  // Silent or firing for every draw.
+  const state = new Array<'silent' | 'firing' | undefined>(n).fill(undefined);
+  const settle = (i: number, r: number) => {
+    if (r === 0) for (const j of [i, ...below[i]!]) state[j] = 'silent';
+    else for (const j of [i, ...above[i]!]) state[j] = 'firing';
+  };
+  for (const e of known)
+    for (let i = 0; i < n; i++) {
+      if (e.rate === 0 && atLeast(e.block, vec[i]!)) state[i] = 'silent';
+      if (e.rate > 0 && atLeast(vec[i]!, e.block)) state[i] = 'firing';
+    }
+  const excitability = (i: number) => vec[i]!.reduce((s, x, k) => s + dirs[k]! * x, 0);
+  for (;;) {
+    const open = state.flatMap((s, i) => (s === undefined ? [i] : []));
+    if (open.length === 0) break;
+    open.sort((a, b) => excitability(a) - excitability(b));
+    const i = open[Math.floor(open.length / 2)]!;
+    settle(i, runDraw(i));
+  }
+  const firing = state.flatMap((s, i) => (s === 'firing' ? [i] : []));
+  const silentCount = n - firing.length;
+  const firingSet = new Set(firing);
+  const orderStat = (j: number): number => {
+    if (j < silentCount) return 0;
+    const k = n - 1 - j; // k-th fastest, from 0
+    const candidates = firing.filter((i) => above[i]!.filter((a) => firingSet.has(a)).length <= k);
+    const values = candidates.map(runDraw).sort((a, b) => b - a);
+    return values[k]!;
+  };
+  const quantile = (p: number) => {
+    const h = (n - 1) * p;
+    const lo = orderStat(Math.floor(h));
+    const hi = orderStat(Math.ceil(h));
+    return lo + (h - Math.floor(h)) * (hi - lo);
+  };
+  const band: Band = { low: quantile(0.025), median: quantile(0.5), high: quantile(0.975), missing: 0 };
+  // Every pair of runs must agree with the order.
+  for (const a of known)
+    for (const b of known) if (atLeast(a.block, b.block) && a.rate < b.rate - 0.5) return null;
+  return { band, runs };
 }
 
 /** Solves a small symmetric system by Gaussian elimination with partial pivoting; null when singular. */
