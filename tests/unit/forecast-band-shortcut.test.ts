@@ -146,3 +146,33 @@ describe('band shortcut against a model run per draw', () => {
     120_000,
   );
 });
+
+// The rate at a firing transition ('ordered', band-cell.ts rateByDominance) runs the same model at the
+// draws' own blocks, so where the rate is monotone in each block it must give the per-draw band exactly;
+// the reference is Gatewell's own model run at every draw, which is right here since the test is about the
+// shortcut being exact, not about the model.
+describe('the rate at a firing transition from ordered runs', () => {
+  test.each([
+    { seed: 3, c: 8 },
+    { seed: 5, c: 7 },
+    { seed: 9, c: 9 },
+  ])(
+    'two conductances, seed $seed at $c: the per-draw band exactly',
+    ({ seed, c }) => {
+      const task = cellOf(
+        'pospischil-rs-2008',
+        { gNa: { ic50: 1, hill: 1 }, gM: { ic50: 3, hill: 1.2 } },
+        c,
+        seed,
+      );
+      const fast = bandCell(task);
+      const slow = bandOfSamples(perDrawSamples(task), 'rate_Hz');
+      expect(fast.ways.rate_Hz).toBe('ordered');
+      // Some draws fire and some do not, so this is a transition.
+      expect(slow.low).toBe(0);
+      expect(slow.high).toBeGreaterThan(0);
+      for (const q of ['low', 'median', 'high'] as const) expect(fast.rate_Hz[q]).toBeCloseTo(slow[q]!, 9);
+    },
+    120_000,
+  );
+});
