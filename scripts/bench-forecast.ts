@@ -8,7 +8,8 @@
 // pool: one compound with bands (200 draws × 5 concentrations), and every compound of a 384-well plate
 // (32 compounds × 10 wells, 5 concentrations each, invented potencies) with bands, each once; targets
 // < 1 s and < 5 s, with the threads used, the model runs the bands took, the process's CPU time and the
-// load average printed (the machine may be shared). `--bands` prints only the band figures.
+// load average printed (the machine may be shared). `--bands` prints only the band figures;
+// `--preset ID[,ID]` only those presets.
 import { computeForecast } from '../lib/science/forecast/forecast';
 import { loadavg } from 'node:os';
 import {
@@ -50,7 +51,7 @@ async function time(repeats: number, work: () => unknown): Promise<string> {
 
 async function main(repeats: number): Promise<void> {
   console.log(`forecast benchmark, median (min–max) of ${repeats} runs`);
-  for (const name of bandsOnly ? [] : PRESET_NAMES) {
+  for (const name of bandsOnly ? [] : presets) {
     const model = compileModel(getPreset(name));
     const rest = findRest(model).start;
     const rheobase = findRheobase(model, rest);
@@ -120,7 +121,7 @@ async function bandFigures(): Promise<void> {
       .join(' ');
   console.log(`
 bands on the pool: ${forecastPoolThreads()} worker thread(s); load average ${load()}`);
-  for (const name of PRESET_NAMES) {
+  for (const name of presets) {
     clearForecastCache();
     await runForecast(bandRequest(name, 1, 0)); // warm-up: threads started, code compiled
     clearForecastCache();
@@ -147,10 +148,19 @@ bands on the pool: ${forecastPoolThreads()} worker thread(s); load average ${loa
   console.log(`  load average after: ${load()}`);
 }
 
-const bandsOnly = process.argv.includes('--bands');
-const repeats = Number(process.argv.slice(2).find((a) => a !== '--bands') ?? 9);
-if (!Number.isInteger(repeats) || repeats < 1) {
-  process.stderr.write('usage: npx tsx scripts/bench-forecast.ts [repeats ≥ 1]\n');
+const args = process.argv.slice(2);
+const bandsOnly = args.includes('--bands');
+const presetArg = args.indexOf('--preset');
+const presets: string[] = presetArg >= 0 ? (args[presetArg + 1] ?? '').split(',') : [...PRESET_NAMES];
+const repeats = Number(
+  args.find((a, i) => a !== '--bands' && a !== '--preset' && (presetArg < 0 || i !== presetArg + 1)) ?? 9,
+);
+if (
+  !Number.isInteger(repeats) ||
+  repeats < 1 ||
+  presets.some((p) => !(PRESET_NAMES as readonly string[]).includes(p))
+) {
+  process.stderr.write('usage: scripts/bench-forecast.ts [repeats ≥ 1] [--bands] [--preset ID[,ID]]\n');
   process.exitCode = 2;
 } else {
   main(repeats).catch((error: unknown) => {
