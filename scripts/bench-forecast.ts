@@ -24,12 +24,21 @@ import { findRest } from '../lib/science/neuron/rest';
 import { findRheobase } from '../lib/science/neuron/rheobase';
 import { voltageTrace } from '../lib/science/neuron/voltage-trace';
 
-/** An invented compound blocking sodium (IC50 1 µM, Hill 1) and, weaker, the M-type or delayed-rectifier K. */
+/**
+ * The sodium and the second conductance an invented compound blocks: Nav1.7 beside Nav1.8 in the DRG
+ * cell, else sodium beside the M-type (Pospischil) or delayed-rectifier K.
+ */
+function targetsOf(preset: string): [string, string] {
+  if (preset === 'xie-drg-2024') return ['gNav17', 'gNav18'];
+  return ['gNa', preset === 'pospischil-rs-2008' ? 'gM' : 'gK'];
+}
+
+/** An invented compound blocking sodium (IC50 1 µM, Hill 1) and, weaker, a second conductance. */
 function request(preset: string) {
-  const k = preset === 'pospischil-rs-2008' ? 'gM' : 'gK';
+  const [na, k] = targetsOf(preset);
   return {
     preset,
-    potencies: { gNa: { ic50: 1, hill: 1 }, [k]: { ic50: 10, hill: 1.2 } },
+    potencies: { [na]: { ic50: 1, hill: 1 }, [k]: { ic50: 10, hill: 1.2 } },
     concentrations: [0.1, 0.3, 1, 3],
     concentrationUnit: 'µM',
     trace: false as const,
@@ -81,17 +90,17 @@ const COVARIANCE = [
 ];
 
 function bandRequest(preset: string, ic50: number, seed: number) {
-  const k = preset === 'pospischil-rs-2008' ? 'gM' : 'gK';
+  const [na, k] = targetsOf(preset);
   return {
     preset,
-    potencies: { gNa: { ic50, hill: 1 }, [k]: { ic50: 10 * ic50, hill: 1.2 } },
+    potencies: { [na]: { ic50, hill: 1 }, [k]: { ic50: 10 * ic50, hill: 1.2 } },
     concentrations: [0.1, 0.3, 1, 3, 10].map((c) => c * ic50),
     concentrationUnit: 'µM',
     trace: false as const,
     uncertainty: {
       seed,
       draws: 200,
-      potencies: { gNa: { covariance: COVARIANCE, degreesOfFreedom: 22 }, [k]: { covariance: COVARIANCE } },
+      potencies: { [na]: { covariance: COVARIANCE, degreesOfFreedom: 22 }, [k]: { covariance: COVARIANCE } },
     },
   };
 }
