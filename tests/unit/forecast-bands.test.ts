@@ -194,7 +194,7 @@ describe('bands', () => {
 
   test('the truth’s forecast lies inside the 95 % band in at least 90 % of 200 simulated plates', () => {
     // One concentration (the true IC50) and the short protocol; with the bands' few runs per concentration
-    // (band-cell.ts) the 200 replicates took 4.5 s at load average 15 on this 2-core machine. 200 plates
+    // (band-cell.ts) the 200 replicates took 4.5–15.5 s (load average 6–17) on this 2-core machine. 200 plates
     // rather than 100: with 100 the binomial error (± 2.3 %) is as large as the margin between the nominal
     // 95 % and the 90 % asked for (on the first 100 seeds the fit's own Wald interval of log IC50 covered
     // the truth 91 times).
