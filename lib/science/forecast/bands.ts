@@ -11,21 +11,10 @@ import type { ForecastPlan } from './plan';
 import { poreBlockFraction } from './pore-block';
 import { seededRandom } from './prng';
 import { nearFiringTransition, type FiringTransition, type TransitionTask } from './firing-transition';
-import { drawPotency, type DrawSource, type PotencyUncertaintyInput } from './uncertainty';
+import { drawPotency, type DrawSource } from './uncertainty';
 
 export { bandOf, quantileSorted, type Band, type BandSample, type BandTask } from './band-cell';
-
-/** Bands asked for in a forecast request (validated by request-schema.ts). */
-export interface BandRequest {
-  draws: number;
-  seed: number;
-  /** Per conductance of `potencies`: the fit's covariance and/or wells; absent means none known. */
-  potencies: Record<string, PotencyUncertaintyInput>;
-  /** Concentrations to band (same unit as the request's); null: every one. */
-  concentrations: number[] | null;
-}
-
-export const DEFAULT_BAND_DRAWS = 200;
+export { DEFAULT_BAND_DRAWS, type BandRequest } from './band-request';
 
 export interface ConditionBand {
   concentration: number | null;

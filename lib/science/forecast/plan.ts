@@ -8,8 +8,7 @@ import {
 import { getPreset } from '../neuron/presets';
 import { inactivationSlope_mV, modulatedReceptorShift_mV } from '../neuron/state-dependent-block';
 import type { NeuronPreset } from '../neuron/types';
-import type { BandRequest } from './bands';
-import { DEFAULT_BAND_DRAWS } from './bands';
+import { DEFAULT_BAND_DRAWS, type BandRequest } from './band-request';
 import { poreBlockFraction } from './pore-block';
 import type { ParsedForecastRequest } from './request-schema';
 import type { MeasureTask, TraceTask } from './tasks';
