@@ -1,4 +1,4 @@
-import type { CompoundForecast } from '@/lib/validation/forecasts';
+import type { CompoundForecast, TransitionView } from '@/lib/validation/forecasts';
 import { FiPlot } from './fi-plot';
 import { MeasuresTable } from './measures-table';
 import { PotencyTable } from './potency-table';
@@ -78,6 +78,17 @@ export function ForecastDetail({
               {f.inputSha256.slice(0, 12)}…
             </span>
           </p>
+          {f.bands ? (
+            <p className="text-xs text-ink-500" data-testid="forecast-band-note">
+              Bands: 95 % over {f.bands.draws} draws (seed {f.bands.seed}). {f.bands.method}{' '}
+              {f.bands.sources.map((s) => `${s.conductance}: ${s.note}`).join(' ')}
+            </p>
+          ) : (
+            <p className="text-xs text-ink-500">
+              No uncertainty bands: this forecast was stored before Gatewell computed them.
+            </p>
+          )}
+          {f.bands ? <TransitionNote transition={f.bands.transition} /> : null}
           <MeasuresTable
             control={f.control}
             conditions={f.conditions}
@@ -110,5 +121,27 @@ export function ForecastDetail({
         </>
       )}
     </div>
+  );
+}
+
+const sig3 = (v: number) => Number(v.toPrecision(3)).toString();
+
+/** Where the compound stops the cell firing repetitively at the reference drive, with its band. */
+function TransitionNote({ transition: t }: { transition: TransitionView | null }) {
+  return (
+    <p className="text-sm text-ink-700" data-testid="forecast-transition">
+      <span className="font-medium">Firing transition: </span>
+      {!t
+        ? 'not found for this stored forecast.'
+        : t.status !== 'found' || t.concentration_uM === null
+          ? `none. ${t.note}`
+          : `stops firing repetitively at the reference drive from ${sig3(t.concentration_uM)} µM${
+              t.band ? ` (95 %: ${sig3(t.band.low)}–${sig3(t.band.high)} µM)` : ''
+            }, block ${Object.entries(t.block ?? {})
+              .map(([g, b]) => `${g} ${(b * 100).toFixed(1)} %`)
+              .join(
+                ', ',
+              )}. Exposures marked “near a firing transition” may flip between firing and silence within their uncertainty.`}
+    </p>
   );
 }

@@ -1,13 +1,28 @@
-import type { ConditionView, ForecastView } from '@/lib/validation/forecasts';
+import type { BandView, ConditionView, ForecastView } from '@/lib/validation/forecasts';
 import { blockText, deltaText, flagText, relativeText, sig } from './forecast-format';
 import { umText } from './series-colors';
 
-function Cell({ value, change, warn }: { value: string; change: string; warn?: boolean }) {
+function Cell({
+  value,
+  change,
+  warn,
+  band,
+}: {
+  value: string;
+  change: string;
+  warn?: boolean;
+  band?: BandView | null;
+}) {
   return (
     <td className="px-3 py-2 text-right tabular-nums">
       <span className="block">{value}</span>
       {change ? (
         <span className={`block text-xs ${warn ? 'text-signal-warn' : 'text-ink-500'}`}>{change}</span>
+      ) : null}
+      {band && band.low !== null ? (
+        <span className="block text-xs whitespace-nowrap text-ink-500" title="2.5–97.5 % over the draws">
+          95 %: {sig(band.low)} to {band.high === null ? 'no firing' : sig(band.high)}
+        </span>
       ) : null}
     </td>
   );
@@ -27,17 +42,32 @@ function Row({ c, name }: { c: ConditionView; name: string }) {
         value={c.measures.rheobase_uA_cm2 === null ? 'no firing' : sig(c.measures.rheobase_uA_cm2)}
         change={relativeText(s.rheobase_uA_cm2.relative)}
         warn={big(s.rheobase_uA_cm2.relative)}
+        band={c.band?.rheobase_uA_cm2}
       />
-      <Cell value={sig(c.measures.threshold_mV)} change={deltaText(s.threshold_mV.delta, 'mV')} />
+      <Cell
+        value={sig(c.measures.threshold_mV)}
+        change={deltaText(s.threshold_mV.delta, 'mV')}
+        band={c.band?.threshold_mV}
+      />
       <Cell
         value={sig(c.measures.referenceRate_Hz)}
         change={relativeText(s.referenceRate_Hz.relative)}
         warn={big(s.referenceRate_Hz.relative)}
+        band={c.band?.referenceRate_Hz}
       />
       <td
         className={`px-3 py-2 ${c.measures.flags.length ? 'font-medium text-signal-fail' : 'text-ink-500'}`}
       >
         {flagText(c.measures.flags)}
+        {c.band?.nearTransition ? (
+          <span
+            className="mt-1 block text-xs font-medium whitespace-nowrap text-signal-warn"
+            data-testid="near-transition"
+            title="The firing transition's band covers this concentration, or the rate changes by more than half within its band"
+          >
+            Near a firing transition
+          </span>
+        ) : null}
       </td>
     </tr>
   );

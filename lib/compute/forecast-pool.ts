@@ -6,7 +6,10 @@ import { Piscina } from 'piscina';
 import { assembleForecast, type ForecastResult } from '@/lib/science/forecast/assemble';
 import { conditionTasks, controlTask, planForecast, traceTasks } from '@/lib/science/forecast/plan';
 import { parseForecastRequest } from '@/lib/science/forecast/request-schema';
-import type { ForecastTask, MeasureTask, TraceTask } from '@/lib/science/forecast/tasks';
+import type { BandCellResult, BandTask } from '@/lib/science/forecast/band-cell';
+import { planBands } from '@/lib/science/forecast/bands';
+import type { FiringTransition } from '@/lib/science/forecast/firing-transition';
+import type { MeasureTask, TraceTask } from '@/lib/science/forecast/tasks';
 import type { VoltageTrace } from '@/lib/science/neuron/downsample';
 import type { Excitability } from '@/lib/science/neuron/excitability';
 import { LruCache } from './lru-cache';
@@ -39,9 +42,14 @@ const state: PoolState = ((globalThis as Record<symbol, unknown>)[STATE_KEY] as 
 };
 (globalThis as Record<symbol, unknown>)[STATE_KEY] = state;
 
+/** Worker threads of the pool: one per core, at most 4. */
+export function forecastPoolThreads(): number {
+  return Math.max(1, Math.min(4, availableParallelism()));
+}
+
 function pool(): Piscina {
   // One thread per core (at most 4), all kept warm: a forecast is a burst of parallel tasks.
-  const threads = Math.max(1, Math.min(4, availableParallelism()));
+  const threads = forecastPoolThreads();
   state.pool ??= new Piscina({
     filename: FORECAST_WORKER_FILE,
     // The worker is TypeScript; tsx compiles it on load inside each thread.
@@ -57,7 +65,7 @@ function pool(): Piscina {
  * Cache key: preset (name and content), scaled conductances, inactivation shifts (state-dependent
  * block) and the whole protocol of the task.
  */
-function cacheKey(task: ForecastTask): string {
+function cacheKey(task: MeasureTask | TraceTask): string {
   const scaled = task.preset.conductances.map((c) => [
     c.name,
     c.g_mS_cm2 * (task.scale[c.name] ?? 1),
@@ -92,24 +100,50 @@ async function run<T extends Excitability | VoltageTrace>(task: MeasureTask | Tr
 }
 
 /**
+ * A band task on the threads. Not cached: its draws are continuous, so results would rarely repeat and
+ * would push the conditions out of the cache.
+ */
+async function runBand(task: BandTask): Promise<BandCellResult> {
+  state.tasksRun++;
+  return (await pool().run(task)) as BandCellResult;
+}
+
+/**
  * Excitability forecast on worker threads: the control first (its rheobase sets the reference
- * drive and the search start), then every condition and both traces in parallel. Same result as
- * computeForecast. Throws ForecastRequestError on an invalid request.
+ * drive and the search start), then every condition, both traces and, when asked for, the bands' draws
+ * (in chunks spread over the threads), all in parallel. Same result as computeForecast. Throws ForecastRequestError on an invalid request.
  */
 export async function runForecast(input: unknown): Promise<ForecastResult> {
   const plan = planForecast(parseForecastRequest(input));
   const control = await run<Excitability>(controlTask(plan));
   const t = traceTasks(plan, control);
-  const [conditions, controlTrace, conditionTrace] = await Promise.all([
-    Promise.all(conditionTasks(plan, control).map((task) => run<Excitability>(task))),
+  const bandWork = planBands(plan, control);
+  const conditionRuns = conditionTasks(plan, control).map((task) => run<Excitability>(task));
+  // Each banded concentration's task starts once its point measurement is in (it reuses it).
+  const bandRuns = bandWork
+    ? bandWork.conditions.map(
+        async (i) => [i, await runBand(bandWork.task(i, await conditionRuns[i]!))] as const,
+      )
+    : [];
+  const transitionRun = bandWork
+    ? Promise.all(conditionRuns).then(async (measured) => {
+        state.tasksRun++;
+        return (await pool().run(bandWork.transitionTask(control, measured))) as FiringTransition;
+      })
+    : Promise.resolve(null);
+  const [conditions, controlTrace, conditionTrace, bandResults, transition] = await Promise.all([
+    Promise.all(conditionRuns),
     t ? run<VoltageTrace>(t.control) : Promise.resolve(null),
     t?.condition ? run<VoltageTrace>(t.condition) : Promise.resolve(null),
+    bandWork ? Promise.all(bandRuns) : Promise.resolve(null),
+    transitionRun,
   ]);
   const traces =
     t && controlTrace
       ? { drive_uA_cm2: t.drive_uA_cm2, control: controlTrace, condition: conditionTrace }
       : null;
-  return assembleForecast(plan, control, conditions, traces);
+  const bands = bandWork && bandResults ? bandWork.assemble(new Map(bandResults), transition) : null;
+  return assembleForecast(plan, control, conditions, traces, bands);
 }
 
 /** Stop the worker threads (scripts and tests call this so the process can exit). */

@@ -1,5 +1,5 @@
 import 'server-only';
-import type { CompoundForecast, ConditionView } from '@/lib/validation/forecasts';
+import type { CompoundForecast, ConditionView, TransitionView } from '@/lib/validation/forecasts';
 import type { Cell, ExportTable } from './document';
 
 const round = (v: number | null, digits = 4): number | null =>
@@ -29,10 +29,52 @@ export const FORECAST_COLUMNS = [
   'Reference drive (µA/cm²)',
   'Rate at reference drive (Hz)',
   'Rate change (%)',
+  'Rheobase median (µA/cm²)',
+  'Rheobase 2.5 % (µA/cm²)',
+  'Rheobase 97.5 % (µA/cm²)',
+  'Threshold median (mV)',
+  'Threshold 2.5 % (mV)',
+  'Threshold 97.5 % (mV)',
+  'Rate median (Hz)',
+  'Rate 2.5 % (Hz)',
+  'Rate 97.5 % (Hz)',
+  'Band draws',
+  'Band notes',
   'Flags',
   'Potencies used',
   'Forecast input SHA-256',
 ];
+
+/** Median, 2.5 % and 97.5 % of rheobase, threshold and rate (empty without a band; a rheobase quantile beyond the search ceiling is written as such). */
+function bandCells(c: ConditionView): Cell[] {
+  const b = c.band;
+  if (!b) return new Array<Cell>(9).fill(null);
+  const rheo = (v: number | null) => (v === null ? 'no spike up to the ceiling' : round(v));
+  return [
+    rheo(b.rheobase_uA_cm2.median),
+    rheo(b.rheobase_uA_cm2.low),
+    rheo(b.rheobase_uA_cm2.high),
+    round(b.threshold_mV.median),
+    round(b.threshold_mV.low),
+    round(b.threshold_mV.high),
+    round(b.referenceRate_Hz.median),
+    round(b.referenceRate_Hz.low),
+    round(b.referenceRate_Hz.high),
+  ];
+}
+
+/** The firing transition in words, for exports (firing-transition.ts). */
+export function transitionText(t: TransitionView | null): string {
+  if (!t) return 'Firing transition: not found for this stored forecast.';
+  if (t.status !== 'found' || t.concentration_uM === null) return `Firing transition: none. ${t.note}`;
+  const block = Object.entries(t.block ?? {})
+    .map(([g, b]) => `${g} ${(b * 100).toFixed(1)} %`)
+    .join(', ');
+  const band = t.band ? ` (95 %: ${sigText(t.band.low)}–${sigText(t.band.high)} µM)` : '';
+  return `Firing transition: stops firing repetitively at the reference drive from ${sigText(t.concentration_uM)} µM${band}, block ${block}.`;
+}
+
+const sigText = (v: number) => Number(v.toPrecision(3)).toString();
 
 /** Control and each exposure of one compound's forecast; a compound without a forecast gets one row saying why. */
 export function forecastRows(f: CompoundForecast): Cell[][] {
@@ -55,11 +97,15 @@ export function forecastRows(f: CompoundForecast): Cell[][] {
         null,
         null,
         null,
+        ...new Array<Cell>(11).fill(null),
         f.reason,
         potencies,
         null,
       ],
     ];
+  const bandNotes = view.bands
+    ? `${view.bands.method} ${view.bands.sources.map((s) => `${s.conductance}: ${s.note}`).join(' ')} ${transitionText(view.bands.transition)}`
+    : 'No bands: stored before bands were computed.';
   const row = (name: string, c: ConditionView): Cell[] => [
     ...head,
     name,
@@ -76,7 +122,13 @@ export function forecastRows(f: CompoundForecast): Cell[][] {
     round(view.referenceDrive_uA_cm2),
     round(c.measures.referenceRate_Hz),
     pct(c.shifts.referenceRate_Hz.relative),
-    c.measures.flags.map((x) => FLAG_WORDS[x] ?? x).join('; ') || 'none',
+    ...bandCells(c),
+    c.band ? view.bands!.draws : null,
+    c.band ? bandNotes : name === 'Control' ? 'Control: no block, no band.' : bandNotes,
+    [
+      ...c.measures.flags.map((x) => FLAG_WORDS[x] ?? x),
+      ...(c.band?.nearTransition ? ['near a firing transition'] : []),
+    ].join('; ') || 'none',
     potencies,
     view.inputSha256,
   ];

@@ -8,9 +8,11 @@ import type { CompoundForecast } from '@/lib/validation/forecasts';
 import { targetPotencies, type PotencyFit } from './potency';
 import { planCompoundForecast } from './request';
 import { storedOrComputedForecast } from './store';
+import { potencyUncertainties, uncertaintyOf } from './uncertainty';
 import { forecastView } from './view';
 
 const potencyFit = (f: ProfileFit): PotencyFit => ({
+  fitId: f.fitId,
   status: f.status,
   model: f.model,
   ic50_uM: f.ic50_uM,
@@ -54,7 +56,13 @@ export async function getCompoundForecast(
     return f ? potencyFit(f) : undefined;
   };
   const potencies = targetPotencies(screen.neuronPreset, targets, fitOf, screen.exposures_uM);
-  const plan = planCompoundForecast(screen.neuronPreset, potencies, screen.exposures_uM, options.at);
+  const plan = planCompoundForecast(
+    screen.neuronPreset,
+    potencies,
+    screen.exposures_uM,
+    options.at,
+    uncertaintyOf(potencies, await potencyUncertainties(potencies)),
+  );
   const base = {
     compoundId,
     compound: profile.compound.identifier,

@@ -7,6 +7,7 @@ import type { CompoundForecast, PlateForecastList, TargetPotency } from '@/lib/v
 import { targetPotencies, type PotencyFit } from './potency';
 import { planCompoundForecast } from './request';
 import { forecastInput, storedKeys, storedOrComputedForecast } from './store';
+import { potencyUncertainties, uncertaintyOf } from './uncertainty';
 import { forecastView } from './view';
 
 interface PlateContext {
@@ -37,6 +38,7 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
         const f = own.get(targetId);
         return f
           ? ({
+              fitId: f.id,
               status: f.status,
               model: f.model,
               ic50_uM: f.ic50_uM,
@@ -56,8 +58,17 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
 export async function listPlateForecasts(actor: Actor, plateId: string): Promise<PlateForecastList> {
   const { header, exposures_uM, compounds } = await plateContext(actor, plateId);
   // A compound counts as stored when its forecast is, with the traces at any of the exposures.
+  const uncertainty = await potencyUncertainties(compounds.flatMap((c) => c.targets));
   const plans = compounds.map((c) =>
-    exposures_uM.map((_, at) => planCompoundForecast(header.neuronPreset, c.targets, exposures_uM, at)),
+    exposures_uM.map((_, at) =>
+      planCompoundForecast(
+        header.neuronPreset,
+        c.targets,
+        exposures_uM,
+        at,
+        uncertaintyOf(c.targets, uncertainty),
+      ),
+    ),
   );
   const keys = plans.map((variants) =>
     variants.flatMap((p) => ('request' in p ? [forecastInput(p.request).inputSha256] : [])),
@@ -94,7 +105,13 @@ export async function getPlateForecast(
   const { header, exposures_uM, compounds } = await plateContext(actor, plateId);
   const entry = compounds.find((c) => c.compoundId === compoundId);
   if (!entry) throw new AppError('not_found', `No compound with that id is tested on plate ${header.label}.`);
-  const plan = planCompoundForecast(header.neuronPreset, entry.targets, exposures_uM, at);
+  const plan = planCompoundForecast(
+    header.neuronPreset,
+    entry.targets,
+    exposures_uM,
+    at,
+    uncertaintyOf(entry.targets, await potencyUncertainties(entry.targets)),
+  );
   const base = {
     compoundId,
     compound: entry.compound,

@@ -14,6 +14,7 @@ export interface PotencyTarget {
 
 /** The parts of a fit a forecast needs, and the plate it came from. */
 export interface PotencyFit {
+  fitId: string;
   status: 'fitted' | 'above_range' | 'inactive' | 'insufficient' | 'not_converged';
   model: 'hill2' | 'hill4';
   ic50_uM: number | null;
@@ -89,6 +90,7 @@ export function targetPotencies(
       return {
         targetId: target.id,
         target: target.name,
+        fitId: fit?.fitId ?? null,
         conductance: target.conductance,
         use,
         ic50_uM: fit?.ic50_uM ?? null,

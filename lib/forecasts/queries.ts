@@ -37,3 +37,38 @@ export async function lockForecastInput(inputSha256: string, transaction: Transa
     transaction,
   });
 }
+
+export interface FitUncertaintyRow {
+  id: string;
+  plateId: string;
+  compoundId: string;
+  targetId: string;
+  model: 'hill2' | 'hill4';
+  estimate: { covariance?: number[][] | null; degreesOfFreedom?: number } | null;
+}
+
+// SQL for speed: only the estimates of the fits named, not the rest of their rows.
+export async function selectFitUncertainties(fitIds: string[]): Promise<FitUncertaintyRow[]> {
+  if (fitIds.length === 0) return [];
+  return db().query<FitUncertaintyRow>(
+    `select id, plate_id as "plateId", compound_id as "compoundId", target_id as "targetId", model, estimate
+       from fits where id in (:fitIds)`,
+    { type: QueryTypes.SELECT, replacements: { fitIds } },
+  );
+}
+
+// SQL: the wells a fit could use (test wells of its compound on its plate and target, not excluded, with a
+// block and no QC reason), for a bootstrap when its covariance is unusable.
+export async function selectFitWells(
+  fit: Pick<FitUncertaintyRow, 'plateId' | 'compoundId' | 'targetId'>,
+): Promise<{ concentration_uM: number; block: number }[]> {
+  return db().query<{ concentration_uM: number; block: number }>(
+    `select w.concentration_um as "concentration_uM", r.fractional_block as block
+       from wells w join readouts r on r.well_id = w.id
+      where w.plate_id = :plateId and w.compound_id = :compoundId and r.target_id = :targetId
+        and not w.excluded and w.concentration_um is not null and r.fractional_block is not null
+        and jsonb_array_length(r.qc_reasons) = 0
+      order by w.row_index, w.column_index`,
+    { type: QueryTypes.SELECT, replacements: fit },
+  );
+}

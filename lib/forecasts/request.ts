@@ -1,11 +1,16 @@
 import 'server-only';
 import { AppError } from '@/lib/errors';
 import type { ForecastRequest } from '@/lib/science/forecast/request-schema';
+import type { PotencyUncertaintyInput } from '@/lib/science/forecast/uncertainty';
 import type { TargetPotency } from '@/lib/validation/forecasts';
 import { isExposure, sweepConcentrations } from './sweep';
 
 /** Part of every stored input: a change to how Gatewell builds or computes forecasts changes the key. */
-export const FORECAST_ENGINE = 'gatewell-forecast/2'; // 2: the 'firing-stops' flag
+export const FORECAST_ENGINE = 'gatewell-forecast/3'; // 2: the 'firing-stops' flag; 3: uncertainty bands
+
+/** Draws behind each forecast's bands, and their seed (fixed, so that a forecast's bands are reproducible). */
+export const FORECAST_BAND_DRAWS = 200;
+export const FORECAST_BAND_SEED = 20_261_210;
 
 /** The f–I curve: 12 drives up to 3 × the control rheobase (our choice, no source). */
 export const FORECAST_FI_CURVE = { points: 12, upToFactor: 3 } as const;
@@ -21,7 +26,8 @@ export interface PlannedForecast {
 
 /**
  * The forecast request for a compound: its used potencies (conductance → IC50 µM and Hill slope) at the
- * exposures (ascending) and the concentration sweep, with traces at exposure `at` (default the highest).
+ * exposures (ascending) and the concentration sweep, with traces at exposure `at` (default the highest),
+ * and uncertainty bands from each used fit's covariance or wells (`uncertainty`, by conductance).
  * Returns the reason instead when there is nothing to forecast.
  */
 export function planCompoundForecast(
@@ -29,6 +35,7 @@ export function planCompoundForecast(
   potencies: TargetPotency[],
   exposures_uM: number[],
   at?: number,
+  uncertainty?: Record<string, PotencyUncertaintyInput>,
 ): PlannedForecast | { reason: string } {
   if (at !== undefined && at >= exposures_uM.length) {
     throw new AppError(
@@ -61,6 +68,18 @@ export function planCompoundForecast(
       concentrationUnit: 'µM',
       protocol: { fiCurve: { ...FORECAST_FI_CURVE } },
       trace: { condition, points: TRACE_POINTS },
+      uncertainty: {
+        seed: FORECAST_BAND_SEED,
+        draws: FORECAST_BAND_DRAWS,
+        // Bands at the exposures of interest only: 200 model runs per banded concentration, and the sweep's
+        // other points would multiply that several times over.
+        concentrations: exposures_uM.filter((c) => c > 0),
+        potencies: Object.fromEntries(
+          used.flatMap((p) =>
+            uncertainty?.[p.conductance] ? [[p.conductance, uncertainty[p.conductance]!]] : [],
+          ),
+        ),
+      },
     },
     concentrations_uM,
     traceConcentration_uM,

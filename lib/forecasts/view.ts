@@ -1,10 +1,15 @@
 import 'server-only';
 import type { ConditionForecast } from '@/lib/science/forecast/assemble';
+import type { ConditionBand } from '@/lib/science/forecast/bands';
 import type { ConditionView, ForecastView } from '@/lib/validation/forecasts';
 import { isExposure } from './sweep';
 import type { StoredForecast } from './store';
 
-function conditionView(c: ConditionForecast, exposures_uM: number[]): ConditionView {
+function conditionView(
+  c: ConditionForecast,
+  exposures_uM: number[],
+  band: ConditionBand | null = null,
+): ConditionView {
   const concentration_uM = c.concentration ?? 0;
   const { rest_mV, rheobase_uA_cm2, threshold_mV, referenceRate_Hz, fI, flags } = c.measures;
   return {
@@ -13,6 +18,15 @@ function conditionView(c: ConditionForecast, exposures_uM: number[]): ConditionV
     block: c.block,
     measures: { rest_mV, rheobase_uA_cm2, threshold_mV, referenceRate_Hz, fI, flags },
     shifts: c.shifts,
+    band: band
+      ? {
+          block: band.block,
+          rheobase_uA_cm2: band.rheobase_uA_cm2,
+          threshold_mV: band.threshold_mV,
+          referenceRate_Hz: band.referenceRate_Hz,
+          nearTransition: band.nearTransition ?? false,
+        }
+      : null,
   };
 }
 
@@ -33,7 +47,24 @@ export function forecastView(stored: StoredForecast, exposures_uM: number[]): Fo
     },
     referenceDrive_uA_cm2: r.referenceDrive_uA_cm2,
     control: conditionView(r.control, exposures_uM),
-    conditions: r.conditions.map((c) => conditionView(c, exposures_uM)),
+    conditions: r.conditions.map((c, i) => conditionView(c, exposures_uM, r.bands?.conditions[i] ?? null)),
+    bands: r.bands
+      ? {
+          draws: r.bands.draws,
+          seed: r.bands.seed,
+          method: r.bands.method,
+          sources: r.bands.sources,
+          transition: r.bands.transition
+            ? {
+                status: r.bands.transition.status,
+                concentration_uM: r.bands.transition.concentration,
+                block: r.bands.transition.block,
+                band: r.bands.transition.band,
+                note: r.bands.transition.note,
+              }
+            : null,
+        }
+      : null,
     traces: r.traces
       ? {
           drive_uA_cm2: r.traces.drive_uA_cm2,

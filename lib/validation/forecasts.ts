@@ -17,6 +17,8 @@ export type PotencyUse = (typeof POTENCY_USES)[number];
 export const targetPotencySchema = z.object({
   targetId: z.uuid(),
   target: z.string(),
+  /** The fit behind the potency (its covariance or wells give the forecast's band); null when untested. */
+  fitId: z.uuid().nullable(),
   conductance: z.string(),
   use: z.enum(POTENCY_USES),
   ic50_uM: z.number().nullable(),
@@ -35,6 +37,32 @@ const shiftSchema = z.object({
   value: nullableNumber,
   delta: nullableNumber,
   relative: nullableNumber,
+});
+
+/** Median and 2.5–97.5 % quantiles of a measure over the draws (null: undefined there; `missing` draws had no value). */
+export const bandSchema = z.object({
+  median: nullableNumber,
+  low: nullableNumber,
+  high: nullableNumber,
+  missing: z.number(),
+});
+
+export const conditionBandSchema = z.object({
+  block: z.record(z.string(), bandSchema),
+  rheobase_uA_cm2: bandSchema,
+  threshold_mV: bandSchema,
+  referenceRate_Hz: bandSchema,
+  /** Within the firing transition's band, or the rate changes by more than half within its band. */
+  nearTransition: z.boolean(),
+});
+
+/** Where the compound stops the cell firing repetitively at the reference drive (firing-transition.ts). */
+export const transitionViewSchema = z.object({
+  status: z.enum(['found', 'silent-at-control', 'fires-throughout']),
+  concentration_uM: nullableNumber,
+  block: z.record(z.string(), z.number()).nullable(),
+  band: z.object({ low: z.number(), median: z.number(), high: z.number() }).nullable(),
+  note: z.string(),
 });
 
 export const conditionViewSchema = z.object({
@@ -56,6 +84,8 @@ export const conditionViewSchema = z.object({
     threshold_mV: shiftSchema,
     referenceRate_Hz: shiftSchema,
   }),
+  /** The 95 % band of each measure from the fits' uncertainty; null for control and for forecasts stored without bands. */
+  band: conditionBandSchema.nullable(),
 });
 
 const traceSchema = z.object({ t_ms: z.array(z.number()), v_mV: z.array(z.number()) });
@@ -75,6 +105,17 @@ export const forecastViewSchema = z.object({
   referenceDrive_uA_cm2: nullableNumber,
   control: conditionViewSchema,
   conditions: z.array(conditionViewSchema),
+  /** How the bands were made (draws, seed, the source of each potency's draws), or null without bands. */
+  bands: z
+    .object({
+      draws: z.number(),
+      seed: z.number(),
+      method: z.string(),
+      sources: z.array(z.object({ conductance: z.string(), source: z.string(), note: z.string() })),
+      /** Null for forecasts stored before transitions were found. */
+      transition: transitionViewSchema.nullable(),
+    })
+    .nullable(),
   traces: z
     .object({
       drive_uA_cm2: z.number(),
@@ -135,6 +176,7 @@ export const plateForecastQuerySchema = z.object({
 
 export type TargetPotency = z.infer<typeof targetPotencySchema>;
 export type ConditionView = z.infer<typeof conditionViewSchema>;
+export type BandView = z.infer<typeof bandSchema>;
 export type ForecastView = z.infer<typeof forecastViewSchema>;
 export type CompoundForecast = z.infer<typeof compoundForecastSchema>;
 export type PlateForecastList = z.infer<typeof plateForecastListSchema>;
@@ -144,3 +186,5 @@ export const compoundForecastQuerySchema = z.object({
   screenId: z.uuid({ error: 'screenId must be the id of a screen the compound was tested in.' }).optional(),
   at: plateForecastQuerySchema.shape.at,
 });
+
+export type TransitionView = z.infer<typeof transitionViewSchema>;

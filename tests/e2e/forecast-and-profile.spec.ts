@@ -32,6 +32,9 @@ const traces = (page: Page) =>
 test('a plate’s forecast shows the caution, traces, f–I curves and the sweep; one compound or all at once', async ({
   page,
 }) => {
+  // Each forecast now runs the model 200 times per exposure for its bands (seconds of work per compound,
+  // minutes for the whole plate on a shared 2-core machine), so this test waits longer than the default.
+  test.setTimeout(600_000);
   const plateId = await idOf('select id from plates where label = $1', 'NAV-P01');
   await signIn(page);
   await page.goto(`/plates/${plateId}`);
@@ -39,7 +42,7 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
   await expect(page).toHaveURL(new RegExp(`/plates/${plateId}/forecast$`));
   await expect(page.getByRole('note', { name: 'Caution' })).toContainText(CAUTION);
   await expect(page.getByRole('heading', { name: 'GW-0001 on NAV-P01' })).toBeVisible();
-  await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 30_000 });
+  await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 180_000 });
   await expect(traces(page)).toContainText('GW-0001 at 1 µM');
   // Each target beside the model conductance it blocks, in the screen's preset (seed-demo: Nav1.7 → gNa,
   // on the Pospischil et al. 2008 regular-spiking cell).
@@ -63,6 +66,12 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
   // Cells after the row header: block, rest, rheobase (its value, then its change beside control).
   await expect(excitability.getByRole('columnheader').nth(3)).toHaveText('Rheobase (µA/cm²)');
   await expect(row.getByRole('cell').nth(2)).toContainText(/\+\d+\.\d %/);
+  // Uncertainty bands (200 draws of each fit's log IC50 and Hill slope): the exposure's rheobase has its
+  // 95 % range beneath it, both sweep plots shade a band, and the note says how the draws were made.
+  await expect(row.getByRole('cell').nth(2)).toContainText(/95 %: \d/);
+  await expect(page.getByTestId('forecast-band')).toHaveCount(2);
+  await expect(page.getByTestId('forecast-band-note')).toContainText('200 draws');
+  await expect(page.getByTestId('forecast-band-note')).toContainText('covariance');
   await shot(page, 'plate-forecast');
 
   // Traces at another exposure, chosen from the keyboard.
@@ -73,12 +82,12 @@ test('a plate’s forecast shows the caution, traces, f–I curves and the sweep
 
   await page.getByRole('button', { name: /GW-0002/ }).click();
   await expect(page.getByRole('heading', { name: 'GW-0002 on NAV-P01' })).toBeVisible();
-  await expect(traces(page)).toContainText('GW-0002 at 0.3 µM', { timeout: 30_000 });
+  await expect(traces(page)).toContainText('GW-0002 at 0.3 µM', { timeout: 180_000 });
 
   await page.getByRole('button', { name: /^Forecast the \d+ not yet computed$/ }).click();
   // The run is one job on the queue; the worker process computes each missing forecast and reports progress.
   await expect(page.getByText(/^Last run: \d+ of \d+ forecasts computed and stored\.$/)).toBeVisible({
-    timeout: 60_000,
+    timeout: 420_000,
   });
   await expect(
     page.getByRole('navigation', { name: 'Compounds on this plate' }).getByText('Forecast stored'),
@@ -130,6 +139,13 @@ test('forecast and export routes answer bad input with a clear message, and expo
     'Fits',
     'Forecast at exposures',
   ]);
+  const forecastSheet = XLSX.utils.sheet_to_json<unknown[]>(book.Sheets['Forecast at exposures']!, {
+    header: 1,
+  });
+  const header = forecastSheet.find((r) => r.includes('Rheobase 2.5 % (µA/cm²)'));
+  expect(header).toEqual(
+    expect.arrayContaining(['Rheobase 97.5 % (µA/cm²)', 'Rate 2.5 % (Hz)', 'Band draws']),
+  );
   const wells = await page.request.get(`/api/plates/${plateId}/export?format=csv&table=wells`);
   expect(wells.headers()['content-type']).toBe('text/csv; charset=utf-8');
   expect(await wells.text()).toContain('Well,Role,Compound,Concentration (µM),Target');
@@ -149,6 +165,7 @@ test('a compound profile gathers fits across plates, selectivity and the forecas
   await expect(page.getByText('IC50 Kv7.2 ÷ IC50 Nav1.7')).toBeVisible();
   await expect(page.getByRole('note', { name: 'Caution' })).toContainText(CAUTION);
   await expect(traces(page).locator('path').first()).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByTestId('forecast-band').first()).toBeVisible();
   await shot(page, 'compound-profile');
 
   await page.locator('summary', { hasText: 'Download' }).click();

@@ -38,7 +38,14 @@ describe('forecast CLI', () => {
     );
     expect(code).toBe(0);
     const out = JSON.parse(stdout);
-    expect(Object.keys(out)).toEqual(['rest_mV', 'rheobase_uA_cm2', 'threshold_mV', 'rates_Hz', 'flags']);
+    expect(Object.keys(out)).toEqual([
+      'rest_mV',
+      'rheobase_uA_cm2',
+      'threshold_mV',
+      'rates_Hz',
+      'flags',
+      'caution',
+    ]);
     // HH 1952 behaviour (hodgkin-huxley-1952-numerical.json): rest −64.996 mV, rheobase ≈ 2.24, ≈ 68.3 and 86.5 Hz.
     expect(out.rest_mV).toBeCloseTo(numerical.rest_mV, 3);
     expect(Math.abs(out.rheobase_uA_cm2 - numerical.rheobase_uA_cm2)).toBeLessThanOrEqual(0.005);
@@ -74,7 +81,17 @@ describe('forecast CLI', () => {
     expect(stderr).toBe('');
     expect(code).toBe(0);
     const out = JSON.parse(stdout);
-    expect(Object.keys(out)).toEqual(['control', 'conditions']);
+    expect(Object.keys(out)).toEqual([
+      'control',
+      'referenceDrive_uA_cm2',
+      'conditions',
+      'bandSources',
+      'firingTransition',
+      'caution',
+    ]);
+    // Without "uncertainty" no bands are drawn.
+    expect(out.bandSources).toBeNull();
+    expect(out.firingTransition).toBeNull();
     const [c] = out.conditions;
     expect(Object.keys(c)).toEqual([
       'concentration',
@@ -179,5 +196,93 @@ describe('forecast CLI', () => {
     expect(out.rest_mV).toBeLessThan(-50);
     expect(out.rheobase_uA_cm2).toBeGreaterThan(0);
     expect(out.rates_Hz['10']).toBeGreaterThan(0);
+  });
+});
+
+describe('forecast CLI with bands', () => {
+  test('prints a band per measure and the caution; zero covariance gives the point forecast as its band', () => {
+    const { code, stdout } = run(
+      JSON.stringify({
+        preset: 'pospischil-rs-2008',
+        potencies: { gNa: { ic50: 1, hill: 1 } },
+        concentrations: [1],
+        uncertainty: {
+          seed: 1,
+          draws: 10,
+          potencies: {
+            gNa: {
+              covariance: [
+                [0, 0],
+                [0, 0],
+              ],
+            },
+          },
+        },
+      }),
+    );
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    expect(out.caution).toMatch(/not a clinical or regulatory safety determination/);
+    const c = out.conditions[0].tonic;
+    expect(c.rheobase_uA_cm2).not.toBeNull();
+    expect(c.bands.rheobase_uA_cm2).toEqual({
+      median: c.rheobase_uA_cm2,
+      low: c.rheobase_uA_cm2,
+      high: c.rheobase_uA_cm2,
+      missing: 0,
+    });
+    // Without inactivatedIc50 the state-dependent side is the tonic one.
+    expect(out.conditions[0].stateDependent).toEqual(c);
+  });
+
+  // State-dependent block (Kr = ic50, Ki = inactivatedIc50) gets bands of its own: its drawn Kr moves the
+  // block while the shift of inactivation stays the estimate's. Zero covariance still collapses each band.
+  test('state-dependent potencies: each side has its bands and firing transition', () => {
+    const { code, stdout, stderr } = run(
+      JSON.stringify({
+        // Pospischil's cell fires repetitively at twice its rheobase (HH 1952 does not), so it has a transition.
+        preset: 'pospischil-rs-2008',
+        potencies: { gNa: { ic50: 10, hill: 1, inactivatedIc50: 0.5 } },
+        concentrations: [1],
+        uncertainty: {
+          seed: 2,
+          draws: 10,
+          potencies: {
+            gNa: {
+              covariance: [
+                [0, 0],
+                [0, 0],
+              ],
+            },
+          },
+        },
+      }),
+    );
+    expect(stderr).toBe('');
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    const { tonic, stateDependent } = out.conditions[0];
+    for (const side of [tonic, stateDependent]) {
+      expect(side.bands.rheobase_uA_cm2.median).toBe(side.rheobase_uA_cm2);
+      expect(side.bands.rheobase_uA_cm2.low).toBe(side.rheobase_uA_cm2);
+      expect(side.bands.rheobase_uA_cm2.high).toBe(side.rheobase_uA_cm2);
+    }
+    // The shift makes the cell harder to excite than tonic block alone (as in the test above).
+    expect(stateDependent.bands.rheobase_uA_cm2.median).toBeGreaterThan(tonic.bands.rheobase_uA_cm2.median);
+    expect(stateDependent.bands.referenceRate_Hz.median).toBe(stateDependent.referenceRate_Hz);
+    expect(Object.keys(out.firingTransition)).toEqual(['tonic', 'stateDependent']);
+    expect(out.firingTransition.stateDependent.status).toBe('found');
+    // Silencing needs less drug with the shift than with tonic block alone.
+    expect(out.firingTransition.stateDependent.concentration).toBeLessThan(
+      out.firingTransition.tonic.concentration,
+    );
+  });
+
+  test('bands without potencies are refused with a message', () => {
+    const { code, stderr } = run(
+      JSON.stringify({ preset: 'hh-squid-1952', block: { gNa: 0.2 }, uncertainty: { seed: 1 } }),
+    );
+    expect(code).toBe(1);
+    expect(stderr).toContain('uncertainty bands need potencies');
   });
 });

@@ -1,5 +1,6 @@
 import type { VoltageTrace } from '../neuron/downsample';
 import type { Excitability, ExcitabilityFlag } from '../neuron/excitability';
+import type { ForecastBands } from './bands';
 import type { ForecastPlan, ForecastProtocol } from './plan';
 
 /** A measurement beside control: delta = value − control, relative = delta / |control|. */
@@ -45,6 +46,8 @@ export interface ForecastResult {
     condition: VoltageTrace | null;
     conditionIndex: number | null;
   } | null;
+  /** Uncertainty bands per condition (same order as `conditions`), when the request asked for them. */
+  bands: ForecastBands | null;
   caution: string;
 }
 
@@ -76,6 +79,7 @@ export function assembleForecast(
   control: Excitability,
   conditions: Excitability[],
   traces: { drive_uA_cm2: number; control: VoltageTrace; condition: VoltageTrace | null } | null,
+  bands: ForecastBands | null = null,
 ): ForecastResult {
   const ctrl = measuresOf(control);
   const conductances = (scale: Record<string, number>) =>
@@ -118,6 +122,7 @@ export function assembleForecast(
     traces: traces
       ? { ...traces, conditionIndex: traces.condition ? (plan.trace?.condition ?? null) : null }
       : null,
+    bands,
     caution: FORECAST_CAUTION,
   };
 }

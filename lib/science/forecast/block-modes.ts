@@ -25,14 +25,19 @@ export function tonicOnly(request: ParsedForecastRequest): ParsedForecastRequest
 }
 
 /**
- * Forecast a request with potencies both ways, side by side (computed in this thread). Throws
- * ForecastRequestError on an invalid request.
+ * Forecast a request with potencies both ways, side by side (computed in this thread), each with its own
+ * uncertainty bands and firing transition when the request asks for bands. Without any inactivatedIc50
+ * the two are one computation (the same result object). Throws ForecastRequestError on an invalid request.
  */
 export function computeBlockModes(input: unknown): BlockModesForecast {
   const request = parseForecastRequest(input);
+  const tonic = computeForecast(tonicOnly(request));
+  const stateDependent = Object.values(request.potencies ?? {}).some((p) => p.inactivatedIc50 !== undefined)
+    ? computeForecast(request)
+    : tonic;
   return {
-    tonic: computeForecast(tonicOnly(request)),
-    stateDependent: computeForecast(request),
+    tonic,
+    stateDependent,
     inactivationShift_mV: planForecast(request).conditions.map((c) => c.inactivationShift),
   };
 }

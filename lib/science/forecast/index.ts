@@ -24,5 +24,20 @@ export {
   type Shift,
 } from './assemble';
 export { computeForecast } from './forecast';
+export {
+  planBands,
+  bandOf,
+  quantileSorted,
+  BAND_METHOD,
+  DEFAULT_BAND_DRAWS,
+  type Band,
+  type BandRequest,
+  type BandSample,
+  type BandTask,
+  type ConditionBand,
+  type ForecastBands,
+} from './bands';
+export { seededRandom, type SeededRandom } from './prng';
+export { cholesky2, drawPotency, type DrawSource, type PotencyUncertaintyInput } from './uncertainty';
 export { runForecastTask, type ForecastTask, type MeasureTask, type TraceTask } from './tasks';
 export { computeBlockModes, tonicOnly, type BlockModesForecast } from './block-modes';

@@ -8,6 +8,7 @@ import {
 import { getPreset } from '../neuron/presets';
 import { inactivationSlope_mV, modulatedReceptorShift_mV } from '../neuron/state-dependent-block';
 import type { NeuronPreset } from '../neuron/types';
+import { DEFAULT_BAND_DRAWS, type BandRequest } from './band-request';
 import { poreBlockFraction } from './pore-block';
 import type { ParsedForecastRequest } from './request-schema';
 import type { MeasureTask, TraceTask } from './tasks';
@@ -49,6 +50,13 @@ export interface ForecastPlan {
   concentrationUnit: string | null;
   conditions: PlannedCondition[];
   trace: { condition: number; drive_uA_cm2: number | null; duration_ms: number; points: number } | null;
+  /**
+   * The potencies behind the conditions (conductance → IC50, Hill slope, and the inactivated-state IC50
+   * of state-dependent block); null for a block request.
+   */
+  potencies: Record<string, { ic50: number; hill: number; inactivatedIc50?: number }> | null;
+  /** Uncertainty bands asked for, or null. */
+  bands: BandRequest | null;
 }
 
 /** Turn a validated request into conditions and a resolved protocol. */
@@ -111,7 +119,25 @@ export function planForecast(request: ParsedForecastRequest): ForecastPlan {
           duration_ms: t?.duration_ms ?? protocol.rateStep_ms,
           points: t?.points ?? 2000,
         };
-  return { preset, protocol, concentrationUnit: unit, conditions, trace };
+  const u = request.uncertainty;
+  const bands: BandRequest | null =
+    u && request.potencies
+      ? {
+          draws: u.draws ?? DEFAULT_BAND_DRAWS,
+          seed: u.seed,
+          potencies: u.potencies ?? {},
+          concentrations: u.concentrations ?? null,
+        }
+      : null;
+  return {
+    preset,
+    protocol,
+    concentrationUnit: unit,
+    conditions,
+    trace,
+    potencies: request.potencies ?? null,
+    bands,
+  };
 }
 
 function excitabilityProtocol(p: ForecastProtocol): ExcitabilityProtocol {

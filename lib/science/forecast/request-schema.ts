@@ -91,6 +91,58 @@ export const potencySchema = z.strictObject({
     .optional(),
 });
 
+const finite = (what: string) =>
+  z.number({ error: `${what} must be a number` }).refine(Number.isFinite, {
+    error: `${what} must be finite`,
+  });
+
+/** What is known of one fit's uncertainty: its covariance of (log10 IC50, Hill slope) and/or its wells. */
+const potencyUncertaintySchema = z.strictObject({
+  covariance: z
+    .array(z.array(finite('covariance entries')).length(2, { error: 'covariance must be 2 × 2' }), {
+      error: 'covariance must be a 2 × 2 array of numbers',
+    })
+    .length(2, { error: 'covariance must be 2 × 2' })
+    .nullable()
+    .optional(),
+  degreesOfFreedom: z
+    .int({ error: 'degreesOfFreedom must be a whole number' })
+    .min(1, { error: 'degreesOfFreedom must be at least 1' })
+    .nullable()
+    .optional(),
+  wells: z
+    .array(
+      z.strictObject({
+        concentration_uM: finite('well concentration_uM').min(0, {
+          error: 'well concentrations must be ≥ 0',
+        }),
+        block: finite('well block'),
+      }),
+    )
+    .max(2000, { error: 'at most 2000 wells per fit' })
+    .optional(),
+  model: z.enum(['hill2', 'hill4']).optional(),
+});
+
+/** Uncertainty bands: draws, seed, and what each potency's uncertainty is. */
+const uncertaintySchema = z.strictObject({
+  draws: z
+    .int({ error: 'uncertainty.draws must be a whole number' })
+    .min(10, { error: 'uncertainty.draws must be 10–5000' })
+    .max(5000, { error: 'uncertainty.draws must be 10–5000' })
+    .optional(),
+  seed: z
+    .int({ error: 'uncertainty.seed must be a whole number' })
+    .min(0, { error: 'uncertainty.seed must be 0 – 4294967295' })
+    .max(4294967295, { error: 'uncertainty.seed must be 0 – 4294967295' }),
+  potencies: z.record(z.string(), potencyUncertaintySchema).optional(),
+  /** Band only these of the request's concentrations. @default every one */
+  concentrations: z
+    .array(z.number({ error: 'uncertainty.concentrations must be numbers' }).min(0))
+    .max(50)
+    .optional(),
+});
+
 const traceSchema = z.union([
   z.literal(false),
   z.strictObject({
@@ -170,6 +222,8 @@ export const forecastRequestSchema = z
       concentrationUnit: z.string().max(20).optional(),
       protocol: forecastProtocolSchema.optional(),
       trace: traceSchema.optional(),
+      /** Uncertainty bands of every measure (needs potencies). */
+      uncertainty: uncertaintySchema.optional(),
     },
     {
       error: (issue) =>
@@ -204,7 +258,13 @@ export const forecastRequestSchema = z
  * concentrations.
  */
 function checkBlockOrPotencies(
-  r: { preset: string; block?: unknown; potencies?: unknown; concentrations?: unknown },
+  r: {
+    preset: string;
+    block?: unknown;
+    potencies?: unknown;
+    concentrations?: unknown;
+    uncertainty?: unknown;
+  },
   ctx: z.RefinementCtx,
 ): void {
   if (!isPresetName(r.preset)) return;
@@ -227,6 +287,19 @@ function checkBlockOrPotencies(
     });
   if (r.concentrations && !r.potencies)
     ctx.addIssue({ code: 'custom', path: ['potencies'], message: 'concentrations need potencies' });
+  if (r.uncertainty && !r.potencies)
+    ctx.addIssue({ code: 'custom', path: ['uncertainty'], message: 'uncertainty bands need potencies' });
+  const bandPotencies = isObject(r.uncertainty) ? r.uncertainty.potencies : undefined;
+  if (isObject(bandPotencies) && isObject(r.potencies)) {
+    for (const key of Object.keys(bandPotencies)) {
+      if (!(key in r.potencies))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['uncertainty', 'potencies', key],
+          message: `uncertainty given for "${key}", which has no potency`,
+        });
+    }
+  }
 }
 
 function isObject(value: unknown): value is Record<string, unknown> {
@@ -240,6 +313,7 @@ export type ForecastRequest = z.input<typeof forecastRequestSchema>;
  * {"preset":"hh-squid-1952","block":{"gNa":0.3},"stepMs":500,"drives_uA_cm2":[10,20]}, or potencies at
  * concentrations, forecast tonic and state-dependent side by side,
  * {"preset":"hh-squid-1952","potencies":{"gNa":{"ic50":10,"hill":1,"inactivatedIc50":0.5}},"concentrations":[1,3]}.
+ * With potencies, optional bands: "uncertainty":{"seed":1,"draws":200,"potencies":{"gNa":{"covariance":…}}}.
  */
 export const forecastInputFileSchema = z
   .strictObject(
@@ -252,6 +326,8 @@ export const forecastInputFileSchema = z
       concentrations: forecastRequestSchema.shape.concentrations,
       stepMs: forecastProtocolSchema.shape.stepMs,
       drives_uA_cm2: forecastProtocolSchema.shape.drives_uA_cm2,
+      /** With potencies: optional uncertainty bands. */
+      uncertainty: uncertaintySchema.optional(),
     },
     { error: (issue) => (issue.code === 'invalid_type' ? 'the input must be a JSON object' : undefined) },
   )

@@ -15,6 +15,12 @@ export interface RheobaseOptions extends IntegratorOptions {
   /** First current tried; the control rheobase is a good guess for a blocked condition. @default 1 */
   guess_uA_cm2?: number;
   /**
+   * First relative step of the bracketing from the guess (then doubled each step): small when the guess
+   * is known to be close, e.g. a neighbouring draw's rheobase. The answer's tolerance is the same.
+   * @default 0.25
+   */
+  firstGrowth?: number;
+  /**
    * Search first with this multiple of dt, then confirm (and if need be move) the bracket at dt.
    * The answer holds at dt to the stated tolerance either way; 1 searches at dt only. At 4 (0.1 ms
    * by default) the coarse answer is close enough that the check at dt mostly costs two runs.
@@ -128,12 +134,13 @@ export function findRheobase(
       return t === undefined ? null : { threshold_mV: run.firstSpikeThreshold_mV, latency_ms: t };
     };
   const guess = Math.min(Math.max(options.guess_uA_cm2 ?? 1, absTol), ceiling);
+  const first = options.firstGrowth ?? 0.25;
   let found: ReturnType<typeof search>;
   if (factor > 1) {
-    const coarse = search(fireAt(dt * factor), guess, 0.25, relTol, absTol, ceiling);
+    const coarse = search(fireAt(dt * factor), guess, first, relTol, absTol, ceiling);
     found = search(fireAt(dt), coarse?.hi ?? ceiling, relTol, relTol, absTol, ceiling);
   } else {
-    found = search(fireAt(dt), guess, 0.25, relTol, absTol, ceiling);
+    found = search(fireAt(dt), guess, first, relTol, absTol, ceiling);
   }
   if (!found) return { rheobase_uA_cm2: null, bracket: null, threshold_mV: null, latency_ms: null, steps };
   return {
