@@ -34,3 +34,20 @@ export const STORAGE_FULL_MESSAGE =
 export function isStorageFull(error: unknown): boolean {
   return error instanceof DatabaseError && (error.parent as { code?: unknown }).code === '53100';
 }
+
+/**
+ * Runs `work`, and again while it fails because the database is out of reach (a restart, a failover),
+ * half a second apart, until it succeeds or `withinMs` has passed (then the last error is thrown). Any
+ * other error is thrown at once. For a worker's own bookkeeping, which nobody can repeat for it.
+ */
+export async function untilDatabaseAnswers<T>(work: () => Promise<T>, withinMs: number): Promise<T> {
+  const deadline = Date.now() + withinMs;
+  for (;;) {
+    try {
+      return await work();
+    } catch (error) {
+      if (!isDatabaseUnavailable(error) || Date.now() >= deadline) throw error;
+      await new Promise((resolve) => setTimeout(resolve, 500));
+    }
+  }
+}

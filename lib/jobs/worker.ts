@@ -3,6 +3,7 @@ import { hostname } from 'node:os';
 import type PgBoss from 'pg-boss';
 import { Op } from 'sequelize';
 import { db } from '@/lib/db';
+import { untilDatabaseAnswers } from '@/lib/database-unavailable';
 import { isAppError } from '@/lib/errors';
 import { ComputeJob } from '@/models';
 import { COMPUTE_JOB_KINDS, type ComputeJobKind } from '@/lib/domain/jobs';
@@ -20,6 +21,9 @@ import { listenForJobs } from './wake';
 
 /** How often each worker process looks for plates whose fit job was lost, and for jobs that ended unseen. */
 export const SWEEP_INTERVAL_MS = 60_000;
+
+/** How long a worker keeps trying to record a job's end while the database is out of reach. */
+const RECORD_WITHIN_MS = 60_000;
 
 const workerName = `${hostname()}:${process.pid}`;
 
@@ -49,25 +53,33 @@ async function runJob(kind: ComputeJobKind, job: PgBoss.JobWithMetadata<unknown>
   try {
     const message = await jobRegistry[kind].run(job.data, context);
     // An import job records its end inside the plate's own transaction: that row is left as it is.
-    await ComputeJob.update(
-      { state: 'done', finishedAt: new Date(), message },
-      { where: { id: job.id, state: { [Op.ne]: 'done' } } },
+    await untilDatabaseAnswers(
+      () =>
+        ComputeJob.update(
+          { state: 'done', finishedAt: new Date(), message },
+          { where: { id: job.id, state: { [Op.ne]: 'done' } } },
+        ),
+      RECORD_WITHIN_MS,
     );
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     // A refusal (bad input, a payload that fails its schema) will not change on a retry: the job ends here. Anything else is retried.
     const final = (isAppError(error) && error.code === 'invalid') || job.retryCount >= job.retryLimit;
-    await ComputeJob.update(
-      final
-        ? {
-            state: 'failed',
-            finishedAt: new Date(),
-            message: reason,
-            outcome: isAppError(error) ? { code: error.code, details: error.details ?? null } : null,
-          }
-        : { state: 'queued', message: `Attempt ${attempt} failed (${reason}); it will be tried again.` },
-      { where: { id: job.id } },
-    ).catch(() => undefined);
+    // Kept through a database restart: the job's row is what the person waiting reads.
+    const record = () =>
+      ComputeJob.update(
+        final
+          ? {
+              state: 'failed',
+              finishedAt: new Date(),
+              message: reason,
+              outcome: isAppError(error) ? { code: error.code, details: error.details ?? null } : null,
+            }
+          : { state: 'queued', message: `Attempt ${attempt} failed (${reason}); it will be tried again.` },
+        // A job whose end was written in its own transaction (an import) keeps it.
+        { where: { id: job.id, state: { [Op.ne]: 'done' } } },
+      );
+    await untilDatabaseAnswers(record, RECORD_WITHIN_MS).catch(() => undefined);
     if (!final) throw error;
     if (!isAppError(error)) console.error(`[gatewell jobs] ${kind} job ${job.id} failed: ${reason}`);
   }

@@ -4,7 +4,12 @@ import type { Transaction } from 'sequelize';
 import type { z } from 'zod';
 import { loadActor } from '@/lib/auth/load-actor';
 import { requireCapability, type Actor } from '@/lib/auth/roles';
-import { isDatabaseUnavailable, isStorageFull, STORAGE_FULL_MESSAGE } from '@/lib/database-unavailable';
+import {
+  isDatabaseUnavailable,
+  isStorageFull,
+  STORAGE_FULL_MESSAGE,
+  untilDatabaseAnswers,
+} from '@/lib/database-unavailable';
 import { db } from '@/lib/db';
 import { AppError, ERROR_STATUS, type ErrorCode } from '@/lib/errors';
 import type { JobContext } from '@/lib/jobs/job-types';
@@ -88,9 +93,19 @@ async function keepAndQueue(
 }
 
 /**
+ * How many times a worker stores a queued import whose database went away under it (a restart, a
+ * failover): the transaction was rolled back with everything in it and the upload is still queued, so
+ * storing it again once the database answers is safe and stores it once.
+ */
+export const IMPORT_DATABASE_ATTEMPTS = 3;
+/** How long a worker waits for the database to answer again before the next attempt. */
+const DATABASE_BACK_WITHIN_MS = 60_000;
+
+/**
  * The plate-import job's handler (lib/jobs/registry.ts): reads the queued commit under its row lock,
  * takes the draft's sheets (or reads the sent file once), checks and stores the plate, consumes the draft
- * and removes the upload in one transaction; the plate's id goes on the job.
+ * and removes the upload in one transaction; the plate's id goes on the job. When the database goes away
+ * in the middle, it waits for it to come back and stores the same upload again (IMPORT_DATABASE_ATTEMPTS).
  */
 export async function runQueuedImport(
   payload: PlateImportPayload,
@@ -99,47 +114,66 @@ export async function runQueuedImport(
   // Written beside the transaction (the job's row is not locked until the end): a lost report loses nothing.
   const stage = (name: (typeof IMPORT_STAGES)[number]) =>
     job.progress?.(IMPORT_STAGES.indexOf(name) + 1, IMPORT_STAGES.length).catch(() => undefined);
-  await stage('reading');
-  try {
-    return await db().transaction(async (transaction) => {
-      const upload = await ImportUpload.findByPk(payload.uploadId, {
-        transaction,
-        lock: transaction.LOCK.UPDATE,
-      });
-      if (!upload)
-        throw new AppError(
-          'conflict',
-          'The import was withdrawn before a worker took it; nothing was stored.',
-        );
-      const request = storedCommit(upload);
-      const actor = await loadActor(upload.requestedBy, upload.address ?? '');
-      if (!actor)
-        throw new AppError(
-          'forbidden',
-          'The account that uploaded this file is no longer active; nothing was stored.',
-        );
-      const { plateId, plates } = await commitImport(actor, request, {
-        transaction,
-        onStage: async (name) => void (await stage(name)),
-      });
-      const message =
-        plates.length === 1
-          ? `Stored as plate ${plates[0]!.label}.`
-          : `Stored as ${plates.length} plates: ${plates.map((p) => p.label).join(', ')}.`;
-      await removeUpload(payload.uploadId, transaction);
-      // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
-      await ComputeJob.update(
-        { state: 'done', plateId, plateIds: plates.map((p) => p.plateId), finishedAt: new Date(), message },
-        { where: { id: job.id }, transaction },
-      );
-      return message;
-    });
-  } catch (error) {
-    if (!isDatabaseUnavailable(error)) await removeUpload(payload.uploadId).catch(() => undefined);
-    // Told to the person waiting as it is (refusal below), not as a failure on the worker.
-    if (isStorageFull(error)) throw new AppError('storage_full', STORAGE_FULL_MESSAGE);
-    throw error;
+  for (let attempt = 1; ; attempt++) {
+    await stage('reading');
+    try {
+      return await storeQueuedImport(payload, job.id, attempt, stage);
+    } catch (error) {
+      if (isDatabaseUnavailable(error) && attempt < IMPORT_DATABASE_ATTEMPTS) {
+        // The commit may have reached the database just before the connection broke: then the job's row says so.
+        const row = await untilDatabaseAnswers(() => ComputeJob.findByPk(job.id), DATABASE_BACK_WITHIN_MS);
+        if (row?.state === 'done') return row.message ?? 'Stored.';
+        continue;
+      }
+      if (!isDatabaseUnavailable(error)) await removeUpload(payload.uploadId).catch(() => undefined);
+      // Told to the person waiting as it is (refusal below), not as a failure on the worker.
+      if (isStorageFull(error)) throw new AppError('storage_full', STORAGE_FULL_MESSAGE);
+      throw error;
+    }
   }
+}
+
+/** One attempt at storing the queued commit, in one transaction; the message the job ends with. */
+async function storeQueuedImport(
+  payload: PlateImportPayload,
+  jobId: string,
+  attempt: number,
+  stage: (name: (typeof IMPORT_STAGES)[number]) => Promise<void> | undefined,
+): Promise<string> {
+  return db().transaction(async (transaction) => {
+    const upload = await ImportUpload.findByPk(payload.uploadId, {
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
+    if (!upload)
+      throw new AppError('conflict', 'The import was withdrawn before a worker took it; nothing was stored.');
+    const request = storedCommit(upload);
+    const actor = await loadActor(upload.requestedBy, upload.address ?? '');
+    if (!actor)
+      throw new AppError(
+        'forbidden',
+        'The account that uploaded this file is no longer active; nothing was stored.',
+      );
+    const { plateId, plates } = await commitImport(actor, request, {
+      transaction,
+      onStage: async (name) => void (await stage(name)),
+    });
+    const stored =
+      plates.length === 1
+        ? `Stored as plate ${plates[0]!.label}.`
+        : `Stored as ${plates.length} plates: ${plates.map((p) => p.label).join(', ')}.`;
+    const message =
+      attempt === 1
+        ? stored
+        : `${stored} The database went away during attempt ${attempt - 1}, so it was stored on the next attempt.`;
+    await removeUpload(payload.uploadId, transaction);
+    // Done in the same transaction as the plate, so that a worker stopping right after the commit leaves no doubt.
+    await ComputeJob.update(
+      { state: 'done', plateId, plateIds: plates.map((p) => p.plateId), finishedAt: new Date(), message },
+      { where: { id: jobId }, transaction },
+    );
+    return message;
+  });
 }
 
 /** The queued commit, checked: one that fails ends the job as refused, with nothing stored. */
