@@ -1,6 +1,7 @@
 import 'server-only';
 import type { WellRole } from '@/lib/domain/well-roles';
 import { PLATE_FORMAT_SIZE, type PlateFormat } from '@/lib/domain/plate-formats';
+import type { BlockReadout } from '@/lib/domain/fits';
 import type { PreviewRow } from './read-row';
 
 /** The currents of one target in one well, pA (sign as recorded: inward currents are negative). */
@@ -12,6 +13,8 @@ export interface ParsedReadout {
   givenBlock?: number | null;
   /** The concentration of this application when the cell received several in turn (cumulative); else absent. */
   concentration_uM?: number;
+  /** Which of the target's block readouts it is; absent: the tonic one (a target's only readout). */
+  readout?: BlockReadout;
   /** The spreadsheet row it came from. */
   row: number;
 }

@@ -1,4 +1,5 @@
 import 'server-only';
+import { PRIMARY_READOUT, type BlockReadout } from '@/lib/domain/fits';
 import type { ParsedPlate } from '@/lib/imports/build-plate';
 import type { AnalysisReadout, AnalysisWell } from '@/lib/science/plate-analysis';
 
@@ -27,6 +28,8 @@ export interface ReadoutData {
   givenBlock?: number | null;
   /** The concentration of this application (cumulative application); null or absent: the well's. */
   concentration_uM?: number | null;
+  /** Which of the target's block readouts this is; @default 'tonic' */
+  readout?: BlockReadout;
 }
 
 /** The wells and readouts `analysePlate` takes (lib/science/plate-analysis.ts). */
@@ -61,6 +64,7 @@ export function analysisInput(wells: readonly WellData[], readouts: readonly Rea
       ...(r.concentration_uM !== null && r.concentration_uM !== undefined
         ? { concentration_uM: r.concentration_uM }
         : {}),
+      ...(r.readout !== undefined && r.readout !== PRIMARY_READOUT ? { readout: r.readout } : {}),
     })),
   };
 }
@@ -89,6 +93,7 @@ export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
         compoundCurrent_pA: r.compoundCurrent_pA,
         ...(r.givenBlock !== undefined ? { blockGiven: true, givenBlock: r.givenBlock } : {}),
         ...(r.concentration_uM !== undefined ? { concentration_uM: r.concentration_uM } : {}),
+        ...(r.readout !== undefined ? { readout: r.readout } : {}),
       })),
     ),
   );

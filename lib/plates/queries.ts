@@ -286,6 +286,7 @@ const READOUT_COLUMNS = {
   concentration_um: 'double precision',
   fractional_block: 'double precision',
   qc_reasons: 'jsonb',
+  readout: 'text',
 } as const;
 
 /** Inserts rows (plain objects keyed by column) with one statement and one JSON parameter. */
