@@ -16,6 +16,8 @@ const UNIT_KIND: Record<UnitField, QuantityKind> = {
   concentration: 'concentration',
   controlCurrent: 'current',
   compoundCurrent: 'current',
+  useDependentControlCurrent: 'current',
+  useDependentCompoundCurrent: 'current',
   sealResistance: 'sealResistance',
   seriesResistance: 'seriesResistance',
   capacitance: 'capacitance',

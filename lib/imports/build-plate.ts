@@ -82,13 +82,27 @@ export function buildPlate(
       ...(values.givenBlock !== undefined ? { givenBlock: values.givenBlock } : {}),
       row,
     });
+    if (values.useDependent) {
+      const ud = values.useDependent;
+      well.readouts.push({
+        target: values.target,
+        controlCurrent_pA: ud.controlCurrent_pA,
+        compoundCurrent_pA: ud.compoundCurrent_pA,
+        ...(ud.givenBlock !== undefined ? { givenBlock: ud.givenBlock } : {}),
+        readout: 'use_dependent',
+        row,
+      });
+    }
     if (!targets.includes(values.target)) targets.push(values.target);
   }
   // A well with several rows of one target received several concentrations in turn (cumulative
   // application): each readout keeps its own, and the well shows the last, highest one.
   for (const well of wells.values()) {
     const perTarget = new Map<string, number>();
-    for (const r of well.readouts) perTarget.set(r.target, (perTarget.get(r.target) ?? 0) + 1);
+    for (const r of well.readouts) {
+      const key = `${r.target}\u0000${r.readout ?? 'tonic'}`;
+      perTarget.set(key, (perTarget.get(key) ?? 0) + 1);
+    }
     if (![...perTarget.values()].some((n) => n > 1)) continue;
     for (const r of well.readouts) {
       const c = concentrationOfRow.get(r.row);

@@ -71,7 +71,7 @@ export function analysisInput(wells: readonly WellData[], readouts: readonly Rea
 
 /**
  * A parsed export before anything is stored (previews, benchmarks): each well is named by its place
- * in the plate's list, each readout by its spreadsheet row, compounds and targets by the names in the file.
+ * in the plate's list, each readout by its spreadsheet row (a use-dependent one `row:use_dependent`), compounds and targets by the names in the file.
  */
 export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
   return analysisInput(
@@ -86,7 +86,8 @@ export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
     })),
     plate.wells.flatMap((w, i) =>
       w.readouts.map((r) => ({
-        id: String(r.row),
+        // A row's use-dependent readout is named by the row too, told apart by a suffix.
+        id: r.readout === 'use_dependent' ? `${r.row}:use_dependent` : String(r.row),
         wellId: String(i),
         targetId: r.target,
         controlCurrent_pA: r.controlCurrent_pA,
