@@ -198,21 +198,32 @@ function matchHeaders(row: Cell[]): GuessedColumn[] {
     const { name, unitText } = splitHeaderUnit(header);
     // A header naming a readout ("P10 block", "Tonic I compound") is read without its readout words; one
     // of nothing else ("Use-dependent") holds that readout's block.
+    // A header whose other words name no current or block is read whole ("Last compound" is a compound).
     const said = readoutOfHeader(name);
-    const names =
-      said.readout === null ? [normaliseLabel(name), normaliseLabel(header)] : [readoutMeasure(said.rest)];
-    for (const field of IMPORT_FIELDS) {
+    const scoreOf = (field: ImportField, names: string[]) => {
       const rule = HEADER_RULES[field];
-      const score = names.some((n) => rule.exact.includes(n)) ? 2 : rule.loose(names[0] ?? '') ? 1 : 0;
-      if (score === 0) continue;
-      let chosen: ImportField = field;
-      if (said.readout !== null) {
-        if (!isReadoutField(field)) continue;
-        if (said.readout === 'use_dependent') chosen = USE_DEPENDENT_FIELD[field];
-      }
-      const kind = (UNIT_KIND as Partial<Record<ImportField, QuantityKind>>)[chosen];
+      return names.some((n) => rule.exact.includes(n)) ? 2 : rule.loose(names[0] ?? '') ? 1 : 0;
+    };
+    const readoutFields =
+      said.readout === null
+        ? []
+        : IMPORT_FIELDS.filter(isReadoutField).flatMap((field) => {
+            const score = scoreOf(field, [readoutMeasure(said.rest)]);
+            return score === 0
+              ? []
+              : [{ field: said.readout === 'use_dependent' ? USE_DEPENDENT_FIELD[field] : field, score }];
+          });
+    const fields =
+      readoutFields.length > 0
+        ? readoutFields
+        : IMPORT_FIELDS.flatMap((field) => {
+            const score = scoreOf(field, [normaliseLabel(name), normaliseLabel(header)]);
+            return score === 0 ? [] : [{ field, score }];
+          });
+    for (const { field, score } of fields) {
+      const kind = (UNIT_KIND as Partial<Record<ImportField, QuantityKind>>)[field];
       const unit = kind && unitText ? parseUnit(unitText, kind) : null;
-      candidates.push({ field: chosen, letter, header, unit, score, index });
+      candidates.push({ field, letter, header, unit, score, index });
     }
   }
   candidates.sort(

@@ -121,8 +121,9 @@ const mappingObjectSchema = z.object({
       concentration: z.enum(CONCENTRATION_UNITS).default('uM'),
       controlCurrent: z.enum(CURRENT_UNITS).default('pA'),
       compoundCurrent: z.enum(CURRENT_UNITS).default('pA'),
-      useDependentControlCurrent: z.enum(CURRENT_UNITS).default('pA'),
-      useDependentCompoundCurrent: z.enum(CURRENT_UNITS).default('pA'),
+      /** Units of the use-dependent currents; left out: those of the tonic currents. */
+      useDependentControlCurrent: z.enum(CURRENT_UNITS).optional(),
+      useDependentCompoundCurrent: z.enum(CURRENT_UNITS).optional(),
       sealResistance: z.enum(RESISTANCE_UNITS).default('GOhm'),
       seriesResistance: z.enum(RESISTANCE_UNITS).default('MOhm'),
       capacitance: z.enum(CAPACITANCE_UNITS).default('pF'),

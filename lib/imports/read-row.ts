@@ -149,12 +149,18 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
       else report('useDependentBlock', read.code, `${FIELD_LABEL.useDependentBlock}: ${read.detail}.`);
     }
     const udControl = ctx.columns.useDependentControlCurrent
-      ? quantity('useDependentControlCurrent', currentUnit(units.useDependentControlCurrent))
+      ? quantity(
+          'useDependentControlCurrent',
+          currentUnit(units.useDependentControlCurrent ?? units.controlCurrent),
+        )
       : controlCurrent_pA;
     useDependent = {
       controlCurrent_pA: udControl,
       compoundCurrent_pA: ctx.columns.useDependentCompoundCurrent
-        ? quantity('useDependentCompoundCurrent', currentUnit(units.useDependentCompoundCurrent))
+        ? quantity(
+            'useDependentCompoundCurrent',
+            currentUnit(units.useDependentCompoundCurrent ?? units.compoundCurrent),
+          )
         : null,
       ...(udBlockGiven ? { givenBlock: udBlock } : {}),
     };

@@ -12,7 +12,7 @@ export interface HeaderReadout {
   rest: string;
 }
 
-const TONIC_WORDS = new Set(['tonic', 'resting', 'rest', 'first', 'initial']);
+const TONIC_WORDS = new Set(['tonic', 'resting', 'rest', 'first']);
 const USE_WORDS = new Set([
   'usedependent',
   'usedep',
@@ -26,7 +26,6 @@ const USE_WORDS = new Set([
   'ud',
   'nth',
   'last',
-  'final',
 ]);
 const PULSE_WORDS = new Set(['pulse', 'pulses', 'sweep', 'step', 'stimulus']);
 
