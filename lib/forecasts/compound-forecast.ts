@@ -45,7 +45,9 @@ export async function getCompoundForecast(
   }
   const chosen = new Map(profile.potencies.map((f) => [f.targetId, f]));
   const latest = new Map<string, ProfileFit>();
-  for (const f of profile.fits) if (!latest.has(f.targetId)) latest.set(f.targetId, f);
+  // The forecast reads each target's tonic fit (the use-dependent one is not yet part of it).
+  for (const f of profile.fits)
+    if (f.readout === 'tonic' && !latest.has(f.targetId)) latest.set(f.targetId, f);
   const targets = [...latest.values()].map((f) => ({
     id: f.targetId,
     name: f.target,

@@ -23,7 +23,9 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
   const exposures_uM = [...header.exposures_uM].sort((a, b) => a - b);
   const plate = { id: header.id, label: header.label, state: header.state };
   const byCompound = new Map<string, { compound: string; fits: Map<string, FitRow> }>();
+  // The forecast reads each target's tonic fit (the use-dependent one is not yet part of it).
   for (const fit of fits) {
+    if (fit.readout !== 'tonic') continue;
     const entry = byCompound.get(fit.compoundId) ?? { compound: fit.compound, fits: new Map() };
     entry.fits.set(fit.targetId, fit);
     byCompound.set(fit.compoundId, entry);
