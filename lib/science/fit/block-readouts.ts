@@ -1,7 +1,7 @@
 // The moments at which an instrument reads block (issue 20 point 2). A screen's target reports one readout
 // (tonic) unless the screen names a second, use-dependent one: block at the n-th pulse of a train or at a
 // depolarised holding potential, where a state-dependent blocker binds inactivated channels. In the
-// modulated-receptor model (Bean, Cohen & Kuo 1983, J Gen Physiol 81:613) the tonic IC50 estimates the
+// modulated-receptor model (Bean, Cohen & Tsien 1983, J Gen Physiol 81:613) the tonic IC50 estimates the
 // resting-state affinity Kr and the use-dependent IC50 the inactivated-state affinity Ki.
 
 /** Every block readout, the tonic one first; a target with one readout has only the tonic one. */
