@@ -76,10 +76,11 @@ beforeAll(async () => {
     label: 'GWX-0201',
   }));
   await fitsCurrent(plateId);
-  [{ id: compoundId }] = await db().query<{ id: string }>(
+  const [compound] = await db().query<{ id: string }>(
     `select id from compounds where identifier = 'GW-0001'`,
     { type: QueryTypes.SELECT },
   );
+  compoundId = compound!.id;
   fits = await db().query(
     `select t.name as target, f.readout, f.ic50_um as ic50 from fits f join targets t on t.id = f.target_id
       where f.plate_id = :plateId and f.compound_id = :compoundId and f.status = 'fitted'`,
