@@ -134,9 +134,7 @@ export async function addTarget(actor: Actor, screenId: string, input: TargetInp
     const target = await Target.create(
       { ...fields, blockReadouts, conductanceByPreset, screenId },
       { transaction },
-    ).catch(
-      (e) => conflict(e, `This screen already has a target named ${input.name}.`, 'name'),
-    );
+    ).catch((e) => conflict(e, `This screen already has a target named ${input.name}.`, 'name'));
     await recordAudit(
       {
         actorId: actor.id,
