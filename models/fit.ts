@@ -8,7 +8,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 
-import type { FitModel, FitStatus } from '@/lib/domain/fits';
+import type { BlockReadout, FitModel, FitStatus } from '@/lib/domain/fits';
 
 /** The Hill fit of one compound on one target of one plate. */
 export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit>> {
@@ -16,6 +16,8 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
   declare plateId: string;
   declare compoundId: string;
   declare targetId: string;
+  /** Which of the target's block readouts was fitted (tonic unless the screen names a use-dependent one). */
+  declare readout: CreationOptional<BlockReadout>;
   declare model: CreationOptional<FitModel>;
   declare status: FitStatus;
   declare message: CreationOptional<string>;
@@ -45,6 +47,7 @@ export class Fit extends Model<InferAttributes<Fit>, InferCreationAttributes<Fit
         plateId: { type: DataTypes.UUID, allowNull: false },
         compoundId: { type: DataTypes.UUID, allowNull: false },
         targetId: { type: DataTypes.UUID, allowNull: false },
+        readout: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'tonic' },
         model: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'hill2' },
         status: { type: DataTypes.TEXT, allowNull: false },
         message: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },

@@ -7,6 +7,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
+import type { BlockReadout } from '@/lib/domain/fits';
 
 /** One QC reason on a readout: a stable code and a message for people. */
 export interface QcReason {
@@ -29,6 +30,8 @@ export class Readout extends Model<InferAttributes<Readout>, InferCreationAttrib
   declare concentration_uM: CreationOptional<number | null>;
   declare fractionalBlock: number | null;
   declare qcReasons: CreationOptional<QcReason[]>;
+  /** Which of the target's block readouts this is (tonic unless the screen names a use-dependent one). */
+  declare readout: CreationOptional<BlockReadout>;
 
   static initModel(sequelize: Sequelize): void {
     Readout.init(
@@ -43,6 +46,7 @@ export class Readout extends Model<InferAttributes<Readout>, InferCreationAttrib
         concentration_uM: { type: DataTypes.DOUBLE, allowNull: true, field: 'concentration_um' },
         fractionalBlock: { type: DataTypes.DOUBLE, allowNull: true },
         qcReasons: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        readout: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'tonic' },
       },
       { sequelize, tableName: 'readouts', underscored: true, timestamps: false },
     );

@@ -7,6 +7,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
+import type { TargetReadoutNames } from '@/lib/domain/fits';
 
 /**
  * A current measured in a screen, mapped to one conductance of the screen's neuron preset
@@ -20,6 +21,8 @@ export class Target extends Model<InferAttributes<Target>, InferCreationAttribut
   declare conductance: string;
   declare conductanceByPreset: CreationOptional<Record<string, string>>;
   declare description: CreationOptional<string>;
+  /** The names of the target's block readouts ({}: one readout, the tonic one). */
+  declare blockReadouts: CreationOptional<TargetReadoutNames>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -32,6 +35,7 @@ export class Target extends Model<InferAttributes<Target>, InferCreationAttribut
         conductance: { type: DataTypes.TEXT, allowNull: false },
         conductanceByPreset: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        blockReadouts: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -41,7 +41,9 @@ Reads a plate export, checks it as the import's check step does, and stores the 
   --label L           the plate's label (else the barcode found in the file, else the file's name)
   --dry-run           check only; store nothing
   --json              print one JSON object (the check's facts; plateId when stored); \`plates\` lists
-                      every plate of the file with its facts (plateLabel, wellCount, roleCounts, …)
+                      every plate of the file with its facts (plateLabel, wellCount, roleCounts, …);
+                      \`readouts\` lists each target's block readouts (["tonic"], or ["tonic",
+                      "use_dependent"] when the mapping maps a use-dependent block)
   --offline           no database: the guessed mapping or --mapping, no registry (implies --dry-run;
                       not with --template)
   --help              this text

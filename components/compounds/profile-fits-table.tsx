@@ -1,6 +1,7 @@
 import { AppLink } from '@/components/ui/app-link';
 import { StateBadge } from '@/components/ui/state-badge';
 import type { ProfileFit } from '@/lib/compounds/profile-fits';
+import { readoutText } from '@/lib/domain/fits';
 
 const STATUS_TEXT: Record<ProfileFit['status'], string> = {
   fitted: 'Fitted',
@@ -65,6 +66,11 @@ export function ProfileFitsTable({ fits, standing }: { fits: ProfileFit[]; stand
               </td>
               <td className="px-3 py-2">
                 {f.target} <span className="font-mono text-xs text-ink-500">{f.conductance}</span>
+                {f.readoutName !== null || f.readout !== 'tonic' ? (
+                  <span className="block text-xs text-ink-500">
+                    {readoutText(f.readout, f.readoutName)} block
+                  </span>
+                ) : null}
               </td>
               <td className="px-3 py-2 text-right tabular-nums whitespace-nowrap">{ic50Text(f)}</td>
               <td className="px-3 py-2 text-right tabular-nums">{sig(f.hill)}</td>

@@ -6,9 +6,14 @@ import type { FitView, WellRowView } from '@/lib/validation/plates';
 import { splitCurve, testedRange, type CurvePoint } from './curve-parts';
 
 const W = 420;
-const H = 330;
+const BASE_H = 330;
 const LEGEND_H = 62;
-const M = { top: 12, right: 14, bottom: 40 + LEGEND_H, left: 50 };
+/** Legend rows a second (use-dependent) fit adds: its curve, beyond its range, its wells. */
+const SECOND_LEGEND_H = 34;
+const BASE_M = { top: 12, right: 14, bottom: 40 + LEGEND_H, left: 50 };
+/** The use-dependent fit: its own colour, dash-dotted within its tested range, dotted beyond, square wells. */
+const SECOND = '#9d2a6b';
+const SECOND_DASH = '9 3 2 3';
 const BAND = '#2a9d9f';
 const CURVE = '#0b4f53';
 const EXCLUDED = '#3b4a59';
@@ -16,24 +21,29 @@ const FAILED = '#c2410c';
 
 /** The plot's legend, drawn inside the SVG so that a downloaded file carries it. */
 function Legend({
+  top,
   hasCurve,
   hasBand,
   extrapolated,
   excluded,
   failed,
+  names,
 }: {
+  top: number;
   hasCurve: boolean;
   hasBand: boolean;
   extrapolated: boolean;
   excluded: boolean;
   failed: boolean;
+  /** With a second fit: the name of each readout (tonic first). */
+  names: { tonic: string; useDependent: string } | null;
 }) {
   const items: { key: string; label: string; mark: ReactNode }[] = [
     ...(hasCurve
       ? [
           {
             key: 'within',
-            label: 'Fitted curve, tested range',
+            label: names ? `${names.tonic}: fitted, tested range` : 'Fitted curve, tested range',
             mark: <line x1={0} x2={22} y1={0} y2={0} stroke={CURVE} strokeWidth={2.2} />,
           },
         ]
@@ -59,6 +69,37 @@ function Legend({
         ]
       : []),
     { key: 'used', label: 'Well used in the fit', mark: <circle cx={11} cy={0} r={3.5} fill="#12202f" /> },
+    ...(names
+      ? [
+          {
+            key: 'second-within',
+            label: `${names.useDependent}: fitted, tested range`,
+            mark: (
+              <line
+                x1={0}
+                x2={22}
+                y1={0}
+                y2={0}
+                stroke={SECOND}
+                strokeWidth={2.2}
+                strokeDasharray={SECOND_DASH}
+              />
+            ),
+          },
+          {
+            key: 'second-beyond',
+            label: `${names.useDependent}: beyond range`,
+            mark: (
+              <line x1={0} x2={22} y1={0} y2={0} stroke={SECOND} strokeWidth={1.4} strokeDasharray="2 3" />
+            ),
+          },
+          {
+            key: 'second-used',
+            label: `${names.useDependent}: well (square)`,
+            mark: <rect x={7.5} y={-3.5} width={7} height={7} fill={SECOND} />,
+          },
+        ]
+      : []),
     ...(excluded
       ? [
           {
@@ -78,13 +119,12 @@ function Legend({
         ]
       : []),
   ];
-  const top = H - LEGEND_H + 8;
   return (
     <g data-plot-legend="" aria-label="Legend">
       {items.map((item, i) => (
         <g
           key={item.key}
-          transform={`translate(${M.left - 30 + (i % 2) * 190} ${top + Math.floor(i / 2) * 17})`}
+          transform={`translate(${BASE_M.left - 30 + (i % 2) * 190} ${top + Math.floor(i / 2) * 17})`}
         >
           {item.mark}
           <text x={28} y={3.5} fontSize={10.5} fill="#2b4157">
@@ -105,16 +145,28 @@ export function DoseResponsePlot({
   fit: view,
   points,
   id,
+  useDependent: second,
 }: {
   fit: FitView;
   points: WellRowView[];
   id?: string;
+  /** The use-dependent fit of the same compound and target with its wells, drawn with the tonic one. */
+  useDependent?: { fit: FitView; points: WellRowView[] } | undefined;
 }) {
-  // The curve and band are worked out here from the fit's estimates (the fits answer carries no points).
+  // The curves and bands are worked out here from the fits' estimates (the fits answer carries no points).
   const fit = { ...view, curve: fitCurve(view.model, view.curveBasis) };
-  const concentrations = points.map((p) => p.concentration_uM!).filter((c) => c > 0);
-  const lo = Math.min(...concentrations, ...(fit.curve.length ? [fit.curve[0]!.concentration_uM] : []));
-  const hi = Math.max(...concentrations, ...(fit.curve.length ? [fit.curve.at(-1)!.concentration_uM] : []));
+  const useDependent = second
+    ? { ...second, fit: { ...second.fit, curve: fitCurve(second.fit.model, second.fit.curveBasis) } }
+    : undefined;
+  const extra = useDependent ? SECOND_LEGEND_H : 0;
+  const H = BASE_H + extra;
+  const M = { ...BASE_M, bottom: BASE_M.bottom + extra };
+  const curves = [fit.curve, ...(useDependent ? [useDependent.fit.curve] : [])].filter((c) => c.length > 0);
+  const concentrations = [...points, ...(useDependent?.points ?? [])]
+    .map((p) => p.concentration_uM!)
+    .filter((c) => c > 0);
+  const lo = Math.min(...concentrations, ...curves.map((c) => c[0]!.concentration_uM));
+  const hi = Math.max(...concentrations, ...curves.map((c) => c.at(-1)!.concentration_uM));
   const x = scaleLog()
     .domain([lo, hi])
     .range([M.left, W - M.right])
@@ -136,7 +188,23 @@ export function DoseResponsePlot({
   const drawn = points.filter(
     (p) => p.concentration_uM && p.concentration_uM > 0 && p.fractionalBlock !== null,
   );
-  const label = `${fit.compound} on ${fit.target}: ${fit.message}`;
+  const names = useDependent
+    ? {
+        tonic: fit.readoutName ?? 'tonic',
+        useDependent: useDependent.fit.readoutName ?? 'use-dependent',
+      }
+    : null;
+  const secondRange = useDependent ? testedRange(useDependent.points) : null;
+  const secondParts =
+    useDependent && secondRange
+      ? splitCurve(useDependent.fit.curve, secondRange.lo_uM, secondRange.hi_uM)
+      : null;
+  const secondDrawn = (useDependent?.points ?? []).filter(
+    (p) => p.concentration_uM && p.concentration_uM > 0 && p.fractionalBlock !== null,
+  );
+  const label = names
+    ? `${fit.compound} on ${fit.target}, ${names.tonic} and ${names.useDependent}: ${fit.message} ${useDependent!.fit.message}`
+    : `${fit.compound} on ${fit.target}: ${fit.message}`;
   return (
     <svg
       id={id}
@@ -241,6 +309,51 @@ export function DoseResponsePlot({
           </text>
         </g>
       ) : null}
+      {secondParts ? (
+        <g data-readout="use_dependent">
+          {(['below', 'above'] as const).map((key) =>
+            secondParts[key].length ? (
+              <path
+                key={key}
+                d={curve(secondParts[key]) ?? ''}
+                fill="none"
+                stroke={SECOND}
+                strokeWidth={1.4}
+                strokeDasharray="2 3"
+                data-part={`use-dependent-${key}`}
+              />
+            ) : null,
+          )}
+          {secondParts.within.length ? (
+            <path
+              d={curve(secondParts.within) ?? ''}
+              fill="none"
+              stroke={SECOND}
+              strokeWidth={2.2}
+              strokeDasharray={SECOND_DASH}
+              data-part="use-dependent-within"
+            />
+          ) : null}
+        </g>
+      ) : null}
+      {secondDrawn.map((p) => {
+        const used = !p.excluded && p.qcReasons.length === 0;
+        return (
+          <rect
+            key={p.readoutId}
+            x={x(p.concentration_uM!) - 3.5}
+            y={y(Math.max(-0.2, Math.min(1.2, p.fractionalBlock!))) - 3.5}
+            width={7}
+            height={7}
+            fill={used ? SECOND : '#ffffff'}
+            stroke={SECOND}
+            strokeWidth={used ? 1 : 1.6}
+            data-well={used ? 'use-dependent' : 'use-dependent-left-out'}
+          >
+            <title>{`${p.position}, ${names!.useDependent}: ${(p.fractionalBlock! * 100).toFixed(1)} % at ${p.concentration_uM!.toPrecision(3)} µM${used ? '' : ' (left out)'}`}</title>
+          </rect>
+        );
+      })}
       {drawn.map((p) => {
         const kind = p.excluded ? 'excluded' : p.qcReasons.length ? 'failed' : 'used';
         return (
@@ -259,6 +372,8 @@ export function DoseResponsePlot({
         );
       })}
       <Legend
+        top={H - LEGEND_H - extra + 8}
+        names={names}
         hasCurve={Boolean(parts?.within.length)}
         hasBand={hasBand}
         extrapolated={Boolean(parts?.below.length || parts?.above.length)}

@@ -7,6 +7,7 @@ import type { FitView } from '@/lib/validation/plates';
 import { DataTable } from '@/components/ui/data-table';
 import { plateJobsKey } from '@/components/plates/plate-jobs';
 import { SvgDownloadButton } from '@/components/ui/svg-download-button';
+import { BLOCK_READOUT_LABEL, READOUT_RATIO_MEANING, readoutRatio } from '@/lib/domain/fits';
 import { DoseResponsePlot } from './dose-response-plot';
 
 const STATUS_TEXT: Record<FitView['status'], string> = {
@@ -24,6 +25,30 @@ function ic50Text(fit: FitView): string {
     return `${num(fit.ic50_uM)} µM (95 % CI ${num(fit.ic50CiLow_uM)}–${num(fit.ic50CiHigh_uM)})`;
   if (fit.ic50LowerBound_uM !== null) return `> ${num(fit.ic50LowerBound_uM)} µM`;
   return '—';
+}
+
+/** A readout's name for people: the screen's name, else the readout's own words. */
+const readoutText = (f: FitView) => f.readoutName ?? BLOCK_READOUT_LABEL[f.readout];
+
+/** The compound × target pairs of the plate with both readouts fitted, tonic first. */
+function readoutPairs(fits: readonly FitView[]): { tonic: FitView; useDependent: FitView }[] {
+  return fits.flatMap((tonic) => {
+    if (tonic.readout !== 'tonic') return [];
+    const useDependent = fits.find(
+      (f) =>
+        f.readout === 'use_dependent' && f.compoundId === tonic.compoundId && f.targetId === tonic.targetId,
+    );
+    return useDependent ? [{ tonic, useDependent }] : [];
+  });
+}
+
+/** The ratio tonic IC50 ÷ use-dependent IC50 as text, or why there is none. */
+function ratioText(pair: { tonic: FitView; useDependent: FitView }): string {
+  const ratio = readoutRatio(
+    pair.tonic.status === 'fitted' ? pair.tonic.ic50_uM : null,
+    pair.useDependent.status === 'fitted' ? pair.useDependent.ic50_uM : null,
+  );
+  return ratio === null ? 'no ratio: an IC50 is not an estimate' : `${ratio.toPrecision(3)}×`;
 }
 
 /** Every compound × target fit of the plate: plot, numbers, status and the model switch. */
@@ -71,11 +96,44 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
       <p className="text-sm text-ink-700">This plate has no test compounds to fit.</p>
     );
   }
+  const pairs = readoutPairs(fits.data.fits);
+  const twoReadouts = fits.data.fits.some((f) => f.readout === 'use_dependent');
+  // A use-dependent fit is drawn on its tonic fit's card; one without a tonic fit has a card of its own.
+  const cards = fits.data.fits.filter(
+    (f) => f.readout === 'tonic' || !pairs.some((p) => p.useDependent.id === f.id),
+  );
+  const wellsOf = (f: FitView) =>
+    allWells.filter(
+      (w) => w.compoundId === f.compoundId && w.targetId === f.targetId && w.readout === f.readout,
+    );
   return (
     <div className="space-y-4">
       <p role="status" aria-live="polite" className="min-h-5 text-sm text-signal-fail">
         {message}
       </p>
+      {pairs.length ? (
+        <section aria-labelledby="use-dependence-heading" className="space-y-2">
+          <h3 id="use-dependence-heading" className="font-semibold">
+            Use dependence
+          </h3>
+          <p className="text-sm text-ink-700">{READOUT_RATIO_MEANING}</p>
+          <DataTable
+            caption="Tonic and use-dependent IC50 per compound and target"
+            rows={pairs}
+            rowKey={(p) => p.tonic.id}
+            columns={[
+              { header: 'Compound', cell: (p) => <span className="font-mono">{p.tonic.compound}</span> },
+              { header: 'Target', cell: (p) => p.tonic.target },
+              { header: 'Tonic IC50', cell: (p) => `${readoutText(p.tonic)}: ${ic50Text(p.tonic)}` },
+              {
+                header: 'Use-dependent IC50',
+                cell: (p) => `${readoutText(p.useDependent)}: ${ic50Text(p.useDependent)}`,
+              },
+              { header: 'Tonic ÷ use-dependent', cell: (p) => ratioText(p), align: 'right' },
+            ]}
+          />
+        </section>
+      ) : null}
       <DataTable
         caption="Fit results"
         rows={fits.data.fits}
@@ -90,6 +148,7 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
             ),
           },
           { header: 'Target', cell: (f) => f.target },
+          ...(twoReadouts ? [{ header: 'Readout', cell: (f: FitView) => readoutText(f) }] : []),
           { header: 'Model', cell: (f) => (f.model === 'hill2' ? '2-parameter' : '4-parameter') },
           { header: 'Status', cell: (f) => STATUS_TEXT[f.status] },
           { header: 'IC50', cell: (f) => ic50Text(f) },
@@ -105,74 +164,89 @@ export function FitsPanel({ plateId, canEdit }: { plateId: string; canEdit: bool
         ]}
       />
       <div className="grid gap-4 lg:grid-cols-2 2xl:grid-cols-3">
-        {fits.data.fits.map((fit) => (
-          <article key={fit.id} className="gw-card p-4" aria-labelledby={`fit-${fit.id}`}>
-            <header className="flex items-baseline justify-between gap-2">
-              <h3 id={`fit-${fit.id}`} className="font-semibold">
-                <span className="font-mono">{fit.compound}</span> · {fit.target}
-              </h3>
-              <span
-                className={`text-xs font-semibold ${fit.status === 'fitted' ? 'text-signal-pass' : fit.status === 'not_converged' ? 'text-signal-fail' : 'text-signal-warn'}`}
-              >
-                {STATUS_TEXT[fit.status]}
-              </span>
-            </header>
-            <DoseResponsePlot
-              id={`plot-${fit.id}`}
-              fit={fit}
-              points={allWells.filter((w) => w.compoundId === fit.compoundId && w.targetId === fit.targetId)}
-            />
-            <div className="mb-2 flex justify-end">
-              <SvgDownloadButton
-                targetId={`plot-${fit.id}`}
-                filename={`${fit.compound}-${fit.target}-dose-response.svg`.replace(/[^\w.-]+/g, '_')}
-                label={`Download SVG of ${fit.compound} on ${fit.target}`}
+        {cards.map((fit) => {
+          const pair = pairs.find((p) => p.tonic.id === fit.id);
+          return (
+            <article key={fit.id} className="gw-card p-4" aria-labelledby={`fit-${fit.id}`}>
+              <header className="flex items-baseline justify-between gap-2">
+                <h3 id={`fit-${fit.id}`} className="font-semibold">
+                  <span className="font-mono">{fit.compound}</span> · {fit.target}
+                  {twoReadouts && !pair ? ` · ${readoutText(fit)}` : ''}
+                </h3>
+                <span
+                  className={`text-xs font-semibold ${fit.status === 'fitted' ? 'text-signal-pass' : fit.status === 'not_converged' ? 'text-signal-fail' : 'text-signal-warn'}`}
+                >
+                  {STATUS_TEXT[fit.status]}
+                </span>
+              </header>
+              <DoseResponsePlot
+                id={`plot-${fit.id}`}
+                fit={fit}
+                points={wellsOf(fit)}
+                useDependent={
+                  pair ? { fit: pair.useDependent, points: wellsOf(pair.useDependent) } : undefined
+                }
               />
-            </div>
-            <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
-              <dt className="text-ink-500">IC50</dt>
-              <dd className="tabular-nums">{ic50Text(fit)}</dd>
-              <dt className="text-ink-500">Hill slope</dt>
-              <dd className="tabular-nums">{num(fit.hill)}</dd>
-              {fit.model === 'hill4' ? (
-                <>
-                  <dt className="text-ink-500">Bottom / top</dt>
-                  <dd className="tabular-nums">
-                    {num(fit.bottom)} / {num(fit.top)}
-                  </dd>
-                </>
-              ) : null}
-              <dt className="text-ink-500">R² · residual SD</dt>
-              <dd className="tabular-nums">
-                {num(fit.r2)} · {num(fit.residualSd, 2)}
-              </dd>
-              <dt className="text-ink-500">Wells used</dt>
-              <dd className="tabular-nums">{fit.n}</dd>
-            </dl>
-            <p className="mt-2 text-xs text-ink-700">{fit.message}</p>
-            {fit.flags.map((f) => (
-              <p key={f.code} className="text-xs text-signal-warn">
-                {f.message}
-              </p>
-            ))}
-            <fieldset className="mt-3 flex items-center gap-3 text-sm" disabled={!editable}>
-              <legend className="sr-only">
-                Model for {fit.compound} on {fit.target}
-              </legend>
-              {(['hill2', 'hill4'] as const).map((model) => (
-                <label key={model} className="inline-flex items-center gap-1">
-                  <input
-                    type="radio"
-                    name={`model-${fit.id}`}
-                    checked={fit.model === model}
-                    onChange={() => switchModel(fit, model)}
-                  />
-                  {model === 'hill2' ? '2 parameters (bottom 0, top 1)' : '4 parameters'}
-                </label>
+              <div className="mb-2 flex justify-end">
+                <SvgDownloadButton
+                  targetId={`plot-${fit.id}`}
+                  filename={`${fit.compound}-${fit.target}-dose-response.svg`.replace(/[^\w.-]+/g, '_')}
+                  label={`Download SVG of ${fit.compound} on ${fit.target}`}
+                />
+              </div>
+              <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
+                <dt className="text-ink-500">{pair ? `IC50, ${readoutText(fit)}` : 'IC50'}</dt>
+                <dd className="tabular-nums">{ic50Text(fit)}</dd>
+                {pair ? (
+                  <>
+                    <dt className="text-ink-500">IC50, {readoutText(pair.useDependent)}</dt>
+                    <dd className="tabular-nums">{ic50Text(pair.useDependent)}</dd>
+                    <dt className="text-ink-500">Tonic ÷ use-dependent</dt>
+                    <dd className="tabular-nums">{ratioText(pair)}</dd>
+                  </>
+                ) : null}
+                <dt className="text-ink-500">Hill slope</dt>
+                <dd className="tabular-nums">{num(fit.hill)}</dd>
+                {fit.model === 'hill4' ? (
+                  <>
+                    <dt className="text-ink-500">Bottom / top</dt>
+                    <dd className="tabular-nums">
+                      {num(fit.bottom)} / {num(fit.top)}
+                    </dd>
+                  </>
+                ) : null}
+                <dt className="text-ink-500">R² · residual SD</dt>
+                <dd className="tabular-nums">
+                  {num(fit.r2)} · {num(fit.residualSd, 2)}
+                </dd>
+                <dt className="text-ink-500">Wells used</dt>
+                <dd className="tabular-nums">{fit.n}</dd>
+              </dl>
+              <p className="mt-2 text-xs text-ink-700">{fit.message}</p>
+              {fit.flags.map((f) => (
+                <p key={f.code} className="text-xs text-signal-warn">
+                  {f.message}
+                </p>
               ))}
-            </fieldset>
-          </article>
-        ))}
+              <fieldset className="mt-3 flex items-center gap-3 text-sm" disabled={!editable}>
+                <legend className="sr-only">
+                  Model for {fit.compound} on {fit.target}
+                </legend>
+                {(['hill2', 'hill4'] as const).map((model) => (
+                  <label key={model} className="inline-flex items-center gap-1">
+                    <input
+                      type="radio"
+                      name={`model-${fit.id}`}
+                      checked={fit.model === model}
+                      onChange={() => switchModel(fit, model)}
+                    />
+                    {model === 'hill2' ? '2 parameters (bottom 0, top 1)' : '4 parameters'}
+                  </label>
+                ))}
+              </fieldset>
+            </article>
+          );
+        })}
       </div>
     </div>
   );

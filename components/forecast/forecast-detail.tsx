@@ -1,4 +1,5 @@
 import type { CompoundForecast, TransitionView } from '@/lib/validation/forecasts';
+import { BlockModesTable } from './block-modes-table';
 import { FiPlot } from './fi-plot';
 import { MeasuresTable } from './measures-table';
 import { PotencyTable } from './potency-table';
@@ -95,6 +96,7 @@ export function ForecastDetail({
             referenceDrive={f.referenceDrive_uA_cm2}
             protocol={f.protocol}
           />
+          <BlockModesTable data={data} />
           <ExposureChoice
             name={`trace-at-${data.compoundId}`}
             exposures_uM={data.exposures_uM}

@@ -16,6 +16,8 @@ const UNIT_KIND: Record<UnitField, QuantityKind> = {
   concentration: 'concentration',
   controlCurrent: 'current',
   compoundCurrent: 'current',
+  useDependentControlCurrent: 'current',
+  useDependentCompoundCurrent: 'current',
   sealResistance: 'sealResistance',
   seriesResistance: 'seriesResistance',
   capacitance: 'capacitance',
@@ -93,7 +95,12 @@ export function MappingStep({
                   <select
                     aria-label={`Unit of ${FIELD_LABEL[field]}`}
                     className="gw-input"
-                    value={mapping.units[field]}
+                    value={
+                      mapping.units[field] ??
+                      (field === 'useDependentControlCurrent'
+                        ? mapping.units.controlCurrent
+                        : mapping.units.compoundCurrent)
+                    }
                     onChange={(e) => setUnit(field, e.target.value)}
                   >
                     {unitsOf(UNIT_KIND[field]).map((unit) => (

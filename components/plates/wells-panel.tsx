@@ -90,6 +90,10 @@ const QC_ANY = '';
 const QC_PASSED = ':passed';
 const QC_FAILED = ':failed';
 
+/** The target, and the readout when it is the use-dependent one, as the target choice names it. */
+const readoutChoice = (w: WellRowView): string =>
+  w.readout === 'use_dependent' ? `${w.target} · use-dependent` : w.target;
+
 /** Plate map and wells grid of one target, with exclusion and re-inclusion of selected wells. */
 export function WellsPanel({
   plateId,
@@ -105,7 +109,8 @@ export function WellsPanel({
 }) {
   const { data, error, isLoading } = usePlateWells(plateId);
   const { mutate } = useSWRConfig();
-  const targets = useMemo(() => [...new Set(data?.wells.map((w) => w.target))], [data]);
+  // A target with a use-dependent readout is shown once per readout (exclusions still act on the well).
+  const targets = useMemo(() => [...new Set(data?.wells.map(readoutChoice))], [data]);
   const [target, setTarget] = useState<string | null>(null);
   const [colouring, setColouring] = useState<MapMode>(initialMode);
   const [selected, setSelected] = useState<Set<string>>(new Set());
@@ -127,7 +132,7 @@ export function WellsPanel({
       </p>
     );
   const current = target ?? targets[0] ?? '';
-  const wells = data.wells.filter((w) => w.target === current);
+  const wells = data.wells.filter((w) => readoutChoice(w) === current);
   // The QC reasons of this target's wells, by code, for the grid's filter.
   const reasons = [...new Map(wells.flatMap((w) => w.qcReasons.map((q) => [q.code, q.message]))).entries()];
   const gridRows = wells.filter((w) =>

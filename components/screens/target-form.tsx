@@ -28,6 +28,18 @@ export function TargetForm({
         errors={e.conductance}
       />
       <Field label="Description" name="description" errors={e.description} />
+      <Field
+        label="Tonic readout name (optional)"
+        name="tonicReadoutName"
+        placeholder="tonic"
+        errors={e.tonicReadoutName}
+      />
+      <Field
+        label="Use-dependent readout name (blank: one readout)"
+        name="useDependentReadoutName"
+        placeholder="e.g. 10th pulse"
+        errors={e.useDependentReadoutName}
+      />
       <SubmitRow
         label="Add target"
         pendingLabel="Adding…"

@@ -1,6 +1,6 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
-import type { FitStatus } from '@/lib/domain/fits';
+import { readoutRatio, type FitStatus } from '@/lib/domain/fits';
 import { selectCompoundFits, type ProfileFit } from './queries';
 
 export type { ProfileFit } from './queries';
@@ -23,7 +23,31 @@ export function choosePotencies(fits: ProfileFit[]): Map<string, ProfileFit> {
     (a, b) => Number(b.approved) - Number(a.approved) || b.importedAt.localeCompare(a.importedAt),
   );
   for (const fit of ordered) {
+    if (fit.readout !== 'tonic') continue;
     if (!chosen.has(fit.targetId) && USABLE.includes(fit.status)) chosen.set(fit.targetId, fit);
   }
   return chosen;
+}
+
+/** A chosen tonic fit with the use-dependent fit of the same plate, compound and target, and their ratio. */
+export interface UseDependence {
+  tonic: ProfileFit;
+  useDependent: ProfileFit;
+  /** Tonic IC50 ÷ use-dependent IC50; null unless both are fitted estimates. */
+  ratio: number | null;
+}
+
+/** For each standing potency whose plate also fitted the use-dependent readout: both fits and their ratio. */
+export function pairUseDependence(
+  potencies: readonly ProfileFit[],
+  fits: readonly ProfileFit[],
+): UseDependence[] {
+  return potencies.flatMap((tonic) => {
+    const useDependent = fits.find(
+      (f) => f.readout === 'use_dependent' && f.plateId === tonic.plateId && f.targetId === tonic.targetId,
+    );
+    if (!useDependent) return [];
+    const estimate = (f: ProfileFit) => (f.status === 'fitted' ? f.ic50_uM : null);
+    return [{ tonic, useDependent, ratio: readoutRatio(estimate(tonic), estimate(useDependent)) }];
+  });
 }

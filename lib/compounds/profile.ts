@@ -3,7 +3,13 @@ import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { AppError } from '@/lib/errors';
 import { Compound, Screen } from '@/models';
-import { choosePotencies, listCompoundFits, type ProfileFit } from './profile-fits';
+import {
+  choosePotencies,
+  listCompoundFits,
+  pairUseDependence,
+  type ProfileFit,
+  type UseDependence,
+} from './profile-fits';
 import { selectivityRatios, type SelectivityRatio } from './selectivity';
 
 export interface ProfileScreen {
@@ -21,6 +27,8 @@ export interface CompoundProfile {
   /** The fit standing for each target's potency (approved plates first, then the newest plate). */
   potencies: ProfileFit[];
   selectivity: SelectivityRatio[];
+  /** Targets whose standing plate fitted both readouts: tonic and use-dependent IC50 and their ratio. */
+  useDependence: UseDependence[];
   screens: ProfileScreen[];
 }
 
@@ -48,6 +56,7 @@ export async function getCompoundProfile(actor: Actor, compoundId: string): Prom
     fits,
     potencies,
     selectivity: selectivityRatios(potencies),
+    useDependence: pairUseDependence(potencies, fits),
     screens: screens.map((s) => ({
       ...s,
       exposures_uM: [...s.exposures_uM].sort((a, b) => a - b),

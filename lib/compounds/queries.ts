@@ -1,6 +1,7 @@
 import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
+import type { BlockReadout } from '@/lib/domain/fits';
 import type { FitModel, FitStatus } from '@/lib/domain/fits';
 import type { PlateState } from '@/lib/domain/plate-states';
 
@@ -18,6 +19,9 @@ export interface ProfileFit {
   targetId: string;
   target: string;
   conductance: string;
+  /** The readout fitted, and the name the screen gives it (null: the target reports one readout). */
+  readout: BlockReadout;
+  readoutName: string | null;
   model: FitModel;
   status: FitStatus;
   message: string;
@@ -36,11 +40,12 @@ export async function selectCompoundFits(compoundId: string): Promise<ProfileFit
     `select f.id as "fitId", p.id as "plateId", p.label as "plateLabel", p.state as "plateState", (p.state = 'approved') as approved,
             to_char(p.imported_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "importedAt",
             s.id as "screenId", s.name as "screenName", t.id as "targetId", t.name as target, t.conductance,
+            f.readout, t.block_readouts ->> f.readout as "readoutName",
             f.model, f.status, f.message, f.ic50_um as "ic50_uM", f.ic50_ci_low_um as "ic50CiLow_uM", f.ic50_ci_high_um as "ic50CiHigh_uM",
             f.ic50_lower_bound_um as "ic50LowerBound_uM", f.hill, f.r2, f.n
        from fits f join plates p on p.id = f.plate_id join screens s on s.id = p.screen_id join targets t on t.id = f.target_id
       where f.compound_id = :compoundId
-      order by (p.state = 'approved') desc, p.imported_at desc, p.label, t.name`,
+      order by (p.state = 'approved') desc, p.imported_at desc, p.label, t.name, f.readout`,
     { type: QueryTypes.SELECT, replacements: { compoundId } },
   );
 }

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
 import { getCompoundProfile, type CompoundProfile } from '@/lib/compounds/profile';
+import { READOUT_RATIO_MEANING, readoutText } from '@/lib/domain/fits';
 import { PLATE_STATE_LABEL } from '@/lib/domain/plate-states';
 import { getCompoundForecast } from '@/lib/forecasts/compound-forecast';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
@@ -10,6 +11,13 @@ import { listPlateSignoffs, signoffLines, signoffTable } from './signoffs';
 
 function potencyTable(profile: CompoundProfile): ExportTable {
   const standing = new Set(profile.potencies.map((p) => p.fitId));
+  // The use-dependence ratio on the rows of both fits it comes from.
+  const ratioOf = new Map(
+    profile.useDependence.flatMap((u) => [
+      [u.tonic.fitId, u.ratio],
+      [u.useDependent.fitId, u.ratio],
+    ]),
+  );
   return {
     sheet: 'Potency across plates',
     key: 'potency',
@@ -19,6 +27,7 @@ function potencyTable(profile: CompoundProfile): ExportTable {
       'Plate state',
       'Approved',
       'Target',
+      'Readout',
       'Conductance',
       'Model',
       'Status',
@@ -31,6 +40,7 @@ function potencyTable(profile: CompoundProfile): ExportTable {
       'Wells used',
       'Stands for the target in this profile',
       'Message',
+      'Tonic IC50 ÷ use-dependent IC50',
     ],
     rows: profile.fits.map((f) => [
       f.plateLabel,
@@ -38,6 +48,7 @@ function potencyTable(profile: CompoundProfile): ExportTable {
       PLATE_STATE_LABEL[f.plateState],
       f.approved ? 'yes' : 'no, not yet approved',
       f.target,
+      readoutText(f.readout, f.readoutName),
       f.conductance,
       f.model === 'hill2' ? '2 parameters' : '4 parameters',
       f.status,
@@ -50,8 +61,9 @@ function potencyTable(profile: CompoundProfile): ExportTable {
       f.n,
       standing.has(f.fitId),
       f.message,
+      ratioOf.get(f.fitId) ?? null,
     ]),
-    note: 'Only fits on approved plates are results; fits on plates not yet approved are marked so.',
+    note: `Only fits on approved plates are results; fits on plates not yet approved are marked so.${profile.useDependence.length ? ` ${READOUT_RATIO_MEANING}` : ''}`,
   };
 }
 

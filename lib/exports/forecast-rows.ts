@@ -20,6 +20,7 @@ export const FORECAST_COLUMNS = [
   'Neuron preset',
   'Condition',
   'Concentration (µM)',
+  'Block mode',
   'Block (%)',
   'Rest (mV)',
   'Rheobase (µA/cm²)',
@@ -43,7 +44,7 @@ export const FORECAST_COLUMNS = [
   'Flags',
   'Potencies used',
   'Forecast input SHA-256',
-];
+] as const;
 
 /** Median, 2.5 % and 97.5 % of rheobase, threshold and rate (empty without a band; a rheobase quantile beyond the search ceiling is written as such). */
 function bandCells(c: ConditionView): Cell[] {
@@ -76,33 +77,49 @@ export function transitionText(t: TransitionView | null): string {
 
 const sigText = (v: number) => Number(v.toPrecision(3)).toString();
 
-/** Control and each exposure of one compound's forecast; a compound without a forecast gets one row saying why. */
+/** Words of the block-mode column: tonic block only, or state-dependent (modulated receptor). */
+export const BLOCK_MODE_WORDS = {
+  tonic: 'tonic only',
+  stateDependent: 'state-dependent (Kr tonic IC50, Ki use-dependent IC50)',
+} as const;
+
+/**
+ * Control and each exposure of one compound's forecast, tonic only and then, when it has one, with
+ * state-dependent block; a compound without a forecast gets one row saying why.
+ */
 export function forecastRows(f: CompoundForecast): Cell[][] {
-  const potencies = f.targets.map((t) => `${t.target} (${t.conductance}): ${t.note}`).join(' ');
+  const potencies = f.targets
+    .map(
+      (t) =>
+        `${t.target} (${t.conductance}): ${t.note}${t.stateDependence ? ` ${t.stateDependence.note}` : ''}`,
+    )
+    .join(' ');
   const head: Cell[] = [f.compound, f.screen.name, f.preset];
-  const view = f.forecast;
-  if (!view)
-    return [
-      [
-        ...head,
-        'No forecast',
-        null,
-        null,
-        null,
-        null,
-        null,
-        null,
-        null,
-        null,
-        null,
-        null,
-        null,
-        ...new Array<Cell>(11).fill(null),
-        f.reason,
-        potencies,
-        null,
-      ],
-    ];
+  if (!f.forecast) {
+    // One row saying why, its cells placed by column name (the reason under Flags).
+    const cells = new Array<Cell>(FORECAST_COLUMNS.length).fill(null);
+    const put = (column: (typeof FORECAST_COLUMNS)[number], value: Cell) => {
+      cells[FORECAST_COLUMNS.indexOf(column)] = value;
+    };
+    head.forEach((value, i) => (cells[i] = value));
+    put('Condition', 'No forecast');
+    put('Flags', f.reason);
+    put('Potencies used', potencies);
+    return [cells];
+  }
+  return [
+    ...modeRows(f.forecast, BLOCK_MODE_WORDS.tonic, head, potencies),
+    ...(f.stateDependent ? modeRows(f.stateDependent, BLOCK_MODE_WORDS.stateDependent, head, potencies) : []),
+  ];
+}
+
+/** Control and each exposure of one forecast, in one block mode. */
+function modeRows(
+  view: NonNullable<CompoundForecast['forecast']>,
+  mode: string,
+  head: Cell[],
+  potencies: string,
+): Cell[][] {
   const bandNotes = view.bands
     ? `${view.bands.method} ${view.bands.sources.map((s) => `${s.conductance}: ${s.note}`).join(' ')} ${transitionText(view.bands.transition)}`
     : 'No bands: stored before bands were computed.';
@@ -110,6 +127,7 @@ export function forecastRows(f: CompoundForecast): Cell[][] {
     ...head,
     name,
     c.concentration_uM,
+    mode,
     Object.entries(c.block)
       .filter(([, b]) => b > 0)
       .map(([g, b]) => `${g} ${(b * 100).toFixed(1)}`)
@@ -143,7 +161,7 @@ export function forecastTable(forecasts: CompoundForecast[], caution: string): E
   return {
     sheet: 'Forecast at exposures',
     key: 'forecast',
-    columns: FORECAST_COLUMNS,
+    columns: [...FORECAST_COLUMNS],
     rows: forecasts.flatMap(forecastRows),
     note: `Caution: ${caution}`,
   };

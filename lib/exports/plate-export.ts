@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
+import { readoutText } from '@/lib/domain/fits';
 import { PLATE_STATE_LABEL } from '@/lib/domain/plate-states';
 import { listPlateForecasts, getPlateForecast } from '@/lib/forecasts/plate-forecast';
 import { getPlateHeader, listPlateFits, listPlateWells } from '@/lib/plates/detail';
@@ -26,6 +27,7 @@ function wellsTable(wells: Awaited<ReturnType<typeof listPlateWells>>): ExportTa
       'Compound',
       'Concentration (µM)',
       'Target',
+      'Readout',
       'Control current (pA)',
       'Compound current (pA)',
       'Fractional block',
@@ -42,6 +44,7 @@ function wellsTable(wells: Awaited<ReturnType<typeof listPlateWells>>): ExportTa
       w.compound,
       w.concentration_uM,
       w.target,
+      readoutText(w.readout),
       w.controlCurrent_pA,
       w.compoundCurrent_pA,
       w.fractionalBlock,
@@ -62,6 +65,7 @@ function fitsTable(fits: Awaited<ReturnType<typeof listPlateFits>>): ExportTable
     columns: [
       'Compound',
       'Target',
+      'Readout',
       'Conductance',
       'Model',
       'Status',
@@ -81,6 +85,7 @@ function fitsTable(fits: Awaited<ReturnType<typeof listPlateFits>>): ExportTable
     rows: fits.map((f) => [
       f.compound,
       f.target,
+      readoutText(f.readout, f.readoutName),
       f.conductance,
       f.model === 'hill2' ? '2 parameters' : '4 parameters',
       FIT_STATUS_WORDS[f.status] ?? f.status,

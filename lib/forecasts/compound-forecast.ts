@@ -5,9 +5,9 @@ import type { ProfileFit } from '@/lib/compounds/profile-fits';
 import { AppError } from '@/lib/errors';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
 import type { CompoundForecast } from '@/lib/validation/forecasts';
-import { targetPotencies, type PotencyFit } from './potency';
+import { targetPotencies, type PotencyFit, type UseDependentFit } from './potency';
 import { planCompoundForecast } from './request';
-import { storedOrComputedForecast } from './store';
+import { storedOrComputedPair } from './store';
 import { potencyUncertainties, uncertaintyOf } from './uncertainty';
 import { forecastView } from './view';
 
@@ -45,7 +45,9 @@ export async function getCompoundForecast(
   }
   const chosen = new Map(profile.potencies.map((f) => [f.targetId, f]));
   const latest = new Map<string, ProfileFit>();
-  for (const f of profile.fits) if (!latest.has(f.targetId)) latest.set(f.targetId, f);
+  // Each target's tonic fit gives its potency (Kr); the use-dependent fit of the same plate, Ki.
+  for (const f of profile.fits)
+    if (f.readout === 'tonic' && !latest.has(f.targetId)) latest.set(f.targetId, f);
   const targets = [...latest.values()].map((f) => ({
     id: f.targetId,
     name: f.target,
@@ -55,7 +57,25 @@ export async function getCompoundForecast(
     const f = chosen.get(targetId) ?? latest.get(targetId);
     return f ? potencyFit(f) : undefined;
   };
-  const potencies = targetPotencies(screen.neuronPreset, targets, fitOf, screen.exposures_uM);
+  const useDependentOf = (targetId: string): UseDependentFit | undefined => {
+    const tonic = chosen.get(targetId) ?? latest.get(targetId);
+    const f = tonic
+      ? profile.fits.find(
+          (x) => x.readout === 'use_dependent' && x.plateId === tonic.plateId && x.targetId === targetId,
+        )
+      : undefined;
+    return f
+      ? {
+          fitId: f.fitId,
+          status: f.status,
+          model: f.model,
+          ic50_uM: f.ic50_uM,
+          hill: f.hill,
+          readoutName: f.readoutName,
+        }
+      : undefined;
+  };
+  const potencies = targetPotencies(screen.neuronPreset, targets, fitOf, screen.exposures_uM, useDependentOf);
   const plan = planCompoundForecast(
     screen.neuronPreset,
     potencies,
@@ -72,11 +92,14 @@ export async function getCompoundForecast(
     targets: potencies,
     caution: FORECAST_CAUTION,
   };
-  if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
-  const stored = await storedOrComputedForecast(
-    { plateId: null, compoundId, screenId: screen.id },
-    plan.request,
-    { requestedBy: actor.id },
-  );
-  return { ...base, reason: null, forecast: forecastView(stored, screen.exposures_uM) };
+  if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null, stateDependent: null };
+  const stored = await storedOrComputedPair({ plateId: null, compoundId, screenId: screen.id }, plan, {
+    requestedBy: actor.id,
+  });
+  return {
+    ...base,
+    reason: null,
+    forecast: forecastView(stored.tonic, screen.exposures_uM),
+    stateDependent: stored.stateDependent ? forecastView(stored.stateDependent, screen.exposures_uM) : null,
+  };
 }

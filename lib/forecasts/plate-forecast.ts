@@ -4,9 +4,9 @@ import { AppError } from '@/lib/errors';
 import { getPlateHeader, listPlateFits, type FitRow, type PlateHeader } from '@/lib/plates/detail';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
 import type { CompoundForecast, PlateForecastList, TargetPotency } from '@/lib/validation/forecasts';
-import { targetPotencies, type PotencyFit } from './potency';
+import { targetPotencies, type PotencyFit, type UseDependentFit } from './potency';
 import { planCompoundForecast } from './request';
-import { forecastInput, storedKeys, storedOrComputedForecast } from './store';
+import { forecastInput, storedKeys, storedOrComputedPair } from './store';
 import { potencyUncertainties, uncertaintyOf } from './uncertainty';
 import { forecastView } from './view';
 
@@ -22,35 +22,57 @@ async function plateContext(actor: Actor, plateId: string): Promise<PlateContext
   const fits = await listPlateFits(actor, plateId);
   const exposures_uM = [...header.exposures_uM].sort((a, b) => a - b);
   const plate = { id: header.id, label: header.label, state: header.state };
-  const byCompound = new Map<string, { compound: string; fits: Map<string, FitRow> }>();
+  const byCompound = new Map<
+    string,
+    { compound: string; fits: Map<string, FitRow>; useDependent: Map<string, FitRow> }
+  >();
+  // Each target's tonic fit gives its potency (Kr); its use-dependent fit, if any, Ki for the state-dependent case.
   for (const fit of fits) {
-    const entry = byCompound.get(fit.compoundId) ?? { compound: fit.compound, fits: new Map() };
-    entry.fits.set(fit.targetId, fit);
+    const entry = byCompound.get(fit.compoundId) ?? {
+      compound: fit.compound,
+      fits: new Map(),
+      useDependent: new Map(),
+    };
+    (fit.readout === 'tonic' ? entry.fits : entry.useDependent).set(fit.targetId, fit);
     byCompound.set(fit.compoundId, entry);
   }
-  const compounds = [...byCompound].map(([compoundId, { compound, fits: own }]) => ({
-    compoundId,
-    compound,
-    targets: targetPotencies(
-      header.neuronPreset,
-      header.targets,
-      (targetId) => {
-        const f = own.get(targetId);
-        return f
-          ? ({
-              fitId: f.id,
-              status: f.status,
-              model: f.model,
-              ic50_uM: f.ic50_uM,
-              hill: f.hill,
-              ic50LowerBound_uM: f.ic50LowerBound_uM,
-              plate,
-            } as PotencyFit)
-          : undefined;
-      },
-      exposures_uM,
-    ),
-  }));
+  const useDependentFit = (f: FitRow): UseDependentFit => ({
+    fitId: f.id,
+    status: f.status as UseDependentFit['status'],
+    model: f.model,
+    ic50_uM: f.ic50_uM,
+    hill: f.hill,
+    readoutName: f.readoutName,
+  });
+  const compounds = [...byCompound]
+    .filter(([, entry]) => entry.fits.size > 0)
+    .map(([compoundId, { compound, fits: own, useDependent }]) => ({
+      compoundId,
+      compound,
+      targets: targetPotencies(
+        header.neuronPreset,
+        header.targets,
+        (targetId) => {
+          const f = own.get(targetId);
+          return f
+            ? ({
+                fitId: f.id,
+                status: f.status,
+                model: f.model,
+                ic50_uM: f.ic50_uM,
+                hill: f.hill,
+                ic50LowerBound_uM: f.ic50LowerBound_uM,
+                plate,
+              } as PotencyFit)
+            : undefined;
+        },
+        exposures_uM,
+        (targetId) => {
+          const f = useDependent.get(targetId);
+          return f ? useDependentFit(f) : undefined;
+        },
+      ),
+    }));
   return { header, exposures_uM, compounds };
 }
 
@@ -70,10 +92,15 @@ export async function listPlateForecasts(actor: Actor, plateId: string): Promise
       ),
     ),
   );
+  // Each variant's keys: the tonic forecast's and, when it has one, the state-dependent one's.
   const keys = plans.map((variants) =>
-    variants.flatMap((p) => ('request' in p ? [forecastInput(p.request).inputSha256] : [])),
+    variants.flatMap((p) =>
+      'request' in p
+        ? [[p.request, ...(p.stateRequest ? [p.stateRequest] : [])].map((r) => forecastInput(r).inputSha256)]
+        : [],
+    ),
   );
-  const stored = await storedKeys(header.id, keys.flat());
+  const stored = await storedKeys(header.id, keys.flat(2));
   return {
     plate: { id: header.id, label: header.label, state: header.state },
     preset: header.neuronPreset,
@@ -83,7 +110,7 @@ export async function listPlateForecasts(actor: Actor, plateId: string): Promise
       return {
         ...c,
         reason: 'reason' in plan ? plan.reason : null,
-        stored: keys[i]!.some((k) => stored.has(k)),
+        stored: keys[i]!.some((variant) => variant.every((k) => stored.has(k))),
       };
     }),
     caution: FORECAST_CAUTION,
@@ -121,11 +148,16 @@ export async function getPlateForecast(
     targets: entry.targets,
     caution: FORECAST_CAUTION,
   };
-  if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null };
-  const stored = await storedOrComputedForecast(
+  if ('reason' in plan) return { ...base, reason: plan.reason, forecast: null, stateDependent: null };
+  const stored = await storedOrComputedPair(
     { plateId: header.id, compoundId, screenId: header.screenId },
-    plan.request,
+    plan,
     { here: options.here ?? false, requestedBy: actor.id },
   );
-  return { ...base, reason: null, forecast: forecastView(stored, exposures_uM) };
+  return {
+    ...base,
+    reason: null,
+    forecast: forecastView(stored.tonic, exposures_uM),
+    stateDependent: stored.stateDependent ? forecastView(stored.stateDependent, exposures_uM) : null,
+  };
 }

@@ -1,6 +1,7 @@
 import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '@/lib/db';
+import type { BlockReadout } from '@/lib/domain/fits';
 import type { ForecastResult } from '@/lib/science/forecast/assemble';
 
 // SQL: one null-safe match on the plate (`is not distinct from`, a profile forecast has none), oldest first.
@@ -43,6 +44,8 @@ export interface FitUncertaintyRow {
   plateId: string;
   compoundId: string;
   targetId: string;
+  /** The readout the fit is of: its wells are that readout's. */
+  readout: BlockReadout;
   model: 'hill2' | 'hill4';
   estimate: { covariance?: number[][] | null; degreesOfFreedom?: number } | null;
 }
@@ -51,24 +54,32 @@ export interface FitUncertaintyRow {
 export async function selectFitUncertainties(fitIds: string[]): Promise<FitUncertaintyRow[]> {
   if (fitIds.length === 0) return [];
   return db().query<FitUncertaintyRow>(
-    `select id, plate_id as "plateId", compound_id as "compoundId", target_id as "targetId", model, estimate
+    `select id, plate_id as "plateId", compound_id as "compoundId", target_id as "targetId", readout, model, estimate
        from fits where id in (:fitIds)`,
     { type: QueryTypes.SELECT, replacements: { fitIds } },
   );
 }
 
-// SQL: the wells a fit could use (test wells of its compound on its plate and target, not excluded, with a
-// block and no QC reason), for a bootstrap when its covariance is unusable.
+// SQL: the wells a fit could use (test wells of its compound on its plate, target and readout, not excluded,
+// with a block and no QC reason), for a bootstrap when its covariance is unusable.
 export async function selectFitWells(
-  fit: Pick<FitUncertaintyRow, 'plateId' | 'compoundId' | 'targetId'>,
+  fit: Pick<FitUncertaintyRow, 'plateId' | 'compoundId' | 'targetId' | 'readout'>,
 ): Promise<{ concentration_uM: number; block: number }[]> {
   return db().query<{ concentration_uM: number; block: number }>(
     `select w.concentration_um as "concentration_uM", r.fractional_block as block
        from wells w join readouts r on r.well_id = w.id
       where w.plate_id = :plateId and w.compound_id = :compoundId and r.target_id = :targetId
-        and not w.excluded and w.concentration_um is not null and r.fractional_block is not null
+        and r.readout = :readout and not w.excluded and w.concentration_um is not null and r.fractional_block is not null
         and jsonb_array_length(r.qc_reasons) = 0
       order by w.row_index, w.column_index`,
-    { type: QueryTypes.SELECT, replacements: fit },
+    {
+      type: QueryTypes.SELECT,
+      replacements: {
+        plateId: fit.plateId,
+        compoundId: fit.compoundId,
+        targetId: fit.targetId,
+        readout: fit.readout,
+      },
+    },
   );
 }

@@ -19,7 +19,13 @@ export const FORECAST_FI_CURVE = { points: 12, upToFactor: 3 } as const;
 export const TRACE_POINTS = 1200;
 
 export interface PlannedForecast {
+  /** Tonic block only: every potency at its (tonic) IC50. */
   request: ForecastRequest;
+  /**
+   * The same request with state-dependent block where a used potency has a use-dependent IC50 (Ki, the
+   * tonic IC50 then Kr; modulated receptor), or null when none has.
+   */
+  stateRequest: ForecastRequest | null;
   concentrations_uM: number[];
   traceConcentration_uM: number;
 }
@@ -60,28 +66,40 @@ export function planCompoundForecast(
   );
   const traceConcentration_uM = exposures_uM[at ?? exposures_uM.length - 1]!;
   const condition = concentrations_uM.findIndex((c) => isExposure(c, [traceConcentration_uM]));
-  return {
-    request: {
-      preset: preset as ForecastRequest['preset'],
-      potencies: Object.fromEntries(used.map((p) => [p.conductance, { ic50: p.ic50_uM!, hill: p.hill! }])),
-      concentrations: concentrations_uM,
-      concentrationUnit: 'µM',
-      protocol: { fiCurve: { ...FORECAST_FI_CURVE } },
-      trace: { condition, points: TRACE_POINTS },
-      uncertainty: {
-        seed: FORECAST_BAND_SEED,
-        draws: FORECAST_BAND_DRAWS,
-        // Bands at the exposures of interest only: 200 model runs per banded concentration, and the sweep's
-        // other points would multiply that several times over.
-        concentrations: exposures_uM.filter((c) => c > 0),
-        potencies: Object.fromEntries(
-          used.flatMap((p) =>
-            uncertainty?.[p.conductance] ? [[p.conductance, uncertainty[p.conductance]!]] : [],
-          ),
+  const request: ForecastRequest = {
+    preset: preset as ForecastRequest['preset'],
+    potencies: Object.fromEntries(used.map((p) => [p.conductance, { ic50: p.ic50_uM!, hill: p.hill! }])),
+    concentrations: concentrations_uM,
+    concentrationUnit: 'µM',
+    protocol: { fiCurve: { ...FORECAST_FI_CURVE } },
+    trace: { condition, points: TRACE_POINTS },
+    uncertainty: {
+      seed: FORECAST_BAND_SEED,
+      draws: FORECAST_BAND_DRAWS,
+      // Bands at the exposures of interest only: 200 model runs per banded concentration, and the sweep's
+      // other points would multiply that several times over.
+      concentrations: exposures_uM.filter((c) => c > 0),
+      potencies: Object.fromEntries(
+        used.flatMap((p) =>
+          uncertainty?.[p.conductance] ? [[p.conductance, uncertainty[p.conductance]!]] : [],
         ),
-      },
+      ),
     },
-    concentrations_uM,
-    traceConcentration_uM,
   };
+  // The same concentrations, bands and traces: only the Na inactivation shift of the potencies with Ki differs.
+  const withKi = used.filter((p) => p.stateDependence?.inactivatedIc50_uM != null);
+  const stateRequest: ForecastRequest | null = withKi.length
+    ? {
+        ...request,
+        potencies: Object.fromEntries(
+          used.map((p) => [
+            p.conductance,
+            p.stateDependence?.inactivatedIc50_uM != null
+              ? { ic50: p.ic50_uM!, hill: p.hill!, inactivatedIc50: p.stateDependence.inactivatedIc50_uM }
+              : { ic50: p.ic50_uM!, hill: p.hill! },
+          ]),
+        ),
+      }
+    : null;
+  return { request, stateRequest, concentrations_uM, traceConcentration_uM };
 }

@@ -151,3 +151,19 @@ export async function storedOrComputedForecast(
   }
   return { ...stored, reused: false };
 }
+
+/**
+ * The tonic-only forecast of a plan and, when it has one, its state-dependent twin (each its own stored
+ * input, so a tonic forecast stored before use-dependent readouts existed is reused as it is).
+ */
+export async function storedOrComputedPair(
+  owner: ForecastOwner,
+  plan: { request: ForecastRequest; stateRequest: ForecastRequest | null },
+  options: { here?: boolean; requestedBy?: string | null } = {},
+): Promise<{ tonic: StoredForecast; stateDependent: StoredForecast | null }> {
+  const [tonic, stateDependent] = await Promise.all([
+    storedOrComputedForecast(owner, plan.request, options),
+    plan.stateRequest ? storedOrComputedForecast(owner, plan.stateRequest, options) : null,
+  ]);
+  return { tonic, stateDependent };
+}

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { WellRole } from '@/lib/domain/well-roles';
 import { PLATE_FORMAT_SIZE, type PlateFormat } from '@/lib/domain/plate-formats';
+import type { BlockReadout } from '@/lib/domain/fits';
 import type { PreviewRow } from './read-row';
 
 /** The currents of one target in one well, pA (sign as recorded: inward currents are negative). */
@@ -12,6 +13,8 @@ export interface ParsedReadout {
   givenBlock?: number | null;
   /** The concentration of this application when the cell received several in turn (cumulative); else absent. */
   concentration_uM?: number;
+  /** Which of the target's block readouts it is; absent: the tonic one (a target's only readout). */
+  readout?: BlockReadout;
   /** The spreadsheet row it came from. */
   row: number;
 }
@@ -79,13 +82,27 @@ export function buildPlate(
       ...(values.givenBlock !== undefined ? { givenBlock: values.givenBlock } : {}),
       row,
     });
+    if (values.useDependent) {
+      const ud = values.useDependent;
+      well.readouts.push({
+        target: values.target,
+        controlCurrent_pA: ud.controlCurrent_pA,
+        compoundCurrent_pA: ud.compoundCurrent_pA,
+        ...(ud.givenBlock !== undefined ? { givenBlock: ud.givenBlock } : {}),
+        readout: 'use_dependent',
+        row,
+      });
+    }
     if (!targets.includes(values.target)) targets.push(values.target);
   }
   // A well with several rows of one target received several concentrations in turn (cumulative
   // application): each readout keeps its own, and the well shows the last, highest one.
   for (const well of wells.values()) {
     const perTarget = new Map<string, number>();
-    for (const r of well.readouts) perTarget.set(r.target, (perTarget.get(r.target) ?? 0) + 1);
+    for (const r of well.readouts) {
+      const key = `${r.target}\u0000${r.readout ?? 'tonic'}`;
+      perTarget.set(key, (perTarget.get(key) ?? 0) + 1);
+    }
     if (![...perTarget.values()].some((n) => n > 1)) continue;
     for (const r of well.readouts) {
       const c = concentrationOfRow.get(r.row);

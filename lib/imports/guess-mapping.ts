@@ -6,6 +6,7 @@ import {
   IMPORT_FIELDS,
   REQUIRED_FIELDS,
   UNIT_FIELDS,
+  USE_DEPENDENT_FIELD,
   type ImportField,
   type UnitField,
 } from './import-fields';
@@ -20,6 +21,7 @@ import { findGridBlocks, findWideTargets, reshapeSheet } from './reshape-table';
 import { columnLetter, normaliseLabel } from './normalise-text';
 import { blockScaleOfHeader } from './block-scale';
 import { readText } from './read-cell';
+import { readoutOfHeader } from './readout-words';
 import { isUnitsRow } from './skip-rows';
 import type { Cell, SheetData } from './spreadsheet-types';
 import { parseUnit, type QuantityKind, type Unit } from './units';
@@ -47,6 +49,8 @@ export const UNIT_KIND: Record<UnitField, QuantityKind> = {
   concentration: 'concentration',
   controlCurrent: 'current',
   compoundCurrent: 'current',
+  useDependentControlCurrent: 'current',
+  useDependentCompoundCurrent: 'current',
   sealResistance: 'sealResistance',
   seriesResistance: 'seriesResistance',
   capacitance: 'capacitance',
@@ -107,7 +111,14 @@ export function guessLayouts(sheet: SheetData): { layout: SheetLayout; headerRow
 }
 
 /** The fields a wide sheet's column block gives once per target. */
-const PER_TARGET_FIELDS = ['controlCurrent', 'compoundCurrent', 'block'] as const;
+const PER_TARGET_FIELDS = [
+  'controlCurrent',
+  'compoundCurrent',
+  'block',
+  'useDependentControlCurrent',
+  'useDependentCompoundCurrent',
+  'useDependentBlock',
+] as const;
 
 function guessLayout(
   sheet: SheetData,
@@ -185,11 +196,31 @@ function matchHeaders(row: Cell[]): GuessedColumn[] {
   const candidates: (GuessedColumn & { index: number })[] = [];
   for (const { index, letter, header } of headerCells(row)) {
     const { name, unitText } = splitHeaderUnit(header);
-    const names = [normaliseLabel(name), normaliseLabel(header)];
-    for (const field of IMPORT_FIELDS) {
+    // A header naming a readout ("P10 block", "Tonic I compound") is read without its readout words; one
+    // of nothing else ("Use-dependent") holds that readout's block.
+    // A header whose other words name no current or block is read whole ("Last compound" is a compound).
+    const said = readoutOfHeader(name);
+    const scoreOf = (field: ImportField, names: string[]) => {
       const rule = HEADER_RULES[field];
-      const score = names.some((n) => rule.exact.includes(n)) ? 2 : rule.loose(names[0] ?? '') ? 1 : 0;
-      if (score === 0) continue;
+      return names.some((n) => rule.exact.includes(n)) ? 2 : rule.loose(names[0] ?? '') ? 1 : 0;
+    };
+    const readoutFields =
+      said.readout === null
+        ? []
+        : IMPORT_FIELDS.filter(isReadoutField).flatMap((field) => {
+            const score = scoreOf(field, [readoutMeasure(said.rest)]);
+            return score === 0
+              ? []
+              : [{ field: said.readout === 'use_dependent' ? USE_DEPENDENT_FIELD[field] : field, score }];
+          });
+    const fields =
+      readoutFields.length > 0
+        ? readoutFields
+        : IMPORT_FIELDS.flatMap((field) => {
+            const score = scoreOf(field, [normaliseLabel(name), normaliseLabel(header)]);
+            return score === 0 ? [] : [{ field, score }];
+          });
+    for (const { field, score } of fields) {
       const kind = (UNIT_KIND as Partial<Record<ImportField, QuantityKind>>)[field];
       const unit = kind && unitText ? parseUnit(unitText, kind) : null;
       candidates.push({ field, letter, header, unit, score, index });
@@ -212,6 +243,16 @@ function matchHeaders(row: Cell[]): GuessedColumn[] {
   }
   return chosen.sort((a, b) => a.index - b.index).map(({ index: _index, ...column }) => column);
 }
+
+/** A readout header's other words as a field spelling: nothing is its block, a bare current its current under compound. */
+function readoutMeasure(rest: string): string {
+  const plain = normaliseLabel(rest);
+  if (plain === '') return 'block';
+  return ['i', 'current', 'peak', 'ipeak', 'peakcurrent', 'amplitude'].includes(plain) ? 'icompound' : plain;
+}
+
+const isReadoutField = (field: ImportField): field is keyof typeof USE_DEPENDENT_FIELD =>
+  field === 'controlCurrent' || field === 'compoundCurrent' || field === 'block';
 
 function headerCells(row: Cell[]): { index: number; letter: string; header: string }[] {
   return row.flatMap((cell, index) => {

@@ -141,6 +141,10 @@ export const HEADER_RULES: Record<ImportField, HeaderRule> = {
     ],
     loose: (h) => /inhib|block(?!er)/.test(h) && !has(h, ['conc', 'compound', 'name', 'id']),
   },
+  // Use-dependent columns are found by their readout words (readout-words.ts) beside a current or block.
+  useDependentControlCurrent: { exact: [], loose: () => false },
+  useDependentCompoundCurrent: { exact: [], loose: () => false },
+  useDependentBlock: { exact: [], loose: () => false },
   currentUnit: {
     exact: ['currentunit', 'currentunits', 'iunit', 'iunits'],
     loose: (h) => h.includes('current') && h.includes('unit'),

@@ -10,6 +10,9 @@ export const IMPORT_FIELDS = [
   'controlCurrent',
   'compoundCurrent',
   'block',
+  'useDependentControlCurrent',
+  'useDependentCompoundCurrent',
+  'useDependentBlock',
   'currentUnit',
   'sealResistance',
   'seriesResistance',
@@ -37,6 +40,8 @@ export const UNIT_FIELDS = [
   'concentration',
   'controlCurrent',
   'compoundCurrent',
+  'useDependentControlCurrent',
+  'useDependentCompoundCurrent',
   'sealResistance',
   'seriesResistance',
   'capacitance',
@@ -54,6 +59,9 @@ export const FIELD_LABEL: Record<ImportField, string> = {
   controlCurrent: 'control current',
   compoundCurrent: 'compound current',
   block: 'block',
+  useDependentControlCurrent: 'use-dependent control current',
+  useDependentCompoundCurrent: 'use-dependent compound current',
+  useDependentBlock: 'use-dependent block',
   currentUnit: 'current unit',
   sealResistance: 'seal resistance',
   seriesResistance: 'series resistance',
@@ -77,6 +85,23 @@ export function fieldNeeded(field: ImportField, mapping: MappingChoices): boolea
   if (field === 'target') return mapping.fixedTarget === null;
   if (field === 'controlCurrent' || field === 'compoundCurrent') return !mapping.columns.block;
   return true;
+}
+
+/**
+ * The columns of a second, use-dependent block readout (issue 20 point 2): the n-th pulse of a train or a
+ * depolarised holding potential. The main control current, compound current and block columns are the
+ * tonic readout (a target's only readout when these are not mapped); a use-dependent compound current
+ * without a control current of its own is read against the tonic one's control current.
+ */
+export const USE_DEPENDENT_FIELD = {
+  controlCurrent: 'useDependentControlCurrent',
+  compoundCurrent: 'useDependentCompoundCurrent',
+  block: 'useDependentBlock',
+} as const satisfies Partial<Record<ImportField, ImportField>>;
+
+/** Whether the mapping maps a use-dependent readout (its block or its compound current). */
+export function mapsUseDependent(columns: Readonly<Partial<Record<ImportField, string | null>>>): boolean {
+  return Boolean(columns.useDependentBlock || columns.useDependentCompoundCurrent);
 }
 
 /** How the block is written when a file gives it directly: a fraction (0.5) or percent inhibition (50). */

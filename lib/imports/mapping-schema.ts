@@ -4,6 +4,7 @@ import {
   FIELD_LABEL,
   fieldNeeded,
   IMPORT_FIELDS,
+  mapsUseDependent,
   PLATE_FACTS,
   REQUIRED_FIELDS,
   type ImportField,
@@ -120,6 +121,9 @@ const mappingObjectSchema = z.object({
       concentration: z.enum(CONCENTRATION_UNITS).default('uM'),
       controlCurrent: z.enum(CURRENT_UNITS).default('pA'),
       compoundCurrent: z.enum(CURRENT_UNITS).default('pA'),
+      /** Units of the use-dependent currents; left out: those of the tonic currents. */
+      useDependentControlCurrent: z.enum(CURRENT_UNITS).optional(),
+      useDependentCompoundCurrent: z.enum(CURRENT_UNITS).optional(),
       sealResistance: z.enum(RESISTANCE_UNITS).default('GOhm'),
       seriesResistance: z.enum(RESISTANCE_UNITS).default('MOhm'),
       capacitance: z.enum(CAPACITANCE_UNITS).default('pF'),
@@ -224,6 +228,13 @@ export const columnMappingSchema = columnMappingDraftSchema.superRefine((mapping
       code: 'custom',
       path: ['fixedTarget'],
       message: 'Choose a target column or one target for the whole sheet, not both.',
+    });
+  }
+  if (mapping.columns.useDependentControlCurrent !== null && !mapsUseDependent(mapping.columns)) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['columns', 'useDependentCompoundCurrent'],
+      message: 'Choose the use-dependent compound current or block beside its control current.',
     });
   }
   if (mapping.plates.by === 'column' && mapping.plates.column === null) {

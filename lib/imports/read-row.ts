@@ -25,6 +25,12 @@ export interface RowValues {
   compoundCurrent_pA: number | null;
   /** The fractional block as the file gives it (percent read as a fraction); absent when no column gives it. */
   givenBlock?: number | null;
+  /** The use-dependent readout of the row's target, when the mapping maps one; the fields above are the tonic one. */
+  useDependent?: {
+    controlCurrent_pA: number | null;
+    compoundCurrent_pA: number | null;
+    givenBlock?: number | null;
+  };
   sealResistance_GOhm: number | null;
   seriesResistance_MOhm: number | null;
   capacitance_pF: number | null;
@@ -133,6 +139,32 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
       'zero_control_current',
       'control current is 0; block cannot be computed without a control current.',
     );
+  let useDependent: RowValues['useDependent'];
+  if (ctx.columns.useDependentBlock !== undefined || ctx.columns.useDependentCompoundCurrent !== undefined) {
+    const udBlockGiven = ctx.columns.useDependentBlock !== undefined;
+    let udBlock: number | null = null;
+    if (udBlockGiven) {
+      const read = readBlock(cell('useDependentBlock'), ctx.blockScale, ctx.decimalComma, ctx.missing);
+      if (read.ok) udBlock = read.value;
+      else report('useDependentBlock', read.code, `${FIELD_LABEL.useDependentBlock}: ${read.detail}.`);
+    }
+    const udControl = ctx.columns.useDependentControlCurrent
+      ? quantity(
+          'useDependentControlCurrent',
+          currentUnit(units.useDependentControlCurrent ?? units.controlCurrent),
+        )
+      : controlCurrent_pA;
+    useDependent = {
+      controlCurrent_pA: udControl,
+      compoundCurrent_pA: ctx.columns.useDependentCompoundCurrent
+        ? quantity(
+            'useDependentCompoundCurrent',
+            currentUnit(units.useDependentCompoundCurrent ?? units.compoundCurrent),
+          )
+        : null,
+      ...(udBlockGiven ? { givenBlock: udBlock } : {}),
+    };
+  }
   const values: RowValues = {
     well: position?.label ?? null,
     rowIndex: position?.rowIndex ?? null,
@@ -147,6 +179,7 @@ export function readRow(cells: Cell[], row: number, ctx: RowContext): PreviewRow
     sealResistance_GOhm: quantity('sealResistance', units.sealResistance),
     seriesResistance_MOhm: quantity('seriesResistance', units.seriesResistance),
     capacitance_pF: quantity('capacitance', units.capacitance),
+    ...(useDependent ? { useDependent } : {}),
   };
   return { row, status: issues.some((issue) => issue.severity === 'error') ? 'error' : 'ok', values, issues };
 }

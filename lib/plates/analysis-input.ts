@@ -1,4 +1,5 @@
 import 'server-only';
+import { PRIMARY_READOUT, type BlockReadout } from '@/lib/domain/fits';
 import type { ParsedPlate } from '@/lib/imports/build-plate';
 import type { AnalysisReadout, AnalysisWell } from '@/lib/science/plate-analysis';
 
@@ -27,6 +28,8 @@ export interface ReadoutData {
   givenBlock?: number | null;
   /** The concentration of this application (cumulative application); null or absent: the well's. */
   concentration_uM?: number | null;
+  /** Which of the target's block readouts this is; @default 'tonic' */
+  readout?: BlockReadout;
 }
 
 /** The wells and readouts `analysePlate` takes (lib/science/plate-analysis.ts). */
@@ -61,13 +64,14 @@ export function analysisInput(wells: readonly WellData[], readouts: readonly Rea
       ...(r.concentration_uM !== null && r.concentration_uM !== undefined
         ? { concentration_uM: r.concentration_uM }
         : {}),
+      ...(r.readout !== undefined && r.readout !== PRIMARY_READOUT ? { readout: r.readout } : {}),
     })),
   };
 }
 
 /**
  * A parsed export before anything is stored (previews, benchmarks): each well is named by its place
- * in the plate's list, each readout by its spreadsheet row, compounds and targets by the names in the file.
+ * in the plate's list, each readout by its spreadsheet row (a use-dependent one `row:use_dependent`), compounds and targets by the names in the file.
  */
 export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
   return analysisInput(
@@ -82,13 +86,15 @@ export function parsedPlateInput(plate: ParsedPlate): AnalysisInput {
     })),
     plate.wells.flatMap((w, i) =>
       w.readouts.map((r) => ({
-        id: String(r.row),
+        // A row's use-dependent readout is named by the row too, told apart by a suffix.
+        id: r.readout === 'use_dependent' ? `${r.row}:use_dependent` : String(r.row),
         wellId: String(i),
         targetId: r.target,
         controlCurrent_pA: r.controlCurrent_pA,
         compoundCurrent_pA: r.compoundCurrent_pA,
         ...(r.givenBlock !== undefined ? { blockGiven: true, givenBlock: r.givenBlock } : {}),
         ...(r.concentration_uM !== undefined ? { concentration_uM: r.concentration_uM } : {}),
+        ...(r.readout !== undefined ? { readout: r.readout } : {}),
       })),
     ),
   );

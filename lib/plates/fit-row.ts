@@ -10,6 +10,7 @@ export function fitRow(
     plateId: ids.plateId,
     compoundId: ids.compoundId,
     targetId: ids.targetId,
+    readout: fit.readout,
     model: fit.model,
     status: r.status,
     message: r.message,

@@ -8,6 +8,7 @@ import { validatePlateSheet, type PlatePreview } from '@/lib/imports/validate-pl
 import type { QcRuleNotApplied } from '@/lib/science/qc/qc-rules';
 import { qcRulesNotApplied, readoutsAbsentFromEveryWell } from '@/lib/science/qc/qc-rules';
 import { DEFAULT_QC_THRESHOLDS } from '@/lib/science/qc/qc-thresholds';
+import { BLOCK_READOUTS, type BlockReadout } from '@/lib/domain/fits';
 import { parsedPlateInput } from './analysis-input';
 
 /**
@@ -35,6 +36,11 @@ export interface ImportFacts {
   concentrationUnit: string;
   /** The file's target values as it writes them (or the one target named for the whole sheet). */
   targets: string[];
+  /**
+   * The block readouts the file gives per target (as the check names the target), tonic first:
+   * ["tonic"] for a target read at one moment, ["tonic", "use_dependent"] when the mapping maps a second.
+   */
+  readouts: Record<string, BlockReadout[]>;
   /** Codes of the QC rules whose readout no well carries (not applied; the others still run). */
   qcRulesNotApplied: string[];
   /** Test compounds not in the registry; null when no registry was asked (offline). */
@@ -97,6 +103,7 @@ export function unreadFileFacts(input: {
     roleCounts: { negativeControl: 0, positiveControl: 0, test: 0, empty: 0 },
     concentrationUnit: '',
     targets: [],
+    readouts: {},
     qcRulesNotApplied: [],
     unregisteredCompounds: input.offline ? null : [],
     errors: input.errors,
@@ -251,6 +258,22 @@ function columnValues(
   return tableView(sheet, mapping).values[column.index] ?? [];
 }
 
+/** The readouts the wells carry per target, in BLOCK_READOUTS order, targets in order of first appearance. */
+function readoutsPerTarget(
+  wells: readonly { readouts: readonly { target: string; readout?: BlockReadout }[] }[],
+): Record<string, BlockReadout[]> {
+  const found = new Map<string, Set<BlockReadout>>();
+  for (const well of wells)
+    for (const r of well.readouts) {
+      const set = found.get(r.target) ?? new Set<BlockReadout>();
+      set.add(r.readout ?? 'tonic');
+      found.set(r.target, set);
+    }
+  return Object.fromEntries(
+    [...found].map(([target, set]) => [target, BLOCK_READOUTS.filter((r) => set.has(r))]),
+  );
+}
+
 /** What a check of the file found, in plain values (`unregisteredCompounds` null when offline). */
 export function importFacts(input: {
   filename: string;
@@ -293,6 +316,7 @@ export function importFacts(input: {
     },
     concentrationUnit: unitValues.length === 1 ? unitValues[0]! : mapping.units.concentration,
     targets,
+    readouts: readoutsPerTarget(wells),
     qcRulesNotApplied: input.rulesNotApplied.map((r) => r.rule),
     unregisteredCompounds: input.offline ? null : preview.unknownCompounds.map((c) => c.identifier),
     errors,

@@ -471,11 +471,16 @@ function previewQc(
   // Readouts are named by their spreadsheet row (parsedPlateInput), so the messages map back to rows.
   const { wells, readouts } = parsedPlateInput(preview.plate!);
   const analysis = analysePlate(wells, readouts, settings);
-  const qc = Object.fromEntries(
-    analysis.readouts
-      .filter((r) => r.qcReasons.length)
-      .map((r) => [Number(r.id), r.qcReasons.map((q) => q.message)]),
-  );
+  const qc: Record<number, string[]> = {};
+  for (const r of analysis.readouts) {
+    if (r.qcReasons.length === 0) continue;
+    const row = Number.parseInt(r.id, 10);
+    const useDependent = r.id.endsWith(':use_dependent');
+    const messages = r.qcReasons.map((q) =>
+      useDependent ? `Use-dependent readout: ${q.message}` : q.message,
+    );
+    qc[row] = [...(qc[row] ?? []), ...messages];
+  }
   return { qc, qcRulesNotApplied: analysis.qcRulesNotApplied };
 }
 

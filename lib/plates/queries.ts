@@ -2,6 +2,7 @@ import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
+import type { BlockReadout } from '@/lib/domain/fits';
 import { awaitingCondition } from '@/lib/signoff/awaiting';
 import type { PlateState } from '@/lib/domain/plate-states';
 
@@ -59,6 +60,8 @@ export interface WellRow {
   compoundCurrent_pA: number | null;
   fractionalBlock: number | null;
   qcReasons: { code: string; message: string }[];
+  /** Which of the target's block readouts this is (tonic unless the screen names a use-dependent one). */
+  readout: BlockReadout;
 }
 
 export interface FitRow {
@@ -68,6 +71,9 @@ export interface FitRow {
   targetId: string;
   target: string;
   conductance: string;
+  /** The readout fitted, and the name the screen gives it (null: the target reports one readout). */
+  readout: BlockReadout;
+  readoutName: string | null;
   model: 'hill2' | 'hill4';
   status: string;
   message: string;
@@ -106,10 +112,10 @@ export async function selectPlateWells(plateId: string): Promise<WellRow[]> {
             c.identifier as compound, w.concentration_um as "concentration_uM", w.seal_resistance_gohm as "sealResistance_GOhm",
             w.series_resistance_mohm as "seriesResistance_MOhm", w.capacitance_pf as "capacitance_pF", w.excluded, w.exclusion_reason as "exclusionReason",
             r.target_id as "targetId", t.name as target, r.control_current_pa as "controlCurrent_pA", r.compound_current_pa as "compoundCurrent_pA",
-            r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons"
+            r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons", r.readout
        from wells w join readouts r on r.well_id = w.id join targets t on t.id = r.target_id left join compounds c on c.id = w.compound_id
       where w.plate_id = :plateId
-      order by w.row_index, w.column_index, t.name`,
+      order by w.row_index, w.column_index, t.name, r.readout`,
     { type: QueryTypes.SELECT, replacements: { plateId } },
   );
 }
@@ -117,12 +123,13 @@ export async function selectPlateWells(plateId: string): Promise<WellRow[]> {
 // SQL for speed: the plate's fits with compound and target as plain rows, ordered case-blind (upper()), which the ORM cannot say.
 export async function selectPlateFits(plateId: string): Promise<FitRow[]> {
   return db().query<FitRow>(
-    `select f.id, f.compound_id as "compoundId", c.identifier as compound, f.target_id as "targetId", t.name as target, t.conductance, f.model, f.status, f.message,
+    `select f.id, f.compound_id as "compoundId", c.identifier as compound, f.target_id as "targetId", t.name as target, t.conductance,
+            f.readout, t.block_readouts ->> f.readout as "readoutName", f.model, f.status, f.message,
             f.ic50_um as "ic50_uM", f.ic50_ci_low_um as "ic50CiLow_uM", f.ic50_ci_high_um as "ic50CiHigh_uM", f.ic50_lower_bound_um as "ic50LowerBound_uM",
             f.log10_ic50_se as "log10Ic50Se", f.hill, f.top, f.bottom, f.r2, f.residual_sd as "residualSd", f.n, f.flags
        from fits f join compounds c on c.id = f.compound_id join targets t on t.id = f.target_id
       where f.plate_id = :plateId
-      order by upper(c.identifier), t.name`,
+      order by upper(c.identifier), t.name, f.readout`,
     { type: QueryTypes.SELECT, replacements: { plateId } },
   );
 }
@@ -286,6 +293,7 @@ const READOUT_COLUMNS = {
   concentration_um: 'double precision',
   fractional_block: 'double precision',
   qc_reasons: 'jsonb',
+  readout: 'text',
 } as const;
 
 /** Inserts rows (plain objects keyed by column) with one statement and one JSON parameter. */

@@ -6,6 +6,7 @@ import type { Actor } from '@/lib/auth/roles';
 import { resolveCompoundNames } from '@/lib/compounds/aliases';
 import { AppError } from '@/lib/errors';
 import type { ParsedPlate } from '@/lib/imports/build-plate';
+import { PRIMARY_READOUT } from '@/lib/domain/fits';
 import { analysePlate } from '@/lib/science/plate-analysis';
 import { Plate, Screen, Target, UploadedFile } from '@/models';
 import { analysisInput, type ReadoutData } from './analysis-input';
@@ -63,6 +64,18 @@ async function idsByName(screenId: string, plate: ParsedPlate, transaction: Tran
     throw new AppError('invalid', `Target "${missingTarget}" is not a target of this screen.`);
   const missingCompound = wanted.find((c) => !compoundId.has(c.toUpperCase()));
   if (missingCompound) throw new AppError('invalid', `Compound "${missingCompound}" is not registered.`);
+  // A use-dependent readout needs a target whose screen names one (Screens page, block readouts).
+  const twoReadouts = new Set(
+    targets.filter((t) => t.blockReadouts?.use_dependent).map((t) => t.name.toLowerCase()),
+  );
+  const oneReadout = plate.wells
+    .flatMap((w) => w.readouts)
+    .find((r) => r.readout === 'use_dependent' && !twoReadouts.has(r.target.toLowerCase()));
+  if (oneReadout)
+    throw new AppError(
+      'invalid',
+      `Target "${oneReadout.target}" reports one block readout on this screen, but the file maps a use-dependent one; an administrator names the target's use-dependent readout on the screen's page first.`,
+    );
   return {
     target: (name: string) => targetId.get(name.toLowerCase())!,
     compound: (id: string | null) => (id === null ? null : compoundId.get(id.toUpperCase())!),
@@ -132,6 +145,7 @@ export async function storePlate(
         compoundCurrent_pA: r.compoundCurrent_pA,
         ...(r.givenBlock !== undefined ? { blockGiven: true, givenBlock: r.givenBlock } : {}),
         ...(r.concentration_uM !== undefined ? { concentration_uM: r.concentration_uM } : {}),
+        ...(r.readout !== undefined ? { readout: r.readout } : {}),
       });
     }
     return {
@@ -207,6 +221,7 @@ export async function storePlate(
       concentration_um: r.concentration_uM ?? null,
       fractional_block: analysis.readouts[i]!.block,
       qc_reasons: analysis.readouts[i]!.qcReasons,
+      readout: r.readout ?? PRIMARY_READOUT,
     })),
     transaction,
   );

@@ -2,6 +2,7 @@
 // per compound × target. Pure and deterministic; the import and every exclusion change call it.
 import type { CurrentReadouts, WellQuantities } from './qc/quantities';
 import { computeFractionalBlock, type BlockNoteCode } from './fit/block';
+import { PRIMARY_READOUT, type BlockReadout } from './fit/block-readouts';
 import { fitHill, type HillFitResult } from './fit/hill-fit';
 import type { HillModelName } from './fit/hill-model';
 import { checkWells, type QcReason } from './qc/qc';
@@ -30,6 +31,8 @@ export interface AnalysisReadout extends CurrentReadouts {
   givenBlock?: number | null;
   /** The concentration of this application when the cell received several in turn; absent: the well's. */
   concentration_uM?: number | null;
+  /** Which of the target's block readouts this is; absent: the tonic one (a target's only readout). */
+  readout?: BlockReadout;
 }
 
 export interface AnalysisSettings {
@@ -63,6 +66,8 @@ export interface TargetAnalysis {
 export interface FitAnalysis {
   compoundId: string;
   target: string;
+  /** The readout fitted: each of a target's readouts is fitted on its own. */
+  readout: BlockReadout;
   model: HillModelName;
   result: HillFitResult;
 }
@@ -76,6 +81,13 @@ export interface PlateAnalysis {
 }
 
 export const fitKey = (compoundId: string, target: string): string => `${compoundId}|${target}`;
+
+/**
+ * The group a readout's block is computed in: its target for the tonic readout, else the target and the
+ * readout, so that each readout has its own controls (the vehicle and reference wells read at that moment).
+ */
+const blockGroup = (r: AnalysisReadout): string =>
+  (r.readout ?? PRIMARY_READOUT) === PRIMARY_READOUT ? r.target : `${r.target}\u0000${r.readout}`;
 
 /**
  * Analyses one plate; readouts of unknown wells are a programming error and throw. With
@@ -129,7 +141,7 @@ export function analysePlate(
   const blocks = computeFractionalBlock(
     readouts.map((r, i) => ({
       wellId: r.id,
-      target: r.target,
+      target: blockGroup(r),
       role: wellOf(r).role,
       controlCurrent_pA: r.controlCurrent_pA,
       compoundCurrent_pA: r.compoundCurrent_pA,
@@ -142,16 +154,26 @@ export function analysePlate(
 
   const groups = new Map<
     string,
-    { compoundId: string; target: string; c: number[]; b: number[]; x: boolean[]; cell: string[] }
+    {
+      compoundId: string;
+      target: string;
+      readout: BlockReadout;
+      c: number[];
+      b: number[];
+      x: boolean[];
+      cell: string[];
+    }
   >();
   readouts.forEach((r, i) => {
     const w = wellOf(r);
     const concentration_uM = r.concentration_uM ?? w.concentration_uM;
     if (w.role !== 'test' || !w.compoundId || concentration_uM === null) return;
-    const key = fitKey(w.compoundId, r.target);
+    const readout = r.readout ?? PRIMARY_READOUT;
+    const key = JSON.stringify([w.compoundId, r.target, readout]);
     const group = groups.get(key) ?? {
       compoundId: w.compoundId,
       target: r.target,
+      readout,
       c: [],
       b: [],
       x: [],
@@ -175,25 +197,31 @@ export function analysePlate(
       used: used[i]!,
       block: blockById.get(r.id) ?? null,
     })),
-    targets: blocks.map((t) => ({
-      target: t.target,
-      zPrime: t.zPrime,
-      rundownCorrected: t.rundownCorrected,
-      normalised: t.normalised,
-      vehicleMeanRatio: t.vehicleMeanRatio,
-      notes: t.notes,
-      // Kept with each target's QC summary only when a rule was not applied, so a plate whose file
-      // carries every readout stores the same summary as before.
-      ...(notApplied.length > 0 ? { qcRulesNotApplied: notApplied } : {}),
-    })),
+    // Z′ and the block notes of a target are its tonic readout's; the use-dependent readout's controls
+    // set only its own block.
+    targets: blocks
+      .filter((t) => !t.target.includes('\u0000'))
+      .map((t) => ({
+        target: t.target,
+        zPrime: t.zPrime,
+        rundownCorrected: t.rundownCorrected,
+        normalised: t.normalised,
+        vehicleMeanRatio: t.vehicleMeanRatio,
+        notes: t.notes,
+        // Kept with each target's QC summary only when a rule was not applied, so a plate whose file
+        // carries every readout stores the same summary as before.
+        ...(notApplied.length > 0 ? { qcRulesNotApplied: notApplied } : {}),
+      })),
     fits:
       options.fits === false
         ? []
-        : [...groups.entries()].map(([key, g]) => {
-            const model = settings.models?.[key] ?? 'hill2';
+        : [...groups.values()].map((g) => {
+            // One model per compound × target, for each of its readouts.
+            const model = settings.models?.[fitKey(g.compoundId, g.target)] ?? 'hill2';
             return {
               compoundId: g.compoundId,
               target: g.target,
+              readout: g.readout,
               model,
               result: fitHill({ concentration_uM: g.c, block: g.b, excluded: g.x, cell: g.cell }, { model }),
             };

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
+import type { TargetReadoutNames } from '@/lib/domain/fits';
 import type { ScreenQcLimits } from '@/lib/domain/readouts';
 import { AppError } from '@/lib/errors';
 import { PRESET_NAMES } from '@/lib/science/neuron/presets';
@@ -17,6 +18,8 @@ export interface ScreenDetail extends Omit<ScreenQcLimits, 'normaliseToReference
     id: string;
     name: string;
     conductance: string;
+    /** The names of its block readouts ({}: one readout, the tonic one). */
+    blockReadouts: TargetReadoutNames;
     /** The target's conductance in every preset (stored, else the default for its name), null where none. */
     byPreset: { preset: string; conductance: string | null }[];
   }[];
@@ -67,6 +70,7 @@ function toDetail(screen: Screen): ScreenDetail {
       id: t.id,
       name: t.name,
       conductance: t.conductance,
+      blockReadouts: t.blockReadouts ?? {},
       byPreset: PRESET_NAMES.map((preset) => ({
         preset,
         conductance: preset === plain.neuronPreset ? t.conductance : conductanceInPreset(t, preset),

@@ -9,6 +9,7 @@ import {
   conductanceByPresetSchema,
   conductanceInPreset,
   initialConductanceByPreset,
+  targetReadoutNames,
   type ScreenInput,
   type TargetInput,
   type TargetMappingInput,
@@ -128,16 +129,19 @@ export async function addTarget(actor: Actor, screenId: string, input: TargetInp
       screen.neuronPreset,
       input.conductance,
     );
-    const target = await Target.create({ ...input, conductanceByPreset, screenId }, { transaction }).catch(
-      (e) => conflict(e, `This screen already has a target named ${input.name}.`, 'name'),
-    );
+    const { tonicReadoutName, useDependentReadoutName, ...fields } = input;
+    const blockReadouts = targetReadoutNames({ tonicReadoutName, useDependentReadoutName });
+    const target = await Target.create(
+      { ...fields, blockReadouts, conductanceByPreset, screenId },
+      { transaction },
+    ).catch((e) => conflict(e, `This screen already has a target named ${input.name}.`, 'name'));
     await recordAudit(
       {
         actorId: actor.id,
         action: 'create',
         entityType: 'target',
         entityId: target.id,
-        after: { screenId, ...input, conductanceByPreset },
+        after: { screenId, ...fields, blockReadouts, conductanceByPreset },
         address: actor.address,
       },
       transaction,

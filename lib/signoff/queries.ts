@@ -23,12 +23,12 @@ export const CONTENT_SQL = {
        from wells w left join compounds c on c.id = w.compound_id where w.plate_id = :plateId order by w.row_index, w.column_index`,
   // Every readout of the plate in plate order.
   readouts: `select r.well_id as "wellId", r.target_id as "targetId", r.control_current_pa as "controlCurrentPa", r.compound_current_pa as "compoundCurrentPa",
-            r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons"
-       from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by w.row_index, w.column_index, r.target_id`,
+            r.fractional_block as "fractionalBlock", r.qc_reasons as "qcReasons", r.readout
+       from readouts r join wells w on w.id = r.well_id where w.plate_id = :plateId order by w.row_index, w.column_index, r.target_id, r.readout`,
   fits: `select compound_id as "compoundId", target_id as "targetId", model, status, message, ic50_um as "ic50Um", ic50_ci_low_um as "ic50CiLowUm",
             ic50_ci_high_um as "ic50CiHighUm", ic50_lower_bound_um as "ic50LowerBoundUm", log10_ic50_se as "log10Ic50Se", hill, top, bottom,
-            r2, residual_sd as "residualSd", n, flags, estimate
-       from fits where plate_id = :plateId order by compound_id, target_id`,
+            r2, residual_sd as "residualSd", n, flags, estimate, readout
+       from fits where plate_id = :plateId order by compound_id, target_id, readout`,
 } as const;
 
 export async function selectContentPlate(
@@ -43,12 +43,24 @@ export async function selectContentWells(plateId: string, transaction?: Transact
   return db().query(CONTENT_SQL.wells, opts(plateId, transaction));
 }
 
+/**
+ * A row of signed content names its block readout only when it is not the tonic one, so that the content
+ * of every plate with one readout per target (all plates signed before readouts were named) is unchanged.
+ */
+function withReadoutWhenNamed(rows: Record<string, unknown>[]): object[] {
+  return rows.map(({ readout, ...rest }) => (readout === 'tonic' ? rest : { ...rest, readout }));
+}
+
 export async function selectContentReadouts(plateId: string, transaction?: Transaction): Promise<object[]> {
-  return db().query(CONTENT_SQL.readouts, opts(plateId, transaction));
+  return withReadoutWhenNamed(
+    await db().query<Record<string, unknown>>(CONTENT_SQL.readouts, opts(plateId, transaction)),
+  );
 }
 
 export async function selectContentFits(plateId: string, transaction?: Transaction): Promise<object[]> {
-  return db().query(CONTENT_SQL.fits, opts(plateId, transaction));
+  return withReadoutWhenNamed(
+    await db().query<Record<string, unknown>>(CONTENT_SQL.fits, opts(plateId, transaction)),
+  );
 }
 
 // SQL: the plate's content revision, which triggers draw afresh with every change to its signed content

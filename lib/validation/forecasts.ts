@@ -13,6 +13,20 @@ export const POTENCY_USES = [
 ] as const;
 export type PotencyUse = (typeof POTENCY_USES)[number];
 
+/**
+ * A target's use-dependent fit as the state-dependent forecast reads it: its IC50 taken as Ki (the
+ * inactivated-state affinity, modulated receptor) where the tonic potency is used and the conductance has
+ * an inactivation gate; inactivatedIc50_uM null where the state-dependent case takes tonic block only.
+ */
+export const stateDependenceSchema = z.object({
+  fitId: z.uuid(),
+  readoutName: z.string().nullable(),
+  ic50_uM: z.number().nullable(),
+  hill: z.number().nullable(),
+  inactivatedIc50_uM: z.number().nullable(),
+  note: z.string(),
+});
+
 /** One target of a compound as a forecast sees it (the note says in words what was done). */
 export const targetPotencySchema = z.object({
   targetId: z.uuid(),
@@ -29,6 +43,8 @@ export const targetPotencySchema = z.object({
   blockAtExposures: z.array(z.number()),
   /** The plate the potency came from (compound profiles draw from several plates). */
   plate: z.object({ id: z.uuid(), label: z.string(), state: z.string() }).nullable(),
+  /** The target's use-dependent fit and how the state-dependent forecast takes it; null: no such fit. */
+  stateDependence: stateDependenceSchema.nullable(),
 });
 
 const nullableNumber = z.number().nullable();
@@ -139,6 +155,11 @@ export const compoundForecastSchema = z.object({
   /** Why no forecast is computed (no usable potency, no exposures); null when one is. */
   reason: z.string().nullable(),
   forecast: forecastViewSchema.nullable(),
+  /**
+   * The same forecast with state-dependent block (modulated receptor: Kr the tonic IC50, Ki the
+   * use-dependent IC50), beside the tonic-only one; null when no used potency has a Ki.
+   */
+  stateDependent: forecastViewSchema.nullable(),
   caution: z.string(),
 });
 
@@ -175,6 +196,7 @@ export const plateForecastQuerySchema = z.object({
 });
 
 export type TargetPotency = z.infer<typeof targetPotencySchema>;
+export type StateDependence = z.infer<typeof stateDependenceSchema>;
 export type ConditionView = z.infer<typeof conditionViewSchema>;
 export type BandView = z.infer<typeof bandSchema>;
 export type ForecastView = z.infer<typeof forecastViewSchema>;

@@ -1,3 +1,4 @@
+import { BLOCK_READOUTS } from '@/lib/domain/fits';
 import { z } from 'zod';
 import { wellRoleSchema } from '@/lib/domain/well-roles';
 
@@ -46,6 +47,7 @@ export const wellRowSchema = z.object({
   compoundCurrent_pA: z.number().nullable(),
   fractionalBlock: z.number().nullable(),
   qcReasons: z.array(qcReason),
+  readout: z.enum(BLOCK_READOUTS),
 });
 
 export const wellsResponseSchema = z.object({
@@ -71,6 +73,8 @@ export const fitViewSchema = z.object({
   targetId: z.uuid(),
   target: z.string(),
   conductance: z.string(),
+  readout: z.enum(BLOCK_READOUTS),
+  readoutName: z.string().nullable(),
   model: z.enum(['hill2', 'hill4']),
   status: z.enum(['fitted', 'above_range', 'inactive', 'insufficient', 'not_converged']),
   message: z.string(),

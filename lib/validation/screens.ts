@@ -1,3 +1,4 @@
+import { BLOCK_READOUT_LABEL, type TargetReadoutNames } from '@/lib/domain/fits';
 import { z } from 'zod';
 import { PRESET_NAMES, conductanceNames, getPreset, isPresetName } from '@/lib/science/neuron/presets';
 import { defaultConductance } from '@/lib/science/neuron/presets/target-conductance';
@@ -52,15 +53,37 @@ export const targetSchema = z.object({
   name: z.string().trim().min(1, 'Enter the target name as the export writes it.').max(80),
   conductance: z.string().trim().min(1, 'Choose the model conductance.'),
   description: z.string().trim().max(500).default(''),
+  /**
+   * The names of the target's block readouts: blank keeps one readout; naming the use-dependent one (the
+   * n-th pulse of a train, a depolarised holding potential) makes the target report two, tonic and
+   * use-dependent, each fitted on its own.
+   */
+  tonicReadoutName: z.string().trim().max(40).default(''),
+  useDependentReadoutName: z.string().trim().max(40).default(''),
 });
 
-export type TargetInput = z.infer<typeof targetSchema>;
+type TargetFields = z.infer<typeof targetSchema>;
+/** A target as services take it: the readout names may be left out (one readout). */
+export type TargetInput = Omit<TargetFields, 'tonicReadoutName' | 'useDependentReadoutName'> &
+  Partial<Pick<TargetFields, 'tonicReadoutName' | 'useDependentReadoutName'>>;
 
 /** A target's conductance in one preset other than its screen's current one, as an admin sets it. */
 export const targetMappingSchema = z.object({
   preset: z.enum(PRESET_NAMES, { error: `Choose a preset: ${PRESET_NAMES.join(', ')}.` }),
   conductance: z.string().trim().min(1, 'Choose the model conductance.'),
 });
+
+/** The stored names of a target's readouts (targets.block_readouts) from the form's two names. */
+export function targetReadoutNames(input: {
+  tonicReadoutName?: string | undefined;
+  useDependentReadoutName?: string | undefined;
+}): TargetReadoutNames {
+  if (!input.useDependentReadoutName) return {};
+  return {
+    tonic: input.tonicReadoutName || BLOCK_READOUT_LABEL.tonic,
+    use_dependent: input.useDependentReadoutName,
+  };
+}
 
 export type TargetMappingInput = z.infer<typeof targetMappingSchema>;
 

@@ -90,14 +90,18 @@ describe('exports', () => {
     ]);
     expect(sheetRows(bytes, 'Wells')).toHaveLength(1 + 96);
     const fits = sheetRows(bytes, 'Fits');
-    expect(fits[0]!.slice(0, 6)).toEqual([
+    expect(fits[0]!.slice(0, 7)).toEqual([
       'Compound',
       'Target',
+      'Readout',
       'Conductance',
       'Model',
       'Status',
       'IC50 (µM)',
     ]);
+    // One readout per target on this screen: every well and fit is the tonic one.
+    expect(new Set(fits.slice(1).map((r) => r[2]))).toEqual(new Set(['tonic']));
+    expect(sheetRows(bytes, 'Wells')[0]!.slice(4, 6)).toEqual(['Target', 'Readout']);
     expect(fits.slice(1).map((r) => r[0])).toEqual(['GW-0001', 'GW-0002', 'GW-0003', 'GW-0004', 'GW-0005']);
     const forecast = sheetRows(bytes, 'Forecast at exposures');
     expect(forecast[0]).toEqual([
@@ -106,7 +110,7 @@ describe('exports', () => {
     ]);
     // Five compounds, each with control and the screen's two exposures.
     expect(forecast.slice(3).map((r) => `${r[0]} ${r[3]} ${r[4]}`)).toHaveLength(15);
-    expect(forecast[4]!.slice(3, 5)).toEqual(['Exposure', 0.1]);
+    expect(forecast[4]!.slice(3, 6)).toEqual(['Exposure', 0.1, 'tonic only']);
   });
 
   test('a csv of one table starts with the same about lines and the caution', async () => {
@@ -118,7 +122,7 @@ describe('exports', () => {
     expect(csv.startsWith('\uFEFFGatewell export,"Plate NAV-P01: wells, fits and forecast"\r\n')).toBe(true);
     expect(csv).toContain(`\r\nCaution,${FORECAST_CAUTION}\r\n`);
     expect(csv).toContain('\r\nState,Map verified\r\n');
-    expect(csv).toContain('\r\n\r\nCompound,Target,Conductance,Model,Status,IC50 (µM)');
+    expect(csv).toContain('\r\n\r\nCompound,Target,Readout,Conductance,Model,Status,IC50 (µM)');
     const response = exportResponse(document, { format: 'csv', table: 'wells' }, 'gatewell-plate-NAV-P01');
     expect(response.headers.get('content-disposition')).toBe(
       'attachment; filename="gatewell-plate-NAV-P01-wells.csv"',

@@ -25,6 +25,8 @@ function fit(
     targetId: target,
     target,
     conductance: 'gNa',
+    readout: 'tonic',
+    readoutName: null,
     model: 'hill2',
     status,
     message: '',

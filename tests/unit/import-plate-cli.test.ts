@@ -9,6 +9,7 @@ import XLSX from 'xlsx';
 import { afterAll, describe, expect, test } from 'vitest';
 import { layout, type LayoutFile } from '../fixtures/export-layouts';
 import { MAPPINGS } from '../fixtures/export-layouts/mappings';
+import { TWO_READOUT_MAPPING, twoReadoutExport } from '../fixtures/two-readouts/two-readout-export';
 import { truthRoleCounts } from '../support/layout-truth';
 import { ROOT as root, runScript, SCRIPT_TIMEOUT_MS } from '../support/run-script';
 
@@ -133,6 +134,8 @@ describe('import-plate --offline on a demo export', () => {
       },
       concentrationUnit: 'uM',
       targets: [manifest.target],
+      // One block readout per well and target: the tonic one.
+      readouts: { [manifest.target]: ['tonic'] },
       qcRulesNotApplied: [],
       unregisteredCompounds: null,
       errors: [],
@@ -170,6 +173,25 @@ describe('import-plate --offline on a demo export', () => {
       }
     },
   );
+
+  test('a file read at two moments: `readouts` lists tonic and use-dependent per target, guessed or mapped', () => {
+    const written = twoReadoutExport();
+    const file = write(written.filename, written.bytes);
+    const mapping = join(dir, 'two-readout-mapping.json');
+    writeFileSync(mapping, JSON.stringify(TWO_READOUT_MAPPING));
+    const both = ['tonic', 'use_dependent'];
+    // The fixture's wide columns (SCN9A P1 block, SCN9A P10 block, …): the guess reads the file's target words.
+    const guessed = dryRun(file);
+    expect(guessed.code, guessed.stderr).toBe(0);
+    expect(guessed.facts.readouts).toEqual({ SCN9A: both, KCNQ2: both });
+    expect((guessed.facts.plates as { readouts: unknown }[])[0]!.readouts).toEqual(guessed.facts.readouts);
+    const mapped = run([file, '--offline', '--mapping', mapping, '--json']);
+    expect(mapped.code, mapped.stderr).toBe(0);
+    expect(Object.values(JSON.parse(mapped.stdout).readouts as Record<string, string[]>)).toEqual([
+      both,
+      both,
+    ]);
+  });
 
   test('--label wins over the file name', () => {
     const file = join(root, 'seeders/data/demo-plates/kv-96-plate-01.csv');

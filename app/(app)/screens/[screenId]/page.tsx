@@ -43,6 +43,13 @@ export default async function ScreenPage({ params }: { params: Promise<{ screenI
                 cell: (t) => <span className="font-mono">{t.conductance}</span>,
               },
               {
+                header: 'Block readouts',
+                cell: (t) =>
+                  t.blockReadouts.use_dependent
+                    ? `${t.blockReadouts.tonic ?? 'tonic'} (tonic) · ${t.blockReadouts.use_dependent} (use-dependent)`
+                    : 'one readout',
+              },
+              {
                 header: 'In the other presets',
                 cell: (t) => (
                   <span className="text-xs text-ink-700">

@@ -3,6 +3,7 @@ import { AppLink } from '@/components/ui/app-link';
 import { notFound } from 'next/navigation';
 import { ProfileFitsTable } from '@/components/compounds/profile-fits-table';
 import { SelectivityList } from '@/components/compounds/selectivity-list';
+import { UseDependenceList } from '@/components/compounds/use-dependence-list';
 import { DownloadMenu } from '@/components/exports/download-menu';
 import { CompoundForecastPanel } from '@/components/forecast/compound-forecast-panel';
 import { ForecastCaution } from '@/components/forecast/forecast-caution';
@@ -112,6 +113,14 @@ export default async function CompoundProfilePage({
             </h2>
             <SelectivityList ratios={profile.selectivity} targetCount={potencies.length} />
           </section>
+          {profile.useDependence.length ? (
+            <section aria-labelledby="use-dependence-heading" className="space-y-3">
+              <h2 id="use-dependence-heading" className="text-lg font-semibold">
+                Use dependence
+              </h2>
+              <UseDependenceList pairs={profile.useDependence} />
+            </section>
+          ) : null}
           <section aria-labelledby="profile-forecast-heading" className="space-y-3">
             <h2 id="profile-forecast-heading" className="text-lg font-semibold">
               Forecast at exposure
