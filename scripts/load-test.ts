@@ -141,6 +141,11 @@ function cpuLines(cpu: CpuUse, reads: Tally, imports: Tally | null): string[] {
         ]
       : []),
     ...(cpu.worker !== null ? [`  job worker: ${share(cpu.worker)}`] : []),
+    ...(cpu.database !== null
+      ? [
+          `  PostgreSQL: ${share(cpu.database)}, ${answers ? ((1000 * cpu.database) / answers).toFixed(1) : '—'} ms per answer`,
+        ]
+      : []),
     ...(cpu.machine !== null
       ? [`  machine:    ${(100 * cpu.machine).toFixed(0)} % of its ${availableParallelism()} cores busy`]
       : []),

@@ -67,8 +67,10 @@ node scripts/serve.mjs --port "$port" --hostname 127.0.0.1 --processes "$process
 server_pid=$!
 wait_healthy "$server_pid" .var/scale/server.log
 
+# PostgreSQL's CPU too: the postmaster of this cluster and its backends (the first line of its pid file).
+db_pid=$(head -n 1 ".pgdata/$instance/postmaster.pid" 2>/dev/null || true)
 set +e
-node --import tsx scripts/load-test.ts --url "$APP_URL" --server-pid "$server_pid" --readers 50 --importers 0 \
+node --import tsx scripts/load-test.ts --url "$APP_URL" --server-pid "$server_pid" ${db_pid:+--db-pid "$db_pid"} --readers 50 --importers 0 \
   --plates 20 --probes "$probes" --reader-accounts admin,approver,approver2 "$@"
 status=$?
 set -e

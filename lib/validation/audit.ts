@@ -54,7 +54,14 @@ const moment = (asEnd: boolean, timeZone: string) =>
  * compound (by identifier: its batches and aliases included) and a time range typed on the wall clock of
  * `timeZone`.
  */
-export const auditFilterSchemaFor = (timeZone: string) =>
+export const auditFilterSchemaFor = (timeZone: string) => {
+  // Built once per time zone: building it cost the audit page about 4 ms of CPU per request, twice.
+  let schema = filterSchemas.get(timeZone);
+  if (!schema) filterSchemas.set(timeZone, (schema = buildAuditFilterSchema(timeZone)));
+  return schema;
+};
+
+const buildAuditFilterSchema = (timeZone: string) =>
   z
     .object({
       entityType: text(64, 'Kinds of object are at most 64 characters.'),
@@ -79,6 +86,8 @@ export const auditFilterSchemaFor = (timeZone: string) =>
       path: ['to'],
       message: 'The end of the range is before its start.',
     });
+
+const filterSchemas = new Map<string, ReturnType<typeof buildAuditFilterSchema>>();
 
 /** The filters read in UTC (times that name no offset). */
 export const auditFilterSchema = auditFilterSchemaFor('UTC');

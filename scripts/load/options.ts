@@ -26,6 +26,7 @@ const schema = z.object({
     .optional(),
   serverPid: z.coerce.number().int().positive().optional(),
   workerPid: z.coerce.number().int().positive().optional(),
+  dbPid: z.coerce.number().int().positive().optional(),
   documents: z.boolean().default(false),
   probes: z.string().optional(),
   readerAccounts: z
@@ -47,6 +48,7 @@ const FLAGS: Record<string, string> = {
   reportOnly: 'report-only',
   serverPid: 'server-pid',
   workerPid: 'worker-pid',
+  dbPid: 'db-pid',
   readerAccounts: 'reader-accounts',
 };
 
@@ -78,6 +80,8 @@ export const USAGE = `usage: node --import tsx scripts/load-test.ts [options]
   --seed N             first seed of the generated exports (default from the clock)
   --server-pid PID     the server's process id: prints the CPU time it and the processes below it used during the load (Linux)
   --worker-pid PID     a job worker's process id: prints its CPU time too
+  --db-pid PID         PostgreSQL's postmaster process id: prints the CPU time of it and its backends (this
+                       cluster only) and per answer
   --probes FILE        also read compound profiles, the audit trail and later plate-list pages, with the ids the
                        scale fill wrote to FILE (scripts/scale-test.sh)
   --reader-accounts L  readers sign in only as these demo accounts, e.g. admin,approver,approver2 (who may read
@@ -121,6 +125,7 @@ export function parseOptions(
         seed: { type: 'string' },
         'server-pid': { type: 'string' },
         'worker-pid': { type: 'string' },
+        'db-pid': { type: 'string' },
         documents: { type: 'boolean' },
         probes: { type: 'string' },
         'reader-accounts': { type: 'string' },
@@ -149,6 +154,7 @@ export function parseOptions(
     seed: values.seed,
     serverPid: values['server-pid'],
     workerPid: values['worker-pid'],
+    dbPid: values['db-pid'],
     documents: values.documents,
     probes: values.probes,
     readerAccounts: values['reader-accounts'],

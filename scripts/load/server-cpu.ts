@@ -94,6 +94,7 @@ function groupName(command: string): string {
 export interface CpuReading {
   server: number | null;
   worker: number | null;
+  database: number | null;
   machine: { busy: number; total: number } | null;
   processes: Map<number, { ticks: number; name: string }>;
 }
@@ -102,15 +103,22 @@ export interface CpuReading {
 export interface CpuUse {
   server: number | null;
   worker: number | null;
+  /** PostgreSQL: its postmaster and the backends below it (this cluster only, not other clusters on the machine). */
+  database: number | null;
   machine: number | null;
   /** Seconds of CPU by process group, busiest first. */
   busiest: [string, number][];
 }
 
-export function cpuNow(pids: { serverPid?: number | undefined; workerPid?: number | undefined }): CpuReading {
+export function cpuNow(pids: {
+  serverPid?: number | undefined;
+  workerPid?: number | undefined;
+  dbPid?: number | undefined;
+}): CpuReading {
   return {
     server: pids.serverPid ? cpuSeconds(pids.serverPid) : null,
     worker: pids.workerPid ? cpuSeconds(pids.workerPid) : null,
+    database: pids.dbPid ? cpuSeconds(pids.dbPid) : null,
     machine: machineTicks(),
     processes: allProcesses(),
   };
@@ -131,6 +139,7 @@ export function cpuSince(before: CpuReading, after: CpuReading): CpuUse {
   return {
     server: difference(before.server, after.server),
     worker: difference(before.worker, after.worker),
+    database: difference(before.database, after.database),
     machine,
     busiest,
   };

@@ -4,7 +4,8 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Actor } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
-import { plateAnswerTag, requestHoldsTag } from '@/lib/plates/answer-tag';
+import { keptTaggedJson, plateAnswerTag, requestHoldsTag } from '@/lib/plates/answer-tag';
+import { listPlateWells } from '@/lib/plates/detail';
 import { setWellExclusion } from '@/lib/plates/review';
 import { Well } from '@/models';
 import { makeActor } from '../support/actors';
@@ -71,6 +72,44 @@ describe('plate answer tags', () => {
     const after = await tags();
     expect(after[0]).not.toBe(before[0]);
     expect(after[1]).not.toBe(before[1]);
+  });
+
+  test('a kept answer is served again under its tag and built afresh under a new one', async () => {
+    let builds = 0;
+    const build = async () => {
+      builds += 1;
+      return { wells: await listPlateWells(biologist, plateId) };
+    };
+    const excludedOf = (body: { wells: { position: string; excluded: boolean }[] }) =>
+      body.wells.filter((w) => w.excluded).map((w) => w.position);
+    const tag = await plateAnswerTag(biologist, plateId, 'wells');
+    const first = await keptTaggedJson(plateId, 'wells', tag, build);
+    const second = await keptTaggedJson(plateId, 'wells', tag, build);
+    expect(builds).toBe(1);
+    expect(second.headers.get('etag')).toBe(tag);
+    expect(second.headers.get('content-type')).toBe('application/json');
+    const kept = await second.json();
+    expect(kept).toEqual(await first.json());
+    // The H12 exclusion of the test above is in it, G12 not yet.
+    expect(excludedOf(kept)).toContain('H12');
+    expect(excludedOf(kept)).not.toContain('G12');
+
+    const well = await Well.findOne({ where: { plateId, position: 'G12' }, rejectOnEmpty: true });
+    await setWellExclusion(biologist, plateId, { wellIds: [well.id], excluded: true, reason: 'seal lost' });
+    const newTag = await plateAnswerTag(biologist, plateId, 'wells');
+    expect(newTag).not.toBe(tag);
+    const fresh = await (await keptTaggedJson(plateId, 'wells', newTag, build)).json();
+    expect(builds).toBe(2);
+    expect(excludedOf(fresh)).toContain('G12');
+  });
+
+  test('a build that fails is not kept', async () => {
+    const tag = await plateAnswerTag(biologist, otherPlateId, 'fits');
+    await expect(
+      keptTaggedJson(otherPlateId, 'fits', tag, () => Promise.reject(new Error('database gone'))),
+    ).rejects.toThrow('database gone');
+    const answer = await keptTaggedJson(otherPlateId, 'fits', tag, async () => ({ fits: ['built again'] }));
+    expect(await answer.json()).toEqual({ fits: ['built again'] });
   });
 
   test('a missing plate has no tag', async () => {

@@ -1,5 +1,5 @@
 import { withUser } from '@/lib/api/handler';
-import { notModified, plateAnswerTag, requestHoldsTag, taggedJson } from '@/lib/plates/answer-tag';
+import { keptTaggedJson, notModified, plateAnswerTag, requestHoldsTag } from '@/lib/plates/answer-tag';
 import { getPlateHeader } from '@/lib/plates/detail';
 import { listFitViews } from '@/lib/plates/fit-views';
 import { parseId } from '@/lib/validation/ids';
@@ -13,14 +13,13 @@ export const GET = withUser<{ plateId: string }>(async (request, actor, { params
   const plateId = parseId((await params).plateId, 'plate');
   const tag = await plateAnswerTag(actor, plateId, 'fits');
   if (requestHoldsTag(request, tag)) return notModified(tag);
-  const header = await getPlateHeader(actor, plateId);
-  return taggedJson(
-    {
+  return keptTaggedJson(plateId, 'fits', tag, async () => {
+    const header = await getPlateHeader(actor, plateId);
+    return {
       version: header.version,
       state: header.state,
       fitsPending: header.fitsPending,
       fits: await listFitViews(actor, plateId),
-    },
-    tag,
-  );
+    };
+  });
 });

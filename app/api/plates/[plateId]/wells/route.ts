@@ -1,5 +1,5 @@
 import { withUser } from '@/lib/api/handler';
-import { notModified, plateAnswerTag, requestHoldsTag, taggedJson } from '@/lib/plates/answer-tag';
+import { keptTaggedJson, notModified, plateAnswerTag, requestHoldsTag } from '@/lib/plates/answer-tag';
 import { getPlateHeader, listPlateWells } from '@/lib/plates/detail';
 import { parseId } from '@/lib/validation/ids';
 
@@ -12,9 +12,8 @@ export const GET = withUser<{ plateId: string }>(async (request, actor, { params
   const plateId = parseId((await params).plateId, 'plate');
   const tag = await plateAnswerTag(actor, plateId, 'wells');
   if (requestHoldsTag(request, tag)) return notModified(tag);
-  const header = await getPlateHeader(actor, plateId);
-  return taggedJson(
-    { version: header.version, state: header.state, wells: await listPlateWells(actor, plateId) },
-    tag,
-  );
+  return keptTaggedJson(plateId, 'wells', tag, async () => {
+    const header = await getPlateHeader(actor, plateId);
+    return { version: header.version, state: header.state, wells: await listPlateWells(actor, plateId) };
+  });
 });
