@@ -297,7 +297,19 @@ export function bandCell(task: BandTask): BandCellResult {
     let s = full.get(key);
     if (!s) {
       runs++;
-      s = measureSample(task.preset, scaleOf(task, block), task.request, false, task.inactivationShift);
+      // Once the runs so far fix a plane in the blocks, the search starts at its prediction (as per draw).
+      const withRheobase = evaluated.flatMap((e) =>
+        e.sample.rheobase_uA_cm2 === null ? [] : [{ block: e.block, rheobase: e.sample.rheobase_uA_cm2 }],
+      );
+      const guess = withRheobase.length >= d + 2 ? predictRheobase(withRheobase, block) : undefined;
+      s = measureSample(
+        task.preset,
+        scaleOf(task, block),
+        task.request,
+        false,
+        task.inactivationShift,
+        guess === undefined ? undefined : { guess_uA_cm2: guess, firstGrowth: WARM_START_GROWTH },
+      );
       full.set(key, s);
       evaluated.push({ block, sample: s });
     }
