@@ -134,7 +134,8 @@ export function measureSample(
   const rate_Hz =
     drive === undefined || rateOnly === 'no-rate'
       ? null
-      : firingRate(model, rest.start, drive, { ...integrator, step_ms: p.rateStep_ms }).rate_Hz;
+      : firingRate(model, rest.start, drive, { ...integrator, step_ms: p.rateStep_ms, stopEarly: true })
+          .rate_Hz;
   if (rateOnly === true || rest.rest_mV === null)
     return { rheobase_uA_cm2: null, threshold_mV: null, rate_Hz };
   const rheo = findRheobase(model, rest.start, {
