@@ -460,6 +460,13 @@ export function bandCell(task: BandTask): BandCellResult {
         drawVector(task, a).reduce((s, x) => s + x, 0) - drawVector(task, b).reduce((s, x) => s + x, 0),
     );
     const samples = new Array<BandSample>(n);
+    // With the threshold the only measure per draw, most draws take their rheobase from the prediction
+    // (predictedThreshold); every PREDICTED_EVERY-th is searched, and the prediction made before each
+    // search is checked against its answer: while the last one checked is off by more than
+    // PREDICTION_TOLERANCE, every draw is searched.
+    const thresholdOnly = perDraw.length === 1 && perDraw[0] === 'threshold_mV';
+    let predictionsHold = true;
+    let position = 0;
     for (const i of order) {
       const block = drawVector(task, i).map((x) => Math.round(x * 1000) / 1000);
       const key = block.join(',');
@@ -470,6 +477,15 @@ export function bandCell(task: BandTask): BandCellResult {
       }
       runs++;
       const guess = onlyRate ? undefined : nearest(block);
+      const predicted =
+        thresholdOnly && predictionsHold && guess !== undefined && position++ % PREDICTED_EVERY !== 0
+          ? predictedThreshold(task, block, guess)
+          : null;
+      if (predicted) {
+        partial.set(key, predicted);
+        samples[i] = predicted;
+        continue;
+      }
       const s = measureSample(
         task.preset,
         scaleOf(task, block),
@@ -480,6 +496,9 @@ export function bandCell(task: BandTask): BandCellResult {
       );
       (parts === true ? rateOnly : parts === false ? full : partial).set(key, s);
       if (s.rheobase_uA_cm2 !== null) known.push({ block, rheobase: s.rheobase_uA_cm2 });
+      if (thresholdOnly && guess !== undefined)
+        predictionsHold =
+          s.rheobase_uA_cm2 !== null && Math.abs(guess / s.rheobase_uA_cm2 - 1) <= PREDICTION_TOLERANCE;
       samples[i] = s;
     }
     for (const m of perDraw) {
@@ -491,6 +510,43 @@ export function bandCell(task: BandTask): BandCellResult {
     }
   }
   return { ...result, ways, runs };
+}
+
+/** Every how many draws a threshold-only per-draw pass searches the rheobase (our choice, no source). */
+const PREDICTED_EVERY = 4;
+/**
+ * Largest relative error of a predicted rheobase that a threshold-only pass accepts (1 %; our choice).
+ * The threshold is read at 1.05 × rheobase; a 1 % error in the rheobase moves it by a few hundredths of a
+ * millivolt in the regular-spiking cell near its firing transition (0.03 mV from 1.05 to 1.06 × at 90 %
+ * sodium block, measured there), well inside the bands' 0.2 mV slack; tests/unit/forecast-band-shortcut.test.ts
+ * compares the band with a search at every draw.
+ */
+const PREDICTION_TOLERANCE = 0.01;
+
+/**
+ * A draw's threshold with its rheobase taken from the prediction rather than searched: the run at
+ * thresholdStepFactor × the predicted rheobase, as measureSample reads it. Null (search it) when that run
+ * does not spike.
+ */
+function predictedThreshold(task: BandTask, block: number[], rheobase: number): BandSample | null {
+  const p = { ...DEFAULT_EXCITABILITY_PROTOCOL, ...task.request.protocol };
+  const model = compileModel(task.preset, scaleOf(task, block), task.inactivationShift);
+  const integrator = { dt_ms: p.dt_ms, rates: p.rates };
+  const rest = findRest(model, integrator);
+  if (rest.rest_mV === null) return null;
+  const run = simulate(
+    model,
+    rest.start,
+    {
+      current_uA_cm2: rheobase * p.thresholdStepFactor,
+      duration_ms: p.rheobaseStep_ms,
+      stopAtFirstSpike: true,
+      thresholdSlope_mV_ms: p.thresholdSlope_mV_ms,
+    },
+    integrator,
+  );
+  if (run.spikeTimes_ms.length === 0) return null;
+  return { rheobase_uA_cm2: null, threshold_mV: run.firstSpikeThreshold_mV, rate_Hz: null };
 }
 
 /** More than one conductance's block varies over the draws. */
