@@ -38,6 +38,27 @@ export function fixedPoints(model: CompiledModel, current_uA_cm2 = 0): FixedPoin
   return roots.map((v) => ({ v_mV: v, stable: isStable(model, v) }));
 }
 
+/**
+ * The lowest stable fixed point under current I, or null: the same scan and bisection as fixedPoints,
+ * stopped at the first stable root (so the same point as `fixedPoints(model, I).find((p) => p.stable)`,
+ * for a fraction of the scan when the rest lies low).
+ */
+export function lowestStableFixedPoint(model: CompiledModel, current_uA_cm2 = 0): FixedPoint | null {
+  const f = (v: number) => steadyStateCurrent(model, v) - current_uA_cm2;
+  let vPrev = SCAN_FROM_mV;
+  let fPrev = f(vPrev);
+  for (let v = SCAN_FROM_mV + SCAN_STEP_mV; v <= SCAN_TO_mV + 1e-9; v += SCAN_STEP_mV) {
+    const fv = f(v);
+    let root: number | null = null;
+    if (fPrev === 0) root = vPrev;
+    else if (fPrev * fv < 0) root = bisectRoot(f, vPrev, v, fPrev);
+    if (root !== null && isStable(model, root)) return { v_mV: root, stable: true };
+    vPrev = v;
+    fPrev = fv;
+  }
+  return null;
+}
+
 function bisectRoot(f: (v: number) => number, lo: number, hi: number, fLo: number): number {
   let a = lo;
   let b = hi;
