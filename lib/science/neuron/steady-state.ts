@@ -5,9 +5,31 @@ import { conductanceSums, gateInfTau, steadyStateAt, type CompiledModel } from '
  * preset's holding current: the drive needed to hold V there.
  */
 export function steadyStateCurrent(model: CompiledModel, v_mV: number): number {
-  const { g, gE } = conductanceSums(model, steadyStateAt(model, v_mV).gates);
+  // The same sums as conductanceSums over steadyStateAt, into buffers kept per model (the fixed-point
+  // scans call this some hundreds of times per search).
+  let buffers = scratch.get(model);
+  if (!buffers) {
+    buffers = { gates: new Float64Array(model.gates.length), out: new Float64Array(2) };
+    scratch.set(model, buffers);
+  }
+  const { gates, out } = buffers;
+  for (let j = 0; j < gates.length; j++) {
+    gateInfTau(model.gates[j]!, v_mV, out);
+    gates[j] = out[0] ?? 0;
+  }
+  let g = 0;
+  let gE = 0;
+  for (let k = 0; k < model.g_mS_cm2.length; k++) {
+    let w = model.g_mS_cm2[k]!;
+    for (let t = model.termStart[k]!; t < model.termStart[k + 1]!; t++)
+      w *= gates[model.termGate[t]!]! ** model.termPower[t]!;
+    g += w;
+    gE += w * model.reversal_mV[k]!;
+  }
   return g * v_mV - gE - model.holdingCurrent_uA_cm2;
 }
+
+const scratch = new WeakMap<CompiledModel, { gates: Float64Array; out: Float64Array }>();
 
 export interface FixedPoint {
   v_mV: number;
