@@ -151,7 +151,7 @@ bands on the pool: ${forecastPoolThreads()} worker thread(s); load average ${loa
     );
     const plate = performance.now() - t1;
     console.log(
-      `  ${name}: 384-well plate, 32 compounds with bands     ${plate.toFixed(0).padStart(7)} ms (target < 5000); ${runsOf(all)} band runs; CPU ${cpuSeconds(cpu1)} s`,
+      `  ${name}: 384-well plate, 32 compounds with bands     ${plate.toFixed(0).padStart(7)} ms (target < 5000); ${runsOf(all)} band runs; CPU ${cpuSeconds(cpu1)} s; load average ${load()}`,
     );
   }
   console.log(`  load average after: ${load()}`);

@@ -176,3 +176,34 @@ describe('the rate at a firing transition from ordered runs', () => {
     120_000,
   );
 });
+
+// Near the regular-spiking cell's firing transition the threshold is not monotone in the block, so it is
+// found per draw; there most draws take their rheobase from a prediction checked every few draws
+// (band-cell.ts, predictedThreshold) rather than from a search. Its band must still lie where the
+// per-draw search puts it, within the same slack (0.2 mV).
+describe('the threshold per draw with predicted rheobases', () => {
+  test.each([
+    { seed: 1, c: 9 },
+    { seed: 4, c: 10 },
+  ])(
+    'two conductances, seed $seed at $c: within the per-draw band’s slack',
+    ({ seed, c }) => {
+      const task = cellOf(
+        'pospischil-rs-2008',
+        { gNa: { ic50: 1, hill: 1 }, gM: { ic50: 10, hill: 1.2 } },
+        c,
+        seed,
+      );
+      const fast = bandCell(task);
+      const samples = perDrawSamples(task);
+      expect(fast.ways.threshold_mV).toBe('per-draw');
+      expectWithin(
+        'threshold_mV',
+        fast.threshold_mV,
+        bandOfSamples(samples, 'threshold_mV'),
+        samples.map((s) => s.threshold_mV),
+      );
+    },
+    120_000,
+  );
+});

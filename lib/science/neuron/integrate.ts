@@ -29,6 +29,15 @@ export interface RunProtocol {
    * known to be stable (isStable); used to cut short sub-threshold steps.
    */
   settleAt?: MembraneState;
+  /**
+   * Stop once the spike train is periodic: the mean intervals of PERIODIC_BLOCKS_AGREEING successive
+   * blocks of PERIODIC_BLOCK spikes each within this many ms of the block before (and under
+   * `periodicBelow_ms`). Only for a rate taken as the last block's mean interval (firingRate's
+   * `stopEarly`). @default never
+   */
+  periodicWithin_ms?: number;
+  /** Longest interval a periodic stop accepts (ms). @default Infinity */
+  periodicBelow_ms?: number;
 }
 
 export interface RunResult {
@@ -47,12 +56,17 @@ export interface RunResult {
   simulated_ms: number;
   /** Stopped early at the settleAt point. */
   settled: boolean;
+  /** Stopped early on a periodic spike train (periodicWithin_ms). */
+  periodic: boolean;
   trace: Float64Array | null;
 }
 
 const SETTLE_V_mV = 0.01;
 const SETTLE_GATE = 1e-4;
 const SETTLE_EVERY_ms = 1;
+/** Spikes per block, and successive blocks whose mean intervals must agree, for a periodic stop. */
+export const PERIODIC_BLOCK = 8;
+export const PERIODIC_BLOCKS_AGREEING = 3;
 
 export interface IntegratorOptions {
   dt_ms?: number;
@@ -89,6 +103,11 @@ export function simulate(
   const spikes: number[] = [];
   let nextCheck = settle ? settleEvery : -1;
   let settled = false;
+  const periodicWithin = protocol.periodicWithin_ms ?? -1;
+  const periodicBelow = protocol.periodicBelow_ms ?? Number.POSITIVE_INFINITY;
+  let periodic = false;
+  let agreeing = 0;
+  let previousMean = Number.NaN;
   let v = start.v_mV;
   let threshold: number | null = null;
   // No threshold at the step's onset: the first slope sample only seeds the search.
@@ -108,7 +127,24 @@ export function simulate(
       slopePrev = s;
       vMidPrev = vMid;
     }
-    if (v < level && vNew >= level) spikes.push((n + (level - v) / (vNew - v)) * dt);
+    if (v < level && vNew >= level) {
+      spikes.push((n + (level - v) / (vNew - v)) * dt);
+      const k = spikes.length;
+      // Mean intervals of successive blocks of PERIODIC_BLOCK spikes (one spike time's interpolation
+      // error, about 1e-3 ms, is spread over the block).
+      if (periodicWithin >= 0 && k > PERIODIC_BLOCK && (k - 1) % PERIODIC_BLOCK === 0) {
+        const mean = (spikes[k - 1]! - spikes[k - 1 - PERIODIC_BLOCK]!) / PERIODIC_BLOCK;
+        agreeing = Math.abs(mean - previousMean) <= periodicWithin && mean < periodicBelow ? agreeing + 1 : 0;
+        previousMean = mean;
+        if (agreeing >= PERIODIC_BLOCKS_AGREEING) {
+          periodic = true;
+          v = vNew;
+          if (trace) trace[n + 1] = v;
+          n++;
+          break;
+        }
+      }
+    }
     v = vNew;
     if (trace) trace[n + 1] = v;
     if (meanFrom >= 0 && n + 1 > meanFrom) {
@@ -137,6 +173,7 @@ export function simulate(
     end: { v_mV: v, gates: x },
     simulated_ms: n * dt,
     settled,
+    periodic,
     trace: trace ? trace.subarray(0, n + 1) : null,
   };
 }

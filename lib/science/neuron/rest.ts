@@ -1,6 +1,6 @@
 import { simulate, type IntegratorOptions } from './integrate';
 import { steadyStateAt, type CompiledModel } from './model';
-import { fixedPoints } from './steady-state';
+import { fixedPoints, lowestStableFixedPoint } from './steady-state';
 import type { MembraneState } from './types';
 
 export interface RestResult {
@@ -26,8 +26,7 @@ export function findRest(
   model: CompiledModel,
   options: IntegratorOptions & { spikeLevel_mV?: number } = {},
 ): RestResult {
-  const points = fixedPoints(model, 0);
-  const stable = points.find((p) => p.stable);
+  const stable = lowestStableFixedPoint(model, 0);
   if (stable)
     return {
       rest_mV: stable.v_mV,
@@ -36,6 +35,7 @@ export function findRest(
       noStableRest: false,
     };
   // No stable rest: start just above the lowest fixed point and let the membrane run free.
+  const points = fixedPoints(model, 0);
   const from = steadyStateAt(model, (points[0]?.v_mV ?? -65) + 1);
   const run = simulate(
     model,

@@ -5,9 +5,31 @@ import { conductanceSums, gateInfTau, steadyStateAt, type CompiledModel } from '
  * preset's holding current: the drive needed to hold V there.
  */
 export function steadyStateCurrent(model: CompiledModel, v_mV: number): number {
-  const { g, gE } = conductanceSums(model, steadyStateAt(model, v_mV).gates);
+  // The same sums as conductanceSums over steadyStateAt, into buffers kept per model (the fixed-point
+  // scans call this some hundreds of times per search).
+  let buffers = scratch.get(model);
+  if (!buffers) {
+    buffers = { gates: new Float64Array(model.gates.length), out: new Float64Array(2) };
+    scratch.set(model, buffers);
+  }
+  const { gates, out } = buffers;
+  for (let j = 0; j < gates.length; j++) {
+    gateInfTau(model.gates[j]!, v_mV, out);
+    gates[j] = out[0] ?? 0;
+  }
+  let g = 0;
+  let gE = 0;
+  for (let k = 0; k < model.g_mS_cm2.length; k++) {
+    let w = model.g_mS_cm2[k]!;
+    for (let t = model.termStart[k]!; t < model.termStart[k + 1]!; t++)
+      w *= gates[model.termGate[t]!]! ** model.termPower[t]!;
+    g += w;
+    gE += w * model.reversal_mV[k]!;
+  }
   return g * v_mV - gE - model.holdingCurrent_uA_cm2;
 }
+
+const scratch = new WeakMap<CompiledModel, { gates: Float64Array; out: Float64Array }>();
 
 export interface FixedPoint {
   v_mV: number;
@@ -36,6 +58,27 @@ export function fixedPoints(model: CompiledModel, current_uA_cm2 = 0): FixedPoin
     fPrev = fv;
   }
   return roots.map((v) => ({ v_mV: v, stable: isStable(model, v) }));
+}
+
+/**
+ * The lowest stable fixed point under current I, or null: the same scan and bisection as fixedPoints,
+ * stopped at the first stable root (so the same point as `fixedPoints(model, I).find((p) => p.stable)`,
+ * for a fraction of the scan when the rest lies low).
+ */
+export function lowestStableFixedPoint(model: CompiledModel, current_uA_cm2 = 0): FixedPoint | null {
+  const f = (v: number) => steadyStateCurrent(model, v) - current_uA_cm2;
+  let vPrev = SCAN_FROM_mV;
+  let fPrev = f(vPrev);
+  for (let v = SCAN_FROM_mV + SCAN_STEP_mV; v <= SCAN_TO_mV + 1e-9; v += SCAN_STEP_mV) {
+    const fv = f(v);
+    let root: number | null = null;
+    if (fPrev === 0) root = vPrev;
+    else if (fPrev * fv < 0) root = bisectRoot(f, vPrev, v, fPrev);
+    if (root !== null && isStable(model, root)) return { v_mV: root, stable: true };
+    vPrev = v;
+    fPrev = fv;
+  }
+  return null;
 }
 
 function bisectRoot(f: (v: number) => number, lo: number, hi: number, fLo: number): number {
