@@ -60,7 +60,10 @@ export default defineConfig({
       ? []
       : [
           {
-            command: 'node --conditions=react-server --import tsx scripts/worker.ts',
+            // GATEWELL_E2E_WORKER_ARGS: scripts/test.sh runs Vitest beside Playwright and so keeps the worker at
+            // normal priority (--scheduling nice --nice 0); in the idle class it would wait for Vitest's CPU.
+            command:
+              `node --conditions=react-server --import tsx scripts/worker.ts ${process.env.GATEWELL_E2E_WORKER_ARGS ?? ''}`.trim(),
             wait: { stdout: /taking jobs/ },
             timeout: 60_000,
             stdout: 'pipe' as const,
