@@ -5,7 +5,10 @@ import { useMemo, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { BusyButton } from '@/components/ui/busy-button';
 import { DataGrid } from '@/components/ui/data-grid';
+import { GRID_ALWAYS_SHOWN, type GridColumnChoice } from '@/lib/domain/grid-layouts';
 import { exclusionSchema, type WellRowView } from '@/lib/validation/plates';
+import { GridColumnsMenu } from './grid-columns-menu';
+import { useGridLayout } from './use-grid-layout';
 import { plateJobsKey } from './plate-jobs';
 import { fitsKey, postJson, usePlateWells, wellsKey } from './plate-data';
 import { MAP_MODES, MAP_MODE_LABEL, type MapMode } from './map-colours';
@@ -70,6 +73,7 @@ const COLUMNS = (
       valueFormatter: fmt(3),
     },
     {
+      colId: 'qc',
       headerName: 'QC',
       flex: 1,
       minWidth: 220,
@@ -78,13 +82,16 @@ const COLUMNS = (
       tooltipValueGetter: (p) => p.data?.qcReasons.map((q) => q.message).join('; ') || 'passed',
     },
     {
+      colId: 'excluded',
       headerName: 'Excluded',
       width: 200,
       valueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : ''),
       tooltipValueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : null),
     },
   ] satisfies ColDef<WellRowView>[] as ColDef<WellRowView>[]
-).map((c) => ({ headerTooltip: c.headerName, ...c }));
+).map((c) => ({ headerTooltip: c.headerName, colId: c.field, ...c }));
+
+const COLUMN_NAMES = Object.fromEntries(COLUMNS.map((c) => [c.colId!, c.headerName!]));
 
 const QC_ANY = '';
 const QC_PASSED = ':passed';
@@ -96,12 +103,15 @@ export function WellsPanel({
   format,
   canEdit,
   initialMode = 'block',
+  initialLayout = null,
 }: {
   plateId: string;
   format: number;
   canEdit: boolean;
   /** The colouring the map opens on: compound for someone who verifies the compound map. */
   initialMode?: MapMode;
+  /** The person's own column choice of the wells grid, kept on the server; null for the grid's own. */
+  initialLayout?: GridColumnChoice[] | null;
 }) {
   const { data, error, isLoading } = usePlateWells(plateId);
   const { mutate } = useSWRConfig();
@@ -113,6 +123,7 @@ export function WellsPanel({
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [busy, setBusy] = useState<'exclude' | 'include' | null>(null);
   const [qcFilter, setQcFilter] = useState(QC_ANY);
+  const columnChoice = useGridLayout<WellRowView>('plate-wells', COLUMNS, initialLayout);
 
   if (error)
     return (
@@ -289,14 +300,27 @@ export function WellsPanel({
           {gridRows.length} of {wells.length} wells shown
         </p>
       </div>
+      <GridColumnsMenu
+        layout={columnChoice.layout}
+        names={COLUMN_NAMES}
+        alwaysShown={GRID_ALWAYS_SHOWN['plate-wells']}
+        own={columnChoice.own}
+        status={columnChoice.status}
+        resetting={columnChoice.resetting}
+        onShow={columnChoice.show}
+        onMove={columnChoice.move}
+        onReset={() => void columnChoice.reset()}
+      />
       <DataGrid<WellRowView>
+        key={columnChoice.gridKey}
         label={`Wells of ${current}`}
         rows={gridRows}
         defaultColDef={{ wrapHeaderText: true, autoHeaderHeight: true }}
         tooltipShowDelay={300}
         // Twelve columns: all drawn, so that every cell's text is in the page whatever the scroll.
         suppressColumnVirtualisation
-        columns={COLUMNS}
+        columns={columnChoice.columns}
+        {...columnChoice.gridEvents}
         height={480}
         getRowId={(p) => p.data.readoutId}
         // Wells are picked only where they can be excluded: a locked plate's grid has no selection boxes.

@@ -55,6 +55,7 @@ export type Table =
   | 'signoff_events'
   | 'targets'
   | 'user_roles'
+  | 'user_grid_layouts'
   | 'users';
 
 /** Real records of the demo data (and the matrix's own accounts) that valid requests name. */
@@ -69,6 +70,8 @@ export interface Ids {
   screenName: string;
   templateId: string;
   userId: string;
+  /** A grid whose layout a person keeps (lib/domain/grid-layouts.ts). */
+  grid: string;
   /** The no-role account's e-mail and password (for sign-in and signatures). */
   readerEmail: string;
   password: string;
@@ -185,6 +188,7 @@ export const ROUTE_CASES: RouteCase[] = [
   // Every download is audited: a refused one must not be.
   api('GET /api/audit/export', READ_AUDIT, { writes: ['audit_events'] }),
   api('GET /api/import-templates'),
+  api('GET /api/notices/unseen'),
   api('GET /api/compounds/[compoundId]/export', undefined, { writes: ['audit_events'] }),
   api('GET /api/compounds/[compoundId]/forecast', undefined, { writes: ['forecasts'] }),
   api('GET /api/plates/[plateId]/export', undefined, { writes: ['audit_events'] }),
@@ -249,6 +253,12 @@ export const ROUTE_CASES: RouteCase[] = [
   }),
   // A forecast run computes results from approved fits: reading results needs no role (DESIGN.md).
   api('POST /api/plates/[plateId]/jobs', undefined, { writes: ['compute_jobs'], body: () => ({ json: {} }) }),
+  // A person's own grid layout: anyone signed in keeps and resets their own.
+  api('PUT /api/grid-layouts/[grid]', undefined, {
+    writes: ['user_grid_layouts'],
+    body: () => ({ json: { columns: [{ id: 'position', hidden: false, width: 90 }] } }),
+  }),
+  api('DELETE /api/grid-layouts/[grid]', undefined, { writes: ['user_grid_layouts'] }),
 ];
 
 /** A server action of a signed-in page: the proxy sends anonymous visitors to sign-in, the action refuses the rest. */

@@ -193,7 +193,7 @@ async function idsOf(counter: Counter): Promise<Ids & Record<string, string>> {
     [READER_EMAIL],
   );
   for (const [key, value] of Object.entries(ids)) expect(value, `demo data holds a ${key}`).toBeTruthy();
-  return { ...ids, readerEmail: READER_EMAIL, password: DEMO.chemist.password };
+  return { ...ids, grid: 'plate-wells', readerEmail: READER_EMAIL, password: DEMO.chemist.password };
 }
 
 const ACCOUNTS: Record<Exclude<Subject, 'anonymous'>, { email: string; password: string }> = {
