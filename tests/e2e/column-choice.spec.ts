@@ -54,9 +54,9 @@ test('a column choice follows the person to another browser, and resets', async 
   // Hide a column and move one, through the columns menu.
   await page.getByText(/^Columns \(12 of 12 shown\)$/).click();
   const menu = page.getByRole('group', { name: 'Columns of the wells grid' });
-  await menu.getByLabel('Seal resistance (GΩ)').uncheck();
+  await menu.getByRole('checkbox', { name: 'Seal resistance (GΩ)' }).uncheck();
   await menu.getByRole('button', { name: 'Move Compound earlier' }).click();
-  await expect(menu.getByLabel('Well')).toBeDisabled();
+  await expect(menu.getByRole('checkbox', { name: /^Well/ })).toBeDisabled();
   await page.getByText(/^Columns \(11 of 12 shown\)$/).click();
   await expect(grid.getByRole('columnheader', { name: 'Seal resistance (GΩ)' })).toHaveCount(0);
   // Widen the role column by dragging its header's edge 80 px.
