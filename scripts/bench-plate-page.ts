@@ -70,9 +70,17 @@ async function main() {
       const interactive = performance.now() - started;
       const nav = await page.evaluate(() => {
         const [entry] = performance.getEntriesByType('navigation') as PerformanceNavigationTiming[];
+        const resources = performance.getEntriesByType('resource') as PerformanceResourceTiming[];
+        const wells = resources.find((r) => /\/api\/plates\/[^/]+\/wells$/.test(new URL(r.name).pathname));
+        const scripts = resources.filter((r) => r.initiatorType === 'script' || r.name.endsWith('.js'));
         return {
           ttfb: entry!.responseStart - entry!.startTime,
           dom: entry!.domInteractive - entry!.startTime,
+          load: entry!.loadEventEnd - entry!.startTime,
+          documentBytes: entry!.decodedBodySize,
+          wellsBytes: wells?.decodedBodySize ?? 0,
+          wellsEnd: wells ? wells.responseEnd - entry!.startTime : 0,
+          scriptBytes: scripts.reduce((sum, r) => sum + r.decodedBodySize, 0),
         };
       });
       return { drawn, interactive, ...nav };
@@ -100,6 +108,12 @@ async function main() {
     summary(
       'interactive: → moves focus, facts shown',
       runs.map((r) => r.interactive),
+    );
+    const last = runs.at(-1)!;
+    console.log(
+      `bytes (decoded, last load): document ${(last.documentBytes / 1024).toFixed(0)} KiB · ` +
+        `wells JSON ${last.wellsBytes ? `${(last.wellsBytes / 1024).toFixed(0)} KiB, answered at ${last.wellsEnd.toFixed(0)} ms` : 'not fetched (rendered with the page)'} · ` +
+        `scripts ${(last.scriptBytes / 1024).toFixed(0)} KiB (from the cache when warm)`,
     );
   } finally {
     await browser.close();

@@ -107,11 +107,15 @@ export function useGridLayout<Row>(grid: GridName, defs: ColDef<Row>[], initial:
     return mountedWith.flatMap((choice) => {
       const def = byId.get(choice.id);
       if (!def) return [];
+      // Initial attributes only: ag-grid applies hide, width and flex again whenever it refreshes the
+      // columns (a new defaultColDef on a render), which would undo what the person did since.
+      const { hide: _hide, width, flex, ...rest } = def;
       return [
         {
-          ...def,
-          hide: choice.hidden,
-          ...(choice.width !== null ? { width: choice.width, flex: undefined } : {}),
+          ...rest,
+          initialHide: choice.hidden,
+          initialWidth: choice.width ?? width,
+          initialFlex: choice.width !== null ? undefined : (flex ?? undefined),
         },
       ];
     });
