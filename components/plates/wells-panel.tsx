@@ -4,15 +4,26 @@ import type { ColDef, RowDataUpdatedEvent, SelectionChangedEvent } from 'ag-grid
 import { useMemo, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { BusyButton } from '@/components/ui/busy-button';
-import { DataGrid } from '@/components/ui/data-grid';
+import dynamic from 'next/dynamic';
+import type { DataGridProps } from '@/components/ui/data-grid';
 import { GRID_ALWAYS_SHOWN, type GridColumnChoice } from '@/lib/domain/grid-layouts';
-import { exclusionSchema, type WellRowView } from '@/lib/validation/plates';
+import { exclusionSchema, type WellRowView, type WellsResponse } from '@/lib/validation/plates';
 import { GridColumnsMenu } from './grid-columns-menu';
 import { useGridLayout } from './use-grid-layout';
 import { plateJobsKey } from './plate-jobs';
 import { fitsKey, postJson, usePlateWells, wellsKey } from './plate-data';
 import { MAP_MODES, MAP_MODE_LABEL, type MapMode } from './map-colours';
 import { PlateMap } from './plate-map';
+
+// ag-grid is a large script: it loads after the page is interactive, so the plate map answers first.
+const DataGrid = dynamic(() => import('@/components/ui/data-grid').then((m) => m.DataGrid), {
+  ssr: false,
+  loading: () => (
+    <p role="status" className="text-sm text-ink-500">
+      Loading the wells grid…
+    </p>
+  ),
+}) as <Row>(props: DataGridProps<Row>) => React.ReactNode;
 
 const fmt = (digits: number) => (p: { value: unknown }) =>
   typeof p.value === 'number' ? p.value.toPrecision(digits) : '—';
@@ -104,6 +115,7 @@ export function WellsPanel({
   canEdit,
   initialMode = 'block',
   initialLayout = null,
+  initialWells,
 }: {
   plateId: string;
   format: number;
@@ -112,8 +124,10 @@ export function WellsPanel({
   initialMode?: MapMode;
   /** The person's own column choice of the wells grid, kept on the server; null for the grid's own. */
   initialLayout?: GridColumnChoice[] | null;
+  /** The wells as the server rendered the page: the map draws at once, without a fetch. */
+  initialWells?: WellsResponse;
 }) {
-  const { data, error, isLoading } = usePlateWells(plateId);
+  const { data, error, isLoading } = usePlateWells(plateId, initialWells);
   const { mutate } = useSWRConfig();
   const targets = useMemo(() => [...new Set(data?.wells.map((w) => w.target))], [data]);
   const [target, setTarget] = useState<string | null>(null);
