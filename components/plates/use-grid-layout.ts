@@ -107,8 +107,9 @@ export function useGridLayout<Row>(grid: GridName, defs: ColDef<Row>[], initial:
     return mountedWith.flatMap((choice) => {
       const def = byId.get(choice.id);
       if (!def) return [];
-      // Initial attributes only: ag-grid applies hide, width and flex again whenever it refreshes the
-      // columns (a new defaultColDef on a render), which would undo what the person did since.
+      // Initial attributes only: were ag-grid given its column definitions again, it would apply hide,
+      // width and flex again and undo what the person did since (as it would the order, but for
+      // maintainColumnOrder below).
       const { hide: _hide, width, flex, ...rest } = def;
       return [
         {
@@ -122,6 +123,8 @@ export function useGridLayout<Row>(grid: GridName, defs: ColDef<Row>[], initial:
   }, [defs, mountedWith]);
 
   const gridEvents = {
+    // Should the grid ever be given its column definitions again, it keeps the order the person chose.
+    maintainColumnOrder: true,
     onGridReady: (e: GridReadyEvent<Row>) => {
       api.current = e.api;
     },

@@ -1,6 +1,12 @@
 'use client';
 
-import type { ColDef, RowDataUpdatedEvent, SelectionChangedEvent } from 'ag-grid-community';
+import type {
+  ColDef,
+  RowDataUpdatedEvent,
+  RowSelectionOptions,
+  SelectionChangedEvent,
+  SelectionColumnDef,
+} from 'ag-grid-community';
 import { useMemo, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { BusyButton } from '@/components/ui/busy-button';
@@ -101,6 +107,27 @@ const COLUMNS = (
     },
   ] satisfies ColDef<WellRowView>[] as ColDef<WellRowView>[]
 ).map((c) => ({ headerTooltip: c.headerName, colId: c.field, ...c }));
+
+// Long headers wrap and the header grows to hold them. Rows are filtered by the QC choice above the grid,
+// not in the headers. A constant: a new object on a render would rebuild the columns in their defined
+// order, undoing a column the person moved (components/ui/data-grid.tsx).
+const WELL_COLUMN_DEFAULTS: ColDef<WellRowView> = {
+  wrapHeaderText: true,
+  autoHeaderHeight: true,
+  sortable: true,
+  resizable: true,
+  filter: false,
+};
+
+// Wells are picked by their boxes only. Constants, as above: the grid is not reconfigured on each render.
+const WELL_SELECTION: RowSelectionOptions<WellRowView> = {
+  mode: 'multiRow',
+  checkboxes: true,
+  headerCheckbox: true,
+  enableClickSelection: false,
+};
+// The boxes stay beside the pinned well column when the grid scrolls sideways.
+const WELL_SELECTION_COLUMN: SelectionColumnDef = { pinned: 'left' };
 
 const COLUMN_NAMES = Object.fromEntries(COLUMNS.map((c) => [c.colId!, c.headerName!]));
 
@@ -329,7 +356,7 @@ export function WellsPanel({
         key={columnChoice.gridKey}
         label={`Wells of ${current}`}
         rows={gridRows}
-        defaultColDef={{ wrapHeaderText: true, autoHeaderHeight: true }}
+        defaultColDef={WELL_COLUMN_DEFAULTS}
         tooltipShowDelay={300}
         // Twelve columns: all drawn, so that every cell's text is in the page whatever the scroll.
         suppressColumnVirtualisation
@@ -340,14 +367,8 @@ export function WellsPanel({
         // Wells are picked only where they can be excluded: a locked plate's grid has no selection boxes.
         {...(editable
           ? {
-              rowSelection: {
-                mode: 'multiRow',
-                checkboxes: true,
-                headerCheckbox: true,
-                enableClickSelection: false,
-              } as const,
-              // The boxes stay beside the pinned well column when the grid scrolls sideways.
-              selectionColumnDef: { pinned: 'left' as const },
+              rowSelection: WELL_SELECTION,
+              selectionColumnDef: WELL_SELECTION_COLUMN,
               onSelectionChanged: (e: SelectionChangedEvent<WellRowView>) =>
                 setSelected(new Set(e.api.getSelectedRows().map((r) => r.id))),
               onRowDataUpdated: (e: RowDataUpdatedEvent<WellRowView>) =>
