@@ -96,10 +96,18 @@ test('a column choice follows the person to another browser, and resets', async 
   await expect(other.getByText('Your own column choice')).toBeVisible();
   await shootAtTwoSizes(other, 'wells-grid-own-columns');
   await other.getByText(/^Columns \(11 of 12 shown\)$/).click();
-  await other.setViewportSize({ width: 1440, height: 900 });
-  await other.screenshot({ path: 'test-output/screenshots/wells-grid-columns-menu-1440x900.png' });
-  await other.setViewportSize({ width: 1024, height: 768 });
-  await other.screenshot({ path: 'test-output/screenshots/wells-grid-columns-menu-1024x768.png' });
+  const otherMenu = other.getByRole('group', { name: 'Columns of the wells grid' });
+  for (const [width, height] of [
+    [1440, 900],
+    [1024, 768],
+  ] as const) {
+    await other.setViewportSize({ width, height });
+    // The open menu in view, whatever the window's height.
+    await otherMenu.scrollIntoViewIfNeeded();
+    await other.screenshot({
+      path: `test-output/screenshots/wells-grid-columns-menu-${width}x${height}.png`,
+    });
+  }
   await other.getByText(/^Columns \(11 of 12 shown\)$/).click();
 
   // Reset: the grid's own columns at once, forgotten on the server, and so on the next visit.
