@@ -51,7 +51,10 @@ export function DownloadMenu({ kind, id }: { kind: 'plate' | 'compound'; id: str
           {kind === 'plate'
             ? ', the plate’s state and its signatures'
             : ', each plate’s state and its signatures'}
-          . Missing forecasts are computed first, which can take a few seconds.
+          .{' '}
+          {kind === 'plate'
+            ? 'The workbook and the forecast table compute missing forecasts first, which can take a few seconds.'
+            : 'Missing forecasts are computed first, which can take a few seconds.'}
         </p>
       </div>
     </details>
