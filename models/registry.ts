@@ -7,6 +7,7 @@ export { CompoundAlias } from './compound-alias';
 export { ComputeJob } from './compute-job';
 export { Fit } from './fit';
 export { Forecast } from './forecast';
+export { GridLayout } from './grid-layout';
 export { ImportDraft } from './import-draft';
 export { ImportTemplate } from './import-template';
 export { ImportUpload } from './import-upload';

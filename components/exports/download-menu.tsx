@@ -1,3 +1,4 @@
+import { DownloadButton } from './download-button';
 const TABLES = {
   plate: [
     ['wells', 'Wells'],
@@ -27,23 +28,21 @@ export function DownloadMenu({ kind, id }: { kind: 'plate' | 'compound'; id: str
       <div className="absolute right-0 z-20 mt-1 w-72 rounded-md border border-ink-100 bg-card p-2 text-sm shadow-lg">
         <ul>
           <li>
-            <a
-              className="block rounded px-3 py-2 font-medium hover:bg-paper"
+            <DownloadButton
+              className="w-full rounded px-3 py-2 text-left font-medium hover:bg-paper"
               href={`${base}?format=xlsx`}
-              download
             >
               Workbook with every table (xlsx)
-            </a>
+            </DownloadButton>
           </li>
           {TABLES[kind].map(([key, label]) => (
             <li key={key}>
-              <a
-                className="block rounded px-3 py-2 hover:bg-paper"
+              <DownloadButton
+                className="w-full rounded px-3 py-2 text-left hover:bg-paper"
                 href={`${base}?format=csv&table=${key}`}
-                download
               >
                 {label} (csv)
-              </a>
+              </DownloadButton>
             </li>
           ))}
         </ul>
@@ -52,7 +51,10 @@ export function DownloadMenu({ kind, id }: { kind: 'plate' | 'compound'; id: str
           {kind === 'plate'
             ? ', the plate’s state and its signatures'
             : ', each plate’s state and its signatures'}
-          . Missing forecasts are computed first, which can take a few seconds.
+          .{' '}
+          {kind === 'plate'
+            ? 'The workbook and the forecast table compute missing forecasts first, which can take a few seconds.'
+            : 'Missing forecasts are computed first, which can take a few seconds.'}
         </p>
       </div>
     </details>

@@ -6,6 +6,7 @@ import { postJson } from '@/components/plates/plate-data';
 import { isOpen, plateJobsKey, usePlateJobs } from '@/components/plates/plate-jobs';
 import type { PlateForecastList } from '@/lib/validation/forecasts';
 import { plateForecastListKey } from './forecast-data';
+import { BusyButton } from '@/components/ui/busy-button';
 
 /**
  * Queues a forecast run over the plate: every compound with a usable IC50 and no stored forecast,
@@ -44,18 +45,19 @@ export function ForecastAll({ list, at }: { list: PlateForecastList; at: number 
 
   return (
     <div className="space-y-2 text-sm">
-      <button
-        type="button"
-        className="gw-button w-full"
+      <BusyButton
+        className="gw-button w-full justify-center"
         onClick={start}
-        disabled={todo.length === 0 || running || starting}
+        busy={starting || running}
+        busyLabel={running ? 'Forecast run under way' : 'Queuing the run…'}
+        disabled={todo.length === 0}
       >
         {running
           ? 'Forecast run under way'
           : todo.length
             ? `Forecast the ${todo.length} not yet computed`
             : 'Every forecast is stored'}
-      </button>
+      </BusyButton>
       <div role="status" aria-live="polite" className="min-h-5 text-xs text-ink-700">
         {error ? (
           <span className="text-signal-fail">{error}</span>

@@ -1,4 +1,5 @@
 import type { InputHTMLAttributes } from 'react';
+import { BusyButton } from '@/components/ui/busy-button';
 
 /** A labelled input with its error messages in an aria-live region beside it. */
 export function Field({
@@ -69,9 +70,9 @@ export function SubmitRow({
 }) {
   return (
     <div className={className}>
-      <button type="submit" className="gw-button" disabled={pending}>
-        {pending ? pendingLabel : label}
-      </button>
+      <BusyButton type="submit" busy={pending} busyLabel={pendingLabel}>
+        {label}
+      </BusyButton>
       <FormMessage ok={state.ok} message={state.message} />
     </div>
   );

@@ -22,6 +22,7 @@ import { PlatesInFile, PlateSplitChoice, StoredPlates } from './plates-in-file';
 import { PreviewStep } from './preview-step';
 import { UnknownCompoundsPanel } from './unknown-compounds';
 import { ValueMaps } from './value-maps';
+import { BusyButton } from '@/components/ui/busy-button';
 
 export interface WizardScreen {
   id: string;
@@ -89,6 +90,7 @@ export function ImportWizard({
   const [preview, setPreview] = useState<Preview | null>(null);
   const [label, setLabel] = useState(resume?.choice.label ?? '');
   const [templateName, setTemplateName] = useState('');
+  const [deleting, setDeleting] = useState(false);
   const [busy, setBusy] = useState(false);
   /** The stage of the work under way (upload, reading, checking, the import job's stages). */
   const [progress, setProgress] = useState<WorkProgress | null>(null);
@@ -142,11 +144,12 @@ export function ImportWizard({
     const t = templates.find((x) => x.id === templateId);
     if (!t || !window.confirm(`Delete the template “${t.name}”? Plates imported with it keep their data.`))
       return;
+    setDeleting(true);
     const ok = await run(async () => {
       const response = await fetch(`/api/import-templates/${t.id}`, { method: 'DELETE' });
       if (!response.ok) throw new Error(`The template could not be deleted (${response.status}).`);
       return true;
-    });
+    }).finally(() => setDeleting(false));
     if (!ok) return;
     setTemplates(templates.filter((x) => x.id !== t.id));
     setTemplateId('');
@@ -302,14 +305,9 @@ export function ImportWizard({
             </p>
           ) : null}
           <div className="sm:col-span-2">
-            <button
-              type="button"
-              className="gw-button"
-              disabled={busy || !file || !screenId}
-              onClick={inspect}
-            >
-              {busy ? 'Reading…' : 'Read file'}
-            </button>
+            <BusyButton busy={busy} busyLabel="Reading…" disabled={!file || !screenId} onClick={inspect}>
+              Read file
+            </BusyButton>
             <ImportProgress progress={progress} />
           </div>
         </section>
@@ -356,9 +354,15 @@ export function ImportWizard({
                 ))}
               </select>
               {templateId ? (
-                <button type="button" className="gw-button-quiet mt-1 text-xs" onClick={deleteTemplate}>
+                <BusyButton
+                  className="gw-button-quiet mt-1 text-xs"
+                  busy={deleting}
+                  busyLabel="Deleting…"
+                  disabled={busy}
+                  onClick={deleteTemplate}
+                >
                   Delete this template
-                </button>
+                </BusyButton>
               ) : null}
             </div>
             <div>
@@ -450,9 +454,9 @@ export function ImportWizard({
             <button type="button" className="gw-button-quiet" disabled={busy} onClick={() => setStep(0)}>
               Back
             </button>
-            <button type="button" className="gw-button" disabled={busy} onClick={check}>
-              {busy ? 'Checking…' : 'Check every row'}
-            </button>
+            <BusyButton busy={busy} busyLabel="Checking…" onClick={check}>
+              Check every row
+            </BusyButton>
           </div>
           <ImportProgress progress={progress} />
         </section>
@@ -546,26 +550,19 @@ export function ImportWizard({
               >
                 Back to mapping
               </button>
-              <button
-                type="button"
-                className="gw-button"
+              <BusyButton
+                busy={busy || leaving}
+                busyLabel="Storing…"
                 disabled={
-                  busy ||
-                  leaving ||
+                  stored !== null ||
                   storing !== null ||
                   !preview.ok ||
                   (several ? preview.plates.some((p) => !labels[p.key]?.trim()) : !label.trim())
                 }
                 onClick={store}
               >
-                {stored
-                  ? 'Stored'
-                  : busy || leaving
-                    ? 'Storing…'
-                    : several
-                      ? `Store ${preview.plates.length} plates`
-                      : 'Store plate'}
-              </button>
+                {stored ? 'Stored' : several ? `Store ${preview.plates.length} plates` : 'Store plate'}
+              </BusyButton>
             </div>
             {progress?.work === 'commit' ? (
               <div className="sm:col-span-3">

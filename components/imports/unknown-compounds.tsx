@@ -1,6 +1,7 @@
 'use client';
 
 import { useState } from 'react';
+import { BusyButton } from '@/components/ui/busy-button';
 
 /** Posts to an import route and returns its JSON, or throws with the server's message. */
 async function post<T>(path: string, body: FormData | object): Promise<T> {
@@ -131,11 +132,9 @@ export function RegisterUnknownCompounds({
       <p role="alert" aria-live="assertive" className="min-h-5 text-sm font-medium text-signal-fail">
         {error}
       </p>
-      <button type="button" className="gw-button" disabled={busy} onClick={submit}>
-        {busy
-          ? 'Registering…'
-          : `Register and map ${identifiers.length} identifier${identifiers.length === 1 ? '' : 's'}`}
-      </button>
+      <BusyButton busy={busy} busyLabel="Registering…" onClick={submit}>
+        {`Register and map ${identifiers.length} identifier${identifiers.length === 1 ? '' : 's'}`}
+      </BusyButton>
     </div>
   );
 }
@@ -216,9 +215,9 @@ export function UnknownCompoundsPanel({
           <p role="alert" aria-live="assertive" className="min-h-5 font-medium text-signal-fail">
             {error}
           </p>
-          <button type="button" className="gw-button" disabled={busy} onClick={wait}>
-            {busy ? 'Keeping…' : 'Keep this import waiting for these compounds'}
-          </button>
+          <BusyButton busy={busy} busyLabel="Keeping…" onClick={wait}>
+            Keep this import waiting for these compounds
+          </BusyButton>
         </div>
       )}
       {status ? (

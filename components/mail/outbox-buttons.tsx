@@ -2,6 +2,7 @@
 
 import { useActionState } from 'react';
 import type { FormAction } from '@/lib/actions/validated-action';
+import { BusyButton } from '@/components/ui/busy-button';
 
 /** A one-button form for an outbox command, with its answer announced beside it. */
 export function OutboxButton({
@@ -23,13 +24,14 @@ export function OutboxButton({
       {Object.entries(fields).map(([name, value]) => (
         <input key={name} type="hidden" name={name} value={value} />
       ))}
-      <button
+      <BusyButton
         type="submit"
         className={quiet ? 'gw-button-quiet px-2.5 py-1 text-xs' : 'gw-button'}
-        disabled={pending}
+        busy={pending}
+        busyLabel={busyLabel}
       >
-        {pending ? busyLabel : label}
-      </button>
+        {label}
+      </BusyButton>
       <span
         role="status"
         aria-live="polite"

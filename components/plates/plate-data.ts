@@ -20,8 +20,15 @@ export function schemaFetcher<T>(schema: z.ZodType<T>) {
 export const wellsKey = (plateId: string) => `/api/plates/${plateId}/wells`;
 export const fitsKey = (plateId: string) => `/api/plates/${plateId}/fits`;
 
-export function usePlateWells(plateId: string) {
-  return useSWR(wellsKey(plateId), schemaFetcher(wellsResponseSchema), { revalidateOnFocus: false });
+/**
+ * The plate's wells; `initial`, when the page rendered them on the server, is shown at once and not
+ * fetched again on mount (a change made here fetches them again through `mutate(wellsKey(…))`).
+ */
+export function usePlateWells(plateId: string, initial?: z.infer<typeof wellsResponseSchema>) {
+  return useSWR(wellsKey(plateId), schemaFetcher(wellsResponseSchema), {
+    revalidateOnFocus: false,
+    ...(initial ? { fallbackData: initial, revalidateOnMount: false } : {}),
+  });
 }
 
 export function usePlateFits(plateId: string) {

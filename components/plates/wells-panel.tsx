@@ -1,15 +1,35 @@
 'use client';
 
-import type { ColDef, RowDataUpdatedEvent, SelectionChangedEvent } from 'ag-grid-community';
+import type {
+  ColDef,
+  RowDataUpdatedEvent,
+  RowSelectionOptions,
+  SelectionChangedEvent,
+  SelectionColumnDef,
+} from 'ag-grid-community';
 import { useMemo, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { BusyButton } from '@/components/ui/busy-button';
-import { DataGrid } from '@/components/ui/data-grid';
-import { exclusionSchema, type WellRowView } from '@/lib/validation/plates';
+import dynamic from 'next/dynamic';
+import type { DataGridProps } from '@/components/ui/data-grid';
+import { GRID_ALWAYS_SHOWN, type GridColumnChoice } from '@/lib/domain/grid-layouts';
+import { exclusionSchema, type WellRowView, type WellsResponse } from '@/lib/validation/plates';
+import { GridColumnsMenu } from './grid-columns-menu';
+import { useGridLayout } from './use-grid-layout';
 import { plateJobsKey } from './plate-jobs';
 import { fitsKey, postJson, usePlateWells, wellsKey } from './plate-data';
 import { MAP_MODES, MAP_MODE_LABEL, type MapMode } from './map-colours';
 import { PlateMap } from './plate-map';
+
+// ag-grid is a large script: it loads after the page is interactive, so the plate map answers first.
+const DataGrid = dynamic(() => import('@/components/ui/data-grid').then((m) => m.DataGrid), {
+  ssr: false,
+  loading: () => (
+    <p role="status" className="text-sm text-ink-500">
+      Loading the wells grid…
+    </p>
+  ),
+}) as <Row>(props: DataGridProps<Row>) => React.ReactNode;
 
 const fmt = (digits: number) => (p: { value: unknown }) =>
   typeof p.value === 'number' ? p.value.toPrecision(digits) : '—';
@@ -70,6 +90,7 @@ const COLUMNS = (
       valueFormatter: fmt(3),
     },
     {
+      colId: 'qc',
       headerName: 'QC',
       flex: 1,
       minWidth: 220,
@@ -78,13 +99,37 @@ const COLUMNS = (
       tooltipValueGetter: (p) => p.data?.qcReasons.map((q) => q.message).join('; ') || 'passed',
     },
     {
+      colId: 'excluded',
       headerName: 'Excluded',
       width: 200,
       valueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : ''),
       tooltipValueGetter: (p) => (p.data?.excluded ? `yes: ${p.data.exclusionReason}` : null),
     },
   ] satisfies ColDef<WellRowView>[] as ColDef<WellRowView>[]
-).map((c) => ({ headerTooltip: c.headerName, ...c }));
+).map((c) => ({ headerTooltip: c.headerName, colId: c.field, ...c }));
+
+// Long headers wrap and the header grows to hold them. Rows are filtered by the QC choice above the grid,
+// not in the headers. A constant: a new object on a render would rebuild the columns in their defined
+// order, undoing a column the person moved (components/ui/data-grid.tsx).
+const WELL_COLUMN_DEFAULTS: ColDef<WellRowView> = {
+  wrapHeaderText: true,
+  autoHeaderHeight: true,
+  sortable: true,
+  resizable: true,
+  filter: false,
+};
+
+// Wells are picked by their boxes only. Constants, as above: the grid is not reconfigured on each render.
+const WELL_SELECTION: RowSelectionOptions<WellRowView> = {
+  mode: 'multiRow',
+  checkboxes: true,
+  headerCheckbox: true,
+  enableClickSelection: false,
+};
+// The boxes stay beside the pinned well column when the grid scrolls sideways.
+const WELL_SELECTION_COLUMN: SelectionColumnDef = { pinned: 'left' };
+
+const COLUMN_NAMES = Object.fromEntries(COLUMNS.map((c) => [c.colId!, c.headerName!]));
 
 const QC_ANY = '';
 const QC_PASSED = ':passed';
@@ -100,14 +145,20 @@ export function WellsPanel({
   format,
   canEdit,
   initialMode = 'block',
+  initialLayout = null,
+  initialWells,
 }: {
   plateId: string;
   format: number;
   canEdit: boolean;
   /** The colouring the map opens on: compound for someone who verifies the compound map. */
   initialMode?: MapMode;
+  /** The person's own column choice of the wells grid, kept on the server; null for the grid's own. */
+  initialLayout?: GridColumnChoice[] | null;
+  /** The wells as the server rendered the page: the map draws at once, without a fetch. */
+  initialWells?: WellsResponse;
 }) {
-  const { data, error, isLoading } = usePlateWells(plateId);
+  const { data, error, isLoading } = usePlateWells(plateId, initialWells);
   const { mutate } = useSWRConfig();
   // A target with a use-dependent readout is shown once per readout (exclusions still act on the well).
   const targets = useMemo(() => [...new Set(data?.wells.map(readoutChoice))], [data]);
@@ -118,6 +169,7 @@ export function WellsPanel({
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [busy, setBusy] = useState<'exclude' | 'include' | null>(null);
   const [qcFilter, setQcFilter] = useState(QC_ANY);
+  const columnChoice = useGridLayout<WellRowView>('plate-wells', COLUMNS, initialLayout);
 
   if (error)
     return (
@@ -294,27 +346,34 @@ export function WellsPanel({
           {gridRows.length} of {wells.length} wells shown
         </p>
       </div>
+      <GridColumnsMenu
+        layout={columnChoice.layout}
+        names={COLUMN_NAMES}
+        alwaysShown={GRID_ALWAYS_SHOWN['plate-wells']}
+        own={columnChoice.own}
+        status={columnChoice.status}
+        resetting={columnChoice.resetting}
+        onShow={columnChoice.show}
+        onMove={columnChoice.move}
+        onReset={() => void columnChoice.reset()}
+      />
       <DataGrid<WellRowView>
+        key={columnChoice.gridKey}
         label={`Wells of ${current}`}
         rows={gridRows}
-        defaultColDef={{ wrapHeaderText: true, autoHeaderHeight: true }}
+        defaultColDef={WELL_COLUMN_DEFAULTS}
         tooltipShowDelay={300}
         // Twelve columns: all drawn, so that every cell's text is in the page whatever the scroll.
         suppressColumnVirtualisation
-        columns={COLUMNS}
+        columns={columnChoice.columns}
+        {...columnChoice.gridEvents}
         height={480}
         getRowId={(p) => p.data.readoutId}
         // Wells are picked only where they can be excluded: a locked plate's grid has no selection boxes.
         {...(editable
           ? {
-              rowSelection: {
-                mode: 'multiRow',
-                checkboxes: true,
-                headerCheckbox: true,
-                enableClickSelection: false,
-              } as const,
-              // The boxes stay beside the pinned well column when the grid scrolls sideways.
-              selectionColumnDef: { pinned: 'left' as const },
+              rowSelection: WELL_SELECTION,
+              selectionColumnDef: WELL_SELECTION_COLUMN,
               onSelectionChanged: (e: SelectionChangedEvent<WellRowView>) =>
                 setSelected(new Set(e.api.getSelectedRows().map((r) => r.id))),
               onRowDataUpdated: (e: RowDataUpdatedEvent<WellRowView>) =>

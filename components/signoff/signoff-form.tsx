@@ -4,6 +4,7 @@ import { startTransition, useActionState, useRef, useState, type FormEvent } fro
 import { FormMessage } from '@/components/forms/field';
 import type { ActionState, FormAction } from '@/lib/actions/validated-action';
 import type { SignoffAction } from '@/lib/domain/plate-states';
+import { BusyButton } from '@/components/ui/busy-button';
 
 export interface FormQcWarning {
   key: string;
@@ -198,9 +199,9 @@ function StepFields({
           </p>
         </div>
       ) : null}
-      <button type="submit" className="gw-button" disabled={pending}>
-        {pending ? 'Signing…' : `Sign: ${choice.label}`}
-      </button>
+      <BusyButton type="submit" busy={pending} busyLabel="Signing…">
+        {`Sign: ${choice.label}`}
+      </BusyButton>
     </>
   );
 }

@@ -8,6 +8,7 @@ import {
   type GridOptions,
 } from 'ag-grid-community';
 import { AgGridReact } from 'ag-grid-react';
+import { useMemo } from 'react';
 import { useStyleNonce } from './csp-context';
 
 ModuleRegistry.registerModules([AllCommunityModule]);
@@ -36,17 +37,33 @@ export interface DataGridProps<Row> extends Omit<GridOptions<Row>, 'theme' | 'ro
   height?: number | string;
 }
 
-/** An ag-grid with Gatewell's theme, keyboard navigation and an accessible name. */
-export function DataGrid<Row>({ rows, columns, label, height = 520, ...options }: DataGridProps<Row>) {
+/**
+ * An ag-grid with Gatewell's theme, keyboard navigation and an accessible name. Pass `columns` and
+ * `defaultColDef` that keep their identity between renders (module constants or memoised): ag-grid
+ * rebuilds its columns whenever either is a new object, and a rebuild puts them back in the order of the
+ * definitions, undoing a column the person moved.
+ */
+export function DataGrid<Row>({
+  rows,
+  columns,
+  label,
+  height = 520,
+  defaultColDef: ownDefaults,
+  ...options
+}: DataGridProps<Row>) {
   // The theme's style tags carry the CSP nonce (lib/security/content-security-policy.ts).
   const styleNonce = useStyleNonce();
+  const defaultColDef = useMemo<ColDef<Row>>(
+    () => ({ sortable: true, resizable: true, filter: true, ...ownDefaults }),
+    [ownDefaults],
+  );
   return (
     <div role="region" aria-label={label} style={{ height }} className="w-full">
       <AgGridReact<Row>
         theme={gatewellGridTheme}
         rowData={rows}
         columnDefs={columns}
-        defaultColDef={{ sortable: true, resizable: true, filter: true, ...options.defaultColDef }}
+        defaultColDef={defaultColDef}
         ensureDomOrder
         enableCellTextSelection
         styleNonce={styleNonce}

@@ -89,7 +89,14 @@ export function errorResponse(error: unknown): NextResponse {
  */
 export function withUser<Params = Record<string, never>>(
   handler: Handler<Params>,
-  options: { roles?: readonly Role[] } = {},
+  options: {
+    roles?: readonly Role[];
+    /**
+     * A read the page makes on its own (the bell's count on a timer), not the person: it leaves the
+     * session's idle clock where it was, so that an open tab nobody uses still ends its session.
+     */
+    background?: boolean;
+  } = {},
 ) {
   return async (request: NextRequest, context: RouteContext<Params>): Promise<Response> => {
     try {
@@ -99,7 +106,7 @@ export function withUser<Params = Record<string, never>>(
       refuseUntilOwnPassword(actor);
       if (options.roles?.length) requireRole(actor, ...options.roles);
       const response = await handler(request, actor, context);
-      if (request.method === 'GET') await renewSession(request);
+      if (request.method === 'GET' && !options.background) await renewSession(request);
       return response;
     } catch (error) {
       return errorResponse(error);

@@ -5,9 +5,12 @@ import { PLATE_STATE_LABEL } from '@/lib/domain/plate-states';
 import { listPlateForecasts, getPlateForecast } from '@/lib/forecasts/plate-forecast';
 import { getPlateHeader, listPlateFits, listPlateWells } from '@/lib/plates/detail';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
+import { PLATE_EXPORT_TABLES } from '@/lib/validation/exports';
 import type { ExportDocument, ExportTable } from './document';
 import { forecastTable } from './forecast-rows';
 import { listPlateSignoffs, signoffLines, signoffTable } from './signoffs';
+
+type PlateExportTable = (typeof PLATE_EXPORT_TABLES)[number];
 
 const FIT_STATUS_WORDS: Record<string, string> = {
   fitted: 'Fitted',
@@ -108,10 +111,13 @@ function fitsTable(fits: Awaited<ReturnType<typeof listPlateFits>>): ExportTable
 /**
  * A plate's export: about lines (caution, plate, state, signatures), then sign-off, wells, fits and
  * the forecast of every compound at the exposures (stored forecasts reused, missing ones computed).
+ * `tables` names the tables wanted (a csv file holds one): only a forecast table computes forecasts, so
+ * that the wells or fits of a plate download at once and store nothing.
  */
 export async function plateExport(
   actor: Actor,
   plateId: string,
+  tables: readonly PlateExportTable[] = PLATE_EXPORT_TABLES,
 ): Promise<{ label: string; document: ExportDocument }> {
   const header = await getPlateHeader(actor, plateId);
   const [wells, fits, signoffs, list] = await Promise.all([
@@ -121,9 +127,9 @@ export async function plateExport(
     listPlateForecasts(actor, plateId),
   ]);
   // All at once: each missing forecast is a job on the queue, and the workers share the control's computation.
-  const forecasts = await Promise.all(
-    list.compounds.map((c) => getPlateForecast(actor, plateId, c.compoundId)),
-  );
+  const forecasts = tables.includes('forecast')
+    ? await Promise.all(list.compounds.map((c) => getPlateForecast(actor, plateId, c.compoundId)))
+    : [];
   const about: ExportDocument['about'] = [
     ['Gatewell export', `Plate ${header.label}: wells, fits and forecast`],
     ['Caution', FORECAST_CAUTION],
@@ -156,8 +162,8 @@ export async function plateExport(
         signoffTable(signoffs),
         wellsTable(wells),
         fitsTable(fits),
-        forecastTable(forecasts, FORECAST_CAUTION),
-      ],
+        ...(tables.includes('forecast') ? [forecastTable(forecasts, FORECAST_CAUTION)] : []),
+      ].filter((table) => tables.includes(table.key as PlateExportTable)),
     },
   };
 }

@@ -101,4 +101,5 @@ export const fitsResponseSchema = z.object({
 });
 
 export type WellRowView = z.infer<typeof wellRowSchema>;
+export type WellsResponse = z.infer<typeof wellsResponseSchema>;
 export type FitView = z.infer<typeof fitViewSchema>;

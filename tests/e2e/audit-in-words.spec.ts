@@ -155,7 +155,7 @@ test('the audit trail pages through many events, and downloads every event the f
   // The download from page 2 holds every page of the filter, each row the compound's, in words.
   const [download] = await Promise.all([
     page.waitForEvent('download'),
-    page.getByRole('link', { name: 'csv', exact: true }).click(),
+    page.getByRole('button', { name: 'csv', exact: true }).click(),
   ]);
   const cells = csvCells(readFileSync((await download.path())!, 'utf8'));
   expect(cells.some((row) => row[0] === 'Filter' && row[1] === `compound ${compound!.identifier}`)).toBe(

@@ -170,6 +170,6 @@ test('a compound profile gathers fits across plates, selectivity and the forecas
 
   await page.locator('summary', { hasText: 'Download' }).click();
   const download = page.waitForEvent('download');
-  await page.getByRole('link', { name: 'Workbook with every table (xlsx)' }).click();
+  await page.getByRole('button', { name: 'Workbook with every table (xlsx)' }).click();
   expect((await download).suggestedFilename()).toBe('gatewell-compound-GW-0001.xlsx');
 });

@@ -92,3 +92,45 @@ test('the bell counts new notices; opening one goes to its plate and the count f
   expect(await stored()).toEqual({ delivery: 'mail_and_app' });
   await context.close();
 });
+
+test('the bell counts a new notice without a reload: on its timer and when the window comes back', async ({
+  browser,
+}) => {
+  const { context, page } = await signedInContext(browser, 'chemist');
+  const tell = (title: string) =>
+    queryOne(
+      `insert into notices (recipient_id, kind, title, body_text, link_path)
+       select id, 'plate_imported', $1, 'A notice written by the live-bell test.', '/plates'
+         from users where email = 'chemist@gatewell.test'`,
+      [title],
+    );
+  // The page's own clock, so the bell's 30-second timer can be run on at once.
+  await page.clock.install();
+  await page.goto('/');
+  const before = await unseenInDatabase();
+  const bell = page.getByRole('link', { name: /^Notices, / });
+  await expect(bell).toHaveAccessibleName(bellLabel(before));
+  const asked: string[] = [];
+  page.on('request', (request) => {
+    if (new URL(request.url()).pathname === '/api/notices/unseen') asked.push(request.method());
+  });
+
+  // A notice arrives while the page is open; the window comes back into view: the count follows.
+  await tell('Live bell: back in view');
+  await page.evaluate(() => window.dispatchEvent(new Event('focus')));
+  await expect(bell).toHaveAccessibleName(bellLabel(before + 1));
+  await expect(page.getByTestId('notice-count')).toHaveText(String(before + 1));
+
+  // Another arrives; nothing is done in the page but time passing: the timer brings it.
+  await tell('Live bell: on the timer');
+  await page.clock.runFor(31_000);
+  await expect(bell).toHaveAccessibleName(bellLabel(before + 2));
+  expect(asked.length).toBeGreaterThanOrEqual(2);
+  expect(page.url()).toMatch(/\/$/);
+  await shoot(page, 'notice-bell-live');
+
+  await queryOne(`update notices set seen_at = now() where title like 'Live bell: %' and seen_at is null`);
+  await page.evaluate(() => window.dispatchEvent(new Event('focus')));
+  await expect(bell).toHaveAccessibleName(bellLabel(before));
+  await context.close();
+});

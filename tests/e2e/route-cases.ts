@@ -55,6 +55,7 @@ export type Table =
   | 'signoff_events'
   | 'targets'
   | 'user_roles'
+  | 'user_grid_layouts'
   | 'users';
 
 /** Real records of the demo data (and the matrix's own accounts) that valid requests name. */
@@ -69,6 +70,8 @@ export interface Ids {
   screenName: string;
   templateId: string;
   userId: string;
+  /** A grid whose layout a person keeps (lib/domain/grid-layouts.ts). */
+  grid: string;
   /** The no-role account's e-mail and password (for sign-in and signatures). */
   readerEmail: string;
   password: string;
@@ -89,6 +92,11 @@ export interface RouteCase {
   expect: Record<Subject, Outcome>;
   writes?: Table[];
   body?: (ids: Ids, file: () => Upload) => Body;
+  /**
+   * The exact status of a call that is let in (a reader whose outcome is 200, sending no body), where the
+   * row says it; otherwise a let-in call need only get past sign-in and the role check.
+   */
+  letIn?: number;
 }
 
 export interface ActionCase {
@@ -129,7 +137,11 @@ const page = (route: string, roles?: Role[]): RouteCase => ({
 });
 
 /** A route handler behind withUser: 401 without a session, 403 outside `roles`. */
-const api = (route: string, roles?: Role[], more: Pick<RouteCase, 'writes' | 'body'> = {}): RouteCase => ({
+const api = (
+  route: string,
+  roles?: Role[],
+  more: Pick<RouteCase, 'writes' | 'body' | 'letIn'> = {},
+): RouteCase => ({
   route,
   expect: { anonymous: 401, ended: 401, 'first-sign-in': 403, ...only(roles) },
   ...more,
@@ -185,6 +197,8 @@ export const ROUTE_CASES: RouteCase[] = [
   // Every download is audited: a refused one must not be.
   api('GET /api/audit/export', READ_AUDIT, { writes: ['audit_events'] }),
   api('GET /api/import-templates'),
+  // The bell's count: each reader's own, 200 with the number; not before the person's own password.
+  api('GET /api/notices/unseen', undefined, { letIn: 200 }),
   api('GET /api/compounds/[compoundId]/export', undefined, { writes: ['audit_events'] }),
   api('GET /api/compounds/[compoundId]/forecast', undefined, { writes: ['forecasts'] }),
   api('GET /api/plates/[plateId]/export', undefined, { writes: ['audit_events'] }),
@@ -249,6 +263,15 @@ export const ROUTE_CASES: RouteCase[] = [
   }),
   // A forecast run computes results from approved fits: reading results needs no role (DESIGN.md).
   api('POST /api/plates/[plateId]/jobs', undefined, { writes: ['compute_jobs'], body: () => ({ json: {} }) }),
+  // A person's own grid layout: every reader keeps and resets their own, not before their own password.
+  // Let in with no body, a PUT is refused as invalid (422); a DELETE answers 204, kept layout or none.
+  // The refused actors each hold a layout (route-matrix.spec.ts), so a DELETE let through would show.
+  api('PUT /api/grid-layouts/[grid]', undefined, {
+    writes: ['user_grid_layouts'],
+    body: () => ({ json: { columns: [{ id: 'position', hidden: false, width: 90 }] } }),
+    letIn: 422,
+  }),
+  api('DELETE /api/grid-layouts/[grid]', undefined, { writes: ['user_grid_layouts'], letIn: 204 }),
 ];
 
 /** A server action of a signed-in page: the proxy sends anonymous visitors to sign-in, the action refuses the rest. */

@@ -170,6 +170,14 @@ async function ensureAccounts(counter: Counter): Promise<void> {
     `insert into user_roles (user_id, role) select id, 'admin' from users where email = $1 on conflict do nothing`,
     [FIRST_EMAIL],
   );
+  // The accounts a grid-layout call refuses each keep a layout: a refused DELETE must leave it there.
+  await counter.one(
+    `insert into user_grid_layouts (user_id, grid, columns)
+     select id, 'plate-wells', '[{"id": "position", "hidden": false, "width": 90}]'::jsonb
+       from users where email = any($1)
+     on conflict (user_id, grid) do nothing`,
+    [[ENDED_EMAIL, FIRST_EMAIL]],
+  );
 }
 
 const disableAccounts = (counter: Counter) =>
@@ -193,7 +201,7 @@ async function idsOf(counter: Counter): Promise<Ids & Record<string, string>> {
     [READER_EMAIL],
   );
   for (const [key, value] of Object.entries(ids)) expect(value, `demo data holds a ${key}`).toBeTruthy();
-  return { ...ids, readerEmail: READER_EMAIL, password: DEMO.chemist.password };
+  return { ...ids, grid: 'plate-wells', readerEmail: READER_EMAIL, password: DEMO.chemist.password };
 }
 
 const ACCOUNTS: Record<Exclude<Subject, 'anonymous'>, { email: string; password: string }> = {
@@ -251,7 +259,13 @@ function sendAction(
   });
 }
 
-function checkRoute(response: APIResponse, outcome: Outcome, label: string, isPage: boolean): void {
+function checkRoute(
+  response: APIResponse,
+  outcome: Outcome,
+  label: string,
+  isPage: boolean,
+  letIn?: number,
+): void {
   const status = response.status();
   const location = response.headers()['location'] ?? '';
   if (outcome === 'sign-in') {
@@ -260,6 +274,8 @@ function checkRoute(response: APIResponse, outcome: Outcome, label: string, isPa
   } else if (outcome === 'home' || outcome === 'account') {
     expect([302, 303, 307], label).toContain(status);
     expect(new URL(location, 'http://x').pathname, label).toBe(outcome === 'home' ? '/' : '/account');
+  } else if (outcome === 200 && !isPage && letIn !== undefined) {
+    expect(status, `${label}: let in, the row's exact answer`).toBe(letIn);
   } else if (outcome === 200 && !isPage) {
     // Let in: past sign-in and roles. A changing request's empty body is then refused as invalid (4xx).
     expect(status, `${label}: got past sign-in and role checks`).not.toBe(401);
@@ -392,8 +408,8 @@ test('authorisation matrix: every entry point × every actor, nothing written wh
       const url = fill(pattern, refused ? ids : letInIds);
       return sendRoute(client, method, url, from, refused ? routeCase.body?.(ids, file) : undefined);
     };
-    const routeCheck = (outcome: Outcome) => async (response: APIResponse, label: string) => {
-      checkRoute(response, outcome, label, label.includes(' PAGE '));
+    const routeCheck = (outcome: Outcome, letIn?: number) => async (response: APIResponse, label: string) => {
+      checkRoute(response, outcome, label, label.includes(' PAGE '), letIn);
       return `${response.status()} ${response.headers()['location'] ?? ''}`;
     };
     // Refused for its origin (the actor is let in otherwise), before the body is read.
@@ -417,7 +433,7 @@ test('authorisation matrix: every entry point × every actor, nothing written wh
           expected,
           routeCase.writes ?? [],
           () => routeCall(client, routeCase, refused),
-          routeCheck(expected),
+          routeCheck(expected, routeCase.letIn),
         );
       }
       for (const actionCase of ACTION_CASES) {

@@ -149,7 +149,7 @@ test('an approver follows the account in the audit trail, filtered on the server
   // The filtered trail downloads whole as csv: the filter in its head, only user events below.
   const [download] = await Promise.all([
     page.waitForEvent('download'),
-    page.getByRole('link', { name: 'csv', exact: true }).click(),
+    page.getByRole('button', { name: 'csv', exact: true }).click(),
   ]);
   expect(download.suggestedFilename()).toMatch(/^gatewell-audit-trail-\d{4}-\d{2}-\d{2}-events\.csv$/);
   const lines = readFileSync((await download.path())!, 'utf8').split('\r\n');

@@ -116,6 +116,8 @@ const CHANGING_ENTRY_POINTS: Record<string, string> = {
   'app/api/import-templates/route.ts POST': 'an import template, no plate',
   'app/api/import-templates/[templateId]/route.ts DELETE': 'an import template, no plate',
   'app/api/compounds/bulk/route.ts POST': 'new compounds, on no plate yet',
+  'app/api/grid-layouts/[grid]/route.ts PUT': 'own grid layout, no plate data',
+  'app/api/grid-layouts/[grid]/route.ts DELETE': 'own grid layout, no plate data',
   'app/(app)/plates/[plateId]/signoff/actions.ts signPlateStepAction': 'signPlateStep',
   'app/(app)/compounds/actions.ts createCompoundAction': 'createCompound',
   'app/(app)/compounds/actions.ts updateCompoundAction': 'updateCompound',

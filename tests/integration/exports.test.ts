@@ -11,7 +11,7 @@ import { auditedExportResponse, exportResponse } from '@/lib/exports/respond';
 import { FORECAST_CAUTION } from '@/lib/science/forecast/assemble';
 import { closeForecastPool } from '@/lib/compute/forecast-pool';
 import { compoundExportQuerySchema, plateExportQuerySchema } from '@/lib/validation/exports';
-import { AuditEvent, Compound, Signature, SignoffEvent } from '@/models';
+import { AuditEvent, Compound, Forecast, Signature, SignoffEvent } from '@/models';
 import { makeActor } from '../support/actors';
 import { resetDatabase } from '../support/database';
 import { importDemoPlate } from '../support/demo-plates';
@@ -53,6 +53,20 @@ describe('exports', () => {
   afterAll(async () => {
     await closeForecastPool();
     await db().close();
+  });
+
+  // Runs before the workbook, which stores the plate's forecasts: here none is stored yet.
+  test('a csv of the wells alone computes and stores no forecast', async () => {
+    const stored = () => Forecast.count({ where: { plateId } });
+    expect(await stored()).toBe(0);
+    const { document } = await plateExport(reader, plateId, ['wells']);
+    expect(document.tables.map((t) => t.key)).toEqual(['wells']);
+    expect(document.tables[0]!.rows).toHaveLength(96);
+    expect(await stored()).toBe(0);
+    // The forecast table, asked for, is made and stores what it computed (five compounds on NAV-P01).
+    const forecastOnly = await plateExport(reader, plateId, ['forecast']);
+    expect(forecastOnly.document.tables.map((t) => t.key)).toEqual(['forecast']);
+    expect(await stored()).toBe(5);
   });
 
   test('the plate workbook: about sheet with caution, state and signature, then sign-off, wells, fits and forecast', async () => {

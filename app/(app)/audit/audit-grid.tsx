@@ -94,6 +94,15 @@ function columnsFor(timeZone: string, names: NameLookup): ColDef<AuditRow>[] {
   ];
 }
 
+// Wrapped cells read as lines of text, not lines spaced a whole row apart. A constant: a new object on
+// each render would make the grid rebuild its columns (components/ui/data-grid.tsx).
+const AUDIT_COLUMN_DEFAULTS: ColDef<AuditRow> = {
+  filter: false,
+  sortable: false,
+  resizable: true,
+  cellClass: 'leading-5! py-2.5',
+};
+
 /** One page of audit events, newest first (filtered on the server); a chosen row shows each change in full. */
 export function AuditGrid({
   rows,
@@ -114,8 +123,7 @@ export function AuditGrid({
         rows={rows}
         columns={columns}
         getRowId={(p) => String(p.data.id)}
-        // Wrapped cells read as lines of text, not lines spaced a whole row apart.
-        defaultColDef={{ filter: false, sortable: false, resizable: true, cellClass: 'leading-5! py-2.5' }}
+        defaultColDef={AUDIT_COLUMN_DEFAULTS}
         onRowClicked={(e) => setChosen(e.data ?? null)}
         onCellKeyDown={(e) => {
           if ((e.event as KeyboardEvent | undefined)?.key === 'Enter') setChosen(e.data ?? null);

@@ -10,6 +10,7 @@ import { rolesFor } from '@/lib/domain/roles';
 import { AUDIT_FILTER_KEYS } from '@/lib/validation/audit';
 import { AuditFilterForm, type FilterValues } from './audit-filter-form';
 import { AuditGrid } from './audit-grid';
+import { DownloadButton } from '@/components/exports/download-button';
 
 export const metadata: Metadata = { title: 'Audit trail' };
 
@@ -87,12 +88,12 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
             between={
               <p className="flex items-center gap-2">
                 <span className="text-ink-500">Download all {result.total}:</span>
-                <a className="gw-button-quiet py-1" href={exportHref(values, 'csv')} download>
+                <DownloadButton className="gw-button-quiet py-1" href={exportHref(values, 'csv')}>
                   csv
-                </a>
-                <a className="gw-button-quiet py-1" href={exportHref(values, 'xlsx')} download>
+                </DownloadButton>
+                <DownloadButton className="gw-button-quiet py-1" href={exportHref(values, 'xlsx')}>
                   xlsx
-                </a>
+                </DownloadButton>
               </p>
             }
           >

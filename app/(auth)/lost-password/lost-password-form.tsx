@@ -3,6 +3,7 @@
 import { useActionState } from 'react';
 import { Field, FormMessage } from '@/components/forms/field';
 import { requestPasswordLinkAction, type LinkRequestState } from './actions';
+import { BusyButton } from '@/components/ui/busy-button';
 
 /** One e-mail field; after sending, the form says what happens next, the same for every address. */
 export function LostPasswordForm() {
@@ -19,9 +20,14 @@ export function LostPasswordForm() {
         errors={state.fieldErrors?.email}
       />
       <FormMessage ok={state.ok} message={state.message} />
-      <button type="submit" className="gw-button w-full" disabled={pending}>
-        {pending ? 'Sending…' : 'Send me a link'}
-      </button>
+      <BusyButton
+        type="submit"
+        className="gw-button w-full justify-center"
+        busy={pending}
+        busyLabel="Sending…"
+      >
+        Send me a link
+      </BusyButton>
     </form>
   );
 }

@@ -2,6 +2,7 @@
 
 import { useActionState } from 'react';
 import { signInAction, type SignInState } from './actions';
+import { BusyButton } from '@/components/ui/busy-button';
 
 function FieldError({ id, messages }: { id: string; messages: string[] | undefined }) {
   return (
@@ -50,9 +51,14 @@ export function SignInForm({ next }: { next: string }) {
       <p role="alert" aria-live="assertive" className="min-h-5 text-sm font-medium text-signal-fail">
         {state.message}
       </p>
-      <button type="submit" className="gw-button w-full" disabled={pending}>
-        {pending ? 'Signing in…' : 'Sign in'}
-      </button>
+      <BusyButton
+        type="submit"
+        className="gw-button w-full justify-center"
+        busy={pending}
+        busyLabel="Signing in…"
+      >
+        Sign in
+      </BusyButton>
     </form>
   );
 }

@@ -4,6 +4,7 @@ import { useActionState } from 'react';
 import { Field, FormMessage } from '@/components/forms/field';
 import type { ActionState } from '@/lib/actions/validated-action';
 import { setPasswordByLinkAction } from './actions';
+import { BusyButton } from '@/components/ui/busy-button';
 
 /** The new password twice; the link's token rides along. Password fields are never filled back in. */
 export function NewPasswordForm({
@@ -40,9 +41,14 @@ export function NewPasswordForm({
         errors={errors.confirmPassword}
       />
       <FormMessage ok={state.ok} message={state.message} />
-      <button type="submit" className="gw-button w-full" disabled={pending}>
-        {pending ? 'Setting…' : 'Set new password'}
-      </button>
+      <BusyButton
+        type="submit"
+        className="gw-button w-full justify-center"
+        busy={pending}
+        busyLabel="Setting…"
+      >
+        Set new password
+      </BusyButton>
     </form>
   );
 }

@@ -3,6 +3,7 @@
 import { Field, FormMessage } from '@/components/forms/field';
 import { useFormAction } from '@/components/forms/use-form-action';
 import type { FormAction } from '@/lib/actions/validated-action';
+import { BusyButton } from '@/components/ui/busy-button';
 
 /** Disables an enabled account (its sessions end at once) or enables a disabled one. */
 export function StatusForm({
@@ -32,13 +33,14 @@ export function StatusForm({
         errors={errors.reason}
       />
       <div className="flex flex-wrap items-center gap-3">
-        <button
+        <BusyButton
           type="submit"
-          disabled={pending}
+          busy={pending}
+          busyLabel="Saving…"
           className={enabled ? 'gw-button bg-signal-fail hover:bg-red-800' : 'gw-button'}
         >
-          {pending ? 'Saving…' : enabled ? 'Disable account' : 'Enable account'}
-        </button>
+          {enabled ? 'Disable account' : 'Enable account'}
+        </BusyButton>
         <FormMessage ok={state.ok} message={state.message} />
       </div>
     </form>

@@ -8,7 +8,12 @@ import { parseId } from '@/lib/validation/ids';
 export const GET = withUser<{ plateId: string }>(async (request, actor, { params }) => {
   const plateId = parseId((await params).plateId, 'plate');
   const query = plateExportQuerySchema.parse(Object.fromEntries(request.nextUrl.searchParams));
-  const { label, document } = await plateExport(actor, plateId);
+  // A csv file holds one table: only that table is made (the wells alone compute no forecast).
+  const { label, document } = await plateExport(
+    actor,
+    plateId,
+    query.format === 'csv' ? [query.table!] : undefined,
+  );
   return auditedExportResponse(actor, document, query, `gatewell-plate-${label}`, {
     entityType: 'plate',
     entityId: plateId,
