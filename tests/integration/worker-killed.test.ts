@@ -31,6 +31,7 @@ import { demoCommitRequest } from '../support/demo-plates';
 import { makeDemoScreens } from '../support/demo-scenario';
 import { fitsCurrent } from '../support/jobs';
 import { holdLocks, type LockHolder } from '../support/lock-holder';
+import { pollFor } from '../support/test-cluster';
 
 const rows = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
   db().query<T>(sql, { type: QueryTypes.SELECT, replacements });
@@ -187,10 +188,14 @@ describe('a worker killed in the middle of a job', () => {
         message: '5 fit(s) computed.',
         worker: expect.stringMatching(new RegExp(`:${second.pid}$`)),
       });
-      const [onQueue] = await rows<{ state: string; retries: number; output: unknown }>(
-        'select state::text, retry_count as retries from pgboss.job where id = :id',
-        { id: job!.id },
-      );
+      // The queue marks the job completed just after the handler has written its row: wait for that.
+      const onQueue = await pollFor(async () => {
+        const [row] = await rows<{ state: string; retries: number }>(
+          'select state::text, retry_count as retries from pgboss.job where id = :id',
+          { id: job!.id },
+        );
+        return row?.state === 'active' ? undefined : row;
+      }, 'the queue kept the retried fit job active');
       expect(onQueue).toMatchObject({ state: 'completed', retries: 1 });
     },
   );
